@@ -1,0 +1,71 @@
+/**
+ * Assertion helpers for the physics tests: every check states its source and prints the
+ * inputs, the value, the expectation and the tolerance when it fails.
+ */
+import { expect } from 'vitest';
+
+/** Where an expected value comes from. */
+export type Source = string;
+
+/** Format inputs for a failure message. */
+function fmt(inputs: unknown): string {
+  return JSON.stringify(inputs, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? String(v) : v));
+}
+
+/**
+ * Check |value − expected| ≤ absTol + relTol·|expected|.
+ * @param value computed value
+ * @param expected expected value
+ * @param tol absolute and/or relative tolerance
+ * @param source where the expectation comes from (published source, "computed", …)
+ * @param inputs inputs of the computation, printed on failure
+ */
+export function checkClose(
+  value: number,
+  expected: number,
+  tol: { abs?: number; rel?: number },
+  source: Source,
+  inputs: unknown = {},
+): void {
+  const allowed = (tol.abs ?? 0) + (tol.rel ?? 0) * Math.abs(expected);
+  const err = Math.abs(value - expected);
+  const ok = Number.isFinite(value) && err <= allowed;
+  expect(
+    ok,
+    `[${source}] inputs ${fmt(inputs)}: got ${value}, expected ${expected}, |error| ${err.toExponential(3)} > tolerance ${allowed.toExponential(3)} (abs ${tol.abs ?? 0}, rel ${tol.rel ?? 0})`,
+  ).toBe(true);
+}
+
+/**
+ * Check lo ≤ value ≤ hi.
+ * @param value computed value
+ * @param lo lower bound
+ * @param hi upper bound
+ * @param source where the range comes from
+ * @param inputs inputs, printed on failure
+ */
+export function checkRange(value: number, lo: number, hi: number, source: Source, inputs: unknown = {}): void {
+  expect(
+    Number.isFinite(value) && value >= lo && value <= hi,
+    `[${source}] inputs ${fmt(inputs)}: got ${value}, expected within [${lo}, ${hi}]`,
+  ).toBe(true);
+}
+
+/**
+ * Check a boolean condition with a descriptive message.
+ * @param ok the condition
+ * @param source where the expectation comes from
+ * @param message what was expected, with values
+ */
+export function checkThat(ok: boolean, source: Source, message: string): void {
+  expect(ok, `[${source}] ${message}`).toBe(true);
+}
+
+/** A typical passenger-car corner (demo values in the physics.md §6 ranges). */
+export const CAR = Object.freeze({
+  sprungMassKg: 400,
+  unsprungMassKg: 45,
+  springRateNPerM: 22000,
+  dampingNsPerM: 1800,
+  tireRateNPerM: 200000,
+});

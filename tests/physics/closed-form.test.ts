@@ -1,0 +1,107 @@
+import { describe, it } from 'vitest';
+import { prepareDuty, dutyOnRoad, ratedLifeEnergyJ, type DutyResult } from '../../server/physics/closed-form';
+import { cornerTransfer } from '../../server/physics/quarter-car';
+import { wkWeight } from '../../server/physics/exposure';
+import { synthesizeProfile, gdForClass, ISO8608_N0 } from '../../server/physics/iso8608';
+import { simulateProfile } from '../../server/physics/simulate';
+import { checkClose, CAR } from './check';
+import type { CornerParams } from '../../server/physics/types';
+
+const VAN: CornerParams = { sprungMassKg: 700, unsprungMassKg: 65, springRateNPerM: 55000, dampingNsPerM: 3500, tireRateNPerM: 300000 };
+const KEYS = ['rmsBodyAccel', 'rmsWeightedAccel', 'rmsSuspensionTravel', 'rmsRelativeVelocity', 'rmsTireLoadRatio', 'damperPowerW', 'damperEnergyJPerKm'] as const;
+
+/** ∫₀^∞ g(f) df on a log grid (Simpson in ln f) from 1e-4 Hz to 1e7 Hz. */
+function integrateLog(g: (f: number) => number): number {
+  const a = Math.log(1e-4);
+  const b = Math.log(1e7); // tyre load tends to kt·zr at high f, so its tail falls only as 1/f
+  const n = 40000;
+  const h = (b - a) / n;
+  let s = 0;
+  for (let i = 0; i <= n; i++) {
+    const f = Math.exp(a + i * h);
+    const w = i === 0 || i === n ? 1 : i % 2 ? 4 : 2;
+    s += w * g(f) * f;
+  }
+  return (s * h) / 3;
+}
+
+describe('closed-form duty (Lyapunov)', () => {
+  it('when compared with direct frequency integration of |H|²·Gz, then every variance agrees (computed)', () => {
+    for (const [c, v] of [[CAR, 80 / 3.6], [VAN, 50 / 3.6]] as const) {
+      const gd = 256e-6;
+      const d = dutyOnRoad(prepareDuty(c, v), gd);
+      // road displacement PSD in time frequency: Gz(f) = Gd(n0)·n0²·v / f²
+      const gz = (f: number): number => (gd * ISO8608_N0 * ISO8608_N0 * v) / (f * f);
+      const sq = (p: [number, number]): number => p[0] * p[0] + p[1] * p[1];
+      const w = (c.sprungMassKg + c.unsprungMassKg) * 9.80665;
+      const ref: Record<string, number> = {
+        rmsBodyAccel: Math.sqrt(integrateLog((f) => sq(cornerTransfer(c, f).bodyAccel) * gz(f))),
+        rmsWeightedAccel: Math.sqrt(integrateLog((f) => wkWeight(f) ** 2 * sq(cornerTransfer(c, f).bodyAccel) * gz(f))),
+        rmsSuspensionTravel: Math.sqrt(integrateLog((f) => sq(cornerTransfer(c, f).suspensionTravel) * gz(f))),
+        rmsRelativeVelocity: Math.sqrt(integrateLog((f) => sq(cornerTransfer(c, f).relativeVelocity) * gz(f))),
+        rmsTireLoadRatio: Math.sqrt(integrateLog((f) => sq(cornerTransfer(c, f).tireLoad) * gz(f))) / w,
+      };
+      for (const k of Object.keys(ref) as (keyof DutyResult)[]) {
+        checkClose(d[k], ref[k], { rel: 1e-5 }, 'computed: direct frequency integration', { corner: c, speedMps: v, gd, k });
+      }
+    }
+  });
+
+  it('when compared with a long time-domain simulation of a synthesised road, then all outputs agree within 2 % (computed)', () => {
+    for (const [c, kmh, seed] of [[CAR, 80, 3], [VAN, 50, 4]] as const) {
+      const v = kmh / 3.6;
+      const gd = gdForClass('C');
+      const dx = v * 0.002; // 2 ms step keeps the road's linear interpolation loss < 0.5 % at wheel hop
+      const z = synthesizeProfile({ gdN0: gd, lengthM: 8000, dxM: dx, seed });
+      const sim = simulateProfile(c, z, dx, v, { weighted: true, warmupM: 200 });
+      const cf = dutyOnRoad(prepareDuty(c, v), gd);
+      for (const k of KEYS) {
+        const tol = k === 'damperPowerW' || k === 'damperEnergyJPerKm' ? 0.04 : 0.02; // power is a variance: 2 % on RMS ≈ 4 %
+        checkClose(sim[k], cf[k], { rel: tol }, 'computed: time domain vs closed form', { corner: c, kmh, gd, dx, seed, k });
+      }
+    }
+  });
+
+  it('when Gd(n0) is multiplied by 4, then variances (and power) scale by 4 and RMS by 2 (property, physics.md §2)', () => {
+    const p = prepareDuty(CAR, 70 / 3.6);
+    const a = dutyOnRoad(p, 64e-6);
+    const b = dutyOnRoad(p, 256e-6);
+    for (const k of KEYS) {
+      const factor = k === 'damperPowerW' || k === 'damperEnergyJPerKm' ? 4 : 2;
+      checkClose(b[k], factor * a[k], { rel: 1e-12 }, 'property: variance linear in Gd(n0)', { k });
+    }
+  });
+
+  it('when speed doubles on a w = 2 road, then variances double (property, physics.md §2: linear in Gd(n0)·v)', () => {
+    const a = dutyOnRoad(prepareDuty(CAR, 10), 100e-6);
+    const b = dutyOnRoad(prepareDuty(CAR, 20), 100e-6);
+    checkClose(b.rmsSuspensionTravel, Math.SQRT2 * a.rmsSuspensionTravel, { rel: 1e-9 }, 'property', {});
+    checkClose(b.damperPowerW, 2 * a.damperPowerW, { rel: 1e-9 }, 'property', {});
+    // energy per km = power / v: unchanged by speed on w = 2 roads
+    checkClose(b.damperEnergyJPerKm, a.damperEnergyJPerKm, { rel: 1e-9 }, 'property', {});
+  });
+
+  it('when the road is perfectly smooth (Gd = 0), then every output is zero (property)', () => {
+    const d = dutyOnRoad(prepareDuty(CAR, 20), 0);
+    for (const k of KEYS) checkClose(d[k], 0, { abs: 0 }, 'property: zero road', { k });
+  });
+
+  it('when the rated life energy is computed with defaults, then it is 90 000 km × energy per km on class B at 80 km/h (product.md §3)', () => {
+    const perKm = dutyOnRoad(prepareDuty(CAR, 80 / 3.6), 64e-6).damperEnergyJPerKm;
+    checkClose(ratedLifeEnergyJ(CAR), 90000 * perKm, { rel: 1e-12 }, 'product.md §3 default rating', CAR);
+    checkClose(ratedLifeEnergyJ(CAR, { km: 45000 }), 45000 * perKm, { rel: 1e-12 }, 'product.md §3', CAR);
+  });
+
+  it('when Gd is negative or not a number, then the error names gdN0 and m³', () => {
+    const p = prepareDuty(CAR, 20);
+    for (const bad of [-1e-6, Number.NaN]) {
+      let msg = '';
+      try {
+        dutyOnRoad(p, bad);
+      } catch (e) {
+        msg = (e as Error).message;
+      }
+      checkClose(msg.includes('gdN0') && msg.includes('[m³]') ? 1 : 0, 1, { abs: 0 }, 'house rule: error names parameter and unit', { bad, msg });
+    }
+  });
+});
