@@ -1,0 +1,122 @@
+import express, { Router, type Express } from 'express';
+import session from 'express-session';
+import connectSessionSequelize from 'connect-session-sequelize';
+import cookieParser from 'cookie-parser';
+import passport from 'passport';
+import { doubleCsrf } from 'csrf-csrf';
+import path from 'node:path';
+import fs from 'node:fs';
+import type { Config } from './config';
+import type { Db } from './db';
+import { AppError, errorHandler } from './errors';
+import type { Logger } from './logger';
+import { configurePassport, defaultAuthOptions, registerAuthRoutes, type AuthOptions } from './auth/routes';
+import { registerUserRoutes } from './users/routes';
+import { registerFleetRoutes } from './fleet/routes';
+import { open } from './http/access';
+
+export interface AppDeps {
+  config: Config;
+  db: Db;
+  log: Logger;
+  /** The app's clock; tests pass a fixed one. */
+  now?: () => Date;
+  auth?: Partial<AuthOptions>;
+  /** Folder of the built web client; served with a fallback to index.html when present. */
+  webDir?: string;
+}
+
+export interface BuiltApp {
+  app: Express;
+  /** The router holding every /api route, for the role-access test. */
+  api: Router;
+  close(): void;
+}
+
+/** Builds the Express app without listening, so tests and `main.ts` share it. */
+export function createApp(deps: AppDeps): BuiltApp {
+  const { config, db, log } = deps;
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+
+  const SequelizeStore = connectSessionSequelize(session.Store);
+  const store = new SequelizeStore({
+    db: db.sequelize,
+    tableName: 'sessions',
+    checkExpirationInterval: 15 * 60 * 1000,
+    expiration: 7 * 24 * 60 * 60 * 1000,
+  });
+
+  app.use((_req, res, next) => {
+    res.setHeader('X-Content-Type-Options', 'nosniff');
+    res.setHeader('Referrer-Policy', 'same-origin');
+    res.setHeader('X-Frame-Options', 'DENY');
+    next();
+  });
+  app.use(express.json({ limit: '2mb' }));
+  app.use(cookieParser());
+  app.use(
+    session({
+      name: config.production ? '__Host-rb.sid' : 'rb.sid',
+      secret: config.sessionSecret,
+      store,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: {
+        httpOnly: true,
+        sameSite: 'lax',
+        secure: config.production,
+        maxAge: 7 * 24 * 60 * 60 * 1000,
+        path: '/',
+      },
+    }),
+  );
+  configurePassport();
+  app.use(passport.session());
+
+  const { generateCsrfToken, doubleCsrfProtection } = doubleCsrf({
+    getSecret: () => config.sessionSecret,
+    getSessionIdentifier: (req) => req.session.id,
+    cookieName: config.production ? '__Host-rb.csrf' : 'rb.csrf',
+    cookieOptions: { sameSite: 'strict', secure: config.production, httpOnly: true, path: '/' },
+    getCsrfTokenFromRequest: (req) => req.headers['x-csrf-token'],
+    errorConfig: { statusCode: 403, code: 'csrf_invalid', message: 'The form token is missing or stale. Reload the page and try again.' },
+  });
+
+  const api = Router();
+  api.use(doubleCsrfProtection);
+  api.get('/health', open, (_req, res) => {
+    res.json({ ok: true });
+  });
+  registerAuthRoutes(api, { csrfToken: (req, res) => generateCsrfToken(req, res), options: { ...defaultAuthOptions, ...deps.auth } });
+  registerUserRoutes(api);
+  registerFleetRoutes(api);
+  api.use((req, _res, next) => next(AppError.notFound(`The API address ${req.method} ${req.originalUrl}`)));
+
+  app.use('/api', api);
+
+  const webDir = deps.webDir;
+  if (webDir && fs.existsSync(path.join(webDir, 'index.html'))) {
+    app.use(express.static(webDir, { index: false, maxAge: '1h' }));
+    app.get(/^\/(?!api\/).*/, (_req, res) => {
+      res.sendFile(path.join(webDir, 'index.html'));
+    });
+  }
+
+  app.use((err: unknown, req: express.Request, res: express.Response, next: express.NextFunction) => {
+    const e = err as { code?: string };
+    if (e?.code === 'EBADCSRFTOKEN' || e?.code === 'csrf_invalid') {
+      return next(new AppError(403, 'csrf_invalid', 'The form token is missing or stale. Reload the page and try again.'));
+    }
+    next(err);
+  });
+  app.use(errorHandler(log, config.production));
+
+  return {
+    app,
+    api,
+    close: () => store.stopExpiringSessions(),
+  };
+}

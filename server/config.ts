@@ -1,0 +1,79 @@
+import { z } from 'zod';
+import path from 'node:path';
+
+/** Development-only session secret; refused when NODE_ENV=production. */
+export const DEV_SESSION_SECRET = 'reboundry-dev-secret-change-me-0000';
+
+const bool = z
+  .enum(['true', 'false', '1', '0', 'yes', 'no'], { message: 'must be true or false' })
+  .transform((v) => v === 'true' || v === '1' || v === 'yes');
+
+const schema = z
+  .object({
+    NODE_ENV: z.enum(['development', 'production', 'test'], { message: 'must be development, production or test' }).default('development'),
+    PORT: z.coerce.number({ message: 'must be a number' }).int('must be a whole number').min(0).max(65535).default(3000),
+    HOST: z.string().min(1).default('0.0.0.0'),
+    PUBLIC_URL: z.url({ message: 'must be a URL such as http://localhost:3000' }).optional(),
+    DATA_DIR: z.string().min(1).default('./data'),
+    SESSION_SECRET: z.string().min(16, 'must be at least 16 characters').default(DEV_SESSION_SECRET),
+    SEED_DEMO: bool.optional(),
+    TZ: z.string().min(1).default('UTC'),
+    SMTP_URL: z
+      .string()
+      .regex(/^smtps?:\/\//, 'must start with smtp:// or smtps://')
+      .optional(),
+    SMTP_FROM: z.string().min(3).default('Reboundry <no-reply@reboundry.test>'),
+    FAKE_SMTP_PORT: z.coerce.number({ message: 'must be a number' }).int().min(0).max(65535).default(2525),
+    MAP_TILE_URL: z
+      .string()
+      .regex(/\{z\}.*\{x\}.*\{y\}|\{z\}.*\{y\}.*\{x\}/, 'must contain {z}, {x} and {y}')
+      .optional(),
+    MAP_TILE_ATTRIBUTION: z.string().default(''),
+    NIGHTLY_CRON: z.string().min(9).default('30 2 * * *'),
+    LOG_LEVEL: z.enum(['silent', 'error', 'warn', 'info', 'debug']).default('info'),
+  })
+  .transform((c) => ({
+    nodeEnv: c.NODE_ENV,
+    production: c.NODE_ENV === 'production',
+    port: c.PORT,
+    host: c.HOST,
+    publicUrl: (c.PUBLIC_URL ?? `http://localhost:${c.PORT}`).replace(/\/$/, ''),
+    dataDir: path.resolve(c.DATA_DIR),
+    sessionSecret: c.SESSION_SECRET,
+    seedDemo: c.SEED_DEMO ?? c.NODE_ENV !== 'production',
+    timeZone: c.TZ,
+    smtpUrl: c.SMTP_URL,
+    smtpFrom: c.SMTP_FROM,
+    fakeSmtpPort: c.FAKE_SMTP_PORT,
+    mapTileUrl: c.MAP_TILE_URL,
+    mapTileAttribution: c.MAP_TILE_ATTRIBUTION,
+    nightlyCron: c.NIGHTLY_CRON,
+    logLevel: c.LOG_LEVEL,
+  }));
+
+export type Config = z.output<typeof schema>;
+
+export class ConfigError extends Error {
+  constructor(public readonly problems: string[]) {
+    super(`Invalid configuration:\n${problems.map((p) => `  - ${p}`).join('\n')}`);
+    this.name = 'ConfigError';
+  }
+}
+
+/**
+ * Parses and validates the environment once. Empty strings count as unset so that a
+ * copied `.env.example` with blank optional keys still starts.
+ */
+export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+  const cleaned: Record<string, string> = {};
+  for (const [k, v] of Object.entries(env)) if (v !== undefined && v !== '') cleaned[k] = v;
+  const parsed = schema.safeParse(cleaned);
+  if (!parsed.success) {
+    throw new ConfigError(parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`));
+  }
+  const config = parsed.data;
+  if (config.production && config.sessionSecret === DEV_SESSION_SECRET) {
+    throw new ConfigError(['SESSION_SECRET: the development default is refused in production; set a long random value']);
+  }
+  return config;
+}

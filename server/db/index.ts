@@ -1,0 +1,67 @@
+import { Sequelize, Transaction, type QueryInterface } from 'sequelize';
+import { Umzug, SequelizeStorage, type RunnableMigration } from 'umzug';
+import path from 'node:path';
+import fs from 'node:fs';
+import { initModels } from './models';
+import * as m0001 from './migrations/0001-initial';
+
+export interface Db {
+  sequelize: Sequelize;
+  file: string;
+  close(): Promise<void>;
+}
+
+/** Every migration, in order. Add new ones at the end; never edit one that has shipped. */
+export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [{ name: '0001-initial', up: m0001.up, down: m0001.down }];
+
+/**
+ * Opens the SQLite database file (created if missing), switches it to WAL mode and registers
+ * the models. Call {@link migrate} before use.
+ */
+export async function openDb(file: string, opts: { log?: (sql: string) => void } = {}): Promise<Db> {
+  fs.mkdirSync(path.dirname(file), { recursive: true });
+  const sequelize = new Sequelize({
+    dialect: 'sqlite',
+    storage: file,
+    logging: opts.log ?? false,
+    // IMMEDIATE takes the write lock at BEGIN, so two writers wait instead of deadlocking.
+    transactionType: Transaction.TYPES.IMMEDIATE,
+    define: { underscored: true },
+  });
+  // Every sqlite3 connection (Sequelize opens one per transaction) waits for the lock rather
+  // than failing at once with SQLITE_BUSY.
+  const cm = sequelize.connectionManager as unknown as {
+    getConnection: (o?: unknown) => Promise<{ configure(k: 'busyTimeout', ms: number): void; __rb?: boolean }>;
+  };
+  const getConnection = cm.getConnection.bind(cm);
+  cm.getConnection = async (o?: unknown) => {
+    const conn = await getConnection(o);
+    if (!conn.__rb) {
+      conn.configure('busyTimeout', 15000);
+      conn.__rb = true;
+    }
+    return conn;
+  };
+  await sequelize.query('PRAGMA journal_mode = WAL');
+  await sequelize.query('PRAGMA synchronous = NORMAL');
+  initModels(sequelize);
+  return { sequelize, file, close: () => sequelize.close() };
+}
+
+export function migrator(db: Db) {
+  return new Umzug({
+    migrations: MIGRATIONS,
+    context: db.sequelize.getQueryInterface(),
+    storage: new SequelizeStorage({ sequelize: db.sequelize, tableName: 'schema_migrations' }),
+    logger: undefined,
+  });
+}
+
+/** Applies every pending migration. */
+export async function migrate(db: Db) {
+  return migrator(db).up();
+}
+
+export function dbFile(dataDir: string) {
+  return path.join(dataDir, 'reboundry.sqlite');
+}

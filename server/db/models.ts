@@ -1,0 +1,393 @@
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type ForeignKey,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
+
+export const ROLES = ['manager', 'mechanic', 'driver'] as const;
+export type Role = (typeof ROLES)[number];
+export const VEHICLE_STATUSES = ['in_service', 'workshop', 'retired'] as const;
+export type VehicleStatus = (typeof VEHICLE_STATUSES)[number];
+export const ROUGHNESS_SOURCES = ['survey', 'stated', 'driver_report'] as const;
+export type RoughnessSource = (typeof ROUGHNESS_SOURCES)[number];
+export const INSPECTION_STATUSES = ['scheduled', 'due', 'overdue', 'done', 'cancelled'] as const;
+export type InspectionStatus = (typeof INSPECTION_STATUSES)[number];
+
+type Attrs<M extends Model> = InferAttributes<M>;
+type CAttrs<M extends Model> = InferCreationAttributes<M>;
+
+export class User extends Model<Attrs<User>, CAttrs<User>> {
+  declare id: CreationOptional<number>;
+  declare name: string;
+  declare email: string;
+  declare role: Role;
+  declare passwordHash: string;
+  declare active: CreationOptional<boolean>;
+  declare depotId: ForeignKey<number> | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Depot extends Model<Attrs<Depot>, CAttrs<Depot>> {
+  declare id: CreationOptional<number>;
+  declare name: string;
+  declare address: string | null;
+  declare lat: number;
+  declare lon: number;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class SuspensionSpec extends Model<Attrs<SuspensionSpec>, CAttrs<SuspensionSpec>> {
+  declare id: CreationOptional<number>;
+  declare name: string;
+  declare vehicleClass: string;
+  declare description: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+  declare axles?: SpecAxle[];
+}
+
+export class SpecAxle extends Model<Attrs<SpecAxle>, CAttrs<SpecAxle>> {
+  declare id: CreationOptional<number>;
+  declare specId: ForeignKey<number>;
+  declare axleIndex: number;
+  declare label: string;
+  declare sprungMassKg: number;
+  declare unsprungMassKg: number;
+  declare springRateNPerM: number;
+  declare dampingNsPerM: number;
+  declare tireRateNPerM: number;
+  declare ratedDamperLifeKm: CreationOptional<number>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Vehicle extends Model<Attrs<Vehicle>, CAttrs<Vehicle>> {
+  declare id: CreationOptional<number>;
+  declare fleetNumber: string;
+  declare plate: string;
+  declare specId: ForeignKey<number>;
+  declare depotId: ForeignKey<number>;
+  declare driverId: ForeignKey<number> | null;
+  declare odometerKm: CreationOptional<number>;
+  declare status: CreationOptional<VehicleStatus>;
+  declare commissionedAt: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Damper extends Model<Attrs<Damper>, CAttrs<Damper>> {
+  declare id: CreationOptional<number>;
+  declare vehicleId: ForeignKey<number>;
+  declare position: string;
+  declare axleIndex: number;
+  declare partNumber: string | null;
+  declare installedAt: string;
+  declare installedOdometerKm: number;
+  declare removedAt: CreationOptional<string | null>;
+  declare removedOdometerKm: CreationOptional<number | null>;
+  declare removalReason: CreationOptional<string | null>;
+  declare removedByWorkRecordId: ForeignKey<number> | null;
+  declare energyJ: CreationOptional<number>;
+  declare fatigueDamage: CreationOptional<number>;
+  declare lifeUsedFraction: CreationOptional<number>;
+  declare dampingNsPerM: CreationOptional<number | null>;
+  declare wearUpdatedAt: CreationOptional<Date | null>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Route extends Model<Attrs<Route>, CAttrs<Route>> {
+  declare id: CreationOptional<number>;
+  declare name: string;
+  declare description: string | null;
+  declare depotId: ForeignKey<number> | null;
+  /** GeoJSON LineString, as text. */
+  declare geometry: string;
+  declare lengthM: number;
+  declare defaultSpeedKmh: CreationOptional<number>;
+  declare segmentLengthM: CreationOptional<number>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class RouteSegment extends Model<Attrs<RouteSegment>, CAttrs<RouteSegment>> {
+  declare id: CreationOptional<number>;
+  declare routeId: ForeignKey<number>;
+  declare seq: number;
+  declare startM: number;
+  declare endM: number;
+  /** `[[lon, lat], ...]` as JSON text. */
+  declare geometry: string;
+  declare speedKmh: number | null;
+  declare iri: CreationOptional<number | null>;
+  declare gdN0: CreationOptional<number | null>;
+  declare isoClass: CreationOptional<string | null>;
+  declare roughnessSource: CreationOptional<RoughnessSource | null>;
+  declare roughnessDate: CreationOptional<string | null>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class RoughnessObservation extends Model<Attrs<RoughnessObservation>, CAttrs<RoughnessObservation>> {
+  declare id: CreationOptional<number>;
+  declare segmentId: ForeignKey<number>;
+  declare iri: number | null;
+  declare gdN0: number | null;
+  declare isoClass: string | null;
+  declare source: RoughnessSource;
+  declare observedOn: string;
+  declare recordedById: ForeignKey<number> | null;
+  declare note: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Trip extends Model<Attrs<Trip>, CAttrs<Trip>> {
+  declare id: CreationOptional<number>;
+  declare vehicleId: ForeignKey<number>;
+  declare routeId: ForeignKey<number>;
+  declare driverId: ForeignKey<number> | null;
+  declare startedAt: Date;
+  declare endedAt: Date;
+  declare distanceKm: number;
+  declare meanSpeedKmh: number;
+  declare payloadKg: number | null;
+  declare processedAt: CreationOptional<Date | null>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class Inspection extends Model<Attrs<Inspection>, CAttrs<Inspection>> {
+  declare id: CreationOptional<number>;
+  declare vehicleId: ForeignKey<number>;
+  declare dueDate: string;
+  declare status: InspectionStatus;
+  declare reason: string;
+  declare assigneeId: ForeignKey<number> | null;
+  declare completedAt: Date | null;
+  declare odometerKm: number | null;
+  declare notes: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export class WorkRecord extends Model<Attrs<WorkRecord>, CAttrs<WorkRecord>> {
+  declare id: CreationOptional<number>;
+  declare vehicleId: ForeignKey<number>;
+  declare inspectionId: ForeignKey<number> | null;
+  declare mechanicId: ForeignKey<number> | null;
+  declare performedAt: Date;
+  declare odometerKm: number;
+  declare summary: string;
+  declare partsCost: number | null;
+  declare labourHours: number | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+const ts = {
+  createdAt: { type: DataTypes.DATE, allowNull: false },
+  updatedAt: { type: DataTypes.DATE, allowNull: false },
+};
+const pk = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true };
+
+/** Registers every model and association on a Sequelize instance (the schema itself comes from migrations). */
+export function initModels(sequelize: Sequelize) {
+  const common = { sequelize, underscored: true };
+  User.init(
+    {
+      id: pk,
+      name: { type: DataTypes.STRING(120), allowNull: false },
+      email: { type: DataTypes.STRING(254), allowNull: false, unique: true },
+      role: { type: DataTypes.STRING(16), allowNull: false },
+      passwordHash: { type: DataTypes.STRING(100), allowNull: false },
+      active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+      depotId: { type: DataTypes.INTEGER, allowNull: true },
+      ...ts,
+    },
+    { ...common, tableName: 'users' },
+  );
+  Depot.init(
+    {
+      id: pk,
+      name: { type: DataTypes.STRING(120), allowNull: false, unique: true },
+      address: { type: DataTypes.STRING(240), allowNull: true },
+      lat: { type: DataTypes.DOUBLE, allowNull: false },
+      lon: { type: DataTypes.DOUBLE, allowNull: false },
+      ...ts,
+    },
+    { ...common, tableName: 'depots' },
+  );
+  SuspensionSpec.init(
+    {
+      id: pk,
+      name: { type: DataTypes.STRING(120), allowNull: false, unique: true },
+      vehicleClass: { type: DataTypes.STRING(40), allowNull: false },
+      description: { type: DataTypes.TEXT, allowNull: true },
+      ...ts,
+    },
+    { ...common, tableName: 'suspension_specs' },
+  );
+  SpecAxle.init(
+    {
+      id: pk,
+      axleIndex: { type: DataTypes.INTEGER, allowNull: false },
+      label: { type: DataTypes.STRING(40), allowNull: false },
+      sprungMassKg: { type: DataTypes.DOUBLE, allowNull: false },
+      unsprungMassKg: { type: DataTypes.DOUBLE, allowNull: false },
+      springRateNPerM: { type: DataTypes.DOUBLE, allowNull: false },
+      dampingNsPerM: { type: DataTypes.DOUBLE, allowNull: false },
+      tireRateNPerM: { type: DataTypes.DOUBLE, allowNull: false },
+      ratedDamperLifeKm: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 90000 },
+      ...ts,
+    },
+    { ...common, tableName: 'spec_axles' },
+  );
+  Vehicle.init(
+    {
+      id: pk,
+      fleetNumber: { type: DataTypes.STRING(20), allowNull: false, unique: true },
+      plate: { type: DataTypes.STRING(20), allowNull: false, unique: true },
+      odometerKm: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
+      status: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'in_service' },
+      commissionedAt: { type: DataTypes.DATEONLY, allowNull: true },
+      ...ts,
+    },
+    { ...common, tableName: 'vehicles' },
+  );
+  Damper.init(
+    {
+      id: pk,
+      position: { type: DataTypes.STRING(4), allowNull: false },
+      axleIndex: { type: DataTypes.INTEGER, allowNull: false },
+      partNumber: { type: DataTypes.STRING(60), allowNull: true },
+      installedAt: { type: DataTypes.DATEONLY, allowNull: false },
+      installedOdometerKm: { type: DataTypes.DOUBLE, allowNull: false },
+      removedAt: { type: DataTypes.DATEONLY, allowNull: true },
+      removedOdometerKm: { type: DataTypes.DOUBLE, allowNull: true },
+      removalReason: { type: DataTypes.STRING(40), allowNull: true },
+      energyJ: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
+      fatigueDamage: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
+      lifeUsedFraction: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
+      dampingNsPerM: { type: DataTypes.DOUBLE, allowNull: true },
+      wearUpdatedAt: { type: DataTypes.DATE, allowNull: true },
+      ...ts,
+    },
+    { ...common, tableName: 'dampers' },
+  );
+  Route.init(
+    {
+      id: pk,
+      name: { type: DataTypes.STRING(120), allowNull: false, unique: true },
+      description: { type: DataTypes.TEXT, allowNull: true },
+      geometry: { type: DataTypes.TEXT, allowNull: false },
+      lengthM: { type: DataTypes.DOUBLE, allowNull: false },
+      defaultSpeedKmh: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 50 },
+      segmentLengthM: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 100 },
+      ...ts,
+    },
+    { ...common, tableName: 'routes' },
+  );
+  RouteSegment.init(
+    {
+      id: pk,
+      seq: { type: DataTypes.INTEGER, allowNull: false },
+      startM: { type: DataTypes.DOUBLE, allowNull: false },
+      endM: { type: DataTypes.DOUBLE, allowNull: false },
+      geometry: { type: DataTypes.TEXT, allowNull: false },
+      speedKmh: { type: DataTypes.DOUBLE, allowNull: true },
+      iri: { type: DataTypes.DOUBLE, allowNull: true },
+      gdN0: { type: DataTypes.DOUBLE, allowNull: true, field: 'gd_n0' },
+      isoClass: { type: DataTypes.STRING(1), allowNull: true },
+      roughnessSource: { type: DataTypes.STRING(20), allowNull: true },
+      roughnessDate: { type: DataTypes.DATEONLY, allowNull: true },
+      ...ts,
+    },
+    { ...common, tableName: 'route_segments' },
+  );
+  RoughnessObservation.init(
+    {
+      id: pk,
+      iri: { type: DataTypes.DOUBLE, allowNull: true },
+      gdN0: { type: DataTypes.DOUBLE, allowNull: true, field: 'gd_n0' },
+      isoClass: { type: DataTypes.STRING(1), allowNull: true },
+      source: { type: DataTypes.STRING(20), allowNull: false },
+      observedOn: { type: DataTypes.DATEONLY, allowNull: false },
+      note: { type: DataTypes.STRING(240), allowNull: true },
+      ...ts,
+    },
+    { ...common, tableName: 'roughness_observations' },
+  );
+  Trip.init(
+    {
+      id: pk,
+      startedAt: { type: DataTypes.DATE, allowNull: false },
+      endedAt: { type: DataTypes.DATE, allowNull: false },
+      distanceKm: { type: DataTypes.DOUBLE, allowNull: false },
+      meanSpeedKmh: { type: DataTypes.DOUBLE, allowNull: false },
+      payloadKg: { type: DataTypes.DOUBLE, allowNull: true },
+      processedAt: { type: DataTypes.DATE, allowNull: true },
+      ...ts,
+    },
+    { ...common, tableName: 'trips' },
+  );
+  Inspection.init(
+    {
+      id: pk,
+      dueDate: { type: DataTypes.DATEONLY, allowNull: false },
+      status: { type: DataTypes.STRING(16), allowNull: false },
+      reason: { type: DataTypes.TEXT, allowNull: false },
+      completedAt: { type: DataTypes.DATE, allowNull: true },
+      odometerKm: { type: DataTypes.DOUBLE, allowNull: true },
+      notes: { type: DataTypes.TEXT, allowNull: true },
+      ...ts,
+    },
+    { ...common, tableName: 'inspections' },
+  );
+  WorkRecord.init(
+    {
+      id: pk,
+      performedAt: { type: DataTypes.DATE, allowNull: false },
+      odometerKm: { type: DataTypes.DOUBLE, allowNull: false },
+      summary: { type: DataTypes.TEXT, allowNull: false },
+      partsCost: { type: DataTypes.DOUBLE, allowNull: true },
+      labourHours: { type: DataTypes.DOUBLE, allowNull: true },
+      ...ts,
+    },
+    { ...common, tableName: 'work_records' },
+  );
+
+  User.belongsTo(Depot, { as: 'depot', foreignKey: 'depotId' });
+  SuspensionSpec.hasMany(SpecAxle, { as: 'axles', foreignKey: 'specId' });
+  SpecAxle.belongsTo(SuspensionSpec, { as: 'spec', foreignKey: 'specId' });
+  Vehicle.belongsTo(SuspensionSpec, { as: 'spec', foreignKey: 'specId' });
+  Vehicle.belongsTo(Depot, { as: 'depot', foreignKey: 'depotId' });
+  Vehicle.belongsTo(User, { as: 'driver', foreignKey: 'driverId' });
+  SuspensionSpec.hasMany(Vehicle, { as: 'vehicles', foreignKey: 'specId' });
+  Depot.hasMany(Vehicle, { as: 'vehicles', foreignKey: 'depotId' });
+  Vehicle.hasMany(Damper, { as: 'dampers', foreignKey: 'vehicleId' });
+  Damper.belongsTo(Vehicle, { as: 'vehicle', foreignKey: 'vehicleId' });
+  Damper.belongsTo(WorkRecord, { as: 'removedBy', foreignKey: 'removedByWorkRecordId' });
+  Route.belongsTo(Depot, { as: 'depot', foreignKey: 'depotId' });
+  Route.hasMany(RouteSegment, { as: 'segments', foreignKey: 'routeId' });
+  RouteSegment.belongsTo(Route, { as: 'route', foreignKey: 'routeId' });
+  RouteSegment.hasMany(RoughnessObservation, { as: 'observations', foreignKey: 'segmentId' });
+  RoughnessObservation.belongsTo(RouteSegment, { as: 'segment', foreignKey: 'segmentId' });
+  RoughnessObservation.belongsTo(User, { as: 'recordedBy', foreignKey: 'recordedById' });
+  Trip.belongsTo(Vehicle, { as: 'vehicle', foreignKey: 'vehicleId' });
+  Trip.belongsTo(Route, { as: 'route', foreignKey: 'routeId' });
+  Trip.belongsTo(User, { as: 'driver', foreignKey: 'driverId' });
+  Vehicle.hasMany(Trip, { as: 'trips', foreignKey: 'vehicleId' });
+  Inspection.belongsTo(Vehicle, { as: 'vehicle', foreignKey: 'vehicleId' });
+  Inspection.belongsTo(User, { as: 'assignee', foreignKey: 'assigneeId' });
+  Vehicle.hasMany(Inspection, { as: 'inspections', foreignKey: 'vehicleId' });
+  WorkRecord.belongsTo(Vehicle, { as: 'vehicle', foreignKey: 'vehicleId' });
+  WorkRecord.belongsTo(Inspection, { as: 'inspection', foreignKey: 'inspectionId' });
+  WorkRecord.belongsTo(User, { as: 'mechanic', foreignKey: 'mechanicId' });
+}

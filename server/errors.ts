@@ -1,0 +1,85 @@
+import type { ErrorRequestHandler } from 'express';
+import { ZodError } from 'zod';
+import type { Logger } from './logger';
+
+export interface ErrorBody {
+  error: { code: string; message: string; fields?: Record<string, string> };
+}
+
+/**
+ * The one error type of the app. `operational` errors are expected outcomes (bad input, not
+ * found, conflict) and their message is shown to the user; anything else is a bug and its
+ * details stay in the log.
+ */
+export class AppError extends Error {
+  constructor(
+    public readonly status: number,
+    public readonly code: string,
+    message: string,
+    public readonly fields?: Record<string, string>,
+    public readonly operational = true,
+  ) {
+    super(message);
+    this.name = 'AppError';
+  }
+
+  static badRequest(message: string, fields?: Record<string, string>) {
+    return new AppError(400, 'invalid_input', message, fields);
+  }
+  static unauthorized(message = 'Sign in to continue.') {
+    return new AppError(401, 'not_signed_in', message);
+  }
+  static forbidden(message = 'Your role does not give access to this.') {
+    return new AppError(403, 'forbidden', message);
+  }
+  static notFound(what: string) {
+    return new AppError(404, 'not_found', `${what} was not found.`);
+  }
+  static conflict(message: string, fields?: Record<string, string>) {
+    return new AppError(409, 'conflict', message, fields);
+  }
+}
+
+/** Turns zod issues into `{ field: message }`, using dotted paths (`axles.0.sprungMassKg`). */
+export function zodFields(err: ZodError): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const issue of err.issues) {
+    const key = issue.path.length ? issue.path.join('.') : '_';
+    if (!fields[key]) fields[key] = issue.message;
+  }
+  return fields;
+}
+
+export function toAppError(err: unknown): AppError {
+  if (err instanceof AppError) return err;
+  if (err instanceof ZodError) {
+    return AppError.badRequest('Some values are not valid.', zodFields(err));
+  }
+  const e = err as { name?: string; errors?: { path?: string; message?: string }[]; type?: string; status?: number };
+  if (e?.name === 'SequelizeUniqueConstraintError') {
+    const fields: Record<string, string> = {};
+    for (const item of e.errors ?? []) if (item.path) fields[item.path] = 'is already in use';
+    return AppError.conflict('A record with the same value already exists.', fields);
+  }
+  if (e?.name === 'SequelizeForeignKeyConstraintError') {
+    return AppError.conflict('This refers to a record that does not exist, or is still referred to by others.');
+  }
+  if (e?.type === 'entity.parse.failed') return AppError.badRequest('The request body is not valid JSON.');
+  if (e?.type === 'entity.too.large') return new AppError(413, 'too_large', 'The request body is too large.');
+  return new AppError(500, 'internal', 'Something went wrong on our side. The error has been logged.', undefined, false);
+}
+
+export function errorHandler(log: Logger, production: boolean): ErrorRequestHandler {
+  return (err, req, res, _next) => {
+    const appErr = toAppError(err);
+    if (!appErr.operational) {
+      log.error(`${req.method} ${req.originalUrl} failed`, err);
+    }
+    const body: ErrorBody = { error: { code: appErr.code, message: appErr.message } };
+    if (appErr.fields) body.error.fields = appErr.fields;
+    if (!production && !appErr.operational && err instanceof Error) {
+      body.error.message += ` (${err.message})`;
+    }
+    res.status(appErr.status).json(body);
+  };
+}

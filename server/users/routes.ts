@@ -1,0 +1,52 @@
+import type { Router } from 'express';
+import { z } from 'zod';
+import { ROLES } from '../db/models';
+import { allow, currentUser } from '../http/access';
+import { idParam, listQuery, paging, parse, queryBool } from '../http/validate';
+import { userService } from './service';
+
+const listSchema = listQuery(['name', 'email', 'role', 'createdAt'], 'name', {
+  q: z.string().trim().max(100).optional(),
+  role: z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` }).optional(),
+  active: queryBool.optional(),
+});
+
+export const passwordSchema = z.string().min(10, 'must be at least 10 characters').max(200, 'must be at most 200 characters');
+
+const createSchema = z
+  .object({
+    name: z.string().trim().min(1, 'is required').max(120),
+    email: z.email({ message: 'must be an e-mail address' }).max(254),
+    role: z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` }),
+    password: passwordSchema,
+    depotId: z.number().int().positive().nullable().optional(),
+  })
+  .strict();
+
+const patchSchema = z
+  .object({
+    name: z.string().trim().min(1, 'is required').max(120).optional(),
+    role: z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` }).optional(),
+    active: z.boolean({ message: 'must be true or false' }).optional(),
+    depotId: z.number().int().positive().nullable().optional(),
+  })
+  .strict()
+  .refine((p) => Object.keys(p).length > 0, { message: 'give at least one of name, role, active, depotId' });
+
+export function registerUserRoutes(r: Router) {
+  r.get('/users', allow('manager'), async (req, res) => {
+    const q = parse(listSchema, req.query, 'query');
+    res.json(await userService.list({ ...q, ...paging<'name' | 'email' | 'role' | 'createdAt'>(q) }));
+  });
+
+  r.post('/users', allow('manager'), async (req, res) => {
+    const body = parse(createSchema, req.body, 'body');
+    res.status(201).json({ user: await userService.create(body) });
+  });
+
+  r.patch('/users/:id', allow('manager'), async (req, res) => {
+    const { id } = parse(idParam, req.params, 'address');
+    const body = parse(patchSchema, req.body, 'body');
+    res.json({ user: await userService.update(currentUser(req).id, id, body) });
+  });
+}

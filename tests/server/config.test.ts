@@ -1,0 +1,39 @@
+import { describe, expect, it } from 'vitest';
+import { ConfigError, DEV_SESSION_SECRET, loadConfig } from '../../server/config';
+
+describe('configuration', () => {
+  it('when nothing is set, then every key has a working default', () => {
+    const c = loadConfig({});
+    expect(c.port).toBe(3000);
+    expect(c.dataDir).toMatch(/data$/);
+    expect(c.seedDemo).toBe(true);
+    expect(c.sessionSecret).toBe(DEV_SESSION_SECRET);
+    expect(c.smtpUrl).toBeUndefined();
+    expect(c.mapTileUrl).toBeUndefined();
+    expect(c.nightlyCron).toBe('30 2 * * *');
+  });
+
+  it('when a value is bad, then start-up fails with a message naming each bad key', () => {
+    let err: unknown;
+    try {
+      loadConfig({ PORT: 'eighty', SEED_DEMO: 'maybe', MAP_TILE_URL: 'https://tiles.example/a.png' });
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(ConfigError);
+    const msg = (err as Error).message;
+    expect(msg).toContain('PORT');
+    expect(msg).toContain('SEED_DEMO');
+    expect(msg).toContain('MAP_TILE_URL');
+  });
+
+  it('when production runs with the development secret, then it refuses to start', () => {
+    expect(() => loadConfig({ NODE_ENV: 'production' })).toThrow(/SESSION_SECRET/);
+    const ok = loadConfig({ NODE_ENV: 'production', SESSION_SECRET: 'x'.repeat(40) });
+    expect(ok.seedDemo).toBe(false);
+  });
+
+  it('when keys are blank, as in a copied .env.example, then defaults apply', () => {
+    expect(loadConfig({ PORT: '', SMTP_URL: '' }).port).toBe(3000);
+  });
+});

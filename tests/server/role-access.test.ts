@@ -1,0 +1,88 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startTestServer, type TestServer } from '../support/server';
+import { ApiClient, DEMO } from '../support/client';
+
+/**
+ * Every API route × {anonymous, driver, mechanic, manager}. A route added to the app but not to
+ * this table fails the first test, so access rules are always written down and checked.
+ *
+ * `allow`: roles that get through (others get 403, anonymous 401). `open`: no sign-in needed.
+ * `expect`: the status an allowed caller gets with the probe below (an empty or invalid body for
+ * writes, so the check never changes data). `path`: a concrete address when the route has
+ * parameters ({vehicle} is the demo driver's own vehicle).
+ */
+type Role = 'driver' | 'mechanic' | 'manager';
+interface Rule {
+  open?: true;
+  allow?: Role[];
+  expect: number;
+  path?: string;
+  body?: unknown;
+}
+const ALL: Role[] = ['driver', 'mechanic', 'manager'];
+
+export const ACCESS: Record<string, Rule> = {
+  'GET /api/health': { open: true, expect: 200 },
+  'GET /api/auth/csrf': { open: true, expect: 200 },
+  'POST /api/auth/login': { open: true, expect: 400, body: {} },
+  'POST /api/auth/logout': { open: true, expect: 204 },
+  'GET /api/auth/me': { allow: ALL, expect: 200 },
+  'POST /api/auth/password': { allow: ALL, expect: 400, body: {} },
+  'GET /api/users': { allow: ['manager'], expect: 200 },
+  'POST /api/users': { allow: ['manager'], expect: 400, body: {} },
+  'PATCH /api/users/:id': { allow: ['manager'], expect: 400, path: '/api/users/1', body: {} },
+  'GET /api/depots': { allow: ALL, expect: 200 },
+  'GET /api/specs': { allow: ['manager', 'mechanic'], expect: 200 },
+  'GET /api/specs/:id': { allow: ['manager', 'mechanic'], expect: 200, path: '/api/specs/1' },
+  'GET /api/vehicles': { allow: ALL, expect: 200 },
+  'GET /api/vehicles/:id': { allow: ALL, expect: 200, path: '/api/vehicles/{vehicle}' },
+  'GET /api/routes': { allow: ALL, expect: 200 },
+};
+
+let srv: TestServer;
+let driverVehicleId: number;
+
+beforeAll(async () => {
+  srv = await startTestServer({ auth: { loginLimitPerAccount: 1000, loginLimitPerAddress: 1000 } });
+  const c = new ApiClient(srv.url);
+  await c.login(DEMO.driver);
+  const mine = await c.get<{ items: { id: number }[] }>('/api/vehicles');
+  driverVehicleId = mine.body.items[0].id;
+});
+afterAll(() => srv?.stop());
+
+function routesOfApp(): string[] {
+  const keys: string[] = [];
+  for (const layer of (srv.api as unknown as { stack: { route?: { path: string; methods: Record<string, boolean> } }[] }).stack) {
+    if (!layer.route) continue;
+    for (const [m, on] of Object.entries(layer.route.methods)) if (on && m !== '_all') keys.push(`${m.toUpperCase()} /api${layer.route.path}`);
+  }
+  return keys.sort();
+}
+
+describe('role access', () => {
+  it('when a route exists in the app, then it is listed in the access table (and vice versa)', () => {
+    expect(routesOfApp()).toEqual(Object.keys(ACCESS).sort());
+  });
+
+  const who: ('anonymous' | Role)[] = ['anonymous', ...ALL];
+  // logout last, since it ends the session it is called with
+  const entries = Object.entries(ACCESS).sort(([a], [b]) => Number(a.includes('logout')) - Number(b.includes('logout')));
+  for (const as of who) {
+    it(`when ${as} calls each route, then the status matches the table`, async () => {
+      const c = new ApiClient(srv.url);
+      if (as !== 'anonymous') expect((await c.login(DEMO[as])).status).toBe(200);
+      const got: string[] = [];
+      const want: string[] = [];
+      for (const [key, rule] of entries) {
+        const [method, pattern] = key.split(' ');
+        const path = (rule.path ?? pattern).replace('{vehicle}', String(driverVehicleId));
+        const res = await c.raw(method, path, { body: rule.body });
+        const expected = rule.open ? rule.expect : as === 'anonymous' ? 401 : rule.allow!.includes(as) ? rule.expect : 403;
+        got.push(`${key} → ${res.status}`);
+        want.push(`${key} → ${expected}`);
+      }
+      expect(got).toEqual(want);
+    });
+  }
+});
