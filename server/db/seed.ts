@@ -24,7 +24,8 @@ import {
 } from './models';
 import { hashPassword } from '../users/service';
 import { lineLengthM, splitLine, type LonLat } from '../roads/geometry';
-import { gdForClass, seededRandom, type IsoClass } from '../physics/iso8608';
+import { classifyGd, gdForClass, seededRandom, type IsoClass } from '../physics/iso8608';
+import { gdFromIri, iriFromGd } from '../physics/iri';
 
 export const DEMO_PASSWORD = 'reboundry-demo';
 
@@ -210,10 +211,13 @@ export async function seedDemo(db: Db, now: Date = new Date()) {
       const statedDate = day(subDays(today, 300 + Math.floor(rand() * 300)));
       const segRows = segs.map((s) => {
         const inStretch = s.seq >= stretchStart && s.seq < stretchEnd;
-        const cls = CLASSES[inStretch ? roughIdx : baseIdx];
-        // surveys measure a continuous value: spread within the class (±half a class, log scale)
-        const gd = r.source === 'survey' ? gdForClass(cls) * Math.pow(2, (rand() - 0.5) * 1.6) : gdForClass(cls);
+        const statedClass = CLASSES[inStretch ? roughIdx : baseIdx];
         const source: RoughnessSource = r.source === 'driver_report' && !inStretch ? 'stated' : r.source;
+        // A survey measures IRI, a continuous value: spread around the class (log scale);
+        // Gd(n0) and the class follow from it. A stated class carries the class's mean Gd(n0).
+        const iri = source === 'survey' ? Math.round(iriFromGd(gdForClass(statedClass)) * Math.pow(2, (rand() - 0.5) * 0.8) * 100) / 100 : null;
+        const gd = iri !== null ? gdFromIri(iri) : gdForClass(statedClass);
+        const cls = iri !== null ? classifyGd(gd) : statedClass;
         return {
           routeId: route.id,
           seq: s.seq,
@@ -222,7 +226,7 @@ export async function seedDemo(db: Db, now: Date = new Date()) {
           geometry: JSON.stringify(s.coords),
           speedKmh: inStretch ? Math.max(20, r.speedKmh - 15) : null,
           gdN0: gd,
-          iri: null as number | null,
+          iri,
           isoClass: cls,
           roughnessSource: source,
           roughnessDate: source === 'survey' ? surveyDate : source === 'driver_report' ? day(subDays(today, 12)) : statedDate,
