@@ -1,0 +1,103 @@
+import { Link, NavLink, Outlet, useNavigate, useNavigation } from 'react-router';
+import { BrandMark } from '@/components/ui/brand-mark';
+import { Button } from '@/components/ui/button';
+import { useMe } from '@/features/auth/api/get-me';
+import { useSignOut } from '@/features/auth/api/sign-out';
+import { cx } from '@/lib/class-names';
+import { roleLabels } from '@/lib/roles';
+import { landingPaths, menuFor } from './navigation';
+
+/**
+ * The frame around every signed-in page: brand, the role's menu, who is signed in and a way to
+ * sign out. On narrow screens the menu sits at the bottom, within reach of a thumb.
+ */
+export function AppShell() {
+  const { data: user } = useMe();
+  const navigation = useNavigation();
+  const navigate = useNavigate();
+  const signOut = useSignOut();
+
+  if (!user) return null;
+  const menu = menuFor(user.role);
+
+  function onSignOut() {
+    signOut.mutate(undefined, {
+      onSettled: () => navigate('/sign-in', { replace: true, state: { notice: 'You are signed out.' } }),
+    });
+  }
+
+  return (
+    <div className="flex min-h-dvh flex-col">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:fixed focus:top-2 focus:left-2 focus:z-50 focus:rounded-md focus:bg-surface focus:px-3 focus:py-2 focus:text-ink focus:shadow"
+      >
+        Skip to content
+      </a>
+      {navigation.state === 'loading' ? <div aria-hidden="true" className="fixed inset-x-0 top-0 z-40 h-0.5 animate-pulse bg-accent" /> : null}
+
+      <header className="sticky top-0 z-30 border-b border-line bg-paper/95 backdrop-blur supports-[backdrop-filter]:bg-paper/85">
+        <div className="mx-auto flex h-14 max-w-7xl items-center gap-6 px-4 sm:px-6">
+          <Link to={landingPaths[user.role]} aria-label="Reboundry, your start page" className="shrink-0 rounded">
+            <BrandMark />
+          </Link>
+          <nav aria-label="Main" className="hidden h-full md:block">
+            <ul className="flex h-full items-stretch gap-1">
+              {menu.map((item) => (
+                <li key={item.path} className="flex">
+                  <NavLink
+                    to={item.path}
+                    className={({ isActive }) =>
+                      cx(
+                        'relative flex items-center px-3 text-[0.9375rem] font-medium transition-colors',
+                        'after:absolute after:inset-x-3 after:bottom-0 after:h-0.5 after:rounded-full',
+                        isActive ? 'text-ink after:bg-accent' : 'text-slate hover:text-ink after:bg-transparent',
+                      )
+                    }
+                  >
+                    {item.label}
+                  </NavLink>
+                </li>
+              ))}
+            </ul>
+          </nav>
+          <div className="ml-auto flex items-center gap-3">
+            <p className="hidden text-right leading-tight sm:block">
+              <span className="block text-sm font-medium text-ink">{user.name}</span>
+              <span className="block text-xs text-slate">{roleLabels[user.role]}</span>
+            </p>
+            <Button size="sm" variant="secondary" onClick={onSignOut} busy={signOut.isPending}>
+              Sign out
+            </Button>
+          </div>
+        </div>
+      </header>
+
+      <main id="main" tabIndex={-1} className="mx-auto w-full max-w-7xl flex-1 px-4 pt-6 pb-28 outline-none sm:px-6 md:pb-12">
+        <Outlet />
+      </main>
+
+      <nav aria-label="Main" className="fixed inset-x-0 bottom-0 z-30 border-t border-line bg-surface pb-[env(safe-area-inset-bottom)] md:hidden">
+        <ul className="flex">
+          {menu.map((item) => (
+            <li key={item.path} className="min-w-0 flex-1">
+              <NavLink
+                to={item.path}
+                className={({ isActive }) =>
+                  cx(
+                    'flex min-h-16 flex-col items-center justify-center gap-1 px-1 text-xs font-medium',
+                    'border-t-2',
+                    isActive ? 'border-accent text-ink' : 'border-transparent text-slate',
+                  )
+                }
+              >
+                {item.icon}
+                <span className="max-w-full truncate">{item.label}</span>
+              </NavLink>
+            </li>
+          ))}
+        </ul>
+      </nav>
+    </div>
+  );
+}

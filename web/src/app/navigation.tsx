@@ -1,0 +1,63 @@
+import type { ReactNode } from 'react';
+import type { Role } from '@/lib/roles';
+
+/**
+ * Which pages each role may use, in one place: the navigation and the route guards both read
+ * this, so a page is never in the menu of a role that the guard would turn away. (The server
+ * checks every request on its own as well.)
+ */
+export interface PageAccess {
+  path: string;
+  label: string;
+  roles: readonly Role[];
+  icon: ReactNode;
+}
+
+const icon = (d: string) => (
+  <svg aria-hidden="true" viewBox="0 0 24 24" className="size-5" fill="none" stroke="currentColor" strokeWidth="1.7" strokeLinecap="round" strokeLinejoin="round">
+    <path d={d} />
+  </svg>
+);
+
+export const pages = {
+  fleet: { path: '/fleet', label: 'Fleet', roles: ['manager'], icon: icon('M4 4h7v7H4zM13 4h7v7h-7zM4 13h7v7H4zM13 13h7v7h-7z') },
+  workshop: {
+    path: '/workshop',
+    label: 'Workshop',
+    roles: ['mechanic'],
+    icon: icon('M14.5 4.5a4 4 0 0 0-5 5L4 15l2.5 2.5 2.5 2.5 5.5-5.5a4 4 0 0 0 5-5l-2.5 2.5-2.5-.5-.5-2.5z'),
+  },
+  myVehicle: { path: '/my-vehicle', label: 'My vehicle', roles: ['driver'], icon: icon('M3 16V8h11v8M14 11h4l3 3v2h-7M6.5 18.5a1.5 1.5 0 1 0 0-3 1.5 1.5 0 0 0 0 3zM17.5 18.5a1.5 1.5 0 1 0 0-3 1.5 1.5 0 0 0 0 3z') },
+  vehicles: { path: '/vehicles', label: 'Vehicles', roles: ['manager', 'mechanic'], icon: icon('M4 6h16M4 12h16M4 18h16M8 4v16') },
+  specs: { path: '/specs', label: 'Specs', roles: ['manager'], icon: icon('M12 3v3l-5 2 10 3-10 3 10 3-5 2v2') },
+  routes: { path: '/routes', label: 'Routes', roles: ['manager'], icon: icon('M5 19c0-4 4-4 7-7s7-3 7-7M5 19a1.5 1.5 0 1 0 0 .01M19 5a1.5 1.5 0 1 0 0 .01') },
+  people: {
+    path: '/people',
+    label: 'People',
+    roles: ['manager'],
+    icon: icon('M9 11a3 3 0 1 0 0-6 3 3 0 0 0 0 6zM3.5 19a5.5 5.5 0 0 1 11 0M16 11a2.5 2.5 0 1 0 0-5M17 14a4.5 4.5 0 0 1 3.5 5'),
+  },
+  account: { path: '/account', label: 'Account', roles: ['manager', 'mechanic', 'driver'], icon: icon('M12 12a4 4 0 1 0 0-8 4 4 0 0 0 0 8zM4.5 20a7.5 7.5 0 0 1 15 0') },
+} satisfies Record<string, PageAccess>;
+
+const menuOrder: PageAccess[] = [pages.fleet, pages.workshop, pages.myVehicle, pages.vehicles, pages.specs, pages.routes, pages.people, pages.account];
+
+/** The menu for a role, in order. */
+export function menuFor(role: Role): PageAccess[] {
+  return menuOrder.filter((p) => p.roles.includes(role));
+}
+
+/** Where each role starts after signing in. */
+export const landingPaths: Record<Role, string> = {
+  manager: pages.fleet.path,
+  mechanic: pages.workshop.path,
+  driver: pages.myVehicle.path,
+};
+
+export const vehiclePath = (id: number) => `/vehicles/${id}`;
+
+/** A `next` address from the query string, if it is a safe path inside this app. */
+export function safeNext(next: string | null): string | null {
+  if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/sign-in')) return null;
+  return next;
+}

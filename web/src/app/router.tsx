@@ -1,0 +1,62 @@
+import { createBrowserRouter, redirect } from 'react-router';
+import type { QueryClient } from '@tanstack/react-query';
+import { meQueryOptions } from '@/features/auth/api/get-me';
+import { AccountPage } from '@/features/auth/components/account-page';
+import { AppShell } from './app-shell';
+import { landingRedirect, requireRole, requireUser } from './guards';
+import { landingPaths, pages, safeNext } from './navigation';
+import { FleetPage } from './routes/fleet-page';
+import { MyVehiclePage } from './routes/my-vehicle-page';
+import { PeoplePage } from './routes/people-page';
+import { NotFound, RouteError } from './routes/route-error';
+import { RoutesPage } from './routes/routes-page';
+import { SignInRoute } from './routes/sign-in-route';
+import { SpecsPage } from './routes/specs-page';
+import { vehicleLoader, VehiclePage } from './routes/vehicle-page';
+import { VehiclesPage } from './routes/vehicles-page';
+import { WorkshopPage } from './routes/workshop-page';
+
+const strip = (path: string) => path.replace(/^\//, '');
+
+/** The route tree. Each page's loader checks the role from `pages` before anything renders. */
+export function createAppRouter(queryClient: QueryClient) {
+  const only = (access: { roles: readonly ('manager' | 'mechanic' | 'driver')[] }) => requireRole(queryClient, access.roles);
+
+  return createBrowserRouter([
+    {
+      path: '/sign-in',
+      // Someone already signed in goes straight on.
+      loader: async ({ request }) => {
+        const user = await queryClient.ensureQueryData(meQueryOptions());
+        if (user) return redirect(safeNext(new URL(request.url).searchParams.get('next')) ?? landingPaths[user.role]);
+        return null;
+      },
+      element: <SignInRoute />,
+      errorElement: <RouteError />,
+    },
+    {
+      path: '/',
+      loader: requireUser(queryClient),
+      element: <AppShell />,
+      errorElement: <RouteError />,
+      children: [
+        {
+          errorElement: <RouteError />,
+          children: [
+            { index: true, loader: landingRedirect(queryClient) },
+            { path: strip(pages.fleet.path), loader: only(pages.fleet), element: <FleetPage /> },
+            { path: strip(pages.workshop.path), loader: only(pages.workshop), element: <WorkshopPage /> },
+            { path: strip(pages.myVehicle.path), loader: only(pages.myVehicle), element: <MyVehiclePage /> },
+            { path: strip(pages.vehicles.path), loader: only(pages.vehicles), element: <VehiclesPage /> },
+            { path: `${strip(pages.vehicles.path)}/:vehicleId`, loader: vehicleLoader(queryClient, pages.vehicles.roles), element: <VehiclePage /> },
+            { path: strip(pages.specs.path), loader: only(pages.specs), element: <SpecsPage /> },
+            { path: strip(pages.routes.path), loader: only(pages.routes), element: <RoutesPage /> },
+            { path: strip(pages.people.path), loader: only(pages.people), element: <PeoplePage /> },
+            { path: strip(pages.account.path), loader: only(pages.account), element: <AccountPage /> },
+            { path: '*', element: <NotFound /> },
+          ],
+        },
+      ],
+    },
+  ]);
+}

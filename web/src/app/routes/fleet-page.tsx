@@ -1,0 +1,87 @@
+import { Link } from 'react-router';
+import { ButtonLink } from '@/components/ui/button';
+import { EmptyState } from '@/components/ui/empty-state';
+import { ErrorState } from '@/components/ui/error-state';
+import { FigureCard } from '@/components/ui/figure-card';
+import { LoadingState } from '@/components/ui/loading-state';
+import { PageHeader } from '@/components/ui/page-header';
+import { Section } from '@/components/ui/section';
+import { StatusShape } from '@/components/ui/status-badge';
+import { useDepots } from '@/features/depots/api/get-depots';
+import { DepotsTable } from '@/features/depots/components/depots-table';
+import { VEHICLE_STATUSES } from '@/features/vehicles/api/get-vehicles';
+import { vehicleStatusLabels, vehicleStatusTones } from '@/features/vehicles/components/vehicle-status-badge';
+import { useVehicleCounts } from '@/features/vehicles/hooks/use-vehicle-counts';
+import { formatNumber } from '@/lib/format';
+import { pages } from '../navigation';
+
+const statusNotes = {
+  in_service: 'On the road and counted in the nightly wear run.',
+  workshop: 'Off the road for inspection or repair.',
+  retired: 'Kept for their history; not driven.',
+};
+
+/** The fleet manager's start page: the fleet at a glance, by status and by depot. */
+export function FleetPage() {
+  const counts = useVehicleCounts();
+  const depots = useDepots();
+
+  return (
+    <>
+      <title>Fleet · Reboundry</title>
+      <PageHeader
+        title="Fleet"
+        description="Your vehicles by status and depot. Inspections that come due will be listed here too."
+        actions={
+          <ButtonLink to={pages.vehicles.path} variant="primary">
+            Open the vehicles table
+          </ButtonLink>
+        }
+      />
+
+      <Section title="Vehicles by status">
+        {counts.error ? (
+          <ErrorState error={counts.error} what="the vehicle counts" onRetry={counts.refetch} />
+        ) : (
+          <div className="grid gap-3 sm:grid-cols-3">
+            {VEHICLE_STATUSES.map((status) => (
+              <FigureCard
+                key={status}
+                icon={<StatusShape tone={vehicleStatusTones[status]} />}
+                label={vehicleStatusLabels[status]}
+                value={counts.isPending ? '…' : formatNumber(counts.counts[status])}
+                unit={counts.counts[status] === 1 ? 'vehicle' : 'vehicles'}
+                footer={
+                  <>
+                    {statusNotes[status]}{' '}
+                    <Link to={`${pages.vehicles.path}?status=${status}`} className="link whitespace-nowrap text-ink">
+                      List them
+                    </Link>
+                  </>
+                }
+              />
+            ))}
+          </div>
+        )}
+      </Section>
+
+      <Section title="Inspections">
+        <EmptyState title="No inspections to show yet">
+          Once the nightly wear run is switched on, vehicles with a damper nearing its inspection point are listed here,
+          due and overdue first, each with the reason. Until then, each vehicle&rsquo;s page shows the life used of its
+          dampers.
+        </EmptyState>
+      </Section>
+
+      <Section title="Depots">
+        {depots.isPending ? (
+          <LoadingState label="Loading depots…" />
+        ) : depots.error ? (
+          <ErrorState error={depots.error} what="the depots" onRetry={() => void depots.refetch()} />
+        ) : (
+          <DepotsTable depots={depots.data.items} vehiclesPath={(id) => `${pages.vehicles.path}?depotId=${id}`} />
+        )}
+      </Section>
+    </>
+  );
+}

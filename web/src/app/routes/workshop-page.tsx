@@ -1,0 +1,74 @@
+import { Link } from 'react-router';
+import { EmptyState } from '@/components/ui/empty-state';
+import { ErrorState } from '@/components/ui/error-state';
+import { LoadingState } from '@/components/ui/loading-state';
+import { Notice } from '@/components/ui/notice';
+import { PageHeader } from '@/components/ui/page-header';
+import { Section } from '@/components/ui/section';
+import { useVehicles } from '@/features/vehicles/api/get-vehicles';
+import { VehicleStatusBadge } from '@/features/vehicles/components/vehicle-status-badge';
+import { VehiclesTable } from '@/features/vehicles/components/vehicles-table';
+import { useVehicleListParams } from '@/features/vehicles/hooks/use-vehicle-list-params';
+import { formatQuantity } from '@/lib/format';
+import { vehiclePath } from '../navigation';
+import { useVehicleFilterOptions } from './use-vehicle-filter-options';
+
+/** The mechanic's start page, laid out for a tablet in the workshop. */
+export function WorkshopPage() {
+  const [params, update] = useVehicleListParams();
+  const options = useVehicleFilterOptions();
+  const inWorkshop = useVehicles({ page: 1, pageSize: 12, sort: 'fleetNumber', status: 'workshop' });
+
+  return (
+    <>
+      <title>Workshop · Reboundry</title>
+      <PageHeader title="Workshop" description="Vehicles in the workshop now, and the whole fleet to look up any vehicle." />
+      <Notice tone="info" title="Your inspections will appear here" className="mb-6">
+        Once the nightly wear run books inspections, the ones assigned to you are listed at the top of this page, with the
+        corner and the reason. Until then, open any vehicle below to see its dampers.
+      </Notice>
+
+      <Section title="In the workshop now">
+        {inWorkshop.isPending ? (
+          <LoadingState label="Loading vehicles in the workshop…" />
+        ) : inWorkshop.error ? (
+          <ErrorState error={inWorkshop.error} what="the vehicles in the workshop" onRetry={() => void inWorkshop.refetch()} />
+        ) : inWorkshop.data.items.length === 0 ? (
+          <EmptyState title="No vehicles are in the workshop">When a vehicle is booked in, it is listed here.</EmptyState>
+        ) : (
+          <ul className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
+            {inWorkshop.data.items.map((v) => (
+              <li key={v.id}>
+                <Link
+                  to={vehiclePath(v.id)}
+                  className="flex min-h-20 items-center justify-between gap-3 rounded-md border border-line bg-surface px-4 py-3 hover:border-slate"
+                >
+                  <span className="min-w-0">
+                    <span className="block text-lg font-semibold text-ink">{v.fleetNumber}</span>
+                    <span className="block truncate text-sm text-slate">
+                      <span className="font-mono">{v.plate}</span> · {v.specName} · {formatQuantity(v.odometerKm, 'km')}
+                    </span>
+                  </span>
+                  <VehicleStatusBadge status={v.status} />
+                </Link>
+              </li>
+            ))}
+          </ul>
+        )}
+        {inWorkshop.data && inWorkshop.data.total > inWorkshop.data.items.length ? (
+          <p className="mt-2 text-sm text-slate">
+            Showing {inWorkshop.data.items.length} of {inWorkshop.data.total}.{' '}
+            <Link className="link" to="?status=workshop#all-vehicles">
+              See them all in the table
+            </Link>
+          </p>
+        ) : null}
+      </Section>
+
+      <Section title="All vehicles" className="scroll-mt-20">
+        <div id="all-vehicles" />
+        <VehiclesTable params={params} onParamsChange={update} vehiclePath={vehiclePath} roomy {...options} />
+      </Section>
+    </>
+  );
+}

@@ -1,0 +1,23 @@
+import { useMutation } from '@tanstack/react-query';
+import { z } from 'zod';
+import { api } from '@/lib/api-client';
+
+export const MIN_PASSWORD_LENGTH = 10;
+
+export const changePasswordSchema = z
+  .object({
+    currentPassword: z.string().min(1, 'is required'),
+    newPassword: z.string().min(MIN_PASSWORD_LENGTH, `must be at least ${MIN_PASSWORD_LENGTH} characters`).max(200, 'must be at most 200 characters'),
+    confirmPassword: z.string().min(1, 'is required'),
+  })
+  .refine((v) => v.newPassword === v.confirmPassword, { path: ['confirmPassword'], message: 'does not match the new password' })
+  .refine((v) => v.newPassword !== v.currentPassword, { path: ['newPassword'], message: 'must differ from the current password' });
+export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
+
+export function changePassword({ currentPassword, newPassword }: ChangePasswordInput): Promise<void> {
+  return api.post<void>('/api/auth/password', { currentPassword, newPassword });
+}
+
+export function useChangePassword() {
+  return useMutation({ mutationFn: changePassword });
+}

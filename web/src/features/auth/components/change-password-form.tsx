@@ -1,0 +1,74 @@
+import { useRef, useState, type FormEvent } from 'react';
+import { Button } from '@/components/ui/button';
+import { TextField } from '@/components/ui/field';
+import { Notice } from '@/components/ui/notice';
+import { isApiError } from '@/lib/api-client';
+import { focusFirstError, serverFieldErrors, zodFieldErrors, type FieldErrors } from '@/lib/form-errors';
+import { changePasswordSchema, MIN_PASSWORD_LENGTH, useChangePassword } from '../api/change-password';
+
+const labels = { currentPassword: 'Current password', newPassword: 'New password', confirmPassword: 'New password again' };
+
+export function ChangePasswordForm() {
+  const formRef = useRef<HTMLFormElement>(null);
+  const [errors, setErrors] = useState<FieldErrors>({});
+  const [done, setDone] = useState(false);
+  const change = useChangePassword();
+
+  function onSubmit(e: FormEvent<HTMLFormElement>) {
+    e.preventDefault();
+    setDone(false);
+    const form = e.currentTarget;
+    const data = new FormData(form);
+    const parsed = changePasswordSchema.safeParse({
+      currentPassword: data.get('currentPassword'),
+      newPassword: data.get('newPassword'),
+      confirmPassword: data.get('confirmPassword'),
+    });
+    if (!parsed.success) {
+      const next = zodFieldErrors(parsed.error, labels);
+      setErrors(next);
+      focusFirstError(formRef.current, next);
+      return;
+    }
+    setErrors({});
+    change.mutate(parsed.data, {
+      onSuccess: () => {
+        form.reset();
+        setDone(true);
+      },
+      onError: (err) => {
+        const next = serverFieldErrors(err, labels);
+        setErrors(next);
+        focusFirstError(formRef.current, next);
+      },
+    });
+  }
+
+  const otherProblem = change.isError && !(isApiError(change.error) && Object.keys(change.error.fields).length > 0);
+
+  return (
+    <form ref={formRef} onSubmit={onSubmit} noValidate aria-label="Change password" className="flex max-w-md flex-col gap-4">
+      {done ? <Notice tone="ok" title="Password changed">Use the new password the next time you sign in.</Notice> : null}
+      {otherProblem ? (
+        <Notice tone="error" title="Password not changed">
+          {isApiError(change.error) ? change.error.message : 'Something unexpected went wrong. Try again.'}
+        </Notice>
+      ) : null}
+      <TextField label={labels.currentPassword} name="currentPassword" type="password" autoComplete="current-password" error={errors.currentPassword} />
+      <TextField
+        label={labels.newPassword}
+        name="newPassword"
+        type="password"
+        autoComplete="new-password"
+        hint={`At least ${MIN_PASSWORD_LENGTH} characters. A few unrelated words make a strong password that is easy to type.`}
+        error={errors.newPassword}
+      />
+      <TextField label={labels.confirmPassword} name="confirmPassword" type="password" autoComplete="new-password" error={errors.confirmPassword} />
+      <div>
+        <Button type="submit" variant="primary" busy={change.isPending}>
+          Change password
+        </Button>
+      </div>
+    </form>
+  );
+}

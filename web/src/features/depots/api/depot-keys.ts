@@ -1,0 +1,4 @@
+export const depotKeys = {
+  all: ['depots'] as const,
+  list: () => [...depotKeys.all, 'list'] as const,
+};

@@ -1,0 +1,178 @@
+import { useMemo, useState } from 'react';
+import { createColumnHelper } from '@tanstack/react-table';
+import { Button } from '@/components/ui/button';
+import { DataTable } from '@/components/ui/data-table';
+import { EmptyState } from '@/components/ui/empty-state';
+import { SelectField } from '@/components/ui/field';
+import { Notice } from '@/components/ui/notice';
+import { PageHeader } from '@/components/ui/page-header';
+import { SearchField } from '@/components/ui/search-field';
+import { StatusBadge } from '@/components/ui/status-badge';
+import { formatDate, isoDate } from '@/lib/format';
+import { ROLES, roleLabels } from '@/lib/roles';
+import { oneOf, useListSearchParams } from '@/lib/use-list-search-params';
+import { USER_SORTS, useUsers, type UserListItem } from '../api/get-users';
+import { ChangeRoleDialog } from './change-role-dialog';
+import { CreateUserDialog } from './create-user-dialog';
+import { SetActiveDialog } from './set-active-dialog';
+
+const col = createColumnHelper<UserListItem>();
+
+function readFilters(search: URLSearchParams) {
+  const active = search.get('active');
+  return {
+    q: search.get('q')?.trim() || undefined,
+    role: oneOf(search.get('role'), ROLES),
+    active: active === 'true' ? true : active === 'false' ? false : undefined,
+  };
+}
+
+/** The people who use Reboundry: find, add, change role, deactivate and reactivate. */
+export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
+  const [params, update] = useListSearchParams({ sorts: USER_SORTS, defaultSort: 'name', readFilters });
+  const query = useUsers(params);
+  const [creating, setCreating] = useState(false);
+  const [roleFor, setRoleFor] = useState<UserListItem | null>(null);
+  const [activeFor, setActiveFor] = useState<UserListItem | null>(null);
+  const [message, setMessage] = useState<string | null>(null);
+
+  const columns = useMemo(
+    () => [
+      col.accessor('name', {
+        header: 'Name',
+        cell: (c) => (
+          <span className="font-medium">
+            {c.getValue()}
+            {c.row.original.id === currentUserId ? <span className="ml-1.5 font-normal text-slate">(you)</span> : null}
+          </span>
+        ),
+      }),
+      col.accessor('email', { header: 'E-mail', cell: (c) => <span className="break-all">{c.getValue()}</span> }),
+      col.accessor('role', { header: 'Role', meta: { csv: (r) => roleLabels[r.role] }, cell: (c) => roleLabels[c.getValue()] }),
+      col.accessor('active', {
+        header: 'Sign-in',
+        enableSorting: false,
+        meta: { csv: (r) => (r.active ? 'Active' : 'Deactivated') },
+        cell: (c) => (c.getValue() ? <StatusBadge tone="ok">Active</StatusBadge> : <StatusBadge tone="neutral">Deactivated</StatusBadge>),
+      }),
+      col.accessor('createdAt', {
+        header: 'Added',
+        meta: { csv: (r) => isoDate(r.createdAt) },
+        cell: (c) => <span className="tabular whitespace-nowrap">{formatDate(c.getValue())}</span>,
+      }),
+      col.display({
+        id: 'actions',
+        header: () => <span className="sr-only">Actions</span>,
+        meta: { label: 'Actions', csv: () => '', className: 'text-right whitespace-nowrap' },
+        cell: (c) => {
+          const u = c.row.original;
+          const self = u.id === currentUserId;
+          return (
+            <div className="flex justify-end gap-1.5">
+              <Button size="sm" variant="quiet" onClick={() => setRoleFor(u)} aria-label={`Change role for ${u.name}`} disabled={self} title={self ? 'Another manager can change your role.' : undefined}>
+                Change role
+              </Button>
+              <Button
+                size="sm"
+                variant="quiet"
+                onClick={() => setActiveFor(u)}
+                aria-label={`${u.active ? 'Deactivate' : 'Reactivate'} ${u.name}`}
+                disabled={self}
+                title={self ? 'You cannot deactivate your own account.' : undefined}
+              >
+                {u.active ? 'Deactivate' : 'Reactivate'}
+              </Button>
+            </div>
+          );
+        },
+      }),
+    ],
+    [currentUserId],
+  );
+
+  const filtered = Boolean(params.q || params.role || params.active !== undefined);
+
+  return (
+    <>
+      <title>People · Reboundry</title>
+      <PageHeader
+        title="People"
+        description="Everyone who can sign in to Reboundry, and what their role lets them do."
+        actions={
+          <Button variant="primary" onClick={() => setCreating(true)}>
+            Add a person
+          </Button>
+        }
+      />
+      {message ? (
+        <Notice tone="ok" className="mb-4">
+          {message}
+        </Notice>
+      ) : null}
+      <DataTable
+        label="People"
+        columns={columns}
+        rows={query.data?.items}
+        total={query.data?.total}
+        getRowId={(r) => String(r.id)}
+        page={params.page}
+        pageSize={params.pageSize}
+        sort={params.sort}
+        onPageChange={(page) => update({ page })}
+        onPageSizeChange={(pageSize) => update({ pageSize })}
+        onSortChange={(sort) => update({ sort })}
+        isLoading={query.isPending}
+        isFetching={query.isFetching}
+        error={query.error}
+        onRetry={() => void query.refetch()}
+        noun={['person', 'people']}
+        csvFileName={`reboundry-people-${isoDate(new Date())}.csv`}
+        toolbar={
+          <div role="search" aria-label="Filter people" className="grid grid-cols-2 items-end gap-3 md:grid-cols-[minmax(12rem,1.5fr)_repeat(2,minmax(9rem,1fr))_auto]">
+            <SearchField
+              label="Name or e-mail"
+              value={params.q ?? ''}
+              onChange={(q) => update({ q: q || undefined })}
+              className="col-span-2 md:col-span-1"
+            />
+            <SelectField
+              label="Role"
+              value={params.role ?? ''}
+              onChange={(e) => update({ role: oneOf(e.target.value, ROLES) })}
+              options={[{ value: '', label: 'Any role' }, ...ROLES.map((r) => ({ value: r, label: roleLabels[r] }))]}
+            />
+            <SelectField
+              label="Sign-in"
+              value={params.active === undefined ? '' : String(params.active)}
+              onChange={(e) => update({ active: e.target.value === '' ? undefined : e.target.value === 'true' })}
+              options={[
+                { value: '', label: 'Active and deactivated' },
+                { value: 'true', label: 'Active only' },
+                { value: 'false', label: 'Deactivated only' },
+              ]}
+            />
+            <Button variant="quiet" disabled={!filtered} onClick={() => update({ q: undefined, role: undefined, active: undefined })} className="justify-self-start">
+              Clear filters
+            </Button>
+          </div>
+        }
+        empty={
+          filtered ? (
+            <EmptyState title="Nobody matches these filters">Try a shorter search or clear a filter.</EmptyState>
+          ) : (
+            <EmptyState title="Nobody here yet" action={<Button onClick={() => setCreating(true)}>Add a person</Button>}>
+              Add the managers, mechanics and drivers who will use Reboundry.
+            </EmptyState>
+          )
+        }
+      />
+      <CreateUserDialog
+        open={creating}
+        onClose={() => setCreating(false)}
+        onCreated={(u) => setMessage(`${u.name} is added as a ${roleLabels[u.role].toLowerCase()} and can sign in now. Ask them to change their password on their Account page.`)}
+      />
+      <ChangeRoleDialog user={roleFor} onClose={() => setRoleFor(null)} onDone={setMessage} />
+      <SetActiveDialog user={activeFor} onClose={() => setActiveFor(null)} onDone={setMessage} />
+    </>
+  );
+}

@@ -1,0 +1,26 @@
+import { SimpleTable } from '@/components/ui/simple-table';
+import { formatDate, formatNumber } from '@/lib/format';
+import type { Damper } from '../api/get-vehicle';
+import { positionNames } from './damper-corners';
+
+/** Dampers taken off this vehicle, latest first, and why. Nothing is shown when there are none. */
+export function DamperHistory({ dampers }: { dampers: Damper[] }) {
+  const removed = dampers
+    .filter((d) => d.removedAt)
+    .sort((a, b) => (b.removedAt ?? '').localeCompare(a.removedAt ?? ''));
+  if (removed.length === 0) return <p className="text-sm text-slate">No dampers have been replaced on this vehicle yet.</p>;
+  return (
+    <SimpleTable
+      label="Replaced dampers"
+      rows={removed}
+      getRowKey={(d) => d.id}
+      columns={[
+        { key: 'pos', header: 'Corner', rowHeader: true, cell: (d) => `${positionNames[d.position] ?? d.position} (${d.position})` },
+        { key: 'fitted', header: 'Fitted', cell: (d) => <span className="tabular whitespace-nowrap">{formatDate(d.installedAt)}</span> },
+        { key: 'fittedKm', header: 'Fitted at', unit: 'km', numeric: true, cell: (d) => formatNumber(d.installedOdometerKm) },
+        { key: 'removed', header: 'Removed', cell: (d) => <span className="tabular whitespace-nowrap">{formatDate(d.removedAt)}</span> },
+        { key: 'reason', header: 'Reason', cell: (d) => d.removalReason ?? <span className="text-slate">Not recorded</span> },
+      ]}
+    />
+  );
+}

@@ -1,0 +1,62 @@
+import { EmptyState } from '@/components/ui/empty-state';
+import { SimpleTable } from '@/components/ui/simple-table';
+import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
+import { formatDate } from '@/lib/format';
+import type { InspectionStatus, VehicleInspection } from '../api/get-vehicle';
+
+const inspectionStatus: Record<InspectionStatus, { tone: StatusTone; label: string }> = {
+  scheduled: { tone: 'neutral', label: 'Booked' },
+  due: { tone: 'due', label: 'Due' },
+  overdue: { tone: 'overdue', label: 'Overdue' },
+  done: { tone: 'ok', label: 'Done' },
+  cancelled: { tone: 'neutral', label: 'Cancelled' },
+};
+
+export function InspectionStatusBadge({ status }: { status: InspectionStatus }) {
+  const s = inspectionStatus[status] ?? { tone: 'neutral' as const, label: status };
+  return <StatusBadge tone={s.tone}>{s.label}</StatusBadge>;
+}
+
+/** The vehicle's inspections, soonest first, with why each was booked. */
+export function VehicleInspections({ inspections }: { inspections: VehicleInspection[] }) {
+  if (inspections.length === 0) {
+    return (
+      <EmptyState title="No inspections yet">
+        When the nightly wear run finds a damper nearing its inspection point, or the km or months rule comes first, an
+        inspection is booked and listed here with the reason.
+      </EmptyState>
+    );
+  }
+  return (
+    <SimpleTable
+      label="Inspections"
+      rows={inspections}
+      getRowKey={(i) => i.id}
+      columns={[
+        {
+          key: 'due',
+          header: 'Due',
+          cell: (i) => (
+            <time dateTime={i.dueDate} className="tabular whitespace-nowrap">
+              {formatDate(i.dueDate)}
+            </time>
+          ),
+        },
+        { key: 'status', header: 'Status', cell: (i) => <InspectionStatusBadge status={i.status} /> },
+        { key: 'reason', header: 'Because', cell: (i) => i.reason ?? <span className="text-slate">No reason recorded</span> },
+        {
+          key: 'completed',
+          header: 'Completed',
+          cell: (i) =>
+            i.completedAt ? (
+              <time dateTime={i.completedAt} className="tabular whitespace-nowrap">
+                {formatDate(i.completedAt)}
+              </time>
+            ) : (
+              <span className="text-slate">Not yet</span>
+            ),
+        },
+      ]}
+    />
+  );
+}

@@ -1,0 +1,144 @@
+import { useMemo } from 'react';
+import { Link } from 'react-router';
+import { createColumnHelper } from '@tanstack/react-table';
+import { Button } from '@/components/ui/button';
+import { DataTable } from '@/components/ui/data-table';
+import { EmptyState } from '@/components/ui/empty-state';
+import { SelectField, type Option } from '@/components/ui/field';
+import { SearchField } from '@/components/ui/search-field';
+import { formatNumber, isoDate } from '@/lib/format';
+import { useVehicles, VEHICLE_STATUSES, type VehicleListItem, type VehicleListParams } from '../api/get-vehicles';
+import { VehicleStatusBadge, vehicleStatusLabels } from './vehicle-status-badge';
+
+const col = createColumnHelper<VehicleListItem>();
+
+interface VehiclesTableProps {
+  params: VehicleListParams;
+  onParamsChange: (patch: Partial<VehicleListParams>) => void;
+  depotOptions: Option[];
+  specOptions: Option[];
+  /** Where a vehicle's row links to. */
+  vehiclePath: (id: number) => string;
+  /** Larger rows for the workshop tablet. */
+  roomy?: boolean;
+}
+
+/** The fleet's vehicles with search, filters, server-side paging and sorting, and CSV export. */
+export function VehiclesTable({ params, onParamsChange, depotOptions, specOptions, vehiclePath, roomy }: VehiclesTableProps) {
+  const query = useVehicles(params);
+
+  const columns = useMemo(
+    () => [
+      col.accessor('fleetNumber', {
+        header: 'Fleet no.',
+        meta: { label: 'Fleet number' },
+        cell: (c) => (
+          <Link to={vehiclePath(c.row.original.id)} className="link font-medium whitespace-nowrap">
+            {c.getValue()}
+          </Link>
+        ),
+      }),
+      col.accessor('plate', {
+        header: 'Plate',
+        cell: (c) => <span className="font-mono text-[0.8125rem] tracking-wide whitespace-nowrap">{c.getValue()}</span>,
+      }),
+      col.accessor('status', {
+        header: 'Status',
+        meta: { csv: (r) => vehicleStatusLabels[r.status] ?? r.status },
+        cell: (c) => <VehicleStatusBadge status={c.getValue()} />,
+      }),
+      col.accessor('specName', { header: 'Spec' }),
+      col.accessor('depotName', { header: 'Depot' }),
+      col.accessor('driverName', {
+        header: 'Driver',
+        enableSorting: false,
+        cell: (c) => c.getValue() ?? <span className="text-slate">Not assigned</span>,
+      }),
+      col.accessor('odometerKm', {
+        header: 'Odometer',
+        meta: { numeric: true, unit: 'km', csv: (r) => Math.round(r.odometerKm) },
+        cell: (c) => formatNumber(c.getValue()),
+      }),
+    ],
+    [vehiclePath],
+  );
+
+  const filtered = Boolean(params.q || params.depotId || params.specId || params.status);
+  const statusOptions: Option[] = [
+    { value: '', label: 'Any status' },
+    ...VEHICLE_STATUSES.map((s) => ({ value: s, label: vehicleStatusLabels[s] })),
+  ];
+
+  const toolbar = (
+    <div role="search" aria-label="Filter vehicles" className="grid grid-cols-2 items-end gap-3 md:grid-cols-[minmax(12rem,1.4fr)_repeat(3,minmax(9rem,1fr))_auto]">
+      <SearchField
+        label="Fleet number or plate"
+        value={params.q ?? ''}
+        onChange={(q) => onParamsChange({ q: q || undefined })}
+        placeholder="e.g. RV-104 or KX21"
+        className="col-span-2 md:col-span-1"
+      />
+      <SelectField
+        label="Depot"
+        value={params.depotId ? String(params.depotId) : ''}
+        onChange={(e) => onParamsChange({ depotId: e.target.value ? Number(e.target.value) : undefined })}
+        options={[{ value: '', label: 'All depots' }, ...depotOptions]}
+      />
+      <SelectField
+        label="Spec"
+        value={params.specId ? String(params.specId) : ''}
+        onChange={(e) => onParamsChange({ specId: e.target.value ? Number(e.target.value) : undefined })}
+        options={[{ value: '', label: 'All specs' }, ...specOptions]}
+      />
+      <SelectField
+        label="Status"
+        value={params.status ?? ''}
+        onChange={(e) => onParamsChange({ status: (e.target.value || undefined) as VehicleListParams['status'] })}
+        options={statusOptions}
+      />
+      <Button
+        variant="quiet"
+        onClick={() => onParamsChange({ q: undefined, depotId: undefined, specId: undefined, status: undefined })}
+        disabled={!filtered}
+        className="justify-self-start"
+      >
+        Clear filters
+      </Button>
+    </div>
+  );
+
+  return (
+    <DataTable
+      label="Vehicles"
+      columns={columns}
+      rows={query.data?.items}
+      total={query.data?.total}
+      getRowId={(r) => String(r.id)}
+      page={params.page}
+      pageSize={params.pageSize}
+      sort={params.sort}
+      onPageChange={(page) => onParamsChange({ page })}
+      onPageSizeChange={(pageSize) => onParamsChange({ pageSize })}
+      onSortChange={(sort) => onParamsChange({ sort })}
+      isLoading={query.isPending}
+      isFetching={query.isFetching}
+      error={query.error}
+      onRetry={() => void query.refetch()}
+      noun={['vehicle', 'vehicles']}
+      csvFileName={`reboundry-vehicles-${isoDate(new Date())}.csv`}
+      toolbar={toolbar}
+      roomy={roomy}
+      empty={
+        filtered ? (
+          <EmptyState title="No vehicles match these filters">
+            Try a shorter search or clear a filter. The search looks at fleet numbers and plates.
+          </EmptyState>
+        ) : (
+          <EmptyState title="No vehicles yet">
+            Vehicles appear here once they are added to the fleet. A fleet manager can add them or import a list.
+          </EmptyState>
+        )
+      }
+    />
+  );
+}

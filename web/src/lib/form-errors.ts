@@ -1,0 +1,45 @@
+import type { z } from 'zod';
+import { isApiError } from './api-client';
+
+/**
+ * Field messages from the server and from zod come as fragments ("is required", "must be at
+ * least 10 characters"); with the field's label they read as a sentence: "Name is required."
+ */
+export type FieldErrors = Record<string, string>;
+
+function sentence(label: string | undefined, message: string): string {
+  const text = /^[A-Z]/.test(message) || !label ? message : `${label} ${message}`;
+  const capital = text.charAt(0).toUpperCase() + text.slice(1);
+  return /[.!?]$/.test(capital) ? capital : `${capital}.`;
+}
+
+export function zodFieldErrors(error: z.ZodError, labels: Record<string, string>): FieldErrors {
+  const out: FieldErrors = {};
+  for (const issue of error.issues) {
+    const key = String(issue.path[0] ?? '_');
+    if (!out[key]) out[key] = sentence(labels[key], issue.message);
+  }
+  return out;
+}
+
+export function serverFieldErrors(error: unknown, labels: Record<string, string>): FieldErrors {
+  if (!isApiError(error)) return {};
+  const out: FieldErrors = {};
+  for (const [key, message] of Object.entries(error.fields)) {
+    const top = key.split('.')[0];
+    if (!out[top]) out[top] = sentence(labels[top], message);
+  }
+  return out;
+}
+
+/** Puts keyboard focus on the first field (in form order) that has an error. */
+export function focusFirstError(form: HTMLFormElement | null, errors: FieldErrors) {
+  if (!form) return;
+  for (const el of Array.from(form.elements)) {
+    const name = (el as HTMLInputElement).name;
+    if (name && errors[name]) {
+      (el as HTMLElement).focus();
+      return;
+    }
+  }
+}

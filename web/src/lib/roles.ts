@@ -1,0 +1,17 @@
+/** The three roles of Reboundry and how we name them on screen. */
+export const ROLES = ['manager', 'mechanic', 'driver'] as const;
+export type Role = (typeof ROLES)[number];
+
+export const roleLabels: Record<Role, string> = {
+  manager: 'Fleet manager',
+  mechanic: 'Mechanic',
+  driver: 'Driver',
+};
+
+export interface SignedInUser {
+  id: number;
+  name: string;
+  email: string;
+  role: Role;
+  active: boolean;
+}

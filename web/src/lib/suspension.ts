@@ -1,0 +1,68 @@
+/**
+ * Shared vocabulary of suspension specs (as the API sends them) and the quick, derived figures
+ * an engineer reads a spec by. All inputs in SI units.
+ */
+
+/** One corner's quarter-car parameters. */
+export interface CornerParams {
+  /** Body share carried by this corner [kg]. */
+  sprungMassKg: number;
+  /** Wheel, hub and axle share [kg]. */
+  unsprungMassKg: number;
+  /** Suspension spring rate at the wheel [N/m]. */
+  springRateNPerM: number;
+  /** Damper coefficient at the wheel [N·s/m]. */
+  dampingNsPerM: number;
+  /** Tyre vertical stiffness [N/m]. */
+  tireRateNPerM: number;
+}
+
+export interface SpecAxle {
+  /** `front`, `rear`, `middle`… */
+  axle: string;
+  corner: CornerParams;
+  /** Rated damper life on this axle [km]. */
+  ratedDamperLifeKm: number;
+}
+
+export interface SuspensionSpec {
+  id: number;
+  name: string;
+  vehicleClass: string;
+  description: string | null;
+  axles: SpecAxle[];
+}
+
+const TWO_PI = 2 * Math.PI;
+
+/**
+ * Body bounce frequency [Hz], from the ride rate (spring and tyre in series) on the sprung mass:
+ * f = √(kr/ms) / 2π with kr = ks·kt / (ks + kt). The one-mass approximation of the two-mass model's
+ * lower mode (Gillespie 1992, ch. 5). Example: ms 400 kg, ks 40 kN/m, kt 300 kN/m → 1.50 Hz.
+ */
+export function bodyBounceHz(c: CornerParams): number {
+  const kr = (c.springRateNPerM * c.tireRateNPerM) / (c.springRateNPerM + c.tireRateNPerM);
+  return Math.sqrt(kr / c.sprungMassKg) / TWO_PI;
+}
+
+/**
+ * Wheel hop frequency [Hz]: the unsprung mass between spring and tyre, f = √((ks + kt)/mu) / 2π
+ * (Gillespie 1992, ch. 5). Example: mu 60 kg, ks 40 kN/m, kt 300 kN/m → 12.0 Hz.
+ */
+export function wheelHopHz(c: CornerParams): number {
+  return Math.sqrt((c.springRateNPerM + c.tireRateNPerM) / c.unsprungMassKg) / TWO_PI;
+}
+
+/**
+ * Body damping ratio [–] (fraction of critical): ζ = cs / (2·√(ks·ms)).
+ * Example: cs 3000 N·s/m, ks 40 kN/m, ms 400 kg → 0.375.
+ */
+export function dampingRatio(c: CornerParams): number {
+  return c.dampingNsPerM / (2 * Math.sqrt(c.springRateNPerM * c.sprungMassKg));
+}
+
+const axleNames: Record<string, string> = { front: 'Front', rear: 'Rear', middle: 'Middle', mid: 'Middle' };
+
+export function axleLabel(axle: string): string {
+  return axleNames[axle.toLowerCase()] ?? axle.charAt(0).toUpperCase() + axle.slice(1);
+}
