@@ -1,0 +1,81 @@
+import { describe, it } from 'vitest';
+import { adhesionPct, dampingFromAdhesion, NoDampingSolutionError, adhesionBand, DEFAULT_PLATE_AMPLITUDE_M } from '../../server/physics/adhesion';
+import { modes } from '../../server/physics/quarter-car';
+import { checkClose, checkRange, checkThat, CAR } from './check';
+
+describe('adhesionPct (EUSAMA-style sweep)', () => {
+  it('when damping falls toward zero, then predicted adhesion falls, reaching 0 % (property, physics.md §4)', () => {
+    const dampings = [1800, 1500, 1200, 900, 600, 300, 50];
+    const values = dampings.map((cs) => adhesionPct({ ...CAR, dampingNsPerM: cs }).adhesionPct);
+    for (let i = 1; i < values.length; i++) {
+      checkThat(values[i] <= values[i - 1], 'property: adhesion falls with damping on the worn side', `cs ${dampings[i]} → ${values[i]} %, above ${values[i - 1]} % at ${dampings[i - 1]}`);
+    }
+    checkThat(values[0] - values[3] > 20, 'property', `expected a clear fall, got ${values.join(', ')}`);
+    checkClose(values[values.length - 1], 0, { abs: 0 }, 'property: undamped wheel hop lifts the wheel (clipped at 0)', { cs: 50 });
+  });
+
+  it('when the minimum is found, then it lies near the wheel-hop frequency (physics.md §4)', () => {
+    const r = adhesionPct(CAR);
+    const hop = modes(CAR).wheelHz;
+    checkRange(r.atHz, 0.9 * hop, 1.2 * hop, 'physics.md §4: the minimum is at wheel hop', { wheelHz: hop, atHz: r.atHz });
+  });
+
+  it('when the plate amplitude halves, then the loss (100 − adhesion) halves (property: linear model)', () => {
+    const a6 = adhesionPct(CAR, { amplitudeM: 0.006 }).adhesionPct;
+    const a3 = adhesionPct(CAR, { amplitudeM: 0.003 }).adhesionPct;
+    checkClose(100 - a3, (100 - a6) / 2, { rel: 1e-9 }, 'property: linearity', { a6, a3 });
+  });
+
+  it('when no amplitude is given, then the default is 6 mm (from memory, common practice, physics.md §4)', () => {
+    checkClose(DEFAULT_PLATE_AMPLITUDE_M, 0.006, { abs: 0 }, 'physics.md §4 (from memory)', {});
+    checkClose(adhesionPct(CAR).adhesionPct, adhesionPct(CAR, { amplitudeM: 0.006 }).adhesionPct, { abs: 0 }, 'definition', {});
+  });
+
+  it('when the amplitude is 50 mm, then the error names amplitudeM and m', () => {
+    let msg = '';
+    try {
+      adhesionPct(CAR, { amplitudeM: 0.05 });
+    } catch (e) {
+      msg = (e as Error).message;
+    }
+    checkThat(msg.includes('amplitudeM') && msg.includes('[m]'), 'house rule', `message "${msg}"`);
+  });
+
+  it('when bands are read, then ≥ 60 good, 40–59 fair, 20–39 weak, < 20 poor (common practice, physics.md §4)', () => {
+    const cases: [number, string][] = [[75, 'good'], [60, 'good'], [59.9, 'fair'], [40, 'fair'], [25, 'weak'], [19, 'poor']];
+    for (const [p, b] of cases) checkThat(adhesionBand(p) === b, 'physics.md §4 common practice', `${p} → ${adhesionBand(p)}, expected ${b}`);
+  });
+});
+
+describe('dampingFromAdhesion', () => {
+  it('when adhesion is simulated for a known worn damping, then the inverse recovers it (computed)', () => {
+    for (const cs of [950, 1300, 1700]) {
+      const measured = adhesionPct({ ...CAR, dampingNsPerM: cs }).adhesionPct;
+      const r = dampingFromAdhesion(CAR, measured);
+      checkClose(r.dampingNsPerM, cs, { rel: 1e-4 }, 'computed: round trip', { nominal: CAR.dampingNsPerM, cs, measured });
+    }
+  });
+
+  it('when the measurement is above anything the worn side reaches, then it says no damping value explains it', () => {
+    let err: unknown = null;
+    try {
+      dampingFromAdhesion(CAR, 90);
+    } catch (e) {
+      err = e;
+    }
+    checkThat(err instanceof NoDampingSolutionError, 'definition', `expected NoDampingSolutionError, got ${String(err)}`);
+    const msg = (err as Error).message;
+    checkThat(msg.includes('no damping value explains 90 %'), 'definition', `message "${msg}"`);
+    checkRange((err as NoDampingSolutionError).maxPct, 0, 90, 'definition', {});
+  });
+
+  it('when 0 % is measured, then it says every damping below a threshold explains it', () => {
+    let msg = '';
+    try {
+      dampingFromAdhesion(CAR, 0);
+    } catch (e) {
+      msg = (e as Error).message;
+    }
+    checkThat(msg.includes('no damping value explains 0 %') && msg.includes('predicts 0 %'), 'definition', `message "${msg}"`);
+  });
+});
