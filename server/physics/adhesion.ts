@@ -60,7 +60,7 @@ export function adhesionPct(c: CornerParams, opts: AdhesionOptions = {}): Adhesi
   const w = (c.sprungMassKg + c.unsprungMassKg) * STANDARD_GRAVITY;
   const step = 0.01;
   let best = -1;
-  let bestF = SWEEP_HZ.to;
+  let bestF: number = SWEEP_HZ.to;
   for (let f = SWEEP_HZ.to; f <= SWEEP_HZ.from + 1e-9; f += step) {
     const g = tyreGain(c, f);
     if (g > best) {
