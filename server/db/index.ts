@@ -4,6 +4,9 @@ import path from 'node:path';
 import fs from 'node:fs';
 import { initModels } from './models';
 import * as m0001 from './migrations/0001-initial';
+import * as m0002 from './migrations/0002-roads-and-imports';
+import * as m0003 from './migrations/0003-nightly-duty';
+import { initNightlyModels } from './nightly-models';
 
 export interface Db {
   sequelize: Sequelize;
@@ -12,7 +15,11 @@ export interface Db {
 }
 
 /** Every migration, in order. Add new ones at the end; never edit one that has shipped. */
-export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [{ name: '0001-initial', up: m0001.up, down: m0001.down }];
+export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
+  { name: '0001-initial', up: m0001.up, down: m0001.down },
+  { name: '0002-roads-and-imports', up: m0002.up, down: m0002.down },
+  { name: '0003-nightly-duty', up: m0003.up, down: m0003.down },
+];
 
 /**
  * Opens the SQLite database file (created if missing), switches it to WAL mode and registers
@@ -45,6 +52,7 @@ export async function openDb(file: string, opts: { log?: (sql: string) => void }
   await sequelize.query('PRAGMA journal_mode = WAL');
   await sequelize.query('PRAGMA synchronous = NORMAL');
   initModels(sequelize);
+  initNightlyModels(sequelize);
   return { sequelize, file, close: () => sequelize.close() };
 }
 

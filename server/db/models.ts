@@ -28,6 +28,10 @@ export class User extends Model<Attrs<User>, CAttrs<User>> {
   declare passwordHash: string;
   declare active: CreationOptional<boolean>;
   declare depotId: ForeignKey<number> | null;
+  /** E-mail preferences (issue 5): managers' inspection digest, its ride-report section, mechanics' assignment notes. */
+  declare notifyInspectionDigest: CreationOptional<boolean>;
+  declare notifyRideReports: CreationOptional<boolean>;
+  declare notifyAssignments: CreationOptional<boolean>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -98,6 +102,8 @@ export class Damper extends Model<Attrs<Damper>, CAttrs<Damper>> {
   declare lifeUsedFraction: CreationOptional<number>;
   declare dampingNsPerM: CreationOptional<number | null>;
   declare wearUpdatedAt: CreationOptional<Date | null>;
+  /** Issue 5: derived wear must be recomputed from this day on (null = up to date). */
+  declare wearDirtyFrom: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -130,6 +136,8 @@ export class RouteSegment extends Model<Attrs<RouteSegment>, CAttrs<RouteSegment
   declare isoClass: CreationOptional<string | null>;
   declare roughnessSource: CreationOptional<RoughnessSource | null>;
   declare roughnessDate: CreationOptional<string | null>;
+  /** The survey behind the current roughness (null unless the current value is a survey). */
+  declare surveyId: CreationOptional<ForeignKey<number> | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -144,6 +152,7 @@ export class RoughnessObservation extends Model<Attrs<RoughnessObservation>, CAt
   declare observedOn: string;
   declare recordedById: ForeignKey<number> | null;
   declare note: string | null;
+  declare surveyId: CreationOptional<ForeignKey<number> | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -159,6 +168,7 @@ export class Trip extends Model<Attrs<Trip>, CAttrs<Trip>> {
   declare meanSpeedKmh: number;
   declare payloadKg: number | null;
   declare processedAt: CreationOptional<Date | null>;
+  declare importId: CreationOptional<ForeignKey<number> | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -173,6 +183,15 @@ export class Inspection extends Model<Attrs<Inspection>, CAttrs<Inspection>> {
   declare completedAt: Date | null;
   declare odometerKm: number | null;
   declare notes: string | null;
+  /** Issue 5: the rule that scheduled it (prediction | interval_km | interval_months | manual), null for older rows. */
+  declare trigger: CreationOptional<string | null>;
+  /** Issue 5: JSON text of the numbers the schedule rests on. */
+  declare basis: CreationOptional<string | null>;
+  /** Issue 5: the last status managers were e-mailed about. */
+  declare notifiedStatus: CreationOptional<string | null>;
+  /** Issue 5: the assignee who was e-mailed about it. */
+  declare assigneeNotifiedId: CreationOptional<number | null>;
+  declare createdByRunId: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -187,6 +206,36 @@ export class WorkRecord extends Model<Attrs<WorkRecord>, CAttrs<WorkRecord>> {
   declare summary: string;
   declare partsCost: number | null;
   declare labourHours: number | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+/** A longitudinal profile survey of (part of) a route; the profile file is kept under DATA_DIR. */
+export class RoadSurvey extends Model<Attrs<RoadSurvey>, CAttrs<RoadSurvey>> {
+  declare id: CreationOptional<number>;
+  declare routeId: ForeignKey<number>;
+  /** Path of the stored profile CSV relative to DATA_DIR. */
+  declare filePath: string;
+  declare originalName: string;
+  declare dxM: number;
+  declare startM: number;
+  declare endM: number;
+  declare pointCount: number;
+  declare surveyedOn: string;
+  declare note: string | null;
+  declare uploadedById: ForeignKey<number> | null;
+  declare uploadedAt: Date;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+/** One all-or-nothing trip import (file name, how many rows, who, when). */
+export class TripImport extends Model<Attrs<TripImport>, CAttrs<TripImport>> {
+  declare id: CreationOptional<number>;
+  declare originalName: string;
+  declare rowCount: number;
+  declare importedById: ForeignKey<number> | null;
+  declare importedAt: Date;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -209,6 +258,9 @@ export function initModels(sequelize: Sequelize) {
       passwordHash: { type: DataTypes.STRING(100), allowNull: false },
       active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
       depotId: { type: DataTypes.INTEGER, allowNull: true },
+      notifyInspectionDigest: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+      notifyRideReports: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+      notifyAssignments: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
       ...ts,
     },
     { ...common, tableName: 'users' },
@@ -277,6 +329,7 @@ export function initModels(sequelize: Sequelize) {
       lifeUsedFraction: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
       dampingNsPerM: { type: DataTypes.DOUBLE, allowNull: true },
       wearUpdatedAt: { type: DataTypes.DATE, allowNull: true },
+      wearDirtyFrom: { type: DataTypes.DATEONLY, allowNull: true },
       ...ts,
     },
     { ...common, tableName: 'dampers' },
@@ -307,6 +360,7 @@ export function initModels(sequelize: Sequelize) {
       isoClass: { type: DataTypes.STRING(1), allowNull: true },
       roughnessSource: { type: DataTypes.STRING(20), allowNull: true },
       roughnessDate: { type: DataTypes.DATEONLY, allowNull: true },
+      surveyId: { type: DataTypes.INTEGER, allowNull: true },
       ...ts,
     },
     { ...common, tableName: 'route_segments' },
@@ -320,6 +374,7 @@ export function initModels(sequelize: Sequelize) {
       source: { type: DataTypes.STRING(20), allowNull: false },
       observedOn: { type: DataTypes.DATEONLY, allowNull: false },
       note: { type: DataTypes.STRING(240), allowNull: true },
+      surveyId: { type: DataTypes.INTEGER, allowNull: true },
       ...ts,
     },
     { ...common, tableName: 'roughness_observations' },
@@ -333,9 +388,36 @@ export function initModels(sequelize: Sequelize) {
       meanSpeedKmh: { type: DataTypes.DOUBLE, allowNull: false },
       payloadKg: { type: DataTypes.DOUBLE, allowNull: true },
       processedAt: { type: DataTypes.DATE, allowNull: true },
+      importId: { type: DataTypes.INTEGER, allowNull: true },
       ...ts,
     },
     { ...common, tableName: 'trips' },
+  );
+  RoadSurvey.init(
+    {
+      id: pk,
+      filePath: { type: DataTypes.STRING(300), allowNull: false },
+      originalName: { type: DataTypes.STRING(255), allowNull: false },
+      dxM: { type: DataTypes.DOUBLE, allowNull: false },
+      startM: { type: DataTypes.DOUBLE, allowNull: false },
+      endM: { type: DataTypes.DOUBLE, allowNull: false },
+      pointCount: { type: DataTypes.INTEGER, allowNull: false },
+      surveyedOn: { type: DataTypes.DATEONLY, allowNull: false },
+      note: { type: DataTypes.STRING(240), allowNull: true },
+      uploadedAt: { type: DataTypes.DATE, allowNull: false },
+      ...ts,
+    },
+    { ...common, tableName: 'road_surveys' },
+  );
+  TripImport.init(
+    {
+      id: pk,
+      originalName: { type: DataTypes.STRING(255), allowNull: false },
+      rowCount: { type: DataTypes.INTEGER, allowNull: false },
+      importedAt: { type: DataTypes.DATE, allowNull: false },
+      ...ts,
+    },
+    { ...common, tableName: 'trip_imports' },
   );
   Inspection.init(
     {
@@ -346,6 +428,11 @@ export function initModels(sequelize: Sequelize) {
       completedAt: { type: DataTypes.DATE, allowNull: true },
       odometerKm: { type: DataTypes.DOUBLE, allowNull: true },
       notes: { type: DataTypes.TEXT, allowNull: true },
+      trigger: { type: DataTypes.STRING(20), allowNull: true },
+      basis: { type: DataTypes.TEXT, allowNull: true },
+      notifiedStatus: { type: DataTypes.STRING(16), allowNull: true },
+      assigneeNotifiedId: { type: DataTypes.INTEGER, allowNull: true },
+      createdByRunId: { type: DataTypes.INTEGER, allowNull: true },
       ...ts,
     },
     { ...common, tableName: 'inspections' },
@@ -380,6 +467,13 @@ export function initModels(sequelize: Sequelize) {
   RouteSegment.hasMany(RoughnessObservation, { as: 'observations', foreignKey: 'segmentId' });
   RoughnessObservation.belongsTo(RouteSegment, { as: 'segment', foreignKey: 'segmentId' });
   RoughnessObservation.belongsTo(User, { as: 'recordedBy', foreignKey: 'recordedById' });
+  RoadSurvey.belongsTo(Route, { as: 'route', foreignKey: 'routeId' });
+  RoadSurvey.belongsTo(User, { as: 'uploadedBy', foreignKey: 'uploadedById' });
+  Route.hasMany(RoadSurvey, { as: 'surveys', foreignKey: 'routeId' });
+  RoughnessObservation.belongsTo(RoadSurvey, { as: 'survey', foreignKey: 'surveyId' });
+  RouteSegment.belongsTo(RoadSurvey, { as: 'survey', foreignKey: 'surveyId' });
+  TripImport.belongsTo(User, { as: 'importedBy', foreignKey: 'importedById' });
+  Trip.belongsTo(TripImport, { as: 'import', foreignKey: 'importId' });
   Trip.belongsTo(Vehicle, { as: 'vehicle', foreignKey: 'vehicleId' });
   Trip.belongsTo(Route, { as: 'route', foreignKey: 'routeId' });
   Trip.belongsTo(User, { as: 'driver', foreignKey: 'driverId' });

@@ -7,9 +7,12 @@
 import { addDays, formatISO, startOfDay, subDays } from 'date-fns';
 import type { CreationAttributes } from 'sequelize';
 import type { Db } from './index';
+import path from 'node:path';
+import fs from 'node:fs';
 import {
   Damper,
   Depot,
+  RoadSurvey,
   Inspection,
   RoughnessObservation,
   Route,
@@ -24,8 +27,35 @@ import {
 } from './models';
 import { hashPassword } from '../users/service';
 import { lineLengthM, splitLine, type LonLat } from '../roads/geometry';
-import { classifyGd, gdForClass, seededRandom, type IsoClass } from '../physics/iso8608';
-import { gdFromIri, iriFromGd } from '../physics/iri';
+import { classifyGd, gdForClass, seededRandom, synthesizeProfile, type IsoClass } from '../physics/iso8608';
+import { gdFromIri, iriFromGd, iriSegments } from '../physics/iri';
+import { formatProfileCsv, storeProfileFile, SURVEY_DIR } from '../roads/profile-store';
+
+/** Sample interval of the demo survey profiles [m] (ASTM E1926's 250 mm). */
+const DEMO_SURVEY_DX_M = 0.25;
+
+/**
+ * A demo survey profile for a route: each segment's stretch is synthesised with the ISO 8608
+ * random-phase method at that segment's Gd(n0) (seeded per route and segment), joined by
+ * adding up each stretch's increments so the profile has no steps at the joins. Elevations are
+ * rounded to 1 µm, as the file stores them.
+ */
+function demoSurveyProfile(segs: { startM: number; endM: number; gdN0: number }[], seed: number): Float64Array {
+  const dx = DEMO_SURVEY_DX_M;
+  const totalM = segs[segs.length - 1].endM;
+  const n = Math.floor(totalM / dx + 1e-9) + 1;
+  const z = new Float64Array(n);
+  let i = 1;
+  for (const [k, seg] of segs.entries()) {
+    const last = k === segs.length - 1 ? n - 1 : Math.min(n - 1, Math.ceil(seg.endM / dx - 1e-9));
+    const count = last - i + 1;
+    if (count <= 0) continue;
+    const part = synthesizeProfile({ gdN0: seg.gdN0, lengthM: count * dx, dxM: dx, seed: seed * 10_000 + k });
+    for (let j = 1; j <= count; j++, i++) z[i] = z[i - 1] + (part[j] - part[j - 1]);
+  }
+  for (let j = 0; j < n; j++) z[j] = Math.round(z[j] * 1e6) / 1e6;
+  return z;
+}
 
 export const DEMO_PASSWORD = 'reboundry-demo';
 
@@ -126,7 +156,7 @@ function routeLine(rand: () => number, start: LonLat, headingDeg: number, length
 
 /** Empties every table (children first). */
 export async function clearAll(db: Db) {
-  const t = ['sessions', 'dampers', 'work_records', 'inspections', 'trips', 'roughness_observations', 'route_segments', 'routes', 'vehicles', 'spec_axles', 'suspension_specs', 'users', 'depots'];
+  const t = ['sessions', 'dampers', 'work_records', 'inspections', 'trips', 'trip_imports', 'roughness_observations', 'route_segments', 'road_surveys', 'routes', 'vehicles', 'spec_axles', 'suspension_specs', 'users', 'depots'];
   await db.sequelize.transaction(async (transaction) => {
     for (const table of t) {
       const [exists] = await db.sequelize.query(`SELECT name FROM sqlite_master WHERE type='table' AND name=?`, { replacements: [table], transaction });
@@ -142,8 +172,12 @@ export async function isEmpty(): Promise<boolean> {
   return (await User.count()) === 0;
 }
 
-/** Seeds the demo fleet into an empty, migrated database. `now` fixes "today". */
-export async function seedDemo(db: Db, now: Date = new Date()) {
+/**
+ * Seeds the demo fleet into an empty, migrated database. `now` fixes "today". Survey profile
+ * files go under `dataDir` (default: the database file's folder, i.e. DATA_DIR).
+ */
+export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string = path.dirname(db.file)) {
+  fs.mkdirSync(path.join(dataDir, SURVEY_DIR), { recursive: true });
   const rand = seededRandom(20261201);
   const today = startOfDay(now);
   const pw = await hashPassword(DEMO_PASSWORD);
@@ -232,7 +266,50 @@ export async function seedDemo(db: Db, now: Date = new Date()) {
           roughnessDate: source === 'survey' ? surveyDate : source === 'driver_report' ? day(subDays(today, 12)) : statedDate,
         };
       });
-      const created = await RouteSegment.bulkCreate(segRows, { ...opts, returning: true });
+      let surveyId: number | null = null;
+      if (r.source === 'survey') {
+        // A stored profile for the surveyed route; each segment's IRI is what the golden car
+        // reads on it, and Gd(n0) and the class follow from that IRI.
+        const profile = demoSurveyProfile(
+          segRows.map((s) => ({ startM: s.startM, endM: s.endM, gdN0: s.gdN0 })),
+          route.id,
+        );
+        const bins = iriSegments(profile, DEMO_SURVEY_DX_M, 100);
+        for (const s of segRows) {
+          const mine = bins.filter((b) => b.startM >= s.startM - 1e-6 && b.startM < s.endM - 1e-6);
+          const w = mine.reduce((a, b) => a + (b.endM - b.startM), 0);
+          const iriSeg = mine.reduce((a, b) => a + b.iri * (b.endM - b.startM), 0) / w;
+          s.iri = Math.round(iriSeg * 1000) / 1000;
+          s.gdN0 = gdFromIri(s.iri);
+          s.isoClass = classifyGd(s.gdN0);
+        }
+        const file = storeProfileFile(
+          dataDir,
+          formatProfileCsv({ dxM: DEMO_SURVEY_DX_M, startM: 0, elevationsM: profile }, `Demo profile survey of ${r.name} (synthesised, ISO 8608 random-phase method)`),
+          `demo-route-${route.id}.csv`,
+        );
+        const survey = await RoadSurvey.create(
+          {
+            routeId: route.id,
+            filePath: file,
+            originalName: `${r.name.toLowerCase().replace(/[^a-z0-9]+/g, '-')}-profile.csv`,
+            dxM: DEMO_SURVEY_DX_M,
+            startM: 0,
+            endM: (profile.length - 1) * DEMO_SURVEY_DX_M,
+            pointCount: profile.length,
+            surveyedOn: surveyDate,
+            note: 'Demo survey (synthesised profile)',
+            uploadedById: null,
+            uploadedAt: new Date(`${surveyDate}T15:00:00Z`),
+          },
+          opts,
+        );
+        surveyId = survey.id;
+      }
+      const created = await RouteSegment.bulkCreate(
+        segRows.map((s) => ({ ...s, surveyId: s.roughnessSource === 'survey' ? surveyId : null })),
+        { ...opts, returning: true },
+      );
       const obs = created.map((seg, i) => ({
         segmentId: seg.id,
         iri: segRows[i].roughnessSource === 'survey' ? segRows[i].iri : null,
@@ -241,6 +318,7 @@ export async function seedDemo(db: Db, now: Date = new Date()) {
         source: segRows[i].roughnessSource,
         observedOn: segRows[i].roughnessDate,
         recordedById: null,
+        surveyId: segRows[i].roughnessSource === 'survey' ? surveyId : null,
         note:
           segRows[i].roughnessSource === 'survey'
             ? 'Profile survey (demo)'
