@@ -18,8 +18,10 @@ export interface CornerParams {
 }
 
 export interface SpecAxle {
+  /** 0 for the front axle, counting rearwards. */
+  axleIndex: number;
   /** `front`, `rear`, `middle`… */
-  axle: string;
+  label: string;
   corner: CornerParams;
   /** Rated damper life on this axle [km]. */
   ratedDamperLifeKm: number;

@@ -66,10 +66,10 @@ export function FleetPage() {
       </Section>
 
       <Section title="Inspections">
-        <EmptyState title="No inspections to show yet">
-          Once the nightly wear run is switched on, vehicles with a damper nearing its inspection point are listed here,
-          due and overdue first, each with the reason. Until then, each vehicle&rsquo;s page shows the life used of its
-          dampers.
+        <EmptyState title="Due and overdue inspections will be listed here">
+          Once the nightly wear run is switched on, vehicles with a damper nearing its inspection point appear here, overdue
+          first, each with the reason. Until then, each vehicle&rsquo;s page shows its booked inspections and the distance
+          on each damper.
         </EmptyState>
       </Section>
 

@@ -50,7 +50,7 @@ export function MyVehiclePage() {
           ]}
         />
         <Section title="Dampers">
-          <DamperCorners dampers={detail.data.dampers} axles={spec.axles} odometerKm={vehicle.odometerKm} compact />
+          <DamperCorners dampers={detail.data.dampers} axles={spec.axles} compact />
         </Section>
         <Section title="Inspections">
           <VehicleInspections inspections={detail.data.inspections} />

@@ -6,7 +6,6 @@ import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page-header';
 import { Section } from '@/components/ui/section';
 import { useVehicles } from '@/features/vehicles/api/get-vehicles';
-import { VehicleStatusBadge } from '@/features/vehicles/components/vehicle-status-badge';
 import { VehiclesTable } from '@/features/vehicles/components/vehicles-table';
 import { useVehicleListParams } from '@/features/vehicles/hooks/use-vehicle-list-params';
 import { formatQuantity } from '@/lib/format';
@@ -36,7 +35,7 @@ export function WorkshopPage() {
         ) : inWorkshop.data.items.length === 0 ? (
           <EmptyState title="No vehicles are in the workshop">When a vehicle is booked in, it is listed here.</EmptyState>
         ) : (
-          <ul className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
+          <ul className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
             {inWorkshop.data.items.map((v) => (
               <li key={v.id}>
                 <Link
@@ -44,12 +43,16 @@ export function WorkshopPage() {
                   className="flex min-h-20 items-center justify-between gap-3 rounded-md border border-line bg-surface px-4 py-3 hover:border-slate"
                 >
                   <span className="min-w-0">
-                    <span className="block text-lg font-semibold text-ink">{v.fleetNumber}</span>
-                    <span className="block truncate text-sm text-slate">
-                      <span className="font-mono">{v.plate}</span> · {v.specName} · {formatQuantity(v.odometerKm, 'km')}
+                    <span className="flex items-baseline gap-2">
+                      <span className="text-lg font-semibold text-ink">{v.fleetNumber}</span>
+                      <span className="font-mono text-sm text-slate">{v.plate}</span>
                     </span>
+                    <span className="block text-sm text-slate">
+                      {v.specName} · {v.depotName}
+                    </span>
+                    <span className="tabular block text-sm text-slate">Odometer {formatQuantity(v.odometerKm, 'km')}</span>
                   </span>
-                  <VehicleStatusBadge status={v.status} />
+                  <span aria-hidden="true" className="text-xl text-slate">›</span>
                 </Link>
               </li>
             ))}

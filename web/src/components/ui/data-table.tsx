@@ -24,8 +24,8 @@ declare module '@tanstack/react-table' {
     unit?: string;
     /** Plain text of the header for CSV and screen readers when `header` is not a string. */
     label?: string;
-    /** The value written to CSV; defaults to the column's accessor value. */
-    csv?: (row: TData) => CsvValue;
+    /** The value written to CSV; defaults to the column's accessor value. `false` leaves the column out. */
+    csv?: ((row: TData) => CsvValue) | false;
     className?: string;
   }
 }
@@ -124,7 +124,7 @@ export function DataTable<T>(props: DataTableProps<T>) {
   const nounFor = (n: number) => (n === 1 ? noun[0] : noun[1]);
 
   function exportCsv() {
-    const cols = table.getVisibleLeafColumns();
+    const cols = table.getVisibleLeafColumns().filter((c) => c.columnDef.meta?.csv !== false);
     const header = cols.map((c) => {
       const meta = c.columnDef.meta;
       const name = meta?.label ?? (typeof c.columnDef.header === 'string' ? c.columnDef.header : c.id);

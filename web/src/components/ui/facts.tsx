@@ -8,7 +8,7 @@ export function Facts({ items, className }: { items: Array<{ label: ReactNode; v
       {items.map((item, i) => (
         <div key={i} className="min-w-0">
           <dt className="text-[0.8125rem] text-slate">{item.label}</dt>
-          <dd className={cx('mt-0.5 truncate font-medium text-ink', item.numeric && 'tabular')}>{item.value}</dd>
+          <dd className={cx('mt-0.5 font-medium break-words text-ink', item.numeric && 'tabular')}>{item.value}</dd>
         </div>
       ))}
     </dl>

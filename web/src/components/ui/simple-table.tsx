@@ -43,10 +43,10 @@ export function SimpleTable<T>({
               <th
                 key={c.key}
                 scope="col"
-                className={cx('px-3 py-2 text-[0.8125rem] font-semibold whitespace-nowrap text-ink', c.numeric ? 'text-right' : 'text-left')}
+                className={cx('px-3 py-2 align-bottom text-[0.8125rem] leading-snug font-semibold text-ink', c.numeric ? 'text-right' : 'text-left')}
               >
                 {c.header}
-                {c.unit ? <span className="ml-1 font-normal text-slate">({c.unit})</span> : null}
+                {c.unit ? <span className="font-normal whitespace-nowrap text-slate"> ({c.unit})</span> : null}
               </th>
             ))}
           </tr>

@@ -14,7 +14,7 @@ export function AccountPage() {
       {user ? (
         <Section title="Details">
           <Facts
-            className="lg:grid-cols-3"
+            className="sm:grid-cols-[repeat(3,max-content)] sm:gap-x-12 lg:grid-cols-[repeat(3,max-content)]"
             items={[
               { label: 'Name', value: user.name },
               { label: 'E-mail', value: user.email },

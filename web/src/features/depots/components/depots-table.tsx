@@ -30,7 +30,7 @@ export function DepotsTable({ depots, vehiclesPath }: { depots: Depot[]; vehicle
           ),
         },
       ]}
-      footer={`${formatNumber(depots.length)} ${depots.length === 1 ? 'depot' : 'depots'}, ${formatNumber(total)} vehicles in all`}
+      footer={`${formatNumber(depots.length)} ${depots.length === 1 ? 'depot' : 'depots'}, ${formatNumber(total)} vehicles in service or in the workshop. Retired vehicles are not counted.`}
     />
   );
 }

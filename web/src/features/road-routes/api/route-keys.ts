@@ -1,7 +1,7 @@
-import type { ListParams } from '@/lib/api-client';
+import type { RouteListParams } from './get-routes';
 
 export const routeKeys = {
   all: ['routes'] as const,
   lists: () => [...routeKeys.all, 'list'] as const,
-  list: (params: ListParams) => [...routeKeys.lists(), params] as const,
+  list: (params: RouteListParams) => [...routeKeys.lists(), params] as const,
 };

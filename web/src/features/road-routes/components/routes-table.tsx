@@ -3,30 +3,49 @@ import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { RoughnessClassBadge, RoughnessLegend } from '@/components/ui/roughness';
+import { SearchField } from '@/components/ui/search-field';
 import { formatNumber, isoDate } from '@/lib/format';
 import { useListSearchParams } from '@/lib/use-list-search-params';
-import { useRoutes, type RouteListItem } from '../api/get-routes';
+import { ROUTE_SORTS, useRoutes, type RouteListItem } from '../api/get-routes';
 
 const col = createColumnHelper<RouteListItem>();
-const noFilters = () => ({});
 
-/** The fleet's routes with their length, segment count and roughest stretch. */
+function readFilters(search: URLSearchParams) {
+  return { q: search.get('q')?.trim() || undefined };
+}
+
+/** The fleet's routes with their length, usual speed, segment count and roughest stretch. */
 export function RoutesTable() {
-  const [params, update] = useListSearchParams({ sorts: ['name'], defaultSort: 'name', readFilters: noFilters });
+  const [params, update] = useListSearchParams({ sorts: ROUTE_SORTS, defaultSort: 'name', readFilters });
   const query = useRoutes(params);
 
   const columns = useMemo(
     () => [
-      col.accessor('name', { header: 'Route', cell: (c) => <span className="font-medium">{c.getValue()}</span> }),
+      col.accessor('name', {
+        header: 'Route',
+        cell: (c) => (
+          <span>
+            <span className="font-medium">{c.getValue()}</span>
+            {c.row.original.description ? <span className="block text-[0.8125rem] text-slate">{c.row.original.description}</span> : null}
+          </span>
+        ),
+      }),
       col.accessor('lengthKm', {
+        // The server sorts by the stored length in metres.
+        id: 'lengthM',
         header: 'Length',
-        enableSorting: false,
-        meta: { numeric: true, unit: 'km' },
+        meta: { numeric: true, unit: 'km', csv: (r) => Number(r.lengthKm.toFixed(2)) },
         cell: (c) => formatNumber(c.getValue(), 1),
+      }),
+      col.accessor('defaultSpeedKmh', {
+        header: 'Usual speed',
+        enableSorting: false,
+        meta: { numeric: true, unit: 'km/h' },
+        cell: (c) => formatNumber(c.getValue()),
       }),
       col.accessor('segmentCount', { header: 'Segments', enableSorting: false, meta: { numeric: true }, cell: (c) => formatNumber(c.getValue()) }),
       col.accessor('worstClass', {
-        header: 'Roughest class',
+        header: 'Roughest stretch',
         enableSorting: false,
         meta: { label: 'Roughest ISO 8608 class' },
         cell: (c) => <RoughnessClassBadge value={c.getValue()} />,
@@ -36,32 +55,41 @@ export function RoutesTable() {
   );
 
   return (
-    <div className="flex flex-col gap-4">
-      <RoughnessLegend />
-      <DataTable
-        label="Routes"
-        columns={columns}
-        rows={query.data?.items}
-        total={query.data?.total}
-        getRowId={(r) => String(r.id)}
-        page={params.page}
-        pageSize={params.pageSize}
-        sort={params.sort}
-        onPageChange={(page) => update({ page })}
-        onPageSizeChange={(pageSize) => update({ pageSize })}
-        onSortChange={(sort) => update({ sort })}
-        isLoading={query.isPending}
-        isFetching={query.isFetching}
-        error={query.error}
-        onRetry={() => void query.refetch()}
-        noun={['route', 'routes']}
-        csvFileName={`reboundry-routes-${isoDate(new Date())}.csv`}
-        empty={
+    <DataTable
+      label="Routes"
+      columns={columns}
+      rows={query.data?.items}
+      total={query.data?.total}
+      getRowId={(r) => String(r.id)}
+      page={params.page}
+      pageSize={params.pageSize}
+      sort={params.sort}
+      onPageChange={(page) => update({ page })}
+      onPageSizeChange={(pageSize) => update({ pageSize })}
+      onSortChange={(sort) => update({ sort })}
+      isLoading={query.isPending}
+      isFetching={query.isFetching}
+      error={query.error}
+      onRetry={() => void query.refetch()}
+      noun={['route', 'routes']}
+      csvFileName={`reboundry-routes-${isoDate(new Date())}.csv`}
+      toolbar={
+        <div className="flex flex-wrap items-end justify-between gap-4">
+          <div role="search" aria-label="Filter routes" className="w-full max-w-sm">
+            <SearchField label="Route name" value={params.q ?? ''} onChange={(q) => update({ q: q || undefined })} />
+          </div>
+          <RoughnessLegend />
+        </div>
+      }
+      empty={
+        params.q ? (
+          <EmptyState title="No routes match this search">Try a shorter part of the route&rsquo;s name.</EmptyState>
+        ) : (
           <EmptyState title="No routes yet">
             Routes come from a road survey upload or are drawn by a fleet manager; trips are then matched to them.
           </EmptyState>
-        }
-      />
-    </div>
+        )
+      }
+    />
   );
 }

@@ -11,15 +11,15 @@ export function SpecCornerTable({ axles, label = 'Corner parameters per axle' }:
     <SimpleTable
       label={label}
       rows={axles}
-      getRowKey={(a) => a.axle}
+      getRowKey={(a) => a.axleIndex}
       columns={[
-        { key: 'axle', header: 'Axle', rowHeader: true, cell: (a) => axleLabel(a.axle) },
+        { key: 'axle', header: 'Axle', rowHeader: true, cell: (a) => axleLabel(a.label) },
         { key: 'ms', header: 'Sprung mass', unit: 'kg', numeric: true, cell: (a) => formatNumber(a.corner.sprungMassKg) },
         { key: 'mu', header: 'Unsprung mass', unit: 'kg', numeric: true, cell: (a) => formatNumber(a.corner.unsprungMassKg) },
         { key: 'ks', header: 'Spring rate', unit: 'kN/m', numeric: true, cell: (a) => formatNumber(a.corner.springRateNPerM / 1000, 1) },
         { key: 'cs', header: 'Damping', unit: 'N·s/m', numeric: true, cell: (a) => formatNumber(a.corner.dampingNsPerM) },
         { key: 'kt', header: 'Tyre rate', unit: 'kN/m', numeric: true, cell: (a) => formatNumber(a.corner.tireRateNPerM / 1000, 0) },
-        { key: 'life', header: 'Rated damper life', unit: 'km', numeric: true, cell: (a) => formatNumber(a.ratedDamperLifeKm) },
+        { key: 'life', header: 'Rated life', unit: 'km', numeric: true, cell: (a) => formatNumber(a.ratedDamperLifeKm) },
         { key: 'fb', header: 'Body bounce ≈', unit: 'Hz', numeric: true, cell: (a) => formatNumber(bodyBounceHz(a.corner), 2) },
         { key: 'fw', header: 'Wheel hop ≈', unit: 'Hz', numeric: true, cell: (a) => formatNumber(wheelHopHz(a.corner), 1) },
         { key: 'zeta', header: 'Damping ratio ≈', unit: '%', numeric: true, cell: (a) => formatNumber(dampingRatio(a.corner) * 100, 0) },

@@ -63,7 +63,7 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
       col.display({
         id: 'actions',
         header: () => <span className="sr-only">Actions</span>,
-        meta: { label: 'Actions', csv: () => '', className: 'text-right whitespace-nowrap' },
+        meta: { label: 'Actions', csv: false, className: 'text-right whitespace-nowrap' },
         cell: (c) => {
           const u = c.row.original;
           const self = u.id === currentUserId;

@@ -4,19 +4,34 @@ import type { SuspensionSpec } from '@/lib/suspension';
 import type { VehicleListItem } from './get-vehicles';
 import { vehicleKeys } from './vehicle-keys';
 
-export type DamperPosition = 'FL' | 'FR' | 'ML' | 'MR' | 'RL' | 'RR';
+/** `FL`, `FR`, `RL`, `RR`, and for three-axle trucks also `ML`, `MR`. */
+export type DamperPosition = string;
 
 export interface Damper {
   id: number;
   position: DamperPosition;
+  /** Index into the spec's axles, 0 at the front. */
+  axleIndex: number;
+  partNumber: string | null;
   installedAt: string;
   installedOdometerKm: number;
   removedAt: string | null;
+  removedOdometerKm: number | null;
   removalReason: string | null;
-  /** Estimated fraction of rated life used, 0–1 (may exceed 1). */
+  /** Distance driven on this damper: to removal, or to the present odometer reading [km]. */
+  distanceKm: number;
+  /** Estimated fraction of rated life used, 0–1 (may exceed 1). Meaningful once the wear run has estimated it. */
   lifeUsedFraction: number | null;
+  /** When the wear run last estimated this damper; null until it has (absent from older servers). */
+  wearUpdatedAt?: string | null;
   /** Present damping coefficient estimate [N·s/m]. */
   dampingNsPerM: number | null;
+}
+
+/** Whether the wear run has estimated this damper yet (a 0 before the first run is not an estimate). */
+export function hasWearEstimate(d: Damper): boolean {
+  if (d.wearUpdatedAt !== undefined) return d.wearUpdatedAt !== null;
+  return typeof d.lifeUsedFraction === 'number' && d.lifeUsedFraction > 0;
 }
 
 export interface VehicleTrip {

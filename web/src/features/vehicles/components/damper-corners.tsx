@@ -4,133 +4,163 @@ import { cx } from '@/lib/class-names';
 import { formatDate, formatPercent, formatQuantity } from '@/lib/format';
 import { axleLabel, type SpecAxle } from '@/lib/suspension';
 import { WEAR_BANDS, wearRule, wearTone, wearWords } from '@/lib/wear';
-import type { Damper, DamperPosition } from '../api/get-vehicle';
+import { hasWearEstimate, type Damper } from '../api/get-vehicle';
 
-export const positionNames: Record<DamperPosition, string> = {
-  FL: 'Front left',
-  FR: 'Front right',
-  ML: 'Middle left',
-  MR: 'Middle right',
-  RL: 'Rear left',
-  RR: 'Rear right',
-};
+const sideNames: Record<string, string> = { L: 'left', R: 'right' };
+const rowNames: Record<string, string> = { F: 'Front', M: 'Middle', R: 'Rear' };
 
-const axleRows: Array<{ key: 'F' | 'M' | 'R'; left: DamperPosition; right: DamperPosition }> = [
-  { key: 'F', left: 'FL', right: 'FR' },
-  { key: 'M', left: 'ML', right: 'MR' },
-  { key: 'R', left: 'RL', right: 'RR' },
-];
-
-/** The spec axle that a corner position belongs to: by name, else by order (first, middle, last). */
-function axleFor(axles: SpecAxle[], key: 'F' | 'M' | 'R'): SpecAxle | undefined {
-  const byName = axles.find((a) => a.axle.toLowerCase().startsWith({ F: 'front', M: 'mid', R: 'rear' }[key]));
-  if (byName) return byName;
-  if (key === 'F') return axles[0];
-  if (key === 'R') return axles[axles.length - 1];
-  return axles.length === 3 ? axles[1] : undefined;
+/** `FL` → `Front left`; unknown codes are shown as they are. */
+export function positionName(position: string): string {
+  const row = rowNames[position.charAt(0)];
+  const side = sideNames[position.charAt(position.length - 1)];
+  return row && side ? `${row} ${side}` : position;
 }
 
 interface DamperCornersProps {
   dampers: Damper[];
   axles: SpecAxle[];
-  odometerKm: number;
-  /** Single column with large type, for the driver's phone. */
+  /** Larger figures and fewer details, for the driver's phone. */
   compact?: boolean;
 }
 
 /**
- * The dampers now fitted, laid out as seen from above (front at the top, left on the left), each
- * with its estimated life used, when and at what odometer reading it was fitted.
+ * The dampers now fitted, laid out as seen from above (front axle at the top, left on the left),
+ * each with its estimated life used, and when, at what odometer reading and how far ago it was fitted.
  */
-export function DamperCorners({ dampers, axles, odometerKm, compact }: DamperCornersProps) {
+export function DamperCorners({ dampers, axles, compact }: DamperCornersProps) {
   const fitted = dampers.filter((d) => !d.removedAt);
-  const byPosition = new Map(fitted.map((d) => [d.position, d]));
-  const rows = axleRows.filter((r) => byPosition.has(r.left) || byPosition.has(r.right) || (r.key !== 'M' && axles.length > 0));
-
   if (fitted.length === 0) {
-    return <p className="text-sm text-slate">No dampers are recorded as fitted to this vehicle. A mechanic records them when fitting or replacing one.</p>;
+    return (
+      <p className="text-sm text-slate">
+        No dampers are recorded as fitted to this vehicle. A mechanic records them when fitting or replacing one.
+      </p>
+    );
   }
+
+  const axleIndexes = [...new Set([...axles.map((a) => a.axleIndex), ...fitted.map((d) => d.axleIndex)])].sort((a, b) => a - b);
+  const anyEstimate = fitted.some(hasWearEstimate);
 
   return (
     <div>
-      <div className="flex flex-col gap-3">
-        {rows.map((row) => {
-          const axle = axleFor(axles, row.key);
+      <div className="flex flex-col gap-4">
+        {axleIndexes.map((index) => {
+          const axle = axles.find((a) => a.axleIndex === index);
+          const onAxle = fitted.filter((d) => d.axleIndex === index);
+          const left = onAxle.find((d) => d.position.endsWith('L'));
+          const right = onAxle.find((d) => d.position.endsWith('R'));
+          const name = axle ? `${axleLabel(axle.label)} axle` : `Axle ${index + 1}`;
           return (
-            <div key={row.key} role="group" aria-label={`${axle ? axleLabel(axle.axle) : positionNames[row.left].split(' ')[0]} axle`}>
-              <p className="mb-1.5 flex items-baseline gap-2 text-[0.8125rem] text-slate">
-                <span className="font-semibold text-ink">{axle ? axleLabel(axle.axle) : positionNames[row.left].split(' ')[0]} axle</span>
+            <div key={index} role="group" aria-label={name}>
+              <p className="mb-1.5 flex flex-wrap items-baseline gap-x-2 text-[0.8125rem] text-slate">
+                <span className="font-semibold text-ink">{name}</span>
                 {axle ? <span>rated damper life {formatQuantity(axle.ratedDamperLifeKm, 'km')}</span> : null}
               </p>
               <div className="grid grid-cols-2 gap-2 sm:gap-3">
-                {[row.left, row.right].map((pos) => (
-                  <DamperCard key={pos} position={pos} damper={byPosition.get(pos)} odometerKm={odometerKm} compact={compact} />
-                ))}
+                <DamperCard damper={left} fallback={`${name}, left`} ratedLifeKm={axle?.ratedDamperLifeKm} compact={compact} />
+                <DamperCard damper={right} fallback={`${name}, right`} ratedLifeKm={axle?.ratedDamperLifeKm} compact={compact} />
               </div>
             </div>
           );
         })}
       </div>
       <p className="mt-3 text-[0.8125rem] text-slate">
-        Life used is estimated by the duty model from the roads this vehicle drove, against the rated damper life of its
-        axle. {wearRule}
+        {anyEstimate
+          ? `Life used is the duty model's estimate from the roads, speeds and loads of this vehicle's trips, against the rated damper life of its axle. ${wearRule}`
+          : 'The nightly wear run has not estimated these dampers yet; until it has, the distance driven on each against its rated life is the guide.'}
       </p>
       <Caution className="mt-3">
-        These are model estimates. They support, and do not replace, inspection by a qualified mechanic and the
+        Wear figures are estimates. They support, and do not replace, inspection by a qualified mechanic and the
         manufacturer&rsquo;s and local regulations&rsquo; requirements.
       </Caution>
     </div>
   );
 }
 
-function DamperCard({ position, damper, odometerKm, compact }: { position: DamperPosition; damper?: Damper; odometerKm: number; compact?: boolean }) {
+function DamperCard({ damper, fallback, ratedLifeKm, compact }: { damper?: Damper; fallback: string; ratedLifeKm?: number; compact?: boolean }) {
   if (!damper) {
     return (
       <div className="rounded-md border border-dashed border-line-strong px-3 py-3 text-sm text-slate">
-        <p className="font-medium text-ink">{positionNames[position]}</p>
+        <p className="font-medium text-ink">{fallback}</p>
         <p className="mt-1">No damper recorded.</p>
       </div>
     );
   }
-  const tone = wearTone(damper.lifeUsedFraction);
-  const fraction = damper.lifeUsedFraction ?? 0;
-  const sinceFitted = odometerKm - damper.installedOdometerKm;
-  const barColour = { ok: 'bg-ok', watch: 'bg-watch', due: 'bg-due', overdue: 'bg-overdue', neutral: 'bg-line-strong' }[tone];
+  const estimated = hasWearEstimate(damper);
+  const tone = estimated ? wearTone(damper.lifeUsedFraction) : 'neutral';
+  const kmShare = ratedLifeKm ? damper.distanceKm / ratedLifeKm : null;
+  // Until the wear run has estimated it, the distance against the rated life is the guide.
+  const headline = estimated
+    ? { label: 'Life used', value: formatPercent(damper.lifeUsedFraction), fraction: damper.lifeUsedFraction ?? 0 }
+    : { label: 'Of rated km', value: formatPercent(kmShare), fraction: kmShare ?? 0 };
+  const barColour = { ok: 'bg-ok', watch: 'bg-watch', due: 'bg-due', overdue: 'bg-overdue', neutral: 'bg-slate/70' }[tone];
+  const name = positionName(damper.position);
 
   return (
-    <article aria-label={`${positionNames[position]} damper`} className="rounded-md border border-line bg-surface px-3 py-3">
+    <article aria-label={`${name} damper`} className="min-w-0 rounded-md border border-line bg-surface px-3 py-3">
       <header className="flex flex-wrap items-center justify-between gap-x-2 gap-y-1">
         <h3 className="text-sm font-semibold text-ink">
-          {positionNames[position]} <span className="font-normal text-slate">{position}</span>
+          {name} <span className="font-normal text-slate">{damper.position}</span>
         </h3>
-        <StatusBadge tone={tone}>{wearWords[tone]}</StatusBadge>
+        <StatusBadge tone={tone}>{estimated ? wearWords[tone] : 'Not estimated yet'}</StatusBadge>
       </header>
       <p className="mt-2 flex items-baseline justify-between gap-2">
-        <span className="text-[0.8125rem] text-slate">Life used</span>
-        <span className={cx('tabular font-semibold text-ink', compact ? 'text-xl' : 'text-lg')}>{formatPercent(damper.lifeUsedFraction)}</span>
+        <span className="text-[0.8125rem] text-slate">{headline.label}</span>
+        <span className={cx('tabular font-semibold text-ink', compact ? 'text-xl' : 'text-lg')}>{headline.value}</span>
       </p>
       <div aria-hidden="true" className="relative mt-1 h-1.5 rounded-full bg-mist">
-        <div className={cx('h-full rounded-full', barColour)} style={{ width: `${Math.min(100, Math.max(0, fraction * 100))}%` }} />
-        {[WEAR_BANDS.watchFrom, WEAR_BANDS.dueFrom].map((mark) => (
-          <span key={mark} className="absolute top-[-2px] h-2.5 w-px bg-slate/60" style={{ left: `${mark * 100}%` }} />
-        ))}
+        <div className={cx('h-full rounded-full', barColour)} style={{ width: `${Math.min(100, Math.max(0, headline.fraction * 100))}%` }} />
+        {estimated
+          ? [WEAR_BANDS.watchFrom, WEAR_BANDS.dueFrom].map((mark) => (
+              <span key={mark} className="absolute -top-0.5 h-2.5 w-px bg-slate/60" style={{ left: `${mark * 100}%` }} />
+            ))
+          : null}
       </div>
-      <dl className="mt-2.5 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-[0.8125rem]">
-        <dt className="text-slate">Fitted</dt>
-        <dd className="tabular text-right text-ink">
-          <time dateTime={damper.installedAt}>{formatDate(damper.installedAt)}</time>
-        </dd>
-        <dt className="text-slate">at odometer</dt>
-        <dd className="tabular text-right text-ink">{formatQuantity(damper.installedOdometerKm, 'km')}</dd>
-        <dt className="text-slate">Driven since</dt>
-        <dd className="tabular text-right text-ink">{formatQuantity(sinceFitted, 'km')}</dd>
-        {!compact && damper.dampingNsPerM ? (
-          <>
-            <dt className="text-slate">Damping est.</dt>
-            <dd className="tabular text-right text-ink">{formatQuantity(damper.dampingNsPerM, 'N·s/m')}</dd>
-          </>
-        ) : null}
-      </dl>
+      {estimated && damper.wearUpdatedAt ? (
+        <p className="mt-1 text-xs text-slate">Estimated {formatDate(damper.wearUpdatedAt)}</p>
+      ) : null}
+      {compact ? (
+        <dl className="mt-2.5 flex flex-col gap-1.5 text-sm">
+          <div>
+            <dt className="text-[0.8125rem] text-slate">Fitted</dt>
+            <dd className="tabular text-ink">
+              <time dateTime={damper.installedAt}>{formatDate(damper.installedAt)}</time>
+            </dd>
+          </div>
+          <div>
+            <dt className="text-[0.8125rem] text-slate">Driven on it</dt>
+            <dd className="tabular text-ink">{formatQuantity(damper.distanceKm, 'km')}</dd>
+          </div>
+        </dl>
+      ) : (
+        <dl className="mt-2.5 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-[0.8125rem]">
+          <dt className="text-slate">Fitted</dt>
+          <dd className="tabular text-right text-ink">
+            <time dateTime={damper.installedAt}>{formatDate(damper.installedAt)}</time>
+          </dd>
+          <dt className="text-slate">at odometer</dt>
+          <dd className="tabular text-right text-ink">{formatQuantity(damper.installedOdometerKm, 'km')}</dd>
+          <dt className="text-slate">Driven on it</dt>
+          <dd className="tabular text-right text-ink">{formatQuantity(damper.distanceKm, 'km')}</dd>
+          {estimated && kmShare !== null ? (
+            <>
+              <dt className="text-slate">of rated km</dt>
+              <dd className="tabular text-right text-ink">{formatPercent(kmShare)}</dd>
+            </>
+          ) : null}
+          {!compact && damper.dampingNsPerM ? (
+            <>
+              <dt className="text-slate">Damping est.</dt>
+              <dd className="tabular text-right text-ink">{formatQuantity(damper.dampingNsPerM, 'N·s/m')}</dd>
+            </>
+          ) : null}
+          {!compact && damper.partNumber ? (
+            <>
+              <dt className="text-slate">Part</dt>
+              <dd className="truncate text-right font-mono text-xs leading-5 text-ink">{damper.partNumber}</dd>
+            </>
+          ) : null}
+        </dl>
+      )}
     </article>
   );
 }

@@ -1,10 +1,15 @@
+import { useState } from 'react';
+import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SimpleTable } from '@/components/ui/simple-table';
 import { formatDateTime, formatHoursMinutes, formatNumber, formatQuantity, minutesBetween } from '@/lib/format';
 import type { VehicleTrip } from '../api/get-vehicle';
 
 /** The vehicle's latest trips: where, how far, how fast and how loaded — what its dampers went through. */
+const COMPACT_FIRST = 5;
+
 export function RecentTrips({ trips, compact }: { trips: VehicleTrip[]; /** A list for a phone, without drivers' names. */ compact?: boolean }) {
+  const [showAll, setShowAll] = useState(false);
   if (trips.length === 0) {
     return (
       <EmptyState title="No trips recorded yet">
@@ -18,7 +23,7 @@ export function RecentTrips({ trips, compact }: { trips: VehicleTrip[]; /** A li
     return (
       <div>
         <ul className="divide-y divide-line rounded-md border border-line bg-surface">
-          {trips.map((t) => (
+          {(showAll ? trips : trips.slice(0, COMPACT_FIRST)).map((t) => (
             <li key={t.id} className="flex items-center justify-between gap-3 px-4 py-3">
               <span className="min-w-0">
                 <span className="block truncate font-medium text-ink">{t.routeName}</span>
@@ -33,7 +38,14 @@ export function RecentTrips({ trips, compact }: { trips: VehicleTrip[]; /** A li
             </li>
           ))}
         </ul>
-        <p className="mt-2 text-sm text-slate">{summary}</p>
+        <div className="mt-2 flex flex-wrap items-center justify-between gap-2">
+          <p className="text-sm text-slate">{summary}</p>
+          {trips.length > COMPACT_FIRST ? (
+            <Button variant="quiet" onClick={() => setShowAll((v) => !v)} aria-expanded={showAll}>
+              {showAll ? `Show the latest ${COMPACT_FIRST}` : `Show all ${trips.length}`}
+            </Button>
+          ) : null}
+        </div>
       </div>
     );
   }
