@@ -203,9 +203,12 @@ function loop4(p: PreparedSimulation, e: Float64Array, firstCounted: number): Fl
   const invDt = 1 / p.dtS;
   const steps = e.length - 1;
   let x0 = 0, x1 = 0, x2 = 0, x3 = 0;
+  let prev = e[0];
   let k = 0;
   for (; k < firstCounted; k++) {
-    const u = (e[k + 1] - e[k]) * invDt;
+    const cur = e[k + 1];
+    const u = (cur - prev) * invDt;
+    prev = cur;
     const n0 = a00 * x0 + a01 * x1 + a02 * x2 + a03 * x3 + b0 * u;
     const n1 = a10 * x0 + a11 * x1 + a12 * x2 + a13 * x3 + b1 * u;
     const n2 = a20 * x0 + a21 * x1 + a22 * x2 + a23 * x3 + b2 * u;
@@ -214,7 +217,9 @@ function loop4(p: PreparedSimulation, e: Float64Array, firstCounted: number): Fl
   }
   let sa = 0, st = 0, sv = 0, sf = 0;
   for (; k < steps; k++) {
-    const u = (e[k + 1] - e[k]) * invDt;
+    const cur = e[k + 1];
+    const u = (cur - prev) * invDt;
+    prev = cur;
     const n0 = a00 * x0 + a01 * x1 + a02 * x2 + a03 * x3 + b0 * u;
     const n1 = a10 * x0 + a11 * x1 + a12 * x2 + a13 * x3 + b1 * u;
     const n2 = a20 * x0 + a21 * x1 + a22 * x2 + a23 * x3 + b2 * u;
@@ -235,9 +240,10 @@ function loopGeneral(p: PreparedSimulation, e: Float64Array, firstCounted: numbe
   const n = p.n;
   const a = p.Ad;
   const b = p.Bd;
-  const { bodyAccel: ra, suspensionTravel: rt, relativeVelocity: rv, tireLoad: rf, weightedAccel: rw } = p.rows;
-  const x = new Float64Array(n);
-  const nx = new Float64Array(n);
+  const { bodyAccel: ra, suspensionTravel: rt, relativeVelocity: rv, tireLoad: rf } = p.rows;
+  const rw = p.rows.weightedAccel ?? new Float64Array(n);
+  let x = new Float64Array(n);
+  let nx = new Float64Array(n);
   const invDt = 1 / p.dtS;
   const steps = e.length - 1;
   let sa = 0, st = 0, sv = 0, sf = 0, sw = 0;
@@ -249,7 +255,9 @@ function loopGeneral(p: PreparedSimulation, e: Float64Array, firstCounted: numbe
       for (let j = 0; j < n; j++) s += a[off + j] * x[j];
       nx[i] = s;
     }
-    x.set(nx);
+    const swap = x;
+    x = nx;
+    nx = swap;
     let ya = 0, yt = 0, yv = 0, yf = 0, yw = 0;
     for (let i = 0; i < n; i++) {
       const xi = x[i];
@@ -257,7 +265,7 @@ function loopGeneral(p: PreparedSimulation, e: Float64Array, firstCounted: numbe
       yt += rt[i] * xi;
       yv += rv[i] * xi;
       yf += rf[i] * xi;
-      if (rw) yw += rw[i] * xi;
+      yw += rw[i] * xi;
     }
     if (series) {
       series.bodyAccel[k + 1] = ya;
