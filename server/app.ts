@@ -14,6 +14,10 @@ import { configurePassport, defaultAuthOptions, registerAuthRoutes, type AuthOpt
 import { registerUserRoutes } from './users/routes';
 import { registerFleetRoutes } from './fleet/routes';
 import { open } from './http/access';
+import { registerFleetWriteRoutes } from './fleet/write-routes';
+import { registerRoadRoutes } from './roads/routes';
+import { registerTripRoutes } from './trips/routes';
+import { registerTiles } from './tiles/tiles';
 
 export interface AppDeps {
   config: Config;
@@ -93,9 +97,13 @@ export function createApp(deps: AppDeps): BuiltApp {
   registerAuthRoutes(api, { csrfToken: (req, res) => generateCsrfToken(req, res), options: { ...defaultAuthOptions, ...deps.auth } });
   registerUserRoutes(api);
   registerFleetRoutes(api);
+  registerFleetWriteRoutes(api, deps.now ?? (() => new Date()));
+  registerRoadRoutes(api, { config, now: deps.now ?? (() => new Date()) });
+  registerTripRoutes(api, { now: deps.now ?? (() => new Date()) });
   api.use((req, _res, next) => next(AppError.notFound(`The API address ${req.method} ${req.originalUrl}`)));
 
   app.use('/api', api);
+  registerTiles(app);
 
   const webDir = deps.webDir;
   if (webDir && fs.existsSync(path.join(webDir, 'index.html'))) {

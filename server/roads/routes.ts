@@ -1,0 +1,185 @@
+import type { Router } from 'express';
+import fs from 'node:fs';
+import { formatISO } from 'date-fns';
+import { z } from 'zod';
+import type { Config } from '../config';
+import { ROUGHNESS_SOURCES } from '../db/models';
+import { AppError } from '../errors';
+import { allow, currentUser } from '../http/access';
+import { idParam, listQuery, paging, parse, queryBool } from '../http/validate';
+import { requireFile, singleFile, textOf } from '../http/upload';
+import { MAX_PROFILE_BYTES, surveyFilePath } from './profile-store';
+import { roadsRepository, type SegmentSort } from './repository';
+import { roadsService } from './service';
+
+const CLASSES = ['A', 'B', 'C', 'D', 'E', 'F', 'G', 'H'] as const;
+const isoClass = z.enum(CLASSES, { message: 'must be an ISO 8608 class A–H' });
+const isoDate = z.string({ message: 'must be a date YYYY-MM-DD' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date YYYY-MM-DD');
+const speed = z.number({ message: 'must be a number in km/h' }).min(5, 'must be at least 5 km/h').max(130, 'must be at most 130 km/h');
+const positiveId = z.number({ message: 'must be an id' }).int().positive('must be an id');
+
+const line = z.discriminatedUnion(
+  'format',
+  [
+    z.object({
+      format: z.literal('coordinates'),
+      coordinates: z.array(z.tuple([z.number(), z.number()], { message: 'each point must be [lon, lat] in degrees' }), { message: 'must be a list of [lon, lat] points' }).min(2, 'needs at least two points').max(50_000),
+    }),
+    z.object({ format: z.literal('geojson'), text: z.string().min(1, 'is empty').max(20_000_000) }),
+    z.object({ format: z.literal('csv'), text: z.string().min(1, 'is empty').max(20_000_000) }),
+  ],
+  { message: 'must say its format: coordinates, geojson or csv' },
+);
+
+const routeBody = z
+  .object({
+    name: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(120, 'must be 120 characters or fewer'),
+    description: z.string().trim().max(2000).nullish(),
+    depotId: positiveId.nullish(),
+    defaultSpeedKmh: speed,
+    segmentLengthM: z.number({ message: 'must be a number in m' }).min(10, 'must be at least 10 m').max(5000, 'must be at most 5000 m').default(100),
+    statedClass: isoClass.nullish(),
+    line,
+  })
+  .strict();
+
+const routePatch = z
+  .object({
+    name: z.string().trim().min(2, 'must be at least 2 characters').max(120),
+    description: z.string().trim().max(2000).nullable(),
+    depotId: positiveId.nullable(),
+    defaultSpeedKmh: speed,
+  })
+  .partial()
+  .strict()
+  .refine((v) => Object.keys(v).length > 0, { message: 'give at least one field to change', path: ['_'] });
+
+const speedsBody = z
+  .object({
+    segments: z
+      .array(z.object({ seq: z.number({ message: 'must be a segment number' }).int().min(0), speedKmh: speed.nullable() }).strict(), { message: 'must be a list of { seq, speedKmh }' })
+      .min(1, 'needs at least one segment')
+      .max(20_000),
+  })
+  .strict();
+
+const roughnessBody = z
+  .object({
+    seqFrom: z.number({ message: 'must be a segment number' }).int().min(0, 'must be 0 or more'),
+    seqTo: z.number({ message: 'must be a segment number' }).int().min(0, 'must be 0 or more'),
+    isoClass: isoClass.nullish(),
+    iri: z.number({ message: 'must be a number in m/km' }).min(0.3, 'must be at least 0.3 m/km').max(50, 'must be at most 50 m/km').nullish(),
+    observedOn: isoDate,
+    note: z.string().trim().max(240).nullish(),
+  })
+  .strict()
+  .superRefine((v, ctx) => {
+    if ((v.isoClass == null) === (v.iri == null)) ctx.addIssue({ code: 'custom', path: ['isoClass'], message: 'give either an ISO 8608 class or an IRI in m/km (one of the two)' });
+  });
+
+const surveyForm = z
+  .object({
+    surveyedOn: isoDate.optional(),
+    note: z.string().trim().max(240, 'must be 240 characters or fewer').optional(),
+  })
+  .strict();
+const previewQuery = z.object({ preview: queryBool.optional() }).strict();
+
+const segmentList = listQuery(['seq', 'routeName', 'iri', 'isoClass', 'roughnessDate', 'speedKmh'], 'routeName', {
+  routeId: z.coerce.number({ message: 'must be a number' }).int().positive().optional(),
+  isoClass: isoClass.optional(),
+  source: z.enum(ROUGHNESS_SOURCES, { message: `must be one of ${ROUGHNESS_SOURCES.join(', ')}` }).optional(),
+});
+
+const ALL = ['manager', 'mechanic', 'driver'] as const;
+
+export function registerRoadRoutes(r: Router, deps: { config: Config; now: () => Date }) {
+  const today = () => formatISO(deps.now(), { representation: 'date' });
+
+  r.get('/map-config', allow(...ALL), (_req, res) => {
+    res.json({
+      tileUrl: deps.config.mapTileUrl ?? '/tiles/{z}/{x}/{y}.png',
+      attribution: deps.config.mapTileUrl ? deps.config.mapTileAttribution : deps.config.mapTileAttribution || 'Reboundry plain base layer (offline)',
+      offline: !deps.config.mapTileUrl,
+    });
+  });
+
+  r.get('/map/segments', allow(...ALL), async (_req, res) => {
+    res.json(await roadsRepository.mapData());
+  });
+
+  r.post('/routes', allow('manager'), async (req, res) => {
+    const { preview } = parse(previewQuery, req.query, 'query');
+    const body = parse(routeBody, req.body, 'route');
+    if (preview) return res.json(await roadsService.previewRoute(body));
+    const id = await roadsService.createRoute(body, currentUser(req).id, today());
+    res.status(201).json(await roadsService.routeDetail(id));
+  });
+
+  r.get('/routes/:id', allow(...ALL), async (req, res) => {
+    const { id } = parse(idParam, req.params, 'address');
+    res.json(await roadsService.routeDetail(id));
+  });
+
+  r.patch('/routes/:id', allow('manager'), async (req, res) => {
+    const { id } = parse(idParam, req.params, 'address');
+    const body = parse(routePatch, req.body, 'route');
+    await roadsService.updateRoute(id, body);
+    res.json(await roadsService.routeDetail(id));
+  });
+
+  r.put('/routes/:id/speeds', allow('manager'), async (req, res) => {
+    const { id } = parse(idParam, req.params, 'address');
+    const body = parse(speedsBody, req.body, 'speeds');
+    await roadsService.setSpeeds(id, body.segments);
+    res.json({ updated: body.segments.length });
+  });
+
+  r.post('/routes/:id/roughness', allow('manager'), async (req, res) => {
+    const { id } = parse(idParam, req.params, 'address');
+    const body = parse(roughnessBody, req.body, 'roughness');
+    res.status(201).json(await roadsService.setRoughness(id, body, currentUser(req).id, today()));
+  });
+
+  r.post('/routes/:id/surveys', allow('manager'), singleFile(MAX_PROFILE_BYTES), async (req, res) => {
+    const { id } = parse(idParam, req.params, 'address');
+    const { preview } = parse(previewQuery, req.query, 'query');
+    const form = parse(surveyForm, req.body ?? {}, 'form');
+    const file = requireFile(req.file);
+    const text = textOf(file);
+    if (preview) {
+      const c = await roadsService.computeSurvey(id, text);
+      return res.json({ summary: c.summary, segments: c.segments, currentRule: roadsService.currentRule });
+    }
+    const { surveyId, computed } = await roadsService.saveSurvey(
+      id,
+      { text, buffer: file.buffer, originalName: file.originalname },
+      { surveyedOn: form.surveyedOn ?? today(), note: form.note ?? null },
+      { userId: currentUser(req).id, dataDir: deps.config.dataDir, now: deps.now(), today: today() },
+    );
+    res.status(201).json({ surveyId, summary: computed.summary, segments: computed.segments });
+  });
+
+  r.get('/surveys/:id/file', allow('manager'), async (req, res) => {
+    const { id } = parse(idParam, req.params, 'address');
+    const s = await roadsRepository.findSurvey(id);
+    if (!s) throw AppError.notFound('Survey');
+    const abs = surveyFilePath(deps.config.dataDir, s.filePath);
+    if (!fs.existsSync(abs)) throw AppError.notFound('The survey file');
+    res.setHeader('content-type', 'text/csv; charset=utf-8');
+    res.setHeader('content-disposition', `attachment; filename="${s.originalName.replace(/[^\w.-]+/g, '_')}"`);
+    fs.createReadStream(abs).pipe(res);
+  });
+
+  r.get('/segments', allow(...ALL), async (req, res) => {
+    const q = parse(segmentList, req.query, 'query');
+    res.json(await roadsRepository.listSegments({ ...q, ...paging<SegmentSort>(q) }));
+  });
+
+  r.get('/segments/:id', allow(...ALL), async (req, res) => {
+    const { id } = parse(idParam, req.params, 'address');
+    const d = await roadsRepository.segmentDetail(id);
+    if (!d) throw AppError.notFound('Segment');
+    res.json({ ...d, currentRule: roadsService.currentRule });
+  });
+}
