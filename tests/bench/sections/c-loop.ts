@@ -29,7 +29,7 @@ int main(int argc, char **argv) {
   if (fread(e, 8, n, fp) != (size_t)n) return 4;
   fclose(fp);
   double best = 1e30, sink = 0;
-  for (int rep = 0; rep < 7; rep++) {
+  for (int rep = 0; rep < 15; rep++) {
     double t0 = now();
     double x0 = 0, x1 = 0, x2 = 0, x3 = 0, sa = 0, st = 0, sv = 0, sf = 0;
     for (long k = 0; k + 1 < n; k++) {
@@ -91,7 +91,7 @@ export const cLoopSection: BenchSection = {
       const ratio = typeof engine === 'number' ? out.stepsPerSec / engine : null;
       return {
         rows: [
-          { label: 'steps per second', value: out.stepsPerSec, unit: 'steps/s', note: `${cc} -O2, ${z.length - 1} steps, best of 7` },
+          { label: 'steps per second', value: out.stepsPerSec, unit: 'steps/s', note: `${cc} -O2, ${z.length - 1} steps, best of 15` },
           { label: 'C / engine time ratio', value: ratio, unit: '×', note: 'target ≤ 2× (engine within 2× of C)' },
         ],
         metrics: { cLoopStepsPerSec: out.stepsPerSec, cLoopStatus: 'measured', cOverEngine: ratio },

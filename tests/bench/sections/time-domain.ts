@@ -12,7 +12,7 @@ export const timeDomainSection: BenchSection = {
     for (let i = 0; i < 3; i++) sink += runSimulation(p, z).rmsBodyAccel; // warm-up (JIT)
     const t = bestTime(() => {
       sink += runSimulation(p, z).rmsBodyAccel;
-    }, 7);
+    }, 15);
     const steps = z.length - 1;
     const sps = steps / t;
     const pw = prepareSimulation(BENCH_CORNER, BENCH_DX_M, BENCH_SPEED_MPS, { weighted: true });
@@ -24,7 +24,7 @@ export const timeDomainSection: BenchSection = {
     if (!Number.isFinite(sink)) throw new Error('bench: non-finite result');
     return {
       rows: [
-        { label: 'steps per second (4 states, statistics)', value: sps, unit: 'steps/s', note: `${steps} steps, best of 7` },
+        { label: 'steps per second (4 states, statistics)', value: sps, unit: 'steps/s', note: `${steps} steps, best of 15` },
         { label: 'steps per second (12 states with Wk filter)', value: (zShort.length - 1) / tw, unit: 'steps/s', note: 'general loop' },
       ],
       metrics: { timeDomainStepsPerSec: sps, timeDomainWeightedStepsPerSec: (zShort.length - 1) / tw },
