@@ -119,17 +119,17 @@ export const PRESETS: Preset[] = [
     source: 'mid-range of physics.md §6 light-commercial ranges (textbook, from memory); damping chosen for a body damping ratio near 0.3',
     axles: [
       { label: 'front', sprungMassKg: 550, unsprungMassKg: 60, springRateNPerM: 42_000, dampingNsPerM: 2_900, tireRateNPerM: 290_000, ratedDamperLifeKm: 90_000 },
-      { label: 'rear', sprungMassKg: 500, unsprungMassKg: 72, springRateNPerM: 50_000, dampingNsPerM: 3_000, tireRateNPerM: 310_000, ratedDamperLifeKm: 90_000 },
+      { label: 'rear', sprungMassKg: 500, unsprungMassKg: 72, springRateNPerM: 47_000, dampingNsPerM: 3_000, tireRateNPerM: 310_000, ratedDamperLifeKm: 90_000 },
     ],
   },
   {
     key: 'truck-steel',
     name: 'Rigid truck, steel springs',
     vehicleClass: 'heavy goods',
-    source: 'physics.md §6 heavy-truck wheel station, steel springs (textbook, from memory); damping for a ratio near 0.25',
+    source: 'physics.md §6 heavy-truck wheel station, steel springs (textbook, from memory); damping chosen for a body damping ratio near 0.25 (computed with the two-mass modes)',
     axles: [
-      { label: 'front', sprungMassKg: 2_500, unsprungMassKg: 450, springRateNPerM: 600_000, dampingNsPerM: 19_000, tireRateNPerM: 1_700_000, ratedDamperLifeKm: 150_000 },
-      { label: 'rear', sprungMassKg: 3_500, unsprungMassKg: 650, springRateNPerM: 900_000, dampingNsPerM: 28_000, tireRateNPerM: 1_900_000, ratedDamperLifeKm: 150_000 },
+      { label: 'front', sprungMassKg: 2_500, unsprungMassKg: 450, springRateNPerM: 600_000, dampingNsPerM: 32_000, tireRateNPerM: 1_700_000, ratedDamperLifeKm: 150_000 },
+      { label: 'rear', sprungMassKg: 3_500, unsprungMassKg: 650, springRateNPerM: 900_000, dampingNsPerM: 55_000, tireRateNPerM: 1_900_000, ratedDamperLifeKm: 150_000 },
     ],
   },
   {
@@ -138,7 +138,7 @@ export const PRESETS: Preset[] = [
     vehicleClass: 'heavy goods',
     source: 'physics.md §6 heavy-truck wheel station, air springs 0.15–0.5 MN/m, body 1–2 Hz; Directive 96/53/EC Annex II air-equivalent (≤ 2.0 Hz, damping > 20 %)',
     axles: [
-      { label: 'front', sprungMassKg: 2_400, unsprungMassKg: 450, springRateNPerM: 600_000, dampingNsPerM: 19_000, tireRateNPerM: 1_600_000, ratedDamperLifeKm: 150_000 },
+      { label: 'front', sprungMassKg: 2_400, unsprungMassKg: 450, springRateNPerM: 600_000, dampingNsPerM: 31_000, tireRateNPerM: 1_600_000, ratedDamperLifeKm: 150_000 },
       { label: 'rear', sprungMassKg: 3_200, unsprungMassKg: 650, springRateNPerM: 300_000, dampingNsPerM: 17_000, tireRateNPerM: 1_800_000, ratedDamperLifeKm: 150_000 },
     ],
   },

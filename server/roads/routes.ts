@@ -93,15 +93,20 @@ const segmentList = listQuery(['seq', 'routeName', 'iri', 'isoClass', 'roughness
 
 const ALL = ['manager', 'mechanic', 'driver'] as const;
 
+/** The map's base layer: `MAP_TILE_URL` and its attribution when set, else the app's own offline tiles. */
+export function mapConfigOf(config: Pick<Config, 'mapTileUrl' | 'mapTileAttribution'>) {
+  return {
+    tileUrl: config.mapTileUrl ?? '/tiles/{z}/{x}/{y}.png',
+    attribution: config.mapTileUrl ? config.mapTileAttribution : config.mapTileAttribution || 'Reboundry plain base layer (offline)',
+    offline: !config.mapTileUrl,
+  };
+}
+
 export function registerRoadRoutes(r: Router, deps: { config: Config; now: () => Date }) {
   const today = () => formatISO(deps.now(), { representation: 'date' });
 
   r.get('/map-config', allow(...ALL), (_req, res) => {
-    res.json({
-      tileUrl: deps.config.mapTileUrl ?? '/tiles/{z}/{x}/{y}.png',
-      attribution: deps.config.mapTileUrl ? deps.config.mapTileAttribution : deps.config.mapTileAttribution || 'Reboundry plain base layer (offline)',
-      offline: !deps.config.mapTileUrl,
-    });
+    res.json(mapConfigOf(deps.config));
   });
 
   r.get('/map/segments', allow(...ALL), async (_req, res) => {
