@@ -24,11 +24,15 @@ export async function menuItems(page: Page): Promise<string[]> {
   return (await nav.getByRole('link').allInnerTexts()).map((t) => t.trim());
 }
 
-/** The visible text of the page's first-level heading. */
-export async function heading(page: Page): Promise<string> {
-  const h = page.getByRole('heading', { level: 1 });
-  await h.first().waitFor();
-  return (await h.first().innerText()).trim();
+/** Waits for the page's first-level heading to read `text`; on failure, says what it read instead. */
+export async function expectHeading(page: Page, text: string) {
+  const wanted = page.getByRole('heading', { level: 1, name: text, exact: true });
+  try {
+    await wanted.waitFor({ timeout: 10_000 });
+  } catch {
+    const actual = await page.getByRole('heading', { level: 1 }).allInnerTexts();
+    expect(actual, `first-level heading on ${page.url()}`).toContain(text);
+  }
 }
 
 /** Fails with the page's address and heading, which say more than a timeout. */

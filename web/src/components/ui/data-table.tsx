@@ -48,6 +48,8 @@ export interface DataTableProps<T> {
   onSortChange: (sort: string) => void;
   isLoading?: boolean;
   isFetching?: boolean;
+  /** The rows are the previous view's, kept on screen while the asked-for page loads. */
+  isPlaceholder?: boolean;
   error?: unknown;
   onRetry?: () => void;
   /** What to say when there are no rows (say what to do next). */
@@ -87,6 +89,7 @@ export function DataTable<T>(props: DataTableProps<T>) {
     onSortChange,
     isLoading,
     isFetching,
+    isPlaceholder,
     error,
     onRetry,
     empty,
@@ -150,7 +153,7 @@ export function DataTable<T>(props: DataTableProps<T>) {
         <>
           <div className="flex flex-wrap items-center justify-between gap-2 text-sm text-slate">
             <p aria-live="polite" className="tabular">
-              {isLoading && !rows
+              {(isLoading && !rows) || isPlaceholder
                 ? `Loading ${noun[1]}…`
                 : count === 0
                   ? `No ${noun[1]} match`
@@ -219,7 +222,7 @@ export function DataTable<T>(props: DataTableProps<T>) {
               </thead>
               <tbody>
                 {table.getRowModel().rows.map((row) => (
-                  <tr key={row.id} className="border-b border-line last:border-b-0 hover:bg-mist/50">
+                  <tr key={row.id} className={cx('border-b border-line last:border-b-0 hover:bg-mist/50', isPlaceholder && 'opacity-55')}>
                     {row.getVisibleCells().map((cell) => {
                       const meta = cell.column.columnDef.meta;
                       return (

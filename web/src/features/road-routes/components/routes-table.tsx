@@ -69,6 +69,7 @@ export function RoutesTable() {
       onSortChange={(sort) => update({ sort })}
       isLoading={query.isPending}
       isFetching={query.isFetching}
+      isPlaceholder={query.isPlaceholderData}
       error={query.error}
       onRetry={() => void query.refetch()}
       noun={['route', 'routes']}

@@ -123,6 +123,7 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
         onSortChange={(sort) => update({ sort })}
         isLoading={query.isPending}
         isFetching={query.isFetching}
+        isPlaceholder={query.isPlaceholderData}
         error={query.error}
         onRetry={() => void query.refetch()}
         noun={['person', 'people']}

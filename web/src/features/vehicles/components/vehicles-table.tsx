@@ -122,6 +122,7 @@ export function VehiclesTable({ params, onParamsChange, depotOptions, specOption
       onSortChange={(sort) => onParamsChange({ sort })}
       isLoading={query.isPending}
       isFetching={query.isFetching}
+      isPlaceholder={query.isPlaceholderData}
       error={query.error}
       onRetry={() => void query.refetch()}
       noun={['vehicle', 'vehicles']}

@@ -1,0 +1,137 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { startTestServer, type TestServer } from '../support/server';
+import { DEMO, DEMO_PASSWORD, expectHeading, expectPath, signIn } from './helpers';
+
+let server: TestServer;
+let browser: Browser;
+
+beforeAll(async () => {
+  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+/** The ids an element's aria-describedby points at, resolved to their text. */
+async function description(page: Page, label: string): Promise<string> {
+  return page.getByLabel(label, { exact: true }).evaluate((el) =>
+    (el.getAttribute('aria-describedby') ?? '')
+      .split(/\s+/)
+      .filter(Boolean)
+      .map((id) => document.getElementById(id)?.textContent ?? '')
+      .join(' '),
+  );
+}
+
+describe('sign-in', () => {
+  it('when the password is wrong, then a plain error shows, is tied to the fields, and focus goes back to the password', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await page.goto(`${server.url}/sign-in`);
+    await page.getByLabel('E-mail').fill(DEMO.manager);
+    await page.getByLabel('Password').fill('not-the-password');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+
+    const alert = page.getByRole('alert');
+    await alert.waitFor();
+    expect(await alert.innerText()).toContain('That e-mail and password do not match an active account.');
+    expect(await page.getByLabel('Password').evaluate((el) => el === document.activeElement)).toBe(true);
+    expect(await description(page, 'Password')).toContain('do not match');
+    await expectPath(page, '/sign-in');
+    await page.screenshot({ path: screenshotPath('sign-in-desktop-wrong-password') });
+    await context.close();
+  });
+
+  it('when the form is sent empty, then each field says what is missing and focus goes to the first one', async () => {
+    const context = await newContext(browser, 'phone');
+    const page = await context.newPage();
+    await page.goto(`${server.url}/sign-in`);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+
+    await page.getByText('E-mail is required.').waitFor();
+    await page.getByText('Password is required.').waitFor();
+    expect(await page.getByLabel('E-mail').getAttribute('aria-invalid')).toBe('true');
+    expect(await description(page, 'E-mail')).toContain('E-mail is required.');
+    expect(await page.getByLabel('E-mail').evaluate((el) => el === document.activeElement)).toBe(true);
+    await page.screenshot({ path: screenshotPath('sign-in-phone-empty') });
+    await context.close();
+  });
+
+  it('when someone signs in with the keyboard only, then the focused control shows the accent focus ring', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await page.goto(`${server.url}/sign-in`);
+    // The e-mail field has focus when the page opens.
+    const email = page.getByLabel('E-mail');
+    await email.waitFor();
+    expect(await email.evaluate((el) => el === document.activeElement)).toBe(true);
+    await page.keyboard.type(DEMO.mechanic);
+    await page.keyboard.press('Tab');
+    await page.keyboard.type(DEMO_PASSWORD);
+    await page.keyboard.press('Tab');
+    // Let any colour transition finish before reading the ring's colour.
+    await page.waitForTimeout(300);
+    const ring = await page.evaluate(() => {
+      const el = document.activeElement as HTMLElement;
+      const s = getComputedStyle(el);
+      return { text: el.textContent, style: s.outlineStyle, colour: s.outlineColor };
+    });
+    expect(ring).toEqual({ text: 'Sign in', style: 'solid', colour: 'rgb(217, 98, 43)' });
+    await page.keyboard.press('Enter');
+    await expectPath(page, '/workshop');
+    await context.close();
+  });
+
+  it('when a signed-in person signs out, then sign-in shows with a note and pages need signing in again', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await expectPath(page, '/sign-in');
+    await page.getByText('You are signed out.').waitFor();
+
+    await page.goto(`${server.url}/fleet`);
+    await expectPath(page, '/sign-in');
+    await context.close();
+  });
+});
+
+describe('account', () => {
+  it('when the current password is wrong or the new ones differ, then the form says which field to fix; a good change works', async () => {
+    const context = await newContext(browser, 'phone');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.driver);
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Account' }).click();
+    await expectHeading(page, 'Your account');
+
+    const form = page.getByRole('form', { name: 'Change password' });
+    await form.getByLabel('Current password').fill('wrong-password');
+    await form.getByLabel('New password', { exact: true }).fill('short');
+    await form.getByLabel('New password again').fill('different');
+    await form.getByRole('button', { name: 'Change password' }).click();
+    await form.getByText('New password must be at least 10 characters.').waitFor();
+    await form.getByText('New password again does not match the new password.').waitFor();
+
+    await form.getByLabel('New password', { exact: true }).fill('gravel-lane-rebound');
+    await form.getByLabel('New password again').fill('gravel-lane-rebound');
+    await form.getByRole('button', { name: 'Change password' }).click();
+    await form.getByText('Current password does not match.').waitFor();
+    expect(await form.getByLabel('Current password').evaluate((el) => el === document.activeElement)).toBe(true);
+    await page.screenshot({ path: screenshotPath('driver-phone-account-errors'), fullPage: true });
+
+    await form.getByLabel('Current password').fill(DEMO_PASSWORD);
+    await form.getByRole('button', { name: 'Change password' }).click();
+    await page.getByText('Password changed').waitFor();
+
+    // The new password is the one that works from now on.
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await expectPath(page, '/sign-in');
+    await signIn(page, server.url, DEMO.driver, 'gravel-lane-rebound');
+    await expectPath(page, '/my-vehicle');
+    await context.close();
+  });
+});
