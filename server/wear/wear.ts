@@ -1,0 +1,212 @@
+/**
+ * Wear accumulation and prediction: pure functions over a damper's daily duty.
+ *
+ * - Consumed life = dissipated energy / life energy. The life energy comes from a resolver
+ *   ({@link LifeResolver}); the default is the rated life (`ratedLifeEnergyJ(corner, { km:
+ *   ratedDamperLifeKm })`: that many km of ISO 8608 class B at 80 km/h, product.md §3). The
+ *   workshop issue can plug in a fleet-fitted life (Weibull) through the same resolver.
+ * - Present damping (ASSUMPTION, stated in the product): the coefficient fades linearly with
+ *   consumed life from the nominal value to {@link DAMPING_AT_END_OF_LIFE} × nominal at end of
+ *   life, and stays there beyond it. A test-lane result (issue 6) replaces this estimate.
+ * - Prediction: from the trailing {@link DUTY_WINDOW_DAYS}-day duty rate (energy per calendar
+ *   day in the window, or since installation if shorter), the dates consumed life reaches the
+ *   inspection threshold and end of life. The spring's Miner damage is predicted the same way.
+ *
+ * @module
+ */
+import { addDays, differenceInCalendarDays, parseISO } from 'date-fns';
+import { ratedLifeEnergyJ } from '../physics/closed-form';
+import type { CornerParams } from '../physics/types';
+
+/** Fraction of nominal damping left at end of life (ASSUMPTION: linear fade to 60 %). */
+export const DAMPING_AT_END_OF_LIFE = 0.6;
+/** Trailing window of the duty rate [days]. */
+export const DUTY_WINDOW_DAYS = 30;
+
+export interface LifeEnergy {
+  /** Life energy of the damper [J]. */
+  energyJ: number;
+  /** Where it comes from: 'rated' (spec) or, later, 'fleet' (fitted from replacements). */
+  source: string;
+  /** One line on what it rests on. */
+  note: string;
+}
+
+/** Resolves the life energy of a damper; issue 6 can wrap this to use a fleet-fitted life. */
+export type LifeResolver = (input: { damperId: number; corner: CornerParams; ratedDamperLifeKm: number }) => LifeEnergy;
+
+const ratedCache = new Map<string, number>();
+
+/** The default resolver: the spec's rated life as energy (class B, 80 km/h, rated km). */
+export const ratedLife: LifeResolver = ({ corner, ratedDamperLifeKm }) => {
+  const key = `${corner.sprungMassKg}/${corner.unsprungMassKg}/${corner.springRateNPerM}/${corner.dampingNsPerM}/${corner.tireRateNPerM}/${ratedDamperLifeKm}`;
+  let e = ratedCache.get(key);
+  if (e === undefined) {
+    e = ratedLifeEnergyJ(corner, { km: ratedDamperLifeKm });
+    ratedCache.set(key, e);
+  }
+  return {
+    energyJ: e,
+    source: 'rated',
+    note: `rated life: energy dissipated over ${Math.round(ratedDamperLifeKm).toLocaleString('en-GB')} km of ISO 8608 class B road at 80 km/h`,
+  };
+};
+
+/** Estimated present damping [N·s/m] from consumed life (linear fade, see module doc). */
+export function estimatedDamping(nominalNsPerM: number, lifeUsedFraction: number): number {
+  const u = Math.min(1, Math.max(0, lifeUsedFraction));
+  return nominalNsPerM * (1 - (1 - DAMPING_AT_END_OF_LIFE) * u);
+}
+
+export interface DayDuty {
+  day: string;
+  distanceKm: number;
+  energyJ: number;
+  springDamage: number;
+}
+
+export interface WearDayRow extends DayDuty {
+  damperId: number;
+  vehicleId: number;
+  cumEnergyJ: number;
+  cumSpringDamage: number;
+  lifeEnergyJ: number;
+  lifeUsedFraction: number;
+  dampingNsPerM: number;
+}
+
+/**
+ * Cumulative daily wear from a starting point (the last stored day before the recomputed
+ * range, or zero) and the days' duty in date order.
+ */
+export function accumulateDays(
+  ids: { damperId: number; vehicleId: number },
+  start: { cumEnergyJ: number; cumSpringDamage: number } | null,
+  days: DayDuty[],
+  lifeEnergyJ: number,
+  nominalDampingNsPerM: number,
+): WearDayRow[] {
+  let e = start?.cumEnergyJ ?? 0;
+  let d = start?.cumSpringDamage ?? 0;
+  return days.map((x) => {
+    e += x.energyJ;
+    d += x.springDamage;
+    const u = e / lifeEnergyJ;
+    return {
+      ...ids,
+      ...x,
+      cumEnergyJ: e,
+      cumSpringDamage: d,
+      lifeEnergyJ,
+      lifeUsedFraction: u,
+      dampingNsPerM: estimatedDamping(nominalDampingNsPerM, u),
+    };
+  });
+}
+
+export interface Prediction {
+  asOf: string;
+  windowDays: number;
+  windowEnergyJ: number;
+  windowKm: number;
+  rateJPerDay: number;
+  lifeEnergyJ: number;
+  lifeSource: string;
+  energyJ: number;
+  lifeUsedFraction: number;
+  dampingNsPerM: number;
+  thresholdFraction: number;
+  thresholdDate: string | null;
+  endOfLifeDate: string | null;
+  springDamage: number;
+  springRatePerDay: number;
+  springThresholdDate: string | null;
+  basis: {
+    method: string;
+    life: string;
+    damping: string;
+    window: string;
+  };
+}
+
+const iso = (d: Date) => d.toISOString().slice(0, 10);
+const dayDate = (s: string) => parseISO(`${s}T00:00:00Z`);
+/** `day` plus `n` calendar days (YYYY-MM-DD, UTC arithmetic on dates). */
+export const plusDays = (day: string, n: number) => iso(addDays(dayDate(day), n));
+export const daysBetween = (from: string, to: string) => differenceInCalendarDays(dayDate(to), dayDate(from));
+
+/**
+ * Predicts when a damper's consumed life reaches the threshold and end of life, and when its
+ * spring's Miner damage reaches the threshold, from the trailing duty rate.
+ *
+ * @param history the damper's daily wear rows in date order (any days after `asOf` ignored)
+ * @param opts as-of day, installation day, life energy [J], threshold fraction [1], nominal damping [N·s/m]
+ */
+export function predict(
+  history: WearDayRow[],
+  opts: {
+    asOf: string;
+    installedAt: string;
+    life: LifeEnergy;
+    thresholdFraction: number;
+    nominalDampingNsPerM: number;
+    windowDays?: number;
+    /** Days a level was first reached, when known from older history than `history` holds. */
+    crossed?: { threshold?: string | null; endOfLife?: string | null; spring?: string | null };
+  },
+): Prediction {
+  const windowDays = Math.max(1, Math.min(opts.windowDays ?? DUTY_WINDOW_DAYS, daysBetween(opts.installedAt, opts.asOf) + 1));
+  const windowStart = plusDays(opts.asOf, -(windowDays - 1));
+  let wE = 0, wKm = 0, wD = 0;
+  let last: WearDayRow | null = null;
+  for (const h of history) {
+    if (h.day > opts.asOf) break;
+    last = h;
+    if (h.day >= windowStart) {
+      wE += h.energyJ;
+      wKm += h.distanceKm;
+      wD += h.springDamage;
+    }
+  }
+  const L = opts.life.energyJ;
+  const E = last?.cumEnergyJ ?? 0;
+  const D = last?.cumSpringDamage ?? 0;
+  const rate = wE / windowDays;
+  const dRate = wD / windowDays;
+  const th = opts.thresholdFraction;
+  const reached = (level: number, cum: number, r: number, pick: (h: WearDayRow) => number, known?: string | null): string | null => {
+    if (cum >= level) {
+      if (known) return known;
+      for (const h of history) if (pick(h) >= level) return h.day;
+      return opts.asOf;
+    }
+    if (!(r > 0)) return null;
+    const days = Math.ceil((level - cum) / r);
+    return days > 365 * 100 ? null : plusDays(opts.asOf, days);
+  };
+  const u = E / L;
+  return {
+    asOf: opts.asOf,
+    windowDays,
+    windowEnergyJ: wE,
+    windowKm: wKm,
+    rateJPerDay: rate,
+    lifeEnergyJ: L,
+    lifeSource: opts.life.source,
+    energyJ: E,
+    lifeUsedFraction: u,
+    dampingNsPerM: estimatedDamping(opts.nominalDampingNsPerM, u),
+    thresholdFraction: th,
+    thresholdDate: reached(th * L, E, rate, (h) => h.cumEnergyJ, opts.crossed?.threshold),
+    endOfLifeDate: reached(L, E, rate, (h) => h.cumEnergyJ, opts.crossed?.endOfLife),
+    springDamage: D,
+    springRatePerDay: dRate,
+    springThresholdDate: reached(th, D, dRate, (h) => h.cumSpringDamage, opts.crossed?.spring),
+    basis: {
+      method: `straight-line projection of the duty rate over the last ${windowDays} day(s) (${windowStart} to ${opts.asOf})`,
+      life: opts.life.note,
+      damping: `estimated present damping: linear fade from nominal to ${Math.round(DAMPING_AT_END_OF_LIFE * 100)} % at end of life (assumption)`,
+      window: `${Math.round(wKm)} km and ${(wE / 1e6).toFixed(2)} MJ in the window`,
+    },
+  };
+}

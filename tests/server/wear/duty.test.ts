@@ -1,0 +1,187 @@
+import { describe, expect, it } from 'vitest';
+import {
+  computeVehicleDuty,
+  cornerPayloadKg,
+  DutyCache,
+  FRONT_AXLE_PAYLOAD_SHARE,
+  travelMoments,
+  type RouteInput,
+  type SegmentInput,
+  type VehicleWork,
+} from '../../../server/wear/duty';
+import { rainflowDamage, simulateTravel } from '../../../server/wear/fast-sim';
+import { prepareDuty } from '../../../server/physics/closed-form';
+import { prepareSimulation, runSimulation } from '../../../server/physics/simulate';
+import { minerDamage, rainflow } from '../../../server/physics/fatigue';
+import { gdForClass, seededRandom, synthesizeProfile } from '../../../server/physics/iso8608';
+import { accumulateDays, predict, ratedLife } from '../../../server/wear/wear';
+
+const front = { sprungMassKg: 430, unsprungMassKg: 46, springRateNPerM: 32000, dampingNsPerM: 2400, tireRateNPerM: 260000 };
+const rear = { sprungMassKg: 360, unsprungMassKg: 55, springRateNPerM: 38000, dampingNsPerM: 2500, tireRateNPerM: 270000 };
+
+const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(b), 1e-300);
+
+function route(id: number, gd: number | null, n = 25, profile: SegmentInput['profile'] = null): RouteInput {
+  return {
+    id,
+    lengthM: n * 100,
+    segments: Array.from({ length: n }, (_, i) => ({ id: id * 1000 + i, startM: i * 100, endM: (i + 1) * 100, speedKmh: null, gdN0: gd, profile })),
+  };
+}
+
+function van(vehicleId: number, routeId: number, days: string[], payloadKg = 300): VehicleWork {
+  return {
+    vehicleId,
+    axles: [
+      { axleIndex: 0, corner: front, ratedDamperLifeKm: 90000 },
+      { axleIndex: 1, corner: rear, ratedDamperLifeKm: 90000 },
+    ],
+    dampers: ['FL', 'FR', 'RL', 'RR'].map((position, i) => ({ id: vehicleId * 10 + i, position, axleIndex: i < 2 ? 0 : 1, installedAt: '2026-01-01', removedAt: null })),
+    trips: days.map((d, i) => ({ id: vehicleId * 1000 + i, routeId, driverId: null, tripDate: d, durationS: 3600, distanceKm: 2.5, meanSpeedKmh: 50, payloadKg })),
+  };
+}
+
+describe('duty per trip and corner', () => {
+  it('when Gd(n0) doubles, then the damper energy doubles (closed form, computed)', () => {
+    const cache = new DutyCache();
+    const a = computeVehicleDuty(van(1, 1, ['2026-11-01']), new Map([[1, route(1, gdForClass('C'))]]), cache);
+    const b = computeVehicleDuty(van(1, 1, ['2026-11-01']), new Map([[1, route(1, 2 * gdForClass('C'))]]), cache);
+    for (let i = 0; i < 4; i++) {
+      const ratio = b.duties[i].energyJ / a.duties[i].energyJ;
+      expect(Math.abs(ratio - 2), `corner ${a.duties[i].position}: ratio ${ratio}, expected 2 ± 1e-12`).toBeLessThan(1e-12);
+      // RMS values scale with √2
+      expect(rel(b.duties[i].rmsWeightedAccel / a.duties[i].rmsWeightedAccel, Math.SQRT2)).toBeLessThan(1e-12);
+    }
+  });
+
+  it('when a trip drives a class-C road, then its energy equals dutyOnRoad energy per km × km (closed form, computed)', () => {
+    const cache = new DutyCache();
+    const r = computeVehicleDuty(van(1, 1, ['2026-11-01'], 0), new Map([[1, route(1, gdForClass('C'))]]), cache);
+    const p = prepareDuty(front, 50 / 3.6);
+    const expected = ((front.dampingNsPerM * p.varRelVelPerGd * gdForClass('C')) / (50 / 3.6)) * 1000 * 2.5;
+    const fl = r.duties.find((d) => d.position === 'FL')!;
+    expect(rel(fl.energyJ, expected), `energy ${fl.energyJ} J vs ${expected} J`).toBeLessThan(1e-9);
+    expect(fl.segments).toBe(25);
+    expect(fl.unratedSegments).toBe(0);
+  });
+
+  it('when there is payload, then the front axle carries the stated share and the rear the rest', () => {
+    expect(cornerPayloadKg(1000, 0, 2)).toBeCloseTo((1000 * FRONT_AXLE_PAYLOAD_SHARE) / 2, 9);
+    expect(cornerPayloadKg(1000, 1, 2)).toBeCloseTo((1000 * (1 - FRONT_AXLE_PAYLOAD_SHARE)) / 2, 9);
+    const total = 2 * cornerPayloadKg(1000, 0, 3) + 2 * cornerPayloadKg(1000, 1, 3) + 2 * cornerPayloadKg(1000, 2, 3);
+    expect(total).toBeCloseTo(1000, 9);
+  });
+
+  it('when a segment has no roughness, then it is counted as unrated and adds no duty', () => {
+    const r = computeVehicleDuty(van(1, 1, ['2026-11-01']), new Map([[1, route(1, null)]]), new DutyCache());
+    expect(r.duties[0].unratedSegments).toBe(25);
+    expect(r.duties[0].energyJ).toBe(0);
+  });
+
+  it('when a trip names a route that is not loaded, then that trip is reported and the others go on', () => {
+    const w = van(1, 1, ['2026-11-01', '2026-11-02']);
+    w.trips[1].routeId = 99;
+    const r = computeVehicleDuty(w, new Map([[1, route(1, gdForClass('B'))]]), new DutyCache());
+    expect(r.errors).toEqual([{ tripId: w.trips[1].id, message: 'route 99 is not loaded' }]);
+    expect(r.duties).toHaveLength(4);
+  });
+
+  it('when a segment has a measured profile, then it is simulated and its energy agrees with the closed form of the same class within 25 % (computed)', () => {
+    const gd = gdForClass('C');
+    const elevations = synthesizeProfile({ gdN0: gd, lengthM: 2600, dxM: 0.25, seed: 7 });
+    const profile = { surveyId: 1, dxM: 0.25, startM: 0, elevationsM: elevations };
+    const sim = computeVehicleDuty(van(1, 1, ['2026-11-01']), new Map([[1, route(1, gd, 25, profile)]]), new DutyCache());
+    const cf = computeVehicleDuty(van(1, 1, ['2026-11-01']), new Map([[1, route(1, gd)]]), new DutyCache());
+    expect(sim.duties[0].profiledSegments).toBeGreaterThan(20);
+    const ratio = sim.duties[0].energyJ / cf.duties[0].energyJ;
+    expect(Math.abs(ratio - 1), `simulated/closed-form energy ratio ${ratio}`).toBeLessThan(0.25);
+    expect(sim.duties[0].springDamage).toBeGreaterThan(0);
+  });
+
+  it('when the spring damage comes from Dirlik on the travel PSD, then m0 equals the closed-form travel variance (computed, 1 %)', () => {
+    const v = 60 / 3.6;
+    const m = travelMoments(front, v, 1);
+    const p = prepareDuty(front, v);
+    expect(rel(m.m0, p.varTravelPerGd), `m0 ${m.m0} vs Lyapunov ${p.varTravelPerGd}`).toBeLessThan(0.01);
+    // m2 of travel = variance of relative velocity / (2π)²
+    expect(rel(m.m2 * 4 * Math.PI ** 2, p.varRelVelPerGd)).toBeLessThan(0.01);
+  });
+});
+
+describe('fast loops of the nightly run', () => {
+  it('when the travel loop runs, then it matches runSimulation (computed, 1e-9)', () => {
+    const prof = synthesizeProfile({ gdN0: gdForClass('D'), lengthM: 150, dxM: 0.25, seed: 3 });
+    const p = prepareSimulation(front, 0.25, 12);
+    const ref = runSimulation(p, prof, { warmupM: 30, series: true });
+    const buf = new Float64Array(prof.length);
+    const mine = simulateTravel(p, prof, 120, buf);
+    expect(rel(mine.msRelVel, ref.rmsRelativeVelocity ** 2)).toBeLessThan(1e-9);
+    expect(rel(mine.msTravel, ref.rmsSuspensionTravel ** 2)).toBeLessThan(1e-9);
+    expect(rel(mine.msBodyAccel, ref.rmsBodyAccel ** 2)).toBeLessThan(1e-9);
+    expect(rel(buf[10], ref.series!.suspensionTravel[121 + 10])).toBeLessThan(1e-9);
+  });
+
+  it('when rainflow damage is summed on the fly, then it equals rainflow + Miner of the physics engine', () => {
+    const rand = seededRandom(11);
+    for (let trial = 0; trial < 20; trial++) {
+      const x = Float64Array.from({ length: 300 }, () => Math.round((rand() - 0.5) * 20) / 2);
+      const ref = minerDamage(rainflow(x), { k: 3, C: 7 });
+      const got = rainflowDamage(x, x.length, 3, 7);
+      expect(rel(got, ref), `trial ${trial}: ${got} vs ${ref}`).toBeLessThan(1e-12);
+    }
+    // ASTM E1049-85 §5.4.4 example: ranges 3(½) 4(1½) 6(½) 8(1) 9(½) → Σ n·S with k = 1 is 30.5
+    const astm = Float64Array.from([-2, 1, -3, 5, -1, 3, -4, 4, -2]);
+    expect(rainflowDamage(astm, astm.length, 1, 1)).toBeCloseTo(0.5 * 3 + 1.5 * 4 + 0.5 * 6 + 1 * 8 + 0.5 * 9, 12);
+  });
+});
+
+describe('wear and prediction', () => {
+  it('when twin dampers drive a rough and a smooth route, then the rough one is predicted to reach the threshold sooner', () => {
+    const cache = new DutyCache();
+    const trips = Array.from({ length: 30 }, (_, i) => `2026-11-${String(i + 1).padStart(2, '0')}`);
+    const rough = computeVehicleDuty(van(1, 1, trips), new Map([[1, route(1, gdForClass('E'))]]), cache);
+    const smooth = computeVehicleDuty(van(2, 2, trips), new Map([[2, route(2, gdForClass('B'))]]), cache);
+    const life = ratedLife({ damperId: 10, corner: front, ratedDamperLifeKm: 90000 });
+    const forecast = (r: typeof rough, damperId: number) => {
+      const perDay = r.duties.filter((d) => d.damperId === damperId).map((d) => ({ day: d.tripDate, distanceKm: d.distanceKm, energyJ: d.energyJ, springDamage: d.springDamage }));
+      const hist = accumulateDays({ damperId, vehicleId: 1 }, null, perDay, life.energyJ, front.dampingNsPerM);
+      return predict(hist, { asOf: '2026-11-30', installedAt: '2026-01-01', life, thresholdFraction: 0.8, nominalDampingNsPerM: front.dampingNsPerM });
+    };
+    const a = forecast(rough, 10);
+    const b = forecast(smooth, 20);
+    expect(a.thresholdDate && b.thresholdDate).toBeTruthy();
+    expect(a.thresholdDate! < b.thresholdDate!, `rough ${a.thresholdDate} vs smooth ${b.thresholdDate}`).toBe(true);
+    expect(a.rateJPerDay).toBeGreaterThan(b.rateJPerDay);
+  });
+
+  it('when a damper has used 40 % of its life at 1 %/day, then it reaches 80 % in 40 days and end of life in 60 (computed)', () => {
+    const L = 1e8;
+    const hist = accumulateDays({ damperId: 1, vehicleId: 1 }, { cumEnergyJ: 0.1 * L, cumSpringDamage: 0 }, Array.from({ length: 30 }, (_, i) => ({ day: `2026-11-${String(i + 1).padStart(2, '0')}`, distanceKm: 100, energyJ: 0.01 * L, springDamage: 0 })), L, 2000);
+    const p = predict(hist, { asOf: '2026-11-30', installedAt: '2025-01-01', life: { energyJ: L, source: 'rated', note: '' }, thresholdFraction: 0.8, nominalDampingNsPerM: 2000 });
+    expect(p.lifeUsedFraction).toBeCloseTo(0.4, 12);
+    expect(p.rateJPerDay).toBeCloseTo(0.01 * L, 6);
+    expect(p.thresholdDate).toBe('2027-01-09');
+    expect(p.endOfLifeDate).toBe('2027-01-29');
+    // linear fade to 60 % at end of life (stated assumption): 40 % used → 84 % of nominal
+    expect(p.dampingNsPerM).toBeCloseTo(2000 * 0.84, 9);
+    expect(p.windowDays).toBe(30);
+  });
+
+  it('when the threshold was already passed, then the threshold date is the day it was crossed', () => {
+    const L = 100;
+    const hist = accumulateDays({ damperId: 1, vehicleId: 1 }, null, [
+      { day: '2026-11-01', distanceKm: 1, energyJ: 50, springDamage: 0 },
+      { day: '2026-11-02', distanceKm: 1, energyJ: 35, springDamage: 0 },
+      { day: '2026-11-03', distanceKm: 1, energyJ: 5, springDamage: 0 },
+    ], L, 1000);
+    const p = predict(hist, { asOf: '2026-11-30', installedAt: '2026-11-01', life: { energyJ: L, source: 'rated', note: '' }, thresholdFraction: 0.8, nominalDampingNsPerM: 1000 });
+    expect(p.thresholdDate).toBe('2026-11-02');
+    expect(p.endOfLifeDate! > '2026-11-30').toBe(true);
+  });
+
+  it('when a damper had no duty in the window, then no date is predicted', () => {
+    const p = predict([], { asOf: '2026-11-30', installedAt: '2026-01-01', life: { energyJ: 1, source: 'rated', note: '' }, thresholdFraction: 0.8, nominalDampingNsPerM: 1000 });
+    expect(p.thresholdDate).toBeNull();
+    expect(p.endOfLifeDate).toBeNull();
+  });
+});
