@@ -100,6 +100,28 @@ describe('sign-in', () => {
   });
 });
 
+describe('session', () => {
+  it('when the session ends while a page is open, then the next request leads to sign-in and back to that page', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await expectHeading(page, 'Fleet');
+    // Responses still in flight would set the (rolling) session cookie again.
+    await page.waitForLoadState('networkidle');
+    await context.clearCookies();
+
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Vehicles' }).click();
+    await expectPath(page, '/sign-in');
+    await page.getByText('Your session has ended. Sign in again to carry on where you were.').waitFor();
+    expect(new URL(page.url()).searchParams.get('next')).toBe('/vehicles');
+    await page.getByLabel('E-mail').fill(DEMO.manager);
+    await page.getByLabel('Password').fill(DEMO_PASSWORD);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await expectPath(page, '/vehicles');
+    await context.close();
+  });
+});
+
 describe('account', () => {
   it('when the current password is wrong or the new ones differ, then the form says which field to fix; a good change works', async () => {
     const context = await newContext(browser, 'phone');
@@ -121,7 +143,7 @@ describe('account', () => {
     await form.getByRole('button', { name: 'Change password' }).click();
     await form.getByText('Current password does not match.').waitFor();
     expect(await form.getByLabel('Current password').evaluate((el) => el === document.activeElement)).toBe(true);
-    await page.screenshot({ path: screenshotPath('driver-phone-account-errors'), fullPage: true });
+    await page.screenshot({ path: screenshotPath('driver-phone-account-errors') });
 
     await form.getByLabel('Current password').fill(DEMO_PASSWORD);
     await form.getByRole('button', { name: 'Change password' }).click();

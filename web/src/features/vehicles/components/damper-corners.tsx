@@ -147,13 +147,13 @@ function DamperCard({ damper, fallback, ratedLifeKm, compact }: { damper?: Dampe
               <dd className="tabular text-right text-ink">{formatPercent(kmShare)}</dd>
             </>
           ) : null}
-          {!compact && damper.dampingNsPerM ? (
+          {damper.dampingNsPerM ? (
             <>
               <dt className="text-slate">Damping est.</dt>
               <dd className="tabular text-right text-ink">{formatQuantity(damper.dampingNsPerM, 'N·s/m')}</dd>
             </>
           ) : null}
-          {!compact && damper.partNumber ? (
+          {damper.partNumber ? (
             <>
               <dt className="text-slate">Part</dt>
               <dd className="truncate text-right font-mono text-xs leading-5 text-ink">{damper.partNumber}</dd>

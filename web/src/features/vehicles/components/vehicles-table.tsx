@@ -75,7 +75,7 @@ export function VehiclesTable({ params, onParamsChange, depotOptions, specOption
         label="Fleet number or plate"
         value={params.q ?? ''}
         onChange={(q) => onParamsChange({ q: q || undefined })}
-        placeholder="e.g. RV-104 or KX21"
+        placeholder="Part of a fleet number or plate"
         className="col-span-2 md:col-span-1"
       />
       <SelectField

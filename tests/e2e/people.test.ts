@@ -1,0 +1,107 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { startTestServer, type TestServer } from '../support/server';
+import { DEMO, expectHeading, expectPath, menuItems, signIn } from './helpers';
+
+let server: TestServer;
+let browser: Browser;
+
+beforeAll(async () => {
+  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+const row = (page: Page, name: string) => page.getByRole('table', { name: /^People/ }).getByRole('row').filter({ hasText: name });
+
+describe('people (managers only)', () => {
+  it('when a manager adds a person, changes their role and deactivates them, then the list shows each change and sign-in follows it', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'People' }).click();
+    await expectHeading(page, 'People');
+    await page.getByText(/^1–\d+ of \d+ people$/).waitFor();
+
+    // Filters: role
+    await page.getByLabel('Role', { exact: true }).selectOption('mechanic');
+    await page.waitForFunction(() => new URL(location.href).searchParams.get('role') === 'mechanic');
+    await page.waitForFunction(() => !document.querySelector('table[aria-busy="true"]'));
+    const roles = await page.getByRole('table', { name: /^People/ }).locator('tbody tr td:nth-child(3)').allInnerTexts();
+    expect(roles.length).toBeGreaterThan(0);
+    expect(new Set(roles)).toEqual(new Set(['Mechanic']));
+    await page.getByRole('button', { name: 'Clear filters' }).click();
+
+    // Add a person: a short password is refused with a field message, then a good one works.
+    await page.getByRole('button', { name: 'Add a person' }).first().click();
+    const dialog = page.getByRole('dialog', { name: 'Add a person' });
+    await dialog.getByLabel('Name').fill('Rosa Quintero');
+    await dialog.getByLabel('E-mail').fill('rosa.quintero@reboundry.test');
+    await dialog.getByLabel('Role').selectOption('driver');
+    await dialog.getByLabel('First password').fill('short');
+    await dialog.getByRole('button', { name: 'Add person' }).click();
+    await dialog.getByText('First password must be at least 10 characters.').waitFor();
+    expect(await dialog.getByLabel('First password').evaluate((el) => el === document.activeElement)).toBe(true);
+    await page.screenshot({ path: screenshotPath('manager-desktop-people-add') });
+    await dialog.getByLabel('First password').fill('quarry-lane-42');
+    await dialog.getByRole('button', { name: 'Add person' }).click();
+    await page.getByText('Rosa Quintero is added as a driver').waitFor();
+
+    // Find them, make them a mechanic.
+    await page.getByLabel('Name or e-mail').fill('Quintero');
+    await page.waitForFunction(() => new URL(location.href).searchParams.get('q') === 'Quintero');
+    await row(page, 'Rosa Quintero').getByRole('cell', { name: 'Driver' }).waitFor();
+    await page.getByRole('button', { name: 'Change role for Rosa Quintero' }).click();
+    const roleDialog = page.getByRole('dialog', { name: 'Change role for Rosa Quintero' });
+    await roleDialog.getByLabel('Role').selectOption('mechanic');
+    await roleDialog.getByRole('button', { name: 'Save role' }).click();
+    await page.getByText('Rosa Quintero is now a mechanic.').waitFor();
+    await row(page, 'Rosa Quintero').getByRole('cell', { name: 'Mechanic' }).waitFor();
+
+    // The new person can sign in and lands where a mechanic does.
+    const theirs = await newContext(browser, 'tablet');
+    const theirPage = await theirs.newPage();
+    await signIn(theirPage, server.url, 'rosa.quintero@reboundry.test', 'quarry-lane-42');
+    await expectPath(theirPage, '/workshop');
+    expect(await menuItems(theirPage)).toEqual(['Workshop', 'Vehicles', 'Account']);
+    await theirs.close();
+
+    // Deactivate: confirm first; then the badge says so and sign-in is refused.
+    await page.getByRole('button', { name: 'Deactivate Rosa Quintero' }).click();
+    const confirm = page.getByRole('dialog', { name: 'Deactivate Rosa Quintero?' });
+    await page.screenshot({ path: screenshotPath('manager-desktop-people-deactivate') });
+    await confirm.getByRole('button', { name: 'Deactivate' }).click();
+    await page.getByText('Rosa Quintero can no longer sign in.').waitFor();
+    await row(page, 'Rosa Quintero').getByText('Deactivated').waitFor();
+
+    const again = await newContext(browser, 'tablet');
+    const againPage = await again.newPage();
+    await againPage.goto(`${server.url}/sign-in`);
+    await againPage.getByLabel('E-mail').fill('rosa.quintero@reboundry.test');
+    await againPage.getByLabel('Password').fill('quarry-lane-42');
+    await againPage.getByRole('button', { name: 'Sign in' }).click();
+    await againPage.getByRole('alert').getByText(/do not match an active account/).waitFor();
+    await again.close();
+
+    // Reactivate
+    await page.getByRole('button', { name: 'Reactivate Rosa Quintero' }).click();
+    await page.getByRole('dialog', { name: 'Reactivate Rosa Quintero?' }).getByRole('button', { name: 'Reactivate' }).click();
+    await row(page, 'Rosa Quintero').getByText('Active', { exact: true }).waitFor();
+    await context.close();
+  });
+
+  it('when a manager looks at their own row, then they cannot deactivate themselves or change their own role', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await page.goto(`${server.url}/people?q=manager%40reboundry.test`);
+    await page.getByText('(you)').waitFor();
+    expect(await page.getByRole('button', { name: /^Deactivate / }).isDisabled()).toBe(true);
+    expect(await page.getByRole('button', { name: /^Change role for / }).isDisabled()).toBe(true);
+    await context.close();
+  });
+});
