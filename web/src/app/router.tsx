@@ -3,6 +3,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { meQueryOptions } from '@/features/auth/api/get-me';
 import { AccountPage } from '@/features/auth/components/account-page';
 import { AppShell } from './app-shell';
+import { AppLoading } from './routes/app-loading';
 import { landingRedirect, requireRole, requireUser } from './guards';
 import { landingPaths, pages, safeNext } from './navigation';
 import { FleetPage } from './routes/fleet-page';
@@ -32,12 +33,14 @@ export function createAppRouter(queryClient: QueryClient) {
         return null;
       },
       element: <SignInRoute />,
+      hydrateFallbackElement: <AppLoading />,
       errorElement: <RouteError />,
     },
     {
       path: '/',
       loader: requireUser(queryClient),
       element: <AppShell />,
+      hydrateFallbackElement: <AppLoading />,
       errorElement: <RouteError />,
       children: [
         {
