@@ -16,6 +16,10 @@ import { SpecsPage } from './routes/specs-page';
 import { vehicleLoader, VehiclePage } from './routes/vehicle-page';
 import { VehiclesPage } from './routes/vehicles-page';
 import { WorkshopPage } from './routes/workshop-page';
+import { MapPage } from './routes/map-page';
+import { RoutePage } from './routes/route-page';
+import { TripsPage } from './routes/trips-page';
+import { SpecEditPage } from './routes/spec-edit-page';
 
 const strip = (path: string) => path.replace(/^\//, '');
 
@@ -54,6 +58,11 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: `${strip(pages.vehicles.path)}/:vehicleId`, loader: vehicleLoader(queryClient, pages.vehicles.roles), element: <VehiclePage /> },
             { path: strip(pages.specs.path), loader: only(pages.specs), element: <SpecsPage /> },
             { path: strip(pages.routes.path), loader: only(pages.routes), element: <RoutesPage /> },
+            { path: `${strip(pages.routes.path)}/:routeId`, loader: only(pages.routes), element: <RoutePage /> },
+            { path: strip(pages.map.path), loader: only(pages.map), element: <MapPage /> },
+            { path: strip(pages.trips.path), loader: only(pages.trips), element: <TripsPage /> },
+            { path: `${strip(pages.specs.path)}/new`, loader: only(pages.specs), element: <SpecEditPage /> },
+            { path: `${strip(pages.specs.path)}/:specId/edit`, loader: only(pages.specs), element: <SpecEditPage /> },
             { path: strip(pages.people.path), loader: only(pages.people), element: <PeoplePage /> },
             { path: strip(pages.account.path), loader: only(pages.account), element: <AccountPage /> },
             { path: '*', element: <NotFound /> },

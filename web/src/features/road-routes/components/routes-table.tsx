@@ -1,4 +1,5 @@
 import { useMemo } from 'react';
+import { Link } from 'react-router';
 import { createColumnHelper } from '@tanstack/react-table';
 import { DataTable } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -25,7 +26,9 @@ export function RoutesTable() {
         header: 'Route',
         cell: (c) => (
           <span>
-            <span className="font-medium">{c.getValue()}</span>
+            <Link to={`/routes/${c.row.original.id}`} className="link font-medium">
+              {c.getValue()}
+            </Link>
             {c.row.original.description ? <span className="block text-[0.8125rem] text-slate">{c.row.original.description}</span> : null}
           </span>
         ),

@@ -8,7 +8,7 @@ import { useSpecs } from '../api/get-specs';
 import { SpecCornerTable } from './spec-corner-table';
 
 /** Every suspension spec with its corner parameters. */
-export function SpecsList({ vehiclesPath }: { vehiclesPath: (specId: number) => string }) {
+export function SpecsList({ vehiclesPath, editPath }: { vehiclesPath: (specId: number) => string; editPath?: (specId: number) => string }) {
   const specs = useSpecs();
   if (specs.isPending) return <LoadingState label="Loading specs…" />;
   if (specs.error) return <ErrorState error={specs.error} what="the specs" onRetry={() => void specs.refetch()} />;
@@ -32,9 +32,16 @@ export function SpecsList({ vehiclesPath }: { vehiclesPath: (specId: number) => 
             </>
           }
           actions={
-            <Link to={vehiclesPath(spec.id)} className="link text-sm">
-              {formatNumber(spec.vehicleCount)} {spec.vehicleCount === 1 ? 'vehicle' : 'vehicles'}
-            </Link>
+            <span className="flex gap-4">
+              <Link to={vehiclesPath(spec.id)} className="link text-sm">
+                {formatNumber(spec.vehicleCount)} {spec.vehicleCount === 1 ? 'vehicle' : 'vehicles'}
+              </Link>
+              {editPath ? (
+                <Link to={editPath(spec.id)} className="link text-sm" aria-label={`Edit ${spec.name}`}>
+                  Edit
+                </Link>
+              ) : null}
+            </span>
           }
         >
           <SpecCornerTable axles={spec.axles} label={`${spec.name}: corner parameters per axle`} />

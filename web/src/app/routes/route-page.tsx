@@ -1,0 +1,22 @@
+import { useParams } from 'react-router';
+import { useQuery } from '@tanstack/react-query';
+import { PageHeader } from '@/components/ui/page-header';
+import { meQueryOptions } from '@/features/auth/api/get-me';
+import { routeQueryOptions } from '@/features/road-routes/api/get-route';
+import { RouteView } from '@/features/road-routes/components/route-view';
+import { isoDate } from '@/lib/format';
+import { pages, vehiclePath } from '../navigation';
+
+export function RoutePage() {
+  const id = Number(useParams().routeId);
+  const me = useQuery(meQueryOptions());
+  const route = useQuery(routeQueryOptions(id));
+  const name = route.data?.route.name ?? 'Route';
+  return (
+    <>
+      <title>{`${name} · Reboundry`}</title>
+      <PageHeader title={name} eyebrow="Route" description={route.data?.route.description ?? undefined} back={{ to: pages.routes.path, label: 'Routes' }} />
+      <RouteView routeId={id} canEdit={me.data?.role === 'manager'} today={isoDate(new Date())} vehiclePath={vehiclePath} tripsPath={`/trips?routeId=${id}`} />
+    </>
+  );
+}

@@ -1,0 +1,187 @@
+import { useEffect, useState } from 'react';
+import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { Button } from '@/components/ui/button';
+import { Caution } from '@/components/ui/caution';
+import { SelectField, TextField } from '@/components/ui/field';
+import { Section } from '@/components/ui/section';
+import { isApiError } from '@/lib/api-client';
+import { formatNumber } from '@/lib/format';
+import type { SuspensionSpec } from '@/lib/suspension';
+import { useSaveSpec, useSpecPresets, useSpecPreview, type AxleForm, type CornerPreview, type SpecPresets } from '../api/spec-editor-api';
+
+const FIELDS: { key: keyof Omit<AxleForm, 'label'>; label: string; unit: string; typicalKey?: string }[] = [
+  { key: 'sprungMassKg', label: 'Sprung mass per corner', unit: 'kg', typicalKey: 'sprungMassKg' },
+  { key: 'unsprungMassKg', label: 'Unsprung mass per corner', unit: 'kg', typicalKey: 'unsprungMassKg' },
+  { key: 'springRateNPerM', label: 'Spring rate at the wheel', unit: 'N/m', typicalKey: 'springRateNPerM' },
+  { key: 'dampingNsPerM', label: 'Damping at the wheel', unit: 'N·s/m', typicalKey: 'dampingNsPerM' },
+  { key: 'tireRateNPerM', label: 'Tyre rate', unit: 'N/m', typicalKey: 'tireRateNPerM' },
+  { key: 'ratedDamperLifeKm', label: 'Rated damper life', unit: 'km' },
+];
+
+type Draft = { name: string; vehicleClass: string; description: string; axles: Record<string, string>[] };
+
+const toDraftAxle = (a: AxleForm): Record<string, string> => Object.fromEntries(Object.entries(a).map(([k, v]) => [k, String(v)]));
+
+function fromSpec(s: SuspensionSpec): Draft {
+  return {
+    name: s.name,
+    vehicleClass: s.vehicleClass,
+    description: s.description ?? '',
+    axles: s.axles.map((a) => toDraftAxle({ label: a.label, ...a.corner, ratedDamperLifeKm: a.ratedDamperLifeKm })),
+  };
+}
+
+function toAxles(d: Draft): AxleForm[] | null {
+  const out: AxleForm[] = [];
+  for (const a of d.axles) {
+    if (FIELDS.some((f) => (a[f.key] ?? '').trim() === '')) return null;
+    const nums = FIELDS.map((f) => Number(a[f.key]));
+    if (nums.some((n) => !Number.isFinite(n))) return null;
+    out.push({ label: a.label || 'axle', ...(Object.fromEntries(FIELDS.map((f, i) => [f.key, nums[i]])) as Omit<AxleForm, 'label'>) });
+  }
+  return out;
+}
+
+function useDebounced<T>(value: T, ms: number): T {
+  const [v, setV] = useState(value);
+  useEffect(() => {
+    const t = setTimeout(() => setV(value), ms);
+    return () => clearTimeout(t);
+  }, [value, ms]);
+  return v;
+}
+
+/** Create or edit a spec; modes and the frequency response update as you type. */
+export function SpecEditor({ spec, onSaved }: { spec: SuspensionSpec | null; onSaved: (id: number) => void }) {
+  const presets = useSpecPresets();
+  const [d, setD] = useState<Draft>(() => (spec ? fromSpec(spec) : { name: '', vehicleClass: 'light commercial', description: '', axles: [] }));
+  useEffect(() => {
+    if (!spec && d.axles.length === 0 && presets.data) {
+      const p = presets.data.presets.find((x) => x.vehicleClass === d.vehicleClass) ?? presets.data.presets[0];
+      setD((s) => ({ ...s, axles: p.axles.map(toDraftAxle) }));
+    }
+  }, [spec, presets.data, d.axles.length, d.vehicleClass]);
+  const axles = toAxles(d);
+  const body = useDebounced(axles && axles.length ? { vehicleClass: d.vehicleClass, axles } : null, 250);
+  const preview = useSpecPreview(body);
+  const save = useSaveSpec(spec?.id ?? null);
+  const previewFields = preview.error && isApiError(preview.error) ? preview.error.fields : {};
+  const saveFields = save.error && isApiError(save.error) ? save.error.fields : {};
+  const fieldError = (k: string) => saveFields[k] ?? previewFields[k];
+  const typical = presets.data?.typical[d.vehicleClass];
+
+  const setAxle = (i: number, k: string, v: string) => setD((s) => ({ ...s, axles: s.axles.map((a, j) => (j === i ? { ...a, [k]: v } : a)) }));
+
+  return (
+    <form
+      className="flex flex-col gap-6"
+      onSubmit={(e) => {
+        e.preventDefault();
+        if (!axles) return;
+        save.mutate({ name: d.name, vehicleClass: d.vehicleClass, description: d.description || null, axles }, { onSuccess: (r) => onSaved(r.spec.id) });
+      }}
+    >
+      <div className="grid gap-3 sm:grid-cols-3">
+        <TextField label="Name" value={d.name} onChange={(e) => setD({ ...d, name: e.target.value })} error={fieldError('name')} />
+        <SelectField label="Vehicle class" value={d.vehicleClass} onChange={(e) => setD({ ...d, vehicleClass: e.target.value })} error={fieldError('vehicleClass')} options={(presets.data?.vehicleClasses ?? [d.vehicleClass]).map((c) => ({ value: c, label: c }))} />
+        <TextField label="Description" aside="(optional)" value={d.description} onChange={(e) => setD({ ...d, description: e.target.value })} />
+      </div>
+      {presets.data ? <PresetPicker presets={presets.data} onPick={(p) => setD((s) => ({ ...s, vehicleClass: p.vehicleClass, axles: p.axles.map(toDraftAxle) }))} /> : null}
+      {d.axles.map((a, i) => (
+        <Section key={i} title={`Axle ${i + 1}: ${a.label || 'unnamed'}`} description="Per corner (one wheel station), at the wheel.">
+          <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_minmax(0,1.1fr)]">
+            <div className="grid gap-3 sm:grid-cols-2">
+              <TextField label="Axle label" value={a.label} onChange={(e) => setAxle(i, 'label', e.target.value)} />
+              {FIELDS.map((f) => {
+                const r = f.typicalKey ? typical?.[f.typicalKey] : null;
+                return (
+                  <TextField
+                    key={f.key}
+                    label={`${f.label} [${f.unit}]`}
+                    inputMode="decimal"
+                    value={a[f.key] ?? ''}
+                    onChange={(e) => setAxle(i, f.key, e.target.value)}
+                    hint={r ? `Typical ${formatNumber(r[0])}–${formatNumber(r[1])} ${f.unit}` : f.key === 'ratedDamperLifeKm' ? 'Common practice: 80 000–100 000 km for vans' : undefined}
+                    error={fieldError(`axles.${i}.${f.key}`)}
+                  />
+                );
+              })}
+            </div>
+            <CornerResult p={preview.data?.axles[i]} stale={preview.isFetching || Boolean(preview.error)} />
+          </div>
+        </Section>
+      ))}
+      {presets.data ? <p className="text-xs text-slate">Typical ranges: {presets.data.typicalSource}.</p> : null}
+      <Caution>These figures describe the model, not the vehicle. Follow the vehicle and damper makers’ data and have suspensions checked by a qualified mechanic.</Caution>
+      <div className="flex items-center gap-3">
+        <Button type="submit" variant="primary" busy={save.isPending} disabled={!axles}>
+          {spec ? 'Save changes' : 'Create spec'}
+        </Button>
+        {save.error ? <p role="alert" className="text-sm text-overdue">{save.error.message}</p> : null}
+        {save.isSuccess ? <p role="status" className="text-sm text-ok">Saved.</p> : null}
+      </div>
+    </form>
+  );
+}
+
+function PresetPicker({ presets, onPick }: { presets: SpecPresets; onPick: (p: SpecPresets['presets'][number]) => void }) {
+  return (
+    <div className="flex flex-wrap items-center gap-2 text-sm">
+      <span className="text-slate">Start from a preset:</span>
+      {presets.presets.map((p) => (
+        <Button key={p.key} size="sm" variant="secondary" onClick={() => onPick(p)} title={`Source: ${p.source}`}>
+          {p.name}
+        </Button>
+      ))}
+    </div>
+  );
+}
+
+function CornerResult({ p, stale }: { p: CornerPreview | undefined; stale: boolean }) {
+  if (!p) return <p className="text-sm text-slate">Enter every value to see the corner’s modes.</p>;
+  return (
+    <div className={stale ? 'opacity-60' : undefined} data-testid="corner-modes">
+      <dl className="grid grid-cols-2 gap-x-4 gap-y-1 text-sm sm:grid-cols-4">
+        <div>
+          <dt className="text-slate">Body bounce</dt>
+          <dd className="tabular-nums font-medium" data-testid="body-hz">{formatNumber(p.modes.bodyHz, 2)} Hz</dd>
+        </div>
+        <div>
+          <dt className="text-slate">Body damping ratio</dt>
+          <dd className="tabular-nums font-medium" data-testid="body-zeta">{formatNumber(p.modes.bodyDampingRatio, 2)}</dd>
+        </div>
+        <div>
+          <dt className="text-slate">Wheel hop</dt>
+          <dd className="tabular-nums font-medium">{formatNumber(p.modes.wheelHz, 1)} Hz</dd>
+        </div>
+        <div>
+          <dt className="text-slate">Wheel damping ratio</dt>
+          <dd className="tabular-nums font-medium">{formatNumber(p.modes.wheelDampingRatio, 2)}</dd>
+        </div>
+      </dl>
+      {p.hints.length ? (
+        <ul className="mt-2 list-disc pl-5 text-sm text-watch">
+          {p.hints.map((h) => (
+            <li key={h}>{h}</li>
+          ))}
+        </ul>
+      ) : null}
+      <figure className="mt-2" aria-label="Frequency response">
+        <div className="h-56">
+          <ResponsiveContainer>
+            <LineChart data={p.response} margin={{ top: 6, right: 8, bottom: 18, left: 8 }}>
+              <CartesianGrid stroke="#0001" />
+              <XAxis dataKey="fHz" type="number" scale="log" domain={[0.3, 30]} ticks={[0.3, 1, 3, 10, 30]} label={{ value: 'frequency [Hz]', position: 'insideBottom', offset: -10, fontSize: 12 }} />
+              <YAxis yAxisId="a" tickFormatter={(v: number) => formatNumber(v)} label={{ value: 'body accel. [(m/s²)/m]', angle: -90, position: 'insideLeft', fontSize: 11 }} />
+              <YAxis yAxisId="t" orientation="right" tickFormatter={(v: number) => `${formatNumber(v / 1000)}k`} label={{ value: 'tyre load [N/m]', angle: 90, position: 'insideRight', fontSize: 11 }} />
+              <Tooltip formatter={(v) => (typeof v === 'number' ? formatNumber(v, 0) : v)} labelFormatter={(v) => `${formatNumber(Number(v), 2)} Hz`} />
+              <Legend verticalAlign="top" height={24} />
+              <Line yAxisId="a" dataKey="bodyAccel" name="Body acceleration per m of road [(m/s²)/m]" stroke="#1f2a36" dot={false} isAnimationActive={false} />
+              <Line yAxisId="t" dataKey="tireLoadN" name="Dynamic tyre load per m of road [N/m]" stroke="#b4531f" strokeDasharray="5 3" dot={false} isAnimationActive={false} />
+            </LineChart>
+          </ResponsiveContainer>
+        </div>
+      </figure>
+    </div>
+  );
+}

@@ -1,0 +1,121 @@
+import { useState } from 'react';
+import { Button } from '@/components/ui/button';
+import { Field, Input } from '@/components/ui/field';
+import { StatusBadge } from '@/components/ui/status-badge';
+import { isApiError } from '@/lib/api-client';
+import { formatDateTime, formatNumber } from '@/lib/format';
+import { useImportTrips, type ImportReport } from '../api/import-trips';
+
+export function TripLayoutHelp() {
+  return (
+    <details className="text-sm text-slate" open>
+      <summary className="cursor-pointer font-medium text-ink">Trip file layout</summary>
+      <p className="mt-1">
+        A CSV text file (UTF-8, commas) with a header row naming the columns, in any order: <code>vehicle</code> (fleet number), <code>route</code> (route name as in Reboundry),{' '}
+        <code>driver_email</code> (sign-in e-mail, may be empty), <code>start</code> and <code>end</code> (ISO 8601 date-times; without an offset they are UTC), <code>distance_km</code> [km],{' '}
+        <code>mean_speed_kmh</code> [km/h], and optionally <code>payload_kg</code> [kg]. Up to 10 000 rows, 5 MB. The whole file is imported or none of it.
+      </p>
+      <pre className="mt-1 overflow-x-auto rounded bg-mist p-2 text-xs">vehicle,route,driver_email,start,end,distance_km,mean_speed_kmh,payload_kg{'\n'}CV-101,Tanner Way town loop,driver@reboundry.test,2026-11-02T07:30:00Z,2026-11-02T08:05:00Z,14.1,31.5,420</pre>
+    </details>
+  );
+}
+
+/** Check a telematics export row by row, then import all of it or nothing. */
+export function TripImport() {
+  const [file, setFile] = useState<File | null>(null);
+  const [report, setReport] = useState<ImportReport | null>(null);
+  const [done, setDone] = useState<number | null>(null);
+  const m = useImportTrips();
+  const err = m.error && isApiError(m.error) ? m.error : null;
+  return (
+    <div className="flex flex-col gap-3">
+      <TripLayoutHelp />
+      <div className="flex flex-wrap items-end gap-3">
+        <Field label="Trip file (CSV)">
+          {(c) => (
+            <Input
+              {...c}
+              type="file"
+              accept=".csv,text/csv,text/plain"
+              className="pt-1.5"
+              onChange={(e) => {
+                setFile(e.target.files?.[0] ?? null);
+                setReport(null);
+                setDone(null);
+                m.reset();
+              }}
+            />
+          )}
+        </Field>
+        <Button disabled={!file} busy={m.isPending && !report} onClick={() => file && m.mutate({ file, preview: true }, { onSuccess: (d) => setReport(d as ImportReport) })}>
+          Check file
+        </Button>
+        <Button
+          variant="primary"
+          disabled={!file || !report || report.bad > 0}
+          busy={m.isPending && Boolean(report)}
+          onClick={() =>
+            file &&
+            m.mutate(
+              { file, preview: false },
+              {
+                onSuccess: (d) => {
+                  setDone((d as { imported: number }).imported);
+                  setReport(null);
+                },
+              },
+            )
+          }
+        >
+          Import trips
+        </Button>
+      </div>
+      {err ? (
+        <div role="alert" className="rounded-md border border-overdue/50 bg-overdue-tint p-3 text-sm">
+          <p className="font-semibold">{err.message}</p>
+          <ul className="mt-1 list-disc pl-5">
+            {Object.entries(err.fields).map(([k, v]) => (
+              <li key={k}>{k}: {v}</li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
+      {done !== null ? <p role="status" className="rounded-md border border-ok/40 bg-ok-tint p-3 text-sm">Imported {formatNumber(done)} trips. The nightly run adds them to damper wear.</p> : null}
+      {report ? (
+        <section aria-label="Import report">
+          <p className="text-sm font-medium" role="status">
+            {report.bad === 0 ? `All ${report.total} rows are fine. Press Import trips to add them.` : `${report.bad} of ${report.total} rows have problems. Nothing will be imported until the file is fixed.`}
+          </p>
+          <div className="mt-2 max-h-96 overflow-auto rounded-md border border-line">
+            <table className="w-full text-sm" aria-label="Rows of the trip file">
+              <thead className="sticky top-0 bg-mist text-left">
+                <tr>
+                  <th className="px-2 py-1 text-right">Row</th>
+                  <th className="px-2 py-1">Check</th>
+                  <th className="px-2 py-1">Vehicle</th>
+                  <th className="px-2 py-1">Route</th>
+                  <th className="px-2 py-1">Start</th>
+                  <th className="px-2 py-1 text-right">Distance [km]</th>
+                  <th className="px-2 py-1">Problems</th>
+                </tr>
+              </thead>
+              <tbody>
+                {report.rows.map((r) => (
+                  <tr key={r.row} className="border-t border-line align-top">
+                    <td className="px-2 py-1 text-right tabular-nums">{r.row}</td>
+                    <td className="px-2 py-1">{r.ok ? <StatusBadge tone="ok">Fine</StatusBadge> : <StatusBadge tone="overdue">Problem</StatusBadge>}</td>
+                    <td className="px-2 py-1">{r.trip.fleetNumber}</td>
+                    <td className="px-2 py-1">{r.trip.routeName}</td>
+                    <td className="px-2 py-1 whitespace-nowrap">{formatDateTime(r.trip.startedAt)}</td>
+                    <td className="px-2 py-1 text-right tabular-nums">{formatNumber(r.trip.distanceKm, 1)}</td>
+                    <td className="px-2 py-1 text-overdue">{r.problems.join('; ')}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        </section>
+      ) : null}
+    </div>
+  );
+}
