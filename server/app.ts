@@ -18,6 +18,11 @@ import { registerFleetWriteRoutes } from './fleet/write-routes';
 import { registerRoadRoutes } from './roads/routes';
 import { registerTripRoutes } from './trips/routes';
 import { registerTiles } from './tiles/tiles';
+import type { Mailer } from './mail/mailer';
+import { registerMailRoutes } from './mail/routes';
+import { registerJobRoutes } from './jobs/routes';
+import { registerInspectionRoutes } from './inspections/routes';
+import { registerWearRoutes } from './wear/routes';
 
 export interface AppDeps {
   config: Config;
@@ -28,6 +33,8 @@ export interface AppDeps {
   auth?: Partial<AuthOptions>;
   /** Folder of the built web client; served with a fallback to index.html when present. */
   webDir?: string;
+  /** Outgoing mail (server/mail/mailer.ts `createMailer`); without it, jobs cannot be run from the app. */
+  mailer?: Mailer | null;
 }
 
 export interface BuiltApp {
@@ -100,6 +107,10 @@ export function createApp(deps: AppDeps): BuiltApp {
   registerFleetWriteRoutes(api, deps.now ?? (() => new Date()));
   registerRoadRoutes(api, { config, now: deps.now ?? (() => new Date()) });
   registerTripRoutes(api, { now: deps.now ?? (() => new Date()) });
+  registerJobRoutes(api, { config, db, log, mailer: deps.mailer ?? null, now: deps.now ?? (() => new Date()) });
+  registerInspectionRoutes(api, { sequelize: db.sequelize, config, now: deps.now ?? (() => new Date()) });
+  registerWearRoutes(api, { sequelize: db.sequelize, config });
+  registerMailRoutes(api, { mailer: deps.mailer ?? null });
   api.use((req, _res, next) => next(AppError.notFound(`The API address ${req.method} ${req.originalUrl}`)));
 
   app.use('/api', api);

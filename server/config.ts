@@ -30,6 +30,14 @@ const schema = z
       .optional(),
     MAP_TILE_ATTRIBUTION: z.string().default(''),
     NIGHTLY_CRON: z.string().min(9).default('30 2 * * *'),
+    INSPECTION_THRESHOLD: z.coerce.number({ message: 'must be a number' }).gt(0, 'must be above 0').max(1, 'must be at most 1').default(0.8),
+    INSPECTION_LEAD_DAYS: z.coerce.number({ message: 'must be a number' }).int().min(0).max(365).default(14),
+    INSPECTION_INTERVAL_KM: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(1e6).default(50000),
+    INSPECTION_INTERVAL_MONTHS: z.coerce.number({ message: 'must be a number' }).int().min(1).max(120).default(12),
+    INSPECTION_DUE_SOON_DAYS: z.coerce.number({ message: 'must be a number' }).int().min(0).max(90).default(7),
+    INSPECTION_HORIZON_DAYS: z.coerce.number({ message: 'must be a number' }).int().min(1).max(730).default(90),
+    NIGHTLY_BATCH_TRIPS: z.coerce.number({ message: 'must be a number' }).int().min(1).max(100000).default(2000),
+    JOB_LOCK_TIMEOUT_MINUTES: z.coerce.number({ message: 'must be a number' }).positive().max(24 * 60).default(30),
     LOG_LEVEL: z.enum(['silent', 'error', 'warn', 'info', 'debug']).default('info'),
   })
   .transform((c) => ({
@@ -48,6 +56,16 @@ const schema = z
     mapTileUrl: c.MAP_TILE_URL,
     mapTileAttribution: c.MAP_TILE_ATTRIBUTION,
     nightlyCron: c.NIGHTLY_CRON,
+    inspection: {
+      threshold: c.INSPECTION_THRESHOLD,
+      leadDays: c.INSPECTION_LEAD_DAYS,
+      intervalKm: c.INSPECTION_INTERVAL_KM,
+      intervalMonths: c.INSPECTION_INTERVAL_MONTHS,
+      dueSoonDays: c.INSPECTION_DUE_SOON_DAYS,
+      horizonDays: c.INSPECTION_HORIZON_DAYS,
+    },
+    nightlyBatchTrips: c.NIGHTLY_BATCH_TRIPS,
+    jobLockTimeoutMinutes: c.JOB_LOCK_TIMEOUT_MINUTES,
     logLevel: c.LOG_LEVEL,
   }));
 

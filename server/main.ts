@@ -4,6 +4,8 @@ import { ConfigError, loadConfig } from './config';
 import { createApp } from './app';
 import { createLogger } from './logger';
 import { defaultWebDir, prepareDatabase } from './boot';
+import { createMailer } from './mail/mailer';
+import { startScheduler } from '../jobs/scheduler';
 
 async function main() {
   let config;
@@ -18,7 +20,9 @@ async function main() {
   }
   const log = createLogger(config.logLevel);
   const db = await prepareDatabase(config, log);
-  const built = createApp({ config, db, log, webDir: defaultWebDir });
+  const { mailer } = await createMailer(config, log);
+  const built = createApp({ config, db, log, webDir: defaultWebDir, mailer });
+  const scheduler = startScheduler({ config, db, log, mailer });
   const server: Server = built.app.listen(config.port, config.host, () => {
     log.info(`Reboundry is running at ${config.publicUrl} (data in ${config.dataDir})`);
   });
@@ -30,6 +34,8 @@ async function main() {
     log.info(`${signal}: shutting down`);
     server.close();
     built.close();
+    await scheduler.stop();
+    await mailer.close();
     await db.close();
     process.exit(0);
   };

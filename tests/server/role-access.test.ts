@@ -60,6 +60,16 @@ export const ACCESS: Record<string, Rule> = {
   'GET /api/trips': { allow: ['manager'], expect: 200 },
   'POST /api/trips': { allow: ['manager'], expect: 400, body: {} },
   'POST /api/trips/import': { allow: ['manager'], expect: 400, body: {} },
+  // issue 5: nightly job, due inspections, wear, outbox, notification preferences
+  'POST /api/jobs/nightly/run': { allow: ['manager'], expect: 400, body: { asOf: 'not-a-date' } },
+  'GET /api/jobs/runs': { allow: ['manager'], expect: 200 },
+  'GET /api/jobs/runs/:id': { allow: ['manager'], expect: 404, path: '/api/jobs/runs/999999' },
+  'GET /api/inspections/due': { allow: ['manager', 'mechanic'], expect: 200 },
+  'GET /api/vehicles/:id/wear': { allow: ALL, expect: 200, path: '/api/vehicles/{vehicle}/wear' },
+  'GET /api/outbox': { allow: ['manager'], expect: 200 },
+  'GET /api/outbox/:id': { allow: ['manager'], expect: 404, path: '/api/outbox/999999' },
+  'GET /api/account/notifications': { allow: ALL, expect: 200 },
+  'PATCH /api/account/notifications': { allow: ALL, expect: 400, body: {} },
 };
 
 let srv: TestServer;

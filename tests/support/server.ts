@@ -7,12 +7,19 @@ import { createApp, type AppDeps } from '../../server/app';
 import { createLogger } from '../../server/logger';
 import { prepareDatabase, defaultWebDir } from '../../server/boot';
 import type { Db } from '../../server/db';
+import type { Config } from '../../server/config';
+import type { Logger } from '../../server/logger';
+import { createMailer, type Mailer } from '../../server/mail/mailer';
 
 export interface TestServer {
   url: string;
   db: Db;
   dataDir: string;
   api: ReturnType<typeof createApp>['api'];
+  /** The app's configuration, logger and mailer (the built-in mail catcher on a free port). */
+  config: Config;
+  log: Logger;
+  mailer: Mailer;
   stop(): Promise<void>;
 }
 
@@ -28,7 +35,8 @@ export async function startTestServer(opts: { seed?: boolean; auth?: AppDeps['au
   const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, SEED_DEMO: opts.seed === false ? 'false' : 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...opts.env });
   const log = createLogger(config.logLevel);
   const db = await prepareDatabase(config, log, TEST_NOW);
-  const built = createApp({ config, db, log, now: () => TEST_NOW, auth: opts.auth, webDir: defaultWebDir });
+  const { mailer } = await createMailer(config, log);
+  const built = createApp({ config, db, log, now: () => TEST_NOW, auth: opts.auth, webDir: defaultWebDir, mailer });
   const server = await new Promise<import('node:http').Server>((resolve) => {
     const s = built.app.listen(0, '127.0.0.1', () => resolve(s));
   });
@@ -38,10 +46,14 @@ export async function startTestServer(opts: { seed?: boolean; auth?: AppDeps['au
     db,
     dataDir,
     api: built.api,
+    config,
+    log,
+    mailer,
     async stop() {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections?.();
       built.close();
+      await mailer.close();
       await db.close();
       fs.rmSync(dataDir, { recursive: true, force: true });
     },

@@ -1,0 +1,186 @@
+/**
+ * Inspections as the nightly job and the due list see them (plain objects out; SQL in).
+ */
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { sqlDate } from '../wear/repository';
+import type { CornerForecast } from '../wear/schedule';
+
+export interface OpenInspection {
+  id: number;
+  vehicleId: number;
+  dueDate: string;
+  status: string;
+  trigger: string | null;
+  assigneeId: number | null;
+}
+
+export interface DueItem {
+  id: number;
+  vehicleId: number;
+  fleetNumber: string;
+  plate: string;
+  vehicleStatus: string;
+  depotId: number;
+  depotName: string;
+  depotLat: number;
+  depotLon: number;
+  dueDate: string;
+  status: string;
+  trigger: string | null;
+  reason: string;
+  basis: Record<string, unknown> | null;
+  assignee: { id: number; name: string } | null;
+  daysLeft: number;
+  /** Highest consumed life among the vehicle's fitted dampers [1]. */
+  maxLifeUsed: number | null;
+  firstThresholdDate: string | null;
+}
+
+export function inspectionRepository(sequelize: Sequelize) {
+  const q = <T extends object>(sql: string, replacements: unknown[] = [], transaction?: Transaction) =>
+    sequelize.query<T>(sql, { replacements: replacements as never, type: QueryTypes.SELECT, transaction });
+
+  return {
+    async vehicles() {
+      return q<{ id: number; fleet_number: string; odometer_km: number; commissioned_at: string | null; depot_id: number }>(
+        `SELECT id, fleet_number, odometer_km, commissioned_at, depot_id FROM vehicles WHERE status != 'retired' ORDER BY id`,
+      );
+    },
+
+    async forecasts(): Promise<Map<number, CornerForecast[]>> {
+      const rows = await q<{ vehicle_id: number; position: string; life_used_fraction: number; threshold_date: string | null; rate_j_per_day: number; spring_damage: number; spring_threshold_date: string | null }>(
+        `SELECT p.vehicle_id, d.position, p.life_used_fraction, p.threshold_date, p.rate_j_per_day, p.spring_damage, p.spring_threshold_date
+         FROM damper_predictions p JOIN dampers d ON d.id = p.damper_id WHERE d.removed_at IS NULL ORDER BY p.vehicle_id, d.position`,
+      );
+      const out = new Map<number, CornerForecast[]>();
+      for (const r of rows) {
+        if (!out.has(r.vehicle_id)) out.set(r.vehicle_id, []);
+        out.get(r.vehicle_id)!.push({
+          position: r.position,
+          lifeUsedFraction: r.life_used_fraction,
+          thresholdDate: r.threshold_date,
+          rateJPerDay: r.rate_j_per_day,
+          springDamage: r.spring_damage,
+          springThresholdDate: r.spring_threshold_date,
+        });
+      }
+      return out;
+    },
+
+    /** The last done inspection of each vehicle (day and odometer). */
+    async lastDone(timeZoneDay: (d: Date) => string) {
+      const rows = await q<{ vehicle_id: number; completed_at: string | null; due_date: string; odometer_km: number | null }>(
+        `SELECT i.vehicle_id, i.completed_at, i.due_date, i.odometer_km FROM inspections i
+         WHERE i.status = 'done' AND i.id = (SELECT x.id FROM inspections x WHERE x.vehicle_id = i.vehicle_id AND x.status = 'done'
+           ORDER BY COALESCE(x.completed_at, x.due_date) DESC, x.id DESC LIMIT 1)`,
+      );
+      return new Map(rows.map((r) => [r.vehicle_id, { date: r.completed_at ? timeZoneDay(new Date(r.completed_at)) : r.due_date, odometerKm: r.odometer_km }]));
+    },
+
+    /** Distance driven per vehicle in [from, before). */
+    async distanceSince(from: Date, before: Date) {
+      const rows = await q<{ vehicle_id: number; km: number }>(
+        `SELECT vehicle_id, SUM(distance_km) AS km FROM trips WHERE started_at >= ? AND started_at < ? GROUP BY vehicle_id`,
+        [sqlDate(from), sqlDate(before)],
+      );
+      return new Map(rows.map((r) => [r.vehicle_id, Number(r.km)]));
+    },
+
+    async open(): Promise<OpenInspection[]> {
+      const rows = await q<{ id: number; vehicle_id: number; due_date: string; status: string; trigger: string | null; assignee_id: number | null }>(
+        `SELECT id, vehicle_id, due_date, status, "trigger", assignee_id FROM inspections WHERE status IN ('scheduled', 'due', 'overdue') ORDER BY id`,
+      );
+      return rows.map((r) => ({ id: r.id, vehicleId: r.vehicle_id, dueDate: r.due_date, status: r.status, trigger: r.trigger, assigneeId: r.assignee_id }));
+    },
+
+    /** Active mechanics with their depot and number of open assigned inspections. */
+    async mechanics() {
+      return q<{ id: number; depot_id: number | null; open: number }>(
+        `SELECT u.id, u.depot_id, (SELECT COUNT(*) FROM inspections i WHERE i.assignee_id = u.id AND i.status IN ('scheduled', 'due', 'overdue')) AS open
+         FROM users u WHERE u.role = 'mechanic' AND u.active = 1 ORDER BY u.id`,
+      );
+    },
+
+    /** Applies the night's scheduling in one transaction. */
+    async apply(changes: {
+      create: { vehicleId: number; dueDate: string; status: string; trigger: string; reason: string; basis: string; assigneeId: number | null }[];
+      move: { id: number; dueDate: string; status: string; trigger: string; reason: string; basis: string }[];
+      status: { id: number; status: string }[];
+      now: Date;
+      runId: number;
+    }) {
+      const stamp = sqlDate(changes.now);
+      await sequelize.transaction(async (transaction) => {
+        for (const c of changes.create) {
+          await sequelize.query(
+            `INSERT INTO inspections (vehicle_id, due_date, status, reason, assignee_id, completed_at, odometer_km, notes, "trigger", basis, notified_status, assignee_notified_id, created_by_run_id, created_at, updated_at)
+             VALUES (?, ?, ?, ?, ?, NULL, NULL, NULL, ?, ?, NULL, NULL, ?, ?, ?)`,
+            { replacements: [c.vehicleId, c.dueDate, c.status, c.reason, c.assigneeId, c.trigger, c.basis, changes.runId, stamp, stamp], transaction },
+          );
+        }
+        for (const m of changes.move) {
+          await sequelize.query(`UPDATE inspections SET due_date = ?, status = ?, "trigger" = ?, reason = ?, basis = ?, updated_at = ? WHERE id = ?`, {
+            replacements: [m.dueDate, m.status, m.trigger, m.reason, m.basis, stamp, m.id],
+            transaction,
+          });
+        }
+        for (const s of changes.status) {
+          await sequelize.query(`UPDATE inspections SET status = ?, updated_at = ? WHERE id = ?`, { replacements: [s.status, stamp, s.id], transaction });
+        }
+      });
+    },
+
+    /** Open inspections with everything the due list shows. */
+    async dueList(opts: { today: string; depotId?: number; withinDays?: number }): Promise<DueItem[]> {
+      const rows = await q<{
+        id: number; vehicle_id: number; fleet_number: string; plate: string; vehicle_status: string; depot_id: number; depot_name: string; lat: number; lon: number;
+        due_date: string; status: string; trigger: string | null; reason: string; basis: string | null; assignee_id: number | null; assignee_name: string | null;
+        max_life: number | null; first_threshold: string | null;
+      }>(
+        `SELECT i.id, i.vehicle_id, v.fleet_number, v.plate, v.status AS vehicle_status, d.id AS depot_id, d.name AS depot_name, d.lat, d.lon,
+                i.due_date, i.status, i."trigger", i.reason, i.basis, i.assignee_id, u.name AS assignee_name,
+                (SELECT MAX(p.life_used_fraction) FROM damper_predictions p WHERE p.vehicle_id = v.id) AS max_life,
+                (SELECT MIN(p.threshold_date) FROM damper_predictions p WHERE p.vehicle_id = v.id) AS first_threshold
+         FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN depots d ON d.id = v.depot_id LEFT JOIN users u ON u.id = i.assignee_id
+         WHERE i.status IN ('scheduled', 'due', 'overdue') ${opts.depotId ? 'AND v.depot_id = ?' : ''}
+         ORDER BY i.due_date, v.fleet_number`,
+        opts.depotId ? [opts.depotId] : [],
+      );
+      const t = Date.parse(`${opts.today}T00:00:00Z`);
+      return rows
+        .map((r) => ({
+          id: r.id,
+          vehicleId: r.vehicle_id,
+          fleetNumber: r.fleet_number,
+          plate: r.plate,
+          vehicleStatus: r.vehicle_status,
+          depotId: r.depot_id,
+          depotName: r.depot_name,
+          depotLat: r.lat,
+          depotLon: r.lon,
+          dueDate: r.due_date,
+          status: r.status,
+          trigger: r.trigger,
+          reason: r.reason,
+          basis: r.basis ? (JSON.parse(r.basis) as Record<string, unknown>) : null,
+          assignee: r.assignee_id ? { id: r.assignee_id, name: r.assignee_name ?? '' } : null,
+          daysLeft: Math.round((Date.parse(`${r.due_date}T00:00:00Z`) - t) / 86_400_000),
+          maxLifeUsed: r.max_life,
+          firstThresholdDate: r.first_threshold,
+        }))
+        .filter((r) => opts.withinDays === undefined || r.daysLeft <= opts.withinDays);
+    },
+
+    async nextForVehicle(vehicleId: number) {
+      const rows = await q<{ id: number; due_date: string; status: string; trigger: string | null; reason: string; basis: string | null; assignee_name: string | null }>(
+        `SELECT i.id, i.due_date, i.status, i."trigger", i.reason, i.basis, u.name AS assignee_name FROM inspections i LEFT JOIN users u ON u.id = i.assignee_id
+         WHERE i.vehicle_id = ? AND i.status IN ('scheduled', 'due', 'overdue') ORDER BY i.due_date LIMIT 1`,
+        [vehicleId],
+      );
+      const r = rows[0];
+      return r
+        ? { id: r.id, dueDate: r.due_date, status: r.status, trigger: r.trigger, reason: r.reason, basis: r.basis ? (JSON.parse(r.basis) as Record<string, unknown>) : null, assigneeName: r.assignee_name }
+        : null;
+    },
+  };
+}

@@ -1,0 +1,96 @@
+/**
+ * The scheduling phase of the nightly run and the due list. Rules: server/wear/schedule.ts.
+ *
+ * Assignment (stated rule): a new inspection goes to the active mechanic of the vehicle's depot
+ * with the fewest open inspections (lowest id on a tie); none when the depot has no mechanic.
+ */
+import type { Sequelize } from 'sequelize';
+import { decide, openStatus, type ScheduleRules } from '../wear/schedule';
+import { plusDays } from '../wear/wear';
+import { localDay, startOfLocalDay } from '../wear/repository';
+import { inspectionRepository } from './repository';
+
+export interface ScheduleContext {
+  sequelize: Sequelize;
+  now: Date;
+  asOf: string;
+  timeZone: string;
+  rules: ScheduleRules;
+  runId: number;
+  errors: { item: string; message: string }[];
+  counts: Record<string, number>;
+}
+
+export async function runSchedule(ctx: ScheduleContext) {
+  const repo = inspectionRepository(ctx.sequelize);
+  const today = ctx.asOf;
+  const windowFrom = startOfLocalDay(plusDays(today, -29), ctx.timeZone);
+  const before = startOfLocalDay(plusDays(today, 1), ctx.timeZone);
+  const [vehicles, forecasts, lastDone, km30, open, mechanics] = await Promise.all([
+    repo.vehicles(),
+    repo.forecasts(),
+    repo.lastDone((d) => localDay(d, ctx.timeZone)),
+    repo.distanceSince(windowFrom, before),
+    repo.open(),
+    repo.mechanics(),
+  ]);
+  const openByVehicle = new Map(open.map((o) => [o.vehicleId, o]));
+  const load = new Map(mechanics.map((m) => [m.id, Number(m.open)]));
+  const create = [];
+  const move = [];
+  const moved = new Map<number, string>();
+  for (const v of vehicles) {
+    try {
+      const decision = decide(
+        {
+          today,
+          vehicle: { id: v.id, fleetNumber: v.fleet_number, odometerKm: v.odometer_km, commissionedAt: v.commissioned_at },
+          corners: forecasts.get(v.id) ?? [],
+          lastDone: lastDone.get(v.id) ?? null,
+          kmPerDay: (km30.get(v.id) ?? 0) / 30,
+          open: openByVehicle.get(v.id) ?? null,
+        },
+        ctx.rules,
+      );
+      if (decision.action === 'create') {
+        const c = decision.candidate;
+        const candidates = mechanics.filter((m) => m.depot_id === v.depot_id);
+        let assigneeId: number | null = null;
+        for (const m of candidates) if (assigneeId === null || load.get(m.id)! < load.get(assigneeId)!) assigneeId = m.id;
+        if (assigneeId !== null) load.set(assigneeId, load.get(assigneeId)! + 1);
+        create.push({ vehicleId: v.id, dueDate: c.dueDate, status: decision.status, trigger: c.trigger, reason: c.reason, basis: JSON.stringify(c.basis), assigneeId });
+      } else if (decision.action === 'move') {
+        const c = decision.candidate;
+        move.push({ id: decision.id, dueDate: c.dueDate, status: decision.status, trigger: c.trigger, reason: c.reason, basis: JSON.stringify(c.basis) });
+        moved.set(decision.id, decision.status);
+      }
+    } catch (err) {
+      ctx.errors.push({ item: `vehicle ${v.id}`, message: (err as Error).message });
+    }
+  }
+  const status = [];
+  let due = 0;
+  let overdue = 0;
+  for (const o of open) {
+    if (moved.has(o.id)) continue;
+    const s = openStatus(o.dueDate, today, ctx.rules.dueSoonDays);
+    if (s !== o.status) {
+      status.push({ id: o.id, status: s });
+      if (s === 'due') due++;
+      if (s === 'overdue') overdue++;
+    }
+  }
+  await repo.apply({ create, move, status, now: ctx.now, runId: ctx.runId });
+  ctx.counts.inspectionsCreated = create.length;
+  ctx.counts.inspectionsMovedEarlier = move.length;
+  ctx.counts.inspectionsNowDue = due + create.filter((c) => c.status === 'due').length;
+  ctx.counts.inspectionsNowOverdue = overdue;
+}
+
+export function inspectionService(sequelize: Sequelize) {
+  const repo = inspectionRepository(sequelize);
+  return {
+    dueList: repo.dueList,
+    nextForVehicle: repo.nextForVehicle,
+  };
+}

@@ -1,0 +1,128 @@
+/**
+ * Job runs and the run lock. The lock is a row per job name in `job_locks`: taken in an
+ * IMMEDIATE transaction (so two starters cannot both see it free), refreshed by a heartbeat,
+ * and taken over when its heartbeat is older than the timeout (a run that died).
+ */
+import { Op } from 'sequelize';
+import { JobLock, JobRun, type JobRunStatus, type JobTrigger } from '../db/nightly-models';
+import { User } from '../db/models';
+import type { Db } from '../db';
+
+export interface JobRunRow {
+  id: number;
+  job: string;
+  status: JobRunStatus;
+  trigger: JobTrigger;
+  asOf: string;
+  requestedBy: { id: number; name: string } | null;
+  startedAt: string;
+  endedAt: string | null;
+  durationS: number | null;
+  phase: string | null;
+  progressDone: number;
+  progressTotal: number;
+  counts: Record<string, number>;
+  errors: { item: string; message: string }[];
+  errorCount: number;
+  message: string | null;
+}
+
+const toRow = (r: JobRun & { requestedBy?: User | null }, withErrors = true): JobRunRow => {
+  const errors = JSON.parse(r.errors || '[]') as { item: string; message: string }[];
+  return {
+    id: r.id,
+    job: r.job,
+    status: r.status,
+    trigger: r.trigger,
+    asOf: r.asOf,
+    requestedBy: r.requestedBy ? { id: r.requestedBy.id, name: r.requestedBy.name } : null,
+    startedAt: r.startedAt.toISOString(),
+    endedAt: r.endedAt ? r.endedAt.toISOString() : null,
+    durationS: r.endedAt ? Math.round((r.endedAt.getTime() - r.startedAt.getTime()) / 100) / 10 : null,
+    phase: r.phase,
+    progressDone: r.progressDone,
+    progressTotal: r.progressTotal,
+    counts: JSON.parse(r.counts || '{}') as Record<string, number>,
+    errors: withErrors ? errors.slice(0, 200) : [],
+    errorCount: errors.length,
+    message: r.message,
+  };
+};
+
+export class LockBusyError extends Error {
+  constructor(public readonly runId: number | null, public readonly since: Date) {
+    super(`Another run (#${runId ?? '?'}) holds the lock since ${since.toISOString()}.`);
+    this.name = 'LockBusyError';
+  }
+}
+
+export const jobRepository = {
+  /**
+   * Takes the lock for `name` and creates the run row in the same transaction. Throws
+   * {@link LockBusyError} when a live run holds it; takes over a lock whose heartbeat is older
+   * than `staleMs`.
+   */
+  async start(db: Db, input: { name: string; holder: string; staleMs: number; trigger: JobTrigger; asOf: string; requestedById: number | null; wallNow: Date }) {
+    return db.sequelize.transaction(async (transaction) => {
+      const lock = await JobLock.findByPk(input.name, { transaction });
+      let takenOver: number | null = null;
+      if (lock) {
+        if (input.wallNow.getTime() - lock.heartbeatAt.getTime() < input.staleMs) throw new LockBusyError(lock.runId, lock.acquiredAt);
+        takenOver = lock.runId;
+        if (lock.runId) {
+          await JobRun.update(
+            { status: 'failed', endedAt: lock.heartbeatAt, message: 'The run stopped without finishing (no heartbeat); its lock was taken over by a later run.' },
+            { where: { id: lock.runId, status: 'running' }, transaction },
+          );
+        }
+        await lock.destroy({ transaction });
+      }
+      const run = await JobRun.create(
+        { job: input.name, status: 'running', trigger: input.trigger, asOf: input.asOf, requestedById: input.requestedById, startedAt: input.wallNow, endedAt: null, heartbeatAt: input.wallNow, phase: 'starting', message: null },
+        { transaction },
+      );
+      await JobLock.create({ name: input.name, runId: run.id, holder: input.holder, acquiredAt: input.wallNow, heartbeatAt: input.wallNow }, { transaction });
+      return { runId: run.id, takenOver };
+    });
+  },
+
+  /** Progress and heartbeat (run row and lock). */
+  async heartbeat(runId: number, name: string, fields: { phase?: string; progressDone?: number; progressTotal?: number; counts?: Record<string, number> }, wallNow: Date) {
+    await JobRun.update(
+      { ...('phase' in fields ? { phase: fields.phase } : {}), progressDone: fields.progressDone, progressTotal: fields.progressTotal, heartbeatAt: wallNow, ...(fields.counts ? { counts: JSON.stringify(fields.counts) } : {}) },
+      { where: { id: runId } },
+    );
+    await JobLock.update({ heartbeatAt: wallNow }, { where: { name, runId } });
+  },
+
+  /** Ends the run and releases the lock (only if this run still holds it). */
+  async finish(runId: number, name: string, end: { status: JobRunStatus; counts: Record<string, number>; errors: { item: string; message: string }[]; message: string | null; wallNow: Date }) {
+    await JobRun.update(
+      { status: end.status, counts: JSON.stringify(end.counts), errors: JSON.stringify(end.errors), message: end.message, endedAt: end.wallNow, heartbeatAt: end.wallNow, phase: 'finished' },
+      { where: { id: runId } },
+    );
+    await JobLock.destroy({ where: { name, runId } });
+  },
+
+  async list(opts: { job?: string; offset: number; pageSize: number }) {
+    const where = opts.job ? { job: opts.job } : {};
+    const { rows, count } = await JobRun.findAndCountAll({
+      where,
+      include: [{ model: User, as: 'requestedBy', attributes: ['id', 'name'] }],
+      order: [['id', 'DESC']],
+      offset: opts.offset,
+      limit: opts.pageSize,
+    });
+    return { items: rows.map((r) => toRow(r, false)), total: count };
+  },
+
+  async get(id: number): Promise<JobRunRow | null> {
+    const r = await JobRun.findByPk(id, { include: [{ model: User, as: 'requestedBy', attributes: ['id', 'name'] }] });
+    return r ? toRow(r) : null;
+  },
+
+  async running(name: string) {
+    const r = await JobRun.findOne({ where: { job: name, status: 'running', id: { [Op.gt]: 0 } }, order: [['id', 'DESC']] });
+    return r ? r.id : null;
+  },
+};

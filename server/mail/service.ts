@@ -1,0 +1,164 @@
+/**
+ * Which e-mail to send, and sending it once. Every message gets a de-duplication key stored
+ * with it (`mail_messages.dedupe_key`, unique); the items a message covers are marked in the
+ * same transaction that queues it, so a rerun queues nothing new, and a message queued but not
+ * yet sent (crash) is sent by the next run.
+ *
+ * - Manager digest: inspections that became due or overdue since managers were last told
+ *   (`inspections.notified_status`), for the manager's depot (all depots when they have none),
+ *   plus the sections other areas register with {@link registerDigestSection} (issue 7: severe
+ *   ride reports). Each kind follows the user's preference.
+ * - Mechanic note: an inspection assigned to a mechanic who has not been told
+ *   (`inspections.assignee_notified_id`). Other areas that assign by hand call
+ *   {@link queueAssignmentNotes} with the inspection id, then {@link sendPending}.
+ */
+import { createHash } from 'node:crypto';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { Logger } from '../logger';
+import type { Mailer } from './mailer';
+import { mailRepository, type QueuedMail } from './repository';
+import { assignmentMail, digestMail, type DigestEntry } from './templates';
+
+export interface DigestRecipient {
+  id: number;
+  name: string;
+  email: string;
+  depotId: number | null;
+  notifyInspectionDigest: boolean;
+  notifyRideReports: boolean;
+}
+
+/** One section of the manager digest, provided by an area (inspections here; ride reports in issue 7). */
+export interface DigestSectionProvider {
+  id: string;
+  heading: string;
+  /** Which preference turns it off. */
+  pref: 'notifyInspectionDigest' | 'notifyRideReports';
+  /** New items, each with the depot it belongs to (null = every manager). */
+  collect(ctx: { sequelize: Sequelize; publicUrl: string; asOf: string; transaction: Transaction }): Promise<(DigestEntry & { depotId: number | null })[]>;
+  /** Marks the collected items as told, in the same transaction as the queued mail. */
+  markNotified(ctx: { sequelize: Sequelize; transaction: Transaction }, keys: string[]): Promise<void>;
+}
+
+const inspectionSection: DigestSectionProvider = {
+  id: 'inspections',
+  heading: 'Inspections now due or overdue',
+  pref: 'notifyInspectionDigest',
+  async collect({ sequelize, publicUrl, asOf, transaction }) {
+    const rows = await sequelize.query<{ id: number; status: string; due_date: string; reason: string; vehicle_id: number; fleet_number: string; plate: string; depot_id: number; depot_name: string }>(
+      `SELECT i.id, i.status, i.due_date, i.reason, v.id AS vehicle_id, v.fleet_number, v.plate, v.depot_id, d.name AS depot_name
+       FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN depots d ON d.id = v.depot_id
+       WHERE i.status IN ('due', 'overdue') AND (i.notified_status IS NULL OR i.notified_status != i.status)
+       ORDER BY i.due_date, v.fleet_number`,
+      { type: QueryTypes.SELECT, transaction },
+    );
+    const t = Date.parse(`${asOf}T00:00:00Z`);
+    return rows.map((r) => {
+      const days = Math.round((Date.parse(`${r.due_date}T00:00:00Z`) - t) / 86_400_000);
+      const when = days < 0 ? `${-days} day${days === -1 ? '' : 's'} overdue` : days === 0 ? 'due today' : `due in ${days} day${days === 1 ? '' : 's'}`;
+      return {
+        key: `${r.id}:${r.status}`,
+        depotId: r.depot_id,
+        title: `${r.fleet_number} (${r.plate}), ${r.depot_name}: ${r.status.toUpperCase()}, ${when} (${r.due_date})`,
+        lines: [r.reason],
+        link: `${publicUrl}/vehicles/${r.vehicle_id}`,
+      };
+    });
+  },
+  async markNotified({ sequelize, transaction }, keys) {
+    for (const k of keys) {
+      const [id, status] = k.split(':');
+      await sequelize.query(`UPDATE inspections SET notified_status = ? WHERE id = ?`, { replacements: [status, Number(id)], transaction });
+    }
+  },
+};
+
+const sections: DigestSectionProvider[] = [inspectionSection];
+
+/** Adds a section to the manager digest (issue 7: severe ride reports). */
+export function registerDigestSection(provider: DigestSectionProvider) {
+  if (!sections.some((s) => s.id === provider.id)) sections.push(provider);
+}
+
+const hash = (parts: string[]) => createHash('sha256').update(parts.join('|')).digest('hex').slice(0, 16);
+
+export interface MailContext {
+  sequelize: Sequelize;
+  publicUrl: string;
+  asOf: string;
+  now: Date;
+  runId: number | null;
+}
+
+/** Queues each manager's digest of new items and marks the items told. Returns messages queued. */
+export async function queueDigests(ctx: MailContext): Promise<number> {
+  return ctx.sequelize.transaction(async (transaction) => {
+    const managers = await ctx.sequelize.query<{ id: number; name: string; email: string; depot_id: number | null; notify_inspection_digest: number; notify_ride_reports: number }>(
+      `SELECT id, name, email, depot_id, notify_inspection_digest, notify_ride_reports FROM users WHERE role = 'manager' AND active = 1 ORDER BY id`,
+      { type: QueryTypes.SELECT, transaction },
+    );
+    const collected = [];
+    for (const s of sections) collected.push({ s, items: await s.collect({ sequelize: ctx.sequelize, publicUrl: ctx.publicUrl, asOf: ctx.asOf, transaction }) });
+    const mails: QueuedMail[] = [];
+    for (const m of managers) {
+      const prefs = { notifyInspectionDigest: !!m.notify_inspection_digest, notifyRideReports: !!m.notify_ride_reports };
+      const parts = collected
+        .filter(({ s }) => prefs[s.pref])
+        .map(({ s, items }) => ({ heading: s.heading, id: s.id, entries: items.filter((i) => m.depot_id === null || i.depotId === null || i.depotId === m.depot_id) }))
+        .filter((p) => p.entries.length);
+      if (!parts.length) continue;
+      const keys = parts.flatMap((p) => p.entries.map((e) => `${p.id}:${e.key}`));
+      const body = digestMail({ name: m.name, asOf: ctx.asOf, sections: parts, homeUrl: `${ctx.publicUrl}/`, settingsUrl: `${ctx.publicUrl}/account` });
+      mails.push({ dedupeKey: `digest:${m.id}:${ctx.asOf}:${hash(keys)}`, kind: 'digest', userId: m.id, toAddress: m.email, subject: body.subject, textBody: body.text, htmlBody: body.html, jobRunId: ctx.runId });
+    }
+    const queued = await mailRepository.queue(mails, ctx.now, transaction);
+    for (const { s, items } of collected) await s.markNotified({ sequelize: ctx.sequelize, transaction }, items.map((i) => i.key));
+    return queued;
+  });
+}
+
+/** Queues a note to each assignee not yet told (all open inspections, or the given ones). */
+export async function queueAssignmentNotes(ctx: MailContext, inspectionIds?: number[]): Promise<number> {
+  return ctx.sequelize.transaction(async (transaction) => {
+    const rows = await ctx.sequelize.query<{ id: number; due_date: string; status: string; reason: string; vehicle_id: number; fleet_number: string; plate: string; depot_name: string; user_id: number; name: string; email: string; notify: number; active: number }>(
+      `SELECT i.id, i.due_date, i.status, i.reason, v.id AS vehicle_id, v.fleet_number, v.plate, d.name AS depot_name, u.id AS user_id, u.name, u.email, u.notify_assignments AS notify, u.active
+       FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN depots d ON d.id = v.depot_id JOIN users u ON u.id = i.assignee_id
+       WHERE i.status IN ('scheduled', 'due', 'overdue') AND (i.assignee_notified_id IS NULL OR i.assignee_notified_id != i.assignee_id)
+       ${inspectionIds ? `AND i.id IN (${inspectionIds.map(Number).join(',') || 'NULL'})` : ''} ORDER BY i.id`,
+      { type: QueryTypes.SELECT, transaction },
+    );
+    const mails: QueuedMail[] = [];
+    for (const r of rows) {
+      if (r.notify && r.active) {
+        const body = assignmentMail({
+          name: r.name, fleetNumber: r.fleet_number, plate: r.plate, depotName: r.depot_name, dueDate: r.due_date, status: r.status, reason: r.reason,
+          vehicleUrl: `${ctx.publicUrl}/vehicles/${r.vehicle_id}`, settingsUrl: `${ctx.publicUrl}/account`,
+        });
+        mails.push({ dedupeKey: `assignment:${r.id}:${r.user_id}`, kind: 'assignment', userId: r.user_id, toAddress: r.email, subject: body.subject, textBody: body.text, htmlBody: body.html, jobRunId: ctx.runId });
+      }
+      await ctx.sequelize.query(`UPDATE inspections SET assignee_notified_id = ? WHERE id = ?`, { replacements: [r.user_id, r.id], transaction });
+    }
+    return mailRepository.queue(mails, ctx.now, transaction);
+  });
+}
+
+/** Sends every queued (or earlier failed) message once; a failure is recorded and retried later. */
+export async function sendPending(mailer: Mailer, now: Date, log: Logger, signal?: AbortSignal): Promise<{ sent: number; failed: { item: string; message: string }[] }> {
+  const pending = await mailRepository.sendable();
+  let sent = 0;
+  const failed: { item: string; message: string }[] = [];
+  for (const m of pending) {
+    if (signal?.aborted) break;
+    try {
+      const r = await mailer.send({ to: m.toAddress, subject: m.subject, text: m.textBody, html: m.htmlBody, key: m.dedupeKey });
+      await mailRepository.markSent(m.id, r.messageId, now);
+      sent++;
+    } catch (err) {
+      const message = (err as Error).message;
+      log.warn(`mail ${m.dedupeKey} to ${m.toAddress} failed: ${message}`);
+      await mailRepository.markFailed(m.id, message);
+      failed.push({ item: `mail ${m.dedupeKey}`, message });
+    }
+  }
+  return { sent, failed };
+}

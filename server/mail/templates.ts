@@ -1,0 +1,84 @@
+/**
+ * E-mail bodies: plain text and HTML with links into the app. Our own words; every number
+ * with its unit; the caution that predictions support, never replace, inspection.
+ */
+export const CAUTION_TEXT =
+  'Wear predictions are estimates from a model of the vehicle and the road. They support, and never replace, inspection by a qualified mechanic, the vehicle and damper makers’ requirements and local regulations.';
+
+export const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+
+export interface DigestEntry {
+  key: string;
+  title: string;
+  lines: string[];
+  link: string;
+}
+
+export interface DigestSectionContent {
+  heading: string;
+  intro?: string;
+  entries: DigestEntry[];
+}
+
+const wrap = (title: string, body: string) =>
+  `<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#1E2A32;background:#FAF8F3;margin:0;padding:24px">` +
+  `<div style="max-width:680px;margin:0 auto;background:#fff;border:1px solid #d8d4ca;border-radius:8px;padding:24px">` +
+  `<p style="margin:0 0 4px;font-weight:600;color:#D9622B">Reboundry</p><h1 style="font-size:20px;margin:0 0 16px">${esc(title)}</h1>${body}` +
+  `<p style="margin-top:24px;font-size:13px;color:#5B6B73">${esc(CAUTION_TEXT)}</p></div></body></html>`;
+
+export function digestMail(input: { name: string; asOf: string; sections: DigestSectionContent[]; homeUrl: string; settingsUrl: string }) {
+  const count = input.sections.reduce((s, x) => s + x.entries.length, 0);
+  const subject = `Reboundry digest for ${input.asOf}: ${count} new item${count === 1 ? '' : 's'}`;
+  const text: string[] = [`Hello ${input.name},`, '', `New since your last digest (as of ${input.asOf}):`, ''];
+  let html = `<p>Hello ${esc(input.name)},</p><p>New since your last digest (as of ${esc(input.asOf)}):</p>`;
+  for (const s of input.sections) {
+    text.push(`== ${s.heading} (${s.entries.length}) ==`);
+    if (s.intro) text.push(s.intro);
+    html += `<h2 style="font-size:16px;margin:20px 0 8px">${esc(s.heading)} (${s.entries.length})</h2>`;
+    if (s.intro) html += `<p style="margin:0 0 8px">${esc(s.intro)}</p>`;
+    html += '<ul style="padding-left:18px;margin:0">';
+    for (const e of s.entries) {
+      text.push(`- ${e.title}`, ...e.lines.map((l) => `  ${l}`), `  ${e.link}`, '');
+      html += `<li style="margin-bottom:10px"><a href="${esc(e.link)}" style="color:#1E2A32;font-weight:600">${esc(e.title)}</a>${e.lines.map((l) => `<br><span>${esc(l)}</span>`).join('')}</li>`;
+    }
+    html += '</ul>';
+  }
+  text.push(`Due inspections: ${input.homeUrl}`, '', CAUTION_TEXT, '', `Turn this e-mail off in your account settings: ${input.settingsUrl}`);
+  html += `<p><a href="${esc(input.homeUrl)}" style="color:#D9622B">Open the due inspections</a></p><p style="font-size:13px;color:#5B6B73">Turn this e-mail off in your <a href="${esc(input.settingsUrl)}">account settings</a>.</p>`;
+  return { subject, text: text.join('\n'), html: wrap(`Digest for ${input.asOf}`, html) };
+}
+
+export function assignmentMail(input: {
+  name: string;
+  fleetNumber: string;
+  plate: string;
+  depotName: string;
+  dueDate: string;
+  status: string;
+  reason: string;
+  vehicleUrl: string;
+  settingsUrl: string;
+}) {
+  const subject = `Inspection of ${input.fleetNumber} assigned to you, due ${input.dueDate}`;
+  const text = [
+    `Hello ${input.name},`,
+    '',
+    `The damper and spring inspection of ${input.fleetNumber} (${input.plate}, ${input.depotName}) is assigned to you.`,
+    `Due: ${input.dueDate} (${input.status})`,
+    `Why: ${input.reason}`,
+    '',
+    `Vehicle: ${input.vehicleUrl}`,
+    '',
+    CAUTION_TEXT,
+    '',
+    `Turn these notes off in your account settings: ${input.settingsUrl}`,
+  ].join('\n');
+  const html = wrap(
+    `Inspection of ${input.fleetNumber} assigned to you`,
+    `<p>Hello ${esc(input.name)},</p><p>The damper and spring inspection of <strong>${esc(input.fleetNumber)}</strong> (${esc(input.plate)}, ${esc(input.depotName)}) is assigned to you.</p>` +
+      `<p><strong>Due:</strong> ${esc(input.dueDate)} (${esc(input.status)})<br><strong>Why:</strong> ${esc(input.reason)}</p>` +
+      `<p><a href="${esc(input.vehicleUrl)}" style="color:#D9622B">Open ${esc(input.fleetNumber)}</a></p>` +
+      `<p style="font-size:13px;color:#5B6B73">Turn these notes off in your <a href="${esc(input.settingsUrl)}">account settings</a>.</p>`,
+  );
+  return { subject, text, html };
+}

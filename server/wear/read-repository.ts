@@ -1,0 +1,64 @@
+/**
+ * Reads for the vehicle wear view and for other areas (driver exposure in issue 7).
+ */
+import { QueryTypes, type Sequelize } from 'sequelize';
+
+export function wearReadRepository(sequelize: Sequelize) {
+  const q = <T extends object>(sql: string, replacements: unknown[] = []) => sequelize.query<T>(sql, { replacements: replacements as never, type: QueryTypes.SELECT });
+  return {
+    async vehicle(id: number) {
+      const rows = await q<{ id: number; fleet_number: string; driver_id: number | null; spec_id: number }>(`SELECT id, fleet_number, driver_id, spec_id FROM vehicles WHERE id = ?`, [id]);
+      return rows[0] ?? null;
+    },
+
+    async fittedDampers(vehicleId: number) {
+      return q<{
+        id: number; position: string; axle_index: number; installed_at: string; installed_odometer_km: number; part_number: string | null; energy_j: number; fatigue_damage: number; life_used_fraction: number;
+        damping_ns_per_m: number | null; nominal_damping: number; rated_damper_life_km: number; wear_updated_at: string | null;
+        p_as_of: string | null; window_days: number | null; window_energy_j: number | null; window_km: number | null; rate_j_per_day: number | null; life_energy_j: number | null; life_source: string | null;
+        threshold_fraction: number | null; threshold_date: string | null; end_of_life_date: string | null; spring_rate_per_day: number | null; spring_threshold_date: string | null; basis: string | null;
+      }>(
+        `SELECT d.id, d.position, d.axle_index, d.installed_at, d.installed_odometer_km, d.part_number, d.energy_j, d.fatigue_damage, d.life_used_fraction, d.damping_ns_per_m,
+                a.damping_ns_per_m AS nominal_damping, a.rated_damper_life_km, d.wear_updated_at,
+                p.as_of AS p_as_of, p.window_days, p.window_energy_j, p.window_km, p.rate_j_per_day, p.life_energy_j, p.life_source, p.threshold_fraction, p.threshold_date,
+                p.end_of_life_date, p.spring_rate_per_day, p.spring_threshold_date, p.basis
+         FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
+         LEFT JOIN damper_predictions p ON p.damper_id = d.id
+         WHERE d.vehicle_id = ? AND d.removed_at IS NULL ORDER BY d.axle_index, d.position`,
+        [vehicleId],
+      );
+    },
+
+    async history(damperIds: number[]) {
+      if (!damperIds.length) return [];
+      return q<{ damper_id: number; day: string; distance_km: number; energy_j: number; cum_energy_j: number; life_used_fraction: number; damping_ns_per_m: number; cum_spring_damage: number }>(
+        `SELECT damper_id, day, distance_km, energy_j, cum_energy_j, life_used_fraction, damping_ns_per_m, cum_spring_damage FROM damper_wear_days
+         WHERE damper_id IN (${damperIds.map(Number).join(',')}) ORDER BY damper_id, day`,
+      );
+    },
+
+    /** Duty of the fitted dampers by route: trips, km, energy per axle. */
+    async dutyByRoute(damperIds: number[]) {
+      if (!damperIds.length) return [];
+      return q<{ route_id: number; route_name: string; axle_index: number; trips: number; km: number; energy_j: number; spring_damage: number; avg_weighted_accel: number }>(
+        `SELECT td.route_id, r.name AS route_name, td.axle_index, COUNT(DISTINCT td.trip_id) AS trips, SUM(td.distance_km) / COUNT(*) * COUNT(DISTINCT td.trip_id) AS km,
+                SUM(td.energy_j) AS energy_j, SUM(td.spring_damage) AS spring_damage, AVG(td.rms_weighted_accel) AS avg_weighted_accel
+         FROM trip_duties td JOIN routes r ON r.id = td.route_id
+         WHERE td.damper_id IN (${damperIds.map(Number).join(',')}) GROUP BY td.route_id, td.axle_index ORDER BY energy_j DESC`,
+      );
+    },
+
+    /**
+     * Front-axle duty per trip (issue 7, driver exposure): the Wk-weighted RMS body acceleration
+     * on the front axle [m/s²] and the trip's duration [s]. Left and right front corners are
+     * equal by construction; the left one is returned.
+     */
+    async frontAxleByTrip(tripIds: number[]) {
+      if (!tripIds.length) return new Map<number, { rmsWeightedAccel: number; durationS: number; driverId: number | null; tripDate: string }>();
+      const rows = await q<{ trip_id: number; rms_weighted_accel: number; duration_s: number; driver_id: number | null; trip_date: string }>(
+        `SELECT trip_id, rms_weighted_accel, duration_s, driver_id, trip_date FROM trip_duties WHERE axle_index = 0 AND position IN ('FL') AND trip_id IN (${tripIds.map(Number).join(',')})`,
+      );
+      return new Map(rows.map((r) => [r.trip_id, { rmsWeightedAccel: r.rms_weighted_accel, durationS: r.duration_s, driverId: r.driver_id, tripDate: r.trip_date }]));
+    },
+  };
+}

@@ -1,0 +1,356 @@
+/**
+ * Storage of the nightly duty and wear: the only code of the wear area that touches the
+ * database. Bulk paths use plain SQL (multi-row inserts, UPDATE … FROM) so a 10 000-vehicle
+ * fleet fits the nightly budget; everything returns plain objects.
+ */
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { CornerParams } from '../physics/types';
+import type { AxleInput, DamperSpan, DutyRecord, RouteInput, SegmentInput, TripInput, WearDelta } from './duty';
+import type { Prediction, WearDayRow } from './wear';
+
+/** Sequelize's SQLite text form of a date (`2026-11-30 12:00:00.000 +00:00`). */
+export function sqlDate(d: Date): string {
+  return d.toISOString().replace('T', ' ').replace('Z', ' +00:00');
+}
+
+/** The local calendar day of an instant in a time zone (YYYY-MM-DD). */
+export function localDay(d: Date, timeZone: string): string {
+  let f = dayFormats.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' });
+    dayFormats.set(timeZone, f);
+  }
+  return f.format(d);
+}
+const dayFormats = new Map<string, Intl.DateTimeFormat>();
+
+/** The instant a local day starts in a time zone. */
+export function startOfLocalDay(day: string, timeZone: string): Date {
+  const guess = new Date(`${day}T00:00:00Z`);
+  // offset of the zone at that moment, from the difference of the formatted wall clock
+  const parts = new Intl.DateTimeFormat('en-US', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' })
+    .formatToParts(guess)
+    .reduce<Record<string, string>>((a, p) => ((a[p.type] = p.value), a), {});
+  const wall = Date.UTC(+parts.year, +parts.month - 1, +parts.day, +parts.hour, +parts.minute, +parts.second);
+  return new Date(guess.getTime() - (wall - guess.getTime()));
+}
+
+const CHUNK_ROWS = 400;
+
+async function insertRows(sequelize: Sequelize, table: string, cols: string[], rows: unknown[][], transaction: Transaction, orReplace = false) {
+  for (let i = 0; i < rows.length; i += CHUNK_ROWS) {
+    const part = rows.slice(i, i + CHUNK_ROWS);
+    const ph = `(${cols.map(() => '?').join(',')})`;
+    await sequelize.query(`INSERT ${orReplace ? 'OR REPLACE ' : ''}INTO ${table} (${cols.join(',')}) VALUES ${part.map(() => ph).join(',')}`, {
+      replacements: part.flat() as never,
+      transaction,
+    });
+  }
+}
+
+const inList = (ids: number[]) => ids.map((n) => Number(n)).join(',') || 'NULL';
+
+export interface VehiclePlan {
+  vehicleId: number;
+  trips: number;
+}
+
+export interface SpecAxles {
+  specId: number;
+  axles: AxleInput[];
+}
+
+export function wearRepository(sequelize: Sequelize) {
+  const q = <T extends object>(sql: string, replacements: unknown[] = [], transaction?: Transaction) =>
+    sequelize.query<T>(sql, { replacements: replacements as never, type: QueryTypes.SELECT, transaction });
+
+  return {
+    /** Vehicles with unprocessed trips started before `before`, with how many, in vehicle order. */
+    async planUnprocessed(before: Date): Promise<VehiclePlan[]> {
+      const rows = await q<{ vehicle_id: number; n: number }>(
+        `SELECT vehicle_id, COUNT(*) AS n FROM trips WHERE processed_at IS NULL AND started_at < ? GROUP BY vehicle_id ORDER BY vehicle_id`,
+        [sqlDate(before)],
+      );
+      return rows.map((r) => ({ vehicleId: r.vehicle_id, trips: Number(r.n) }));
+    },
+
+    /** Every spec's axles (corner parameters and rated life). */
+    async specAxles(): Promise<Map<number, AxleInput[]>> {
+      const rows = await q<{ spec_id: number; axle_index: number; sprung_mass_kg: number; unsprung_mass_kg: number; spring_rate_n_per_m: number; damping_ns_per_m: number; tire_rate_n_per_m: number; rated_damper_life_km: number }>(
+        `SELECT * FROM spec_axles ORDER BY spec_id, axle_index`,
+      );
+      const out = new Map<number, AxleInput[]>();
+      for (const r of rows) {
+        const corner: CornerParams = {
+          sprungMassKg: r.sprung_mass_kg,
+          unsprungMassKg: r.unsprung_mass_kg,
+          springRateNPerM: r.spring_rate_n_per_m,
+          dampingNsPerM: r.damping_ns_per_m,
+          tireRateNPerM: r.tire_rate_n_per_m,
+        };
+        if (!out.has(r.spec_id)) out.set(r.spec_id, []);
+        out.get(r.spec_id)!.push({ axleIndex: r.axle_index, corner, ratedDamperLifeKm: r.rated_damper_life_km });
+      }
+      return out;
+    },
+
+    /** Routes (with segments, in order) driven by unprocessed trips before `before`. */
+    async routesForUnprocessed(before: Date): Promise<{ routes: Map<number, RouteInput>; surveyIds: number[] }> {
+      const routeRows = await q<{ id: number; length_m: number }>(
+        `SELECT id, length_m FROM routes WHERE id IN (SELECT DISTINCT route_id FROM trips WHERE processed_at IS NULL AND started_at < ?)`,
+        [sqlDate(before)],
+      );
+      const routes = new Map<number, RouteInput>();
+      for (const r of routeRows) routes.set(r.id, { id: r.id, lengthM: r.length_m, segments: [] });
+      if (!routes.size) return { routes, surveyIds: [] };
+      const segs = await q<{ id: number; route_id: number; start_m: number; end_m: number; speed_kmh: number | null; gd_n0: number | null; survey_id: number | null; roughness_source: string | null }>(
+        `SELECT id, route_id, start_m, end_m, speed_kmh, gd_n0, survey_id, roughness_source FROM route_segments WHERE route_id IN (${inList([...routes.keys()])}) ORDER BY route_id, seq`,
+      );
+      const surveyIds = new Set<number>();
+      for (const s of segs) {
+        const surveyId = s.roughness_source === 'survey' ? s.survey_id : null;
+        if (surveyId) surveyIds.add(surveyId);
+        const seg: SegmentInput & { surveyId?: number | null } = { id: s.id, startM: s.start_m, endM: s.end_m, speedKmh: s.speed_kmh, gdN0: s.gd_n0, profile: null, surveyId };
+        routes.get(s.route_id)!.segments.push(seg);
+      }
+      return { routes, surveyIds: [...surveyIds].sort((a, b) => a - b) };
+    },
+
+    /** Vehicles' spec ids. */
+    async vehicleSpecs(vehicleIds: number[]): Promise<Map<number, number>> {
+      const rows = await q<{ id: number; spec_id: number }>(`SELECT id, spec_id FROM vehicles WHERE id IN (${inList(vehicleIds)})`);
+      return new Map(rows.map((r) => [r.id, r.spec_id]));
+    },
+
+    /** Every damper (fitted or removed) of the vehicles. */
+    async dampersOf(vehicleIds: number[]): Promise<Map<number, DamperSpan[]>> {
+      const rows = await q<{ id: number; vehicle_id: number; position: string; axle_index: number; installed_at: string; removed_at: string | null }>(
+        `SELECT id, vehicle_id, position, axle_index, installed_at, removed_at FROM dampers WHERE vehicle_id IN (${inList(vehicleIds)}) ORDER BY vehicle_id, id`,
+      );
+      const out = new Map<number, DamperSpan[]>();
+      for (const r of rows) {
+        if (!out.has(r.vehicle_id)) out.set(r.vehicle_id, []);
+        out.get(r.vehicle_id)!.push({ id: r.id, position: r.position, axleIndex: r.axle_index, installedAt: r.installed_at, removedAt: r.removed_at });
+      }
+      return out;
+    },
+
+    /** Unprocessed trips of the vehicles before `before`, in (vehicle, start, id) order. */
+    async unprocessedTrips(vehicleIds: number[], before: Date, timeZone: string): Promise<Map<number, TripInput[]>> {
+      const rows = await q<{ id: number; vehicle_id: number; route_id: number; driver_id: number | null; started_at: string; ended_at: string; distance_km: number; mean_speed_kmh: number; payload_kg: number | null }>(
+        `SELECT id, vehicle_id, route_id, driver_id, started_at, ended_at, distance_km, mean_speed_kmh, payload_kg FROM trips
+         WHERE processed_at IS NULL AND started_at < ? AND vehicle_id IN (${inList(vehicleIds)}) ORDER BY vehicle_id, started_at, id`,
+        [sqlDate(before)],
+      );
+      const out = new Map<number, TripInput[]>();
+      for (const r of rows) {
+        const start = new Date(r.started_at);
+        const end = new Date(r.ended_at);
+        if (!out.has(r.vehicle_id)) out.set(r.vehicle_id, []);
+        out.get(r.vehicle_id)!.push({
+          id: r.id,
+          routeId: r.route_id,
+          driverId: r.driver_id,
+          tripDate: localDay(start, timeZone),
+          durationS: Math.max(0, (end.getTime() - start.getTime()) / 1000),
+          distanceKm: r.distance_km,
+          meanSpeedKmh: r.mean_speed_kmh,
+          payloadKg: r.payload_kg,
+        });
+      }
+      return out;
+    },
+
+    /**
+     * Stores one batch in one transaction: the duty records, the trips' processed mark and
+     * the dampers' "recompute from" day. A crash before COMMIT leaves none of it.
+     */
+    async storeBatch(batch: { duties: DutyRecord[]; wear: WearDelta[]; processedTripIds: number[]; now: Date; runId: number }) {
+      const stamp = sqlDate(batch.now);
+      await sequelize.transaction(async (t) => {
+        const cols = [
+          'trip_id', 'vehicle_id', 'damper_id', 'route_id', 'driver_id', 'position', 'axle_index', 'trip_date', 'distance_km', 'duration_s',
+          'sprung_mass_kg', 'energy_j', 'mean_power_w', 'rms_relative_velocity', 'rms_suspension_travel', 'rms_tire_load_ratio', 'rms_body_accel',
+          'rms_weighted_accel', 'spring_damage', 'segments', 'profiled_segments', 'unrated_segments', 'job_run_id', 'created_at', 'updated_at',
+        ];
+        const rows = batch.duties.map((d) => [
+          d.tripId, d.vehicleId, d.damperId, d.routeId, d.driverId, d.position, d.axleIndex, d.tripDate, d.distanceKm, d.durationS,
+          d.sprungMassKg, d.energyJ, d.meanPowerW, d.rmsRelativeVelocity, d.rmsSuspensionTravel, d.rmsTireLoadRatio, d.rmsBodyAccel,
+          d.rmsWeightedAccel, d.springDamage, d.segments, d.profiledSegments, d.unratedSegments, null, stamp, stamp,
+        ]);
+        await insertRows(sequelize, 'trip_duties', cols, rows, t);
+        for (let i = 0; i < batch.processedTripIds.length; i += 5000) {
+          const ids = batch.processedTripIds.slice(i, i + 5000);
+          await sequelize.query(`UPDATE trips SET processed_at = ?, updated_at = ? WHERE id IN (${inList(ids)})`, { replacements: [stamp, stamp], transaction: t });
+        }
+        for (let i = 0; i < batch.wear.length; i += CHUNK_ROWS) {
+          const part = batch.wear.slice(i, i + CHUNK_ROWS);
+          await sequelize.query(
+            `WITH d(id, first) AS (VALUES ${part.map(() => '(?, ?)').join(',')})
+             UPDATE dampers SET wear_dirty_from = CASE WHEN wear_dirty_from IS NULL OR wear_dirty_from > d.first THEN d.first ELSE wear_dirty_from END
+             FROM d WHERE dampers.id = d.id`,
+            { replacements: part.flatMap((w) => [w.damperId, w.firstDay]) as never, transaction: t },
+          );
+        }
+      });
+    },
+
+    /** Ids of dampers whose derived wear must be recomputed, in id order. */
+    async dirtyDampers(): Promise<number[]> {
+      const rows = await q<{ id: number }>(`SELECT id FROM dampers WHERE wear_dirty_from IS NOT NULL ORDER BY id`);
+      return rows.map((r) => r.id);
+    },
+
+    /** What the wear recomputation needs for each damper. */
+    async damperContext(ids: number[]) {
+      return q<{
+        id: number; vehicle_id: number; position: string; axle_index: number; installed_at: string; removed_at: string | null; wear_dirty_from: string | null;
+        sprung_mass_kg: number; unsprung_mass_kg: number; spring_rate_n_per_m: number; damping_ns_per_m: number; tire_rate_n_per_m: number; rated_damper_life_km: number;
+      }>(
+        `SELECT d.id, d.vehicle_id, d.position, d.axle_index, d.installed_at, d.removed_at, d.wear_dirty_from,
+                a.sprung_mass_kg, a.unsprung_mass_kg, a.spring_rate_n_per_m, a.damping_ns_per_m, a.tire_rate_n_per_m, a.rated_damper_life_km
+         FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
+         WHERE d.id IN (${inList(ids)}) ORDER BY d.id`,
+      );
+    },
+
+    /** Daily duty sums of dirty dampers from their dirty day on. */
+    async dailyDutyFromDirty(ids: number[]) {
+      return q<{ damper_id: number; trip_date: string; distance_km: number; energy_j: number; spring_damage: number }>(
+        `SELECT td.damper_id, td.trip_date, SUM(td.distance_km) AS distance_km, SUM(td.energy_j) AS energy_j, SUM(td.spring_damage) AS spring_damage
+         FROM trip_duties td JOIN dampers d ON d.id = td.damper_id
+         WHERE td.damper_id IN (${inList(ids)}) AND td.trip_date >= d.wear_dirty_from
+         GROUP BY td.damper_id, td.trip_date ORDER BY td.damper_id, td.trip_date`,
+      );
+    },
+
+    /** The last stored wear day before each dirty damper's dirty day. */
+    async wearBeforeDirty(ids: number[]) {
+      return q<{ damper_id: number; cum_energy_j: number; cum_spring_damage: number }>(
+        `SELECT w.damper_id, w.cum_energy_j, w.cum_spring_damage FROM damper_wear_days w JOIN dampers d ON d.id = w.damper_id
+         WHERE d.id IN (${inList(ids)}) AND w.day = (SELECT MAX(day) FROM damper_wear_days x WHERE x.damper_id = d.id AND x.day < d.wear_dirty_from)`,
+      );
+    },
+
+    /** Replaces dirty dampers' wear days from their dirty day on and updates their totals, clearing the mark. */
+    async storeWear(rows: WearDayRow[], totals: { damperId: number; energyJ: number; springDamage: number; lifeUsedFraction: number; dampingNsPerM: number }[], ids: number[], now: Date) {
+      const stamp = sqlDate(now);
+      await sequelize.transaction(async (t) => {
+        await sequelize.query(
+          `DELETE FROM damper_wear_days WHERE rowid IN (SELECT w.rowid FROM damper_wear_days w JOIN dampers d ON d.id = w.damper_id WHERE d.id IN (${inList(ids)}) AND w.day >= d.wear_dirty_from)`,
+          { transaction: t },
+        );
+        await insertRows(
+          sequelize,
+          'damper_wear_days',
+          ['damper_id', 'day', 'vehicle_id', 'distance_km', 'energy_j', 'spring_damage', 'cum_energy_j', 'cum_spring_damage', 'life_energy_j', 'life_used_fraction', 'damping_ns_per_m'],
+          rows.map((r) => [r.damperId, r.day, r.vehicleId, r.distanceKm, r.energyJ, r.springDamage, r.cumEnergyJ, r.cumSpringDamage, r.lifeEnergyJ, r.lifeUsedFraction, r.dampingNsPerM]),
+          t,
+        );
+        for (let i = 0; i < totals.length; i += CHUNK_ROWS) {
+          const part = totals.slice(i, i + CHUNK_ROWS);
+          await sequelize.query(
+            `WITH d(id, e, f, u, c) AS (VALUES ${part.map(() => '(?, ?, ?, ?, ?)').join(',')})
+             UPDATE dampers SET energy_j = d.e, fatigue_damage = d.f, life_used_fraction = d.u, damping_ns_per_m = d.c, wear_updated_at = ?, updated_at = ?, wear_dirty_from = NULL
+             FROM d WHERE dampers.id = d.id`,
+            { replacements: [...part.flatMap((x) => [x.damperId, x.energyJ, x.springDamage, x.lifeUsedFraction, x.dampingNsPerM]), stamp, stamp] as never, transaction: t },
+          );
+        }
+      });
+    },
+
+    /** Installed dampers (on non-retired vehicles) in id order, from `afterId`. */
+    async installedDamperIds(afterId: number, limit: number): Promise<number[]> {
+      const rows = await q<{ id: number }>(
+        `SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE d.removed_at IS NULL AND v.status != 'retired' AND d.id > ? ORDER BY d.id LIMIT ?`,
+        [afterId, limit],
+      );
+      return rows.map((r) => r.id);
+    },
+
+    /** Wear rows of the dampers from `fromDay` (the window) plus the last row before it. */
+    async wearForPrediction(ids: number[], fromDay: string, asOf: string) {
+      const window = await q<WearDayDb>(
+        `SELECT * FROM damper_wear_days WHERE damper_id IN (${inList(ids)}) AND day >= ? AND day <= ? ORDER BY damper_id, day`,
+        [fromDay, asOf],
+      );
+      const before = await q<WearDayDb>(
+        `SELECT w.* FROM damper_wear_days w WHERE w.damper_id IN (${inList(ids)})
+         AND w.day = (SELECT MAX(day) FROM damper_wear_days x WHERE x.damper_id = w.damper_id AND x.day < ?)`,
+        [fromDay],
+      );
+      return { window: window.map(wearRow), before: before.map(wearRow) };
+    },
+
+    /** First day each damper's consumed life (or spring damage) reached `level`. */
+    async crossingDays(ids: number[], level: number) {
+      const life = await q<{ damper_id: number; day: string }>(
+        `SELECT damper_id, MIN(day) AS day FROM damper_wear_days WHERE damper_id IN (${inList(ids)}) AND life_used_fraction >= ? GROUP BY damper_id`,
+        [level],
+      );
+      const spring = await q<{ damper_id: number; day: string }>(
+        `SELECT damper_id, MIN(day) AS day FROM damper_wear_days WHERE damper_id IN (${inList(ids)}) AND cum_spring_damage >= ? GROUP BY damper_id`,
+        [level],
+      );
+      return { life: new Map(life.map((r) => [r.damper_id, r.day])), spring: new Map(spring.map((r) => [r.damper_id, r.day])) };
+    },
+
+    async storePredictions(rows: (Prediction & { damperId: number; vehicleId: number })[]) {
+      await sequelize.transaction(async (t) => {
+        await insertRows(
+          sequelize,
+          'damper_predictions',
+          [
+            'damper_id', 'vehicle_id', 'as_of', 'window_days', 'window_energy_j', 'window_km', 'rate_j_per_day', 'life_energy_j', 'life_source', 'energy_j',
+            'life_used_fraction', 'damping_ns_per_m', 'threshold_fraction', 'threshold_date', 'end_of_life_date', 'spring_damage', 'spring_rate_per_day',
+            'spring_threshold_date', 'basis',
+          ],
+          rows.map((p) => [
+            p.damperId, p.vehicleId, p.asOf, p.windowDays, p.windowEnergyJ, p.windowKm, p.rateJPerDay, p.lifeEnergyJ, p.lifeSource, p.energyJ,
+            p.lifeUsedFraction, p.dampingNsPerM, p.thresholdFraction, p.thresholdDate, p.endOfLifeDate, p.springDamage, p.springRatePerDay,
+            p.springThresholdDate, JSON.stringify(p.basis),
+          ]),
+          t,
+          true,
+        );
+      });
+    },
+
+    /** Removes predictions of dampers no longer fitted (or on retired vehicles). */
+    async dropStalePredictions() {
+      await sequelize.query(
+        `DELETE FROM damper_predictions WHERE damper_id IN (SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE d.removed_at IS NOT NULL OR v.status = 'retired')`,
+      );
+    },
+  };
+}
+
+interface WearDayDb {
+  damper_id: number;
+  day: string;
+  vehicle_id: number;
+  distance_km: number;
+  energy_j: number;
+  spring_damage: number;
+  cum_energy_j: number;
+  cum_spring_damage: number;
+  life_energy_j: number;
+  life_used_fraction: number;
+  damping_ns_per_m: number;
+}
+
+const wearRow = (r: WearDayDb): WearDayRow => ({
+  damperId: r.damper_id,
+  vehicleId: r.vehicle_id,
+  day: r.day,
+  distanceKm: r.distance_km,
+  energyJ: r.energy_j,
+  springDamage: r.spring_damage,
+  cumEnergyJ: r.cum_energy_j,
+  cumSpringDamage: r.cum_spring_damage,
+  lifeEnergyJ: r.life_energy_j,
+  lifeUsedFraction: r.life_used_fraction,
+  dampingNsPerM: r.damping_ns_per_m,
+});
+
+export type WearRepository = ReturnType<typeof wearRepository>;

@@ -1,0 +1,232 @@
+/**
+ * The duty and wear phases of the nightly run: trips → duty records (batched, one transaction
+ * per batch with the trips' processed mark), then each touched damper's daily history and
+ * totals (recomputed from its duty records, so the result does not depend on how the work was
+ * split or interrupted), then every fitted damper's prediction as of the run's day.
+ */
+import type { Sequelize } from 'sequelize';
+import { computeVehicleDuty, DutyCache, type AxleInput, type RouteInput, type SegmentInput, type VehicleWork } from './duty';
+import { accumulateDays, predict, ratedLife, DUTY_WINDOW_DAYS, plusDays, type DayDuty, type LifeResolver, type WearDayRow } from './wear';
+import { wearRepository } from './repository';
+
+export interface ItemError {
+  item: string;
+  message: string;
+}
+
+export interface PhaseContext {
+  sequelize: Sequelize;
+  /** Logical time of the run (stamps written rows). */
+  now: Date;
+  /** The run's day (YYYY-MM-DD); trips that started before the end of it are processed. */
+  asOf: string;
+  /** Instant the day after `asOf` starts in the app's time zone. */
+  before: Date;
+  timeZone: string;
+  dataDir: string;
+  batchTrips: number;
+  thresholdFraction: number;
+  signal?: AbortSignal;
+  lifeResolver?: LifeResolver;
+  /** Test hook: throw after this many committed batches (a crash in the middle of the run). */
+  failAfterBatches?: number;
+  /** Loads a measured profile (server/roads/profile-store.ts `loadSurveyProfile`). */
+  loadProfile: (dataDir: string, surveyId: number) => Promise<{ dxM: number; startM: number; elevationsM: Float64Array }>;
+  progress: (phase: string, done: number, total: number) => Promise<void> | void;
+  errors: ItemError[];
+  counts: Record<string, number>;
+}
+
+export class RunAborted extends Error {
+  constructor() {
+    super('The run was cancelled.');
+    this.name = 'RunAborted';
+  }
+}
+
+const checkAbort = (signal?: AbortSignal) => {
+  if (signal?.aborted) throw new RunAborted();
+};
+
+const add = (counts: Record<string, number>, key: string, n: number) => {
+  counts[key] = (counts[key] ?? 0) + n;
+};
+
+/** Phase 1: every unprocessed trip → duty records, in batches of whole vehicles. */
+export async function processTrips(ctx: PhaseContext) {
+  const repo = wearRepository(ctx.sequelize);
+  const plan = await repo.planUnprocessed(ctx.before);
+  const totalTrips = plan.reduce((s, p) => s + p.trips, 0);
+  await ctx.progress('duty', 0, totalTrips);
+  if (!plan.length) return;
+  const specs = await repo.specAxles();
+  const { routes, surveyIds } = await repo.routesForUnprocessed(ctx.before);
+  // measured profiles behind segments' current roughness
+  const profiles = new Map<number, { dxM: number; startM: number; elevationsM: Float64Array }>();
+  for (const id of surveyIds) {
+    try {
+      profiles.set(id, await ctx.loadProfile(ctx.dataDir, id));
+    } catch (err) {
+      ctx.errors.push({ item: `survey ${id}`, message: `profile not readable, its segments use the closed form: ${(err as Error).message}` });
+    }
+  }
+  for (const route of routes.values()) {
+    for (const seg of route.segments as (SegmentInput & { surveyId?: number | null })[]) {
+      const p = seg.surveyId ? profiles.get(seg.surveyId) : undefined;
+      seg.profile = p && seg.surveyId ? { surveyId: seg.surveyId, ...p } : null;
+    }
+  }
+  const cache = new DutyCache();
+  // batches of whole vehicles, in vehicle order: a rerun after a crash forms the same batches
+  const batches: number[][] = [];
+  let cur: number[] = [];
+  let n = 0;
+  for (const p of plan) {
+    cur.push(p.vehicleId);
+    n += p.trips;
+    if (n >= ctx.batchTrips) {
+      batches.push(cur);
+      cur = [];
+      n = 0;
+    }
+  }
+  if (cur.length) batches.push(cur);
+
+  let done = 0;
+  let committed = 0;
+  for (const vehicleIds of batches) {
+    checkAbort(ctx.signal);
+    const [specOf, dampers, trips] = await Promise.all([
+      repo.vehicleSpecs(vehicleIds),
+      repo.dampersOf(vehicleIds),
+      repo.unprocessedTrips(vehicleIds, ctx.before, ctx.timeZone),
+    ]);
+    const duties = [];
+    const wear = [];
+    const processed: number[] = [];
+    let batchTrips = 0;
+    for (const vehicleId of vehicleIds) {
+      const vTrips = trips.get(vehicleId) ?? [];
+      batchTrips += vTrips.length;
+      const axles: AxleInput[] | undefined = specOf.has(vehicleId) ? specs.get(specOf.get(vehicleId)!) : undefined;
+      if (!axles?.length) {
+        ctx.errors.push({ item: `vehicle ${vehicleId}`, message: 'its suspension spec has no axles; trips left unprocessed' });
+        continue;
+      }
+      const work: VehicleWork = { vehicleId, axles, dampers: dampers.get(vehicleId) ?? [], trips: vTrips };
+      const r = computeVehicleDuty(work, routes as Map<number, RouteInput>, cache);
+      for (const e of r.errors) ctx.errors.push({ item: `trip ${e.tripId}`, message: e.message });
+      const failed = new Set(r.errors.map((e) => e.tripId));
+      for (const t of vTrips) if (!failed.has(t.id)) processed.push(t.id);
+      duties.push(...r.duties);
+      wear.push(...r.wear);
+      add(ctx.counts, 'segments', r.segments);
+      add(ctx.counts, 'tripErrors', r.errors.length);
+    }
+    await repo.storeBatch({ duties, wear, processedTripIds: processed, now: ctx.now, runId: 0 });
+    committed++;
+    add(ctx.counts, 'trips', processed.length);
+    add(ctx.counts, 'dutyRecords', duties.length);
+    add(ctx.counts, 'batches', 1);
+    done += batchTrips;
+    await ctx.progress('duty', done, totalTrips);
+    if (ctx.failAfterBatches !== undefined && committed >= ctx.failAfterBatches) {
+      throw new Error(`injected failure after ${committed} batch(es)`);
+    }
+  }
+  add(ctx.counts, 'closedFormSolves', cache.solves);
+  add(ctx.counts, 'profileSimulations', cache.simulations);
+}
+
+const WEAR_CHUNK = 2000;
+
+/** Phase 2: recompute daily history and totals of every damper whose duty changed. */
+export async function recomputeWear(ctx: PhaseContext) {
+  const repo = wearRepository(ctx.sequelize);
+  const resolve = ctx.lifeResolver ?? ratedLife;
+  const ids = await repo.dirtyDampers();
+  await ctx.progress('wear', 0, ids.length);
+  for (let i = 0; i < ids.length; i += WEAR_CHUNK) {
+    checkAbort(ctx.signal);
+    const chunk = ids.slice(i, i + WEAR_CHUNK);
+    const [context, daily, before] = await Promise.all([repo.damperContext(chunk), repo.dailyDutyFromDirty(chunk), repo.wearBeforeDirty(chunk)]);
+    const byDamper = new Map<number, DayDuty[]>();
+    for (const d of daily) {
+      if (!byDamper.has(d.damper_id)) byDamper.set(d.damper_id, []);
+      byDamper.get(d.damper_id)!.push({ day: d.trip_date, distanceKm: d.distance_km, energyJ: d.energy_j, springDamage: d.spring_damage });
+    }
+    const start = new Map(before.map((b) => [b.damper_id, { cumEnergyJ: b.cum_energy_j, cumSpringDamage: b.cum_spring_damage }]));
+    const rows: WearDayRow[] = [];
+    const totals = [];
+    for (const c of context) {
+      const corner = { sprungMassKg: c.sprung_mass_kg, unsprungMassKg: c.unsprung_mass_kg, springRateNPerM: c.spring_rate_n_per_m, dampingNsPerM: c.damping_ns_per_m, tireRateNPerM: c.tire_rate_n_per_m };
+      try {
+        const life = resolve({ damperId: c.id, corner, ratedDamperLifeKm: c.rated_damper_life_km });
+        const s = start.get(c.id) ?? null;
+        const days = accumulateDays({ damperId: c.id, vehicleId: c.vehicle_id }, s, byDamper.get(c.id) ?? [], life.energyJ, c.damping_ns_per_m);
+        rows.push(...days);
+        const last = days[days.length - 1];
+        const e = last?.cumEnergyJ ?? s?.cumEnergyJ ?? 0;
+        const f = last?.cumSpringDamage ?? s?.cumSpringDamage ?? 0;
+        const u = e / life.energyJ;
+        totals.push({ damperId: c.id, energyJ: e, springDamage: f, lifeUsedFraction: u, dampingNsPerM: last?.dampingNsPerM ?? c.damping_ns_per_m });
+      } catch (err) {
+        ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
+      }
+    }
+    await repo.storeWear(rows, totals, totals.map((t) => t.damperId), ctx.now);
+    add(ctx.counts, 'dampersUpdated', totals.length);
+    add(ctx.counts, 'wearDays', rows.length);
+    await ctx.progress('wear', Math.min(ids.length, i + chunk.length), ids.length);
+  }
+}
+
+/** Phase 3: predict every fitted damper as of the run's day. */
+export async function predictAll(ctx: PhaseContext) {
+  const repo = wearRepository(ctx.sequelize);
+  const resolve = ctx.lifeResolver ?? ratedLife;
+  const windowStart = plusDays(ctx.asOf, -(DUTY_WINDOW_DAYS - 1));
+  let after = 0;
+  let done = 0;
+  await repo.dropStalePredictions();
+  for (;;) {
+    checkAbort(ctx.signal);
+    const ids = await repo.installedDamperIds(after, WEAR_CHUNK);
+    if (!ids.length) break;
+    after = ids[ids.length - 1];
+    const [context, wear, atThreshold, atEnd] = await Promise.all([
+      repo.damperContext(ids),
+      repo.wearForPrediction(ids, windowStart, ctx.asOf),
+      repo.crossingDays(ids, ctx.thresholdFraction),
+      repo.crossingDays(ids, 1),
+    ]);
+    const hist = new Map<number, WearDayRow[]>();
+    for (const r of [...wear.before, ...wear.window]) {
+      if (!hist.has(r.damperId)) hist.set(r.damperId, []);
+      hist.get(r.damperId)!.push(r);
+    }
+    for (const h of hist.values()) h.sort((a, b) => (a.day < b.day ? -1 : 1));
+    const out = [];
+    for (const c of context) {
+      const corner = { sprungMassKg: c.sprung_mass_kg, unsprungMassKg: c.unsprung_mass_kg, springRateNPerM: c.spring_rate_n_per_m, dampingNsPerM: c.damping_ns_per_m, tireRateNPerM: c.tire_rate_n_per_m };
+      try {
+        const life = resolve({ damperId: c.id, corner, ratedDamperLifeKm: c.rated_damper_life_km });
+        const p = predict(hist.get(c.id) ?? [], {
+          asOf: ctx.asOf,
+          installedAt: c.installed_at,
+          life,
+          thresholdFraction: ctx.thresholdFraction,
+          nominalDampingNsPerM: c.damping_ns_per_m,
+          crossed: { threshold: atThreshold.life.get(c.id), endOfLife: atEnd.life.get(c.id), spring: atThreshold.spring.get(c.id) },
+        });
+        out.push({ ...p, damperId: c.id, vehicleId: c.vehicle_id });
+      } catch (err) {
+        ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
+      }
+    }
+    await repo.storePredictions(out);
+    done += out.length;
+    add(ctx.counts, 'predictions', out.length);
+    await ctx.progress('predictions', done, done);
+  }
+}
