@@ -12,7 +12,7 @@ export function signInPath(url: string | URL): string {
 }
 
 /** Marks a route error as "your role may not use this" (rendered as the not-available page). */
-export const NOT_AVAILABLE = 'not_available_for_role';
+const NOT_AVAILABLE = 'not_available_for_role';
 
 async function signedIn(queryClient: QueryClient, request: Request): Promise<SignedInUser> {
   const user = await queryClient.ensureQueryData(meQueryOptions());

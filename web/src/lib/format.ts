@@ -41,11 +41,6 @@ export function formatPercent(fraction: Num, digits = 0): string {
   return isNum(fraction) ? `${formatNumber(fraction * 100, digits)}${NBSP}%` : NO_VALUE;
 }
 
-/** Spring and tyre rates are stored in N/m and read best in kN/m: `32000` → `32.0 kN/m`. */
-export function formatRateKNPerM(nPerM: Num, digits = 1): string {
-  return isNum(nPerM) ? formatQuantity(nPerM / 1000, 'kN/m', digits) : NO_VALUE;
-}
-
 function toDate(value: string | Date | null | undefined): Date | null {
   if (!value) return null;
   const d = typeof value === 'string' ? parseISO(value) : value;
@@ -75,15 +70,6 @@ export function minutesBetween(start: string | null | undefined, end: string | n
   const a = toDate(start);
   const b = toDate(end);
   return a && b ? differenceInMinutes(b, a) : null;
-}
-
-/** `135` → `2 h 15 min`. */
-export function formatDuration(minutes: Num): string {
-  if (!isNum(minutes)) return NO_VALUE;
-  const h = Math.floor(minutes / 60);
-  const m = Math.round(minutes % 60);
-  if (h === 0) return `${m}${NBSP}min`;
-  return `${h}${NBSP}h ${m}${NBSP}min`;
 }
 
 /** `135` → `2:15`, for a column headed "(h:min)". */
