@@ -18,6 +18,7 @@ import { registerFleetWriteRoutes } from './fleet/write-routes';
 import { registerRoadRoutes } from './roads/routes';
 import { registerTripRoutes } from './trips/routes';
 import { registerTiles } from './tiles/tiles';
+import { registerWorkshopRoutes } from './workshop/routes';
 import type { Mailer } from './mail/mailer';
 import { registerMailRoutes } from './mail/routes';
 import { registerJobRoutes } from './jobs/routes';
@@ -111,6 +112,8 @@ export function createApp(deps: AppDeps): BuiltApp {
   registerInspectionRoutes(api, { sequelize: db.sequelize, config, now: deps.now ?? (() => new Date()) });
   registerWearRoutes(api, { sequelize: db.sequelize, config });
   registerMailRoutes(api, { mailer: deps.mailer ?? null });
+  // issue 6: workshop (after issue 5's /inspections/due so that literal path wins)
+  registerWorkshopRoutes(api, { config, now: deps.now ?? (() => new Date()) });
   api.use((req, _res, next) => next(AppError.notFound(`The API address ${req.method} ${req.originalUrl}`)));
 
   app.use('/api', api);

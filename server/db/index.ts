@@ -6,6 +6,7 @@ import { initModels } from './models';
 import * as m0001 from './migrations/0001-initial';
 import * as m0002 from './migrations/0002-roads-and-imports';
 import * as m0003 from './migrations/0003-nightly-duty';
+import * as m0004 from './migrations/0004-workshop';
 import { initNightlyModels } from './nightly-models';
 
 export interface Db {
@@ -19,6 +20,7 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
   { name: '0001-initial', up: m0001.up, down: m0001.down },
   { name: '0002-roads-and-imports', up: m0002.up, down: m0002.down },
   { name: '0003-nightly-duty', up: m0003.up, down: m0003.down },
+  { name: '0004-workshop', up: m0004.up, down: m0004.down },
 ];
 
 /**

@@ -24,7 +24,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
 
     await expectPath(page, '/fleet');
     await expectHeading(page, 'Fleet');
-    expect(await menuItems(page)).toEqual(['Fleet', 'Vehicles', 'Specs', 'Routes', 'People', 'Account']);
+    expect(await menuItems(page)).toEqual(['Fleet', 'Map', 'Vehicles', 'Specs', 'Routes', 'Trips', 'People', 'Account']);
     await page.getByRole('heading', { name: 'Vehicles by status' }).waitFor();
     await page.getByText('In service', { exact: true }).first().waitFor();
     await page.getByRole('table', { name: /Depots/ }).waitFor();

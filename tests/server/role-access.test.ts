@@ -70,6 +70,22 @@ export const ACCESS: Record<string, Rule> = {
   'GET /api/outbox/:id': { allow: ['manager'], expect: 404, path: '/api/outbox/999999' },
   'GET /api/account/notifications': { allow: ALL, expect: 200 },
   'PATCH /api/account/notifications': { allow: ALL, expect: 400, body: {} },
+  // issue 6: workshop (inspections recorded by mechanics, work records, fleet life, forecast)
+  'GET /api/inspections': { allow: ['manager', 'mechanic'], expect: 200 },
+  'GET /api/inspections/:id': { allow: ['manager', 'mechanic'], expect: 404, path: '/api/inspections/999999' },
+  'PATCH /api/inspections/:id': { allow: ['manager'], expect: 400, path: '/api/inspections/999999', body: {} },
+  'POST /api/inspections/:id/results': { allow: ['mechanic'], expect: 400, path: '/api/inspections/999999/results', body: {} },
+  'POST /api/inspections/:id/attachments': { allow: ['mechanic'], expect: 400, path: '/api/inspections/999999/attachments', body: {} },
+  'GET /api/attachments/:id/file': { allow: ['manager', 'mechanic'], expect: 404, path: '/api/attachments/999999/file' },
+  'GET /api/work-records': { allow: ['manager', 'mechanic'], expect: 200 },
+  'GET /api/work-records/:id': { allow: ['manager', 'mechanic'], expect: 404, path: '/api/work-records/999999' },
+  'POST /api/work-records': { allow: ['mechanic'], expect: 400, body: {} },
+  'GET /api/fleet-life': { allow: ['manager', 'mechanic'], expect: 200, path: '/api/fleet-life?specId=1' },
+  'GET /api/forecast': { allow: ['manager'], expect: 200 },
+  'GET /api/workload': { allow: ['manager'], expect: 200 },
+  'GET /api/model-check': { allow: ['manager'], expect: 200 },
+  'GET /api/vehicles/:id/workshop': { allow: ['manager', 'mechanic'], expect: 200, path: '/api/vehicles/{vehicle}/workshop' },
+  'GET /api/workshop/options': { allow: ['manager', 'mechanic'], expect: 200 },
 };
 
 let srv: TestServer;
