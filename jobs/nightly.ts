@@ -22,6 +22,9 @@ import { loadSurveyProfile } from '../server/roads/profile-store';
 import { localDay, startOfLocalDay } from '../server/wear/repository';
 import { predictAll, processTrips, recomputeWear, RunAborted, type ItemError, type PhaseContext } from '../server/wear/service';
 import { plusDays, type LifeResolver } from '../server/wear/wear';
+// issue 7: drivers' daily exposure step; importing ride-mail registers the severe-reports digest section
+import { refreshExposure } from '../server/drivers/exposure';
+import '../server/drivers/ride-mail';
 
 export const name = 'nightly';
 
@@ -118,6 +121,10 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     await processTrips(ctx);
     await recomputeWear(ctx);
     await predictAll(ctx);
+    // issue 7: drivers' daily A(8) from the front-axle duty just stored (queues managers' mail, sent below)
+    if (opts.signal?.aborted) throw new RunAborted();
+    await progress('exposure', 0, 1);
+    Object.assign(counts, await refreshExposure({ sequelize: db.sequelize, now: opts.now, asOf, publicUrl: config.publicUrl, runId }));
     if (opts.signal?.aborted) throw new RunAborted();
     await progress('scheduling', 0, 1);
     await runSchedule({ sequelize: db.sequelize, now: opts.now, asOf, timeZone: config.timeZone, rules: config.inspection, runId, errors, counts });

@@ -26,6 +26,7 @@ import { modes } from './quarter-car';
 import { adhesionPct, dampingFromAdhesion } from './adhesion';
 import { dailyA8, exposureStatus, EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE, type ExposureTrip } from './exposure';
 import { PhysicsInputError, validateCorner, type CornerParams } from './types';
+import { weibullCommand } from '../reliability/weibull-cli';
 
 /** A usage error (wrong command or flags): exit code 2. */
 export class CliUsageError extends Error {
@@ -45,7 +46,8 @@ const USAGE = `usage: cli <command> [args]
   modes --spec <file.json>
   adhesion --spec <file.json> [--amplitude-mm a]
   damping-from-adhesion --spec <file.json> --adhesion <pct> [--amplitude-mm a]
-  exposure --trips <file.json>`;
+  exposure --trips <file.json>
+  weibull <file.csv>   (columns life, failed: 1 removal, 0 still running)`;
 
 function readText(path: string, what: string): string {
   try {
@@ -257,6 +259,10 @@ export function runCommand(argv: string[]): unknown {
       if (!Array.isArray(trips)) throw new PhysicsInputError('trips', 'JSON', 'must be a list of { "weightedAccel", "hours" }');
       const a8 = dailyA8(trips as ExposureTrip[]);
       return { a8, actionValue: EXPOSURE_ACTION_VALUE, limitValue: EXPOSURE_LIMIT_VALUE, status: exposureStatus(a8) };
+    }
+    case 'weibull': {
+      const { positionals } = parse(rest, {}, 1);
+      return weibullCommand(readText(positionals[0], 'life data'));
     }
     case undefined:
     case '--help':

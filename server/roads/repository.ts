@@ -1,7 +1,9 @@
 /** Roads data access: routes, segments, roughness observations, surveys. */
 import { Op, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import { Depot, RoadSurvey, RoughnessObservation, Route, RouteSegment, Trip, User, Vehicle, type RoughnessSource } from '../db/models';
-import { pickCurrent } from './current-roughness';
+import { currentValue } from './current-roughness';
+import { classifyGd } from '../physics/iso8608';
+import { iriFromGd } from '../physics/iri';
 import type { LonLat, SegmentGeometry } from './geometry';
 
 export interface SegmentRow {
@@ -212,15 +214,22 @@ export const roadsRepository = {
       const bySeg = new Map<number, RoughnessObservation[]>();
       for (const o of all) bySeg.set(o.segmentId, [...(bySeg.get(o.segmentId) ?? []), o]);
       for (const id of ids) {
-        const cur = pickCurrent(bySeg.get(id) ?? []);
+        // issue 7: drivers' reports are blended in with a lower weight than a survey
+        const cur = currentValue(bySeg.get(id) ?? [], classifyGd, iriFromGd);
         await RouteSegment.update(
           cur
-            ? { iri: cur.iri, gdN0: cur.gdN0, isoClass: cur.isoClass, roughnessSource: cur.source, roughnessDate: cur.observedOn, surveyId: cur.source === 'survey' ? (cur.surveyId ?? null) : null }
+            ? { iri: cur.iri, gdN0: cur.gdN0, isoClass: cur.isoClass, roughnessSource: cur.source, roughnessDate: cur.observedOn, surveyId: cur.surveyId }
             : { iri: null, gdN0: null, isoClass: null, roughnessSource: null, roughnessDate: null, surveyId: null },
           { where: { id }, transaction },
         );
       }
     }
+  },
+
+  /** Issue 7: the id of a segment's most recently recorded observation. */
+  async lastObservationId(segmentId: number, transaction: Transaction) {
+    const o = await RoughnessObservation.findOne({ where: { segmentId }, order: [['id', 'DESC']], attributes: ['id'], transaction });
+    return o?.id ?? null;
   },
 
   async createSurvey(s: { routeId: number; filePath: string; originalName: string; dxM: number; startM: number; endM: number; pointCount: number; surveyedOn: string; note: string | null; uploadedById: number; uploadedAt: Date }, transaction: Transaction) {

@@ -1,4 +1,5 @@
 /** Roads rules: creating routes, speeds, manual roughness, profile surveys. */
+import type { Transaction } from 'sequelize';
 import { AppError } from '../errors';
 import { classifyGd, gdForClass } from '../physics/iso8608';
 import { gdFromIri, iriFromGd, iriSegments } from '../physics/iri';
@@ -254,5 +255,18 @@ export const roadsService = {
       removeProfileFile(ctx.dataDir, filePath);
       throw e;
     }
+  },
+
+  /**
+   * Issue 7: an accepted driver's report becomes a roughness observation (source
+   * `driver_report`, weighted below a survey by the current-value rule). Runs in the caller's
+   * transaction; returns the new observation's id.
+   */
+  async addDriverReportObservation(
+    o: { segmentId: number; gdN0: number; isoClass: string; observedOn: string; recordedById: number; note: string },
+    t: Transaction,
+  ) {
+    await roadsRepository.addObservations([{ segmentId: o.segmentId, iri: null, gdN0: o.gdN0, isoClass: o.isoClass, source: 'driver_report', observedOn: o.observedOn, recordedById: o.recordedById, note: o.note.slice(0, 240), surveyId: null }], t);
+    return roadsRepository.lastObservationId(o.segmentId, t);
   },
 };

@@ -86,6 +86,19 @@ export const ACCESS: Record<string, Rule> = {
   'GET /api/model-check': { allow: ['manager'], expect: 200 },
   'GET /api/vehicles/:id/workshop': { allow: ['manager', 'mechanic'], expect: 200, path: '/api/vehicles/{vehicle}/workshop' },
   'GET /api/workshop/options': { allow: ['manager', 'mechanic'], expect: 200 },
+  // issue 7: drivers' ride reports, exposure, speed advice
+  'GET /api/ride-reports/scale': { allow: ['driver', 'manager'], expect: 200 },
+  'POST /api/ride-reports/snap': { allow: ['driver', 'manager'], expect: 400, body: {} },
+  'POST /api/ride-reports': { allow: ['driver'], expect: 400, body: {} },
+  'GET /api/ride-reports': { allow: ['driver', 'manager'], expect: 200 },
+  'GET /api/ride-reports/by-segment': { allow: ['manager'], expect: 200 },
+  'GET /api/ride-reports/:id': { allow: ['driver', 'manager'], expect: 404, path: '/api/ride-reports/999999' },
+  'GET /api/ride-reports/:id/photo': { allow: ['driver', 'manager'], expect: 404, path: '/api/ride-reports/999999/photo' },
+  'POST /api/ride-reports/:id/accept': { allow: ['manager'], expect: 400, path: '/api/ride-reports/999999/accept', body: {} },
+  'POST /api/ride-reports/:id/dismiss': { allow: ['manager'], expect: 400, path: '/api/ride-reports/999999/dismiss', body: {} },
+  'GET /api/exposure': { allow: ['driver', 'manager'], expect: 400, path: '/api/exposure?from=not-a-date' },
+  'GET /api/exposure/overview': { allow: ['manager'], expect: 200 },
+  'GET /api/routes/:id/speed-advice': { allow: ALL, expect: 200, path: '/api/routes/1/speed-advice' },
 };
 
 let srv: TestServer;

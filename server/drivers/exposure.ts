@@ -1,0 +1,170 @@
+/**
+ * Drivers' daily whole-body vibration exposure (issue 7), computed by the nightly job from the
+ * duty it stores per trip and corner.
+ *
+ * Method: the driver sits over the front axle, so a trip's weighted acceleration is that of the
+ * front-axle corners (`trip_duties.axle_index = 0`, FL and FR) combined as an RMS:
+ * `a_w = √((a_FL² + a_FR²) / 2)`; its duration is the trip's. The day's exposure is
+ * Directive 2002/44/EC `A(8) = √(Σ a_w,i²·T_i / 8 h)` ({@link dailyA8}). A screening estimate
+ * from a model of the vehicle floor, not a seat measurement (physics.md §5).
+ */
+import { createHash } from 'node:crypto';
+import { QueryTypes, type Sequelize } from 'sequelize';
+import { EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE, dailyA8, exposureStatus } from '../physics/exposure';
+import { mailRepository, type QueuedMail } from '../mail/repository';
+import { esc } from '../mail/templates';
+
+export const EXPOSURE_CAUTION =
+  'A screening estimate from a model of the vehicle floor above the front axle, not a measurement at the seat. Follow your local regulations and have a competent person assess drivers’ exposure before acting on it.';
+
+export const EXPOSURE_METHOD =
+  'Front-axle corners of each trip (the driver sits over the front axle): a_w = √((a_FL² + a_FR²)/2), T = trip duration; A(8) = √(Σ a_w²·T / 8 h) (Directive 2002/44/EC, vertical, k = 1).';
+
+/** Days of history the nightly step recomputes (trips imported late land in this window). */
+export const EXPOSURE_WINDOW_DAYS = 60;
+/** Exceedances older than this are recorded but not mailed (a first run would mail months of history). */
+export const EXPOSURE_MAIL_DAYS = 7;
+
+export interface ExposurePart {
+  tripId: number;
+  vehicleId: number;
+  routeId: number;
+  /** Front-axle weighted RMS over the trip [m/s²]. */
+  aw: number;
+  /** Duration [h]. */
+  hours: number;
+}
+
+export interface ExposureDayValue {
+  driverId: number;
+  day: string;
+  a8: number;
+  hours: number;
+  trips: number;
+  maxWeightedAccel: number;
+  status: string;
+  parts: ExposurePart[];
+}
+
+export interface FrontDutyRow {
+  tripId: number;
+  driverId: number;
+  vehicleId: number;
+  routeId: number;
+  day: string;
+  durationS: number;
+  rmsWeightedAccel: number;
+}
+
+const plusDays = (day: string, n: number) => new Date(Date.parse(`${day}T00:00:00Z`) + n * 86_400_000).toISOString().slice(0, 10);
+const r4 = (x: number) => Math.round(x * 1e4) / 1e4;
+
+/** Driver-days from front-axle duty rows (pure). */
+export function exposureDays(rows: readonly FrontDutyRow[]): ExposureDayValue[] {
+  const trips = new Map<number, { row: FrontDutyRow; sumSq: number; n: number }>();
+  for (const r of rows) {
+    const t = trips.get(r.tripId) ?? { row: r, sumSq: 0, n: 0 };
+    t.sumSq += r.rmsWeightedAccel * r.rmsWeightedAccel;
+    t.n += 1;
+    trips.set(r.tripId, t);
+  }
+  const days = new Map<string, ExposurePart[]>();
+  const dayKey = (d: number, day: string) => `${d}|${day}`;
+  for (const { row, sumSq, n } of trips.values()) {
+    const part: ExposurePart = { tripId: row.tripId, vehicleId: row.vehicleId, routeId: row.routeId, aw: Math.sqrt(sumSq / n), hours: Math.min(24, Math.max(0, row.durationS / 3600)) };
+    const k = dayKey(row.driverId, row.day);
+    days.set(k, [...(days.get(k) ?? []), part]);
+  }
+  const out: ExposureDayValue[] = [];
+  for (const [k, parts] of days) {
+    const [driverId, day] = k.split('|');
+    parts.sort((a, b) => a.tripId - b.tripId);
+    const a8 = dailyA8(parts.map((p) => ({ weightedAccel: p.aw, hours: p.hours })));
+    out.push({
+      driverId: Number(driverId),
+      day,
+      a8,
+      hours: parts.reduce((s, p) => s + p.hours, 0),
+      trips: parts.length,
+      maxWeightedAccel: Math.max(...parts.map((p) => p.aw)),
+      status: exposureStatus(a8),
+      parts: parts.map((p) => ({ ...p, aw: r4(p.aw), hours: r4(p.hours) })),
+    });
+  }
+  return out.sort((a, b) => a.driverId - b.driverId || a.day.localeCompare(b.day));
+}
+
+/**
+ * The nightly step: recomputes every driver-day of the last {@link EXPOSURE_WINDOW_DAYS} days up
+ * to `asOf` from `trip_duties`, and queues one e-mail per manager listing days newly above the
+ * action value (de-duplicated; marked in the same transaction). Idempotent.
+ */
+export async function refreshExposure(ctx: { sequelize: Sequelize; now: Date; asOf: string; publicUrl: string; runId: number | null }) {
+  const from = plusDays(ctx.asOf, -EXPOSURE_WINDOW_DAYS);
+  const { sequelize } = ctx;
+  return sequelize.transaction(async (transaction) => {
+    const rows = await sequelize.query<{ trip_id: number; driver_id: number; vehicle_id: number; route_id: number; trip_date: string; duration_s: number; rms_weighted_accel: number }>(
+      `SELECT trip_id, driver_id, vehicle_id, route_id, trip_date, duration_s, rms_weighted_accel FROM trip_duties
+       WHERE axle_index = 0 AND driver_id IS NOT NULL AND trip_date >= ? AND trip_date <= ?`,
+      { replacements: [from, ctx.asOf], type: QueryTypes.SELECT, transaction },
+    );
+    const days = exposureDays(rows.map((r) => ({ tripId: r.trip_id, driverId: r.driver_id, vehicleId: r.vehicle_id, routeId: r.route_id, day: r.trip_date, durationS: r.duration_s, rmsWeightedAccel: r.rms_weighted_accel })));
+    const existing = await sequelize.query<{ driver_id: number; day: string; notified_at: string | null }>(
+      `SELECT driver_id, day, notified_at FROM driver_exposure_days WHERE day >= ? AND day <= ?`,
+      { replacements: [from, ctx.asOf], type: QueryTypes.SELECT, transaction },
+    );
+    const notified = new Map(existing.map((e) => [`${e.driver_id}|${e.day}`, e.notified_at]));
+    await sequelize.query(`DELETE FROM driver_exposure_days WHERE day >= ? AND day <= ?`, { replacements: [from, ctx.asOf], transaction });
+    const nowText = ctx.now.toISOString();
+    for (let i = 0; i < days.length; i += 200) {
+      const chunk = days.slice(i, i + 200);
+      await sequelize.query(
+        `INSERT INTO driver_exposure_days (driver_id, day, a8, hours, trips, max_weighted_accel, status, parts, computed_at, notified_at) VALUES ${chunk.map(() => '(?,?,?,?,?,?,?,?,?,?)').join(',')}`,
+        {
+          replacements: chunk.flatMap((d) => [d.driverId, d.day, d.a8, d.hours, d.trips, d.maxWeightedAccel, d.status, JSON.stringify(d.parts), nowText, notified.get(`${d.driverId}|${d.day}`) ?? null]),
+          transaction,
+        },
+      );
+    }
+
+    // Mail managers about days newly above the action value.
+    const fresh = await sequelize.query<{ driver_id: number; day: string; a8: number; hours: number; name: string; depot_id: number | null }>(
+      `SELECT e.driver_id, e.day, e.a8, e.hours, u.name, u.depot_id FROM driver_exposure_days e JOIN users u ON u.id = e.driver_id
+       WHERE e.a8 > ? AND e.notified_at IS NULL ORDER BY e.day, u.name`,
+      { replacements: [EXPOSURE_ACTION_VALUE], type: QueryTypes.SELECT, transaction },
+    );
+    const mailFrom = plusDays(ctx.asOf, -EXPOSURE_MAIL_DAYS);
+    const toMail = fresh.filter((f) => f.day > mailFrom);
+    const managers = await sequelize.query<{ id: number; name: string; email: string; depot_id: number | null }>(
+      `SELECT id, name, email, depot_id FROM users WHERE role = 'manager' AND active = 1 ORDER BY id`,
+      { type: QueryTypes.SELECT, transaction },
+    );
+    const mails: QueuedMail[] = [];
+    for (const m of managers) {
+      const mine = toMail.filter((f) => m.depot_id === null || f.depot_id === null || f.depot_id === m.depot_id);
+      if (!mine.length) continue;
+      const keys = mine.map((f) => `${f.driver_id}:${f.day}`).join(',');
+      const body = exposureMail(m.name, mine, ctx.publicUrl);
+      mails.push({ dedupeKey: `exposure:${m.id}:${createHash('sha256').update(keys).digest('hex').slice(0, 16)}`, kind: 'note', userId: m.id, toAddress: m.email, subject: body.subject, textBody: body.text, htmlBody: body.html, jobRunId: ctx.runId });
+    }
+    const queued = await mailRepository.queue(mails, ctx.now, transaction);
+    for (const f of fresh) {
+      await sequelize.query(`UPDATE driver_exposure_days SET notified_at = ? WHERE driver_id = ? AND day = ?`, { replacements: [nowText, f.driver_id, f.day], transaction });
+    }
+    return { exposureDays: days.length, exposureDaysAboveAction: days.filter((d) => d.a8 > EXPOSURE_ACTION_VALUE).length, exposureMailsQueued: queued };
+  });
+}
+
+function exposureMail(name: string, days: { name: string; day: string; a8: number; hours: number }[], publicUrl: string) {
+  const subject = `Driver vibration: ${days.length} day${days.length === 1 ? '' : 's'} above the action value of ${EXPOSURE_ACTION_VALUE} m/s²`;
+  const line = (d: (typeof days)[number]) =>
+    `${d.name}, ${d.day}: A(8) ${d.a8.toFixed(2)} m/s² over ${d.hours.toFixed(1)} h${d.a8 > EXPOSURE_LIMIT_VALUE ? ` — above the limit value of ${EXPOSURE_LIMIT_VALUE} m/s²` : ''}`;
+  const url = `${publicUrl}/exposure`;
+  const text = [`Hello ${name},`, '', `These drivers' estimated daily exposure exceeded the action value (Directive 2002/44/EC):`, '', ...days.map((d) => `- ${line(d)}`), '', `Details: ${url}`, '', EXPOSURE_CAUTION].join('\n');
+  const html =
+    `<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#1E2A32;background:#FAF8F3;padding:24px"><div style="max-width:640px;margin:0 auto;background:#fff;border:1px solid #d8d4ca;border-radius:8px;padding:24px">` +
+    `<p style="margin:0 0 4px;font-weight:600;color:#D9622B">Reboundry</p><h1 style="font-size:20px;margin:0 0 16px">${esc(subject)}</h1><p>Hello ${esc(name)},</p>` +
+    `<p>These drivers' estimated daily exposure exceeded the action value (Directive 2002/44/EC):</p><ul>${days.map((d) => `<li>${esc(line(d))}</li>`).join('')}</ul>` +
+    `<p><a href="${esc(url)}" style="color:#D9622B">Open driver exposure</a></p><p style="font-size:13px;color:#5B6B73">${esc(EXPOSURE_CAUTION)}</p></div></body></html>`;
+  return { subject, text, html };
+}

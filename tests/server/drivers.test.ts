@@ -1,0 +1,331 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { QueryTypes } from 'sequelize';
+import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
+import { ApiClient, DEMO } from '../support/client';
+import { snapToSegments } from '../../server/drivers/snap';
+import { currentValue } from '../../server/roads/current-roughness';
+import { classifyGd, gdForClass } from '../../server/physics/iso8608';
+import { iriFromGd } from '../../server/physics/iri';
+import { prepareDuty, dutyOnRoad } from '../../server/physics/closed-form';
+import { refreshExposure } from '../../server/drivers/exposure';
+import { adviseSpeed, prepareSpec } from '../../server/drivers/speed-advice';
+import { queueDigests } from '../../server/mail/service';
+import type { LonLat } from '../../server/roads/geometry';
+
+let srv: TestServer;
+let manager: ApiClient;
+let driver: ApiClient;
+let other: ApiClient;
+let driverId: number;
+let otherId: number;
+
+/** A 1×1 PNG (the smallest valid image). */
+const PNG = Buffer.from('89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d4944415478da63f8cfc0f01f0005000201a0e7d6a90000000049454e44ae426082', 'hex');
+
+async function q<T extends object>(sql: string, replacements: unknown[] = []) {
+  return srv.db.sequelize.query<T>(sql, { replacements, type: QueryTypes.SELECT });
+}
+
+beforeAll(async () => {
+  srv = await startTestServer();
+  manager = new ApiClient(srv.url);
+  driver = new ApiClient(srv.url);
+  other = new ApiClient(srv.url);
+  await manager.login(DEMO.manager);
+  driverId = (await driver.login(DEMO.driver)).body.user.id;
+  otherId = (await other.login('priya.nandakumar@reboundry.test')).body.user.id;
+});
+afterAll(() => srv?.stop());
+
+/** A point `offsetM` metres off the middle of a segment's first edge, at right angles to it. */
+async function pointNear(segmentId: number, offsetM: number) {
+  const [s] = await q<{ geometry: string }>('SELECT geometry FROM route_segments WHERE id = ?', [segmentId]);
+  const all = JSON.parse(s.geometry) as LonLat[];
+  // the first edge of non-zero length (a segment may start on a vertex of the route line)
+  const i = all.findIndex((p, k) => k > 0 && (p[0] !== all[k - 1][0] || p[1] !== all[k - 1][1]));
+  const c = [all[i - 1], all[i]];
+  const mid: LonLat = [(c[0][0] + c[1][0]) / 2, (c[0][1] + c[1][1]) / 2];
+  const mPerDegLat = 111_195;
+  const mPerDegLon = mPerDegLat * Math.cos((mid[1] * Math.PI) / 180);
+  const dx = (c[1][0] - c[0][0]) * mPerDegLon;
+  const dy = (c[1][1] - c[0][1]) * mPerDegLat;
+  const len = Math.hypot(dx, dy);
+  return { lat: mid[1] + ((dx / len) * offsetM) / mPerDegLat, lon: mid[0] - ((dy / len) * offsetM) / mPerDegLon };
+}
+
+function fileReport(client: ApiClient, fields: Record<string, string>, photo?: { buf: Buffer; name: string; type: string }) {
+  const form = new FormData();
+  for (const [k, v] of Object.entries(fields)) form.set(k, v);
+  if (photo) form.set('photo', new Blob([new Uint8Array(photo.buf)], { type: photo.type }), photo.name);
+  return client.raw('POST', '/api/ride-reports', { form });
+}
+
+describe('snapping to the nearest segment', () => {
+  it('when a point lies 0.0009° north of one line and farther from another, then it snaps to the nearer at ≈ 100 m (computed: 0.0009° × 111 195 m/°)', () => {
+    const lines = [
+      { id: 1, coords: [[-0.01, 0], [0.01, 0]] as LonLat[] },
+      { id: 2, coords: [[-0.01, 0.003], [0.01, 0.003]] as LonLat[] },
+    ];
+    const hit = snapToSegments([0.002, 0.0009], lines)!;
+    expect(hit.segmentId).toBe(1);
+    expect(hit.distanceM).toBeCloseTo(100.08, 0);
+    expect(hit.point[0]).toBeCloseTo(0.002, 9);
+    expect(hit.point[1]).toBeCloseTo(0, 9);
+    // past the end of a line the nearest point is its end vertex
+    const end = snapToSegments([0.0109, 0], lines)!;
+    expect(end.point[0]).toBeCloseTo(0.01, 9);
+  });
+
+  it('when a driver asks for a place 40 m off a demo segment, then it snaps to that segment and says how far', async () => {
+    const [seg] = await q<{ id: number }>('SELECT id FROM route_segments ORDER BY id LIMIT 1 OFFSET 25');
+    const p = await pointNear(seg.id, 40);
+    const r = await driver.json<{ segment: { id: number }; distanceM: number }>('POST', '/api/ride-reports/snap', p);
+    expect(r.status).toBe(200);
+    expect(r.body.segment.id).toBe(seg.id);
+    expect(r.body.distanceM).toBeCloseTo(40, 0);
+  });
+
+  it('when the place is farther than 150 m from every route, then it is refused with the distance', async () => {
+    const r = await driver.json<{ error: { code: string; message: string; fields: Record<string, string> } }>('POST', '/api/ride-reports/snap', { lat: 10, lon: 10 });
+    expect(r.status).toBe(422);
+    expect(r.body.error.code).toBe('too_far');
+    expect(r.body.error.fields.position).toMatch(/at most 150 m/);
+  });
+});
+
+describe('ride reports: filing, access, decisions', () => {
+  let segId: number;
+  let reportId: number;
+
+  it('when a driver files a report with a photo, then it is stored snapped to the segment with the photo under DATA_DIR', async () => {
+    // a surveyed segment, so the blend of report and survey can be checked below
+    const [seg] = await q<{ id: number }>(`SELECT id FROM route_segments WHERE roughness_source = 'survey' ORDER BY id LIMIT 1 OFFSET 10`);
+    segId = seg.id;
+    const p = await pointNear(segId, 12);
+    const res = await fileReport(driver, { lat: String(p.lat), lon: String(p.lon), positionSource: 'gps', accuracyM: '8', severity: '3', felt: 'bottoming,knock', note: 'Deep hole by the farm gate' }, { buf: PNG, name: 'pothole.png', type: 'image/png' });
+    const body = (await res.json()) as { id: number; segmentId: number; hasPhoto: boolean; photoType: string; status: string; snapDistanceM: number; felt: string[] };
+    expect(res.status).toBe(201);
+    expect(body.segmentId).toBe(segId);
+    expect(body.hasPhoto).toBe(true);
+    expect(body.photoType).toBe('image/png');
+    expect(body.status).toBe('new');
+    expect(body.felt).toEqual(['bottoming', 'knock']);
+    reportId = body.id;
+    const photo = await driver.raw('GET', `/api/ride-reports/${reportId}/photo`);
+    expect(photo.status).toBe(200);
+    expect(photo.headers.get('content-type')).toBe('image/png');
+    expect(Buffer.from(await photo.arrayBuffer()).equals(PNG)).toBe(true);
+  });
+
+  it('when the photo is not an image (whatever its name says), then the report is refused naming the photo and nothing is stored', async () => {
+    const before = await q<{ n: number }>('SELECT COUNT(*) AS n FROM ride_reports');
+    const p = await pointNear(segId, 5);
+    const res = await fileReport(driver, { lat: String(p.lat), lon: String(p.lon), positionSource: 'map', severity: '1' }, { buf: Buffer.from('not really a picture'), name: 'fake.jpg', type: 'image/jpeg' });
+    const body = (await res.json()) as { error: { fields: Record<string, string> } };
+    expect(res.status).toBe(400);
+    expect(body.error.fields.photo).toMatch(/JPEG, PNG or WebP/);
+    expect((await q<{ n: number }>('SELECT COUNT(*) AS n FROM ride_reports'))[0].n).toBe(before[0].n);
+  });
+
+  it('when a field is wrong, then the error names it', async () => {
+    const res = await fileReport(driver, { lat: '91', lon: 'x', positionSource: 'gps', severity: '7', felt: 'wobbly' });
+    const body = (await res.json()) as { error: { fields: Record<string, string> } };
+    expect(res.status).toBe(400);
+    expect(Object.keys(body.error.fields)).toEqual(expect.arrayContaining(['lat', 'lon', 'severity']));
+    expect(Object.keys(body.error.fields).some((k) => k.startsWith('felt'))).toBe(true);
+  });
+
+  it('when another driver asks for the report, its photo or the first driver\'s list, then they get nothing of it', async () => {
+    expect((await other.get(`/api/ride-reports/${reportId}`)).status).toBe(404);
+    expect((await other.raw('GET', `/api/ride-reports/${reportId}/photo`)).status).toBe(404);
+    expect((await other.get(`/api/ride-reports?driverId=${driverId}`)).status).toBe(403);
+    const own = await other.get<{ items: { driverId: number }[] }>('/api/ride-reports');
+    expect(own.body.items.every((r) => r.driverId === otherId)).toBe(true);
+    const mine = await driver.get<{ items: { id: number }[] }>('/api/ride-reports');
+    expect(mine.body.items.map((r) => r.id)).toContain(reportId);
+  });
+
+  it('when two drivers report the same segment, then the manager sees one group with both', async () => {
+    const p = await pointNear(segId, 20);
+    const res = await fileReport(other, { lat: String(p.lat), lon: String(p.lon), positionSource: 'map', severity: '2', felt: 'shaking' });
+    expect(res.status).toBe(201);
+    const groups = await manager.get<{ items: { segmentId: number; count: number; maxSeverity: number; reportIds: number[] }[] }>('/api/ride-reports/by-segment');
+    const g = groups.body.items.find((x) => x.segmentId === segId)!;
+    expect(g.count).toBe(2);
+    expect(g.maxSeverity).toBe(3);
+    expect(g.reportIds).toContain(reportId);
+  });
+
+  it('when a severe report is new, then the manager digest lists it once', async () => {
+    await queueDigests({ sequelize: srv.db.sequelize, publicUrl: 'http://app.test', asOf: '2026-11-30', now: TEST_NOW, runId: null });
+    const mails = await q<{ text_body: string }>(`SELECT text_body FROM mail_messages WHERE kind = 'digest' AND to_address = ?`, [DEMO.manager]);
+    expect(mails.some((m) => m.text_body.includes('Severe ride reports from drivers') && m.text_body.includes(`/ride-reports?report=${reportId}`))).toBe(true);
+    const [r] = await q<{ digest_notified_at: string | null }>('SELECT digest_notified_at FROM ride_reports WHERE id = ?', [reportId]);
+    expect(r.digest_notified_at).not.toBeNull();
+  });
+
+  it('when the manager accepts a severe report, then it becomes a driver_report observation weighted half a survey, the segment changes and the driver is told', async () => {
+    const [before] = await q<{ gd_n0: number; iso_class: string }>('SELECT gd_n0, iso_class FROM route_segments WHERE id = ?', [segId]);
+    expect((await manager.json('POST', `/api/ride-reports/${reportId}/accept`, {})).status).toBe(400);
+    const r = await manager.json<{ report: { status: string; estimatedClass: string; classBefore: string }; segmentAfter: { isoClass: string; gdN0: number; roughnessSource: string } }>('POST', `/api/ride-reports/${reportId}/accept`, { confirm: true });
+    expect(r.status).toBe(200);
+    expect(r.body.report.status).toBe('accepted');
+    // severe = 3 class steps above the current class (our stated assumption)
+    const letters = 'ABCDEFGH';
+    const est = letters[Math.min(7, letters.indexOf(before.iso_class) + 3)];
+    expect(r.body.report.estimatedClass).toBe(est);
+    // computed: ln Gd = (1·ln Gd_survey + 0.5·ln Gd_report) / 1.5
+    const expected = Math.exp((Math.log(before.gd_n0) + 0.5 * Math.log(gdForClass(est))) / 1.5);
+    expect(r.body.segmentAfter.gdN0).toBeCloseTo(expected, 12);
+    expect(r.body.segmentAfter.isoClass).toBe(classifyGd(expected));
+    expect(r.body.segmentAfter.roughnessSource).toBe('driver_report');
+    expect(r.body.segmentAfter.gdN0).toBeGreaterThan(before.gd_n0);
+    const obs = await q<{ source: string }>(`SELECT source FROM roughness_observations WHERE segment_id = ? ORDER BY id DESC LIMIT 1`, [segId]);
+    expect(obs[0].source).toBe('driver_report');
+    const mail = await q<{ to_address: string; subject: string }>(`SELECT to_address, subject FROM mail_messages WHERE dedupe_key = ?`, [`ride-report:${reportId}:accepted`]);
+    expect(mail).toHaveLength(1);
+    expect(mail[0].to_address).toBe(DEMO.driver);
+    const seen = await driver.get<{ status: string }>(`/api/ride-reports/${reportId}`);
+    expect(seen.body.status).toBe('accepted');
+    // a second decision is refused
+    expect((await manager.json('POST', `/api/ride-reports/${reportId}/dismiss`, { reason: 'changed my mind' })).status).toBe(409);
+  });
+
+  it('when the manager dismisses a report, then a reason is required, the driver sees it and is told only if they want e-mail', async () => {
+    const list = await manager.get<{ items: { id: number; driverId: number }[] }>(`/api/ride-reports?status=new&segmentId=${segId}`);
+    const id = list.body.items[0].id;
+    await srv.db.sequelize.query('UPDATE users SET notify_ride_reports = 0 WHERE id = ?', { replacements: [otherId] });
+    const bad = await manager.json<{ error: { fields: Record<string, string> } }>('POST', `/api/ride-reports/${id}/dismiss`, { reason: '' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.reason).toBeTruthy();
+    const ok = await manager.json<{ report: { status: string; dismissReason: string } }>('POST', `/api/ride-reports/${id}/dismiss`, { reason: 'Resurfaced last week' });
+    expect(ok.body.report.status).toBe('dismissed');
+    const seen = await other.get<{ status: string; dismissReason: string }>(`/api/ride-reports/${id}`);
+    expect(seen.body).toMatchObject({ status: 'dismissed', dismissReason: 'Resurfaced last week' });
+    expect(await q(`SELECT id FROM mail_messages WHERE dedupe_key = ?`, [`ride-report:${id}:dismissed`])).toHaveLength(0);
+  });
+});
+
+describe('the current-value rule with drivers\' reports', () => {
+  const gd = (c: string) => gdForClass(c);
+  it('when a survey is newer than a report, or on the same day, then the survey alone is current', () => {
+    const obs = [
+      { id: 1, source: 'driver_report' as const, observedOn: '2026-03-01', gdN0: gd('E'), iri: null, isoClass: 'E' },
+      { id: 2, source: 'survey' as const, observedOn: '2026-03-01', gdN0: gd('B'), iri: 2, isoClass: 'B', surveyId: 7 },
+    ];
+    expect(currentValue(obs, classifyGd, iriFromGd)).toMatchObject({ source: 'survey', isoClass: 'B', surveyId: 7, blendedReports: 0 });
+  });
+  it('when two reports follow a stated class B, then they pull it with half weight each (computed: ln Gd = (ln 64 + 0.5 ln 1024 + 0.5 ln 1024)/2 → Gd = 256e-6, class C)', () => {
+    const obs = [
+      { id: 1, source: 'stated' as const, observedOn: '2026-01-01', gdN0: gd('B'), iri: null, isoClass: 'B' },
+      { id: 2, source: 'driver_report' as const, observedOn: '2026-02-01', gdN0: gd('D'), iri: null, isoClass: 'D' },
+      { id: 3, source: 'driver_report' as const, observedOn: '2026-02-03', gdN0: gd('D'), iri: null, isoClass: 'D' },
+    ];
+    const v = currentValue(obs, classifyGd, iriFromGd)!;
+    expect(v.gdN0).toBeCloseTo(256e-6, 15);
+    expect(v.isoClass).toBe('C');
+    expect(v).toMatchObject({ source: 'driver_report', observedOn: '2026-02-03', blendedReports: 2 });
+  });
+});
+
+describe('exposure A(8) from the nightly duty', () => {
+  it('when a driver has several trips in a day, then A(8) follows the directive\'s formula on the front axle (hand-worked)', async () => {
+    const trips = await q<{ id: number; vehicle_id: number; route_id: number }>('SELECT id, vehicle_id, route_id FROM trips WHERE driver_id = ? ORDER BY id LIMIT 3', [driverId]);
+    expect(trips).toHaveLength(3);
+    await srv.db.sequelize.query('DELETE FROM trip_duties');
+    const duty = (t: (typeof trips)[number], day: string, position: string, axle: number, aw: number, durationS: number) =>
+      srv.db.sequelize.query(
+        `INSERT INTO trip_duties (trip_id, vehicle_id, route_id, driver_id, position, axle_index, trip_date, distance_km, duration_s, sprung_mass_kg, energy_j, mean_power_w, rms_relative_velocity, rms_suspension_travel, rms_tire_load_ratio, rms_body_accel, rms_weighted_accel, spring_damage, segments, profiled_segments, unrated_segments, created_at, updated_at)
+         VALUES (?, ?, ?, ?, ?, ?, ?, 50, ?, 400, 1, 1, 0.1, 0.01, 0.1, 1, ?, 0, 1, 0, 0, ?, ?)`,
+        { replacements: [t.id, t.vehicle_id, t.route_id, driverId, position, axle, day, durationS, aw, TEST_NOW.toISOString(), TEST_NOW.toISOString()] },
+      );
+    // Day 1, trip A: FL = FR = 0.6 m/s² for 2 h; trip B: FL 0.5, FR 0.3 m/s² for 3 h; rear axle 2.0 m/s² (ignored: the driver sits over the front axle)
+    await duty(trips[0], '2026-11-20', 'FL', 0, 0.6, 7200);
+    await duty(trips[0], '2026-11-20', 'FR', 0, 0.6, 7200);
+    await duty(trips[0], '2026-11-20', 'RL', 1, 2.0, 7200);
+    await duty(trips[1], '2026-11-20', 'FL', 0, 0.5, 10800);
+    await duty(trips[1], '2026-11-20', 'FR', 0, 0.3, 10800);
+    await duty(trips[1], '2026-11-20', 'RR', 1, 2.0, 10800);
+    // Day 2: one trip at 0.9 m/s² for 6 h
+    await duty(trips[2], '2026-11-27', 'FL', 0, 0.9, 21600);
+    await duty(trips[2], '2026-11-27', 'FR', 0, 0.9, 21600);
+
+    const res1 = await refreshExposure({ sequelize: srv.db.sequelize, now: TEST_NOW, asOf: '2026-11-30', publicUrl: 'http://app.test', runId: null });
+    expect(res1).toMatchObject({ exposureDays: 2, exposureDaysAboveAction: 1 });
+    const r = await driver.get<{ days: { day: string; a8: number; hours: number; trips: number; status: string }[]; actionValue: number; limitValue: number; caution: string }>('/api/exposure?from=2026-11-01&to=2026-11-30');
+    expect(r.status).toBe(200);
+    expect(r.body.actionValue).toBe(0.5); // Directive 2002/44/EC Art. 3(2)(b)
+    expect(r.body.limitValue).toBe(1.15); // Directive 2002/44/EC Art. 3(2)(a)
+    expect(r.body.caution).toMatch(/not a measurement at the seat/);
+    const [d1, d2] = r.body.days;
+    // Trip A: a_w = √((0.36 + 0.36)/2) = 0.6, T = 2 h → a_w²·T = 0.72
+    // Trip B: a_w = √((0.25 + 0.09)/2) = √0.17 = 0.41231, T = 3 h → 0.17 × 3 = 0.51
+    // A(8) = √((0.72 + 0.51)/8) = √0.15375 = 0.39211 m/s²
+    expect(d1).toMatchObject({ day: '2026-11-20', trips: 2, status: 'within-action-value' });
+    expect(d1.a8).toBeCloseTo(0.39211, 5);
+    expect(d1.hours).toBeCloseTo(5, 9);
+    // Day 2: A(8) = 0.9 × √(6/8) = √(0.81 × 6 / 8) = √0.6075 = 0.77942 m/s² — above the action value
+    expect(d2.a8).toBeCloseTo(0.77942, 5);
+    expect(d2.status).toBe('exceeds-action-value');
+
+    const mail = await q<{ subject: string; text_body: string }>(`SELECT subject, text_body FROM mail_messages WHERE dedupe_key LIKE 'exposure:%' AND to_address = ?`, [DEMO.manager]);
+    expect(mail).toHaveLength(1);
+    expect(mail[0].text_body).toMatch(/2026-11-27: A\(8\) 0\.78 m\/s²/);
+    // a rerun changes nothing and mails nothing new
+    const res2 = await refreshExposure({ sequelize: srv.db.sequelize, now: TEST_NOW, asOf: '2026-11-30', publicUrl: 'http://app.test', runId: null });
+    expect(res2.exposureMailsQueued).toBe(0);
+
+    const over = await manager.get<{ daysAbove: { driverId: number; day: string }[]; routes: { id: number; sharePct: number }[]; vehicles: { id: number }[] }>('/api/exposure/overview?from=2026-11-01&to=2026-11-30');
+    expect(over.body.daysAbove).toEqual([expect.objectContaining({ driverId, day: '2026-11-27' })]);
+    expect(over.body.routes[0].id).toBe(trips[2].route_id);
+    expect(over.body.routes.reduce((s, x) => s + x.sharePct, 0)).toBeCloseTo(100, 6);
+  });
+
+  it('when a driver asks for another driver\'s exposure, then it is refused; the manager must name a driver', async () => {
+    expect((await driver.get(`/api/exposure?driverId=${otherId}`)).status).toBe(403);
+    expect((await other.get(`/api/exposure?driverId=${driverId}`)).status).toBe(403);
+    expect((await manager.get(`/api/exposure?driverId=${driverId}&from=2026-11-01`)).status).toBe(200);
+    expect((await manager.get('/api/exposure')).status).toBe(400);
+  });
+});
+
+describe('speed advice', () => {
+  const axles = [
+    { axleIndex: 0, label: 'front', corner: { sprungMassKg: 430, unsprungMassKg: 46, springRateNPerM: 32000, dampingNsPerM: 2400, tireRateNPerM: 260000 } },
+    { axleIndex: 1, label: 'rear', corner: { sprungMassKg: 360, unsprungMassKg: 55, springRateNPerM: 38000, dampingNsPerM: 2500, tireRateNPerM: 270000 } },
+  ];
+  const spec = prepareSpec(axles);
+
+  it('when the road is rougher, then the advised speed is lower (computed, classes B to F)', () => {
+    const speeds = ['B', 'C', 'D', 'E', 'F'].map((c) => adviseSpeed(spec, gdForClass(c), 0.63, 150).advisedKmh!);
+    for (let i = 1; i < speeds.length; i++) expect(speeds[i], `class ${'BCDEF'[i]} vs ${'BCDEF'[i - 1]}: ${speeds}`).toBeLessThanOrEqual(speeds[i - 1]);
+    expect(speeds[4]).toBeLessThan(speeds[1]);
+  });
+
+  it('when the advice is limited by comfort, then a fresh closed-form solve at that speed gives the comfort limit (computed)', () => {
+    const gd = gdForClass('D');
+    const a = adviseSpeed(spec, gd, 0.63, 5000);
+    expect(a.limitedBy).toBe('comfort');
+    const aw = dutyOnRoad(prepareDuty(axles[0].corner, a.comfortKmh! / 3.6), gd).rmsWeightedAccel;
+    expect(aw).toBeCloseTo(0.63, 9);
+    const b = adviseSpeed(spec, gd, 5, 40);
+    expect(b.limitedBy).toBe('damper power');
+    const p = Math.max(...axles.map((x) => dutyOnRoad(prepareDuty(x.corner, b.powerKmh! / 3.6), gd).damperPowerW));
+    expect(p).toBeCloseTo(40, 6);
+  });
+
+  it('when the API is asked for a route, then every rated segment gets advice, rougher segments never faster, with the caution', async () => {
+    const r = await driver.get<{ segments: { gdN0: number | null; advisedKmh: number | null }[]; chart: { points: { speedKmh: number; weightedAccel: number; damperPowerW: number }[] }; caution: string }>('/api/routes/1/speed-advice?comfort=fairly&powerLimitW=200');
+    expect(r.status).toBe(200);
+    expect(r.body.caution).toMatch(/Posted limits/);
+    const rated = r.body.segments.filter((s) => s.gdN0 !== null);
+    expect(rated.length).toBeGreaterThan(0);
+    const sorted = [...rated].sort((a, b) => a.gdN0! - b.gdN0!);
+    for (let i = 1; i < sorted.length; i++) expect(sorted[i].advisedKmh!).toBeLessThanOrEqual(sorted[i - 1].advisedKmh!);
+    const pts = r.body.chart.points;
+    for (let i = 1; i < pts.length; i++) expect(pts[i].damperPowerW).toBeGreaterThan(pts[i - 1].damperPowerW);
+    const bad = await driver.get<{ error: { fields: Record<string, string> } }>('/api/routes/1/speed-advice?comfort=bumpy');
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.comfort).toBeTruthy();
+  });
+});
