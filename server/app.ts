@@ -19,6 +19,9 @@ import { registerRoadRoutes } from './roads/routes';
 import { registerTripRoutes } from './trips/routes';
 import { registerTiles } from './tiles/tiles';
 import { registerWorkshopRoutes } from './workshop/routes';
+import { registerRideReportRoutes } from './drivers/ride-reports-routes';
+import { registerExposureRoutes } from './drivers/exposure-routes';
+import { registerSpeedAdviceRoutes } from './drivers/speed-advice-routes';
 import type { Mailer } from './mail/mailer';
 import { registerMailRoutes } from './mail/routes';
 import { registerJobRoutes } from './jobs/routes';
@@ -108,6 +111,10 @@ export function createApp(deps: AppDeps): BuiltApp {
   registerFleetWriteRoutes(api, deps.now ?? (() => new Date()));
   registerRoadRoutes(api, { config, now: deps.now ?? (() => new Date()) });
   registerTripRoutes(api, { now: deps.now ?? (() => new Date()) });
+  // issue 7: drivers
+  registerRideReportRoutes(api, { now: deps.now ?? (() => new Date()), dataDir: config.dataDir, publicUrl: config.publicUrl, log, mailer: deps.mailer ?? null });
+  registerExposureRoutes(api, { now: deps.now ?? (() => new Date()), timeZone: config.timeZone });
+  registerSpeedAdviceRoutes(api);
   registerJobRoutes(api, { config, db, log, mailer: deps.mailer ?? null, now: deps.now ?? (() => new Date()) });
   registerInspectionRoutes(api, { sequelize: db.sequelize, config, now: deps.now ?? (() => new Date()) });
   registerWearRoutes(api, { sequelize: db.sequelize, config });

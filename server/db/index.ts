@@ -7,7 +7,9 @@ import * as m0001 from './migrations/0001-initial';
 import * as m0002 from './migrations/0002-roads-and-imports';
 import * as m0003 from './migrations/0003-nightly-duty';
 import * as m0004 from './migrations/0004-workshop';
+import * as m0005 from './migrations/0005-drivers';
 import { initNightlyModels } from './nightly-models';
+import { initDriverModels } from './driver-models';
 
 export interface Db {
   sequelize: Sequelize;
@@ -21,6 +23,7 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
   { name: '0002-roads-and-imports', up: m0002.up, down: m0002.down },
   { name: '0003-nightly-duty', up: m0003.up, down: m0003.down },
   { name: '0004-workshop', up: m0004.up, down: m0004.down },
+  { name: '0005-drivers', up: m0005.up, down: m0005.down },
 ];
 
 /**
@@ -55,6 +58,7 @@ export async function openDb(file: string, opts: { log?: (sql: string) => void }
   await sequelize.query('PRAGMA synchronous = NORMAL');
   initModels(sequelize);
   initNightlyModels(sequelize);
+  initDriverModels(sequelize);
   return { sequelize, file, close: () => sequelize.close() };
 }
 
