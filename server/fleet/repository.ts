@@ -217,6 +217,7 @@ export const fleetRepository = {
         removalReason: d.removalReason ?? null,
         lifeUsedFraction: d.lifeUsedFraction,
         dampingNsPerM: d.dampingNsPerM ?? null,
+        wearUpdatedAt: d.wearUpdatedAt ? new Date(d.wearUpdatedAt).toISOString() : null,
         distanceKm: (d.removedOdometerKm ?? vehicle.odometerKm) - d.installedOdometerKm,
       })),
       recentTrips: trips.map((t) => {
