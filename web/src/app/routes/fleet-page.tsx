@@ -1,4 +1,8 @@
+import { useState } from 'react';
 import { Link } from 'react-router';
+import { Button } from '@/components/ui/button';
+import { type Depot, useDepots } from '@/features/depots/api/get-depots';
+import { DepotFormDialog } from '@/features/depots/components/depot-form';
 import { ButtonLink } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/empty-state';
 import { ErrorState } from '@/components/ui/error-state';
@@ -7,7 +11,6 @@ import { LoadingState } from '@/components/ui/loading-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { Section } from '@/components/ui/section';
 import { StatusShape } from '@/components/ui/status-badge';
-import { useDepots } from '@/features/depots/api/get-depots';
 import { DepotsTable } from '@/features/depots/components/depots-table';
 import { VEHICLE_STATUSES } from '@/features/vehicles/api/get-vehicles';
 import { vehicleStatusLabels, vehicleStatusTones } from '@/features/vehicles/components/vehicle-status-badge';
@@ -25,6 +28,9 @@ const statusNotes = {
 export function FleetPage() {
   const counts = useVehicleCounts();
   const depots = useDepots();
+  const [depotForm, setDepotForm] = useState<{ open: boolean; depot?: Depot }>({ open: false });
+  const list = depots.data?.items ?? [];
+  const near: [number, number] = list.length ? [list.reduce((s, d) => s + d.lat, 0) / list.length, list.reduce((s, d) => s + d.lon, 0) / list.length] : [52.56, -1.4];
 
   return (
     <>
@@ -73,15 +79,23 @@ export function FleetPage() {
         </EmptyState>
       </Section>
 
-      <Section title="Depots">
+      <Section
+        title="Depots"
+        actions={
+          <Button size="sm" onClick={() => setDepotForm({ open: true })}>
+            Add a depot
+          </Button>
+        }
+      >
         {depots.isPending ? (
           <LoadingState label="Loading depots…" />
         ) : depots.error ? (
           <ErrorState error={depots.error} what="the depots" onRetry={() => void depots.refetch()} />
         ) : (
-          <DepotsTable depots={depots.data.items} vehiclesPath={(id) => `${pages.vehicles.path}?depotId=${id}`} />
+          <DepotsTable depots={depots.data.items} vehiclesPath={(id) => `${pages.vehicles.path}?depotId=${id}`} onEdit={(depot) => setDepotForm({ open: true, depot })} />
         )}
       </Section>
+      <DepotFormDialog open={depotForm.open} depot={depotForm.depot} near={near} others={list} onClose={() => setDepotForm({ open: false })} />
     </>
   );
 }

@@ -1,5 +1,9 @@
+import { useState } from 'react';
 import { data, useParams, type LoaderFunctionArgs } from 'react-router';
-import type { QueryClient } from '@tanstack/react-query';
+import { useQuery, type QueryClient } from '@tanstack/react-query';
+import { Button } from '@/components/ui/button';
+import { meQueryOptions } from '@/features/auth/api/get-me';
+import { VehicleFormDialog } from '@/features/vehicles/components/vehicle-form';
 import { ErrorState } from '@/components/ui/error-state';
 import { LoadingState } from '@/components/ui/loading-state';
 import { PageHeader } from '@/components/ui/page-header';
@@ -15,6 +19,7 @@ import { VehicleStatusBadge } from '@/features/vehicles/components/vehicle-statu
 import type { Role } from '@/lib/roles';
 import { requireRole } from '../guards';
 import { pages } from '../navigation';
+import { useVehicleFormOptions } from './use-vehicle-form-options';
 
 function vehicleId(raw: string | undefined): number {
   const id = Number(raw);
@@ -54,6 +59,10 @@ export function VehiclePage() {
 
 function VehicleDetailView({ detail, back }: { detail: VehicleDetail; back: { to: string; label: string } }) {
   const { vehicle, spec } = detail;
+  const me = useQuery(meQueryOptions());
+  const isManager = me.data?.role === 'manager';
+  const [editing, setEditing] = useState(false);
+  const formOptions = useVehicleFormOptions(isManager && editing);
   return (
     <>
       <title>{`${vehicle.fleetNumber} · Vehicles · Reboundry`}</title>
@@ -62,7 +71,13 @@ function VehicleDetailView({ detail, back }: { detail: VehicleDetail; back: { to
         eyebrow="Vehicle"
         title={vehicle.fleetNumber}
         badges={<VehicleStatusBadge status={vehicle.status} size="md" />}
+        actions={
+          isManager ? (
+            <Button onClick={() => setEditing(true)}>Edit vehicle</Button>
+          ) : null
+        }
       />
+      {isManager ? <VehicleFormDialog open={editing} onClose={() => setEditing(false)} vehicle={vehicle} options={formOptions} /> : null}
       <VehicleFacts detail={detail} className="mb-8 rounded-md border border-line bg-surface px-4 py-3.5" />
 
       <div className="grid gap-x-8 lg:grid-cols-[minmax(0,7fr)_minmax(0,5fr)]">

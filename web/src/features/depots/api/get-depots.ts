@@ -5,6 +5,7 @@ import { depotKeys } from './depot-keys';
 export interface Depot {
   id: number;
   name: string;
+  address?: string | null;
   lat: number;
   lon: number;
   vehicleCount: number;

@@ -1,11 +1,12 @@
 import { Link } from 'react-router';
+import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SimpleTable } from '@/components/ui/simple-table';
 import { formatNumber } from '@/lib/format';
 import type { Depot } from '../api/get-depots';
 
 /** Depots with their position and how many vehicles are based at each. */
-export function DepotsTable({ depots, vehiclesPath }: { depots: Depot[]; vehiclesPath: (depotId: number) => string }) {
+export function DepotsTable({ depots, vehiclesPath, onEdit }: { depots: Depot[]; vehiclesPath: (depotId: number) => string; /** Offers an edit button per depot. */ onEdit?: (depot: Depot) => void }) {
   if (depots.length === 0) {
     return <EmptyState title="No depots yet">Add a depot first; every vehicle is based at one.</EmptyState>;
   }
@@ -16,7 +17,7 @@ export function DepotsTable({ depots, vehiclesPath }: { depots: Depot[]; vehicle
       rows={depots}
       getRowKey={(d) => d.id}
       columns={[
-        { key: 'name', header: 'Depot', rowHeader: true, cell: (d) => d.name },
+        { key: 'name', header: 'Depot', rowHeader: true, cell: (d) => (d.address ? <>{d.name}<span className="block text-xs text-slate">{d.address}</span></> : d.name) },
         { key: 'lat', header: 'Latitude', unit: '°', numeric: true, cell: (d) => formatNumber(d.lat, 4) },
         { key: 'lon', header: 'Longitude', unit: '°', numeric: true, cell: (d) => formatNumber(d.lon, 4) },
         {
@@ -29,6 +30,20 @@ export function DepotsTable({ depots, vehiclesPath }: { depots: Depot[]; vehicle
             </Link>
           ),
         },
+        ...(onEdit
+          ? [
+              {
+                key: 'edit',
+                header: <span className="sr-only">Actions</span>,
+                cell: (d: Depot) => (
+                  <Button size="sm" variant="quiet" onClick={() => onEdit(d)} aria-label={`Edit ${d.name}`}>
+                    Edit
+                  </Button>
+                ),
+                className: 'w-px text-right',
+              },
+            ]
+          : []),
       ]}
       footer={`${formatNumber(depots.length)} ${depots.length === 1 ? 'depot' : 'depots'}, ${formatNumber(total)} vehicles in service or in the workshop. Retired vehicles are not counted.`}
     />

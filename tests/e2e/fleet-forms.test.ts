@@ -1,0 +1,107 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { startTestServer, type TestServer } from '../support/server';
+import { DEMO, expectHeading, expectPath, signIn } from './helpers';
+
+let server: TestServer;
+let browser: Browser;
+
+beforeAll(async () => {
+  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+describe('vehicle and depot forms', () => {
+  it('when a manager adds a vehicle and then updates its odometer, then the reading moves forward only and retiring asks first', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await page.goto(`${server.url}/vehicles`);
+    await expectHeading(page, 'Vehicles');
+
+    await page.getByRole('button', { name: 'Add a vehicle' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Add a vehicle' });
+    await dialog.waitFor();
+    // Nothing filled in: the form says what is missing and sends nothing.
+    await dialog.getByRole('button', { name: 'Add vehicle' }).click();
+    await dialog.getByText('Fleet number is required.').waitFor();
+    await dialog.getByText('Choose a suspension spec.').waitFor();
+
+    await dialog.getByLabel('Fleet number').fill('TST-901');
+    await dialog.getByLabel('Plate').fill('BK26 TST');
+    await dialog.getByLabel('Suspension spec').selectOption({ index: 1 });
+    await dialog.getByLabel('Depot').selectOption({ index: 1 });
+    await dialog.getByLabel('Odometer [km]').fill('1200');
+    await page.screenshot({ path: screenshotPath('manager-desktop-vehicle-add') });
+    await dialog.getByRole('button', { name: 'Add vehicle' }).click();
+
+    await expectHeading(page, 'TST-901');
+    expect(new URL(page.url()).pathname).toMatch(/^\/vehicles\/\d+$/);
+    await page.getByText('1,200 km').first().waitFor();
+
+    // A lower reading is refused in the form, naming the recorded one.
+    await page.getByRole('button', { name: 'Edit vehicle' }).click();
+    const edit = page.getByRole('dialog', { name: 'Edit TST-901' });
+    await edit.getByLabel('Odometer [km]').fill('900');
+    await edit.getByRole('button', { name: 'Save changes' }).click();
+    await edit.getByText(/cannot go backwards: the recorded reading is 1,200 km/).waitFor();
+    await page.screenshot({ path: screenshotPath('manager-desktop-vehicle-odometer-error') });
+
+    await edit.getByLabel('Odometer [km]').fill('1850');
+    await edit.getByRole('button', { name: 'Save changes' }).click();
+    await edit.waitFor({ state: 'hidden' });
+    await page.getByText('1,850 km').first().waitFor();
+
+    // Retiring needs a second press.
+    await page.getByRole('button', { name: 'Edit vehicle' }).click();
+    await edit.getByLabel('Status').selectOption('retired');
+    await edit.getByRole('button', { name: 'Save changes' }).click();
+    await edit.getByText('Retire TST-901?').waitFor();
+    await page.screenshot({ path: screenshotPath('manager-desktop-vehicle-retire') });
+    await edit.getByRole('button', { name: 'Retire vehicle' }).click();
+    await edit.waitFor({ state: 'hidden' });
+    await page.getByRole('heading', { level: 1, name: 'TST-901' }).waitFor();
+    await page.locator('header').getByText('Retired').first().waitFor();
+
+    const api = await page.request.get(`${server.url}/api/vehicles?q=TST-901`);
+    const body = (await api.json()) as { items: { odometerKm: number; status: string }[] };
+    expect(body.items[0]).toMatchObject({ odometerKm: 1850, status: 'retired' });
+    await context.close();
+  });
+
+  it('when a manager adds a depot by clicking the map, then the position is filled in and the depot is listed', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await page.goto(`${server.url}/fleet`);
+    await expectHeading(page, 'Fleet');
+    await page.getByRole('button', { name: 'Add a depot' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Add a depot' });
+    await dialog.getByLabel('Name').fill('Testbridge yard');
+    await dialog.getByLabel('Address').fill('1 Test Lane');
+    await dialog.getByTestId('depot-map').click({ position: { x: 120, y: 90 } });
+    const lat = Number(await dialog.getByLabel('Latitude [°]').inputValue());
+    const lon = Number(await dialog.getByLabel('Longitude [°]').inputValue());
+    expect(Math.abs(lat)).toBeGreaterThan(1);
+    expect(Math.abs(lon)).toBeGreaterThan(0);
+    await page.screenshot({ path: screenshotPath('manager-desktop-depot-add') });
+    await dialog.getByRole('button', { name: 'Add depot' }).click();
+    await dialog.waitFor({ state: 'hidden' });
+    await page.getByRole('table', { name: 'Depots' }).getByText('Testbridge yard').waitFor();
+
+    await page.getByRole('button', { name: 'Edit Testbridge yard' }).click();
+    const edit = page.getByRole('dialog', { name: 'Edit Testbridge yard' });
+    await edit.getByLabel('Latitude [°]').fill('52.6');
+    await edit.getByRole('button', { name: 'Save changes' }).click();
+    await edit.waitFor({ state: 'hidden' });
+    const depots = (await (await page.request.get(`${server.url}/api/depots`)).json()) as { items: { name: string; lat: number }[] };
+    expect(depots.items.find((d) => d.name === 'Testbridge yard')?.lat).toBe(52.6);
+    await expectPath(page, '/fleet');
+    await context.close();
+  });
+});

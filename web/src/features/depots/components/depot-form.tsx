@@ -1,0 +1,118 @@
+import { useEffect, useRef, useState, type FormEvent } from 'react';
+import { CircleMarker, MapContainer, Tooltip, useMap, useMapEvents } from 'react-leaflet';
+import { BaseLayer } from '@/components/map/base-layer';
+import { Button } from '@/components/ui/button';
+import { Dialog } from '@/components/ui/dialog';
+import { TextField } from '@/components/ui/field';
+import { Notice } from '@/components/ui/notice';
+import { isApiError } from '@/lib/api-client';
+import { focusFirstError, serverFieldErrors, type FieldErrors } from '@/lib/form-errors';
+import type { Depot } from '../api/get-depots';
+import { useSaveDepot } from '../api/save-depot';
+
+const labels: Record<string, string> = { name: 'Name', address: 'Address', lat: 'Latitude', lon: 'Longitude' };
+
+function ClickToPlace({ onPick }: { onPick: (lat: number, lon: number) => void }) {
+  useMapEvents({ click: (e) => onPick(e.latlng.lat, e.latlng.lng) });
+  return null;
+}
+
+/** The map is created while the dialog opens; measure again once it has its size. */
+function FixSize() {
+  const map = useMap();
+  useEffect(() => {
+    const t = window.setTimeout(() => map.invalidateSize(), 50);
+    return () => window.clearTimeout(t);
+  }, [map]);
+  return null;
+}
+
+const round = (x: number) => String(Math.round(x * 1e5) / 1e5);
+
+/** Add a depot or change one: name, address and position (typed, or clicked on the small map). */
+export function DepotFormDialog({ open, onClose, depot, near, others = [] }: { open: boolean; onClose: () => void; depot?: Depot; near: [number, number]; /** Other depots, drawn grey to find one's way on the plain map. */ others?: Depot[] }) {
+  return (
+    <Dialog open={open} onClose={onClose} title={depot ? `Edit ${depot.name}` : 'Add a depot'} description="Type the position in degrees, or click the map to place the depot.">
+      <DepotForm key={depot?.id ?? 'new'} depot={depot} near={near} others={others.filter((o) => o.id !== depot?.id)} onDone={onClose} />
+    </Dialog>
+  );
+}
+
+function DepotForm({ depot, near, others, onDone }: { depot?: Depot; near: [number, number]; others: Depot[]; onDone: () => void }) {
+  const [name, setName] = useState(depot?.name ?? '');
+  const [address, setAddress] = useState(depot?.address ?? '');
+  const [lat, setLat] = useState(depot ? String(depot.lat) : '');
+  const [lon, setLon] = useState(depot ? String(depot.lon) : '');
+  const [errors, setErrors] = useState<FieldErrors>({});
+  const formRef = useRef<HTMLFormElement>(null);
+  const save = useSaveDepot(depot?.id);
+
+  const latN = Number(lat.replace(',', '.'));
+  const lonN = Number(lon.replace(',', '.'));
+  const placed = lat.trim() !== '' && lon.trim() !== '' && Number.isFinite(latN) && Number.isFinite(lonN) && Math.abs(latN) <= 90 && Math.abs(lonN) <= 180;
+  const center: [number, number] = depot ? [depot.lat, depot.lon] : near;
+
+  function onSubmit(e: FormEvent) {
+    e.preventDefault();
+    const found: FieldErrors = {};
+    if (name.trim().length < 2) found.name = 'Name must be at least 2 characters.';
+    if (lat.trim() === '' || !Number.isFinite(latN) || Math.abs(latN) > 90) found.lat = 'Latitude must be a number of degrees between −90 and 90.';
+    if (lon.trim() === '' || !Number.isFinite(lonN) || Math.abs(lonN) > 180) found.lon = 'Longitude must be a number of degrees between −180 and 180.';
+    if (Object.keys(found).length) {
+      setErrors(found);
+      focusFirstError(formRef.current, found);
+      return;
+    }
+    save.mutate(
+      { name: name.trim(), address: address.trim() || null, lat: latN, lon: lonN },
+      {
+        onSuccess: onDone,
+        onError: (err) => {
+          const f = serverFieldErrors(err, labels);
+          setErrors(f);
+          focusFirstError(formRef.current, f);
+        },
+      },
+    );
+  }
+
+  const serverMessage = save.error && (!isApiError(save.error) || Object.keys(save.error.fields).length === 0) ? save.error.message : null;
+
+  return (
+    <form ref={formRef} onSubmit={onSubmit} noValidate className="flex flex-col gap-3">
+      <TextField name="name" label="Name" value={name} onChange={(e) => setName(e.target.value)} error={errors.name} maxLength={120} />
+      <TextField name="address" label="Address" aside="(optional)" value={address} onChange={(e) => setAddress(e.target.value)} error={errors.address} maxLength={240} />
+      <div className="grid grid-cols-2 gap-3">
+        <TextField name="lat" label="Latitude [°]" inputMode="decimal" value={lat} onChange={(e) => setLat(e.target.value)} error={errors.lat} placeholder="e.g. 52.56" />
+        <TextField name="lon" label="Longitude [°]" inputMode="decimal" value={lon} onChange={(e) => setLon(e.target.value)} error={errors.lon} placeholder="e.g. −1.40" />
+      </div>
+      <div className="h-52 overflow-hidden rounded-md border border-line" data-testid="depot-map">
+        <MapContainer center={center} zoom={11} className="h-full w-full cursor-crosshair">
+          <BaseLayer />
+          <FixSize />
+          <ClickToPlace
+            onPick={(a, b) => {
+              setLat(round(a));
+              setLon(round(b));
+              setErrors((er) => ({ ...er, lat: '', lon: '' }));
+            }}
+          />
+          {others.map((o) => (
+            <CircleMarker key={o.id} center={[o.lat, o.lon]} radius={6} pathOptions={{ color: '#5B6B73', weight: 2, fillColor: '#FAF8F3', fillOpacity: 1 }}>
+              <Tooltip direction="top" offset={[0, -4]}>{o.name}</Tooltip>
+            </CircleMarker>
+          ))}
+          {placed ? <CircleMarker center={[latN, lonN]} radius={8} pathOptions={{ color: '#1E2A32', weight: 2, fillColor: '#D9622B', fillOpacity: 1 }} /> : null}
+        </MapContainer>
+      </div>
+      <p className="text-sm text-slate">{placed ? 'The orange dot is where the depot will be. Click elsewhere to move it.' : 'Click the map to place the depot.'}</p>
+      {serverMessage ? <Notice tone="error">{serverMessage}</Notice> : null}
+      <div className="flex justify-end gap-2">
+        <Button onClick={onDone}>Cancel</Button>
+        <Button type="submit" variant="primary" busy={save.isPending}>
+          {depot ? 'Save changes' : 'Add depot'}
+        </Button>
+      </div>
+    </form>
+  );
+}
