@@ -39,10 +39,13 @@ export const pages = {
     roles: ['manager'],
     icon: icon('M9 11a3 3 0 1 0 0-6 3 3 0 0 0 0 6zM3.5 19a5.5 5.5 0 0 1 11 0M16 11a2.5 2.5 0 1 0 0-5M17 14a4.5 4.5 0 0 1 3.5 5'),
   },
+  planning: { path: '/planning', label: 'Planning', roles: ['manager'], icon: icon('M4 5h16v15H4zM4 9h16M9 5v15M8 3v4M16 3v4') },
+  fleetLife: { path: '/damper-life', label: 'Damper life', roles: ['manager', 'mechanic'], icon: icon('M4 20V4M4 20h16M6 16c4 0 6-9 14-10') },
+  modelCheck: { path: '/model-check', label: 'Model check', roles: ['manager'], icon: icon('M4 20 20 4M6 14l2 2M12 9l2 2M15 16l2-2') },
   account: { path: '/account', label: 'Account', roles: ['manager', 'mechanic', 'driver'], icon: icon('M12 12a4 4 0 1 0 0-8 4 4 0 0 0 0 8zM4.5 20a7.5 7.5 0 0 1 15 0') },
 } satisfies Record<string, PageAccess>;
 
-const menuOrder: PageAccess[] = [pages.fleet, pages.workshop, pages.myVehicle, pages.map, pages.vehicles, pages.specs, pages.routes, pages.trips, pages.people, pages.account];
+const menuOrder: PageAccess[] = [pages.fleet, pages.workshop, pages.myVehicle, pages.map, pages.vehicles, pages.specs, pages.routes, pages.trips, pages.planning, pages.fleetLife, pages.modelCheck, pages.people, pages.account];
 
 /** The menu for a role, in order. */
 export function menuFor(role: Role): PageAccess[] {
@@ -57,6 +60,8 @@ export const landingPaths: Record<Role, string> = {
 };
 
 export const vehiclePath = (id: number) => `/vehicles/${id}`;
+export const inspectionPath = (id: number) => `/inspections/${id}`;
+export const workRecordPath = (id: number) => `/work-records/${id}`;
 
 /** A `next` address from the query string, if it is a safe path inside this app. */
 export function safeNext(next: string | null): string | null {

@@ -21,6 +21,12 @@ import { RoutePage } from './routes/route-page';
 import { TripsPage } from './routes/trips-page';
 import { SpecEditPage } from './routes/spec-edit-page';
 
+import { InspectionPage } from './routes/inspection-page';
+import { WorkRecordPage } from './routes/work-record-page';
+import { PlanningPage } from './routes/planning-page';
+import { FleetLifePage } from './routes/fleet-life-page';
+import { ModelCheckPage } from './routes/model-check-page';
+
 const strip = (path: string) => path.replace(/^\//, '');
 
 /** The route tree. Each page's loader checks the role from `pages` before anything renders. */
@@ -65,6 +71,11 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: `${strip(pages.specs.path)}/:specId/edit`, loader: only(pages.specs), element: <SpecEditPage /> },
             { path: strip(pages.people.path), loader: only(pages.people), element: <PeoplePage /> },
             { path: strip(pages.account.path), loader: only(pages.account), element: <AccountPage /> },
+            { path: 'inspections/:inspectionId', loader: only({ roles: ['mechanic', 'manager'] }), element: <InspectionPage /> },
+            { path: 'work-records/:workRecordId', loader: only({ roles: ['mechanic', 'manager'] }), element: <WorkRecordPage /> },
+            { path: strip(pages.planning.path), loader: only(pages.planning), element: <PlanningPage /> },
+            { path: strip(pages.fleetLife.path), loader: only(pages.fleetLife), element: <FleetLifePage /> },
+            { path: strip(pages.modelCheck.path), loader: only(pages.modelCheck), element: <ModelCheckPage /> },
             { path: '*', element: <NotFound /> },
           ],
         },

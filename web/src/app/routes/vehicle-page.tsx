@@ -18,7 +18,8 @@ import { VehicleInspections } from '@/features/vehicles/components/vehicle-inspe
 import { VehicleStatusBadge } from '@/features/vehicles/components/vehicle-status-badge';
 import type { Role } from '@/lib/roles';
 import { requireRole } from '../guards';
-import { pages } from '../navigation';
+import { pages, workRecordPath } from '../navigation';
+import { VehicleWorkshopPanel } from '@/features/workshop/components/vehicle-workshop-panel';
 import { useVehicleFormOptions } from './use-vehicle-form-options';
 
 function vehicleId(raw: string | undefined): number {
@@ -93,6 +94,8 @@ function VehicleDetailView({ detail, back }: { detail: VehicleDetail; back: { to
           </Section>
         </div>
       </div>
+
+      {me.data && me.data.role !== 'driver' ? <VehicleWorkshopPanel vehicleId={vehicle.id} workRecordPath={workRecordPath} /> : null}
 
       <Section title="Recent trips" description="What the dampers went through: route, distance, speed and load.">
         <RecentTrips trips={detail.recentTrips} />

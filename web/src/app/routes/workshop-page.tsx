@@ -2,14 +2,14 @@ import { Link } from 'react-router';
 import { EmptyState } from '@/components/ui/empty-state';
 import { ErrorState } from '@/components/ui/error-state';
 import { LoadingState } from '@/components/ui/loading-state';
-import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page-header';
 import { Section } from '@/components/ui/section';
 import { useVehicles } from '@/features/vehicles/api/get-vehicles';
 import { VehiclesTable } from '@/features/vehicles/components/vehicles-table';
 import { useVehicleListParams } from '@/features/vehicles/hooks/use-vehicle-list-params';
 import { formatQuantity } from '@/lib/format';
-import { vehiclePath } from '../navigation';
+import { inspectionPath, vehiclePath } from '../navigation';
+import { MyInspections } from '@/features/workshop/components/my-inspections';
 import { useVehicleFilterOptions } from './use-vehicle-filter-options';
 
 /** The mechanic's start page, laid out for a tablet in the workshop. */
@@ -22,10 +22,9 @@ export function WorkshopPage() {
     <>
       <title>Workshop · Reboundry</title>
       <PageHeader title="Workshop" description="Vehicles in the workshop now, and the whole fleet to look up any vehicle." />
-      <Notice tone="info" title="Your inspections will appear here" className="mb-6">
-        Once the nightly wear run books inspections, the ones assigned to you are listed at the top of this page, with the
-        corner and the reason. Until then, open any vehicle below to see its dampers.
-      </Notice>
+      <Section title="My inspections" description="Assigned to you or your depot, soonest first. Tap one to record the test lane, photos and parts.">
+        <MyInspections inspectionPath={inspectionPath} />
+      </Section>
 
       <Section title="In the workshop now">
         {inWorkshop.isPending ? (

@@ -1,0 +1,39 @@
+import { ErrorState } from '@/components/ui/error-state';
+import { Facts } from '@/components/ui/facts';
+import { LoadingState } from '@/components/ui/loading-state';
+import { PageHeader } from '@/components/ui/page-header';
+import { Caution } from '@/components/ui/caution';
+import { useModelCheck } from '@/features/workshop/api/get-model-check';
+import { ModelCheckChart } from '@/features/workshop/components/fleet-life-charts';
+import { formatNumber } from '@/lib/format';
+
+/** Predicted against measured damping over every inspection: can the model be trusted? */
+export function ModelCheckPage() {
+  const q = useModelCheck();
+  return (
+    <>
+      <title>Model check · Reboundry</title>
+      <PageHeader title="Model check" description="The wear model's predicted damping against the damping the test lane implies, for every inspected corner." />
+      {q.isPending ? (
+        <LoadingState />
+      ) : q.error ? (
+        <ErrorState error={q.error} what="the model check" />
+      ) : (
+        <>
+          <Facts
+            items={[
+              { label: 'Corners compared', value: q.data.n, numeric: true },
+              { label: 'Bias [N·s/m]', value: formatNumber(q.data.biasNsPerM), numeric: true },
+              { label: 'Spread [N·s/m]', value: formatNumber(q.data.spreadNsPerM), numeric: true },
+              { label: 'Bias [% of nominal]', value: formatNumber(q.data.biasPctOfNominal, 1), numeric: true },
+              { label: 'Adhesion with no estimate', value: q.data.noEstimate, numeric: true },
+            ]}
+          />
+          <p className="my-2 text-xs text-slate">{q.data.definitions}. A positive bias means the model thinks dampers are in better shape than the lane shows.</p>
+          <ModelCheckChart points={q.data.points} />
+          <Caution className="mt-3">The test-lane estimate rests on the two-mass model and the spec&apos;s parameters; it supports, and never replaces, a qualified mechanic&apos;s judgement.</Caution>
+        </>
+      )}
+    </>
+  );
+}

@@ -1,0 +1,23 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { z } from 'zod';
+import { api } from '@/lib/api-client';
+import { workshopKeys, type InspectionDetail } from './types';
+
+export const resultsSchema = z.object({
+  odometerKm: z.number().min(0),
+  notes: z.string().max(4000).nullable(),
+  complete: z.boolean().optional(),
+  corners: z.array(z.object({ position: z.string(), adhesionPct: z.number().min(0).max(100).nullable(), findings: z.array(z.string()), verdict: z.string() })),
+});
+export type ResultsInput = z.infer<typeof resultsSchema>;
+
+export function useRecordResults(id: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (body: ResultsInput) => api.post<InspectionDetail>(`/api/inspections/${id}/results`, resultsSchema.parse(body)),
+    onSuccess: (d) => {
+      qc.setQueryData(workshopKeys.inspection(id), d);
+      void qc.invalidateQueries({ queryKey: workshopKeys.all });
+    },
+  });
+}

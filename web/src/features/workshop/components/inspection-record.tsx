@@ -1,0 +1,344 @@
+import { useState } from 'react';
+import { Button } from '@/components/ui/button';
+import { Caution } from '@/components/ui/caution';
+import { Notice } from '@/components/ui/notice';
+import { Section } from '@/components/ui/section';
+import { SimpleTable } from '@/components/ui/simple-table';
+import { StatusBadge } from '@/components/ui/status-badge';
+import { isApiError } from '@/lib/api-client';
+import { formatNumber, isoDate } from '@/lib/format';
+import { useRecordResults, type ResultsInput } from '../api/record-results';
+import { useUploadAttachment } from '../api/upload-attachment';
+import { useRecordWork, type WorkInput } from '../api/record-work';
+import { FINDING_LABELS, VERDICT_LABELS, type CornerResult, type InspectionDetail, type WorkshopOptions } from '../api/types';
+import { useDraft } from '../hooks/use-draft';
+import { CornerChips } from './corner-chips';
+
+const inputCls = 'min-h-11 w-full rounded border border-line bg-surface px-3 text-base tabular focus-visible:outline-2 focus-visible:outline-accent';
+
+interface CornerDraft { position: string; axleIndex: number; adhesion: string; findings: string[]; verdict: string }
+interface PartDraft { position: string; damper: boolean; spring: boolean; partDescription: string; partNumber: string; cost: string; removalReason: string }
+
+const num = (s: string) => (s.trim() === '' ? null : Number(s.replace(',', '.')));
+
+/** Left–right adhesion difference per axle from the form, flagged over the limit. */
+function differences(corners: CornerDraft[], limit: number) {
+  const axles = [...new Set(corners.map((c) => c.axleIndex))];
+  return axles.map((a) => {
+    const l = corners.find((c) => c.axleIndex === a && c.position.endsWith('L'));
+    const r = corners.find((c) => c.axleIndex === a && c.position.endsWith('R'));
+    const lv = l ? num(l.adhesion) : null;
+    const rv = r ? num(r.adhesion) : null;
+    const d = lv !== null && rv !== null && Number.isFinite(lv) && Number.isFinite(rv) ? Math.abs(lv - rv) : null;
+    return { axleIndex: a, d, flagged: d !== null && d > limit };
+  });
+}
+
+export function InspectionRecord({ inspection, options, today, onWorkSaved }: { inspection: InspectionDetail; options: WorkshopOptions; today: string; onWorkSaved: (id: number) => void }) {
+  const open = ['scheduled', 'due', 'overdue'].includes(inspection.status);
+  const results = useDraft<{ corners: CornerDraft[]; odometer: string; notes: string }>(`rb-draft:inspection:${inspection.id}:results`, () => ({
+    corners: inspection.predicted.map((c) => {
+      const r = inspection.results.find((x) => x.position === c.position);
+      return { position: c.position, axleIndex: c.axleIndex, adhesion: r?.adhesionPct == null ? '' : String(r.adhesionPct), findings: r?.findings ?? [], verdict: r?.verdict ?? 'ok' };
+    }),
+    odometer: String(Math.round(inspection.odometerKm ?? inspection.vehicle.odometerKm)),
+    notes: inspection.notes ?? '',
+  }));
+  const work = useDraft<{ parts: PartDraft[]; summary: string; labour: string; odometer: string; date: string; notes: string }>(`rb-draft:inspection:${inspection.id}:work`, () => ({
+    parts: inspection.predicted.map((c) => ({ position: c.position, damper: false, spring: false, partDescription: '', partNumber: '', cost: '', removalReason: options.removalReasons[0] })),
+    summary: '',
+    labour: '',
+    odometer: String(Math.round(inspection.odometerKm ?? inspection.vehicle.odometerKm)),
+    date: today,
+    notes: '',
+  }));
+  const save = useRecordResults(inspection.id);
+  const upload = useUploadAttachment(inspection.id);
+  const recordWork = useRecordWork();
+  const [uploadKind, setUploadKind] = useState<'photo' | 'printout'>('photo');
+  const diffs = differences(results.value.corners, options.laneFlagPoints);
+  const setCorner = (i: number, patch: Partial<CornerDraft>) => results.setValue((v) => ({ ...v, corners: v.corners.map((c, k) => (k === i ? { ...c, ...patch } : c)) }));
+  const setPart = (i: number, patch: Partial<PartDraft>) => work.setValue((v) => ({ ...v, parts: v.parts.map((c, k) => (k === i ? { ...c, ...patch } : c)) }));
+  const fieldErr = (e: unknown, key: string) => (isApiError(e) ? e.fields[key] : undefined);
+
+  const submitResults = (complete: boolean) => {
+    const body: ResultsInput = {
+      odometerKm: Number(results.value.odometer),
+      notes: results.value.notes.trim() || null,
+      complete,
+      corners: results.value.corners.map((c) => ({ position: c.position, adhesionPct: num(c.adhesion), findings: c.findings, verdict: c.verdict })),
+    };
+    save.mutate(body, { onSuccess: () => results.clear() });
+  };
+
+  const submitWork = () => {
+    const items: WorkInput['items'] = [];
+    for (const p of work.value.parts) {
+      for (const component of ['damper', 'spring'] as const) {
+        if (!p[component]) continue;
+        items.push({ position: p.position, component, partDescription: p.partDescription || `${component === 'damper' ? 'Damper' : 'Spring'}, ${p.position}`, partNumber: p.partNumber || null, cost: Number(p.cost || 0), removalReason: p.removalReason });
+      }
+    }
+    recordWork.mutate(
+      { vehicleId: inspection.vehicle.id, inspectionId: inspection.id, performedOn: work.value.date, odometerKm: Number(work.value.odometer), summary: work.value.summary, labourHours: Number(work.value.labour || 0), notes: work.value.notes || null, items },
+      {
+        onSuccess: (w) => {
+          work.clear();
+          results.clear();
+          onWorkSaved(w.id);
+        },
+      },
+    );
+  };
+
+  return (
+    <>
+      <Caution className="mb-4">
+        Predictions support, and never replace, the inspection by a qualified mechanic; follow the manufacturer&apos;s requirements and local regulations.
+      </Caution>
+      <Section title="Predicted state of each corner" description="From the wear model (or a km estimate before the first nightly run).">
+        <CornerChips corners={inspection.predicted} />
+      </Section>
+
+      {open ? (
+        <Section title="Test lane and visual check">
+          {results.restored ? (
+            <Notice tone="info" title="Draft restored" className="mb-3">
+              Your unsaved entries for this inspection were brought back. <button type="button" className="link" onClick={results.dismiss}>OK</button>
+            </Notice>
+          ) : null}
+          <form
+            aria-label="Test-lane results"
+            onSubmit={(e) => {
+              e.preventDefault();
+              submitResults(false);
+            }}
+          >
+            <div className="grid gap-3 md:grid-cols-2">
+              {results.value.corners.map((c, i) => (
+                <fieldset key={c.position} className="rounded-md border border-line p-3">
+                  <legend className="px-1 font-semibold">Corner {c.position}</legend>
+                  <label className="block text-sm font-medium">
+                    Adhesion [%]
+                    <input className={inputCls} inputMode="decimal" aria-label={`Adhesion ${c.position} [%]`} value={c.adhesion} onChange={(e) => setCorner(i, { adhesion: e.target.value })} />
+                  </label>
+                  {fieldErr(save.error, `corners.${i}.adhesionPct`) ? <p className="text-sm text-overdue">{fieldErr(save.error, `corners.${i}.adhesionPct`)}</p> : null}
+                  <div className="mt-2 grid gap-1">
+                    {options.findings.map((f) => (
+                      <label key={f} className="flex min-h-9 items-center gap-2 text-sm">
+                        <input
+                          type="checkbox"
+                          className="size-5"
+                          checked={c.findings.includes(f)}
+                          onChange={(e) => setCorner(i, { findings: e.target.checked ? [...c.findings, f] : c.findings.filter((x) => x !== f) })}
+                        />
+                        {FINDING_LABELS[f] ?? f}
+                      </label>
+                    ))}
+                  </div>
+                  <label className="mt-2 block text-sm font-medium">
+                    Verdict
+                    <select className={inputCls} aria-label={`Verdict ${c.position}`} value={c.verdict} onChange={(e) => setCorner(i, { verdict: e.target.value })}>
+                      {options.verdicts.map((v) => (
+                        <option key={v} value={v}>
+                          {VERDICT_LABELS[v] ?? v}
+                        </option>
+                      ))}
+                    </select>
+                  </label>
+                </fieldset>
+              ))}
+            </div>
+            <ul className="mt-3 space-y-1" aria-label="Left–right difference per axle">
+              {diffs.map((d) => (
+                <li key={d.axleIndex} className="text-sm">
+                  Axle {d.axleIndex + 1}: left–right difference {d.d === null ? '—' : `${formatNumber(d.d, 1)} points`}{' '}
+                  {d.flagged ? <StatusBadge tone="overdue">large: over {options.laneFlagPoints} points</StatusBadge> : d.d !== null ? <StatusBadge tone="ok">within {options.laneFlagPoints} points</StatusBadge> : null}
+                </li>
+              ))}
+            </ul>
+            <div className="mt-3 grid gap-3 md:grid-cols-2">
+              <label className="block text-sm font-medium">
+                Odometer [km]
+                <input className={inputCls} inputMode="numeric" value={results.value.odometer} onChange={(e) => results.setValue((v) => ({ ...v, odometer: e.target.value }))} />
+              </label>
+              <label className="block text-sm font-medium">
+                Notes
+                <textarea className={`${inputCls} min-h-20 py-2`} value={results.value.notes} onChange={(e) => results.setValue((v) => ({ ...v, notes: e.target.value }))} />
+              </label>
+            </div>
+            {save.error ? <p role="alert" className="mt-2 text-sm text-overdue">{(save.error as Error).message}</p> : null}
+            <div className="mt-3 flex flex-wrap gap-2">
+              <Button type="submit" variant="primary" size="lg" busy={save.isPending}>
+                Save results
+              </Button>
+              <Button size="lg" onClick={() => submitResults(true)} disabled={save.isPending}>
+                Save and close (no parts needed)
+              </Button>
+            </div>
+          </form>
+        </Section>
+      ) : null}
+
+      <Section title="Photos and test-lane printout" description={`JPEG, PNG or WebP photos; the printout as a PDF or an image; at most ${formatNumber(options.attachmentMaxBytes / 1024 / 1024)} MB each.`}>
+        {open ? (
+          <div className="flex flex-wrap items-end gap-3">
+            <label className="text-sm font-medium">
+              Kind
+              <select className={inputCls} value={uploadKind} onChange={(e) => setUploadKind(e.target.value as 'photo' | 'printout')}>
+                <option value="photo">Photo</option>
+                <option value="printout">Test-lane printout</option>
+              </select>
+            </label>
+            <label className="text-sm font-medium">
+              File
+              <input
+                type="file"
+                aria-label="Attach a file"
+                accept="image/jpeg,image/png,image/webp,application/pdf"
+                className="block min-h-11"
+                onChange={(e) => {
+                  const f = e.target.files?.[0];
+                  if (f) upload.mutate({ file: f, kind: uploadKind });
+                  e.target.value = '';
+                }}
+              />
+            </label>
+            {upload.isPending ? <span className="text-sm text-slate">Uploading…</span> : null}
+          </div>
+        ) : null}
+        {upload.error ? <p role="alert" className="mt-2 text-sm text-overdue">{(upload.error as Error).message}</p> : null}
+        <ul className="mt-3 flex flex-wrap gap-3" aria-label="Attachments">
+          {inspection.attachments.map((a) => (
+            <li key={a.id} className="rounded border border-line p-2 text-sm">
+              {a.mimeType.startsWith('image/') ? <img src={a.url} alt={`${a.kind}: ${a.originalName}`} className="mb-1 h-24 w-32 object-cover" /> : null}
+              <a className="link" href={a.url} target="_blank" rel="noreferrer">
+                {a.kind === 'photo' ? 'Photo' : 'Printout'}: {a.originalName}
+              </a>{' '}
+              <span className="tabular text-slate">({formatNumber(a.sizeBytes / 1024, 1)} kB)</span>
+            </li>
+          ))}
+          {!inspection.attachments.length ? <li className="text-sm text-slate">Nothing attached yet.</li> : null}
+        </ul>
+      </Section>
+
+      {inspection.results.length ? <ResultsTable results={inspection.results} /> : null}
+
+      {open ? (
+        <Section title="Record work" description="Tick the parts you replaced. Saving retires the old dampers, fits the new ones and closes this inspection, all at once.">
+          {work.restored ? (
+            <Notice tone="info" title="Draft restored" className="mb-3">
+              Your unsaved work record was brought back. <button type="button" className="link" onClick={work.dismiss}>OK</button>
+            </Notice>
+          ) : null}
+          <form
+            aria-label="Work record"
+            onSubmit={(e) => {
+              e.preventDefault();
+              submitWork();
+            }}
+          >
+            <div className="grid gap-3 md:grid-cols-2">
+              {work.value.parts.map((p, i) => (
+                <fieldset key={p.position} className="rounded-md border border-line p-3">
+                  <legend className="px-1 font-semibold">Corner {p.position}</legend>
+                  <div className="flex gap-4">
+                    <label className="flex min-h-9 items-center gap-2 text-sm">
+                      <input type="checkbox" className="size-5" aria-label={`Replace damper ${p.position}`} checked={p.damper} onChange={(e) => setPart(i, { damper: e.target.checked })} />
+                      Damper replaced
+                    </label>
+                    <label className="flex min-h-9 items-center gap-2 text-sm">
+                      <input type="checkbox" className="size-5" aria-label={`Replace spring ${p.position}`} checked={p.spring} onChange={(e) => setPart(i, { spring: e.target.checked })} />
+                      Spring replaced
+                    </label>
+                  </div>
+                  {p.damper || p.spring ? (
+                    <div className="mt-2 grid gap-2">
+                      <label className="text-sm">
+                        Part description
+                        <input className={inputCls} aria-label={`Part description ${p.position}`} value={p.partDescription} onChange={(e) => setPart(i, { partDescription: e.target.value })} />
+                      </label>
+                      <label className="text-sm">
+                        Part number
+                        <input className={inputCls} aria-label={`Part number ${p.position}`} value={p.partNumber} onChange={(e) => setPart(i, { partNumber: e.target.value })} />
+                      </label>
+                      <label className="text-sm">
+                        Cost [£]
+                        <input className={inputCls} inputMode="decimal" aria-label={`Cost ${p.position}`} value={p.cost} onChange={(e) => setPart(i, { cost: e.target.value })} />
+                      </label>
+                      <label className="text-sm">
+                        Reason for removal
+                        <select className={inputCls} aria-label={`Removal reason ${p.position}`} value={p.removalReason} onChange={(e) => setPart(i, { removalReason: e.target.value })}>
+                          {options.removalReasons.map((r) => (
+                            <option key={r}>{r}</option>
+                          ))}
+                        </select>
+                      </label>
+                    </div>
+                  ) : null}
+                </fieldset>
+              ))}
+            </div>
+            <div className="mt-3 grid gap-3 md:grid-cols-2">
+              <label className="text-sm font-medium">
+                Summary
+                <input className={inputCls} aria-label="Work summary" value={work.value.summary} onChange={(e) => work.setValue((v) => ({ ...v, summary: e.target.value }))} />
+              </label>
+              <label className="text-sm font-medium">
+                Labour [h]
+                <input className={inputCls} inputMode="decimal" aria-label="Labour [h]" value={work.value.labour} onChange={(e) => work.setValue((v) => ({ ...v, labour: e.target.value }))} />
+              </label>
+              <label className="text-sm font-medium">
+                Odometer [km]
+                <input className={inputCls} inputMode="numeric" aria-label="Work odometer [km]" value={work.value.odometer} onChange={(e) => work.setValue((v) => ({ ...v, odometer: e.target.value }))} />
+              </label>
+              <label className="text-sm font-medium">
+                Date
+                <input type="date" className={inputCls} value={work.value.date} max={isoDate(new Date())} onChange={(e) => work.setValue((v) => ({ ...v, date: e.target.value }))} />
+              </label>
+            </div>
+            {recordWork.error ? (
+              <div role="alert" className="mt-2 text-sm text-overdue">
+                {(recordWork.error as Error).message}
+                {isApiError(recordWork.error) ? (
+                  <ul>
+                    {Object.entries(recordWork.error.fields).map(([k, v]) => (
+                      <li key={k}>
+                        {k}: {v}
+                      </li>
+                    ))}
+                  </ul>
+                ) : null}
+              </div>
+            ) : null}
+            <Button type="submit" variant="primary" size="lg" className="mt-3" busy={recordWork.isPending}>
+              Save work record and close inspection
+            </Button>
+          </form>
+        </Section>
+      ) : null}
+    </>
+  );
+}
+
+/** Predicted against measured damping per corner, with the engine's reason when there is no estimate. */
+export function ResultsTable({ results }: { results: CornerResult[] }) {
+  return (
+    <Section title="Predicted and measured damping" description="Measured = the damping that explains the adhesion on the two-mass model (worn side only).">
+      <SimpleTable
+        label="Predicted and measured damping"
+        rows={results}
+        getRowKey={(r) => r.position}
+        columns={[
+          { key: 'p', header: 'Corner', cell: (r) => r.position, rowHeader: true },
+          { key: 'a', header: 'Adhesion', unit: '%', numeric: true, cell: (r) => formatNumber(r.adhesionPct, 1) },
+          { key: 'pr', header: 'Predicted', unit: 'N·s/m', numeric: true, cell: (r) => formatNumber(r.predictedNsPerM) },
+          { key: 'm', header: 'Measured', unit: 'N·s/m', numeric: true, cell: (r) => formatNumber(r.measuredNsPerM) },
+          { key: 'n', header: 'Nominal', unit: 'N·s/m', numeric: true, cell: (r) => formatNumber(r.nominalNsPerM) },
+          { key: 'v', header: 'Verdict', cell: (r) => VERDICT_LABELS[r.verdict] ?? r.verdict },
+          { key: 'note', header: 'Note', cell: (r) => (r.findings.length ? r.findings.map((f) => FINDING_LABELS[f] ?? f).join('; ') : '') + (r.estimateNote ? ` ${r.estimateNote}` : '') },
+        ]}
+      />
+    </Section>
+  );
+}

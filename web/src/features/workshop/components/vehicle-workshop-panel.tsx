@@ -1,0 +1,72 @@
+import { Link } from 'react-router';
+import { Caution } from '@/components/ui/caution';
+import { ErrorState } from '@/components/ui/error-state';
+import { LoadingState } from '@/components/ui/loading-state';
+import { Section } from '@/components/ui/section';
+import { SimpleTable } from '@/components/ui/simple-table';
+import { formatDate, formatNumber, formatPercent } from '@/lib/format';
+import { useVehicleWorkshop } from '../api/get-vehicle-workshop';
+
+/** The vehicle page's workshop part: life used and its source, predicted vs measured damping, work records. */
+export function VehicleWorkshopPanel({ vehicleId, workRecordPath }: { vehicleId: number; workRecordPath: (id: number) => string }) {
+  const q = useVehicleWorkshop(vehicleId);
+  if (q.isPending) return <LoadingState label="Loading workshop history…" />;
+  if (q.error) return <ErrorState error={q.error} what="the workshop history" onRetry={() => void q.refetch()} />;
+  const d = q.data;
+  return (
+    <>
+      <Section title="Damper state and the life it rests on" description={d.life.text}>
+        <SimpleTable
+          label="Damper state per corner"
+          rows={d.corners}
+          getRowKey={(c) => c.damperId}
+          columns={[
+            { key: 'p', header: 'Corner', cell: (c) => c.position, rowHeader: true },
+            { key: 'u', header: 'Life used', unit: '%', numeric: true, cell: (c) => formatPercent(c.lifeUsedFraction).replace(' %', '').replace('%', '') },
+            { key: 'c', header: 'Predicted damping', unit: 'N·s/m', numeric: true, cell: (c) => formatNumber(c.dampingNsPerM) },
+            { key: 'km', header: 'Since fitted', unit: 'km', numeric: true, cell: (c) => formatNumber(c.kmSinceFitted) },
+            { key: 'l', header: 'Life', unit: 'km', numeric: true, cell: (c) => formatNumber(c.lifeKm) },
+            { key: 's', header: 'Life source', cell: (c) => (c.lifeSource === 'test-lane' ? 'test lane (calibrated)' : c.lifeSource === 'fleet' ? 'fleet-blended' : 'rated') },
+            { key: 'b', header: 'Basis', cell: (c) => c.basis },
+          ]}
+        />
+        <Caution className="mt-3">Wear predictions support, and never replace, inspection by a qualified mechanic and the manufacturer&apos;s and local regulations&apos; requirements.</Caution>
+      </Section>
+      <Section title="Predicted and measured damping" description="Each test-lane adhesion turned into a present damping on the two-mass model, beside what the wear model predicted.">
+        {d.comparisons.length ? (
+          <SimpleTable
+            label="Predicted and measured damping by inspection"
+            rows={d.comparisons}
+            getRowKey={(c) => `${c.inspectionId}-${c.position}`}
+            columns={[
+              { key: 'd', header: 'Date', cell: (c) => formatDate(c.at) },
+              { key: 'p', header: 'Corner', cell: (c) => c.position, rowHeader: true },
+              { key: 'a', header: 'Adhesion', unit: '%', numeric: true, cell: (c) => formatNumber(c.adhesionPct, 1) },
+              { key: 'pr', header: 'Predicted', unit: 'N·s/m', numeric: true, cell: (c) => formatNumber(c.predictedNsPerM) },
+              { key: 'm', header: 'Measured', unit: 'N·s/m', numeric: true, cell: (c) => formatNumber(c.measuredNsPerM) },
+              { key: 'n', header: 'Note', cell: (c) => c.note ?? '' },
+            ]}
+          />
+        ) : (
+          <p className="text-sm text-slate">No test-lane results yet for this vehicle.</p>
+        )}
+      </Section>
+      <Section title="Work records">
+        {d.workRecords.length ? (
+          <ul className="space-y-1 text-sm">
+            {d.workRecords.map((w) => (
+              <li key={w.id}>
+                <Link className="link" to={workRecordPath(w.id)}>
+                  {formatDate(w.performedAt)} · {w.summary}
+                </Link>{' '}
+                <span className="tabular text-slate">({formatNumber(w.odometerKm)} km)</span>
+              </li>
+            ))}
+          </ul>
+        ) : (
+          <p className="text-sm text-slate">No work recorded.</p>
+        )}
+      </Section>
+    </>
+  );
+}
