@@ -55,9 +55,8 @@ export const rideReportsService = {
   async create(user: SessionUser, input: NewReportInput, photo: Buffer | null, ctx: RideContext) {
     const snapped = await rideReportsService.snap(input.lat, input.lon);
     const now = ctx.now();
-    if (input.reportedAt && input.reportedAt.getTime() > now.getTime() + 5 * 60_000) {
-      throw AppError.badRequest('Some values are not valid.', { reportedAt: 'must not be in the future' });
-    }
+    // A draft sent later keeps the time it was written; a phone clock ahead of ours is clamped to now.
+    const reportedAt = input.reportedAt && input.reportedAt.getTime() < now.getTime() ? input.reportedAt : now;
     const kind = photo ? photoType(photo) : null;
     const stored = photo && kind ? storePhoto(ctx.dataDir, photo, kind.ext) : null;
     try {
@@ -79,7 +78,7 @@ export const rideReportsService = {
         photoPath: stored,
         photoType: kind?.type ?? null,
         photoBytes: photo ? photo.length : null,
-        reportedAt: input.reportedAt ?? now,
+        reportedAt,
       });
       return (await rideReportsRepository.find(id))!;
     } catch (e) {

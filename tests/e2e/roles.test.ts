@@ -64,13 +64,13 @@ describe('each role lands on its own page and sees only what it may use', () => 
     await context.close();
   });
 
-  it('when a driver signs in on a phone, then their own vehicle opens and the menu has only it and the account', async () => {
+  it('when a driver signs in on a phone, then their own vehicle opens and the menu has their vehicle, reporting, exposure and the account', async () => {
     const context = await newContext(browser, 'phone');
     const page = await context.newPage();
     await signIn(page, server.url, DEMO.driver);
 
     await expectPath(page, '/my-vehicle');
-    expect(await menuItems(page)).toEqual(['My vehicle', 'Account']);
+    expect(await menuItems(page)).toEqual(['My vehicle', 'Report', 'My reports', 'Exposure', 'Account']);
     await page.getByText('Your vehicle', { exact: true }).waitFor();
     await page.getByRole('heading', { name: 'Dampers' }).waitFor();
     await page.getByRole('article', { name: 'Front left damper' }).waitFor();
@@ -91,7 +91,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
     for (const path of ['/people', '/vehicles', '/fleet']) {
       await page.goto(server.url + path);
       await expectHeading(page, 'Not available for your role');
-      expect(await menuItems(page)).toEqual(['My vehicle', 'Account']);
+      expect(await menuItems(page)).toEqual(['My vehicle', 'Report', 'My reports', 'Exposure', 'Account']);
     }
     await page.screenshot({ path: screenshotPath('driver-phone-not-available') });
     await page.getByRole('link', { name: 'Go to your start page' }).click();

@@ -42,10 +42,19 @@ export const pages = {
   planning: { path: '/planning', label: 'Planning', roles: ['manager'], icon: icon('M4 5h16v15H4zM4 9h16M9 5v15M8 3v4M16 3v4') },
   fleetLife: { path: '/damper-life', label: 'Damper life', roles: ['manager', 'mechanic'], icon: icon('M4 20V4M4 20h16M6 16c4 0 6-9 14-10') },
   modelCheck: { path: '/model-check', label: 'Model check', roles: ['manager'], icon: icon('M4 20 20 4M6 14l2 2M12 9l2 2M15 16l2-2') },
+  // issue 7: drivers' reports and exposure
+  report: { path: '/report', label: 'Report', roles: ['driver'], icon: icon('M12 21s-6-5.5-6-11a6 6 0 0 1 12 0c0 5.5-6 11-6 11zM12 7v4M12 13.5v.5') },
+  myReports: { path: '/my-reports', label: 'My reports', roles: ['driver'], icon: icon('M6 3h9l3 3v15H6zM9 10h6M9 14h6M9 18h4') },
+  rideReports: { path: '/ride-reports', label: 'Ride reports', roles: ['manager'], icon: icon('M12 21s-6-5.5-6-11a6 6 0 0 1 12 0c0 5.5-6 11-6 11zM9.5 10h5') },
+  exposure: { path: '/exposure', label: 'Exposure', roles: ['driver', 'manager'], icon: icon('M3 12h3l2-5 3 10 3-8 2 3h5') },
   account: { path: '/account', label: 'Account', roles: ['manager', 'mechanic', 'driver'], icon: icon('M12 12a4 4 0 1 0 0-8 4 4 0 0 0 0 8zM4.5 20a7.5 7.5 0 0 1 15 0') },
 } satisfies Record<string, PageAccess>;
 
 const menuOrder: PageAccess[] = [pages.fleet, pages.workshop, pages.myVehicle, pages.map, pages.vehicles, pages.specs, pages.routes, pages.trips, pages.planning, pages.fleetLife, pages.modelCheck, pages.people, pages.account];
+
+// issue 7: the driver's report pages after "My vehicle"; ride reports and exposure after "Map"
+menuOrder.splice(menuOrder.indexOf(pages.myVehicle) + 1, 0, pages.report, pages.myReports);
+menuOrder.splice(menuOrder.indexOf(pages.map) + 1, 0, pages.rideReports, pages.exposure);
 
 /** The menu for a role, in order. */
 export function menuFor(role: Role): PageAccess[] {

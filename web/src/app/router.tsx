@@ -27,6 +27,8 @@ import { PlanningPage } from './routes/planning-page';
 import { FleetLifePage } from './routes/fleet-life-page';
 import { ModelCheckPage } from './routes/model-check-page';
 
+import { ReportPage, MyReportsPage, RideReportsPage, ExposurePage } from './routes/driver-pages';
+
 const strip = (path: string) => path.replace(/^\//, '');
 
 /** The route tree. Each page's loader checks the role from `pages` before anything renders. */
@@ -76,6 +78,11 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: strip(pages.planning.path), loader: only(pages.planning), element: <PlanningPage /> },
             { path: strip(pages.fleetLife.path), loader: only(pages.fleetLife), element: <FleetLifePage /> },
             { path: strip(pages.modelCheck.path), loader: only(pages.modelCheck), element: <ModelCheckPage /> },
+            // issue 7: drivers
+            { path: strip(pages.report.path), loader: only(pages.report), element: <ReportPage /> },
+            { path: strip(pages.myReports.path), loader: only(pages.myReports), element: <MyReportsPage /> },
+            { path: strip(pages.rideReports.path), loader: only(pages.rideReports), element: <RideReportsPage /> },
+            { path: strip(pages.exposure.path), loader: only(pages.exposure), element: <ExposurePage /> },
             { path: '*', element: <NotFound /> },
           ],
         },

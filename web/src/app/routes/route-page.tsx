@@ -5,6 +5,7 @@ import { meQueryOptions } from '@/features/auth/api/get-me';
 import { routeQueryOptions } from '@/features/road-routes/api/get-route';
 import { RouteView } from '@/features/road-routes/components/route-view';
 import { isoDate } from '@/lib/format';
+import { RouteSpeedAdvice } from '@/features/speed-advice/components/route-speed-advice';
 import { pages, vehiclePath } from '../navigation';
 
 export function RoutePage() {
@@ -17,6 +18,7 @@ export function RoutePage() {
       <title>{`${name} · Reboundry`}</title>
       <PageHeader title={name} eyebrow="Route" description={route.data?.route.description ?? undefined} back={{ to: pages.routes.path, label: 'Routes' }} />
       <RouteView routeId={id} canEdit={me.data?.role === 'manager'} today={isoDate(new Date())} vehiclePath={vehiclePath} tripsPath={`/trips?routeId=${id}`} />
+      <RouteSpeedAdvice routeId={id} canPickSpec={me.data?.role === 'manager'} />
     </>
   );
 }

@@ -28,7 +28,7 @@ function FitFleet({ data }: { data: MapData }) {
 }
 
 /** The fleet's roads coloured by roughness class, with depots; click a segment for its details. */
-export function FleetMap({ routePath, reportLayer }: { routePath: (id: number) => string; reportLayer?: ReactNode }) {
+export function FleetMap({ routePath, reportLayer, segmentExtra }: { routePath: (id: number) => string; reportLayer?: ReactNode; /** Issue 7: more about the selected segment (speed advice). */ segmentExtra?: (id: number) => ReactNode }) {
   const config = useMapConfig();
   const data = useMapData();
   const [selected, setSelected] = useState<number | null>(null);
@@ -79,6 +79,7 @@ export function FleetMap({ routePath, reportLayer }: { routePath: (id: number) =
           ))}
         </fieldset>
         <SegmentPanel id={selected} routePath={routePath} />
+        {selected !== null && segmentExtra ? segmentExtra(selected) : null}
         {config.data.offline ? <p className="text-xs text-slate">Base layer: plain offline grid drawn by Reboundry. Set MAP_TILE_URL to use a street map.</p> : null}
       </aside>
     </div>

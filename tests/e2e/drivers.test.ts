@@ -1,0 +1,156 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { QueryTypes } from 'sequelize';
+import type { Browser } from 'playwright-core';
+import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { startTestServer, type TestServer } from '../support/server';
+import { DEMO, expectHeading, signIn } from './helpers';
+import { refreshExposure } from '../../server/drivers/exposure';
+
+let server: TestServer;
+let browser: Browser;
+
+/** A 1×1 PNG. */
+const PNG = Buffer.from('89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d4944415478da63f8cfc0f01f0005000201a0e7d6a90000000049454e44ae426082', 'hex');
+
+beforeAll(async () => {
+  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+async function q<T extends object>(sql: string, replacements: unknown[] = []) {
+  return server.db.sequelize.query<T>(sql, { replacements, type: QueryTypes.SELECT });
+}
+
+/** A point 20 m off the middle of a segment's first edge of non-zero length, at right angles. */
+async function beside(segmentId: number) {
+  const [s] = await q<{ geometry: string }>('SELECT geometry FROM route_segments WHERE id = ?', [segmentId]);
+  const all = JSON.parse(s!.geometry) as [number, number][];
+  const i = all.findIndex((p, k) => k > 0 && (p[0] !== all[k - 1]![0] || p[1] !== all[k - 1]![1]));
+  const [a, b] = [all[i - 1]!, all[i]!];
+  const mid = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
+  const mLat = 111_195;
+  const mLon = mLat * Math.cos((mid[1]! * Math.PI) / 180);
+  const dx = (b[0] - a[0]) * mLon;
+  const dy = (b[1] - a[1]) * mLat;
+  const len = Math.hypot(dx, dy);
+  return { latitude: mid[1]! + ((dx / len) * 20) / mLat, longitude: mid[0]! - ((dy / len) * 20) / mLon };
+}
+
+describe('drivers on a phone (390 × 844)', () => {
+  it('when a driver files a report with a photo and the manager accepts it, then the segment’s roughness changes and the driver sees the outcome', async () => {
+    const [seg] = await q<{ id: number; iso_class: string; gd_n0: number; route_name: string; seq: number }>(
+      `SELECT s.id, s.iso_class, s.gd_n0, r.name AS route_name, s.seq FROM route_segments s JOIN routes r ON r.id = s.route_id
+       WHERE s.roughness_source = 'survey' AND s.iso_class IN ('B', 'C') ORDER BY s.id LIMIT 1 OFFSET 5`,
+    );
+    const where = await beside(seg!.id);
+
+    // --- the driver, on the road
+    const driverCtx = await newContext(browser, 'phone', server.url);
+    await driverCtx.grantPermissions(['geolocation'], { origin: server.url });
+    await driverCtx.setGeolocation({ ...where, accuracy: 12 });
+    const page = await driverCtx.newPage();
+    await signIn(page, server.url, DEMO.driver);
+    await page.goto(`${server.url}/report`);
+    await expectHeading(page, 'Report a rough stretch');
+
+    // the draft survives a reload (a dropped connection)
+    await page.getByRole('radio', { name: /Severe/ }).check();
+    await page.getByRole('checkbox', { name: 'Potholes' }).check();
+    await page.reload();
+    await expect.poll(() => page.getByRole('radio', { name: /Severe/ }).isChecked()).toBe(true);
+    expect(await page.getByRole('checkbox', { name: 'Potholes' }).isChecked()).toBe(true);
+
+    await page.getByRole('button', { name: 'Use my position' }).click();
+    const snap = page.getByTestId('snap-result');
+    await snap.waitFor();
+    expect(await snap.innerText()).toContain(seg!.route_name);
+    expect(await snap.innerText()).toMatch(/segment \d+/);
+    await page.getByLabel(/Anything else/).fill('Deep hole on the left after the bend');
+    await page.locator('input[type=file]').setInputFiles({ name: 'hole.png', mimeType: 'image/png', buffer: PNG });
+    await page.getByText('Photo chosen: hole.png').waitFor();
+    await page.screenshot({ path: screenshotPath('drivers-phone-report-form'), fullPage: true });
+    await page.getByRole('button', { name: 'Send report' }).click();
+    await page.getByText('Report sent').waitFor();
+    await page.screenshot({ path: screenshotPath('drivers-phone-report-sent') });
+
+    const [report] = await q<{ id: number; segment_id: number; photo_path: string | null; severity: number }>('SELECT id, segment_id, photo_path, severity FROM ride_reports ORDER BY id DESC LIMIT 1');
+    expect(report!.segment_id).toBe(seg!.id);
+    expect(report!.photo_path).toMatch(/^ride-photos\/[0-9a-f]{32}\.png$/);
+    expect(report!.severity).toBe(3);
+
+    await page.goto(`${server.url}/my-reports`);
+    await page.getByText('Waiting for review').first().waitFor();
+    await page.screenshot({ path: screenshotPath('drivers-phone-my-reports-new'), fullPage: true });
+
+    // --- the manager reviews (also on a phone)
+    const mgrCtx = await newContext(browser, 'phone', server.url);
+    const mp = await mgrCtx.newPage();
+    await signIn(mp, server.url, DEMO.manager);
+    await mp.goto(`${server.url}/ride-reports`);
+    await expectHeading(mp, 'Drivers’ ride reports');
+    await mp.getByRole('button', { name: new RegExp(seg!.route_name) }).first().click();
+    const before = await mp.getByTestId('segment-roughness').innerText();
+    expect(before).toContain(`class ${seg!.iso_class}`);
+    await mp.getByTestId('review-report').first().getByRole('img').waitFor();
+    await mp.screenshot({ path: screenshotPath('drivers-phone-manager-review'), fullPage: true });
+    await mp.getByTestId('review-report').first().getByRole('button', { name: 'Accept' }).click();
+    const msg = mp.getByTestId('review-message');
+    await msg.waitFor();
+    const text = await msg.innerText();
+    expect(text).toMatch(new RegExp(`class ${seg!.iso_class} → [A-H]`));
+    await mp.screenshot({ path: screenshotPath('drivers-phone-manager-accepted'), fullPage: true });
+
+    const [after] = await q<{ gd_n0: number; iso_class: string; roughness_source: string }>('SELECT gd_n0, iso_class, roughness_source FROM route_segments WHERE id = ?', [seg!.id]);
+    expect(after!.roughness_source).toBe('driver_report');
+    expect(after!.gd_n0).toBeGreaterThan(seg!.gd_n0);
+    // the manager sees the change on the segment's own page too
+    await mp.goto(`${server.url}/map`);
+    await mp.screenshot({ path: screenshotPath('drivers-phone-manager-map') });
+
+    // --- the driver sees the outcome
+    await page.goto(`${server.url}/my-reports`);
+    await page.getByText('Accepted', { exact: true }).first().waitFor();
+    await page.screenshot({ path: screenshotPath('drivers-phone-my-reports-accepted'), fullPage: true });
+    await driverCtx.close();
+    await mgrCtx.close();
+  });
+
+  it('when a driver opens their exposure, then the chart shows the action and limit values with the screening caution', async () => {
+    const [driver] = await q<{ id: number }>('SELECT id FROM users WHERE email = ?', [DEMO.driver]);
+    const trips = await q<{ id: number; vehicle_id: number; route_id: number; started_at: string }>('SELECT id, vehicle_id, route_id, started_at FROM trips WHERE driver_id = ? ORDER BY started_at DESC LIMIT 12', [driver!.id]);
+    const now = new Date().toISOString();
+    for (const [i, t] of trips.entries()) {
+      const day = new Date(Date.parse('2026-11-29T00:00:00Z') - i * 2 * 86_400_000).toISOString().slice(0, 10);
+      for (const pos of ['FL', 'FR']) {
+        await server.db.sequelize.query(
+          `INSERT INTO trip_duties (trip_id, vehicle_id, route_id, driver_id, position, axle_index, trip_date, distance_km, duration_s, sprung_mass_kg, energy_j, mean_power_w, rms_relative_velocity, rms_suspension_travel, rms_tire_load_ratio, rms_body_accel, rms_weighted_accel, spring_damage, segments, profiled_segments, unrated_segments, created_at, updated_at)
+           VALUES (?, ?, ?, ?, ?, 0, ?, 60, ?, 400, 1, 1, 0.1, 0.01, 0.1, 1, ?, 0, 1, 0, 0, ?, ?)`,
+          { replacements: [t.id, t.vehicle_id, t.route_id, driver!.id, pos, day, 3600 * (3 + (i % 4)), 0.35 + 0.05 * (i % 6), now, now] },
+        );
+      }
+    }
+    await refreshExposure({ sequelize: server.db.sequelize, now: new Date('2026-11-30T12:00:00Z'), asOf: '2026-11-30', publicUrl: server.url, runId: null });
+    const ctx = await newContext(browser, 'phone', server.url);
+    const page = await ctx.newPage();
+    await signIn(page, server.url, DEMO.driver);
+    await page.goto(`${server.url}/exposure`);
+    await expectHeading(page, 'My vibration exposure');
+    await page.getByText(/not a measurement at the seat/).waitFor();
+    await page.getByText(/action 0.5 m\/s²/).first().waitFor();
+    await page.screenshot({ path: screenshotPath('drivers-phone-exposure'), fullPage: true });
+    await ctx.close();
+
+    const mctx = await newContext(browser, 'desktop', server.url);
+    const mp = await mctx.newPage();
+    await signIn(mp, server.url, DEMO.manager);
+    await mp.goto(`${server.url}/exposure`);
+    await expectHeading(mp, 'Drivers’ vibration exposure');
+    await mp.getByRole('heading', { name: /Days above the action value/ }).waitFor();
+    await mp.screenshot({ path: screenshotPath('drivers-desktop-exposure-overview'), fullPage: true });
+    await mctx.close();
+  });
+});

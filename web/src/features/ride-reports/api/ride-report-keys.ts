@@ -1,0 +1,47 @@
+export const rideReportKeys = {
+  all: ['ride-reports'] as const,
+  scale: () => ['ride-reports', 'scale'] as const,
+  lists: () => ['ride-reports', 'list'] as const,
+  list: (params: Record<string, string | number | undefined>) => ['ride-reports', 'list', params] as const,
+  groups: (status: string) => ['ride-reports', 'groups', status] as const,
+  detail: (id: number) => ['ride-reports', 'detail', id] as const,
+  lines: () => ['ride-reports', 'lines'] as const,
+};
+
+export interface RideReport {
+  id: number;
+  driverId: number;
+  driverName: string | null;
+  fleetNumber: string | null;
+  routeId: number;
+  routeName: string;
+  segmentId: number;
+  segmentSeq: number | null;
+  segmentStartM: number | null;
+  segmentEndM: number | null;
+  segmentClass: string | null;
+  segmentGdN0: number | null;
+  segmentIri: number | null;
+  segmentSource: string | null;
+  lat: number;
+  lon: number;
+  positionSource: 'gps' | 'map';
+  accuracyM: number | null;
+  snappedLat: number;
+  snappedLon: number;
+  snapDistanceM: number;
+  severity: number;
+  felt: string[];
+  note: string | null;
+  hasPhoto: boolean;
+  reportedAt: string;
+  status: 'new' | 'accepted' | 'dismissed';
+  decidedByName: string | null;
+  decidedAt: string | null;
+  dismissReason: string | null;
+  classBefore: string | null;
+  estimatedClass: string | null;
+  estimatedGdN0: number | null;
+}
+
+export const photoUrl = (id: number) => `/api/ride-reports/${id}/photo`;

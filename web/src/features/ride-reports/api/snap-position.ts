@@ -1,0 +1,18 @@
+import { useMutation } from '@tanstack/react-query';
+import { z } from 'zod';
+import { api } from '@/lib/api-client';
+
+export const snapSchema = z.object({ lat: z.number().min(-90).max(90), lon: z.number().min(-180).max(180) });
+
+export interface SnapResult {
+  segment: { id: number; routeId: number; routeName: string; seq: number; startM: number; endM: number; isoClass: string | null };
+  point: { lat: number; lon: number };
+  distanceM: number;
+  maxDistanceM: number;
+}
+
+export const snapPosition = (p: z.infer<typeof snapSchema>) => api.post<SnapResult>('/api/ride-reports/snap', snapSchema.parse(p));
+
+export function useSnapPosition() {
+  return useMutation({ mutationFn: snapPosition });
+}

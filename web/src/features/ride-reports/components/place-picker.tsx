@@ -1,0 +1,48 @@
+import 'leaflet/dist/leaflet.css';
+import { useEffect } from 'react';
+import L from 'leaflet';
+import { CircleMarker, MapContainer, useMap, useMapEvents } from 'react-leaflet';
+import { BaseLayer } from '@/components/map/base-layer';
+import { SegmentLayer } from '@/components/map/segment-layer';
+import { LoadingState } from '@/components/ui/loading-state';
+import { useRoadLines } from '../api/get-road-lines';
+
+function TapToPlace({ onPick }: { onPick: (lat: number, lon: number) => void }) {
+  useMapEvents({ click: (e) => onPick(e.latlng.lat, e.latlng.lng) });
+  return null;
+}
+
+function FollowPoint({ point, lines }: { point: { lat: number; lon: number } | null; lines: [number, number][][] }) {
+  const map = useMap();
+  useEffect(() => {
+    if (point) {
+      map.setView([point.lat, point.lon], Math.max(map.getZoom(), 14));
+      return;
+    }
+    const b = L.latLngBounds([]);
+    for (const line of lines) for (const [lon, lat] of line) b.extend([lat, lon]);
+    if (b.isValid()) map.fitBounds(b, { padding: [10, 10] });
+    // only on first draw and when the point changes
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [map, point?.lat, point?.lon]);
+  return null;
+}
+
+/** A small map of our roads: tap where the rough stretch is. Shows the reported and the snapped point. */
+export function PlacePicker({ point, snapped, onPick }: { point: { lat: number; lon: number } | null; snapped: { lat: number; lon: number } | null; onPick: (lat: number, lon: number) => void }) {
+  const lines = useRoadLines();
+  if (lines.isPending) return <LoadingState label="Loading the road map…" />;
+  if (!lines.data) return <p className="text-sm text-slate">The map could not be loaded. Use your position instead.</p>;
+  return (
+    <div className="h-64 overflow-hidden rounded-md border border-line" data-testid="place-picker">
+      <MapContainer preferCanvas center={[52.56, -1.4]} zoom={10} className="h-full w-full" attributionControl={false}>
+        <BaseLayer />
+        <SegmentLayer data={lines.data.segments} weight={5} />
+        <TapToPlace onPick={onPick} />
+        <FollowPoint point={point} lines={lines.data.segments.coords} />
+        {point ? <CircleMarker center={[point.lat, point.lon]} radius={7} pathOptions={{ color: '#1E2A32', weight: 2, fillColor: '#FAF8F3', fillOpacity: 1 }} /> : null}
+        {snapped ? <CircleMarker center={[snapped.lat, snapped.lon]} radius={6} pathOptions={{ color: '#D9622B', weight: 3, fillColor: '#D9622B', fillOpacity: 0.9 }} /> : null}
+      </MapContainer>
+    </div>
+  );
+}
