@@ -22,11 +22,11 @@ export function registerWearRoutes(r: Router, deps: { sequelize: Sequelize; conf
     const dampers = await repo.fittedDampers(id);
     const ids = dampers.map((d) => d.id);
     const [history, byRoute, next] = await Promise.all([repo.history(ids), repo.dutyByRoute(ids), inspections.nextForVehicle(id)]);
-    const θ = deps.config.inspection.threshold;
+    const th = deps.config.inspection.threshold;
     const totalEnergy = byRoute.reduce((s, x) => s + x.energy_j, 0);
     res.json({
       vehicleId: id,
-      thresholdFraction: θ,
+      thresholdFraction: th,
       windowDays: DUTY_WINDOW_DAYS,
       caution: CAUTION_TEXT,
       assumptions: [
@@ -34,6 +34,7 @@ export function registerWearRoutes(r: Router, deps: { sequelize: Sequelize; conf
         `Present damping is estimated as a linear fade from the nominal value to ${Math.round(DAMPING_AT_END_OF_LIFE * 100)} % at end of life (an assumption until a test-lane result is recorded).`,
         `Dates are a straight-line projection of the last ${DUTY_WINDOW_DAYS} days' duty.`,
         `Spring fatigue uses an assumed S–N curve (not the spring maker's).`,
+        `Consumed life counts only the duty of trips on record; distance a damper ran before the first recorded trip is not included, so an older damper may be more worn than shown.`,
       ],
       dampers: dampers.map((d) => {
         const rows = history.filter((h) => h.damper_id === d.id);
@@ -41,7 +42,7 @@ export function registerWearRoutes(r: Router, deps: { sequelize: Sequelize; conf
         const path: { day: string; lifeUsedFraction: number }[] = [];
         if (d.p_as_of) {
           path.push({ day: d.p_as_of, lifeUsedFraction: d.life_used_fraction });
-          if (d.threshold_date && d.threshold_date > d.p_as_of) path.push({ day: d.threshold_date, lifeUsedFraction: θ });
+          if (d.threshold_date && d.threshold_date > d.p_as_of) path.push({ day: d.threshold_date, lifeUsedFraction: th });
           if (d.end_of_life_date && d.end_of_life_date > d.p_as_of) path.push({ day: d.end_of_life_date, lifeUsedFraction: 1 });
         }
         return {

@@ -20,6 +20,9 @@ const icon = (d: string) => (
 );
 
 export const pages = {
+  due: { path: '/due', label: 'Due', roles: ['manager'], icon: icon('M12 7v5l3 2M12 21a9 9 0 1 0 0-18 9 9 0 0 0 0 18z') },
+  jobs: { path: '/jobs', label: 'Job runs', roles: ['manager'], icon: icon('M4 12a8 8 0 0 1 14-5.3M20 12a8 8 0 0 1-14 5.3M18 3v4h-4M6 21v-4h4') },
+  outbox: { path: '/outbox', label: 'Outbox', roles: ['manager'], icon: icon('M3 6h18v12H3zM3 7l9 6 9-6') },
   fleet: { path: '/fleet', label: 'Fleet', roles: ['manager'], icon: icon('M4 4h7v7H4zM13 4h7v7h-7zM4 13h7v7H4zM13 13h7v7h-7z') },
   workshop: {
     path: '/workshop',
@@ -50,7 +53,7 @@ export const pages = {
   account: { path: '/account', label: 'Account', roles: ['manager', 'mechanic', 'driver'], icon: icon('M12 12a4 4 0 1 0 0-8 4 4 0 0 0 0 8zM4.5 20a7.5 7.5 0 0 1 15 0') },
 } satisfies Record<string, PageAccess>;
 
-const menuOrder: PageAccess[] = [pages.fleet, pages.workshop, pages.myVehicle, pages.map, pages.vehicles, pages.specs, pages.routes, pages.trips, pages.planning, pages.fleetLife, pages.modelCheck, pages.people, pages.account];
+const menuOrder: PageAccess[] = [pages.due, pages.fleet, pages.workshop, pages.myVehicle, pages.map, pages.vehicles, pages.specs, pages.routes, pages.trips, pages.planning, pages.fleetLife, pages.modelCheck, pages.people, pages.jobs, pages.outbox, pages.account];
 
 // issue 7: the driver's report pages after "My vehicle"; ride reports and exposure after "Map"
 menuOrder.splice(menuOrder.indexOf(pages.myVehicle) + 1, 0, pages.report, pages.myReports);
@@ -63,7 +66,7 @@ export function menuFor(role: Role): PageAccess[] {
 
 /** Where each role starts after signing in. */
 export const landingPaths: Record<Role, string> = {
-  manager: pages.fleet.path,
+  manager: pages.due.path,
   mechanic: pages.workshop.path,
   driver: pages.myVehicle.path,
 };

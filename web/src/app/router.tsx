@@ -1,7 +1,6 @@
 import { createBrowserRouter, redirect } from 'react-router';
 import type { QueryClient } from '@tanstack/react-query';
 import { meQueryOptions } from '@/features/auth/api/get-me';
-import { AccountPage } from '@/features/auth/components/account-page';
 import { AppShell } from './app-shell';
 import { AppLoading } from './routes/app-loading';
 import { landingRedirect, requireRole, requireUser } from './guards';
@@ -20,6 +19,10 @@ import { MapPage } from './routes/map-page';
 import { RoutePage } from './routes/route-page';
 import { TripsPage } from './routes/trips-page';
 import { SpecEditPage } from './routes/spec-edit-page';
+import { DuePage } from './routes/due-page';
+import { JobRunsPage } from './routes/job-runs-page';
+import { OutboxPage } from './routes/outbox-page';
+import { AccountRoute } from './routes/account-route';
 
 import { InspectionPage } from './routes/inspection-page';
 import { WorkRecordPage } from './routes/work-record-page';
@@ -72,7 +75,10 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: `${strip(pages.specs.path)}/new`, loader: only(pages.specs), element: <SpecEditPage /> },
             { path: `${strip(pages.specs.path)}/:specId/edit`, loader: only(pages.specs), element: <SpecEditPage /> },
             { path: strip(pages.people.path), loader: only(pages.people), element: <PeoplePage /> },
-            { path: strip(pages.account.path), loader: only(pages.account), element: <AccountPage /> },
+            { path: strip(pages.account.path), loader: only(pages.account), element: <AccountRoute /> },
+            { path: strip(pages.due.path), loader: only(pages.due), element: <DuePage /> },
+            { path: strip(pages.jobs.path), loader: only(pages.jobs), element: <JobRunsPage /> },
+            { path: strip(pages.outbox.path), loader: only(pages.outbox), element: <OutboxPage /> },
             { path: 'inspections/:inspectionId', loader: only({ roles: ['mechanic', 'manager'] }), element: <InspectionPage /> },
             { path: 'work-records/:workRecordId', loader: only({ roles: ['mechanic', 'manager'] }), element: <WorkRecordPage /> },
             { path: strip(pages.planning.path), loader: only(pages.planning), element: <PlanningPage /> },

@@ -16,6 +16,7 @@ import { RecentTrips } from '@/features/vehicles/components/recent-trips';
 import { VehicleFacts } from '@/features/vehicles/components/vehicle-facts';
 import { VehicleInspections } from '@/features/vehicles/components/vehicle-inspections';
 import { VehicleStatusBadge } from '@/features/vehicles/components/vehicle-status-badge';
+import { VehicleWear } from '@/features/wear/components/vehicle-wear';
 import type { Role } from '@/lib/roles';
 import { requireRole } from '../guards';
 import { pages, workRecordPath } from '../navigation';
@@ -96,6 +97,8 @@ function VehicleDetailView({ detail, back }: { detail: VehicleDetail; back: { to
       </div>
 
       {me.data && me.data.role !== 'driver' ? <VehicleWorkshopPanel vehicleId={vehicle.id} workRecordPath={workRecordPath} /> : null}
+
+      <VehicleWear vehicleId={vehicle.id} />
 
       <Section title="Recent trips" description="What the dampers went through: route, distance, speed and load.">
         <RecentTrips trips={detail.recentTrips} />

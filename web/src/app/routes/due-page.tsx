@@ -1,0 +1,73 @@
+import { useState } from 'react';
+import { ButtonLink } from '@/components/ui/button';
+import { BaseLayer } from '@/components/map/base-layer';
+import { ErrorState } from '@/components/ui/error-state';
+import { FigureCard } from '@/components/ui/figure-card';
+import { LoadingState } from '@/components/ui/loading-state';
+import { PageHeader } from '@/components/ui/page-header';
+import { SelectField } from '@/components/ui/field';
+import { Button } from '@/components/ui/button';
+import { StatusShape } from '@/components/ui/status-badge';
+import { useDepots } from '@/features/depots/api/get-depots';
+import { useDueInspections } from '@/features/inspections/api/get-due-inspections';
+import { DueInspectionsList } from '@/features/inspections/components/due-inspections';
+import { DueMap } from '@/features/inspections/components/due-map';
+import { formatNumber } from '@/lib/format';
+import { pages, vehiclePath } from '../navigation';
+
+/** The fleet manager's home: inspections overdue, due, and coming in the next 30 and 90 days. */
+export function DuePage() {
+  const [depotId, setDepotId] = useState<number | null>(null);
+  const [mode, setMode] = useState<'list' | 'map'>('list');
+  const due = useDueInspections(depotId);
+  const depots = useDepots();
+  const c = due.data?.counts;
+
+  return (
+    <>
+      <title>Due inspections · Reboundry</title>
+      <PageHeader
+        title="Due inspections"
+        description="Which vehicles need their dampers and springs checked, why, and how soon — from the roads they drive and the interval rule."
+        actions={
+          <ButtonLink to={pages.jobs.path} variant="secondary">
+            Job runs
+          </ButtonLink>
+        }
+      />
+      <div className="mb-6 grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
+        <FigureCard icon={<StatusShape tone="overdue" />} label="Overdue" value={c ? formatNumber(c.overdue) : '…'} unit="vehicles" />
+        <FigureCard icon={<StatusShape tone="due" />} label="Due now" value={c ? formatNumber(c.due) : '…'} unit="vehicles" />
+        <FigureCard icon={<StatusShape tone="watch" />} label="Next 30 days" value={c ? formatNumber(c.next30) : '…'} unit="vehicles" />
+        <FigureCard icon={<StatusShape tone="neutral" />} label="In 31–90 days" value={c ? formatNumber(c.next90) : '…'} unit="vehicles" />
+      </div>
+      <div className="mb-6 flex flex-wrap items-end gap-4">
+        <SelectField
+          label="Depot"
+          className="w-64"
+          value={depotId === null ? '' : String(depotId)}
+          onChange={(e) => setDepotId(e.target.value ? Number(e.target.value) : null)}
+          options={[{ value: '', label: 'All depots' }, ...(depots.data?.items ?? []).map((d) => ({ value: String(d.id), label: d.name }))]}
+        />
+        <div className="flex gap-2" role="group" aria-label="View">
+          <Button variant={mode === 'list' ? 'primary' : 'secondary'} aria-pressed={mode === 'list'} onClick={() => setMode('list')}>
+            List
+          </Button>
+          <Button variant={mode === 'map' ? 'primary' : 'secondary'} aria-pressed={mode === 'map'} onClick={() => setMode('map')}>
+            Map
+          </Button>
+        </div>
+        {due.data ? <p className="text-sm text-slate">As of {due.data.today}.</p> : null}
+      </div>
+      {due.isPending ? (
+        <LoadingState label="Loading due inspections…" />
+      ) : due.error ? (
+        <ErrorState error={due.error} what="the due inspections" onRetry={() => void due.refetch()} />
+      ) : mode === 'map' ? (
+        <DueMap items={due.data.items} baseLayer={<BaseLayer />} vehiclePath={vehiclePath} />
+      ) : (
+        <DueInspectionsList data={due.data} vehiclePath={vehiclePath} />
+      )}
+    </>
+  );
+}

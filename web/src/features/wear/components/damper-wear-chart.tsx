@@ -1,0 +1,66 @@
+import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { formatDate, formatNumber } from '@/lib/format';
+import type { DamperWear } from '../api/get-vehicle-wear';
+
+const day = (s: string) => Date.parse(`${s}T00:00:00Z`);
+const DAY = 86_400_000;
+
+/**
+ * One damper's consumed life over time (solid), the predicted path to the inspection threshold
+ * and end of life (dashed), and the threshold as a line. Dates on the x axis, % of life on y.
+ */
+export function DamperWearChart({ damper, thresholdFraction }: { damper: DamperWear; thresholdFraction: number }) {
+  const points = new Map<number, { t: number; used: number | null; predicted: number | null }>();
+  for (const h of damper.history) points.set(day(h.day), { t: day(h.day), used: h.lifeUsedFraction * 100, predicted: null });
+  // The projection is drawn up to end of life, but at most three years ahead (beyond that the
+  // recorded history would shrink to nothing); a cut path ends on the straight line.
+  const path = damper.path.map((p) => ({ t: day(p.day), v: p.lifeUsedFraction * 100 }));
+  if (path.length) {
+    const horizon = Math.max(path[0].t + 90 * DAY, Math.min(path[path.length - 1].t, path[0].t + 3 * 365 * DAY));
+    for (let i = 0; i < path.length; i++) {
+      let { t, v } = path[i];
+      if (t > horizon) {
+        const a = path[i - 1];
+        v = a.v + ((v - a.v) * (horizon - a.t)) / (t - a.t);
+        t = horizon;
+      }
+      const cur = points.get(t) ?? { t, used: null, predicted: null };
+      cur.predicted = v;
+      points.set(t, cur);
+      if (t === horizon) break;
+    }
+  }
+  const data = [...points.values()].sort((a, b) => a.t - b.t);
+  const top = Math.max(105, ...data.map((d) => Math.max(d.used ?? 0, d.predicted ?? 0) * 1.05));
+  const label = `Consumed life of the ${damper.position} damper over time, with the predicted path`;
+  return (
+    <figure aria-label={label}>
+      <div className="h-48 w-full">
+        <ResponsiveContainer>
+          <LineChart data={data} margin={{ top: 8, right: 12, bottom: 18, left: 0 }}>
+            <CartesianGrid stroke="#0001" vertical={false} />
+            <XAxis
+              dataKey="t"
+              type="number"
+              scale="time"
+              domain={['dataMin', 'dataMax']}
+              tickFormatter={(v: number) => formatDate(new Date(v))}
+              tick={{ fontSize: 11 }}
+              minTickGap={40}
+            />
+            <YAxis domain={[0, Math.ceil(top / 10) * 10]} ticks={[0, 20, 40, 60, 80, 100]} tickFormatter={(v: number) => formatNumber(v)} tick={{ fontSize: 11 }} width={44} label={{ value: 'life used [%]', angle: -90, position: 'insideLeft', fontSize: 11, dy: 40 }} />
+            <ReferenceLine y={thresholdFraction * 100} stroke="#D9622B" strokeDasharray="6 3" label={{ value: `inspect at ${formatNumber(thresholdFraction * 100)} %`, position: 'insideTopLeft', fontSize: 11, fill: '#9c441a' }} />
+            <ReferenceLine y={100} stroke="#B3261E" label={{ value: 'end of life', position: 'insideTopLeft', fontSize: 11, fill: '#B3261E' }} />
+            <Tooltip
+              labelFormatter={(v) => formatDate(new Date(Number(v)))}
+              formatter={(v, name) => [typeof v === 'number' ? `${formatNumber(v, 1)} %` : String(v), name === 'used' ? 'life used' : 'predicted']}
+            />
+            <Line dataKey="used" name="used" stroke="#1E2A32" strokeWidth={2} dot={false} isAnimationActive={false} connectNulls />
+            <Line dataKey="predicted" name="predicted" stroke="#1E2A32" strokeDasharray="5 4" strokeWidth={1.5} dot={{ r: 3 }} isAnimationActive={false} connectNulls />
+          </LineChart>
+        </ResponsiveContainer>
+      </div>
+      <figcaption className="sr-only">{label}. Solid: from recorded trips. Dashed: projected at the last 30 days’ rate.</figcaption>
+    </figure>
+  );
+}
