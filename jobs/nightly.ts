@@ -22,6 +22,7 @@ import { loadSurveyProfile } from '../server/roads/profile-store';
 import { localDay, startOfLocalDay } from '../server/wear/repository';
 import { predictAll, processTrips, recomputeWear, RunAborted, type ItemError, type PhaseContext } from '../server/wear/service';
 import { plusDays, type LifeResolver } from '../server/wear/wear';
+import { workshopLifeOrRated } from '../server/workshop/nightly-life';
 // issue 7: drivers' daily exposure step; importing ride-mail registers the severe-reports digest section
 import { refreshExposure } from '../server/drivers/exposure';
 import '../server/drivers/ride-mail';
@@ -108,7 +109,8 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     batchTrips: config.nightlyBatchTrips,
     thresholdFraction: config.inspection.threshold,
     signal: opts.signal,
-    lifeResolver: opts.lifeResolver,
+    // issue 6: the fleet-blended / test-lane life unless a caller gives its own
+    lifeResolver: opts.lifeResolver ?? (await workshopLifeOrRated(log)),
     failAfterBatches: opts.failAfterBatches,
     loadProfile: loadSurveyProfile,
     progress,

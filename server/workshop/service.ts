@@ -21,6 +21,8 @@ export const VERDICTS = ['ok', 'monitor', 'replace'] as const;
 export const OPEN = ['scheduled', 'due', 'overdue'];
 
 const day = (d: Date) => formatISO(d, { representation: 'date' });
+/** A stored SQLite timestamp ('YYYY-MM-DD HH:MM:SS.sss +00:00') as ISO 8601, or null. */
+const iso = (s: string | null) => (s ? new Date(String(s).replace(' ', 'T').replace(/ ?\+00:00$/, 'Z')).toISOString() : null);
 
 export interface CornerState {
   damperId: number;
@@ -189,7 +191,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
           assignee: r.assignee_id ? { id: r.assignee_id, name: r.assignee_name ?? '' } : null,
           depot: { id: r.depot_id, name: r.depot_name, assignedDirectly: r.assigned_depot_id !== null },
           resultsRecorded: r.results_at !== null,
-          completedAt: r.completed_at,
+          completedAt: iso(r.completed_at),
           corners: by.get(r.vehicle_id) ?? [],
         })),
       };
@@ -233,8 +235,8 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         assignedDepotId: i.assigned_depot_id,
         odometerKm: i.odometer_km,
         notes: i.notes,
-        resultsAt: i.results_at,
-        completedAt: i.completed_at,
+        resultsAt: iso(i.results_at),
+        completedAt: iso(i.completed_at),
         predicted: by.get(i.vehicle_id) ?? [],
         results: corners,
         axleDifferences: axleDifferences(corners, cfg.laneFlagPoints),
@@ -556,7 +558,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       const spread = n > 1 ? Math.sqrt(diffs.reduce((s, x) => s + (x - bias!) ** 2, 0) / (n - 1)) : null;
       const rel = rows.map((r) => (r.predicted - r.measured) / r.nominal);
       return {
-        points: rows.map((r) => ({ inspectionId: r.inspection_id, vehicleId: r.vehicle_id, fleetNumber: r.fleet_number, position: r.position, predictedNsPerM: r.predicted, measuredNsPerM: r.measured, nominalNsPerM: r.nominal, basis: r.basis, date: r.completed })),
+        points: rows.map((r) => ({ inspectionId: r.inspection_id, vehicleId: r.vehicle_id, fleetNumber: r.fleet_number, position: r.position, predictedNsPerM: r.predicted, measuredNsPerM: r.measured, nominalNsPerM: r.nominal, basis: r.basis, date: iso(r.completed) })),
         n,
         biasNsPerM: bias,
         spreadNsPerM: spread,
@@ -596,7 +598,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
             ? `Life used: fleet-blended (${(life.blend.weight * 100).toFixed(0)} % weight on ${life.blend.failures} removals of this spec), ${life.blend.axles.map((a) => `axle ${a.axleIndex + 1}: ${Math.round(a.usedKm).toLocaleString('en-GB')} km`).join(', ')}.`
             : `Life used: rated (${life.blend.axles.map((a) => `axle ${a.axleIndex + 1}: ${Math.round(a.ratedKm).toLocaleString('en-GB')} km`).join(', ')}); the fleet's own life takes over from ${life.blend.minRemovals} removals (now ${life.blend.failures}).`,
         },
-        comparisons: comparisons.map((c) => ({ inspectionId: c.inspection_id, position: c.position, adhesionPct: c.adhesion_pct, predictedNsPerM: c.predicted, measuredNsPerM: c.measured, nominalNsPerM: c.nominal, note: c.note, verdict: c.verdict, at: c.at, basis: c.basis })),
+        comparisons: comparisons.map((c) => ({ inspectionId: c.inspection_id, position: c.position, adhesionPct: c.adhesion_pct, predictedNsPerM: c.predicted, measuredNsPerM: c.measured, nominalNsPerM: c.nominal, note: c.note, verdict: c.verdict, at: iso(c.at), basis: c.basis })),
         workRecords: (await workshopRepository.workRecords({ vehicleId })).map(workView),
       };
     },

@@ -256,3 +256,36 @@ describe('work records', () => {
     for (const d of r.body.depots) expect(d.weeks.length).toBe(6);
   });
 });
+
+describe('life used by the nightly job', () => {
+  it('when a spec has at least FLEET_LIFE_MIN_REMOVALS removals, then the resolver gives the fleet-blended life (credibility n/(n+k)) and says so', async () => {
+    const { createWorkshopLifeResolver } = await import('../../server/workshop/life');
+    const { loadWorkshopConfig } = await import('../../server/workshop/config');
+    const { ratedLife } = await import('../../server/wear/wear');
+    const m = await manager();
+    const specs = await m.get<{ items: { id: number }[] }>('/api/specs');
+    let checked = 0;
+    const resolve = await createWorkshopLifeResolver(loadWorkshopConfig());
+    for (const s of specs.body.items) {
+      const life = await m.get<{ blend: { used: boolean; weight: number; failures: number; axles: { axleIndex: number; ratedKm: number; usedKm: number }[] } }>(`/api/fleet-life?specId=${s.id}`);
+      if (!life.body.blend.used) continue;
+      expect(life.body.blend.failures).toBeGreaterThanOrEqual(5);
+      expect(life.body.blend.weight).toBeCloseTo(life.body.blend.failures / (life.body.blend.failures + 10), 12);
+      const [d] = await srv.db.sequelize.query<{ id: number; axle_index: number; sprung_mass_kg: number; unsprung_mass_kg: number; spring_rate_n_per_m: number; damping_ns_per_m: number; tire_rate_n_per_m: number; rated_damper_life_km: number }>(
+        `SELECT d.id, d.axle_index, a.sprung_mass_kg, a.unsprung_mass_kg, a.spring_rate_n_per_m, a.damping_ns_per_m, a.tire_rate_n_per_m, a.rated_damper_life_km
+         FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
+         WHERE v.spec_id = ? AND d.removed_at IS NULL AND NOT EXISTS (SELECT 1 FROM inspection_corners c WHERE c.damper_id = d.id) LIMIT 1`,
+        { replacements: [s.id], type: 'SELECT' as never },
+      );
+      const corner = { sprungMassKg: d.sprung_mass_kg, unsprungMassKg: d.unsprung_mass_kg, springRateNPerM: d.spring_rate_n_per_m, dampingNsPerM: d.damping_ns_per_m, tireRateNPerM: d.tire_rate_n_per_m };
+      const got = resolve({ damperId: d.id, corner, ratedDamperLifeKm: d.rated_damper_life_km });
+      const axle = life.body.blend.axles.find((a) => a.axleIndex === d.axle_index)!;
+      const rated = ratedLife({ damperId: d.id, corner, ratedDamperLifeKm: d.rated_damper_life_km }).energyJ;
+      expect(got.source).toBe('fleet');
+      // rated-life energy is linear in km (class B at 80 km/h), so the blend scales it by used/rated km (computed)
+      expect(got.energyJ / rated).toBeCloseTo(axle.usedKm / axle.ratedKm, 6);
+      checked++;
+    }
+    expect(checked, 'the demo fleet has a spec past the removal threshold').toBeGreaterThan(0);
+  });
+});

@@ -19,6 +19,9 @@ function FitCharts({ view, title }: { view: FitView; title: string }) {
       }))
     : [];
   const tick = (v: number) => formatNumber(Math.exp(v), 0);
+  const yTicks = [0.01, 0.02, 0.05, 0.1, 0.2, 0.5, 0.632, 0.9, 0.99].map((F) => Math.log(-Math.log(1 - F)));
+  const xs = [...pts.map((p) => p.x), ...line.map((p) => p.x)];
+  const xTicks = [1, 2, 5].flatMap((m) => [1e2, 1e3, 1e4, 1e5, 1e6].map((e) => Math.log(m * e))).filter((x) => xs.length && x >= Math.min(...xs) - 0.3 && x <= Math.max(...xs) + 0.3).sort((a, b) => a - b);
   return (
     <Section title={title} level={3}>
       {f ? (
@@ -35,14 +38,15 @@ function FitCharts({ view, title }: { view: FitView; title: string }) {
       )}
       {f?.bounds ? <p className="mt-1 text-xs text-slate">Bounds: {Math.round(f.bounds.level * 100)} % two-sided, {f.bounds.method}.</p> : null}
       {view.excluded ? <p className="text-xs text-slate">{view.excluded} damper(s) left out (no usable life in {u}).</p> : null}
+      {view.points.length ? (
       <div className="mt-3 grid gap-4 lg:grid-cols-2">
         <figure>
           <figcaption className="mb-1 text-sm font-medium">Weibull probability plot (removals, median ranks)</figcaption>
           <ResponsiveContainer width="100%" height={260}>
             <ComposedChart margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
               <CartesianGrid stroke="#e3ded3" />
-              <XAxis type="number" dataKey="x" domain={['auto', 'auto']} tickFormatter={tick} label={{ value: `life [${u}] (log scale)`, position: 'bottom', offset: 4 }} />
-              <YAxis type="number" dataKey="y" domain={['auto', 'auto']} tickFormatter={(v: number) => `${formatNumber((1 - Math.exp(-Math.exp(v))) * 100, 0)} %`} label={{ value: 'removed [%]', angle: -90, position: 'insideLeft' }} />
+              <XAxis type="number" dataKey="x" domain={['dataMin', 'dataMax']} ticks={xTicks} tickFormatter={tick} label={{ value: `life [${u}] (log scale)`, position: 'bottom', offset: 4 }} />
+              <YAxis type="number" dataKey="y" domain={[yTicks[0], yTicks[yTicks.length - 1]]} ticks={yTicks} width={56} tickFormatter={(v: number) => `${formatNumber((1 - Math.exp(-Math.exp(v))) * 100, 0)} %`} label={{ value: 'removed [%]', angle: -90, position: 'insideLeft' }} />
               <Scatter name="removals" data={pts} fill="#D9622B" isAnimationActive={false} />
               <Line name="fit" data={line} dataKey="y" stroke="#1E2A32" dot={false} isAnimationActive={false} />
               <Legend verticalAlign="top" />
@@ -62,6 +66,7 @@ function FitCharts({ view, title }: { view: FitView; title: string }) {
           </ResponsiveContainer>
         </figure>
       </div>
+      ) : null}
     </Section>
   );
 }
