@@ -41,7 +41,9 @@ export function registerSpeedAdviceRoutes(api: Router) {
     });
     if (q.segmentId && !segs.some((s) => s.id === q.segmentId)) throw AppError.badRequest('Some values in the query are not valid.', { segmentId: 'is not a segment of this route' });
     const rated = segs.filter((s) => s.gdN0 !== null && s.gdN0 > 0);
-    const chartSeg = q.segmentId ? segs.find((s) => s.id === q.segmentId)! : rated.reduce<(typeof rated)[number] | null>((a, b) => (!a || b.gdN0! > a.gdN0! ? b : a), null);
+    // The chart shows the chosen segment, or by default the route's median roughness (a typical stretch).
+    const byGd = [...rated].sort((a, b) => a.gdN0! - b.gdN0!);
+    const chartSeg = q.segmentId ? segs.find((s) => s.id === q.segmentId)! : (byGd[Math.floor(byGd.length / 2)] ?? null);
     const chart = chartSeg && chartSeg.gdN0 ? { segmentId: chartSeg.id, seq: chartSeg.seq, isoClass: chartSeg.isoClass, gdN0: chartSeg.gdN0, points: dutyCurve(prepared, chartSeg.gdN0) } : null;
     const advised = segments.map((s) => s.advisedKmh).filter((v): v is number => v !== null);
     res.json({

@@ -22,7 +22,7 @@ export const COMFORT_BANDS = [
 ] as const;
 export type ComfortKey = (typeof COMFORT_BANDS)[number]['key'];
 export const COMFORT_KEYS = COMFORT_BANDS.map((b) => b.key) as [ComfortKey, ...ComfortKey[]];
-export const DEFAULT_COMFORT: ComfortKey = 'a-little';
+export const DEFAULT_COMFORT: ComfortKey = 'fairly';
 /** Default limit of mean power per damper [W] (our planning default; a damper sheds a few hundred W at most in steady running, common practice). */
 export const DEFAULT_POWER_LIMIT_W = 150;
 /** Advice is given between these speeds [km/h]. */

@@ -153,4 +153,23 @@ describe('drivers on a phone (390 × 844)', () => {
     await mp.screenshot({ path: screenshotPath('drivers-desktop-exposure-overview'), fullPage: true });
     await mctx.close();
   });
+
+  it('when a manager opens a route and a segment on the map, then speed advice shows with its chart and caution', async () => {
+    const [seg] = await q<{ id: number; route_id: number }>(`SELECT id, route_id FROM route_segments WHERE iso_class IN ('D', 'E') ORDER BY id LIMIT 1`);
+    const ctx = await newContext(browser, 'desktop', server.url);
+    const page = await ctx.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await page.goto(`${server.url}/routes/${seg!.route_id}`);
+    const section = page.getByRole('region', { name: 'Speed advice' });
+    await section.getByRole('table', { name: 'Advised speed per segment' }).waitFor();
+    await section.getByText(/Posted limits/).waitFor();
+    await section.scrollIntoViewIfNeeded();
+    await section.screenshot({ path: screenshotPath('drivers-desktop-route-speed-advice') });
+    await page.goto(`${server.url}/map?segment=${seg!.id}`);
+    const panel = page.getByTestId('segment-speed-advice');
+    await panel.waitFor();
+    expect(await panel.innerText()).toMatch(/Up to .* km\/h/);
+    await page.screenshot({ path: screenshotPath('drivers-desktop-map-segment-advice') });
+    await ctx.close();
+  });
 });

@@ -65,7 +65,7 @@ export function SpeedAdviceControls({
 
 /** Speed advice along a route: per segment, with the chart of duty against speed. */
 export function RouteSpeedAdvice({ routeId, canPickSpec }: { routeId: number; canPickSpec: boolean }) {
-  const [comfort, setComfort] = useState('a-little');
+  const [comfort, setComfort] = useState('fairly');
   const [powerLimitW, setPowerLimitW] = useState(150);
   const [specId, setSpecId] = useState<number | undefined>(undefined);
   const [segmentId, setSegmentId] = useState<number | undefined>(undefined);
@@ -82,9 +82,10 @@ export function RouteSpeedAdvice({ routeId, canPickSpec }: { routeId: number; ca
           <SpeedAdviceControls comfort={comfort} setComfort={setComfort} powerLimitW={powerLimitW} setPowerLimitW={setPowerLimitW} specId={specId} setSpecId={setSpecId} canPickSpec={canPickSpec} bands={q.data.comfortBands} />
           <p className="text-sm text-ink">
             For <strong>{q.data.spec.name}</strong>: lowest advised speed on this route{' '}
-            <strong className="tabular-nums">{q.data.summary.lowestKmh !== null ? `${q.data.summary.lowestKmh} km/h` : '—'}</strong>; {q.data.summary.segmentsBelowPosted} segment{q.data.summary.segmentsBelowPosted === 1 ? '' : 's'} advised below the speed normally driven.
+            <strong className="tabular-nums">{q.data.summary.lowestKmh === null ? '—' : q.data.summary.lowestKmh < q.data.rangeKmh[0] ? `under ${q.data.rangeKmh[0]} km/h` : `${q.data.summary.lowestKmh} km/h`}</strong>; {q.data.summary.segmentsBelowPosted} segment{q.data.summary.segmentsBelowPosted === 1 ? '' : 's'} advised below the speed normally driven.
           </p>
           <DutySpeedChart advice={q.data} />
+          <p className="-mt-2 text-xs text-slate">The chart shows a typical segment of this route (median roughness); pick a segment number in the table to chart it.</p>
           <SimpleTable
             label="Advised speed per segment"
             rows={q.data.segments}
