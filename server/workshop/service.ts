@@ -509,7 +509,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         days,
         rows: rowsOut,
         totals: { replacements: items.length, cost: rowsOut.reduce((s, g) => s + g.cost, 0) },
-        costBasis: [...costOf.entries()].map(([specId, c]) => ({ specId, ...c })),
+        costBasis: [...costOf.entries()].map(([specId, c]) => ({ specId, specName: meta.find((m) => vm.get(m.id) && rows.some((r) => r.spec_id === specId && r.vehicle_id === m.id))?.spec_name ?? `spec ${specId}`, ...c })),
         items,
       };
     },

@@ -8,7 +8,7 @@ export interface Forecast {
   days: number;
   rows: { specId: number; specName: string; depotId: number; depotName: string; replacements: number; cost: number; costKnown: boolean }[];
   totals: { replacements: number; cost: number };
-  costBasis: { specId: number; cost: number; basis: string }[];
+  costBasis: { specId: number; specName: string; cost: number; basis: string }[];
   items: { vehicleId: number; fleetNumber: string; position: string; damperId: number; date: string; basis: string; specName: string; depotName: string; cost: number | null }[];
 }
 

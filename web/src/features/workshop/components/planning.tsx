@@ -135,7 +135,7 @@ export function ForecastTables() {
         ]}
       />
       <p className="mt-2 text-sm text-slate">
-        Dates come from the wear model&apos;s end-of-life date or, before it has run, from the km left at each vehicle&apos;s last 30 days of driving. Cost per damper: {f.costBasis.map((c) => `${c.basis} (£${formatNumber(c.cost)})`).join('; ') || 'no history yet'}.
+        Dates come from the wear model&apos;s end-of-life date or, before it has run, from the km left at each vehicle&apos;s last 30 days of driving. Cost per damper: {f.costBasis.map((c) => `${c.specName}: £${formatNumber(c.cost)} (${c.basis})`).join('; ') || 'no history yet'}.
       </p>
       <Caution className="mt-2">A forecast for planning, not a decision to replace: inspect before replacing, and follow the manufacturer&apos;s and local regulations&apos; requirements.</Caution>
     </>
