@@ -107,6 +107,7 @@ describe('workshop', () => {
 
     await mgr.goto(`${server.url}/model-check`);
     await expectHeading(mgr, 'Model check');
+    await mgr.getByText('Corners compared').waitFor();
     await mgr.screenshot({ path: screenshotPath('manager-desktop-model-check'), fullPage: true });
     await mgr.goto(`${server.url}/damper-life`);
     await expectHeading(mgr, 'Damper life from the fleet');
