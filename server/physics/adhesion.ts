@@ -167,9 +167,23 @@ export function dampingFromAdhesion(
   const csMin = requireInRange('minDampingNsPerM', opts.minDampingNsPerM ?? Math.max(1, 0.01 * nominal), 'N·s/m', 1, nominal, false);
   const at = (cs: number): number => adhesionPct({ ...c, dampingNsPerM: cs }, opts).adhesionPct;
 
-  // peak of adhesion over [csMin, 5·nominal] (log scale, golden section; unimodal in practice)
-  let lo = Math.log(csMin);
-  let hi = Math.log(5 * nominal);
+  // Peak of adhesion over [csMin, 5·nominal] (log scale). Adhesion is flat at 0 % below the
+  // damping at which the wheel leaves the plate, so a golden-section search started over the whole
+  // range can settle on that flat part: bracket the peak on a coarse grid first, then refine.
+  const GRID = 48;
+  const logMin = Math.log(csMin);
+  const logMax = Math.log(5 * nominal);
+  let best = 0;
+  let bestA = -Infinity;
+  for (let i = 0; i <= GRID; i++) {
+    const a = at(Math.exp(logMin + ((logMax - logMin) * i) / GRID));
+    if (a > bestA) {
+      bestA = a;
+      best = i;
+    }
+  }
+  let lo = logMin + ((logMax - logMin) * Math.max(0, best - 1)) / GRID;
+  let hi = logMin + ((logMax - logMin) * Math.min(GRID, best + 1)) / GRID;
   const r = (Math.sqrt(5) - 1) / 2;
   let x1 = hi - r * (hi - lo);
   let x2 = lo + r * (hi - lo);

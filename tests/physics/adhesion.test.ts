@@ -56,6 +56,18 @@ describe('dampingFromAdhesion', () => {
     }
   });
 
+  it('when the wheel leaves the plate over a wide range of low damping (flat 0 %), then the inverse still finds the worn damping (computed)', () => {
+    // A van front corner (demo courier van): adhesion is 0 % for all damping below a threshold
+    // well above 1 % of nominal, the flat part that once trapped the peak search.
+    const van = { sprungMassKg: 430, unsprungMassKg: 46, springRateNPerM: 32000, dampingNsPerM: 2400, tireRateNPerM: 260000 };
+    for (const cs of [1300, 1600, 2100]) {
+      const measured = adhesionPct({ ...van, dampingNsPerM: cs }).adhesionPct;
+      checkThat(measured > 0, 'computed', `the chosen worn damping ${cs} N·s/m keeps the wheel on the plate (adhesion ${measured} %)`);
+      const r = dampingFromAdhesion(van, measured);
+      checkClose(r.dampingNsPerM, cs, { rel: 1e-4 }, 'computed: round trip past the flat 0 % region', { nominal: van.dampingNsPerM, cs, measured });
+    }
+  });
+
   it('when the measurement is above anything the worn side reaches, then it says no damping value explains it', () => {
     let err: unknown = null;
     try {
