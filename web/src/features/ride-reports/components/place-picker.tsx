@@ -35,7 +35,7 @@ export function PlacePicker({ point, snapped, onPick }: { point: { lat: number; 
   if (!lines.data) return <p className="text-sm text-slate">The map could not be loaded. Use your position instead.</p>;
   return (
     <div className="h-64 overflow-hidden rounded-md border border-line" data-testid="place-picker">
-      <MapContainer preferCanvas center={[52.56, -1.4]} zoom={10} className="h-full w-full" attributionControl={false}>
+      <MapContainer preferCanvas center={[52.56, -1.4]} zoom={10} className="h-full w-full" attributionControl={false} scrollWheelZoom={false}>
         <BaseLayer />
         <SegmentLayer data={lines.data.segments} weight={5} />
         <TapToPlace onPick={onPick} />
