@@ -5,7 +5,7 @@
  */
 import fs from 'node:fs';
 import { addDays, formatISO, startOfISOWeek } from 'date-fns';
-import { adhesionPct, dampingFromAdhesion, NoDampingSolutionError } from '../physics/adhesion';
+import { dampingFromAdhesion, NoDampingSolutionError } from '../physics/adhesion';
 import type { CornerParams } from '../physics/types';
 import { estimatedDamping } from '../wear/wear';
 import { queueAssignmentNotes } from '../mail/service';
@@ -89,23 +89,7 @@ const cornerParams = (r: FittedCornerRow): CornerParams => ({
  */
 export function estimateDamping(c: CornerParams, pct: number): { dampingNsPerM: number | null; note: string | null } {
   try {
-    // Work-around (reported to the physics engineer): the engine's peak search assumes adhesion is
-    // unimodal in damping, but it is flat at 0 % below the damping where the wheel leaves the
-    // plate, and the search then settles in that flat region. Starting the search just above that
-    // threshold keeps it on the rising (worn) side; the inverse itself is the engine's.
-    const at = (cs: number) => adhesionPct({ ...c, dampingNsPerM: cs }).adhesionPct;
-    let minCs = Math.max(1, 0.01 * c.dampingNsPerM);
-    if (at(minCs) === 0 && at(c.dampingNsPerM) > 0) {
-      let l = Math.log(minCs);
-      let h = Math.log(c.dampingNsPerM);
-      for (let i = 0; i < 60; i++) {
-        const m = (l + h) / 2;
-        if (at(Math.exp(m)) > 0) h = m;
-        else l = m;
-      }
-      minCs = Math.exp(h);
-    }
-    return { dampingNsPerM: dampingFromAdhesion(c, pct, { minDampingNsPerM: minCs }).dampingNsPerM, note: null };
+    return { dampingNsPerM: dampingFromAdhesion(c, pct).dampingNsPerM, note: null };
   } catch (e) {
     if (e instanceof NoDampingSolutionError) return { dampingNsPerM: null, note: e.message.replace(/^physics: /, '') };
     return { dampingNsPerM: null, note: `no estimate: ${(e as Error).message}` };
