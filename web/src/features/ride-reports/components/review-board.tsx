@@ -1,6 +1,7 @@
 import 'leaflet/dist/leaflet.css';
 import { useEffect, useState } from 'react';
 import L from 'leaflet';
+import { Link } from 'react-router';
 import { MapContainer, Polyline, useMap } from 'react-leaflet';
 import { BaseLayer } from '@/components/map/base-layer';
 import { Button } from '@/components/ui/button';
@@ -168,7 +169,7 @@ export function ReviewBoard({ routePath, initialReportId }: { routePath: (id: nu
                   {g.segmentId === selected ? (
                     <>
                       <p className="mt-2 text-sm text-slate" data-testid="segment-roughness">
-                        Now: class {g.isoClass ?? '—'}, Gd(n0) {gd(g.gdN0)}. <a className="link" href={routePath(g.routeId)}>Open the route</a>
+                        Now: class {g.isoClass ?? '—'}, Gd(n0) {gd(g.gdN0)}. <Link className="link" to={routePath(g.routeId)}>Open the route</Link>
                       </p>
                       <GroupReports group={g} onDone={setMessage} />
                     </>
