@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { fullPageScreenshot, launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
 import { DEMO, expectHeading, expectPath, menuItems, signIn } from './helpers';
 
@@ -24,11 +24,11 @@ describe('each role lands on its own page and sees only what it may use', () => 
 
     await expectPath(page, '/fleet');
     await expectHeading(page, 'Fleet');
-    expect(await menuItems(page)).toEqual(['Fleet', 'Map', 'Vehicles', 'Specs', 'Routes', 'Trips', 'People', 'Account']);
+    expect(await menuItems(page)).toEqual(['Fleet', 'Roads', 'Vehicles', 'Specs', 'Routes', 'Trips', 'People', 'Account']);
     await page.getByRole('heading', { name: 'Vehicles by status' }).waitFor();
     await page.getByText('In service', { exact: true }).first().waitFor();
     await page.getByRole('table', { name: /Depots/ }).waitFor();
-    await page.screenshot({ path: screenshotPath('manager-desktop-fleet'), fullPage: true });
+    await fullPageScreenshot(page, 'manager-desktop-fleet');
 
     for (const [link, title, shot] of [
       ['Specs', 'Suspension specs', 'manager-desktop-specs'],
@@ -39,7 +39,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: link }).click();
       await page.getByRole('heading', { level: 1, name: title }).waitFor();
       await page.waitForLoadState('networkidle');
-      await page.screenshot({ path: screenshotPath(shot), fullPage: true });
+      await fullPageScreenshot(page, shot);
     }
     await context.close();
   });
@@ -51,16 +51,16 @@ describe('each role lands on its own page and sees only what it may use', () => 
 
     await expectPath(page, '/workshop');
     await expectHeading(page, 'Workshop');
-    expect(await menuItems(page)).toEqual(['Workshop', 'Vehicles', 'Account']);
+    expect(await menuItems(page)).toEqual(['Workshop', 'Roads', 'Vehicles', 'Account']);
     await page.getByText('Your inspections will appear here').waitFor();
     await page.getByRole('table', { name: /Vehicles/ }).getByRole('link').first().waitFor();
-    await page.screenshot({ path: screenshotPath('mechanic-tablet-workshop'), fullPage: true });
+    await fullPageScreenshot(page, 'mechanic-tablet-workshop');
 
     await page.getByRole('link', { name: /CV-108/ }).first().click();
     await page.getByRole('heading', { level: 1, name: 'CV-108' }).waitFor();
     await page.getByRole('heading', { name: 'Dampers by corner' }).waitFor();
     await page.waitForLoadState('networkidle');
-    await page.screenshot({ path: screenshotPath('mechanic-tablet-vehicle'), fullPage: true });
+    await fullPageScreenshot(page, 'mechanic-tablet-vehicle');
     await context.close();
   });
 
@@ -75,7 +75,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
     await page.getByRole('heading', { name: 'Dampers' }).waitFor();
     await page.getByRole('article', { name: 'Front left damper' }).waitFor();
     await page.screenshot({ path: screenshotPath('driver-phone-my-vehicle') });
-    await page.screenshot({ path: screenshotPath('driver-phone-my-vehicle-full'), fullPage: true });
+    await fullPageScreenshot(page, 'driver-phone-my-vehicle-full');
 
     // Targets for a thumb: every menu item is at least 44 px tall.
     const boxes = await page.getByRole('navigation', { name: 'Main' }).getByRole('link').evaluateAll((els) => els.map((e) => e.getBoundingClientRect().height));

@@ -1,6 +1,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { chromium, type Browser, type BrowserContext, type BrowserContextOptions } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type BrowserContextOptions, type Page } from 'playwright-core';
 
 /**
  * Launches the system's Chromium (Debian's `chromium` package) for browser tests. Nothing is
@@ -52,4 +52,18 @@ export const SCREENSHOT_DIR = path.resolve(import.meta.dirname, '../e2e/screensh
 export function screenshotPath(name: string): string {
   fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
   return path.join(SCREENSHOT_DIR, `${name}.png`);
+}
+
+/**
+ * A screenshot of the whole page. The app's header (and the phone's bottom menu) stay pinned while
+ * scrolling, which in a full-page capture paints them wherever the page happened to be scrolled;
+ * here they are laid out in the flow for the capture only, then pinned again.
+ */
+export async function fullPageScreenshot(page: Page, name: string): Promise<void> {
+  const style = await page.addStyleTag({ content: '[data-pinned]{position:static !important}' });
+  try {
+    await page.screenshot({ path: screenshotPath(name), fullPage: true });
+  } finally {
+    await style.evaluate((el) => (el as Element).remove());
+  }
 }

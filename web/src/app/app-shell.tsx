@@ -36,12 +36,12 @@ export function AppShell() {
       </a>
       {navigation.state === 'loading' ? <div aria-hidden="true" className="fixed inset-x-0 top-0 z-40 h-0.5 animate-pulse bg-accent" /> : null}
 
-      <header className="sticky top-0 z-30 border-b border-line bg-paper/95 backdrop-blur supports-[backdrop-filter]:bg-paper/85">
+      <header data-pinned="" className="sticky top-0 z-30 print:static border-b border-line bg-paper/95 backdrop-blur supports-[backdrop-filter]:bg-paper/85">
         <div className="mx-auto flex h-14 max-w-7xl items-center gap-6 px-4 sm:px-6">
           <Link to={landingPaths[user.role]} aria-label="Reboundry, your start page" className="shrink-0 rounded">
             <BrandMark />
           </Link>
-          <nav aria-label="Main" className="hidden h-full md:block">
+          <nav aria-label="Main" className="hidden h-full min-w-0 overflow-x-auto [scrollbar-width:thin] md:block">
             <ul className="flex h-full items-stretch gap-1">
               {menu.map((item) => (
                 <li key={item.path} className="flex">
@@ -49,7 +49,7 @@ export function AppShell() {
                     to={item.path}
                     className={({ isActive }) =>
                       cx(
-                        'relative flex items-center px-3 text-[0.9375rem] font-medium transition-colors',
+                        'relative flex items-center px-3 text-[0.9375rem] font-medium whitespace-nowrap transition-colors',
                         'after:absolute after:inset-x-3 after:bottom-0 after:h-0.5 after:rounded-full',
                         isActive ? 'text-ink after:bg-accent' : 'text-slate hover:text-ink after:bg-transparent',
                       )
@@ -61,7 +61,7 @@ export function AppShell() {
               ))}
             </ul>
           </nav>
-          <div className="ml-auto flex items-center gap-3">
+          <div className="ml-auto flex shrink-0 items-center gap-3">
             <p className="hidden text-right leading-tight sm:block">
               <span className="block text-sm font-medium text-ink">{user.name}</span>
               <span className="block text-xs text-slate">{roleLabels[user.role]}</span>
@@ -77,7 +77,7 @@ export function AppShell() {
         <Outlet />
       </main>
 
-      <nav aria-label="Main" className="fixed inset-x-0 bottom-0 z-30 border-t border-line bg-surface pb-[env(safe-area-inset-bottom)] md:hidden">
+      <nav aria-label="Main" data-pinned="" className="fixed inset-x-0 bottom-0 z-30 print:static border-t border-line bg-surface pb-[env(safe-area-inset-bottom)] md:hidden">
         <ul className="flex">
           {menu.map((item) => (
             <li key={item.path} className="min-w-0 flex-1">

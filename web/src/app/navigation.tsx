@@ -34,7 +34,10 @@ export const pages = {
   vehicles: { path: '/vehicles', label: 'Vehicles', roles: ['manager', 'mechanic'], icon: icon('M4 6h16M4 12h16M4 18h16M8 4v16') },
   specs: { path: '/specs', label: 'Specs', roles: ['manager'], icon: icon('M12 3v3l-5 2 10 3-10 3 10 3-5 2v2') },
   routes: { path: '/routes', label: 'Routes', roles: ['manager'], icon: icon('M5 19c0-4 4-4 7-7s7-3 7-7M5 19a1.5 1.5 0 1 0 0 .01M19 5a1.5 1.5 0 1 0 0 .01') },
-  map: { path: '/map', label: 'Map', roles: ['manager'], icon: icon('M9 4 3 6v14l6-2 6 2 6-2V4l-6 2-6-2zM9 4v14M15 6v14') },
+  map: { path: '/map', label: 'Roads', roles: ['manager', 'mechanic'], icon: icon('M9 4 3 6v14l6-2 6 2 6-2V4l-6 2-6-2zM9 4v14M15 6v14') },
+  // issue 4: route pages and the road map can be read by every role (not in every menu); segments table
+  roadsRead: { path: '/map', label: 'Roads', roles: ['manager', 'mechanic', 'driver'], icon: icon('M9 4 3 6v14l6-2 6 2 6-2V4l-6 2-6-2zM9 4v14M15 6v14') },
+  segments: { path: '/segments', label: 'Segments', roles: ['manager'], icon: icon('M4 18 9 6l6 12 5-10') },
   trips: { path: '/trips', label: 'Trips', roles: ['manager'], icon: icon('M4 17h2l2-9h8l2 9h2M7 17a2 2 0 1 0 4 0M13 17a2 2 0 1 0 4 0') },
   people: {
     path: '/people',

@@ -17,6 +17,7 @@ import { VehiclesPage } from './routes/vehicles-page';
 import { WorkshopPage } from './routes/workshop-page';
 import { MapPage } from './routes/map-page';
 import { RoutePage } from './routes/route-page';
+import { SegmentsPage } from './routes/segments-page';
 import { TripsPage } from './routes/trips-page';
 import { SpecEditPage } from './routes/spec-edit-page';
 import { DuePage } from './routes/due-page';
@@ -69,8 +70,9 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: `${strip(pages.vehicles.path)}/:vehicleId`, loader: vehicleLoader(queryClient, pages.vehicles.roles), element: <VehiclePage /> },
             { path: strip(pages.specs.path), loader: only(pages.specs), element: <SpecsPage /> },
             { path: strip(pages.routes.path), loader: only(pages.routes), element: <RoutesPage /> },
-            { path: `${strip(pages.routes.path)}/:routeId`, loader: only(pages.routes), element: <RoutePage /> },
-            { path: strip(pages.map.path), loader: only(pages.map), element: <MapPage /> },
+            { path: `${strip(pages.routes.path)}/:routeId`, loader: only(pages.roadsRead), element: <RoutePage /> },
+            { path: strip(pages.segments.path), loader: only(pages.segments), element: <SegmentsPage /> },
+            { path: strip(pages.map.path), loader: only(pages.roadsRead), element: <MapPage /> },
             { path: strip(pages.trips.path), loader: only(pages.trips), element: <TripsPage /> },
             { path: `${strip(pages.specs.path)}/new`, loader: only(pages.specs), element: <SpecEditPage /> },
             { path: `${strip(pages.specs.path)}/:specId/edit`, loader: only(pages.specs), element: <SpecEditPage /> },

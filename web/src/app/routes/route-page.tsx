@@ -13,11 +13,14 @@ export function RoutePage() {
   const me = useQuery(meQueryOptions());
   const route = useQuery(routeQueryOptions(id));
   const name = route.data?.route.name ?? 'Route';
+  // Issue 4: mechanics and drivers read route pages; only managers see edit controls, trips and (drivers) no vehicle links.
+  const role = me.data?.role;
+  const isManager = role === 'manager';
   return (
     <>
       <title>{`${name} · Reboundry`}</title>
-      <PageHeader title={name} eyebrow="Route" description={route.data?.route.description ?? undefined} back={{ to: pages.routes.path, label: 'Routes' }} />
-      <RouteView routeId={id} canEdit={me.data?.role === 'manager'} today={isoDate(new Date())} vehiclePath={vehiclePath} tripsPath={`/trips?routeId=${id}`} />
+      <PageHeader title={name} eyebrow="Route" description={route.data?.route.description ?? undefined} back={isManager ? { to: pages.routes.path, label: 'Routes' } : { to: pages.map.path, label: 'Road map' }} />
+      <RouteView routeId={id} canEdit={isManager} today={isoDate(new Date())} vehiclePath={role === 'driver' ? undefined : vehiclePath} tripsPath={isManager ? `/trips?routeId=${id}` : undefined} />
       <RouteSpeedAdvice routeId={id} canPickSpec={me.data?.role === 'manager'} />
     </>
   );

@@ -16,6 +16,19 @@ import { SegmentLayer } from '@/components/map/segment-layer';
 
 export const SOURCE_WORDS: Record<string, string> = { survey: 'Profile survey (measured)', stated: 'Stated / set by hand', driver_report: 'Estimated from drivers’ reports' };
 
+/** Zooms to one segment (opened from a link such as the segments table's "On the map"). */
+function FocusSegment({ data, id }: { data: MapData; id: number | null | undefined }) {
+  const map = useMap();
+  useEffect(() => {
+    if (id == null) return;
+    const i = data.segments.id.indexOf(id);
+    if (i < 0) return;
+    const b = L.latLngBounds(data.segments.coords[i].map(([lon, lat]) => [lat, lon] as [number, number]));
+    if (b.isValid()) map.fitBounds(b, { padding: [60, 60], maxZoom: 16 });
+  }, [map, data, id]);
+  return null;
+}
+
 function FitFleet({ data }: { data: MapData }) {
   const map = useMap();
   useEffect(() => {
@@ -28,10 +41,10 @@ function FitFleet({ data }: { data: MapData }) {
 }
 
 /** The fleet's roads coloured by roughness class, with depots; click a segment for its details. */
-export function FleetMap({ routePath, reportLayer, segmentExtra }: { routePath: (id: number) => string; reportLayer?: ReactNode; /** Issue 7: more about the selected segment (speed advice). */ segmentExtra?: (id: number) => ReactNode }) {
+export function FleetMap({ initialSegment, routePath, reportLayer, segmentExtra }: { /** Issue 4: a segment to open the map on. */ initialSegment?: number | null; routePath: (id: number) => string; reportLayer?: ReactNode; /** Issue 7: more about the selected segment (speed advice). */ segmentExtra?: (id: number) => ReactNode }) {
   const config = useMapConfig();
   const data = useMapData();
-  const [selected, setSelected] = useState<number | null>(null);
+  const [selected, setSelected] = useState<number | null>(initialSegment ?? null);
   const [show, setShow] = useState({ segments: true, depots: true, reports: true });
   const onSelect = useCallback((id: number) => setSelected(id), []);
   const segments = useMemo(() => data.data?.segments, [data.data]);
@@ -46,6 +59,7 @@ export function FleetMap({ routePath, reportLayer, segmentExtra }: { routePath: 
           <MapContainer preferCanvas center={[52.56, -1.4]} zoom={10} className="h-full w-full" attributionControl>
             <TileLayer url={config.data.tileUrl} attribution={config.data.attribution} />
             <FitFleet data={data.data} />
+            <FocusSegment data={data.data} id={initialSegment} />
             {show.segments && segments ? <SegmentLayer data={segments} onSelect={onSelect} selectedId={selected} /> : null}
             {show.depots
               ? data.data.depots.map((d) => (

@@ -16,17 +16,18 @@ import { ROUGHNESS_CLASSES } from '@/lib/roughness';
 import { useRoute, type RouteDetail } from '../api/get-route';
 import { useSetRoughness } from '../api/set-roughness';
 import { IriChart } from './iri-chart';
+import { SegmentSpeeds } from './segment-speeds';
 import { SurveyUpload } from './survey-upload';
 
 /** One route: map, IRI along it, surveys, trips; managers upload surveys and set classes. */
-export function RouteView({ routeId, canEdit, today, vehiclePath, tripsPath }: { routeId: number; canEdit: boolean; today: string; vehiclePath: (id: number) => string; tripsPath: string }) {
+export function RouteView({ routeId, canEdit, today, vehiclePath, tripsPath }: { routeId: number; canEdit: boolean; today: string; /** Leave out where the reader may not open vehicles. */ vehiclePath?: (id: number) => string; /** Leave out where the reader may not open the trips table. */ tripsPath?: string }) {
   const q = useRoute(routeId);
   if (q.isPending) return <LoadingState label="Loading the route…" />;
   if (q.error) return <ErrorState error={q.error} what="the route" onRetry={() => void q.refetch()} />;
   return <RouteBody d={q.data} canEdit={canEdit} today={today} vehiclePath={vehiclePath} tripsPath={tripsPath} />;
 }
 
-function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDetail; canEdit: boolean; today: string; vehiclePath: (id: number) => string; tripsPath: string }) {
+function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDetail; canEdit: boolean; today: string; vehiclePath?: (id: number) => string; tripsPath?: string }) {
   const lines = useMemo(() => ({ id: d.segments.map((s) => s.id), isoClass: d.segments.map((s) => s.isoClass), coords: d.segments.map((s) => s.coords) }), [d.segments]);
   const surveyed = d.segments.filter((s) => s.roughnessSource === 'survey').length;
   return (
@@ -53,6 +54,11 @@ function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDeta
         <IriChart segments={d.segments} />
       </div>
       <p className="text-sm text-slate">Current value per segment: {d.currentRule}</p>
+      {canEdit ? (
+        <Section title="Typical speed per segment" description={`Speeds the wear model uses on each stretch. Leave a row empty to use the route’s ${formatNumber(d.route.defaultSpeedKmh)} km/h.`}>
+          <SegmentSpeeds routeId={d.route.id} segments={d.segments} defaultSpeedKmh={d.route.defaultSpeedKmh} />
+        </Section>
+      ) : null}
       {canEdit ? (
         <Section title="Upload a profile survey" description="IRI per segment by the golden-car method (ASTM E1926), previewed before anything is saved.">
           <SurveyUpload routeId={d.route.id} today={today} />
@@ -91,7 +97,7 @@ function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDeta
           </table>
         )}
       </Section>
-      <Section title="Trips on this route" actions={<Link className="link text-sm" to={tripsPath}>All {formatNumber(d.trips.count)} trips</Link>}>
+      <Section title="Trips on this route" actions={tripsPath ? <Link className="link text-sm" to={tripsPath}>All {formatNumber(d.trips.count)} trips</Link> : undefined}>
         <table className="w-full text-sm" aria-label="Recent trips on this route">
           <thead className="text-left text-slate">
             <tr>
@@ -106,7 +112,7 @@ function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDeta
             {d.trips.recent.map((t) => (
               <tr key={t.id} className="border-t border-line">
                 <td className="py-1">{formatDateTime(t.startedAt)}</td>
-                <td><Link className="link" to={vehiclePath(t.vehicleId)}>{t.fleetNumber}</Link></td>
+                <td>{vehiclePath ? <Link className="link" to={vehiclePath(t.vehicleId)}>{t.fleetNumber}</Link> : t.fleetNumber}</td>
                 <td>{t.driverName ?? '—'}</td>
                 <td className="text-right tabular-nums">{formatNumber(t.distanceKm, 1)}</td>
                 <td className="text-right tabular-nums">{formatNumber(t.meanSpeedKmh, 1)}</td>

@@ -1,0 +1,46 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { api, type ListParams, type ListResponse } from '@/lib/api-client';
+import type { RoughnessClass } from '@/lib/roughness';
+
+export const SEGMENT_SORTS = ['routeName', 'seq', 'iri', 'isoClass', 'roughnessDate', 'speedKmh'] as const;
+export const ROUGHNESS_SOURCES = ['survey', 'stated', 'driver_report'] as const;
+export type RoughnessSource = (typeof ROUGHNESS_SOURCES)[number];
+
+export interface SegmentListItem {
+  id: number;
+  routeId: number;
+  routeName: string;
+  seq: number;
+  startM: number;
+  endM: number;
+  /** The segment's own speed, or the route's default when none is set [km/h]. */
+  speedKmh: number | null;
+  /** Whether the segment has a speed of its own. */
+  speedSet: boolean;
+  iri: number | null;
+  gdN0: number | null;
+  isoClass: string | null;
+  roughnessSource: RoughnessSource | null;
+  roughnessDate: string | null;
+}
+
+export interface SegmentListParams extends ListParams {
+  routeId?: number;
+  isoClass?: RoughnessClass;
+  source?: RoughnessSource;
+}
+
+export function getSegments(params: SegmentListParams, signal?: AbortSignal) {
+  return api.get<ListResponse<SegmentListItem>>('/api/segments', { query: { ...params }, signal });
+}
+
+export const segmentsQueryOptions = (params: SegmentListParams) =>
+  queryOptions({
+    queryKey: ['segments', 'list', params] as const,
+    queryFn: ({ signal }) => getSegments(params, signal),
+    placeholderData: keepPreviousData,
+  });
+
+export function useSegments(params: SegmentListParams) {
+  return useQuery(segmentsQueryOptions(params));
+}
