@@ -110,7 +110,7 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     thresholdFraction: config.inspection.threshold,
     signal: opts.signal,
     // issue 6: the fleet-blended / test-lane life unless a caller gives its own
-    lifeResolver: opts.lifeResolver ?? (await workshopLifeOrRated(log)),
+    lifeResolver: opts.lifeResolver ?? (await workshopLifeOrRated(config, log)),
     failAfterBatches: opts.failAfterBatches,
     loadProfile: loadSurveyProfile,
     progress,

@@ -38,6 +38,10 @@ const schema = z
     INSPECTION_HORIZON_DAYS: z.coerce.number({ message: 'must be a number' }).int().min(1).max(730).default(90),
     NIGHTLY_BATCH_TRIPS: z.coerce.number({ message: 'must be a number' }).int().min(1).max(100000).default(2000),
     JOB_LOCK_TIMEOUT_MINUTES: z.coerce.number({ message: 'must be a number' }).positive().max(24 * 60).default(30),
+    FLEET_LIFE_MIN_REMOVALS: z.coerce.number({ message: 'must be a number' }).int().min(2, 'must be at least 2').max(10_000).default(5),
+    FLEET_LIFE_CREDIBILITY_K: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(10_000).default(10),
+    ATTACHMENT_MAX_MB: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(100).default(8),
+    LANE_FLAG_POINTS: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(100).default(15),
     LOG_LEVEL: z.enum(['silent', 'error', 'warn', 'info', 'debug']).default('info'),
   })
   .transform((c) => ({
@@ -66,6 +70,12 @@ const schema = z
     },
     nightlyBatchTrips: c.NIGHTLY_BATCH_TRIPS,
     jobLockTimeoutMinutes: c.JOB_LOCK_TIMEOUT_MINUTES,
+    workshop: {
+      fleetLifeMinRemovals: c.FLEET_LIFE_MIN_REMOVALS,
+      fleetLifeCredibilityK: c.FLEET_LIFE_CREDIBILITY_K,
+      attachmentMaxBytes: Math.round(c.ATTACHMENT_MAX_MB * 1024 * 1024),
+      laneFlagPoints: c.LANE_FLAG_POINTS,
+    },
     logLevel: c.LOG_LEVEL,
   }));
 

@@ -4,12 +4,12 @@
  */
 import type { Logger } from '../logger';
 import { ratedLife, type LifeResolver } from '../wear/wear';
-import { loadWorkshopConfig } from './config';
+import type { Config } from '../config';
 import { createWorkshopLifeResolver } from './life';
 
-export async function workshopLifeOrRated(log?: Pick<Logger, 'warn'>): Promise<LifeResolver> {
+export async function workshopLifeOrRated(config: Config, log?: Pick<Logger, 'warn'>): Promise<LifeResolver> {
   try {
-    return await createWorkshopLifeResolver(loadWorkshopConfig());
+    return await createWorkshopLifeResolver(config.workshop);
   } catch (err) {
     log?.warn?.(`workshop life not available, using the rated life: ${(err as Error).message}`);
     return ratedLife;

@@ -7,7 +7,6 @@ import { allow, currentUser } from '../http/access';
 import { idParam, listQuery, paging, parse } from '../http/validate';
 import { requireFile, singleFile } from '../http/upload';
 import { ATTACHMENT_KINDS } from './attachments';
-import { loadWorkshopConfig } from './config';
 import { REMOVAL_REASONS } from './life';
 import { FINDINGS, VERDICTS, workshopService } from './service';
 
@@ -116,7 +115,7 @@ const csvCell = (v: unknown) => {
 };
 
 export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: () => Date }) {
-  const cfg = loadWorkshopConfig();
+  const cfg = deps.config.workshop;
   const svc = workshopService(cfg, { now: deps.now, dataDir: deps.config.dataDir, publicUrl: deps.config.publicUrl });
 
   r.get('/inspections', allow('manager', 'mechanic'), async (req, res) => {

@@ -260,12 +260,12 @@ describe('work records', () => {
 describe('life used by the nightly job', () => {
   it('when a spec has at least FLEET_LIFE_MIN_REMOVALS removals, then the resolver gives the fleet-blended life (credibility n/(n+k)) and says so', async () => {
     const { createWorkshopLifeResolver } = await import('../../server/workshop/life');
-    const { loadWorkshopConfig } = await import('../../server/workshop/config');
+    const { loadConfig } = await import('../../server/config');
     const { ratedLife } = await import('../../server/wear/wear');
     const m = await manager();
     const specs = await m.get<{ items: { id: number }[] }>('/api/specs');
     let checked = 0;
-    const resolve = await createWorkshopLifeResolver(loadWorkshopConfig());
+    const resolve = await createWorkshopLifeResolver(loadConfig({}).workshop);
     for (const s of specs.body.items) {
       const life = await m.get<{ blend: { used: boolean; weight: number; failures: number; axles: { axleIndex: number; ratedKm: number; usedKm: number }[] } }>(`/api/fleet-life?specId=${s.id}`);
       if (!life.body.blend.used) continue;
