@@ -6,7 +6,9 @@ export function RoughnessClassBadge({ value }: { value: string | null | undefine
   if (!isRoughnessClass(value)) return <span className="text-slate">Not known</span>;
   const dark = ROUGHNESS_CLASSES.indexOf(value) >= 4;
   return (
-    <span className="inline-flex items-center gap-2 whitespace-nowrap">
+    // `relative` keeps the screen-reader text inside the badge: without it, in a scrolled table, that
+    // absolutely placed text escapes the scroll box and makes the whole page taller.
+    <span className="relative inline-flex items-center gap-2 whitespace-nowrap">
       <span
         aria-hidden="true"
         className={cx('inline-flex size-5 items-center justify-center rounded-sm text-xs font-semibold', dark ? 'text-white' : 'text-ink')}
