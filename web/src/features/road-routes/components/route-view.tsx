@@ -73,7 +73,7 @@ function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDeta
         {d.surveys.length === 0 ? (
           <p className="text-sm text-slate">No profile survey yet. Segments carry stated classes or estimates from drivers’ reports.</p>
         ) : (
-          <table className="w-full text-sm" aria-label="Survey history">
+          <table className="w-full text-sm [&_td]:pr-3 [&_th]:pr-3" aria-label="Survey history">
             <thead className="text-left text-slate">
               <tr>
                 <th className="py-1">Surveyed on</th>
@@ -98,7 +98,8 @@ function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDeta
         )}
       </Section>
       <Section title="Trips on this route" actions={tripsPath ? <Link className="link text-sm" to={tripsPath}>All {formatNumber(d.trips.count)} trips</Link> : undefined}>
-        <table className="w-full text-sm" aria-label="Recent trips on this route">
+        <div className="overflow-x-auto">
+        <table className="w-full text-sm [&_td]:pr-3 [&_th]:pr-3 [&_td:last-child]:pr-0 [&_th:last-child]:pr-0" aria-label="Recent trips on this route">
           <thead className="text-left text-slate">
             <tr>
               <th className="py-1">Started</th>
@@ -111,7 +112,7 @@ function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDeta
           <tbody>
             {d.trips.recent.map((t) => (
               <tr key={t.id} className="border-t border-line">
-                <td className="py-1">{formatDateTime(t.startedAt)}</td>
+                <td className="py-1 whitespace-nowrap">{formatDateTime(t.startedAt)}</td>
                 <td>{vehiclePath ? <Link className="link" to={vehiclePath(t.vehicleId)}>{t.fleetNumber}</Link> : t.fleetNumber}</td>
                 <td>{t.driverName ?? '—'}</td>
                 <td className="text-right tabular-nums">{formatNumber(t.distanceKm, 1)}</td>
@@ -120,6 +121,7 @@ function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDeta
             ))}
           </tbody>
         </table>
+        </div>
       </Section>
     </div>
   );

@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from 'react';
+import { useId, useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { Caution } from '@/components/ui/caution';
 import { Notice } from '@/components/ui/notice';
@@ -22,6 +22,13 @@ export function SegmentSpeeds({ routeId, segments, defaultSpeedKmh }: { routeId:
   const [errors, setErrors] = useState<Record<number, string>>({});
   const save = useSetSpeeds(routeId);
   const [saved, setSaved] = useState<number | null>(null);
+  const idBase = useId();
+  const inputId = (seq: number) => `${idBase}-speed-${seq}`;
+  /** Takes the person to the first row that needs a fix (it may be scrolled out of sight). */
+  const focusRow = (rows: Record<number, string>) => {
+    const first = Object.keys(rows).map(Number).sort((a, b) => a - b)[0];
+    if (first !== undefined) window.setTimeout(() => document.getElementById(inputId(first))?.focus(), 0);
+  };
 
   const valueOf = (s: RouteSegment) => values[s.seq] ?? shown(s.speedKmh);
   const changed = segments.filter((s) => values[s.seq] !== undefined && values[s.seq].trim() !== shown(s.speedKmh));
@@ -43,7 +50,7 @@ export function SegmentSpeeds({ routeId, segments, defaultSpeedKmh }: { routeId:
       else edits.push({ seq: s.seq, speedKmh: n });
     }
     setErrors(found);
-    if (Object.keys(found).length) return;
+    if (Object.keys(found).length) return focusRow(found);
     if (!edits.length) return;
     save.mutate(edits, {
       onSuccess: (r) => {
@@ -59,6 +66,7 @@ export function SegmentSpeeds({ routeId, segments, defaultSpeedKmh }: { routeId:
           if (edit) rowErrors[edit.seq] = message.charAt(0).toUpperCase() + message.slice(1) + '.';
         }
         setErrors(rowErrors);
+        focusRow(rowErrors);
       },
     });
   }
@@ -86,7 +94,7 @@ export function SegmentSpeeds({ routeId, segments, defaultSpeedKmh }: { routeId:
           <tbody>
             {segments.map((s) => {
               const err = errors[s.seq];
-              const id = `speed-${s.seq}`;
+              const id = inputId(s.seq);
               return (
                 <tr key={s.id} className="border-b border-line last:border-b-0 align-middle">
                   <th scope="row" className="px-3 py-1.5 text-right font-normal tabular">{s.seq + 1}</th>
@@ -114,7 +122,7 @@ export function SegmentSpeeds({ routeId, segments, defaultSpeedKmh }: { routeId:
                           return next;
                         });
                       }}
-                      className="h-8 w-32 rounded-md border border-line-strong bg-surface px-2 text-right tabular placeholder:text-slate/80 aria-invalid:border-overdue pointer-coarse:h-11"
+                      className="h-8 w-32 scroll-mt-24 rounded-md border border-line-strong bg-surface px-2 text-right tabular placeholder:text-slate/80 aria-invalid:border-overdue pointer-coarse:h-11"
                     />
                     {err ? (
                       <p id={`${id}-error`} className="mt-1 text-xs text-overdue">
