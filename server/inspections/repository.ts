@@ -111,11 +111,12 @@ export function inspectionRepository(sequelize: Sequelize) {
     }) {
       const stamp = sqlDate(changes.now);
       await sequelize.transaction(async (transaction) => {
-        for (const c of changes.create) {
+        for (let i = 0; i < changes.create.length; i += 300) {
+          const part = changes.create.slice(i, i + 300);
           await sequelize.query(
             `INSERT INTO inspections (vehicle_id, due_date, status, reason, assignee_id, completed_at, odometer_km, notes, "trigger", basis, notified_status, assignee_notified_id, created_by_run_id, created_at, updated_at)
-             VALUES (?, ?, ?, ?, ?, NULL, NULL, NULL, ?, ?, NULL, NULL, ?, ?, ?)`,
-            { replacements: [c.vehicleId, c.dueDate, c.status, c.reason, c.assigneeId, c.trigger, c.basis, changes.runId, stamp, stamp], transaction },
+             VALUES ${part.map(() => '(?, ?, ?, ?, ?, NULL, NULL, NULL, ?, ?, NULL, NULL, ?, ?, ?)').join(', ')}`,
+            { replacements: part.flatMap((c) => [c.vehicleId, c.dueDate, c.status, c.reason, c.assigneeId, c.trigger, c.basis, changes.runId, stamp, stamp]) as never, transaction },
           );
         }
         for (const m of changes.move) {

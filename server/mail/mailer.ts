@@ -62,7 +62,8 @@ export async function createMailer(config: Config, log: Logger): Promise<{ maile
     return { mailer: smtpMailer(transport, config.smtpFrom, `mail server ${host}`, false), fakeSmtp: null };
   }
   const fake = await startFakeSmtp(config.fakeSmtpPort, log);
-  const transport = nodemailer.createTransport({ host: '127.0.0.1', port: fake.port, secure: false, ignoreTLS: true });
+  // one pooled connection: a night with thousands of notes does not open thousands of sockets
+  const transport = nodemailer.createTransport({ host: '127.0.0.1', port: fake.port, secure: false, ignoreTLS: true, pool: true, maxConnections: 1, maxMessages: Infinity });
   log.info(`mail: no SMTP_URL, built-in mail catcher on port ${fake.port} (read it on the Outbox page)`);
   return {
     mailer: smtpMailer(transport, config.smtpFrom, `the built-in mail catcher (port ${fake.port})`, true, () => fake.close()),

@@ -42,13 +42,18 @@ export const mailRepository = {
   /** Queues messages; a key already used is skipped (never sent twice). Returns how many were new. */
   async queue(mails: QueuedMail[], now: Date, transaction: Transaction): Promise<number> {
     let n = 0;
-    for (const m of mails) {
-      const [, created] = await MailMessage.findOrCreate({
-        where: { dedupeKey: m.dedupeKey },
-        defaults: { ...m, status: 'pending', messageId: null, error: null, sentAt: null, createdAt: now, updatedAt: now },
-        transaction,
-      });
-      if (created) n++;
+    for (let i = 0; i < mails.length; i += 500) {
+      const part = mails.slice(i, i + 500);
+      const existing = new Set(
+        (await MailMessage.findAll({ attributes: ['dedupeKey'], where: { dedupeKey: { [Op.in]: part.map((m) => m.dedupeKey) } }, transaction, raw: true })).map((r) => r.dedupeKey),
+      );
+      const fresh = part.filter((m) => !existing.has(m.dedupeKey));
+      if (!fresh.length) continue;
+      await MailMessage.bulkCreate(
+        fresh.map((m) => ({ ...m, status: 'pending' as const, messageId: null, error: null, sentAt: null, createdAt: now, updatedAt: now })),
+        { transaction, ignoreDuplicates: true },
+      );
+      n += fresh.length;
     }
     return n;
   },

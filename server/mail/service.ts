@@ -66,9 +66,15 @@ const inspectionSection: DigestSectionProvider = {
     });
   },
   async markNotified({ sequelize, transaction }, keys) {
+    const byStatus = new Map<string, number[]>();
     for (const k of keys) {
       const [id, status] = k.split(':');
-      await sequelize.query(`UPDATE inspections SET notified_status = ? WHERE id = ?`, { replacements: [status, Number(id)], transaction });
+      byStatus.set(status, [...(byStatus.get(status) ?? []), Number(id)]);
+    }
+    for (const [status, ids] of byStatus) {
+      for (let i = 0; i < ids.length; i += 5000) {
+        await sequelize.query(`UPDATE inspections SET notified_status = ? WHERE id IN (${ids.slice(i, i + 5000).join(',')})`, { replacements: [status], transaction });
+      }
     }
   },
 };
@@ -127,16 +133,23 @@ export async function queueAssignmentNotes(ctx: MailContext, inspectionIds?: num
        ${inspectionIds ? `AND i.id IN (${inspectionIds.map(Number).join(',') || 'NULL'})` : ''} ORDER BY i.id`,
       { type: QueryTypes.SELECT, transaction },
     );
+    // one note per mechanic per run, listing every inspection newly assigned to them
     const mails: QueuedMail[] = [];
-    for (const r of rows) {
-      if (r.notify && r.active) {
-        const body = assignmentMail({
-          name: r.name, fleetNumber: r.fleet_number, plate: r.plate, depotName: r.depot_name, dueDate: r.due_date, status: r.status, reason: r.reason,
-          vehicleUrl: `${ctx.publicUrl}/vehicles/${r.vehicle_id}`, settingsUrl: `${ctx.publicUrl}/account`,
-        });
-        mails.push({ dedupeKey: `assignment:${r.id}:${r.user_id}`, kind: 'assignment', userId: r.user_id, toAddress: r.email, subject: body.subject, textBody: body.text, htmlBody: body.html, jobRunId: ctx.runId });
-      }
-      await ctx.sequelize.query(`UPDATE inspections SET assignee_notified_id = ? WHERE id = ?`, { replacements: [r.user_id, r.id], transaction });
+    const byUser = new Map<number, typeof rows>();
+    for (const r of rows) if (r.notify && r.active) byUser.set(r.user_id, [...(byUser.get(r.user_id) ?? []), r]);
+    for (const [userId, items] of byUser) {
+      const first = items[0];
+      const body = assignmentMail({
+        name: first.name,
+        settingsUrl: `${ctx.publicUrl}/account`,
+        items: items.map((r) => ({ fleetNumber: r.fleet_number, plate: r.plate, depotName: r.depot_name, dueDate: r.due_date, status: r.status, reason: r.reason, vehicleUrl: `${ctx.publicUrl}/vehicles/${r.vehicle_id}` })),
+      });
+      const key = items.length === 1 ? `assignment:${first.id}:${userId}` : `assignments:${userId}:${hash(items.map((r) => String(r.id)))}`;
+      mails.push({ dedupeKey: key, kind: 'assignment', userId, toAddress: first.email, subject: body.subject, textBody: body.text, htmlBody: body.html, jobRunId: ctx.runId });
+    }
+    for (let i = 0; i < rows.length; i += 5000) {
+      const ids = rows.slice(i, i + 5000).map((r) => Number(r.id));
+      await ctx.sequelize.query(`UPDATE inspections SET assignee_notified_id = assignee_id WHERE id IN (${ids.join(',')})`, { transaction });
     }
     return mailRepository.queue(mails, ctx.now, transaction);
   });

@@ -48,8 +48,7 @@ export function digestMail(input: { name: string; asOf: string; sections: Digest
   return { subject, text: text.join('\n'), html: wrap(`Digest for ${input.asOf}`, html) };
 }
 
-export function assignmentMail(input: {
-  name: string;
+export interface AssignedItem {
   fleetNumber: string;
   plate: string;
   depotName: string;
@@ -57,28 +56,35 @@ export function assignmentMail(input: {
   status: string;
   reason: string;
   vehicleUrl: string;
-  settingsUrl: string;
-}) {
-  const subject = `Inspection of ${input.fleetNumber} assigned to you, due ${input.dueDate}`;
+}
+
+/** A note to a mechanic listing the inspections newly assigned to them (one or several). */
+export function assignmentMail(input: { name: string; items: AssignedItem[]; settingsUrl: string }) {
+  const items = [...input.items].sort((a, b) => (a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : a.fleetNumber.localeCompare(b.fleetNumber)));
+  const one = items.length === 1 ? items[0] : null;
+  const subject = one
+    ? `Inspection of ${one.fleetNumber} assigned to you, due ${one.dueDate}`
+    : `${items.length} inspections assigned to you, first due ${items[0].dueDate}`;
   const text = [
     `Hello ${input.name},`,
     '',
-    `The damper and spring inspection of ${input.fleetNumber} (${input.plate}, ${input.depotName}) is assigned to you.`,
-    `Due: ${input.dueDate} (${input.status})`,
-    `Why: ${input.reason}`,
+    one ? `The damper and spring inspection of ${one.fleetNumber} is assigned to you.` : `${items.length} damper and spring inspections are assigned to you:`,
     '',
-    `Vehicle: ${input.vehicleUrl}`,
-    '',
+    ...items.flatMap((i) => [`- ${i.fleetNumber} (${i.plate}, ${i.depotName}): due ${i.dueDate} (${i.status})`, `  Why: ${i.reason}`, `  ${i.vehicleUrl}`, '']),
     CAUTION_TEXT,
     '',
     `Turn these notes off in your account settings: ${input.settingsUrl}`,
   ].join('\n');
   const html = wrap(
-    `Inspection of ${input.fleetNumber} assigned to you`,
-    `<p>Hello ${esc(input.name)},</p><p>The damper and spring inspection of <strong>${esc(input.fleetNumber)}</strong> (${esc(input.plate)}, ${esc(input.depotName)}) is assigned to you.</p>` +
-      `<p><strong>Due:</strong> ${esc(input.dueDate)} (${esc(input.status)})<br><strong>Why:</strong> ${esc(input.reason)}</p>` +
-      `<p><a href="${esc(input.vehicleUrl)}" style="color:#D9622B">Open ${esc(input.fleetNumber)}</a></p>` +
-      `<p style="font-size:13px;color:#5B6B73">Turn these notes off in your <a href="${esc(input.settingsUrl)}">account settings</a>.</p>`,
+    one ? `Inspection of ${one.fleetNumber} assigned to you` : `${items.length} inspections assigned to you`,
+    `<p>Hello ${esc(input.name)},</p><p>${one ? 'This damper and spring inspection is assigned to you:' : `${items.length} damper and spring inspections are assigned to you:`}</p><ul style="padding-left:18px">` +
+      items
+        .map(
+          (i) =>
+            `<li style="margin-bottom:10px"><a href="${esc(i.vehicleUrl)}" style="color:#1E2A32;font-weight:600">${esc(i.fleetNumber)}</a> (${esc(i.plate)}, ${esc(i.depotName)}): due ${esc(i.dueDate)} (${esc(i.status)})<br><span>Why: ${esc(i.reason)}</span></li>`,
+        )
+        .join('') +
+      `</ul><p style="font-size:13px;color:#5B6B73">Turn these notes off in your <a href="${esc(input.settingsUrl)}">account settings</a>.</p>`,
   );
   return { subject, text, html };
 }

@@ -7,6 +7,7 @@ import { timeDomainSection } from './sections/time-domain';
 import { baselineOdexSection } from './sections/baseline-odex';
 import { cLoopSection } from './sections/c-loop';
 import { closedFormSection } from './sections/closed-form';
+import { nightlySection } from './sections/nightly';
 
 /** One row of the printed table. */
 export interface BenchRow {
@@ -43,4 +44,4 @@ export interface BenchSection {
 }
 
 /** Sections in run order. */
-export const SECTIONS: BenchSection[] = [timeDomainSection, baselineOdexSection, cLoopSection, closedFormSection];
+export const SECTIONS: BenchSection[] = [timeDomainSection, baselineOdexSection, cLoopSection, closedFormSection, nightlySection];

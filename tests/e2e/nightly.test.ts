@@ -32,7 +32,7 @@ describe('nightly damper-duty run in the browser', () => {
     const before = await page.locator('tbody tr').count();
 
     // run the job from the Job runs page and watch it finish
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Job runs' }).click();
+    await page.getByRole('main').getByRole('link', { name: 'Job runs' }).click();
     await expectHeading(page, 'Job runs');
     await page.getByText('No runs yet').waitFor();
     await page.getByRole('button', { name: 'Run now' }).click();
@@ -72,13 +72,16 @@ describe('nightly damper-duty run in the browser', () => {
     await page.screenshot({ path: screenshotPath('manager-desktop-vehicle-wear'), fullPage: true });
 
     // the outbox shows the digest sent to the manager
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Outbox' }).click();
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Due' }).click();
+    await page.getByRole('main').getByRole('link', { name: 'Outbox' }).click();
     await expectHeading(page, 'Outbox');
     const digest = page.getByRole('button', { name: /Reboundry digest for 2026-11-30/ });
     await digest.click();
     await page.getByRole('article', { name: 'Message' }).getByText(/To manager@reboundry\.test|to manager@reboundry\.test/).waitFor();
-    await page.waitForTimeout(300);
+    const body = page.frameLocator('iframe[title="HTML body"]');
+    await body.getByText('Inspections now due or overdue').waitFor();
     await page.screenshot({ path: screenshotPath('manager-desktop-outbox'), fullPage: true });
+    await page.getByRole('article', { name: 'Message' }).screenshot({ path: screenshotPath('manager-desktop-outbox-message') });
     await page.getByRole('button', { name: 'Plain text' }).click();
     await page.getByText('Inspections now due or overdue').waitFor();
 

@@ -154,14 +154,19 @@ describe('nightly job through the API', () => {
     expect(full.body.message.text).toMatch(new RegExp(`${A.config.publicUrl.replace(/[.:/]/g, '\\$&')}/vehicles/\\d+`));
     expect(full.body.message.text).toContain('never replace, inspection by a qualified mechanic');
     expect(full.body.message.html).toMatch(/<a href="http:\/\/[^"]+\/vehicles\/\d+"/);
-    // a note to each mechanic with new assignments
-    const notes = out.body.items.filter((m) => m.key.startsWith('assignment:'));
-    expect(notes.length).toBeGreaterThan(0);
-    expect(notes.every((m) => /^(mechanic|mechanic\.millbrook)@reboundry\.test$/.test(m.to))).toBe(true);
-    const note = await c.get<{ message: { text: string; html: string; subject: string } }>(`/api/outbox/${notes[0].id}`);
-    expect(note.body.message.subject).toMatch(/^Inspection of [A-Z]{2}-\d+ assigned to you, due \d{4}-\d{2}-\d{2}$/);
-    expect(note.body.message.text).toMatch(/Why: /);
-    expect(note.body.message.html).toContain('assigned to you');
+    // one note to each mechanic listing the inspections newly assigned to them
+    const notes = out.body.items.filter((m) => m.key.startsWith('assignment'));
+    expect(notes.map((m) => m.to).sort()).toEqual(['mechanic.millbrook@reboundry.test', 'mechanic@reboundry.test']);
+    const assigned = await count(A.db, `SELECT COUNT(*) AS n FROM inspections WHERE created_by_run_id IS NOT NULL AND assignee_id IS NOT NULL`);
+    let listed = 0;
+    for (const n of notes) {
+      const note = await c.get<{ message: { text: string; html: string; subject: string } }>(`/api/outbox/${n.id}`);
+      expect(note.body.message.subject).toMatch(/^(\d+ inspections assigned to you, first due|Inspection of [A-Z]{2}-\d+ assigned to you, due) \d{4}-\d{2}-\d{2}$/);
+      listed += (note.body.message.text.match(/^ {2}Why: /gm) ?? []).length;
+      expect(note.body.message.html).toContain('assigned to you');
+      expect(note.body.message.html).toMatch(/<a href="http:\/\/[^"]+\/vehicles\/\d+"/);
+    }
+    expect(listed).toBe(assigned);
     // the mechanic cannot read the outbox
     const m = new ApiClient(A.url);
     await m.login(DEMO.mechanic);

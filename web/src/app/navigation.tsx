@@ -56,7 +56,7 @@ export const pages = {
   account: { path: '/account', label: 'Account', roles: ['manager', 'mechanic', 'driver'], icon: icon('M12 12a4 4 0 1 0 0-8 4 4 0 0 0 0 8zM4.5 20a7.5 7.5 0 0 1 15 0') },
 } satisfies Record<string, PageAccess>;
 
-const menuOrder: PageAccess[] = [pages.due, pages.fleet, pages.workshop, pages.myVehicle, pages.map, pages.vehicles, pages.specs, pages.routes, pages.trips, pages.planning, pages.fleetLife, pages.modelCheck, pages.people, pages.jobs, pages.outbox, pages.account];
+const menuOrder: PageAccess[] = [pages.due, pages.fleet, pages.workshop, pages.myVehicle, pages.map, pages.vehicles, pages.specs, pages.routes, pages.trips, pages.planning, pages.fleetLife, pages.modelCheck, pages.people, pages.account];
 
 // issue 7: the driver's report pages after "My vehicle"; ride reports and exposure after "Map"
 menuOrder.splice(menuOrder.indexOf(pages.myVehicle) + 1, 0, pages.report, pages.myReports);

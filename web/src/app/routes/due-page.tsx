@@ -30,9 +30,14 @@ export function DuePage() {
         title="Due inspections"
         description="Which vehicles need their dampers and springs checked, why, and how soon — from the roads they drive and the interval rule."
         actions={
-          <ButtonLink to={pages.jobs.path} variant="secondary">
-            Job runs
-          </ButtonLink>
+          <>
+            <ButtonLink to={pages.jobs.path} variant="secondary">
+              Job runs
+            </ButtonLink>
+            <ButtonLink to={pages.outbox.path} variant="secondary">
+              Outbox
+            </ButtonLink>
+          </>
         }
       />
       <div className="mb-6 grid gap-3 sm:grid-cols-2 lg:grid-cols-4">

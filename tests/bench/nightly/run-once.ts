@@ -1,0 +1,43 @@
+/**
+ * Runs the nightly job once on a prepared data folder, in its own process, and prints one JSON
+ * line: wall time [s] of the whole run (database writes and mail included), peak resident
+ * memory [MB] of the process, and the run's counts.
+ *
+ *     npx tsx tests/bench/nightly/run-once.ts <dataDir>
+ */
+import { loadConfig } from '../../../server/config';
+import { createLogger } from '../../../server/logger';
+import { dbFile, openDb } from '../../../server/db';
+import { createMailer } from '../../../server/mail/mailer';
+import { run } from '../../../jobs/nightly';
+import { BENCH_NOW } from './generate-fleet';
+
+const dir = process.argv[2];
+if (!dir) {
+  console.error('usage: npx tsx tests/bench/nightly/run-once.ts <dataDir>');
+  process.exit(2);
+}
+const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dir, FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', SEED_DEMO: 'false' });
+const log = createLogger('error');
+const db = await openDb(dbFile(dir));
+const { mailer } = await createMailer(config, log);
+const t0 = performance.now();
+// wall and CPU time per phase (phases as reported by the job's progress)
+const phases: Record<string, { s: number; cpuS: number }> = {};
+let phase = 'start';
+let tPhase = t0;
+let cpuPhase = process.cpuUsage();
+const mark = (next: string) => {
+  const cpu = process.cpuUsage(cpuPhase);
+  phases[phase] = { s: (performance.now() - tPhase) / 1000, cpuS: (cpu.user + cpu.system) / 1e6 };
+  phase = next;
+  tPhase = performance.now();
+  cpuPhase = process.cpuUsage();
+};
+const r = await run({ db, config, log, mailer, now: BENCH_NOW, trigger: 'test', onProgress: (p) => p !== phase && mark(p) });
+mark('end');
+const seconds = (performance.now() - t0) / 1000;
+const maxRssMb = process.resourceUsage().maxRSS / 1024;
+await mailer.close();
+await db.close();
+console.log(JSON.stringify({ seconds, maxRssMb, cpuS: (process.cpuUsage().user + process.cpuUsage().system) / 1e6, phases, status: r.status, counts: r.counts, errors: r.errors.length }));
