@@ -284,7 +284,7 @@ export class DutyCache {
 /**
  * Spectral moments of suspension travel on a `w = 2` road of `gdN0` at speed v, from the
  * closed-form transfer function and the road's temporal PSD `G(f) = Gd(n0)·n0²·v / f²`,
- * trapezoid rule on a log grid 0.01–200 Hz (2 000 points).
+ * trapezoid rule on a log grid 0.01–200 Hz (600 points; m0 within 1 % of the Lyapunov variance, tested).
  *
  * @param c corner [kg, N/m, N·s/m]
  * @param speedMps speed [m/s]
@@ -292,7 +292,7 @@ export class DutyCache {
  * @returns m0 [m²], m1 [m²·Hz], m2 [m²·Hz²], m4 [m²·Hz⁴]
  */
 export function travelMoments(c: CornerParams, speedMps: number, gdN0: number): SpectralMoments {
-  const n = 2000;
+  const n = 600;
   const f0 = 0.01, f1 = 200;
   const r = Math.pow(f1 / f0, 1 / (n - 1));
   let m0 = 0, m1 = 0, m2 = 0, m4 = 0;

@@ -14,7 +14,6 @@
  *
  * @module
  */
-import { addDays, differenceInCalendarDays, parseISO } from 'date-fns';
 import { ratedLifeEnergyJ } from '../physics/closed-form';
 import type { CornerParams } from '../physics/types';
 
@@ -129,11 +128,12 @@ export interface Prediction {
   };
 }
 
-const iso = (d: Date) => d.toISOString().slice(0, 10);
-const dayDate = (s: string) => parseISO(`${s}T00:00:00Z`);
+const DAY_MS = 86_400_000;
+const dayMs = (s: string) => Date.UTC(Number(s.slice(0, 4)), Number(s.slice(5, 7)) - 1, Number(s.slice(8, 10)));
 /** `day` plus `n` calendar days (YYYY-MM-DD, UTC arithmetic on dates). */
-export const plusDays = (day: string, n: number) => iso(addDays(dayDate(day), n));
-export const daysBetween = (from: string, to: string) => differenceInCalendarDays(dayDate(to), dayDate(from));
+export const plusDays = (day: string, n: number) => new Date(dayMs(day) + n * DAY_MS).toISOString().slice(0, 10);
+/** Calendar days from `from` to `to` (YYYY-MM-DD). */
+export const daysBetween = (from: string, to: string) => Math.round((dayMs(to) - dayMs(from)) / DAY_MS);
 
 /**
  * Predicts when a damper's consumed life reaches the threshold and end of life, and when its
