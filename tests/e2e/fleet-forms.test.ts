@@ -71,6 +71,14 @@ describe('vehicle and depot forms', () => {
     const api = await page.request.get(`${server.url}/api/vehicles?q=TST-901`);
     const body = (await api.json()) as { items: { odometerKm: number; status: string }[] };
     expect(body.items[0]).toMatchObject({ odometerKm: 1850, status: 'retired' });
+
+    // The same form opens from the vehicles table's row.
+    await page.goto(`${server.url}/vehicles?q=TST-901`);
+    await page.getByRole('button', { name: 'Edit TST-901' }).click();
+    const fromTable = page.getByRole('dialog', { name: 'Edit TST-901' });
+    expect(await fromTable.getByLabel('Odometer [km]').inputValue()).toBe('1850');
+    await fromTable.getByRole('button', { name: 'Cancel' }).click();
+    await fromTable.waitFor({ state: 'hidden' });
     await context.close();
   });
 

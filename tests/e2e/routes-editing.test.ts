@@ -157,6 +157,9 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     expect(await menuItems(page)).toContain('Roads');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Roads' }).click();
     await expectHeading(page, 'Road map');
+    await page.getByTestId('fleet-map').waitFor();
+    await page.waitForLoadState('networkidle');
+    await page.screenshot({ path: screenshotPath('mechanic-tablet-map') });
 
     const route = await firstRoute(page);
     await page.goto(`${server.url}/routes/${route.id}`);

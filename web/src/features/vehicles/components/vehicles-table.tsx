@@ -21,10 +21,12 @@ interface VehiclesTableProps {
   vehiclePath: (id: number) => string;
   /** Larger rows for the workshop tablet. */
   roomy?: boolean;
+  /** Offers an edit button on each row (managers). */
+  onEdit?: (vehicle: VehicleListItem) => void;
 }
 
 /** The fleet's vehicles with search, filters, server-side paging and sorting, and CSV export. */
-export function VehiclesTable({ params, onParamsChange, depotOptions, specOptions, vehiclePath, roomy }: VehiclesTableProps) {
+export function VehiclesTable({ params, onParamsChange, depotOptions, specOptions, vehiclePath, roomy, onEdit }: VehiclesTableProps) {
   const query = useVehicles(params);
 
   const columns = useMemo(
@@ -59,8 +61,22 @@ export function VehiclesTable({ params, onParamsChange, depotOptions, specOption
         meta: { numeric: true, unit: 'km', csv: (r) => Math.round(r.odometerKm) },
         cell: (c) => formatNumber(c.getValue()),
       }),
+      ...(onEdit
+        ? [
+            col.display({
+              id: 'edit',
+              header: () => <span className="sr-only">Actions</span>,
+              meta: { csv: false as const, className: 'w-px text-right' },
+              cell: (c) => (
+                <Button size="sm" variant="quiet" onClick={() => onEdit(c.row.original)} aria-label={`Edit ${c.row.original.fleetNumber}`}>
+                  Edit
+                </Button>
+              ),
+            }),
+          ]
+        : []),
     ],
-    [vehiclePath],
+    [vehiclePath, onEdit],
   );
 
   const filtered = Boolean(params.q || params.depotId || params.specId || params.status);
