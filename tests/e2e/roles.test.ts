@@ -17,14 +17,19 @@ afterAll(async () => {
 });
 
 describe('each role lands on its own page and sees only what it may use', () => {
-  it('when a manager signs in at a desk, then the fleet overview opens and the menu lists the manager pages', async () => {
+  it('when a manager signs in at a desk, then the due inspections open, the menu lists the manager pages, and the fleet overview is one click away', async () => {
     const context = await newContext(browser, 'desktop');
     const page = await context.newPage();
     await signIn(page, server.url, DEMO.manager);
 
-    await expectPath(page, '/fleet');
+    await expectPath(page, '/due');
+    await expectHeading(page, 'Due inspections');
+    expect(await menuItems(page)).toEqual([
+      'Due', 'Fleet', 'Roads', 'Ride reports', 'Exposure', 'Vehicles', 'Specs', 'Routes', 'Trips',
+      'Planning', 'Damper life', 'Model check', 'People', 'Account',
+    ]);
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Fleet', exact: true }).click();
     await expectHeading(page, 'Fleet');
-    expect(await menuItems(page)).toEqual(['Fleet', 'Roads', 'Vehicles', 'Specs', 'Routes', 'Trips', 'People', 'Account']);
     await page.getByRole('heading', { name: 'Vehicles by status' }).waitFor();
     await page.getByText('In service', { exact: true }).first().waitFor();
     await page.getByRole('table', { name: /Depots/ }).waitFor();
@@ -51,8 +56,8 @@ describe('each role lands on its own page and sees only what it may use', () => 
 
     await expectPath(page, '/workshop');
     await expectHeading(page, 'Workshop');
-    expect(await menuItems(page)).toEqual(['Workshop', 'Roads', 'Vehicles', 'Account']);
-    await page.getByText('Your inspections will appear here').waitFor();
+    expect(await menuItems(page)).toEqual(['Workshop', 'Roads', 'Vehicles', 'Damper life', 'Account']);
+    await page.getByRole('heading', { name: 'My inspections' }).waitFor();
     await page.getByRole('table', { name: /Vehicles/ }).getByRole('link').first().waitFor();
     await fullPageScreenshot(page, 'mechanic-tablet-workshop');
 
