@@ -26,7 +26,7 @@ export function RouteCreate({ onCreated }: { onCreated: (id: number) => void }) 
       <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-5">
         <TextField label="Route name" value={name} onChange={(e) => setName(e.target.value)} error={f.name} />
         <TextField label="Typical speed [km/h]" inputMode="decimal" value={speed} onChange={(e) => setSpeed(e.target.value)} error={f.defaultSpeedKmh} />
-        <TextField label="Segment length [m]" inputMode="decimal" value={segLen} onChange={(e) => setSegLen(e.target.value)} error={f.segmentLengthM} hint="Default 100 m" />
+        <TextField label="Segment length [m]" inputMode="decimal" value={segLen} onChange={(e) => setSegLen(e.target.value)} error={f.segmentLengthM} aside="(default 100 m)" />
         <SelectField label="Stated class" aside="(optional)" value={cls} onChange={(e) => setCls(e.target.value)} options={[{ value: '', label: 'Not known yet' }, ...ROUGHNESS_CLASSES.map((c) => ({ value: c, label: c }))]} />
         <Field label="Line file (GeoJSON or CSV)" error={f.line}>
           {(c) => (

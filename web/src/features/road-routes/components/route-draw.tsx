@@ -4,6 +4,7 @@ import { BaseLayer } from '@/components/map/base-layer';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
+import { RoughnessLegend } from '@/components/ui/roughness';
 import { isApiError } from '@/lib/api-client';
 import { formatNumber } from '@/lib/format';
 import { ROUGHNESS_CLASSES } from '@/lib/roughness';
@@ -66,7 +67,7 @@ export function RouteDraw({ onCreated, backdrop, center }: { onCreated: (id: num
       <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         <TextField label="Route name" value={name} onChange={(e) => { setName(e.target.value); setPreview(null); }} error={f.name} />
         <TextField label="Typical speed [km/h]" inputMode="decimal" value={speed} onChange={(e) => { setSpeed(e.target.value); setPreview(null); }} error={f.defaultSpeedKmh} />
-        <TextField label="Segment length [m]" inputMode="decimal" value={segLen} onChange={(e) => { setSegLen(e.target.value); setPreview(null); }} error={f.segmentLengthM} hint="Default 100 m" />
+        <TextField label="Segment length [m]" inputMode="decimal" value={segLen} onChange={(e) => { setSegLen(e.target.value); setPreview(null); }} error={f.segmentLengthM} aside="(default 100 m)" />
         <SelectField label="Stated class" aside="(optional)" value={cls} onChange={(e) => setCls(e.target.value)} options={[{ value: '', label: 'Not known yet' }, ...ROUGHNESS_CLASSES.map((c) => ({ value: c, label: c }))]} />
       </div>
 
@@ -103,7 +104,10 @@ export function RouteDraw({ onCreated, backdrop, center }: { onCreated: (id: num
           ))}
         </MapContainer>
       </div>
-      <p className="text-xs text-slate">Green: start. Orange: the points you placed. After a preview, small white dots mark where segments begin.</p>
+      <div className="flex flex-wrap items-start justify-between gap-3">
+        <p className="text-xs text-slate">Green: start. Orange: the points you placed. After a preview, small white dots mark where segments begin.</p>
+        {backdrop ? <RoughnessLegend /> : null}
+      </div>
 
       <div className="flex flex-wrap gap-2">
         <Button disabled={points.length < 2} busy={m.isPending && !preview} onClick={() => m.mutate({ body: body(), preview: true }, { onSuccess: (d) => setPreview(d as RoutePreview) })}>
