@@ -6,6 +6,7 @@ import { createLogger } from './logger';
 import { defaultWebDir, prepareDatabase } from './boot';
 import { createMailer } from './mail/mailer';
 import { startScheduler } from '../jobs/scheduler';
+import { startNightly } from '../jobs/nightly';
 
 async function main() {
   let config;
@@ -19,13 +20,22 @@ async function main() {
     throw err;
   }
   const log = createLogger(config.logLevel);
-  const db = await prepareDatabase(config, log);
+  let seeded = false;
+  const db = await prepareDatabase(config, log, new Date(), { onSeeded: () => (seeded = true) });
   const { mailer } = await createMailer(config, log);
   const built = createApp({ config, db, log, webDir: defaultWebDir, mailer });
   const scheduler = startScheduler({ config, db, log, mailer });
   const server: Server = built.app.listen(config.port, config.host, () => {
     log.info(`Reboundry is running at ${config.publicUrl} (data in ${config.dataDir})`);
   });
+  if (seeded) {
+    // A freshly seeded demo fleet has trips but no duty yet: run the nightly job once, in the
+    // background, so wear, predictions and due inspections are there to look at.
+    log.info('demo: running the nightly job once over the seeded trips (see Job runs)');
+    startNightly({ now: new Date(), log, db, config, mailer, trigger: 'seed' })
+      .then(({ done }) => done)
+      .catch((err) => log.error('demo: the first nightly run failed', err));
+  }
 
   let stopping = false;
   const stop = async (signal: string) => {

@@ -19,7 +19,7 @@ type CAttrs<M extends Model> = InferCreationAttributes<M>;
 
 export const JOB_RUN_STATUSES = ['running', 'succeeded', 'completed_with_errors', 'failed', 'cancelled'] as const;
 export type JobRunStatus = (typeof JOB_RUN_STATUSES)[number];
-export const JOB_TRIGGERS = ['schedule', 'cli', 'manual', 'test'] as const;
+export const JOB_TRIGGERS = ['schedule', 'cli', 'manual', 'test', 'seed'] as const;
 export type JobTrigger = (typeof JOB_TRIGGERS)[number];
 export const MAIL_KINDS = ['digest', 'assignment', 'note'] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];

@@ -154,18 +154,22 @@ function routeLine(rand: () => number, start: LonLat, headingDeg: number, length
   return pts;
 }
 
-/** Empties every table (children first). */
-export async function clearAll(db: Db) {
-  const t = ['sessions', 'dampers', 'work_records', 'inspections', 'trips', 'trip_imports', 'roughness_observations', 'route_segments', 'road_surveys', 'routes', 'vehicles', 'spec_axles', 'suspension_specs', 'users', 'depots'];
+/**
+ * Empties every table the migrations made (all but the migration log), for `seed --reset`, and
+ * removes the files the app keeps under its data folder (surveys, photos, attachments).
+ */
+export async function clearAll(db: Db, dataDir: string = path.dirname(db.file)) {
+  const [rows] = await db.sequelize.query(
+    `SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND name <> 'schema_migrations'`,
+  );
   await db.sequelize.transaction(async (transaction) => {
-    for (const table of t) {
-      const [exists] = await db.sequelize.query(`SELECT name FROM sqlite_master WHERE type='table' AND name=?`, { replacements: [table], transaction });
-      if ((exists as unknown[]).length) await db.sequelize.query(`DELETE FROM "${table}"`, { transaction });
-    }
+    // checked at commit, when every table is empty, so the order of the deletes does not matter
+    await db.sequelize.query('PRAGMA defer_foreign_keys = ON', { transaction });
+    for (const { name } of rows as { name: string }[]) await db.sequelize.query(`DELETE FROM "${name}"`, { transaction });
+    await db.sequelize.query(`DELETE FROM sqlite_sequence`, { transaction }).catch(() => undefined);
   });
-  for (const table of t) {
-    await db.sequelize.query(`DELETE FROM sqlite_sequence WHERE name = ?`, { replacements: [table] }).catch(() => undefined);
-  }
+  // only the app's own folders: DATA_DIR may hold other things
+  for (const dir of [SURVEY_DIR, 'attachments', 'ride-photos']) fs.rmSync(path.join(dataDir, dir), { recursive: true, force: true });
 }
 
 export async function isEmpty(): Promise<boolean> {
@@ -480,6 +484,24 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
             opts,
           );
         }
+      }
+      if (!replaced && v.status !== 'retired') {
+        // an ordinary check some time in the last year, so the interval rule is spread out
+        const ago = 25 + ((vi * 53) % 320);
+        const doneOn = subDays(today, ago);
+        await Inspection.create(
+          {
+            vehicleId: v.id,
+            dueDate: day(subDays(doneOn, 1)),
+            status: 'done',
+            reason: 'Interval check: 12 months since the last inspection.',
+            assigneeId: mechanicId,
+            completedAt: doneOn,
+            odometerKm: Math.round(odoNow - kmPerDay * ago),
+            notes: 'All corners within limits on the test lane.',
+          },
+          opts,
+        );
       }
       if (vi % 9 === 2) {
         await Inspection.create(

@@ -8,7 +8,7 @@ export interface JobRun {
   id: number;
   job: string;
   status: JobRunStatus;
-  trigger: 'schedule' | 'cli' | 'manual' | 'test';
+  trigger: 'schedule' | 'cli' | 'manual' | 'test' | 'seed';
   asOf: string;
   requestedBy: { id: number; name: string } | null;
   startedAt: string;

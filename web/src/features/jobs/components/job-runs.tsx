@@ -16,7 +16,7 @@ import { useRunNightly } from '../api/run-nightly';
 
 const statusTone: Record<string, StatusTone> = { running: 'watch', succeeded: 'ok', completed_with_errors: 'due', failed: 'overdue', cancelled: 'neutral' };
 const statusLabel: Record<string, string> = { running: 'Running', succeeded: 'Succeeded', completed_with_errors: 'Done, with errors', failed: 'Failed', cancelled: 'Cancelled' };
-const triggerLabel: Record<string, string> = { schedule: 'Schedule', cli: 'Command line', manual: 'Run now', test: 'Test' };
+const triggerLabel: Record<string, string> = { schedule: 'Schedule', cli: 'Command line', manual: 'Run now', test: 'Test', seed: 'After demo set-up' };
 const phaseLabel: Record<string, string> = { starting: 'Starting', duty: 'Duty of trips', wear: 'Damper wear', predictions: 'Predictions', scheduling: 'Scheduling inspections', mail: 'Sending e-mail', finished: 'Finished' };
 
 const n = (r: JobRun, k: string) => formatNumber(r.counts[k] ?? 0);
