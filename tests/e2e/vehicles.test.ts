@@ -139,7 +139,10 @@ describe('vehicles table', () => {
     const frontLeft = await page.getByRole('article', { name: 'Front left damper' }).innerText();
     expect(frontLeft).toMatch(/Fitted/);
     expect(frontLeft).toMatch(/\d\skm/);
-    await page.getByRole('complementary', { name: 'Caution' }).waitFor();
+    // the wear caution is there (the wear and workshop panels carry their own too)
+    const cautions = page.getByRole('complementary', { name: 'Caution' });
+    await cautions.first().waitFor();
+    expect((await cautions.allInnerTexts()).join(' ')).toMatch(/qualified mechanic/i);
 
     const spec = page.getByRole('table', { name: 'Corner parameters per axle' });
     const headers = (await spec.getByRole('columnheader').allInnerTexts()).map((h) => h.replace(/\s+/g, ' ').trim());
