@@ -24,6 +24,46 @@ export async function menuItems(page: Page): Promise<string[]> {
   return (await nav.getByRole('link').allInnerTexts()).map((t) => t.trim());
 }
 
+/**
+ * The top level of the visible main navigation, in order: links by name, groups by their button's
+ * name with " ▾" after it (so a test can tell a group from a page).
+ */
+export async function menuEntries(page: Page): Promise<string[]> {
+  const nav = page.getByRole('navigation', { name: 'Main' });
+  await nav.waitFor();
+  return nav.locator(':scope > ul > li > a, :scope > ul > li > button').evaluateAll((els) =>
+    els.map((e) => (e.textContent ?? '').trim() + (e.tagName === 'BUTTON' ? ' ▾' : '')),
+  );
+}
+
+/** The names of the pages in one menu group, after opening it with a click. */
+export async function openMenuGroup(page: Page, group: string): Promise<string[]> {
+  const nav = page.getByRole('navigation', { name: 'Main' });
+  const button = nav.getByRole('button', { name: group, exact: true });
+  if ((await button.getAttribute('aria-expanded')) !== 'true') await button.click();
+  const list = page.locator(`[id="${await button.getAttribute('aria-controls')}"]`);
+  await list.waitFor();
+  return (await list.getByRole('link').allInnerTexts()).map((t) => t.trim());
+}
+
+/**
+ * Follows a main-menu link by its name, as a person would: straight away when it is on show,
+ * otherwise by opening the group it sits in first.
+ */
+export async function goViaMenu(page: Page, name: string) {
+  const nav = page.getByRole('navigation', { name: 'Main' });
+  await nav.waitFor();
+  const link = nav.getByRole('link', { name, exact: true });
+  if (!(await link.isVisible())) {
+    for (const button of await nav.getByRole('button').all()) {
+      await button.click();
+      if (await link.isVisible()) break;
+      await button.click();
+    }
+  }
+  await link.click();
+}
+
 /** Waits for the page's first-level heading to read `text`; on failure, says what it read instead. */
 export async function expectHeading(page: Page, text: string) {
   const wanted = page.getByRole('heading', { level: 1, name: text, exact: true });

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { fullPageScreenshot, launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, menuItems, signIn } from './helpers';
+import { DEMO, expectHeading, expectPath, goViaMenu, menuEntries, menuItems, openMenuGroup, signIn } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -16,20 +16,47 @@ afterAll(async () => {
   await server?.stop();
 });
 
+/** The manager's menu groups and the pages in each, with where they go. */
+const MANAGER_GROUPS: Record<string, [label: string, path: string][]> = {
+  Fleet: [['Overview', '/fleet'], ['Vehicles', '/vehicles'], ['Specs', '/specs'], ['People', '/people']],
+  Roads: [['Map', '/map'], ['Routes', '/routes'], ['Segments', '/segments'], ['Trips', '/trips']],
+  Workshop: [['Planning', '/planning'], ['Damper life', '/damper-life'], ['Model check', '/model-check'], ['Job runs', '/jobs'], ['Outbox', '/outbox']],
+  Drivers: [['Ride reports', '/ride-reports'], ['Exposure', '/exposure']],
+};
+
 describe('each role lands on its own page and sees only what it may use', () => {
-  it('when a manager signs in at a desk, then the due inspections open, the menu lists the manager pages, and the fleet overview is one click away', async () => {
+  it('when a manager signs in at a desk, then the due inspections open, the menu shows its groups, and the fleet overview is in the Fleet group', async () => {
     const context = await newContext(browser, 'desktop');
     const page = await context.newPage();
     await signIn(page, server.url, DEMO.manager);
 
     await expectPath(page, '/due');
     await expectHeading(page, 'Due inspections');
-    expect(await menuItems(page)).toEqual([
-      'Due', 'Fleet', 'Roads', 'Ride reports', 'Exposure', 'Vehicles', 'Specs', 'Routes', 'Trips',
-      'Planning', 'Damper life', 'Model check', 'People', 'Account',
-    ]);
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Fleet', exact: true }).click();
+    expect(await menuEntries(page)).toEqual(['Due', 'Fleet ▾', 'Roads ▾', 'Workshop ▾', 'Drivers ▾', 'Account']);
+    // With every group closed only the pages that stand on their own are links.
+    expect(await menuItems(page)).toEqual(['Due', 'Account']);
+    await page.screenshot({ path: screenshotPath('manager-desktop-menu-closed') });
+
+    for (const [group, items] of Object.entries(MANAGER_GROUPS)) {
+      expect(await openMenuGroup(page, group), `pages under ${group}`).toEqual(items.map(([label]) => label));
+    }
+    // Opening one group closed the one before: only the last is open.
+    const nav = page.getByRole('navigation', { name: 'Main' });
+    expect(await nav.locator('button[aria-expanded="true"]').allInnerTexts()).toEqual(['Drivers']);
+
+    await openMenuGroup(page, 'Roads');
+    await page.screenshot({ path: screenshotPath('manager-desktop-menu-roads-open') });
+    await nav.getByRole('link', { name: 'Map', exact: true }).waitFor();
+
+    await openMenuGroup(page, 'Fleet');
+    await nav.getByRole('link', { name: 'Overview', exact: true }).click();
+    await expectPath(page, '/fleet');
     await expectHeading(page, 'Fleet');
+    // The group closes on the way, and shows as the current section.
+    const fleet = nav.getByRole('button', { name: 'Fleet', exact: true });
+    expect(await fleet.getAttribute('aria-expanded')).toBe('false');
+    expect(await fleet.getAttribute('aria-current')).toBe('true');
+    expect(await nav.getByRole('button', { name: 'Roads', exact: true }).getAttribute('aria-current')).toBeNull();
     await page.getByRole('heading', { name: 'Vehicles by status' }).waitFor();
     await page.getByText('In service', { exact: true }).first().waitFor();
     await page.getByRole('table', { name: /Depots/ }).waitFor();
@@ -41,11 +68,90 @@ describe('each role lands on its own page and sees only what it may use', () => 
       ['People', 'People', 'manager-desktop-people'],
       ['Account', 'Your account', 'manager-desktop-account'],
     ] as const) {
-      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: link }).click();
+      await goViaMenu(page, link);
       await page.getByRole('heading', { level: 1, name: title }).waitFor();
       await page.waitForLoadState('networkidle');
       await fullPageScreenshot(page, shot);
     }
+    // A page below one in a group (a new spec) still marks its group.
+    await page.goto(`${server.url}/specs/new`);
+    await page.getByRole('heading', { level: 1 }).first().waitFor();
+    expect(await nav.getByRole('button', { name: 'Fleet', exact: true }).getAttribute('aria-current')).toBe('true');
+    await context.close();
+  });
+
+  it('when a manager uses only the keyboard, then each group opens with Enter or Space, Escape closes it and returns focus, and every page in the menu can be reached', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await expectHeading(page, 'Due inspections');
+    const nav = page.getByRole('navigation', { name: 'Main' });
+    const focused = () => page.evaluate(() => (document.activeElement?.textContent ?? '').trim());
+
+    // Tab order from the brand: Due, then the group buttons (closed groups hide their links), then Account.
+    await page.getByRole('link', { name: 'Reboundry, your start page' }).focus();
+    const order: string[] = [];
+    for (let i = 0; i < 6; i++) {
+      await page.keyboard.press('Tab');
+      order.push(await focused());
+    }
+    expect(order).toEqual(['Due', 'Fleet', 'Roads', 'Workshop', 'Drivers', 'Account']);
+
+    // Space opens, Escape closes and leaves focus on the button.
+    const roads = nav.getByRole('button', { name: 'Roads', exact: true });
+    await roads.focus();
+    await page.keyboard.press('Space');
+    await expect.poll(() => roads.getAttribute('aria-expanded')).toBe('true');
+    await page.keyboard.press('Tab');
+    expect(await focused()).toBe('Map');
+    await page.keyboard.press('Escape');
+    await expect.poll(() => roads.getAttribute('aria-expanded')).toBe('false');
+    expect(await roads.evaluate((el) => el === document.activeElement)).toBe(true);
+
+    // Tab past a group's last page closes it and moves on to the next group.
+    await page.keyboard.press('Enter');
+    await expect.poll(() => roads.getAttribute('aria-expanded')).toBe('true');
+    for (let i = 0; i < MANAGER_GROUPS.Roads.length; i++) await page.keyboard.press('Tab');
+    expect(await focused()).toBe(MANAGER_GROUPS.Roads.at(-1)?.[0]);
+    await page.keyboard.press('Tab');
+    expect(await focused()).toBe('Workshop');
+    await expect.poll(() => roads.getAttribute('aria-expanded')).toBe('false');
+
+    // A click outside closes an open group.
+    await page.keyboard.press('Enter');
+    await expect.poll(() => nav.getByRole('button', { name: 'Workshop', exact: true }).getAttribute('aria-expanded')).toBe('true');
+    await page.locator('main').click({ position: { x: 5, y: 400 } });
+    await expect.poll(() => nav.getByRole('button', { name: 'Workshop', exact: true }).getAttribute('aria-expanded')).toBe('false');
+
+    // Every page under every group: focus its group, Enter, Tab down to it, Enter.
+    for (const [group, items] of Object.entries(MANAGER_GROUPS)) {
+      for (const [index, [label, path]] of items.entries()) {
+        const button = nav.getByRole('button', { name: group, exact: true });
+        await button.focus();
+        await page.keyboard.press('Enter');
+        await expect.poll(() => button.getAttribute('aria-expanded'), { message: `${group} opened with Enter` }).toBe('true');
+        for (let i = 0; i <= index; i++) await page.keyboard.press('Tab');
+        expect(await focused(), `Tab ${index + 1} under ${group}`).toBe(label);
+        await page.keyboard.press('Enter');
+        await expectPath(page, path);
+        await page.getByRole('heading', { level: 1 }).first().waitFor();
+        await page.waitForLoadState('networkidle');
+      }
+    }
+    await context.close();
+  });
+
+  it('when a manager opens the app on a 1024 px screen, then the grouped menu fits without scrolling sideways', async () => {
+    const context = await newContext(browser, 'tablet');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await expectHeading(page, 'Due inspections');
+    const nav = page.getByRole('navigation', { name: 'Main' });
+    expect(await nav.evaluate((el) => el.scrollWidth <= el.clientWidth)).toBe(true);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
+    await page.screenshot({ path: screenshotPath('manager-tablet-menu-closed') });
+    await openMenuGroup(page, 'Workshop');
+    await page.screenshot({ path: screenshotPath('manager-tablet-menu-workshop-open') });
     await context.close();
   });
 
@@ -57,6 +163,8 @@ describe('each role lands on its own page and sees only what it may use', () => 
     await expectPath(page, '/workshop');
     await expectHeading(page, 'Workshop');
     expect(await menuItems(page)).toEqual(['Workshop', 'Roads', 'Vehicles', 'Damper life', 'Account']);
+    // The mechanic's menu is short and flat: no groups.
+    expect(await menuEntries(page)).toEqual(['Workshop', 'Roads', 'Vehicles', 'Damper life', 'Account']);
     await page.getByRole('heading', { name: 'My inspections' }).waitFor();
     await page.getByRole('table', { name: /Vehicles/ }).getByRole('link').first().waitFor();
     await fullPageScreenshot(page, 'mechanic-tablet-workshop');

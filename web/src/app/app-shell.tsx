@@ -1,11 +1,13 @@
-import { Link, NavLink, Outlet, useNavigate, useNavigation } from 'react-router';
+import { useCallback, useEffect, useState } from 'react';
+import { Link, NavLink, Outlet, useLocation, useNavigate, useNavigation } from 'react-router';
 import { BrandMark } from '@/components/ui/brand-mark';
 import { Button } from '@/components/ui/button';
 import { useMe } from '@/features/auth/api/get-me';
 import { useSignOut } from '@/features/auth/api/sign-out';
 import { cx } from '@/lib/class-names';
 import { roleLabels } from '@/lib/roles';
-import { landingPaths, menuFor } from './navigation';
+import { MenuGroup } from './menu-group';
+import { isWithin, landingPaths, menuEntriesFor, menuFor, pages, type MenuGroupId, type PageAccess } from './navigation';
 
 /**
  * The frame around every signed-in page: brand, the role's menu, who is signed in and a way to
@@ -16,9 +18,21 @@ export function AppShell() {
   const navigation = useNavigation();
   const navigate = useNavigate();
   const signOut = useSignOut();
+  const { pathname } = useLocation();
+  const [openGroup, setOpenGroup] = useState<MenuGroupId | null>(null);
+  const groupOpenChange = useCallback(
+    (id: MenuGroupId) => (open: boolean) => setOpenGroup((current) => (open ? id : current === id ? null : current)),
+    [],
+  );
+
+  // A new page closes any open group (also when it was reached some other way than the menu).
+  useEffect(() => setOpenGroup(null), [pathname]);
 
   if (!user) return null;
   const menu = menuFor(user.role);
+  const entries = menuEntriesFor(user.role);
+  const topLinks = entries.filter((e) => !(e.kind === 'page' && e.page === pages.account));
+  const account = menu.includes(pages.account) ? pages.account : null;
 
   function onSignOut() {
     signOut.mutate(undefined, {
@@ -41,27 +55,32 @@ export function AppShell() {
           <Link to={landingPaths[user.role]} aria-label="Reboundry, your start page" className="shrink-0 rounded">
             <BrandMark />
           </Link>
-          <nav aria-label="Main" className="hidden h-full min-w-0 overflow-x-auto [scrollbar-width:thin] md:block">
-            <ul className="flex h-full items-stretch gap-1">
-              {menu.map((item) => (
-                <li key={item.path} className="flex">
-                  <NavLink
-                    to={item.path}
-                    className={({ isActive }) =>
-                      cx(
-                        'relative flex items-center px-3 text-[0.9375rem] font-medium whitespace-nowrap transition-colors',
-                        'after:absolute after:inset-x-3 after:bottom-0 after:h-0.5 after:rounded-full',
-                        isActive ? 'text-ink after:bg-accent' : 'text-slate hover:text-ink after:bg-transparent',
-                      )
-                    }
-                  >
-                    {item.label}
-                  </NavLink>
+          <nav aria-label="Main" className="hidden h-full min-w-0 flex-1 md:flex">
+            <ul className="flex h-full flex-1 items-stretch gap-1">
+              {topLinks.map((entry) =>
+                entry.kind === 'page' ? (
+                  <li key={entry.page.path} className="flex">
+                    <TopLink page={entry.page} />
+                  </li>
+                ) : (
+                  <MenuGroup
+                    key={entry.id}
+                    label={entry.label}
+                    pages={entry.pages}
+                    active={entry.pages.some((p) => isWithin(pathname, p))}
+                    open={openGroup === entry.id}
+                    onOpenChange={groupOpenChange(entry.id)}
+                  />
+                ),
+              )}
+              {account ? (
+                <li className="ml-auto flex">
+                  <TopLink page={account} />
                 </li>
-              ))}
+              ) : null}
             </ul>
           </nav>
-          <div className="ml-auto flex shrink-0 items-center gap-3">
+          <div className="ml-auto flex shrink-0 items-center gap-3 md:ml-0">
             <p className="hidden text-right leading-tight sm:block">
               <span className="block text-sm font-medium text-ink">{user.name}</span>
               <span className="block text-xs text-slate">{roleLabels[user.role]}</span>
@@ -99,5 +118,22 @@ export function AppShell() {
         </ul>
       </nav>
     </div>
+  );
+}
+
+function TopLink({ page }: { page: PageAccess }) {
+  return (
+    <NavLink
+      to={page.path}
+      className={({ isActive }) =>
+        cx(
+          'relative flex items-center px-3 text-[0.9375rem] font-medium whitespace-nowrap transition-colors',
+          'after:absolute after:inset-x-3 after:bottom-0 after:h-0.5 after:rounded-full',
+          isActive ? 'text-ink after:bg-accent' : 'text-slate hover:text-ink after:bg-transparent',
+        )
+      }
+    >
+      {page.label}
+    </NavLink>
   );
 }
