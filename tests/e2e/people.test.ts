@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, menuItems, signIn } from './helpers';
+import { DEMO, expectHeading, expectPath, menuItems, signIn, goViaMenu } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -23,7 +23,7 @@ describe('people (managers only)', () => {
     const context = await newContext(browser, 'desktop');
     const page = await context.newPage();
     await signIn(page, server.url, DEMO.manager);
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'People' }).click();
+    await goViaMenu(page, 'People');
     await expectHeading(page, 'People');
     await page.getByText(/^1–\d+ of \d+ people$/).waitFor();
 
@@ -67,7 +67,7 @@ describe('people (managers only)', () => {
     const theirPage = await theirs.newPage();
     await signIn(theirPage, server.url, 'rosa.quintero@reboundry.test', 'quarry-lane-42');
     await expectPath(theirPage, '/workshop');
-    expect(await menuItems(theirPage)).toEqual(['Workshop', 'Vehicles', 'Account']);
+    expect(await menuItems(theirPage)).toEqual(['Workshop', 'Roads', 'Vehicles', 'Damper life', 'Account']);
     await theirs.close();
 
     // Deactivate: confirm first; then the badge says so and sign-in is refused.

@@ -3,7 +3,7 @@ import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
 import { ApiClient } from '../support/client';
-import { DEMO, expectHeading, signIn } from './helpers';
+import { DEMO, expectHeading, signIn, goViaMenu } from './helpers';
 import { synthesizeProfile } from '../../server/physics/iso8608';
 import { formatProfileCsv } from '../../server/roads/profile-store';
 
@@ -86,7 +86,7 @@ describe('roads, surveys and imports in the browser', () => {
     const context = await newContext(browser, 'desktop');
     const page = await context.newPage();
     await signIn(page, server.url, DEMO.manager);
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Trips' }).click();
+    await goViaMenu(page, 'Trips');
     await expectHeading(page, 'Trips');
     const csv = [
       'vehicle,route,driver_email,start,end,distance_km,mean_speed_kmh,payload_kg',

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, DEMO_PASSWORD, expectHeading, expectPath, signIn } from './helpers';
+import { DEMO, DEMO_PASSWORD, expectHeading, expectPath, signIn, goViaMenu } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -105,12 +105,12 @@ describe('session', () => {
     const context = await newContext(browser, 'desktop');
     const page = await context.newPage();
     await signIn(page, server.url, DEMO.manager);
-    await expectHeading(page, 'Fleet');
+    await expectHeading(page, 'Due inspections');
     // Responses still in flight would set the (rolling) session cookie again.
     await page.waitForLoadState('networkidle');
     await context.clearCookies();
 
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Vehicles' }).click();
+    await goViaMenu(page, 'Vehicles');
     await expectPath(page, '/sign-in');
     await page.getByText('Your session has ended. Sign in again to carry on where you were.').waitFor();
     expect(new URL(page.url()).searchParams.get('next')).toBe('/vehicles');

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, signIn } from './helpers';
+import { DEMO, expectHeading, expectPath, signIn, goViaMenu } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -40,7 +40,7 @@ describe('vehicles table', () => {
     const context = await newContext(browser, 'desktop');
     const page = await context.newPage();
     await signIn(page, server.url, DEMO.manager);
-    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Vehicles' }).click();
+    await goViaMenu(page, 'Vehicles');
     await expectHeading(page, 'Vehicles');
 
     const first = await range(page, /^1–25 of \d+ vehicles$/);
