@@ -155,6 +155,21 @@ describe('each role lands on its own page and sees only what it may use', () => 
     await context.close();
   });
 
+  it('when a manager opens the app on a phone, then the bottom bar holds the same groups and a group opens upwards with its pages', async () => {
+    const context = await newContext(browser, 'phone');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await expectHeading(page, 'Due inspections');
+    expect(await menuEntries(page)).toEqual(['Due', 'Fleet ▾', 'Roads ▾', 'Workshop ▾', 'Drivers ▾', 'Account']);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
+    expect(await openMenuGroup(page, 'Roads')).toEqual(MANAGER_GROUPS.Roads.map(([label]) => label));
+    await page.screenshot({ path: screenshotPath('manager-phone-menu-roads-open') });
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Trips', exact: true }).click();
+    await expectPath(page, '/trips');
+    await expectHeading(page, 'Trips');
+    await context.close();
+  });
+
   it('when a mechanic signs in on a tablet, then the workshop opens with the fleet listed and a short menu', async () => {
     const context = await newContext(browser, 'tablet');
     const page = await context.newPage();

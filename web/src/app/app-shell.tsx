@@ -7,7 +7,7 @@ import { useSignOut } from '@/features/auth/api/sign-out';
 import { cx } from '@/lib/class-names';
 import { roleLabels } from '@/lib/roles';
 import { MenuGroup } from './menu-group';
-import { isWithin, landingPaths, menuEntriesFor, menuFor, pages, type MenuGroupId, type PageAccess } from './navigation';
+import { isWithin, landingPaths, menuEntriesFor, menuFor, pages, type PageAccess } from './navigation';
 
 /**
  * The frame around every signed-in page: brand, the role's menu, who is signed in and a way to
@@ -19,9 +19,9 @@ export function AppShell() {
   const navigate = useNavigate();
   const signOut = useSignOut();
   const { pathname } = useLocation();
-  const [openGroup, setOpenGroup] = useState<MenuGroupId | null>(null);
+  const [openGroup, setOpenGroup] = useState<string | null>(null);
   const groupOpenChange = useCallback(
-    (id: MenuGroupId) => (open: boolean) => setOpenGroup((current) => (open ? id : current === id ? null : current)),
+    (key: string) => (open: boolean) => setOpenGroup((current) => (open ? key : current === key ? null : current)),
     [],
   );
 
@@ -33,6 +33,8 @@ export function AppShell() {
   const entries = menuEntriesFor(user.role);
   const topLinks = entries.filter((e) => !(e.kind === 'page' && e.page === pages.account));
   const account = menu.includes(pages.account) ? pages.account : null;
+  // A grouped (longer) menu needs the width of a desk for the header; below that it sits at the bottom.
+  const grouped = entries.some((e) => e.kind === 'group');
 
   function onSignOut() {
     signOut.mutate(undefined, {
@@ -55,7 +57,7 @@ export function AppShell() {
           <Link to={landingPaths[user.role]} aria-label="Reboundry, your start page" className="shrink-0 rounded">
             <BrandMark />
           </Link>
-          <nav aria-label="Main" className="hidden h-full min-w-0 flex-1 md:flex">
+          <nav aria-label="Main" className={cx('hidden h-full min-w-0 flex-1', grouped ? 'lg:flex' : 'md:flex')}>
             <ul className="flex h-full flex-1 items-stretch gap-1">
               {topLinks.map((entry) =>
                 entry.kind === 'page' ? (
@@ -68,8 +70,8 @@ export function AppShell() {
                     label={entry.label}
                     pages={entry.pages}
                     active={entry.pages.some((p) => isWithin(pathname, p))}
-                    open={openGroup === entry.id}
-                    onOpenChange={groupOpenChange(entry.id)}
+                    open={openGroup === `top:${entry.id}`}
+                    onOpenChange={groupOpenChange(`top:${entry.id}`)}
                   />
                 ),
               )}
@@ -80,7 +82,7 @@ export function AppShell() {
               ) : null}
             </ul>
           </nav>
-          <div className="ml-auto flex shrink-0 items-center gap-3 md:ml-0">
+          <div className={cx('ml-auto flex shrink-0 items-center gap-3', grouped ? 'lg:ml-0' : 'md:ml-0')}>
             <p className="hidden text-right leading-tight sm:block">
               <span className="block text-sm font-medium text-ink">{user.name}</span>
               <span className="block text-xs text-slate">{roleLabels[user.role]}</span>
@@ -92,13 +94,32 @@ export function AppShell() {
         </div>
       </header>
 
-      <main id="main" tabIndex={-1} className="mx-auto w-full max-w-7xl flex-1 px-4 pt-6 pb-28 outline-none sm:px-6 md:pb-12">
+      <main id="main" tabIndex={-1} className={cx('mx-auto w-full max-w-7xl flex-1 px-4 pt-6 pb-28 outline-none sm:px-6', grouped ? 'lg:pb-12' : 'md:pb-12')}>
         <Outlet />
       </main>
 
-      <nav aria-label="Main" data-pinned="" className="fixed inset-x-0 bottom-0 z-30 print:static border-t border-line bg-surface pb-[env(safe-area-inset-bottom)] md:hidden">
+      <nav aria-label="Main" data-pinned="" className={cx(
+          'fixed inset-x-0 bottom-0 z-30 print:static border-t border-line bg-surface pb-[env(safe-area-inset-bottom)]',
+          grouped ? 'lg:hidden' : 'md:hidden',
+        )}
+      >
         <ul className="flex">
-          {menu.map((item) => (
+          {entries.map((entry) => {
+            if (entry.kind === 'group')
+              return (
+                <MenuGroup
+                  key={entry.id}
+                  placement="bottom"
+                  icon={entry.pages[0]?.icon}
+                  label={entry.label}
+                  pages={entry.pages}
+                  active={entry.pages.some((p) => isWithin(pathname, p))}
+                  open={openGroup === `bottom:${entry.id}`}
+                  onOpenChange={groupOpenChange(`bottom:${entry.id}`)}
+                />
+              );
+            const item = entry.page;
+            return (
             <li key={item.path} className="min-w-0 flex-1">
               <NavLink
                 to={item.path}
@@ -114,7 +135,8 @@ export function AppShell() {
                 <span className="max-w-full truncate">{item.label}</span>
               </NavLink>
             </li>
-          ))}
+            );
+          })}
         </ul>
       </nav>
     </div>
