@@ -138,10 +138,12 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     await page.waitForURL((u) => u.searchParams.get('sort') === 'iri');
     // The table is marked busy while the new page is fetched; the range line says "Loading" meanwhile.
     await expect.poll(async () => (await page.locator('table[aria-busy="true"]').count()) + (await page.getByText('Loading segments…').count()), { timeout: 10_000 }).toBe(0);
-    expect((await column(5)).join()).not.toBe(before.join());
-    const iris = (await column(5)).map(Number);
-    expect(iris.length).toBeGreaterThan(1);
-    expect(iris).toEqual([...iris].sort((a, b) => a - b));
+    // the busy mark may not be up yet when first polled, so wait for the sorted rows themselves
+    const sortedNew = async () => {
+      const iris = (await column(5)).map(Number);
+      return iris.length > 1 && iris.join() !== before.map(Number).join() && iris.every((v, i, a) => i === 0 || a[i - 1] <= v);
+    };
+    await expect.poll(sortedNew, { timeout: 15_000 }).toBe(true);
     expect(await page.getByText('Loading segments…').count()).toBe(0);
 
     await page.getByRole('link', { name: /on the map$/ }).first().click();
