@@ -86,8 +86,11 @@ function DamperCard({ damper, fallback, ratedLifeKm, compact }: { damper?: Dampe
     );
   }
   const estimated = hasWearEstimate(damper);
-  const tone = estimated ? wearTone(damper.lifeUsedFraction) : 'neutral';
   const kmShare = ratedLifeKm ? damper.distanceKm / ratedLifeKm : null;
+  // The duty estimate counts only trips on record. When the distance on the damper says it is
+  // further along (km driven before records began), the word follows the more worn of the two.
+  const distanceAhead = estimated && kmShare !== null && kmShare - (damper.lifeUsedFraction ?? 0) > 0.2;
+  const tone = estimated ? wearTone(Math.max(damper.lifeUsedFraction ?? 0, distanceAhead ? (kmShare ?? 0) : 0)) : 'neutral';
   // Until the wear run has estimated it, the distance against the rated life is the guide.
   const headline = estimated
     ? { label: 'Life used', value: formatPercent(damper.lifeUsedFraction), fraction: damper.lifeUsedFraction ?? 0 }
@@ -117,6 +120,12 @@ function DamperCard({ damper, fallback, ratedLifeKm, compact }: { damper?: Dampe
       </div>
       {estimated && damper.wearUpdatedAt ? (
         <p className="mt-1 text-xs text-slate">Estimated {formatDate(damper.wearUpdatedAt)}</p>
+      ) : null}
+      {distanceAhead ? (
+        <p className="mt-1 text-xs text-ink">
+          Most of its {formatQuantity(damper.distanceKm, 'km')} were driven before trips were recorded, so the life used above
+          leaves them out; the status goes by distance ({formatPercent(kmShare)} of rated km).
+        </p>
       ) : null}
       {compact ? (
         <dl className="mt-2.5 flex flex-col gap-1.5 text-sm">
