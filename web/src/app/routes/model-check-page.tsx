@@ -3,6 +3,7 @@ import { Facts } from '@/components/ui/facts';
 import { LoadingState } from '@/components/ui/loading-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { Caution } from '@/components/ui/caution';
+import { EmptyState } from '@/components/ui/empty-state';
 import { useModelCheck } from '@/features/workshop/api/get-model-check';
 import { ModelCheckChart } from '@/features/workshop/components/fleet-life-charts';
 import { formatNumber } from '@/lib/format';
@@ -30,7 +31,14 @@ export function ModelCheckPage() {
             ]}
           />
           <p className="my-2 text-xs text-slate">{q.data.definitions}. A positive bias means the model thinks dampers are in better shape than the lane shows.</p>
-          <ModelCheckChart points={q.data.points} />
+          {q.data.n === 0 ? (
+            <EmptyState title="No test-lane results yet">
+              When a mechanic records the adhesion of each corner on an inspection, that corner appears here: the damping the
+              lane result implies against the damping the wear model predicted for it.
+            </EmptyState>
+          ) : (
+            <ModelCheckChart points={q.data.points} />
+          )}
           <Caution className="mt-3">The test-lane estimate rests on the two-mass model and the spec&apos;s parameters; it supports, and never replaces, a qualified mechanic&apos;s judgement.</Caution>
         </>
       )}
