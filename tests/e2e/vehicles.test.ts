@@ -66,9 +66,13 @@ describe('vehicles table', () => {
     await odoHeader.getByRole('button').click();
     await page.waitForFunction(() => new URL(location.href).searchParams.get('sort') === '-odometerKm');
     expect(await odoHeader.getAttribute('aria-sort')).toBe('descending');
-    await page.waitForFunction(() => !document.querySelector('table[aria-busy="true"]'));
-    const odo = (await column(page, 6)).map(km);
-    expect(odo).toEqual([...odo].sort((a, b) => b - a));
+    // the busy mark may not be up yet when first checked: wait for the rows themselves
+    await expect
+      .poll(async () => {
+        const odo = (await column(page, 6)).map(km);
+        return odo.length > 1 && odo.every((v, i, a) => i === 0 || a[i - 1] >= v);
+      }, { timeout: 15_000 })
+      .toBe(true);
 
     // Filter by status
     await page.getByLabel('Status').selectOption('workshop');
@@ -80,23 +84,23 @@ describe('vehicles table', () => {
     await range(page, new RegExp(`^1–25 of ${total} vehicles$`));
     await page.getByLabel('Depot').selectOption({ label: 'Millbrook Cross Depot' });
     await page.waitForFunction(() => new URL(location.href).searchParams.has('depotId'));
-    await page.waitForFunction(() => !document.querySelector('table[aria-busy="true"]'));
-    expect(new Set(await column(page, 4))).toEqual(new Set(['Millbrook Cross Depot']));
+    await expect.poll(async () => [...new Set(await column(page, 4))], { timeout: 15_000 }).toEqual(['Millbrook Cross Depot']);
 
     // Filter by spec
     await page.getByLabel('Spec').selectOption({ label: 'Rigid truck 18 t' });
     await page.waitForFunction(() => new URL(location.href).searchParams.has('specId'));
-    await page.waitForFunction(() => !document.querySelector('table[aria-busy="true"]'));
-    expect(new Set(await column(page, 3))).toEqual(new Set(['Rigid truck 18 t']));
+    await expect.poll(async () => [...new Set(await column(page, 3))], { timeout: 15_000 }).toEqual(['Rigid truck 18 t']);
 
     // Search by fleet number
     await page.getByRole('button', { name: 'Clear filters' }).click();
     await page.getByLabel('Fleet number or plate').fill('LV-11');
     await page.waitForFunction(() => new URL(location.href).searchParams.get('q') === 'LV-11');
-    await page.waitForFunction(() => !document.querySelector('table[aria-busy="true"]'));
-    const found = await column(page, 0);
-    expect(found.length).toBeGreaterThan(0);
-    for (const f of found) expect(f).toContain('LV-11');
+    await expect
+      .poll(async () => {
+        const found = await column(page, 0);
+        return found.length > 0 && found.every((f) => f.includes('LV-11'));
+      }, { timeout: 15_000 })
+      .toBe(true);
 
     // A search that finds nothing says what to do
     await page.getByLabel('Fleet number or plate').fill('nothing-like-this');
