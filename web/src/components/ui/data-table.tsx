@@ -64,6 +64,42 @@ export interface DataTableProps<T> {
   roomy?: boolean;
 }
 
+/** What {@link pagedTableProps} reads of a list query (TanStack Query's result has it all). */
+interface PagedListQuery<T> {
+  data?: { items: T[]; total: number };
+  isPending: boolean;
+  isFetching: boolean;
+  isPlaceholderData?: boolean;
+  error: unknown;
+  refetch: () => unknown;
+}
+
+/**
+ * The paging, sorting and loading props of a server-paged table, from its list query and the
+ * list state kept in the address: `<DataTable {...pagedTableProps(query, params, update)} …/>`.
+ */
+export function pagedTableProps<T>(
+  query: PagedListQuery<T>,
+  params: { page: number; pageSize: number; sort?: string },
+  update: (patch: { page?: number; pageSize?: number; sort?: string }) => void,
+) {
+  return {
+    rows: query.data?.items,
+    total: query.data?.total,
+    page: params.page,
+    pageSize: params.pageSize,
+    sort: params.sort,
+    onPageChange: (page: number) => update({ page }),
+    onPageSizeChange: (pageSize: number) => update({ pageSize }),
+    onSortChange: (sort: string) => update({ sort }),
+    isLoading: query.isPending,
+    isFetching: query.isFetching,
+    isPlaceholder: query.isPlaceholderData,
+    error: query.error,
+    onRetry: () => void query.refetch(),
+  } satisfies Partial<DataTableProps<T>>;
+}
+
 function toSorting(sort?: string): SortingState {
   if (!sort) return [];
   return [{ id: sort.replace(/^-/, ''), desc: sort.startsWith('-') }];

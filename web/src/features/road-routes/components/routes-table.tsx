@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
 import { Link } from 'react-router';
 import { createColumnHelper } from '@tanstack/react-table';
-import { DataTable } from '@/components/ui/data-table';
+import { DataTable, pagedTableProps } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { RoughnessClassBadge, RoughnessLegend } from '@/components/ui/roughness';
 import { SearchField } from '@/components/ui/search-field';
@@ -61,20 +61,8 @@ export function RoutesTable() {
     <DataTable
       label="Routes"
       columns={columns}
-      rows={query.data?.items}
-      total={query.data?.total}
+      {...pagedTableProps(query, params, update)}
       getRowId={(r) => String(r.id)}
-      page={params.page}
-      pageSize={params.pageSize}
-      sort={params.sort}
-      onPageChange={(page) => update({ page })}
-      onPageSizeChange={(pageSize) => update({ pageSize })}
-      onSortChange={(sort) => update({ sort })}
-      isLoading={query.isPending}
-      isFetching={query.isFetching}
-      isPlaceholder={query.isPlaceholderData}
-      error={query.error}
-      onRetry={() => void query.refetch()}
       noun={['route', 'routes']}
       csvFileName={`reboundry-routes-${isoDate(new Date())}.csv`}
       toolbar={

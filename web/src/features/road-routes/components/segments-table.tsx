@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import { Link } from 'react-router';
 import { createColumnHelper } from '@tanstack/react-table';
 import { Button } from '@/components/ui/button';
-import { DataTable } from '@/components/ui/data-table';
+import { DataTable, pagedTableProps } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SelectField } from '@/components/ui/field';
 import { RoughnessClassBadge, RoughnessLegend } from '@/components/ui/roughness';
@@ -135,20 +135,8 @@ export function SegmentsTable({
       <DataTable
         label="Segments"
         columns={columns}
-        rows={query.data?.items}
-        total={query.data?.total}
+        {...pagedTableProps(query, params, onParamsChange)}
         getRowId={(r) => String(r.id)}
-        page={params.page}
-        pageSize={params.pageSize}
-        sort={params.sort}
-        onPageChange={(page) => onParamsChange({ page })}
-        onPageSizeChange={(pageSize) => onParamsChange({ pageSize })}
-        onSortChange={(sort) => onParamsChange({ sort })}
-        isLoading={query.isPending}
-        isFetching={query.isFetching}
-        isPlaceholder={query.isPlaceholderData}
-        error={query.error}
-        onRetry={() => void query.refetch()}
         noun={['segment', 'segments']}
         csvFileName={`reboundry-segments-${isoDate(new Date())}.csv`}
         toolbar={toolbar}

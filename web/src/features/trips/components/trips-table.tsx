@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
 import { Link } from 'react-router';
 import { createColumnHelper } from '@tanstack/react-table';
-import { DataTable } from '@/components/ui/data-table';
+import { DataTable, pagedTableProps } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { TextField } from '@/components/ui/field';
 import { formatDateTime, formatNumber } from '@/lib/format';
@@ -34,19 +34,8 @@ export function TripsTable({ vehiclePath, routePath }: { vehiclePath: (id: numbe
     <DataTable
       label="Trips"
       columns={columns}
-      rows={q.data?.items}
-      total={q.data?.total}
+      {...pagedTableProps(q, params, update)}
       getRowId={(r) => String(r.id)}
-      page={params.page}
-      pageSize={params.pageSize}
-      sort={params.sort}
-      onPageChange={(page) => update({ page })}
-      onPageSizeChange={(pageSize) => update({ pageSize })}
-      onSortChange={(sort) => update({ sort })}
-      isLoading={q.isPending}
-      isFetching={q.isFetching}
-      error={q.error}
-      onRetry={() => void q.refetch()}
       noun={['trip', 'trips']}
       csvFileName="trips.csv"
       empty={<EmptyState title="No trips match">Change the dates, or import a trip file.</EmptyState>}

@@ -1,7 +1,7 @@
 import { useMemo, useState } from 'react';
 import { createColumnHelper } from '@tanstack/react-table';
 import { Button } from '@/components/ui/button';
-import { DataTable } from '@/components/ui/data-table';
+import { DataTable, pagedTableProps } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SelectField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
@@ -112,20 +112,8 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
       <DataTable
         label="People"
         columns={columns}
-        rows={query.data?.items}
-        total={query.data?.total}
+        {...pagedTableProps(query, params, update)}
         getRowId={(r) => String(r.id)}
-        page={params.page}
-        pageSize={params.pageSize}
-        sort={params.sort}
-        onPageChange={(page) => update({ page })}
-        onPageSizeChange={(pageSize) => update({ pageSize })}
-        onSortChange={(sort) => update({ sort })}
-        isLoading={query.isPending}
-        isFetching={query.isFetching}
-        isPlaceholder={query.isPlaceholderData}
-        error={query.error}
-        onRetry={() => void query.refetch()}
         noun={['person', 'people']}
         csvFileName={`reboundry-people-${isoDate(new Date())}.csv`}
         toolbar={

@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import { Link } from 'react-router';
 import { createColumnHelper } from '@tanstack/react-table';
 import { Button } from '@/components/ui/button';
-import { DataTable } from '@/components/ui/data-table';
+import { DataTable, pagedTableProps } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SelectField, type Option } from '@/components/ui/field';
 import { SearchField } from '@/components/ui/search-field';
@@ -127,20 +127,8 @@ export function VehiclesTable({ params, onParamsChange, depotOptions, specOption
     <DataTable
       label="Vehicles"
       columns={columns}
-      rows={query.data?.items}
-      total={query.data?.total}
+      {...pagedTableProps(query, params, onParamsChange)}
       getRowId={(r) => String(r.id)}
-      page={params.page}
-      pageSize={params.pageSize}
-      sort={params.sort}
-      onPageChange={(page) => onParamsChange({ page })}
-      onPageSizeChange={(pageSize) => onParamsChange({ pageSize })}
-      onSortChange={(sort) => onParamsChange({ sort })}
-      isLoading={query.isPending}
-      isFetching={query.isFetching}
-      isPlaceholder={query.isPlaceholderData}
-      error={query.error}
-      onRetry={() => void query.refetch()}
       noun={['vehicle', 'vehicles']}
       csvFileName={`reboundry-vehicles-${isoDate(new Date())}.csv`}
       toolbar={toolbar}
