@@ -240,11 +240,13 @@ export class TripImport extends Model<Attrs<TripImport>, CAttrs<TripImport>> {
   declare updatedAt: CreationOptional<Date>;
 }
 
-const ts = {
+/** Timestamp columns every model has. */
+export const ts = {
   createdAt: { type: DataTypes.DATE, allowNull: false },
   updatedAt: { type: DataTypes.DATE, allowNull: false },
 };
-const pk = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true };
+/** Integer primary key column. */
+export const pk = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true };
 
 /** Registers every model and association on a Sequelize instance (the schema itself comes from migrations). */
 export function initModels(sequelize: Sequelize) {

@@ -12,7 +12,7 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
-import { Damper, Route, Trip, User, Vehicle } from './models';
+import { Damper, Route, Trip, User, Vehicle, pk, ts } from './models';
 
 type Attrs<M extends Model> = InferAttributes<M>;
 type CAttrs<M extends Model> = InferCreationAttributes<M>;
@@ -164,11 +164,6 @@ export class CaughtMail extends Model<Attrs<CaughtMail>, CAttrs<CaughtMail>> {
   declare updatedAt: CreationOptional<Date>;
 }
 
-const ts = {
-  createdAt: { type: DataTypes.DATE, allowNull: false },
-  updatedAt: { type: DataTypes.DATE, allowNull: false },
-};
-const pk = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true };
 const dbl = { type: DataTypes.DOUBLE, allowNull: false };
 
 export function initNightlyModels(sequelize: Sequelize) {

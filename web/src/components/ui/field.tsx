@@ -107,3 +107,15 @@ export function SelectField({ label, hint, error, aside, className, options, ...
     </Field>
   );
 }
+
+/**
+ * A labelled picker for one CSV file. `onPick` gets the chosen file (or null when cleared), so the
+ * caller can drop any preview of the previous file.
+ */
+export function CsvFileField({ label, onPick }: { label: string; onPick: (file: File | null) => void }) {
+  return (
+    <Field label={label}>
+      {(c) => <Input {...c} type="file" accept=".csv,text/csv,text/plain" className="pt-1.5" onChange={(e) => onPick(e.target.files?.[0] ?? null)} />}
+    </Field>
+  );
+}

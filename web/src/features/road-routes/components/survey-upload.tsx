@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
-import { Field, Input, TextField } from '@/components/ui/field';
+import { CsvFileField, TextField } from '@/components/ui/field';
 import { RoughnessClassBadge } from '@/components/ui/roughness';
 import { isApiError } from '@/lib/api-client';
 import { formatNumber } from '@/lib/format';
@@ -46,22 +46,15 @@ export function SurveyUpload({ routeId, today }: { routeId: number; today: strin
     <div className="flex flex-col gap-3">
       <ProfileLayoutHelp />
       <div className="flex flex-wrap items-end gap-3">
-        <Field label="Profile file (CSV)">
-          {(c) => (
-            <Input
-              {...c}
-              type="file"
-              accept=".csv,text/csv,text/plain"
-              className="pt-1.5"
-              onChange={(e) => {
-                setFile(e.target.files?.[0] ?? null);
-                setPreview(null);
-                setSaved(null);
-                m.reset();
-              }}
-            />
-          )}
-        </Field>
+        <CsvFileField
+          label="Profile file (CSV)"
+          onPick={(f) => {
+            setFile(f);
+            setPreview(null);
+            setSaved(null);
+            m.reset();
+          }}
+        />
         <TextField label="Surveyed on" aside="(default today)" type="date" value={surveyedOn} max={today} onChange={(e) => setSurveyedOn(e.target.value)} />
         <Button onClick={() => run(true)} disabled={!file} busy={m.isPending && !preview}>
           Preview IRI

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
-import { Field, Input } from '@/components/ui/field';
+import { CsvFileField } from '@/components/ui/field';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { isApiError } from '@/lib/api-client';
 import { formatDateTime, formatNumber } from '@/lib/format';
@@ -31,22 +31,15 @@ export function TripImport() {
     <div className="flex flex-col gap-3">
       <TripLayoutHelp />
       <div className="flex flex-wrap items-end gap-3">
-        <Field label="Trip file (CSV)">
-          {(c) => (
-            <Input
-              {...c}
-              type="file"
-              accept=".csv,text/csv,text/plain"
-              className="pt-1.5"
-              onChange={(e) => {
-                setFile(e.target.files?.[0] ?? null);
-                setReport(null);
-                setDone(null);
-                m.reset();
-              }}
-            />
-          )}
-        </Field>
+        <CsvFileField
+          label="Trip file (CSV)"
+          onPick={(f) => {
+            setFile(f);
+            setReport(null);
+            setDone(null);
+            m.reset();
+          }}
+        />
         <Button disabled={!file} busy={m.isPending && !report} onClick={() => file && m.mutate({ file, preview: true }, { onSuccess: (d) => setReport(d as ImportReport) })}>
           Check file
         </Button>
