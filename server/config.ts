@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import os from 'node:os';
 import path from 'node:path';
 
 /** Development-only session secret; refused when NODE_ENV=production. */
@@ -37,6 +38,9 @@ const schema = z
     INSPECTION_DUE_SOON_DAYS: z.coerce.number({ message: 'must be a number' }).int().min(0).max(90).default(7),
     INSPECTION_HORIZON_DAYS: z.coerce.number({ message: 'must be a number' }).int().min(1).max(730).default(90),
     NIGHTLY_BATCH_TRIPS: z.coerce.number({ message: 'must be a number' }).int().min(1).max(100000).default(2000),
+    NIGHTLY_WORKERS: z
+      .union([z.literal('auto'), z.coerce.number({ message: "must be a number or 'auto'" }).int('must be a whole number').min(0).max(64)])
+      .default('auto'),
     JOB_LOCK_TIMEOUT_MINUTES: z.coerce.number({ message: 'must be a number' }).positive().max(24 * 60).default(30),
     FLEET_LIFE_MIN_REMOVALS: z.coerce.number({ message: 'must be a number' }).int().min(2, 'must be at least 2').max(10_000).default(5),
     FLEET_LIFE_CREDIBILITY_K: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(10_000).default(10),
@@ -69,6 +73,8 @@ const schema = z
       horizonDays: c.INSPECTION_HORIZON_DAYS,
     },
     nightlyBatchTrips: c.NIGHTLY_BATCH_TRIPS,
+    /** Worker threads computing the nightly duty (0 = in the job's own thread). */
+    nightlyWorkers: c.NIGHTLY_WORKERS === 'auto' ? Math.max(1, os.availableParallelism() - 1) : c.NIGHTLY_WORKERS,
     jobLockTimeoutMinutes: c.JOB_LOCK_TIMEOUT_MINUTES,
     workshop: {
       fleetLifeMinRemovals: c.FLEET_LIFE_MIN_REMOVALS,

@@ -1,3 +1,4 @@
+import os from 'node:os';
 import { describe, expect, it } from 'vitest';
 import { ConfigError, DEV_SESSION_SECRET, loadConfig } from '../../server/config';
 
@@ -11,6 +12,15 @@ describe('configuration', () => {
     expect(c.smtpUrl).toBeUndefined();
     expect(c.mapTileUrl).toBeUndefined();
     expect(c.nightlyCron).toBe('30 2 * * *');
+    // auto: one fewer worker thread than the machine's cores, at least one
+    expect(c.nightlyWorkers).toBe(Math.max(1, os.availableParallelism() - 1));
+  });
+
+  it('when the nightly worker threads are set, then a number or auto is taken and anything else is refused by name', () => {
+    expect(loadConfig({ NIGHTLY_WORKERS: '0' }).nightlyWorkers).toBe(0);
+    expect(loadConfig({ NIGHTLY_WORKERS: '3' }).nightlyWorkers).toBe(3);
+    expect(() => loadConfig({ NIGHTLY_WORKERS: 'lots' })).toThrow(/NIGHTLY_WORKERS/);
+    expect(() => loadConfig({ NIGHTLY_WORKERS: '1.5' })).toThrow(/NIGHTLY_WORKERS/);
   });
 
   it('when a value is bad, then start-up fails with a message naming each bad key', () => {

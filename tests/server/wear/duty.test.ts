@@ -10,6 +10,7 @@ import {
   type VehicleWork,
 } from '../../../server/wear/duty';
 import { rainflowDamage, simulateTravel } from '../../../server/wear/fast-sim';
+import { createDutyRunner, inProcessDutyRunner, splitByTrips } from '../../../server/wear/duty-pool';
 import { prepareDuty } from '../../../server/physics/closed-form';
 import { prepareSimulation, runSimulation } from '../../../server/physics/simulate';
 import { minerDamage, rainflow } from '../../../server/physics/fatigue';
@@ -184,4 +185,38 @@ describe('wear and prediction', () => {
     expect(p.thresholdDate).toBeNull();
     expect(p.endOfLifeDate).toBeNull();
   });
+});
+
+describe('duty on worker threads', () => {
+  const profile = { surveyId: 7, dxM: 0.25, startM: 0, elevationsM: synthesizeProfile({ gdN0: gdForClass('C'), lengthM: 2600, dxM: 0.25, seed: 11 }) };
+  const routes = new Map([
+    [1, route(1, gdForClass('B'))],
+    [2, route(2, gdForClass('D'), 25, profile)],
+  ]);
+  const works = Array.from({ length: 9 }, (_, k) => van(k + 1, (k % 2) + 1, ['2026-11-01', '2026-11-02', '2026-11-03'].slice(0, 1 + (k % 3)), 100 * k));
+
+  it('when vehicles are split between threads, then the parts keep their order and balance the trips', () => {
+    const parts = splitByTrips(works, 2);
+    expect(parts).toHaveLength(2);
+    expect(parts.flat()).toEqual(works);
+    const trips = parts.map((p) => p.reduce((s, w) => s + w.trips.length, 0));
+    expect(Math.abs(trips[0] - trips[1])).toBeLessThanOrEqual(3);
+    expect(splitByTrips(works.slice(0, 1), 4)).toEqual([works.slice(0, 1)]);
+    expect(splitByTrips([], 2)).toEqual([[]]);
+  });
+
+  it('when the duty is computed on two worker threads, then every record equals the one computed in this thread', async () => {
+    const { runner, fallback } = await createDutyRunner(routes, 2);
+    try {
+      expect(fallback).toBeNull();
+      expect(runner.workers).toBe(2);
+      const threaded = await runner.compute(works);
+      const local = await inProcessDutyRunner(routes).compute(works);
+      expect(threaded.map((r) => r.duties.length)).toEqual(works.map((w) => 4 * w.trips.length));
+      expect(threaded).toEqual(local);
+      expect(runner.stats().simulations).toBeGreaterThan(0);
+    } finally {
+      await runner.close();
+    }
+  }, 60_000);
 });
