@@ -107,6 +107,8 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     timeZone: config.timeZone,
     dataDir: config.dataDir,
     batchTrips: config.nightlyBatchTrips,
+    dutyWorkers: config.nightlyWorkers,
+    warn: (m) => log.warn(`nightly: ${m}`),
     thresholdFraction: config.inspection.threshold,
     signal: opts.signal,
     // issue 6: the fleet-blended / test-lane life unless a caller gives its own

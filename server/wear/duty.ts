@@ -348,6 +348,9 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
         const cornerKey = cornerKeyOf(axle.corner);
         let energy = 0, time = 0, msRel = 0, msTravel = 0, msTire = 0, msAcc = 0, msW = 0, spring = 0;
         let profiled = 0, unrated = 0;
+        // consecutive segments mostly share a speed band: look the cache up only when it changes
+        let lastV = Number.NaN;
+        let p: Prepared | null = null;
         for (const seg of route.segments) {
           const lengthKm = ((seg.endM - seg.startM) / 1000) * scale;
           if (!(lengthKm > 0)) continue;
@@ -356,7 +359,10 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
             unrated++;
             continue;
           }
-          const p = cache.closedForm(cornerKey, corner, v);
+          if (v !== lastV || !p) {
+            p = cache.closedForm(cornerKey, corner, v);
+            lastV = v;
+          }
           const t = (lengthKm * 1000) / p.speedMps;
           const cf = seg.gdN0 !== null ? dutyOnRoad(p.duty, seg.gdN0) : null;
           const sim = seg.profile ? cache.simulated(cornerKey, corner, v, seg, p.sn) : null;

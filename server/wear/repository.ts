@@ -3,10 +3,11 @@
  * database. Bulk paths use plain SQL (multi-row inserts, UPDATE … FROM) so a 10 000-vehicle
  * fleet fits the nightly budget; everything returns plain objects.
  */
-import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { Sequelize, Transaction } from 'sequelize';
+import { inList, insertRows, runSql, selectRows } from '../db/raw';
 import type { CornerParams } from '../physics/types';
 import type { AxleInput, DamperSpan, DutyRecord, RouteInput, SegmentInput, TripInput, WearDelta } from './duty';
-import type { Prediction, WearDayRow } from './wear';
+import type { Prediction, WearDayRow, WearSummary } from './wear';
 
 /** Sequelize's SQLite text form of a date (`2026-11-30 12:00:00.000 +00:00`). */
 export function sqlDate(d: Date): string {
@@ -37,31 +38,6 @@ export function startOfLocalDay(day: string, timeZone: string): Date {
 
 const CHUNK_ROWS = 400;
 
-interface RawSqlite {
-  run(sql: string, params: unknown[], cb: (err: Error | null) => void): void;
-}
-
-/**
- * Multi-row INSERT bound natively on the transaction's own sqlite3 connection (Sequelize's
- * replacement formatting costs seconds on a 100 000-row night). Falls back to Sequelize when the
- * connection is not a sqlite3 database.
- */
-async function insertRows(sequelize: Sequelize, table: string, cols: string[], rows: unknown[][], transaction: Transaction, orReplace = false) {
-  const conn = (transaction as unknown as { connection?: RawSqlite }).connection;
-  for (let i = 0; i < rows.length; i += CHUNK_ROWS) {
-    const part = rows.slice(i, i + CHUNK_ROWS);
-    const ph = `(${cols.map(() => '?').join(',')})`;
-    const sql = `INSERT ${orReplace ? 'OR REPLACE ' : ''}INTO ${table} (${cols.join(',')}) VALUES ${part.map(() => ph).join(',')}`;
-    if (conn && typeof conn.run === 'function') {
-      await new Promise<void>((resolve, reject) => conn.run(sql, part.flat(), (err) => (err ? reject(err) : resolve())));
-    } else {
-      await sequelize.query(sql, { replacements: part.flat() as never, transaction });
-    }
-  }
-}
-
-const inList = (ids: number[]) => ids.map((n) => Number(n)).join(',') || 'NULL';
-
 export interface VehiclePlan {
   vehicleId: number;
   trips: number;
@@ -72,9 +48,19 @@ export interface SpecAxles {
   axles: AxleInput[];
 }
 
+/** What the wear and prediction phases need of a damper: its ids, installation day and its spec axle's corner. */
+export interface DamperContext {
+  id: number;
+  vehicleId: number;
+  installedAt: string;
+  corner: CornerParams;
+  ratedDamperLifeKm: number;
+}
+
 export function wearRepository(sequelize: Sequelize) {
-  const q = <T extends object>(sql: string, replacements: unknown[] = [], transaction?: Transaction) =>
-    sequelize.query<T>(sql, { replacements: replacements as never, type: QueryTypes.SELECT, transaction });
+  // the spec axles, read once per repository (damperContext is called per chunk)
+  let specsOnce: Promise<Map<number, AxleInput[]>> | null = null;
+  const q = <T extends object>(sql: string, params: unknown[] = [], transaction?: Transaction) => selectRows<T>(sequelize, sql, params, transaction);
 
   return {
     /** Vehicles with unprocessed trips started before `before`, with how many, in vehicle order. */
@@ -183,25 +169,27 @@ export function wearRepository(sequelize: Sequelize) {
         const cols = [
           'trip_id', 'vehicle_id', 'damper_id', 'route_id', 'driver_id', 'position', 'axle_index', 'trip_date', 'distance_km', 'duration_s',
           'sprung_mass_kg', 'energy_j', 'mean_power_w', 'rms_relative_velocity', 'rms_suspension_travel', 'rms_tire_load_ratio', 'rms_body_accel',
-          'rms_weighted_accel', 'spring_damage', 'segments', 'profiled_segments', 'unrated_segments', 'job_run_id', 'created_at', 'updated_at',
+          'rms_weighted_accel', 'spring_damage', 'segments', 'profiled_segments', 'unrated_segments',
         ];
         const rows = batch.duties.map((d) => [
           d.tripId, d.vehicleId, d.damperId, d.routeId, d.driverId, d.position, d.axleIndex, d.tripDate, d.distanceKm, d.durationS,
           d.sprungMassKg, d.energyJ, d.meanPowerW, d.rmsRelativeVelocity, d.rmsSuspensionTravel, d.rmsTireLoadRatio, d.rmsBodyAccel,
-          d.rmsWeightedAccel, d.springDamage, d.segments, d.profiledSegments, d.unratedSegments, null, stamp, stamp,
+          d.rmsWeightedAccel, d.springDamage, d.segments, d.profiledSegments, d.unratedSegments,
         ]);
-        await insertRows(sequelize, 'trip_duties', cols, rows, t);
+        await insertRows(sequelize, 'trip_duties', cols, rows, t, { fixed: { job_run_id: null, created_at: stamp, updated_at: stamp } });
         for (let i = 0; i < batch.processedTripIds.length; i += 5000) {
           const ids = batch.processedTripIds.slice(i, i + 5000);
-          await sequelize.query(`UPDATE trips SET processed_at = ?, updated_at = ? WHERE id IN (${inList(ids)})`, { replacements: [stamp, stamp], transaction: t });
+          await runSql(sequelize, `UPDATE trips SET processed_at = ?, updated_at = ? WHERE id IN (${inList(ids)})`, [stamp, stamp], t);
         }
         for (let i = 0; i < batch.wear.length; i += CHUNK_ROWS) {
           const part = batch.wear.slice(i, i + CHUNK_ROWS);
-          await sequelize.query(
+          await runSql(
+            sequelize,
             `WITH d(id, first) AS (VALUES ${part.map(() => '(?, ?)').join(',')})
              UPDATE dampers SET wear_dirty_from = CASE WHEN wear_dirty_from IS NULL OR wear_dirty_from > d.first THEN d.first ELSE wear_dirty_from END
              FROM d WHERE dampers.id = d.id`,
-            { replacements: part.flatMap((w) => [w.damperId, w.firstDay]) as never, transaction: t },
+            part.flatMap((w) => [w.damperId, w.firstDay]),
+            t,
           );
         }
       });
@@ -214,16 +202,21 @@ export function wearRepository(sequelize: Sequelize) {
     },
 
     /** What the wear recomputation needs for each damper. */
-    async damperContext(ids: number[]) {
-      return q<{
-        id: number; vehicle_id: number; position: string; axle_index: number; installed_at: string; removed_at: string | null; wear_dirty_from: string | null;
-        sprung_mass_kg: number; unsprung_mass_kg: number; spring_rate_n_per_m: number; damping_ns_per_m: number; tire_rate_n_per_m: number; rated_damper_life_km: number;
-      }>(
-        `SELECT d.id, d.vehicle_id, d.position, d.axle_index, d.installed_at, d.removed_at, d.wear_dirty_from,
-                a.sprung_mass_kg, a.unsprung_mass_kg, a.spring_rate_n_per_m, a.damping_ns_per_m, a.tire_rate_n_per_m, a.rated_damper_life_km
-         FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
-         WHERE d.id IN (${inList(ids)}) ORDER BY d.id`,
-      );
+    async damperContext(ids: number[]): Promise<DamperContext[]> {
+      specsOnce ??= this.specAxles();
+      const [specs, rows] = await Promise.all([
+        specsOnce,
+        q<{ id: number; vehicle_id: number; installed_at: string; spec_id: number; axle_index: number }>(
+          `SELECT d.id, d.vehicle_id, d.installed_at, v.spec_id, d.axle_index FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id
+           WHERE d.id IN (${inList(ids)}) ORDER BY d.id`,
+        ),
+      ]);
+      const out: DamperContext[] = [];
+      for (const r of rows) {
+        const axle = specs.get(r.spec_id)?.find((a) => a.axleIndex === r.axle_index);
+        if (axle) out.push({ id: r.id, vehicleId: r.vehicle_id, installedAt: r.installed_at, corner: axle.corner, ratedDamperLifeKm: axle.ratedDamperLifeKm });
+      }
+      return out;
     },
 
     /** Daily duty sums of dirty dampers from their dirty day on. */
@@ -248,9 +241,11 @@ export function wearRepository(sequelize: Sequelize) {
     async storeWear(rows: WearDayRow[], totals: { damperId: number; energyJ: number; springDamage: number; lifeUsedFraction: number; dampingNsPerM: number }[], ids: number[], now: Date) {
       const stamp = sqlDate(now);
       await sequelize.transaction(async (t) => {
-        await sequelize.query(
+        await runSql(
+          sequelize,
           `DELETE FROM damper_wear_days WHERE rowid IN (SELECT w.rowid FROM damper_wear_days w JOIN dampers d ON d.id = w.damper_id WHERE d.id IN (${inList(ids)}) AND w.day >= d.wear_dirty_from)`,
-          { transaction: t },
+          [],
+          t,
         );
         await insertRows(
           sequelize,
@@ -261,11 +256,13 @@ export function wearRepository(sequelize: Sequelize) {
         );
         for (let i = 0; i < totals.length; i += CHUNK_ROWS) {
           const part = totals.slice(i, i + CHUNK_ROWS);
-          await sequelize.query(
+          await runSql(
+            sequelize,
             `WITH d(id, e, f, u, c) AS (VALUES ${part.map(() => '(?, ?, ?, ?, ?)').join(',')})
              UPDATE dampers SET energy_j = d.e, fatigue_damage = d.f, life_used_fraction = d.u, damping_ns_per_m = d.c, wear_updated_at = ?, updated_at = ?, wear_dirty_from = NULL
              FROM d WHERE dampers.id = d.id`,
-            { replacements: [...part.flatMap((x) => [x.damperId, x.energyJ, x.springDamage, x.lifeUsedFraction, x.dampingNsPerM]), stamp, stamp] as never, transaction: t },
+            [...part.flatMap((x) => [x.damperId, x.energyJ, x.springDamage, x.lifeUsedFraction, x.dampingNsPerM]), stamp, stamp],
+            t,
           );
         }
       });
@@ -280,31 +277,47 @@ export function wearRepository(sequelize: Sequelize) {
       return rows.map((r) => r.id);
     },
 
-    /** Wear rows of the dampers from `fromDay` (the window) plus the last row before it. */
-    async wearForPrediction(ids: number[], fromDay: string, asOf: string) {
-      const window = await q<WearDayDb>(
-        `SELECT * FROM damper_wear_days WHERE damper_id IN (${inList(ids)}) AND day >= ? AND day <= ? ORDER BY damper_id, day`,
-        [fromDay, asOf],
+    /**
+     * Per damper, what its prediction rests on ({@link WearSummary}), from its wear days up to
+     * `asOf`: window sums from the damper's own window start, the cumulative wear on its last
+     * day, and the first days its cumulative energy reached the given levels [J] (and its
+     * spring damage reached `springLevel`). One aggregate query per call.
+     */
+    async wearSummaries(targets: { damperId: number; windowStart: string; thresholdJ: number; endOfLifeJ: number }[], springLevel: number, asOf: string) {
+      const out = new Map<number, WearSummary>();
+      if (!targets.length) return out;
+      const rows = await q<{
+        damper_id: number; we: number; wkm: number; wd: number; th_day: string | null; eol_day: string | null; sp_day: string | null; cum_energy_j: number; cum_spring_damage: number;
+      }>(
+        `WITH t(id, ws, eth, eend) AS (VALUES ${targets.map(() => '(?, ?, ?, ?)').join(',')}),
+         s AS (
+           SELECT w.damper_id,
+                  SUM(CASE WHEN w.day >= t.ws THEN w.energy_j ELSE 0 END) AS we,
+                  SUM(CASE WHEN w.day >= t.ws THEN w.distance_km ELSE 0 END) AS wkm,
+                  SUM(CASE WHEN w.day >= t.ws THEN w.spring_damage ELSE 0 END) AS wd,
+                  MAX(w.day) AS last_day,
+                  MIN(CASE WHEN w.cum_energy_j >= t.eth THEN w.day END) AS th_day,
+                  MIN(CASE WHEN w.cum_energy_j >= t.eend THEN w.day END) AS eol_day,
+                  MIN(CASE WHEN w.cum_spring_damage >= ? THEN w.day END) AS sp_day
+           FROM t JOIN damper_wear_days w ON w.damper_id = t.id AND w.day <= ?
+           GROUP BY w.damper_id)
+         SELECT s.damper_id, s.we, s.wkm, s.wd, s.th_day, s.eol_day, s.sp_day, l.cum_energy_j, l.cum_spring_damage
+         FROM s JOIN damper_wear_days l ON l.damper_id = s.damper_id AND l.day = s.last_day`,
+        [...targets.flatMap((t) => [t.damperId, t.windowStart, t.thresholdJ, t.endOfLifeJ]), springLevel, asOf],
       );
-      const before = await q<WearDayDb>(
-        `SELECT w.* FROM damper_wear_days w WHERE w.damper_id IN (${inList(ids)})
-         AND w.day = (SELECT MAX(day) FROM damper_wear_days x WHERE x.damper_id = w.damper_id AND x.day < ?)`,
-        [fromDay],
-      );
-      return { window: window.map(wearRow), before: before.map(wearRow) };
-    },
-
-    /** First day each damper's consumed life (or spring damage) reached `level`. */
-    async crossingDays(ids: number[], level: number) {
-      const life = await q<{ damper_id: number; day: string }>(
-        `SELECT damper_id, MIN(day) AS day FROM damper_wear_days WHERE damper_id IN (${inList(ids)}) AND life_used_fraction >= ? GROUP BY damper_id`,
-        [level],
-      );
-      const spring = await q<{ damper_id: number; day: string }>(
-        `SELECT damper_id, MIN(day) AS day FROM damper_wear_days WHERE damper_id IN (${inList(ids)}) AND cum_spring_damage >= ? GROUP BY damper_id`,
-        [level],
-      );
-      return { life: new Map(life.map((r) => [r.damper_id, r.day])), spring: new Map(spring.map((r) => [r.damper_id, r.day])) };
+      for (const r of rows) {
+        out.set(r.damper_id, {
+          windowEnergyJ: r.we,
+          windowKm: r.wkm,
+          windowSpringDamage: r.wd,
+          energyJ: r.cum_energy_j,
+          springDamage: r.cum_spring_damage,
+          thresholdDay: r.th_day,
+          endOfLifeDay: r.eol_day,
+          springThresholdDay: r.sp_day,
+        });
+      }
+      return out;
     },
 
     async storePredictions(rows: (Prediction & { damperId: number; vehicleId: number })[]) {
@@ -323,21 +336,23 @@ export function wearRepository(sequelize: Sequelize) {
             p.springThresholdDate, JSON.stringify(p.basis),
           ]),
           t,
-          true,
+          { orReplace: true },
         );
       });
     },
 
     /** Removes predictions of dampers no longer fitted (or on retired vehicles). */
     async dropStalePredictions() {
-      await sequelize.query(
+      await runSql(
+        sequelize,
         `DELETE FROM damper_predictions WHERE damper_id IN (SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE d.removed_at IS NOT NULL OR v.status = 'retired')`,
       );
     },
   };
 }
 
-interface WearDayDb {
+/** A `damper_wear_days` row as stored. */
+export interface WearDayDb {
   damper_id: number;
   day: string;
   vehicle_id: number;
@@ -351,7 +366,8 @@ interface WearDayDb {
   damping_ns_per_m: number;
 }
 
-const wearRow = (r: WearDayDb): WearDayRow => ({
+/** A stored wear day as the wear functions take it. */
+export const wearDayFromDb = (r: WearDayDb): WearDayRow => ({
   damperId: r.damper_id,
   vehicleId: r.vehicle_id,
   day: r.day,

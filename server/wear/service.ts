@@ -5,8 +5,9 @@
  * split or interrupted), then every fitted damper's prediction as of the run's day.
  */
 import type { Sequelize } from 'sequelize';
-import { computeVehicleDuty, DutyCache, type AxleInput, type RouteInput, type SegmentInput, type VehicleWork } from './duty';
-import { accumulateDays, predict, ratedLife, DUTY_WINDOW_DAYS, plusDays, type DayDuty, type LifeResolver, type WearDayRow } from './wear';
+import type { AxleInput, RouteInput, SegmentInput, VehicleWork } from './duty';
+import { createDutyRunner } from './duty-pool';
+import { accumulateDays, predictFromSummary, predictionWindow, ratedLife, type DayDuty, type LifeResolver, type WearDayRow, type WearSummary } from './wear';
 import { wearRepository } from './repository';
 
 export interface ItemError {
@@ -25,6 +26,10 @@ export interface PhaseContext {
   timeZone: string;
   dataDir: string;
   batchTrips: number;
+  /** Worker threads for the duty computation (0 or absent = this thread). */
+  dutyWorkers?: number;
+  /** Where a fallback (e.g. worker threads not available) is reported. */
+  warn?: (message: string) => void;
   thresholdFraction: number;
   signal?: AbortSignal;
   lifeResolver?: LifeResolver;
@@ -52,7 +57,11 @@ const add = (counts: Record<string, number>, key: string, n: number) => {
   counts[key] = (counts[key] ?? 0) + n;
 };
 
-/** Phase 1: every unprocessed trip → duty records, in batches of whole vehicles. */
+/**
+ * Phase 1: every unprocessed trip → duty records, in batches of whole vehicles. Pipelined: while
+ * one batch is being written, the next one is read and computed (on worker threads when
+ * `ctx.dutyWorkers` > 0). Batches commit one at a time, in order.
+ */
 export async function processTrips(ctx: PhaseContext) {
   const repo = wearRepository(ctx.sequelize);
   const plan = await repo.planUnprocessed(ctx.before);
@@ -76,7 +85,6 @@ export async function processTrips(ctx: PhaseContext) {
       seg.profile = p && seg.surveyId ? { surveyId: seg.surveyId, ...p } : null;
     }
   }
-  const cache = new DutyCache();
   // batches of whole vehicles, in vehicle order: a rerun after a crash forms the same batches
   const batches: number[][] = [];
   let cur: number[] = [];
@@ -92,50 +100,91 @@ export async function processTrips(ctx: PhaseContext) {
   }
   if (cur.length) batches.push(cur);
 
-  let done = 0;
-  let committed = 0;
-  for (const vehicleIds of batches) {
-    checkAbort(ctx.signal);
+  /** Reads one batch's inputs; vehicles whose spec has no axles are reported and left out. */
+  const load = async (vehicleIds: number[]) => {
     const [specOf, dampers, trips] = await Promise.all([
       repo.vehicleSpecs(vehicleIds),
       repo.dampersOf(vehicleIds),
       repo.unprocessedTrips(vehicleIds, ctx.before, ctx.timeZone),
     ]);
-    const duties = [];
-    const wear = [];
-    const processed: number[] = [];
-    let batchTrips = 0;
+    const works: VehicleWork[] = [];
+    let tripCount = 0;
     for (const vehicleId of vehicleIds) {
       const vTrips = trips.get(vehicleId) ?? [];
-      batchTrips += vTrips.length;
+      tripCount += vTrips.length;
       const axles: AxleInput[] | undefined = specOf.has(vehicleId) ? specs.get(specOf.get(vehicleId)!) : undefined;
       if (!axles?.length) {
         ctx.errors.push({ item: `vehicle ${vehicleId}`, message: 'its suspension spec has no axles; trips left unprocessed' });
         continue;
       }
-      const work: VehicleWork = { vehicleId, axles, dampers: dampers.get(vehicleId) ?? [], trips: vTrips };
-      const r = computeVehicleDuty(work, routes as Map<number, RouteInput>, cache);
-      for (const e of r.errors) ctx.errors.push({ item: `trip ${e.tripId}`, message: e.message });
-      const failed = new Set(r.errors.map((e) => e.tripId));
-      for (const t of vTrips) if (!failed.has(t.id)) processed.push(t.id);
-      duties.push(...r.duties);
-      wear.push(...r.wear);
-      add(ctx.counts, 'segments', r.segments);
-      add(ctx.counts, 'tripErrors', r.errors.length);
+      works.push({ vehicleId, axles, dampers: dampers.get(vehicleId) ?? [], trips: vTrips });
     }
-    await repo.storeBatch({ duties, wear, processedTripIds: processed, now: ctx.now, runId: 0 });
+    return { works, tripCount };
+  };
+
+  const { runner, fallback } = await createDutyRunner(routes as Map<number, RouteInput>, ctx.dutyWorkers ?? 0);
+  if (fallback) ctx.warn?.(fallback);
+  let done = 0;
+  let committed = 0;
+  // the batch being written; settles to null or to the error of its transaction
+  let storing: Promise<Error | null> | null = null;
+  let storingTrips = 0;
+  let storingCounts = { trips: 0, dutyRecords: 0 };
+  const settle = async () => {
+    if (!storing) return;
+    const err = await storing;
+    storing = null;
+    if (err) throw err;
     committed++;
-    add(ctx.counts, 'trips', processed.length);
-    add(ctx.counts, 'dutyRecords', duties.length);
     add(ctx.counts, 'batches', 1);
-    done += batchTrips;
+    add(ctx.counts, 'trips', storingCounts.trips);
+    add(ctx.counts, 'dutyRecords', storingCounts.dutyRecords);
+    done += storingTrips;
     await ctx.progress('duty', done, totalTrips);
     if (ctx.failAfterBatches !== undefined && committed >= ctx.failAfterBatches) {
       throw new Error(`injected failure after ${committed} batch(es)`);
     }
+  };
+  try {
+    let next: ReturnType<typeof load> | null = load(batches[0]);
+    for (let b = 0; b < batches.length; b++) {
+      checkAbort(ctx.signal);
+      const { works, tripCount } = await next!;
+      const computing = runner.compute(works);
+      next = b + 1 < batches.length ? load(batches[b + 1]) : null;
+      next?.catch(() => {}); // awaited on the next turn; not an unhandled rejection if this one throws
+      const results = await computing;
+      const duties = [];
+      const wear = [];
+      const processed: number[] = [];
+      for (let i = 0; i < works.length; i++) {
+        const r = results[i];
+        for (const e of r.errors) ctx.errors.push({ item: `trip ${e.tripId}`, message: e.message });
+        const failed = new Set(r.errors.map((e) => e.tripId));
+        for (const t of works[i].trips) if (!failed.has(t.id)) processed.push(t.id);
+        duties.push(...r.duties);
+        wear.push(...r.wear);
+        add(ctx.counts, 'segments', r.segments);
+        add(ctx.counts, 'tripErrors', r.errors.length);
+      }
+      await settle();
+      checkAbort(ctx.signal);
+      storingTrips = tripCount;
+      storing = repo.storeBatch({ duties, wear, processedTripIds: processed, now: ctx.now, runId: 0 }).then(
+        () => null,
+        (e: unknown) => (e instanceof Error ? e : new Error(String(e))),
+      );
+      storingCounts = { trips: processed.length, dutyRecords: duties.length };
+    }
+    await settle();
+  } finally {
+    // never leave a transaction running behind a thrown error
+    if (storing) await (storing as Promise<Error | null>);
+    const st = runner.stats();
+    add(ctx.counts, 'closedFormSolves', st.solves);
+    add(ctx.counts, 'profileSimulations', st.simulations);
+    await runner.close();
   }
-  add(ctx.counts, 'closedFormSolves', cache.solves);
-  add(ctx.counts, 'profileSimulations', cache.simulations);
 }
 
 const WEAR_CHUNK = 2000;
@@ -159,17 +208,16 @@ export async function recomputeWear(ctx: PhaseContext) {
     const rows: WearDayRow[] = [];
     const totals = [];
     for (const c of context) {
-      const corner = { sprungMassKg: c.sprung_mass_kg, unsprungMassKg: c.unsprung_mass_kg, springRateNPerM: c.spring_rate_n_per_m, dampingNsPerM: c.damping_ns_per_m, tireRateNPerM: c.tire_rate_n_per_m };
       try {
-        const life = resolve({ damperId: c.id, corner, ratedDamperLifeKm: c.rated_damper_life_km });
+        const life = resolve({ damperId: c.id, corner: c.corner, ratedDamperLifeKm: c.ratedDamperLifeKm });
         const s = start.get(c.id) ?? null;
-        const days = accumulateDays({ damperId: c.id, vehicleId: c.vehicle_id }, s, byDamper.get(c.id) ?? [], life.energyJ, c.damping_ns_per_m);
-        rows.push(...days);
+        const days = accumulateDays({ damperId: c.id, vehicleId: c.vehicleId }, s, byDamper.get(c.id) ?? [], life.energyJ, c.corner.dampingNsPerM);
+        for (const d of days) rows.push(d);
         const last = days[days.length - 1];
         const e = last?.cumEnergyJ ?? s?.cumEnergyJ ?? 0;
         const f = last?.cumSpringDamage ?? s?.cumSpringDamage ?? 0;
         const u = e / life.energyJ;
-        totals.push({ damperId: c.id, energyJ: e, springDamage: f, lifeUsedFraction: u, dampingNsPerM: last?.dampingNsPerM ?? c.damping_ns_per_m });
+        totals.push({ damperId: c.id, energyJ: e, springDamage: f, lifeUsedFraction: u, dampingNsPerM: last?.dampingNsPerM ?? c.corner.dampingNsPerM });
       } catch (err) {
         ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
       }
@@ -185,7 +233,6 @@ export async function recomputeWear(ctx: PhaseContext) {
 export async function predictAll(ctx: PhaseContext) {
   const repo = wearRepository(ctx.sequelize);
   const resolve = ctx.lifeResolver ?? ratedLife;
-  const windowStart = plusDays(ctx.asOf, -(DUTY_WINDOW_DAYS - 1));
   let after = 0;
   let done = 0;
   await repo.dropStalePredictions();
@@ -194,32 +241,27 @@ export async function predictAll(ctx: PhaseContext) {
     const ids = await repo.installedDamperIds(after, WEAR_CHUNK);
     if (!ids.length) break;
     after = ids[ids.length - 1];
-    const [context, wear, atThreshold, atEnd] = await Promise.all([
-      repo.damperContext(ids),
-      repo.wearForPrediction(ids, windowStart, ctx.asOf),
-      repo.crossingDays(ids, ctx.thresholdFraction),
-      repo.crossingDays(ids, 1),
-    ]);
-    const hist = new Map<number, WearDayRow[]>();
-    for (const r of [...wear.before, ...wear.window]) {
-      if (!hist.has(r.damperId)) hist.set(r.damperId, []);
-      hist.get(r.damperId)!.push(r);
-    }
-    for (const h of hist.values()) h.sort((a, b) => (a.day < b.day ? -1 : 1));
-    const out = [];
+    const context = await repo.damperContext(ids);
+    const inputs = [];
     for (const c of context) {
-      const corner = { sprungMassKg: c.sprung_mass_kg, unsprungMassKg: c.unsprung_mass_kg, springRateNPerM: c.spring_rate_n_per_m, dampingNsPerM: c.damping_ns_per_m, tireRateNPerM: c.tire_rate_n_per_m };
       try {
-        const life = resolve({ damperId: c.id, corner, ratedDamperLifeKm: c.rated_damper_life_km });
-        const p = predict(hist.get(c.id) ?? [], {
-          asOf: ctx.asOf,
-          installedAt: c.installed_at,
-          life,
-          thresholdFraction: ctx.thresholdFraction,
-          nominalDampingNsPerM: c.damping_ns_per_m,
-          crossed: { threshold: atThreshold.life.get(c.id), endOfLife: atEnd.life.get(c.id), spring: atThreshold.spring.get(c.id) },
-        });
-        out.push({ ...p, damperId: c.id, vehicleId: c.vehicle_id });
+        const life = resolve({ damperId: c.id, corner: c.corner, ratedDamperLifeKm: c.ratedDamperLifeKm });
+        const opts = { asOf: ctx.asOf, installedAt: c.installedAt, life, thresholdFraction: ctx.thresholdFraction, nominalDampingNsPerM: c.corner.dampingNsPerM };
+        inputs.push({ c, opts, windowStart: predictionWindow(opts).windowStart });
+      } catch (err) {
+        ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
+      }
+    }
+    const summaries = await repo.wearSummaries(
+      inputs.map((x) => ({ damperId: x.c.id, windowStart: x.windowStart, thresholdJ: x.opts.thresholdFraction * x.opts.life.energyJ, endOfLifeJ: x.opts.life.energyJ })),
+      ctx.thresholdFraction,
+      ctx.asOf,
+    );
+    const out = [];
+    for (const { c, opts } of inputs) {
+      try {
+        const p = predictFromSummary(summaries.get(c.id) ?? NO_WEAR, opts);
+        out.push({ ...p, damperId: c.id, vehicleId: c.vehicleId });
       } catch (err) {
         ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
       }
@@ -230,3 +272,5 @@ export async function predictAll(ctx: PhaseContext) {
     await ctx.progress('predictions', done, done);
   }
 }
+
+const NO_WEAR: WearSummary = Object.freeze({ windowEnergyJ: 0, windowKm: 0, windowSpringDamage: 0, energyJ: 0, springDamage: 0, thresholdDay: null, endOfLifeDay: null, springThresholdDay: null });

@@ -34,21 +34,25 @@ export interface LifeEnergy {
 /** Resolves the life energy of a damper; issue 6 can wrap this to use a fleet-fitted life. */
 export type LifeResolver = (input: { damperId: number; corner: CornerParams; ratedDamperLifeKm: number }) => LifeEnergy;
 
-const ratedCache = new Map<string, number>();
+const ratedCache = new Map<string, LifeEnergy>();
 
-/** The default resolver: the spec's rated life as energy (class B, 80 km/h, rated km). */
+/**
+ * The default resolver: the spec's rated life as energy (class B, 80 km/h, rated km). Cached
+ * per corner and rated distance: a night asks for it once per damper, and the Lyapunov solve
+ * and the note's number formatting are the same for every damper of a spec's axle.
+ */
 export const ratedLife: LifeResolver = ({ corner, ratedDamperLifeKm }) => {
   const key = `${corner.sprungMassKg}/${corner.unsprungMassKg}/${corner.springRateNPerM}/${corner.dampingNsPerM}/${corner.tireRateNPerM}/${ratedDamperLifeKm}`;
-  let e = ratedCache.get(key);
-  if (e === undefined) {
-    e = ratedLifeEnergyJ(corner, { km: ratedDamperLifeKm });
-    ratedCache.set(key, e);
+  let life = ratedCache.get(key);
+  if (!life) {
+    life = Object.freeze({
+      energyJ: ratedLifeEnergyJ(corner, { km: ratedDamperLifeKm }),
+      source: 'rated',
+      note: `rated life: energy dissipated over ${Math.round(ratedDamperLifeKm).toLocaleString('en-GB')} km of ISO 8608 class B road at 80 km/h`,
+    });
+    ratedCache.set(key, life);
   }
-  return {
-    energyJ: e,
-    source: 'rated',
-    note: `rated life: energy dissipated over ${Math.round(ratedDamperLifeKm).toLocaleString('en-GB')} km of ISO 8608 class B road at 80 km/h`,
-  };
+  return life;
 };
 
 /** Estimated present damping [N·s/m] from consumed life (linear fade, see module doc). */
@@ -91,9 +95,14 @@ export function accumulateDays(
     e += x.energyJ;
     d += x.springDamage;
     const u = e / lifeEnergyJ;
+    // explicit fields, not spreads: this runs once per damper-day of the night
     return {
-      ...ids,
-      ...x,
+      damperId: ids.damperId,
+      vehicleId: ids.vehicleId,
+      day: x.day,
+      distanceKm: x.distanceKm,
+      energyJ: x.energyJ,
+      springDamage: x.springDamage,
       cumEnergyJ: e,
       cumSpringDamage: d,
       lifeEnergyJ,
@@ -136,50 +145,89 @@ export const plusDays = (day: string, n: number) => new Date(dayMs(day) + n * DA
 export const daysBetween = (from: string, to: string) => Math.round((dayMs(to) - dayMs(from)) / DAY_MS);
 
 /**
+ * What a prediction rests on, as of its day: the duty in the trailing window, the cumulative
+ * wear on the last day with duty (on or before the as-of day), and the first days the levels
+ * were reached (null while not reached).
+ */
+export interface WearSummary {
+  windowEnergyJ: number;
+  windowKm: number;
+  windowSpringDamage: number;
+  /** Cumulative damper energy [J] and spring damage [1] at the last day with duty. */
+  energyJ: number;
+  springDamage: number;
+  /** First days cumulative energy reached threshold × life energy, and the life energy. */
+  thresholdDay: string | null;
+  endOfLifeDay: string | null;
+  /** First day the spring's cumulative damage reached the threshold fraction. */
+  springThresholdDay: string | null;
+}
+
+export interface PredictOptions {
+  asOf: string;
+  installedAt: string;
+  life: LifeEnergy;
+  thresholdFraction: number;
+  nominalDampingNsPerM: number;
+  windowDays?: number;
+}
+
+/** Length of the prediction window [days] and its first day: the trailing window, or since installation if shorter. */
+export function predictionWindow(opts: { asOf: string; installedAt: string; windowDays?: number }): { windowDays: number; windowStart: string } {
+  const windowDays = Math.max(1, Math.min(opts.windowDays ?? DUTY_WINDOW_DAYS, daysBetween(opts.installedAt, opts.asOf) + 1));
+  return { windowDays, windowStart: plusDays(opts.asOf, -(windowDays - 1)) };
+}
+
+/**
+ * The summary of a damper's daily wear rows (in date order; days after `asOf` ignored) that
+ * {@link predictFromSummary} needs. The nightly job gets the same figures from one SQL
+ * aggregate per chunk of dampers instead.
+ */
+export function summarizeWear(history: WearDayRow[], opts: PredictOptions): WearSummary {
+  const { windowStart } = predictionWindow(opts);
+  const L = opts.life.energyJ;
+  const th = opts.thresholdFraction;
+  const s: WearSummary = { windowEnergyJ: 0, windowKm: 0, windowSpringDamage: 0, energyJ: 0, springDamage: 0, thresholdDay: null, endOfLifeDay: null, springThresholdDay: null };
+  for (const h of history) {
+    if (h.day > opts.asOf) break;
+    s.energyJ = h.cumEnergyJ;
+    s.springDamage = h.cumSpringDamage;
+    if (h.day >= windowStart) {
+      s.windowEnergyJ += h.energyJ;
+      s.windowKm += h.distanceKm;
+      s.windowSpringDamage += h.springDamage;
+    }
+    if (s.thresholdDay === null && h.cumEnergyJ >= th * L) s.thresholdDay = h.day;
+    if (s.endOfLifeDay === null && h.cumEnergyJ >= L) s.endOfLifeDay = h.day;
+    if (s.springThresholdDay === null && h.cumSpringDamage >= th) s.springThresholdDay = h.day;
+  }
+  return s;
+}
+
+/**
  * Predicts when a damper's consumed life reaches the threshold and end of life, and when its
  * spring's Miner damage reaches the threshold, from the trailing duty rate.
  *
  * @param history the damper's daily wear rows in date order (any days after `asOf` ignored)
  * @param opts as-of day, installation day, life energy [J], threshold fraction [1], nominal damping [N·s/m]
  */
-export function predict(
-  history: WearDayRow[],
-  opts: {
-    asOf: string;
-    installedAt: string;
-    life: LifeEnergy;
-    thresholdFraction: number;
-    nominalDampingNsPerM: number;
-    windowDays?: number;
-    /** Days a level was first reached, when known from older history than `history` holds. */
-    crossed?: { threshold?: string | null; endOfLife?: string | null; spring?: string | null };
-  },
-): Prediction {
-  const windowDays = Math.max(1, Math.min(opts.windowDays ?? DUTY_WINDOW_DAYS, daysBetween(opts.installedAt, opts.asOf) + 1));
-  const windowStart = plusDays(opts.asOf, -(windowDays - 1));
-  let wE = 0, wKm = 0, wD = 0;
-  let last: WearDayRow | null = null;
-  for (const h of history) {
-    if (h.day > opts.asOf) break;
-    last = h;
-    if (h.day >= windowStart) {
-      wE += h.energyJ;
-      wKm += h.distanceKm;
-      wD += h.springDamage;
-    }
-  }
+export function predict(history: WearDayRow[], opts: PredictOptions): Prediction {
+  return predictFromSummary(summarizeWear(history, opts), opts);
+}
+
+/** {@link predict} from a {@link WearSummary}. */
+export function predictFromSummary(s: WearSummary, opts: PredictOptions): Prediction {
+  const { windowDays, windowStart } = predictionWindow(opts);
   const L = opts.life.energyJ;
-  const E = last?.cumEnergyJ ?? 0;
-  const D = last?.cumSpringDamage ?? 0;
+  const E = s.energyJ;
+  const D = s.springDamage;
+  const wE = s.windowEnergyJ;
+  const wKm = s.windowKm;
   const rate = wE / windowDays;
-  const dRate = wD / windowDays;
+  const dRate = s.windowSpringDamage / windowDays;
   const th = opts.thresholdFraction;
-  const reached = (level: number, cum: number, r: number, pick: (h: WearDayRow) => number, known?: string | null): string | null => {
-    if (cum >= level) {
-      if (known) return known;
-      for (const h of history) if (pick(h) >= level) return h.day;
-      return opts.asOf;
-    }
+  const reached = (level: number, cum: number, r: number, firstDay: string | null): string | null => {
+    if (cum >= level) return firstDay ?? opts.asOf;
     if (!(r > 0)) return null;
     const days = Math.ceil((level - cum) / r);
     return days > 365 * 100 ? null : plusDays(opts.asOf, days);
@@ -197,11 +245,11 @@ export function predict(
     lifeUsedFraction: u,
     dampingNsPerM: estimatedDamping(opts.nominalDampingNsPerM, u),
     thresholdFraction: th,
-    thresholdDate: reached(th * L, E, rate, (h) => h.cumEnergyJ, opts.crossed?.threshold),
-    endOfLifeDate: reached(L, E, rate, (h) => h.cumEnergyJ, opts.crossed?.endOfLife),
+    thresholdDate: reached(th * L, E, rate, s.thresholdDay),
+    endOfLifeDate: reached(L, E, rate, s.endOfLifeDay),
     springDamage: D,
     springRatePerDay: dRate,
-    springThresholdDate: reached(th, D, dRate, (h) => h.cumSpringDamage, opts.crossed?.spring),
+    springThresholdDate: reached(th, D, dRate, s.springThresholdDay),
     basis: {
       method: `straight-line projection of the duty rate over the last ${windowDays} day(s) (${windowStart} to ${opts.asOf})`,
       life: opts.life.note,

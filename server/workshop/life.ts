@@ -139,18 +139,25 @@ export async function createWorkshopLifeResolver(cfg: WorkshopConfig): Promise<L
   const [lives, damperSpecs, measured] = await Promise.all([usedLifeKm(cfg), workshopRepository.damperSpecs(), workshopRepository.latestMeasurements()]);
   const specOf = new Map(damperSpecs.map((d) => [d.id, d]));
   const meas = new Map(measured.map((m) => [m.damper_id, m]));
+  const fleetLives = new Map<string, LifeEnergy>();
   return ({ damperId, corner, ratedDamperLifeKm }): LifeEnergy => {
     const ds = specOf.get(damperId);
     const life = ds ? lives.get(ds.spec_id) : undefined;
     const axle = life?.blend.axles.find((a) => a.axleIndex === ds!.axle_index);
     let base = ratedLife({ damperId, corner, ratedDamperLifeKm });
     if (life?.blend.used && axle) {
-      const b = ratedLife({ damperId, corner, ratedDamperLifeKm: axle.usedKm });
-      base = {
-        energyJ: b.energyJ,
-        source: 'fleet',
-        note: `fleet-blended life: ${Math.round(axle.usedKm).toLocaleString('en-GB')} km (rated ${Math.round(ratedDamperLifeKm).toLocaleString('en-GB')} km, weight ${(life.blend.weight * 100).toFixed(0)} % on ${life.blend.failures} removals), as energy on ISO 8608 class B at 80 km/h`,
-      };
+      // one per spec axle and corner: the same for every damper sharing them
+      const key = `${ds!.spec_id}/${axle.axleIndex}/${ratedDamperLifeKm}/${base.energyJ}`;
+      let fleet = fleetLives.get(key);
+      if (!fleet) {
+        fleet = Object.freeze({
+          energyJ: ratedLife({ damperId, corner, ratedDamperLifeKm: axle.usedKm }).energyJ,
+          source: 'fleet',
+          note: `fleet-blended life: ${Math.round(axle.usedKm).toLocaleString('en-GB')} km (rated ${Math.round(ratedDamperLifeKm).toLocaleString('en-GB')} km, weight ${(life.blend.weight * 100).toFixed(0)} % on ${life.blend.failures} removals), as energy on ISO 8608 class B at 80 km/h`,
+        });
+        fleetLives.set(key, fleet);
+      }
+      base = fleet;
     }
     const m = meas.get(damperId);
     if (m) {

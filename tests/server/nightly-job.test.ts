@@ -4,7 +4,8 @@ import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 import { run } from '../../jobs/nightly';
 import type { Db } from '../../server/db';
-import { sqlDate } from '../../server/wear/repository';
+import { sqlDate, wearDayFromDb, wearRepository, type WearDayDb } from '../../server/wear/repository';
+import { daysBetween, predictionWindow, summarizeWear, type WearDayRow } from '../../server/wear/wear';
 
 /**
  * The nightly job end to end on the demo fleet: through the API, twice (idempotent), killed
@@ -211,6 +212,68 @@ describe('nightly job through the API', () => {
     expect(r.status).toBe(400);
     expect(r.body.error.fields.asOf).toMatch(/date/);
     expect(await count(A.db, `SELECT COUNT(*) AS n FROM job_runs`)).toBe(before);
+  });
+});
+
+describe('nightly job threads', () => {
+  // A ran on the default `auto` setting: at least one worker thread computes the duty.
+  for (const workers of ['0', '2']) {
+    it(`when the duty is computed on ${workers === '0' ? "the job's own thread" : `${workers} worker threads`}, then the tables equal those of the run on the default setting`, async () => {
+      const D = await startTestServer({ env: { NIGHTLY_BATCH_TRIPS: '400', NIGHTLY_WORKERS: workers } });
+      try {
+        expect(D.config.nightlyWorkers).toBe(Number(workers));
+        const r = await run({ db: D.db, config: D.config, log: D.log, mailer: D.mailer, now: TEST_NOW, trigger: 'test' });
+        expect(r.status, JSON.stringify(r.errors)).toBe('succeeded');
+        expect(r.counts.trips).toBe(firstRun.counts.trips);
+        expect(diffTables(clean, await dump(D.db))).toEqual([]);
+      } finally {
+        await D.stop();
+      }
+    }, 240_000);
+  }
+});
+
+describe('prediction inputs', () => {
+  it("when the job sums a damper's wear in SQL, then it finds what the history itself gives: window sums, last cumulative wear and the days the levels were reached", async () => {
+    const repo = wearRepository(A.db.sequelize);
+    const ids = (await A.db.sequelize.query<{ id: number }>(`SELECT DISTINCT damper_id AS id FROM damper_wear_days ORDER BY damper_id LIMIT 60`, { type: QueryTypes.SELECT })).map((r) => r.id);
+    expect(ids.length).toBeGreaterThan(20);
+    const asOf = '2026-11-30';
+    const context = await repo.damperContext(ids);
+    const histories = new Map<number, WearDayRow[]>();
+    for (const c of context) {
+      const rows = await A.db.sequelize.query<WearDayDb>(`SELECT * FROM damper_wear_days WHERE damper_id = ? ORDER BY day`, { replacements: [c.id], type: QueryTypes.SELECT });
+      histories.set(c.id, rows.map(wearDayFromDb));
+    }
+    // each damper's window starts on a day it has duty (so a window edge off by one shows), and
+    // a low threshold and a short life for every third damper, so that some reached both levels
+    const targets = context.map((c, k) => {
+      const h = histories.get(c.id)!;
+      const edge = h[Math.floor(h.length / 2)].day;
+      const opts = {
+        asOf, installedAt: c.installedAt, windowDays: daysBetween(edge, asOf) + 1,
+        life: { energyJ: k % 3 === 0 ? 2e5 : 5e8, source: 'test', note: '' }, thresholdFraction: 0.5, nominalDampingNsPerM: c.corner.dampingNsPerM,
+      };
+      return { c, opts, windowStart: predictionWindow(opts).windowStart };
+    });
+    expect(targets.filter((t) => histories.get(t.c.id)!.some((h) => h.day === t.windowStart)).length).toBeGreaterThan(20);
+    const sql = await repo.wearSummaries(
+      targets.map((t) => ({ damperId: t.c.id, windowStart: t.windowStart, thresholdJ: 0.5 * t.opts.life.energyJ, endOfLifeJ: t.opts.life.energyJ })),
+      0.5,
+      asOf,
+    );
+    let reached = 0;
+    for (const t of targets) {
+      const js = summarizeWear(histories.get(t.c.id)!, t.opts);
+      const got = sql.get(t.c.id)!;
+      expect(got, `damper ${t.c.id}`).toBeDefined();
+      // sums may differ in the last bits (SQLite sums with compensation); days and stored values are exact
+      for (const k of ['windowEnergyJ', 'windowKm', 'windowSpringDamage'] as const) expect(Math.abs(got[k] - js[k]), `${k} of damper ${t.c.id}`).toBeLessThanOrEqual(1e-12 * Math.abs(js[k]));
+      expect({ ...got, windowEnergyJ: 0, windowKm: 0, windowSpringDamage: 0 }).toEqual({ ...js, windowEnergyJ: 0, windowKm: 0, windowSpringDamage: 0 });
+      if (js.endOfLifeDay) reached++;
+    }
+    expect(reached).toBeGreaterThan(0);
+    expect(reached).toBeLessThan(targets.length);
   });
 });
 

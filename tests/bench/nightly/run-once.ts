@@ -1,10 +1,12 @@
 /**
  * Runs the nightly job once on a prepared data folder, in its own process, and prints one JSON
  * line: wall time [s] of the whole run (database writes and mail included), peak resident
- * memory [MB] of the process, and the run's counts.
+ * memory [MB] of the process, the run's counts, and per phase its wall time, the CPU time of
+ * the process (all threads) and the time the job's own thread was busy (`mainS`).
  *
  *     npx tsx tests/bench/nightly/run-once.ts <dataDir>
  */
+import { performance } from 'node:perf_hooks';
 import { loadConfig } from '../../../server/config';
 import { createLogger } from '../../../server/logger';
 import { dbFile, openDb } from '../../../server/db';
@@ -17,19 +19,23 @@ if (!dir) {
   console.error('usage: npx tsx tests/bench/nightly/run-once.ts <dataDir>');
   process.exit(2);
 }
-const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dir, FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', SEED_DEMO: 'false' });
+// NIGHTLY_WORKERS from the environment, to compare thread settings
+const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dir, FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', SEED_DEMO: 'false', NIGHTLY_WORKERS: process.env.NIGHTLY_WORKERS ?? 'auto' });
 const log = createLogger('error');
 const db = await openDb(dbFile(dir));
 const { mailer } = await createMailer(config, log);
 const t0 = performance.now();
 // wall and CPU time per phase (phases as reported by the job's progress)
-const phases: Record<string, { s: number; cpuS: number }> = {};
+const phases: Record<string, { s: number; cpuS: number; mainS: number }> = {};
 let phase = 'start';
 let tPhase = t0;
 let cpuPhase = process.cpuUsage();
+let elu = performance.eventLoopUtilization();
 const mark = (next: string) => {
   const cpu = process.cpuUsage(cpuPhase);
-  phases[phase] = { s: (performance.now() - tPhase) / 1000, cpuS: (cpu.user + cpu.system) / 1e6 };
+  const e = performance.eventLoopUtilization(elu);
+  phases[phase] = { s: (performance.now() - tPhase) / 1000, cpuS: (cpu.user + cpu.system) / 1e6, mainS: e.active / 1000 };
+  elu = performance.eventLoopUtilization();
   phase = next;
   tPhase = performance.now();
   cpuPhase = process.cpuUsage();
@@ -40,4 +46,4 @@ const seconds = (performance.now() - t0) / 1000;
 const maxRssMb = process.resourceUsage().maxRSS / 1024;
 await mailer.close();
 await db.close();
-console.log(JSON.stringify({ seconds, maxRssMb, cpuS: (process.cpuUsage().user + process.cpuUsage().system) / 1e6, phases, status: r.status, counts: r.counts, errors: r.errors.length }));
+console.log(JSON.stringify({ workers: config.nightlyWorkers, seconds, maxRssMb, cpuS: (process.cpuUsage().user + process.cpuUsage().system) / 1e6, phases, status: r.status, counts: r.counts, errors: r.errors.length }));

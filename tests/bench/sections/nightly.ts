@@ -22,14 +22,14 @@ export const nightlySection: BenchSection = {
       await generateFleet(dir);
       const genS = (performance.now() - t0) / 1000;
       const out = execFileSync(process.execPath, ['--import', 'tsx', path.join(here, '../nightly/run-once.ts'), dir], { encoding: 'utf8', maxBuffer: 1 << 20 });
-      const r = JSON.parse(out.trim().split('\n').pop()!) as { seconds: number; maxRssMb: number; cpuS: number; status: string; counts: Record<string, number>; phases: Record<string, { s: number; cpuS: number }> };
+      const r = JSON.parse(out.trim().split('\n').pop()!) as { workers: number; seconds: number; maxRssMb: number; cpuS: number; status: string; counts: Record<string, number>; phases: Record<string, { s: number; cpuS: number }> };
       const phaseNote = Object.entries(r.phases)
         .filter(([k]) => k !== 'start')
         .map(([k, v]) => `${k} ${v.s.toFixed(1)} s`)
         .join(', ');
       return {
         rows: [
-          { label: 'whole run, wall time', value: r.seconds, unit: 's', note: `target < 30 s; status ${r.status}` },
+          { label: 'whole run, wall time', value: r.seconds, unit: 's', note: `target < 30 s; status ${r.status}; duty on ${r.workers} worker thread(s)` },
           { label: 'CPU time of the run process', value: r.cpuS, unit: 's', note: phaseNote },
           { label: 'peak memory (max RSS of the run process)', value: r.maxRssMb, unit: 'MB', note: 'target < 1 GB' },
           { label: 'trips per second', value: (r.counts.trips ?? 0) / r.seconds, unit: 'trips/s', note: `${r.counts.dutyRecords} duty records, ${r.counts.profileSimulations} profile simulations` },
