@@ -8,6 +8,7 @@ import * as m0002 from './migrations/0002-roads-and-imports';
 import * as m0003 from './migrations/0003-nightly-duty';
 import * as m0004 from './migrations/0004-workshop';
 import * as m0005 from './migrations/0005-drivers';
+import * as m0006 from './migrations/0006-opening-wear';
 import { initNightlyModels } from './nightly-models';
 import { initDriverModels } from './driver-models';
 
@@ -24,6 +25,7 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
   { name: '0003-nightly-duty', up: m0003.up, down: m0003.down },
   { name: '0004-workshop', up: m0004.up, down: m0004.down },
   { name: '0005-drivers', up: m0005.up, down: m0005.down },
+  { name: '0006-opening-wear', up: m0006.up, down: m0006.down },
 ];
 
 /**

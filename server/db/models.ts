@@ -104,6 +104,11 @@ export class Damper extends Model<Attrs<Damper>, CAttrs<Damper>> {
   declare wearUpdatedAt: CreationOptional<Date | null>;
   /** Issue 5: derived wear must be recomputed from this day on (null = up to date). */
   declare wearDirtyFrom: CreationOptional<string | null>;
+  /** Opening wear (distance before the trips on record), estimated once by the nightly job; null until then. */
+  declare openingKm: CreationOptional<number | null>;
+  declare openingEnergyJ: CreationOptional<number | null>;
+  declare openingSpringDamage: CreationOptional<number | null>;
+  declare openingBasis: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -332,6 +337,10 @@ export function initModels(sequelize: Sequelize) {
       dampingNsPerM: { type: DataTypes.DOUBLE, allowNull: true },
       wearUpdatedAt: { type: DataTypes.DATE, allowNull: true },
       wearDirtyFrom: { type: DataTypes.DATEONLY, allowNull: true },
+      openingKm: { type: DataTypes.DOUBLE, allowNull: true },
+      openingEnergyJ: { type: DataTypes.DOUBLE, allowNull: true },
+      openingSpringDamage: { type: DataTypes.DOUBLE, allowNull: true },
+      openingBasis: { type: DataTypes.TEXT, allowNull: true },
       ...ts,
     },
     { ...common, tableName: 'dampers' },

@@ -457,6 +457,16 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
         );
       }
       const commissioned = v.commissionedAt!;
+      // The dampers not replaced in the records were fitted before the trips on record begin:
+      // 3 000–9 000 km ago (a fleet on rough roads that renews dampers), never before commissioning. The
+      // nightly job estimates what they used before the records (opening wear).
+      const fittedKmAgo = 3000 + rand() * 6000;
+      const fittedDaysAgo = Math.max(65, Math.round(fittedKmAgo / kmPerDay));
+      const sinceCommissioned = Math.round((today.getTime() - new Date(commissioned).getTime()) / 86_400_000);
+      const fitted =
+        fittedDaysAgo >= sinceCommissioned
+          ? { on: commissioned, odometerKm: 0, partNumber: (axle: number) => `${spec.prefix}-D${axle}-OE` }
+          : { on: day(subDays(today, fittedDaysAgo)), odometerKm: Math.max(0, Math.round(odoNow - kmPerDay * fittedDaysAgo)), partNumber: (axle: number) => `${spec.prefix}-D${axle}-AM1` };
       for (const p of positions) {
         if (replaced && p.axleIndex === replacedAxle) {
           await Damper.create(
@@ -480,7 +490,7 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
           );
         } else {
           await Damper.create(
-            { vehicleId: v.id, position: p.position, axleIndex: p.axleIndex, partNumber: `${spec.prefix}-D${p.axleIndex}-OE`, installedAt: commissioned, installedOdometerKm: 0, removedByWorkRecordId: null },
+            { vehicleId: v.id, position: p.position, axleIndex: p.axleIndex, partNumber: fitted.partNumber(p.axleIndex), installedAt: fitted.on, installedOdometerKm: fitted.odometerKm, removedByWorkRecordId: null },
             opts,
           );
         }

@@ -219,6 +219,8 @@ export const fleetRepository = {
         dampingNsPerM: d.dampingNsPerM ?? null,
         wearUpdatedAt: d.wearUpdatedAt ? new Date(d.wearUpdatedAt).toISOString() : null,
         distanceKm: (d.removedOdometerKm ?? vehicle.odometerKm) - d.installedOdometerKm,
+        openingKm: d.openingKm ?? null,
+        openingBasis: d.openingBasis ?? null,
       })),
       recentTrips: trips.map((t) => {
         const tw = t as Trip & { route?: Route; driver?: User | null };

@@ -281,6 +281,28 @@ export class DutyCache {
   }
 }
 
+/** Reference road and speed of a spec's rated life: ISO 8608 class B (mean) at 80 km/h. */
+export const REFERENCE_SPEED_KMH = 80;
+
+/**
+ * Duty per km of a corner on the reference road (class B at {@link REFERENCE_SPEED_KMH} km/h),
+ * the road a spec's rated life is stated on: damper energy [J/km] and spring damage [1/km].
+ */
+export function referenceDutyPerKm(c: CornerParams): { energyJ: number; springDamage: number } {
+  const key = cornerKeyOf(c);
+  let r = referenceCache.get(key);
+  if (!r) {
+    const v = REFERENCE_SPEED_KMH / 3.6;
+    const energyJ = dutyOnRoad(prepareDuty(c, v), GD_REF).damperEnergyJPerKm;
+    const springDamage = dirlikDamage(travelMoments(c, v, GD_REF), { ...springSnCurve(c), durationS: 1 }) * (1000 / v);
+    r = Object.freeze({ energyJ, springDamage });
+    if (referenceCache.size > 10_000) referenceCache.clear();
+    referenceCache.set(key, r);
+  }
+  return r;
+}
+const referenceCache = new Map<string, { energyJ: number; springDamage: number }>();
+
 /**
  * Spectral moments of suspension travel on a `w = 2` road of `gdN0` at speed v, from the
  * closed-form transfer function and the road's temporal PSD `G(f) = Gd(n0)·n0²·v / f²`,

@@ -14,12 +14,12 @@ export function wearReadRepository(sequelize: Sequelize) {
     async fittedDampers(vehicleId: number) {
       return q<{
         id: number; position: string; axle_index: number; installed_at: string; installed_odometer_km: number; part_number: string | null; energy_j: number; fatigue_damage: number; life_used_fraction: number;
-        damping_ns_per_m: number | null; nominal_damping: number; rated_damper_life_km: number; wear_updated_at: string | null;
+        damping_ns_per_m: number | null; nominal_damping: number; rated_damper_life_km: number; wear_updated_at: string | null; opening_km: number | null; opening_energy_j: number | null; opening_basis: string | null;
         p_as_of: string | null; window_days: number | null; window_energy_j: number | null; window_km: number | null; rate_j_per_day: number | null; life_energy_j: number | null; life_source: string | null;
         threshold_fraction: number | null; threshold_date: string | null; end_of_life_date: string | null; spring_rate_per_day: number | null; spring_threshold_date: string | null; basis: string | null;
       }>(
         `SELECT d.id, d.position, d.axle_index, d.installed_at, d.installed_odometer_km, d.part_number, d.energy_j, d.fatigue_damage, d.life_used_fraction, d.damping_ns_per_m,
-                a.damping_ns_per_m AS nominal_damping, a.rated_damper_life_km, d.wear_updated_at,
+                a.damping_ns_per_m AS nominal_damping, a.rated_damper_life_km, d.wear_updated_at, d.opening_km, d.opening_energy_j, d.opening_basis,
                 p.as_of AS p_as_of, p.window_days, p.window_energy_j, p.window_km, p.rate_j_per_day, p.life_energy_j, p.life_source, p.threshold_fraction, p.threshold_date,
                 p.end_of_life_date, p.spring_rate_per_day, p.spring_threshold_date, p.basis
          FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index

@@ -55,6 +55,8 @@ export interface DamperContext {
   installedAt: string;
   corner: CornerParams;
   ratedDamperLifeKm: number;
+  /** Its opening wear, once estimated (null before). */
+  opening: { km: number; energyJ: number; springDamage: number } | null;
 }
 
 export function wearRepository(sequelize: Sequelize) {
@@ -195,6 +197,33 @@ export function wearRepository(sequelize: Sequelize) {
       });
     },
 
+    /** Marks every damper without an opening estimate for a recompute from its fitting day. */
+    async markOpeningsDue() {
+      await runSql(
+        sequelize,
+        `UPDATE dampers SET wear_dirty_from = installed_at WHERE opening_km IS NULL AND (wear_dirty_from IS NULL OR wear_dirty_from > installed_at)`,
+      );
+    },
+
+    /**
+     * What the opening estimate of each damper without one needs: odometer now (or at removal)
+     * and at fitting, the vehicle's trips on record since fitting (started before `before`),
+     * and the damper's duty so far.
+     */
+    async openingInputs(ids: number[], before: Date) {
+      return q<{ id: number; odometer_km: number; installed_odometer_km: number; recorded_km: number; duty_km: number; duty_energy_j: number; duty_spring_damage: number }>(
+        `SELECT d.id, COALESCE(d.removed_odometer_km, v.odometer_km) AS odometer_km, d.installed_odometer_km,
+                (SELECT COALESCE(SUM(t.distance_km), 0) FROM trips t
+                 WHERE t.vehicle_id = d.vehicle_id AND t.started_at >= d.installed_at AND t.started_at < ? AND (d.removed_at IS NULL OR t.started_at < d.removed_at)) AS recorded_km,
+                COALESCE(td.km, 0) AS duty_km, COALESCE(td.e, 0) AS duty_energy_j, COALESCE(td.f, 0) AS duty_spring_damage
+         FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id
+         LEFT JOIN (SELECT damper_id, SUM(distance_km) AS km, SUM(energy_j) AS e, SUM(spring_damage) AS f FROM trip_duties
+                    WHERE damper_id IN (${inList(ids)}) GROUP BY damper_id) td ON td.damper_id = d.id
+         WHERE d.id IN (${inList(ids)}) AND d.opening_km IS NULL ORDER BY d.id`,
+        [sqlDate(before)],
+      );
+    },
+
     /** Ids of dampers whose derived wear must be recomputed, in id order. */
     async dirtyDampers(): Promise<number[]> {
       const rows = await q<{ id: number }>(`SELECT id FROM dampers WHERE wear_dirty_from IS NOT NULL ORDER BY id`);
@@ -206,15 +235,17 @@ export function wearRepository(sequelize: Sequelize) {
       specsOnce ??= this.specAxles();
       const [specs, rows] = await Promise.all([
         specsOnce,
-        q<{ id: number; vehicle_id: number; installed_at: string; spec_id: number; axle_index: number }>(
-          `SELECT d.id, d.vehicle_id, d.installed_at, v.spec_id, d.axle_index FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id
-           WHERE d.id IN (${inList(ids)}) ORDER BY d.id`,
+        q<{ id: number; vehicle_id: number; installed_at: string; spec_id: number; axle_index: number; opening_km: number | null; opening_energy_j: number | null; opening_spring_damage: number | null }>(
+          `SELECT d.id, d.vehicle_id, d.installed_at, v.spec_id, d.axle_index, d.opening_km, d.opening_energy_j, d.opening_spring_damage
+           FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE d.id IN (${inList(ids)}) ORDER BY d.id`,
         ),
       ]);
       const out: DamperContext[] = [];
       for (const r of rows) {
         const axle = specs.get(r.spec_id)?.find((a) => a.axleIndex === r.axle_index);
-        if (axle) out.push({ id: r.id, vehicleId: r.vehicle_id, installedAt: r.installed_at, corner: axle.corner, ratedDamperLifeKm: axle.ratedDamperLifeKm });
+        if (!axle) continue;
+        const opening = r.opening_km === null ? null : { km: r.opening_km, energyJ: r.opening_energy_j ?? 0, springDamage: r.opening_spring_damage ?? 0 };
+        out.push({ id: r.id, vehicleId: r.vehicle_id, installedAt: r.installed_at, corner: axle.corner, ratedDamperLifeKm: axle.ratedDamperLifeKm, opening });
       }
       return out;
     },
@@ -238,9 +269,25 @@ export function wearRepository(sequelize: Sequelize) {
     },
 
     /** Replaces dirty dampers' wear days from their dirty day on and updates their totals, clearing the mark. */
-    async storeWear(rows: WearDayRow[], totals: { damperId: number; energyJ: number; springDamage: number; lifeUsedFraction: number; dampingNsPerM: number }[], ids: number[], now: Date) {
+    async storeWear(
+      rows: WearDayRow[],
+      totals: { damperId: number; energyJ: number; springDamage: number; lifeUsedFraction: number; dampingNsPerM: number }[],
+      ids: number[],
+      now: Date,
+      openings: { damperId: number; km: number; energyJ: number; springDamage: number; basis: string }[] = [],
+    ) {
       const stamp = sqlDate(now);
       await sequelize.transaction(async (t) => {
+        for (let i = 0; i < openings.length; i += CHUNK_ROWS) {
+          const part = openings.slice(i, i + CHUNK_ROWS);
+          await runSql(
+            sequelize,
+            `WITH o(id, km, e, f, b) AS (VALUES ${part.map(() => '(?, ?, ?, ?, ?)').join(',')})
+             UPDATE dampers SET opening_km = o.km, opening_energy_j = o.e, opening_spring_damage = o.f, opening_basis = o.b FROM o WHERE dampers.id = o.id`,
+            part.flatMap((x) => [x.damperId, x.km, x.energyJ, x.springDamage, x.basis]),
+            t,
+          );
+        }
         await runSql(
           sequelize,
           `DELETE FROM damper_wear_days WHERE rowid IN (SELECT w.rowid FROM damper_wear_days w JOIN dampers d ON d.id = w.damper_id WHERE d.id IN (${inList(ids)}) AND w.day >= d.wear_dirty_from)`,

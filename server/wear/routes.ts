@@ -8,6 +8,9 @@ import { inspectionService } from '../inspections/service';
 import { CAUTION_TEXT } from '../mail/templates';
 import { DAMPING_AT_END_OF_LIFE, DUTY_WINDOW_DAYS } from './wear';
 import { wearReadRepository } from './read-repository';
+import { OPENING_MIN_RECORDED_KM } from './opening';
+
+const formatKm = (km: number) => `${Math.round(km).toLocaleString('en-GB')} km`;
 
 export function registerWearRoutes(r: Router, deps: { sequelize: Sequelize; config: Config }) {
   const repo = wearReadRepository(deps.sequelize);
@@ -34,7 +37,7 @@ export function registerWearRoutes(r: Router, deps: { sequelize: Sequelize; conf
         `Present damping is estimated as a linear fade from the nominal value to ${Math.round(DAMPING_AT_END_OF_LIFE * 100)} % at end of life (an assumption until a test-lane result is recorded).`,
         `Dates are a straight-line projection of the last ${DUTY_WINDOW_DAYS} days' duty.`,
         `Spring fatigue uses an assumed S–N curve (not the spring maker's).`,
-        `Consumed life counts only the duty of trips on record; distance a damper ran before the first recorded trip is not included, so an older damper may be more worn than shown.`,
+        `Distance a damper ran before the trips on record (its odometer distance since fitting less those trips) is charged as opening wear: at its own recorded energy per km once it has ${formatKm(OPENING_MIN_RECORDED_KM)} of duty on record, otherwise at its spec's reference rate (class B at 80 km/h); estimated once, when the damper first enters the records (an assumption: its roads and loads before the records are taken to be like those since).`,
       ],
       dampers: dampers.map((d) => {
         const rows = history.filter((h) => h.damper_id === d.id);
@@ -57,6 +60,7 @@ export function registerWearRoutes(r: Router, deps: { sequelize: Sequelize; conf
           nominalDampingNsPerM: d.nominal_damping,
           dampingNsPerM: d.damping_ns_per_m ?? d.nominal_damping,
           ratedDamperLifeKm: d.rated_damper_life_km,
+          opening: d.opening_km === null ? null : { km: d.opening_km, energyJ: d.opening_energy_j ?? 0, basis: d.opening_basis ?? '' },
           lastDutyDay: last?.day ?? null,
           prediction: d.p_as_of
             ? {

@@ -7,6 +7,8 @@
 import type { Sequelize } from 'sequelize';
 import type { AxleInput, RouteInput, SegmentInput, VehicleWork } from './duty';
 import { createDutyRunner } from './duty-pool';
+import { referenceDutyPerKm } from './duty';
+import { estimateOpening, type Opening } from './opening';
 import { accumulateDays, predictFromSummary, predictionWindow, ratedLife, type DayDuty, type LifeResolver, type WearDayRow, type WearSummary } from './wear';
 import { wearRepository } from './repository';
 
@@ -193,12 +195,20 @@ const WEAR_CHUNK = 2000;
 export async function recomputeWear(ctx: PhaseContext) {
   const repo = wearRepository(ctx.sequelize);
   const resolve = ctx.lifeResolver ?? ratedLife;
+  await repo.markOpeningsDue();
   const ids = await repo.dirtyDampers();
   await ctx.progress('wear', 0, ids.length);
   for (let i = 0; i < ids.length; i += WEAR_CHUNK) {
     checkAbort(ctx.signal);
     const chunk = ids.slice(i, i + WEAR_CHUNK);
-    const [context, daily, before] = await Promise.all([repo.damperContext(chunk), repo.dailyDutyFromDirty(chunk), repo.wearBeforeDirty(chunk)]);
+    const [context, daily, before, openingInputs] = await Promise.all([
+      repo.damperContext(chunk),
+      repo.dailyDutyFromDirty(chunk),
+      repo.wearBeforeDirty(chunk),
+      repo.openingInputs(chunk, ctx.before),
+    ]);
+    const openingOf = new Map(openingInputs.map((o) => [o.id, o]));
+    const openings: (Opening & { damperId: number })[] = [];
     const byDamper = new Map<number, DayDuty[]>();
     for (const d of daily) {
       if (!byDamper.has(d.damper_id)) byDamper.set(d.damper_id, []);
@@ -210,7 +220,23 @@ export async function recomputeWear(ctx: PhaseContext) {
     for (const c of context) {
       try {
         const life = resolve({ damperId: c.id, corner: c.corner, ratedDamperLifeKm: c.ratedDamperLifeKm });
-        const s = start.get(c.id) ?? null;
+        let opening = c.opening;
+        const oi = openingOf.get(c.id);
+        if (!opening && oi) {
+          const o = estimateOpening({
+            odometerKm: oi.odometer_km,
+            installedOdometerKm: oi.installed_odometer_km,
+            recordedKm: oi.recorded_km,
+            dutyKm: oi.duty_km,
+            dutyEnergyJ: oi.duty_energy_j,
+            dutySpringDamage: oi.duty_spring_damage,
+            reference: referenceDutyPerKm(c.corner),
+          });
+          openings.push({ damperId: c.id, ...o });
+          opening = o;
+        }
+        // the last stored day before the recomputed range, or the opening wear
+        const s = start.get(c.id) ?? (opening ? { cumEnergyJ: opening.energyJ, cumSpringDamage: opening.springDamage } : null);
         const days = accumulateDays({ damperId: c.id, vehicleId: c.vehicleId }, s, byDamper.get(c.id) ?? [], life.energyJ, c.corner.dampingNsPerM);
         for (const d of days) rows.push(d);
         const last = days[days.length - 1];
@@ -222,7 +248,8 @@ export async function recomputeWear(ctx: PhaseContext) {
         ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
       }
     }
-    await repo.storeWear(rows, totals, totals.map((t) => t.damperId), ctx.now);
+    await repo.storeWear(rows, totals, totals.map((t) => t.damperId), ctx.now, openings);
+    add(ctx.counts, 'openingsEstimated', openings.length);
     add(ctx.counts, 'dampersUpdated', totals.length);
     add(ctx.counts, 'wearDays', rows.length);
     await ctx.progress('wear', Math.min(ids.length, i + chunk.length), ids.length);
@@ -260,7 +287,9 @@ export async function predictAll(ctx: PhaseContext) {
     const out = [];
     for (const { c, opts } of inputs) {
       try {
-        const p = predictFromSummary(summaries.get(c.id) ?? NO_WEAR, opts);
+        // no wear day yet: the opening wear, if any, is all it has used
+        const none = c.opening ? { ...NO_WEAR, energyJ: c.opening.energyJ, springDamage: c.opening.springDamage } : NO_WEAR;
+        const p = predictFromSummary(summaries.get(c.id) ?? none, opts);
         out.push({ ...p, damperId: c.id, vehicleId: c.vehicleId });
       } catch (err) {
         ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });

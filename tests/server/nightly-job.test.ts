@@ -140,6 +140,38 @@ describe('nightly job through the API', () => {
     if (own !== vehicleId) expect((await d.get(`/api/vehicles/${vehicleId}/wear`)).status).toBe(403);
   });
 
+  it('when dampers were fitted before the trips on record, then the job estimates what they used before and carries it through their wear', async () => {
+    const rows = await A.db.sequelize.query<{
+      id: number; odo: number; inst: number; recorded: number; opening_km: number | null; opening_energy_j: number | null; opening_basis: string | null;
+      energy_j: number; duty_e: number; life_used_fraction: number; first_cum: number | null; first_e: number | null;
+    }>(
+      `SELECT d.id, COALESCE(d.removed_odometer_km, v.odometer_km) AS odo, d.installed_odometer_km AS inst,
+              (SELECT COALESCE(SUM(t.distance_km), 0) FROM trips t WHERE t.vehicle_id = d.vehicle_id AND t.started_at >= d.installed_at
+                 AND (d.removed_at IS NULL OR t.started_at < d.removed_at)) AS recorded,
+              d.opening_km, d.opening_energy_j, d.opening_basis, d.energy_j, d.life_used_fraction,
+              (SELECT COALESCE(SUM(td.energy_j), 0) FROM trip_duties td WHERE td.damper_id = d.id) AS duty_e,
+              (SELECT w.cum_energy_j FROM damper_wear_days w WHERE w.damper_id = d.id ORDER BY w.day LIMIT 1) AS first_cum,
+              (SELECT w.energy_j FROM damper_wear_days w WHERE w.damper_id = d.id ORDER BY w.day LIMIT 1) AS first_e
+       FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE v.status != 'retired'`,
+      { type: QueryTypes.SELECT },
+    );
+    expect(rows.length).toBeGreaterThan(100);
+    let before = 0;
+    for (const r of rows) {
+      expect(r.opening_basis, `damper ${r.id}`).toBeTruthy();
+      expect(r.opening_km).toBeCloseTo(Math.max(0, r.odo - r.inst - r.recorded), 6);
+      // the opening is where the damper's cumulative wear starts
+      expect(Math.abs(r.energy_j - (r.opening_energy_j! + r.duty_e))).toBeLessThanOrEqual(1e-9 * r.energy_j);
+      if (r.first_cum !== null) expect(Math.abs(r.first_cum - (r.opening_energy_j! + r.first_e!))).toBeLessThanOrEqual(1e-9 * r.first_cum);
+      if (r.opening_km! > 1000) {
+        before++;
+        expect(r.opening_energy_j).toBeGreaterThan(0);
+        expect(r.opening_basis).toMatch(/no trip on record covers/);
+      }
+    }
+    expect(before).toBeGreaterThan(rows.length / 2);
+  });
+
   it('when mail is sent, then it travels through SMTP to the catcher, with plain-text and HTML bodies and links into the app', async () => {
     const c = new ApiClient(A.url);
     await c.login(DEMO.manager);

@@ -26,6 +26,10 @@ export interface Damper {
   wearUpdatedAt?: string | null;
   /** Present damping coefficient estimate [N·s/m]. */
   dampingNsPerM: number | null;
+  /** Distance on it before the trips on record, included in life used as an estimate [km]; null until estimated. */
+  openingKm?: number | null;
+  /** What that estimate rests on, in words. */
+  openingBasis?: string | null;
 }
 
 /** Whether the wear run has estimated this damper yet (a 0 before the first run is not an estimate). */

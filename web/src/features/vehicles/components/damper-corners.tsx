@@ -87,10 +87,9 @@ function DamperCard({ damper, fallback, ratedLifeKm, compact }: { damper?: Dampe
   }
   const estimated = hasWearEstimate(damper);
   const kmShare = ratedLifeKm ? damper.distanceKm / ratedLifeKm : null;
-  // The duty estimate counts only trips on record. When the distance on the damper says it is
-  // further along (km driven before records began), the word follows the more worn of the two.
-  const distanceAhead = estimated && kmShare !== null && kmShare - (damper.lifeUsedFraction ?? 0) > 0.2;
-  const tone = estimated ? wearTone(Math.max(damper.lifeUsedFraction ?? 0, distanceAhead ? (kmShare ?? 0) : 0)) : 'neutral';
+  const tone = estimated ? wearTone(damper.lifeUsedFraction ?? 0) : 'neutral';
+  // km it ran before the trips on record: included in life used at an estimated rate
+  const opening = estimated && damper.openingKm ? damper.openingKm : 0;
   // Until the wear run has estimated it, the distance against the rated life is the guide.
   const headline = estimated
     ? { label: 'Life used', value: formatPercent(damper.lifeUsedFraction), fraction: damper.lifeUsedFraction ?? 0 }
@@ -121,10 +120,9 @@ function DamperCard({ damper, fallback, ratedLifeKm, compact }: { damper?: Dampe
       {estimated && damper.wearUpdatedAt ? (
         <p className="mt-1 text-xs text-slate">Estimated {formatDate(damper.wearUpdatedAt)}</p>
       ) : null}
-      {distanceAhead ? (
-        <p className="mt-1 text-xs text-ink">
-          Most of its {formatQuantity(damper.distanceKm, 'km')} were driven before trips were recorded, so the life used above
-          leaves them out; the status goes by distance ({formatPercent(kmShare)} of rated km).
+      {opening >= 1 ? (
+        <p className="mt-1 text-xs text-slate" title={damper.openingBasis ?? undefined}>
+          Includes an estimate for {formatQuantity(opening, 'km')} driven before the trips on record.
         </p>
       ) : null}
       {compact ? (

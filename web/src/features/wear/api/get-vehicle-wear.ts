@@ -23,6 +23,8 @@ export interface DamperWear {
   nominalDampingNsPerM: number;
   dampingNsPerM: number;
   ratedDamperLifeKm: number;
+  /** Opening wear: km before the trips on record, the energy charged for them [J] and on what basis; null until estimated. */
+  opening: { km: number; energyJ: number; basis: string } | null;
   lastDutyDay: string | null;
   prediction: {
     asOf: string;

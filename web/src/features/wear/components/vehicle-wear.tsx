@@ -44,6 +44,11 @@ function DamperCard({ d, th }: { d: DamperWear; th: number }) {
         <dd className="tabular text-right">{formatNumber(d.springDamage, 4)}</dd>
       </dl>
       {p?.basis ? <p className="mt-2 text-xs text-slate">Rests on: {p.basis.method}; {p.basis.life}; {p.basis.window}.</p> : null}
+      {d.opening && d.opening.km >= 1 ? (
+        <p className="mt-1 text-xs text-slate">
+          Before the records: {formatNumber(d.opening.energyJ / 1e6, 1)} MJ for {d.opening.basis}.
+        </p>
+      ) : null}
     </div>
   );
 }
