@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { QueryTypes } from 'sequelize';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
+import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
+import { run as runNightly } from '../../jobs/nightly';
 import { DEMO, expectHeading, signIn } from './helpers';
 
 let server: TestServer;
@@ -15,7 +16,10 @@ const PNG = Buffer.from(
 
 beforeAll(async () => {
   [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
+  // the wear model's end-of-life dates feed the replacement forecast
+  const r = await runNightly({ db: server.db, config: server.config, log: server.log, mailer: server.mailer, now: TEST_NOW, trigger: 'test' });
+  expect(r.status).toBe('succeeded');
+}, 120_000);
 afterAll(async () => {
   await browser?.close();
   await server?.stop();
@@ -28,9 +32,11 @@ describe('workshop', () => {
     const mgrCtx = await newContext(browser, 'desktop');
     const mgr = await mgrCtx.newPage();
     await signIn(mgr, server.url, DEMO.manager);
-    const before = (await (await mgr.request.get(`${server.url}/api/forecast`)).json()) as { totals: { replacements: number }; items: { vehicleId: number; fleetNumber: string }[] };
-    expect(before.items.length).toBeGreaterThan(0);
-    const target = before.items[0];
+    const before = (await (await mgr.request.get(`${server.url}/api/forecast`)).json()) as { totals: { replacements: number }; items: { vehicleId: number; fleetNumber: string; position: string }[] };
+    // a vehicle whose front dampers are due for replacement (the work below replaces the front pair)
+    const target = before.items.find((i) => i.position === 'FL' || i.position === 'FR');
+    expect(target, JSON.stringify(before.items.slice(0, 5))).toBeDefined();
+    if (!target) return;
     const open = await sq.query<{ n: number }>(`SELECT COUNT(*) AS n FROM inspections WHERE vehicle_id = ? AND status IN ('scheduled','due','overdue')`, { replacements: [target.vehicleId], type: QueryTypes.SELECT });
     if (Number(open[0].n) === 0) {
       await sq.query(
