@@ -61,7 +61,7 @@ const add = (counts: Record<string, number>, key: string, n: number) => {
 
 /**
  * Phase 1: every unprocessed trip → duty records, in batches of whole vehicles. Pipelined: while
- * one batch is being written, the next one is read and computed (on worker threads when
+ * one batch is being written, the next ones are read and computed (on worker threads when
  * `ctx.dutyWorkers` > 0). Batches commit one at a time, in order.
  */
 export async function processTrips(ctx: PhaseContext) {
@@ -131,7 +131,7 @@ export async function processTrips(ctx: PhaseContext) {
   // the batch being written; settles to null or to the error of its transaction
   let storing: Promise<Error | null> | null = null;
   let storingTrips = 0;
-  let storingCounts = { trips: 0, dutyRecords: 0 };
+  let storingCounts = { trips: 0, dutyRecords: 0, segments: 0, tripErrors: 0 };
   const settle = async () => {
     if (!storing) return;
     const err = await storing;
@@ -141,33 +141,41 @@ export async function processTrips(ctx: PhaseContext) {
     add(ctx.counts, 'batches', 1);
     add(ctx.counts, 'trips', storingCounts.trips);
     add(ctx.counts, 'dutyRecords', storingCounts.dutyRecords);
+    add(ctx.counts, 'segments', storingCounts.segments);
+    add(ctx.counts, 'tripErrors', storingCounts.tripErrors);
     done += storingTrips;
     await ctx.progress('duty', done, totalTrips);
     if (ctx.failAfterBatches !== undefined && committed >= ctx.failAfterBatches) {
       throw new Error(`injected failure after ${committed} batch(es)`);
     }
   };
+  // read and compute batch i; started as soon as the previous computation is done, so the
+  // threads computing never wait for the database
+  const prepare = (i: number) => {
+    const p = load(batches[i]).then(async ({ works, tripCount }) => ({ works, tripCount, results: await runner.compute(works) }));
+    p.catch(() => {}); // awaited in turn; not an unhandled rejection if the run stops first
+    return p;
+  };
   try {
-    let next: ReturnType<typeof load> | null = load(batches[0]);
+    let next = prepare(0);
     for (let b = 0; b < batches.length; b++) {
       checkAbort(ctx.signal);
-      const { works, tripCount } = await next!;
-      const computing = runner.compute(works);
-      next = b + 1 < batches.length ? load(batches[b + 1]) : null;
-      next?.catch(() => {}); // awaited on the next turn; not an unhandled rejection if this one throws
-      const results = await computing;
+      const { works, tripCount, results } = await next;
+      if (b + 1 < batches.length) next = prepare(b + 1);
       const duties = [];
       const wear = [];
       const processed: number[] = [];
+      let segments = 0;
+      let tripErrors = 0;
       for (let i = 0; i < works.length; i++) {
         const r = results[i];
         for (const e of r.errors) ctx.errors.push({ item: `trip ${e.tripId}`, message: e.message });
         const failed = new Set(r.errors.map((e) => e.tripId));
         for (const t of works[i].trips) if (!failed.has(t.id)) processed.push(t.id);
-        duties.push(...r.duties);
-        wear.push(...r.wear);
-        add(ctx.counts, 'segments', r.segments);
-        add(ctx.counts, 'tripErrors', r.errors.length);
+        for (const d of r.duties) duties.push(d);
+        for (const w of r.wear) wear.push(w);
+        segments += r.segments;
+        tripErrors += r.errors.length;
       }
       await settle();
       checkAbort(ctx.signal);
@@ -176,7 +184,7 @@ export async function processTrips(ctx: PhaseContext) {
         () => null,
         (e: unknown) => (e instanceof Error ? e : new Error(String(e))),
       );
-      storingCounts = { trips: processed.length, dutyRecords: duties.length };
+      storingCounts = { trips: processed.length, dutyRecords: duties.length, segments, tripErrors };
     }
     await settle();
   } finally {
