@@ -48,6 +48,8 @@ export interface NightlyOptions {
   lifeResolver?: LifeResolver;
   /** Test hook: fail after this many committed batches (simulated crash). */
   failAfterBatches?: number;
+  /** Test hook: dampers per chunk of the wear and prediction phases. */
+  damperChunk?: number;
   /** Wall clock for the run row, lock and heartbeat (default: the real clock). */
   wallClock?: () => Date;
   /** Called on every progress step (phase, done, total). */
@@ -114,6 +116,7 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     // issue 6: the fleet-blended / test-lane life unless a caller gives its own
     lifeResolver: opts.lifeResolver ?? (await workshopLifeOrRated(config, log)),
     failAfterBatches: opts.failAfterBatches,
+    damperChunk: opts.damperChunk,
     loadProfile: loadSurveyProfile,
     progress,
     errors,

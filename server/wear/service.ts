@@ -37,6 +37,8 @@ export interface PhaseContext {
   lifeResolver?: LifeResolver;
   /** Test hook: throw after this many committed batches (a crash in the middle of the run). */
   failAfterBatches?: number;
+  /** Dampers per chunk of the wear and prediction phases (default {@link WEAR_CHUNK}). */
+  damperChunk?: number;
   /** Loads a measured profile (server/roads/profile-store.ts `loadSurveyProfile`). */
   loadProfile: (dataDir: string, surveyId: number) => Promise<{ dxM: number; startM: number; elevationsM: Float64Array }>;
   progress: (phase: string, done: number, total: number) => Promise<void> | void;
@@ -199,6 +201,41 @@ export async function processTrips(ctx: PhaseContext) {
 
 const WEAR_CHUNK = 2000;
 
+/**
+ * Runs chunks in order with one read ahead and one write behind: chunk k+1 is read while chunk k
+ * is computed and written. `read` gets the previous chunk (null for the first) and returns null
+ * when there are no more. The chunks of a phase touch disjoint dampers, so the overlap changes
+ * nothing in the result; a write in flight is always awaited before the phase ends or throws.
+ */
+async function readAheadWriteBehind<T>(signal: AbortSignal | undefined, read: (prev: T | null) => Promise<T | null>, write: (item: T) => Promise<void>) {
+  const ahead = (prev: T | null) => {
+    const p = read(prev);
+    p.catch(() => {}); // awaited in turn; not an unhandled rejection if the phase stops first
+    return p;
+  };
+  let writing: Promise<void> | null = null;
+  const settle = async () => {
+    const w = writing;
+    writing = null;
+    if (w) await w;
+  };
+  try {
+    let next = ahead(null);
+    for (;;) {
+      checkAbort(signal);
+      const item = await next;
+      if (item === null) break;
+      next = ahead(item);
+      await settle();
+      checkAbort(signal);
+      writing = write(item);
+    }
+    await settle();
+  } finally {
+    if (writing) await (writing as Promise<void>).catch(() => {});
+  }
+}
+
 /** Phase 2: recompute daily history and totals of every damper whose duty changed. */
 export async function recomputeWear(ctx: PhaseContext) {
   const repo = wearRepository(ctx.sequelize);
@@ -206,15 +243,19 @@ export async function recomputeWear(ctx: PhaseContext) {
   await repo.markOpeningsDue();
   const ids = await repo.dirtyDampers();
   await ctx.progress('wear', 0, ids.length);
-  for (let i = 0; i < ids.length; i += WEAR_CHUNK) {
-    checkAbort(ctx.signal);
-    const chunk = ids.slice(i, i + WEAR_CHUNK);
+  const read = async (prev: { end: number } | null) => {
+    const from = prev ? prev.end : 0;
+    if (from >= ids.length) return null;
+    const chunk = ids.slice(from, from + (ctx.damperChunk ?? WEAR_CHUNK));
     const [context, daily, before, openingInputs] = await Promise.all([
       repo.damperContext(chunk),
       repo.dailyDutyFromDirty(chunk),
       repo.wearBeforeDirty(chunk),
       repo.openingInputs(chunk, ctx.before),
     ]);
+    return { end: from + chunk.length, context, daily, before, openingInputs };
+  };
+  await readAheadWriteBehind(ctx.signal, read, async ({ end, context, daily, before, openingInputs }) => {
     const openingOf = new Map(openingInputs.map((o) => [o.id, o]));
     const openings: (Opening & { damperId: number })[] = [];
     const byDamper = new Map<number, DayDuty[]>();
@@ -260,31 +301,29 @@ export async function recomputeWear(ctx: PhaseContext) {
     add(ctx.counts, 'openingsEstimated', openings.length);
     add(ctx.counts, 'dampersUpdated', totals.length);
     add(ctx.counts, 'wearDays', rows.length);
-    await ctx.progress('wear', Math.min(ids.length, i + chunk.length), ids.length);
-  }
+    await ctx.progress('wear', end, ids.length);
+  });
 }
 
 /** Phase 3: predict every fitted damper as of the run's day. */
 export async function predictAll(ctx: PhaseContext) {
   const repo = wearRepository(ctx.sequelize);
   const resolve = ctx.lifeResolver ?? ratedLife;
-  let after = 0;
   let done = 0;
   await repo.dropStalePredictions();
-  for (;;) {
-    checkAbort(ctx.signal);
-    const ids = await repo.installedDamperIds(after, WEAR_CHUNK);
-    if (!ids.length) break;
-    after = ids[ids.length - 1];
+  const read = async (prev: { lastId: number } | null) => {
+    const ids = await repo.installedDamperIds(prev ? prev.lastId : 0, ctx.damperChunk ?? WEAR_CHUNK);
+    if (!ids.length) return null;
     const context = await repo.damperContext(ids);
     const inputs = [];
+    const errors: ItemError[] = [];
     for (const c of context) {
       try {
         const life = resolve({ damperId: c.id, corner: c.corner, ratedDamperLifeKm: c.ratedDamperLifeKm });
         const opts = { asOf: ctx.asOf, installedAt: c.installedAt, life, thresholdFraction: ctx.thresholdFraction, nominalDampingNsPerM: c.corner.dampingNsPerM };
         inputs.push({ c, opts, windowStart: predictionWindow(opts).windowStart });
       } catch (err) {
-        ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
+        errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
       }
     }
     const summaries = await repo.wearSummaries(
@@ -292,6 +331,10 @@ export async function predictAll(ctx: PhaseContext) {
       ctx.thresholdFraction,
       ctx.asOf,
     );
+    return { lastId: ids[ids.length - 1], inputs, summaries, errors };
+  };
+  await readAheadWriteBehind(ctx.signal, read, async ({ inputs, summaries, errors }) => {
+    ctx.errors.push(...errors);
     const out = [];
     for (const { c, opts } of inputs) {
       try {
@@ -307,7 +350,7 @@ export async function predictAll(ctx: PhaseContext) {
     done += out.length;
     add(ctx.counts, 'predictions', out.length);
     await ctx.progress('predictions', done, done);
-  }
+  });
 }
 
 const NO_WEAR: WearSummary = Object.freeze({ windowEnergyJ: 0, windowKm: 0, windowSpringDamage: 0, energyJ: 0, springDamage: 0, thresholdDay: null, endOfLifeDay: null, springThresholdDay: null });

@@ -328,6 +328,26 @@ describe('nightly job crash safety', () => {
     }
   }, 240_000);
 
+  it('when a run is cancelled while it writes wear history or predictions and run again, then the tables equal those of one clean run', async () => {
+    for (const phase of ['wear', 'predictions']) {
+      const E = await startTestServer({ env: { NIGHTLY_BATCH_TRIPS: '400' } });
+      try {
+        const deps = { db: E.db, config: E.config, log: E.log, mailer: E.mailer, now: TEST_NOW, trigger: 'test' as const };
+        const abort = new AbortController();
+        // small chunks, so that the demo's dampers take several and the cancel lands between two
+        const cancelled = await run({ ...deps, damperChunk: 40, signal: abort.signal, onProgress: (p, done) => p === phase && done > 0 && abort.abort() });
+        expect(cancelled.status, phase).toBe('cancelled');
+        if (phase === 'predictions') expect(await count(E.db, `SELECT COUNT(*) AS n FROM damper_predictions`)).toBeLessThan(firstRun.counts.predictions);
+        if (phase === 'wear') expect(await count(E.db, `SELECT COUNT(*) AS n FROM dampers WHERE wear_dirty_from IS NOT NULL`)).toBeGreaterThan(0);
+        const again = await run(deps);
+        expect(again.status).toBe('succeeded');
+        expect(diffTables(clean, await dump(E.db)), phase).toEqual([]);
+      } finally {
+        await E.stop();
+      }
+    }
+  }, 240_000);
+
   it('when a run is cancelled through its signal and run again, then the tables equal those of one clean run; a user who turned the digest off gets none', async () => {
     const C = await startTestServer({ env: { NIGHTLY_BATCH_TRIPS: '400' } });
     try {
