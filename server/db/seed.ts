@@ -415,9 +415,24 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
     // Dampers with a little history: some corners were replaced, with the old unit's reason.
     const reasons = ['leaking', 'low adhesion on test lane', 'worn: fading', 'mount damage', 'leaking'];
     const mechanicId = (await User.findOne({ where: { email: 'mechanic@reboundry.test' }, ...opts }))!.id;
+    // The odometer at a past moment: during the 60 days of trips on record, now less the trips
+    // since; before them, at the vehicle's earlier daily distance back from the first day on record.
+    const recordsStart = subDays(today, 60);
+    const tripsOf = new Map<number, { at: number; km: number }[]>();
+    for (const t of tripRows) {
+      if (!tripsOf.has(t.vehicleId)) tripsOf.set(t.vehicleId, []);
+      tripsOf.get(t.vehicleId)!.push({ at: (t.startedAt as Date).getTime(), km: t.distanceKm });
+    }
     for (const [vi, { v, spec }] of vehicles.entries()) {
-      const odoNow = v.odometerKm + (kmByVehicle.get(v.id) ?? 0);
+      const startOdo = v.odometerKm;
+      const odoNow = startOdo + (kmByVehicle.get(v.id) ?? 0);
       await v.update({ odometerKm: Math.round(odoNow) }, opts);
+      const daysBeforeRecords = Math.max(1, (recordsStart.getTime() - new Date(v.commissionedAt!).getTime()) / 86_400_000);
+      const kmPerDay = startOdo / daysBeforeRecords;
+      const odoAt = (when: Date) => {
+        if (when >= recordsStart) return Math.round(odoNow - (tripsOf.get(v.id) ?? []).reduce((sum, t) => sum + (t.at >= when.getTime() ? t.km : 0), 0));
+        return Math.max(0, Math.round(startOdo - (kmPerDay * (recordsStart.getTime() - when.getTime())) / 86_400_000));
+      };
       const positions = spec.axles.map((a, axleIndex) => [
         { position: axleIndex === 0 ? 'FL' : 'RL', axleIndex },
         { position: axleIndex === 0 ? 'FR' : 'RR', axleIndex },
@@ -426,8 +441,7 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
       let work: WorkRecord | null = null;
       const replacedAxle = vi % 3 === 0 ? 0 : 1;
       const replacedOn = subDays(today, 30 + (vi * 37) % 300);
-      const kmPerDay = odoNow / Math.max(1, (today.getTime() - new Date(v.commissionedAt!).getTime()) / 86_400_000);
-      const replacedOdo = Math.round(odoNow - kmPerDay * ((today.getTime() - replacedOn.getTime()) / 86_400_000));
+      const replacedOdo = odoAt(replacedOn);
       if (replaced) {
         const insp = await Inspection.create(
           {
@@ -466,7 +480,7 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
       const fitted =
         fittedDaysAgo >= sinceCommissioned
           ? { on: commissioned, odometerKm: 0, partNumber: (axle: number) => `${spec.prefix}-D${axle}-OE` }
-          : { on: day(subDays(today, fittedDaysAgo)), odometerKm: Math.max(0, Math.round(odoNow - kmPerDay * fittedDaysAgo)), partNumber: (axle: number) => `${spec.prefix}-D${axle}-AM1` };
+          : { on: day(subDays(today, fittedDaysAgo)), odometerKm: odoAt(subDays(today, fittedDaysAgo)), partNumber: (axle: number) => `${spec.prefix}-D${axle}-AM1` };
       for (const p of positions) {
         if (replaced && p.axleIndex === replacedAxle) {
           await Damper.create(
@@ -507,7 +521,7 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
             reason: 'Interval check: 12 months since the last inspection.',
             assigneeId: mechanicId,
             completedAt: doneOn,
-            odometerKm: Math.round(odoNow - kmPerDay * ago),
+            odometerKm: odoAt(doneOn),
             notes: 'All corners within limits on the test lane.',
           },
           opts,
