@@ -32,6 +32,10 @@ export function DamperWearChart({ damper, thresholdFraction }: { damper: DamperW
   }
   const data = [...points.values()].sort((a, b) => a.t - b.t);
   const top = Math.max(105, ...data.map((d) => Math.max(d.used ?? 0, d.predicted ?? 0) * 1.05));
+  // ticks every 20 % up to 120 %, then coarser, so a damper far past end of life keeps a readable axis
+  const step = top <= 120 ? 20 : top <= 300 ? 50 : 100;
+  const yMax = Math.ceil(top / step) * step;
+  const ticks = Array.from({ length: yMax / step + 1 }, (_, i) => i * step);
   const label = `Consumed life of the ${damper.position} damper over time, with the predicted path`;
   return (
     <figure aria-label={label}>
@@ -48,9 +52,9 @@ export function DamperWearChart({ damper, thresholdFraction }: { damper: DamperW
               tick={{ fontSize: 11 }}
               minTickGap={40}
             />
-            <YAxis domain={[0, Math.ceil(top / 10) * 10]} ticks={[0, 20, 40, 60, 80, 100]} tickFormatter={(v: number) => formatNumber(v)} tick={{ fontSize: 11 }} width={44} label={{ value: 'life used [%]', angle: -90, position: 'insideLeft', fontSize: 11, dy: 40 }} />
+            <YAxis domain={[0, yMax]} ticks={ticks} tickFormatter={(v: number) => formatNumber(v)} tick={{ fontSize: 11 }} width={44} label={{ value: 'life used [%]', angle: -90, position: 'insideLeft', fontSize: 11, dy: 40 }} />
             <ReferenceLine y={thresholdFraction * 100} stroke="#D9622B" strokeDasharray="6 3" label={{ value: `inspect at ${formatNumber(thresholdFraction * 100)} %`, position: 'insideTopLeft', fontSize: 11, fill: '#9c441a' }} />
-            <ReferenceLine y={100} stroke="#B3261E" label={{ value: 'end of life', position: 'insideTopLeft', fontSize: 11, fill: '#B3261E' }} />
+            <ReferenceLine y={100} stroke="#B3261E" label={{ value: 'end of life', position: 'insideTopRight', fontSize: 11, fill: '#B3261E' }} />
             <Tooltip
               labelFormatter={(v) => formatDate(new Date(Number(v)))}
               formatter={(v, name) => [typeof v === 'number' ? `${formatNumber(v, 1)} %` : String(v), name === 'used' ? 'life used' : 'predicted']}
