@@ -19,7 +19,7 @@ export default defineConfig({
         test: {
           name: 'unit',
           root: '.',
-          include: ['tests/physics/**/*.test.ts', 'tests/server/**/*.test.ts', 'tests/jobs/**/*.test.ts'],
+          include: ['tests/physics/**/*.test.ts', 'tests/server/**/*.test.ts', 'tests/jobs/**/*.test.ts', 'tests/web/**/*.test.ts'],
           environment: 'node',
           testTimeout: 30_000,
           hookTimeout: 60_000,

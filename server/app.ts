@@ -107,7 +107,7 @@ export function createApp(deps: AppDeps): BuiltApp {
   });
   registerAuthRoutes(api, { csrfToken: (req, res) => generateCsrfToken(req, res), options: { ...defaultAuthOptions, ...deps.auth } });
   registerUserRoutes(api);
-  registerFleetRoutes(api);
+  registerFleetRoutes(api, { inspectionThreshold: config.inspection.threshold });
   registerFleetWriteRoutes(api, deps.now ?? (() => new Date()));
   registerRoadRoutes(api, { config, now: deps.now ?? (() => new Date()) });
   registerTripRoutes(api, { now: deps.now ?? (() => new Date()) });

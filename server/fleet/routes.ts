@@ -18,7 +18,8 @@ const vehicleList = listQuery(['fleetNumber', 'plate', 'odometerKm', 'status', '
 
 const routeList = listQuery(['name', 'lengthM'], 'name', { q: z.string().trim().max(60).optional() });
 
-export function registerFleetRoutes(r: Router) {
+/** `inspectionThreshold`: the configured fraction of life at which inspection is due (for the wear words on screen). */
+export function registerFleetRoutes(r: Router, opts: { inspectionThreshold: number } = { inspectionThreshold: 0.8 }) {
   r.get('/depots', allow('manager', 'mechanic', 'driver'), async (_req, res) => {
     const items = await fleetRepository.listDepots();
     res.json({ items, total: items.length });
@@ -51,7 +52,7 @@ export function registerFleetRoutes(r: Router) {
     if (user.role === 'driver' && detail.vehicle.driverId !== user.id) {
       throw AppError.forbidden('Drivers can see only the vehicle assigned to them.');
     }
-    res.json(detail);
+    res.json({ ...detail, inspectionThreshold: opts.inspectionThreshold });
   });
 
   r.get('/routes', allow('manager', 'mechanic', 'driver'), async (req, res) => {

@@ -1,16 +1,24 @@
 import type { StatusTone } from '@/components/ui/status-badge';
 
 /**
- * How a damper's estimated life used reads on screen. Until inspection scheduling has its own
- * configurable threshold, these fixed bands give the word and shape beside the percentage.
+ * How a damper's estimated life used reads on screen, from the inspection threshold the server
+ * schedules by (`INSPECTION_THRESHOLD`, 0.8 unless configured): watch from three quarters of
+ * it, inspect from it, past rated life from 100 %. The wear page and the damper cards use the
+ * same bands.
  */
-export const WEAR_BANDS = { watchFrom: 0.7, dueFrom: 0.9, overdueFrom: 1.0 } as const;
+export const DEFAULT_INSPECTION_THRESHOLD = 0.8;
 
-export function wearTone(lifeUsedFraction: number | null | undefined): StatusTone {
+export function wearBands(threshold: number = DEFAULT_INSPECTION_THRESHOLD) {
+  // rounded so that 0.8 × ¾ is 0.6, not 0.6000000000000001
+  return { watchFrom: Math.round(threshold * 0.75 * 1e9) / 1e9, dueFrom: threshold, overdueFrom: 1.0 } as const;
+}
+
+export function wearTone(lifeUsedFraction: number | null | undefined, threshold: number = DEFAULT_INSPECTION_THRESHOLD): StatusTone {
   if (lifeUsedFraction === null || lifeUsedFraction === undefined || !Number.isFinite(lifeUsedFraction)) return 'neutral';
-  if (lifeUsedFraction >= WEAR_BANDS.overdueFrom) return 'overdue';
-  if (lifeUsedFraction >= WEAR_BANDS.dueFrom) return 'due';
-  if (lifeUsedFraction >= WEAR_BANDS.watchFrom) return 'watch';
+  const b = wearBands(threshold);
+  if (lifeUsedFraction >= b.overdueFrom) return 'overdue';
+  if (lifeUsedFraction >= b.dueFrom) return 'due';
+  if (lifeUsedFraction >= b.watchFrom) return 'watch';
   return 'ok';
 }
 
@@ -22,5 +30,10 @@ export const wearWords: Record<StatusTone, string> = {
   neutral: 'No estimate',
 };
 
+const pct = (x: number) => `${Math.round(x * 100)} %`;
+
 /** The rule behind the word, for the "because" line. */
-export const wearRule = `Watch from ${WEAR_BANDS.watchFrom * 100} %, inspect from ${WEAR_BANDS.dueFrom * 100} % of rated life used.`;
+export function wearRule(threshold: number = DEFAULT_INSPECTION_THRESHOLD): string {
+  const b = wearBands(threshold);
+  return `Watch from ${pct(b.watchFrom)}, inspect from ${pct(b.dueFrom)} of rated life used.`;
+}

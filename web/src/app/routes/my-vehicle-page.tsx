@@ -50,7 +50,7 @@ export function MyVehiclePage() {
           ]}
         />
         <Section title="Dampers">
-          <DamperCorners dampers={detail.data.dampers} axles={spec.axles} compact />
+          <DamperCorners dampers={detail.data.dampers} axles={spec.axles} threshold={detail.data.inspectionThreshold} compact />
         </Section>
         <Section title="Inspections">
           <VehicleInspections inspections={detail.data.inspections} />

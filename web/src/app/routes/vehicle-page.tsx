@@ -84,7 +84,7 @@ function VehicleDetailView({ detail, back }: { detail: VehicleDetail; back: { to
 
       <div className="grid gap-x-8 lg:grid-cols-[minmax(0,7fr)_minmax(0,5fr)]">
         <Section title="Dampers by corner" description="As seen from above, front at the top.">
-          <DamperCorners dampers={detail.dampers} axles={spec.axles} />
+          <DamperCorners dampers={detail.dampers} axles={spec.axles} threshold={detail.inspectionThreshold} />
         </Section>
         <div>
           <Section title="Inspections" className="lg:mt-0">

@@ -68,6 +68,8 @@ export interface VehicleDetail {
   dampers: Damper[];
   recentTrips: VehicleTrip[];
   inspections: VehicleInspection[];
+  /** Fraction of rated life at which an inspection is due (the server's setting). */
+  inspectionThreshold?: number;
 }
 
 export function getVehicle(id: number, signal?: AbortSignal) {

@@ -3,7 +3,7 @@ import { StatusBadge } from '@/components/ui/status-badge';
 import { cx } from '@/lib/class-names';
 import { formatDate, formatPercent, formatQuantity } from '@/lib/format';
 import { axleLabel, type SpecAxle } from '@/lib/suspension';
-import { WEAR_BANDS, wearRule, wearTone, wearWords } from '@/lib/wear';
+import { DEFAULT_INSPECTION_THRESHOLD, wearBands, wearRule, wearTone, wearWords } from '@/lib/wear';
 import { hasWearEstimate, type Damper } from '../api/get-vehicle';
 
 const sideNames: Record<string, string> = { L: 'left', R: 'right' };
@@ -21,13 +21,15 @@ interface DamperCornersProps {
   axles: SpecAxle[];
   /** Larger figures and fewer details, for the driver's phone. */
   compact?: boolean;
+  /** Fraction of life at which inspection is due (the server's setting). */
+  threshold?: number;
 }
 
 /**
  * The dampers now fitted, laid out as seen from above (front axle at the top, left on the left),
  * each with its estimated life used, and when, at what odometer reading and how far ago it was fitted.
  */
-export function DamperCorners({ dampers, axles, compact }: DamperCornersProps) {
+export function DamperCorners({ dampers, axles, compact, threshold = DEFAULT_INSPECTION_THRESHOLD }: DamperCornersProps) {
   const fitted = dampers.filter((d) => !d.removedAt);
   if (fitted.length === 0) {
     return (
@@ -56,8 +58,8 @@ export function DamperCorners({ dampers, axles, compact }: DamperCornersProps) {
                 {axle ? <span>rated damper life {formatQuantity(axle.ratedDamperLifeKm, 'km')}</span> : null}
               </p>
               <div className="grid grid-cols-2 gap-2 sm:gap-3">
-                <DamperCard damper={left} fallback={`${name}, left`} ratedLifeKm={axle?.ratedDamperLifeKm} compact={compact} />
-                <DamperCard damper={right} fallback={`${name}, right`} ratedLifeKm={axle?.ratedDamperLifeKm} compact={compact} />
+                <DamperCard damper={left} fallback={`${name}, left`} ratedLifeKm={axle?.ratedDamperLifeKm} compact={compact} threshold={threshold} />
+                <DamperCard damper={right} fallback={`${name}, right`} ratedLifeKm={axle?.ratedDamperLifeKm} compact={compact} threshold={threshold} />
               </div>
             </div>
           );
@@ -65,7 +67,7 @@ export function DamperCorners({ dampers, axles, compact }: DamperCornersProps) {
       </div>
       <p className="mt-3 text-[0.8125rem] text-slate">
         {anyEstimate
-          ? `Life used is the duty model's estimate from the roads, speeds and loads of this vehicle's trips, against the rated damper life of its axle. ${wearRule}`
+          ? `Life used is the duty model's estimate from the roads, speeds and loads of this vehicle's trips, against the rated damper life of its axle. ${wearRule(threshold)}`
           : 'The nightly wear run has not estimated these dampers yet; until it has, the distance driven on each against its rated life is the guide.'}
       </p>
       <Caution className="mt-3">
@@ -76,7 +78,7 @@ export function DamperCorners({ dampers, axles, compact }: DamperCornersProps) {
   );
 }
 
-function DamperCard({ damper, fallback, ratedLifeKm, compact }: { damper?: Damper; fallback: string; ratedLifeKm?: number; compact?: boolean }) {
+function DamperCard({ damper, fallback, ratedLifeKm, compact, threshold }: { damper?: Damper; fallback: string; ratedLifeKm?: number; compact?: boolean; threshold: number }) {
   if (!damper) {
     return (
       <div className="rounded-md border border-dashed border-line-strong px-3 py-3 text-sm text-slate">
@@ -87,7 +89,8 @@ function DamperCard({ damper, fallback, ratedLifeKm, compact }: { damper?: Dampe
   }
   const estimated = hasWearEstimate(damper);
   const kmShare = ratedLifeKm ? damper.distanceKm / ratedLifeKm : null;
-  const tone = estimated ? wearTone(damper.lifeUsedFraction ?? 0) : 'neutral';
+  const tone = estimated ? wearTone(damper.lifeUsedFraction ?? 0, threshold) : 'neutral';
+  const bands = wearBands(threshold);
   // km it ran before the trips on record: included in life used at an estimated rate
   const opening = estimated && damper.openingKm ? damper.openingKm : 0;
   // Until the wear run has estimated it, the distance against the rated life is the guide.
@@ -112,7 +115,7 @@ function DamperCard({ damper, fallback, ratedLifeKm, compact }: { damper?: Dampe
       <div aria-hidden="true" className="relative mt-1 h-1.5 rounded-full bg-mist">
         <div className={cx('h-full rounded-full', barColour)} style={{ width: `${Math.min(100, Math.max(0, headline.fraction * 100))}%` }} />
         {estimated
-          ? [WEAR_BANDS.watchFrom, WEAR_BANDS.dueFrom].map((mark) => (
+          ? [bands.watchFrom, bands.dueFrom].map((mark) => (
               <span key={mark} className="absolute -top-0.5 h-2.5 w-px bg-slate/60" style={{ left: `${mark * 100}%` }} />
             ))
           : null}

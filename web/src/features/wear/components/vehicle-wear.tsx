@@ -7,10 +7,11 @@ import { Section } from '@/components/ui/section';
 import { SimpleTable, type SimpleColumn } from '@/components/ui/simple-table';
 import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
 import { formatDate, formatNumber, formatPercent } from '@/lib/format';
+import { wearTone } from '@/lib/wear';
 import { useVehicleWear, type DamperWear, type RouteDuty } from '../api/get-vehicle-wear';
 import { DamperWearChart } from './damper-wear-chart';
 
-const tone = (u: number, th: number): StatusTone => (u >= 1 ? 'overdue' : u >= th ? 'due' : u >= th * 0.75 ? 'watch' : 'ok');
+const tone = (u: number, th: number): StatusTone => wearTone(u, th);
 const toneWord: Record<StatusTone, string> = { ok: 'Within life', watch: 'Approaching', due: 'Past threshold', overdue: 'Past end of life', neutral: '' };
 
 function DamperCard({ d, th }: { d: DamperWear; th: number }) {
