@@ -9,6 +9,7 @@ import * as m0003 from './migrations/0003-nightly-duty';
 import * as m0004 from './migrations/0004-workshop';
 import * as m0005 from './migrations/0005-drivers';
 import * as m0006 from './migrations/0006-opening-wear';
+import * as m0007 from './migrations/0007-drop-unused-duty-indexes';
 import { initNightlyModels } from './nightly-models';
 import { initDriverModels } from './driver-models';
 
@@ -26,6 +27,7 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
   { name: '0004-workshop', up: m0004.up, down: m0004.down },
   { name: '0005-drivers', up: m0005.up, down: m0005.down },
   { name: '0006-opening-wear', up: m0006.up, down: m0006.down },
+  { name: '0007-drop-unused-duty-indexes', up: m0007.up, down: m0007.down },
 ];
 
 /**
