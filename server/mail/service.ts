@@ -136,12 +136,18 @@ export async function queueAssignmentNotes(ctx: MailContext, inspectionIds?: num
     // one note per mechanic per run, listing every inspection newly assigned to them
     const mails: QueuedMail[] = [];
     const byUser = new Map<number, typeof rows>();
-    for (const r of rows) if (r.notify && r.active) byUser.set(r.user_id, [...(byUser.get(r.user_id) ?? []), r]);
+    for (const r of rows) {
+      if (!r.notify || !r.active) continue;
+      const list = byUser.get(r.user_id);
+      if (list) list.push(r);
+      else byUser.set(r.user_id, [r]);
+    }
     for (const [userId, items] of byUser) {
       const first = items[0];
       const body = assignmentMail({
         name: first.name,
         settingsUrl: `${ctx.publicUrl}/account`,
+        listUrl: `${ctx.publicUrl}/workshop`,
         items: items.map((r) => ({ fleetNumber: r.fleet_number, plate: r.plate, depotName: r.depot_name, dueDate: r.due_date, status: r.status, reason: r.reason, vehicleUrl: `${ctx.publicUrl}/vehicles/${r.vehicle_id}` })),
       });
       const key = items.length === 1 ? `assignment:${first.id}:${userId}` : `assignments:${userId}:${hash(items.map((r) => String(r.id)))}`;
