@@ -81,6 +81,8 @@ const schema = z
       fleetLifeCredibilityK: c.FLEET_LIFE_CREDIBILITY_K,
       attachmentMaxBytes: Math.round(c.ATTACHMENT_MAX_MB * 1024 * 1024),
       laneFlagPoints: c.LANE_FLAG_POINTS,
+      /** The scheduler's threshold, for the words on each corner (watch from ¾ of it, inspect from it). */
+      inspectionThreshold: c.INSPECTION_THRESHOLD,
     },
     logLevel: c.LOG_LEVEL,
   }));

@@ -44,10 +44,11 @@ export interface CornerState {
   lifeSource: string;
 }
 
-const stateOf = (u: number): CornerState['state'] => (u >= 1 ? 'past_life' : u >= 0.8 ? 'due' : u >= 0.6 ? 'watch' : 'ok');
+/** The corner's word: the same bands as the vehicle page (watch from ¾ of the inspection threshold, inspect from it). */
+const stateOf = (u: number, threshold: number): CornerState['state'] => (u >= 1 ? 'past_life' : u >= threshold ? 'due' : u >= threshold * 0.75 - 1e-9 ? 'watch' : 'ok');
 
 /** Each corner's predicted state from the nightly wear state, or a km estimate before it. */
-export function cornerState(r: FittedCornerRow, lives: Map<number, SpecLife>): CornerState {
+export function cornerState(r: FittedCornerRow, lives: Map<number, SpecLife>, threshold = 0.8): CornerState {
   const life = lives.get(r.spec_id);
   const lifeKm = life?.blend.axles.find((a) => a.axleIndex === r.axle_index)?.usedKm ?? r.rated_damper_life_km;
   const km = Math.max(0, r.odometer_km - r.installed_odometer_km);
@@ -65,7 +66,7 @@ export function cornerState(r: FittedCornerRow, lives: Map<number, SpecLife>): C
     dampingNsPerM: damping,
     nominalNsPerM: r.nominal_ns_per_m,
     basis: fromModel ? 'wear model' : 'km estimate',
-    state: stateOf(u),
+    state: stateOf(u, threshold),
     thresholdDate: r.p_threshold_date,
     endOfLifeDate: r.p_end_date,
     lifeKm,
@@ -126,7 +127,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
     const by = new Map<number, CornerState[]>();
     for (const r of rows) {
       if (!by.has(r.vehicle_id)) by.set(r.vehicle_id, []);
-      by.get(r.vehicle_id)!.push(cornerState(r, lives));
+      by.get(r.vehicle_id)!.push(cornerState(r, lives, cfg.inspectionThreshold));
     }
     return { by, rows, lives };
   }
@@ -275,7 +276,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       if (Object.keys(fields).length) throw AppError.badRequest('Some corners do not exist on this vehicle.', fields);
       const computed = body.corners.map((c) => {
         const r = rows.find((x) => x.position === c.position)!;
-        const st = cornerState(r, lives);
+        const st = cornerState(r, lives, cfg.inspectionThreshold);
         const est = c.adhesionPct === null ? { dampingNsPerM: null, note: null } : estimateDamping(cornerParams(r), c.adhesionPct);
         return { c, r, st, est };
       });
@@ -458,7 +459,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       const vm = new Map(meta.map((m) => [m.id, m]));
       const items = [];
       for (const r of rows) {
-        const st = cornerState(r, lives);
+        const st = cornerState(r, lives, cfg.inspectionThreshold);
         let date: string | null = st.endOfLifeDate;
         let basis = 'wear model: end-of-life date';
         if (!date) {
