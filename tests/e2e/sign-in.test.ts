@@ -106,8 +106,10 @@ describe('session', () => {
     const page = await context.newPage();
     await signIn(page, server.url, DEMO.manager);
     await expectHeading(page, 'Due inspections');
-    // Responses still in flight would set the (rolling) session cookie again.
+    // The session ends on the server (as when it expires), and the browser forgets its cookie;
+    // ending it on the server too means a response still in flight cannot revive it.
     await page.waitForLoadState('networkidle');
+    await server.db.sequelize.query('DELETE FROM sessions');
     await context.clearCookies();
 
     await goViaMenu(page, 'Vehicles');
