@@ -14,6 +14,8 @@
  * @module
  */
 
+import { formatKm } from './wear';
+
 /** Recorded duty needed before a damper's own rate is used for its opening [km]. */
 export const OPENING_MIN_RECORDED_KM = 1000;
 
@@ -38,7 +40,6 @@ export interface Opening {
   basis: string;
 }
 
-const grouped = (x: number) => Math.round(x).toLocaleString('en-GB');
 
 export function estimateOpening(i: OpeningInput): Opening {
   const km = Math.max(0, i.odometerKm - i.installedOdometerKm - i.recordedKm);
@@ -52,7 +53,7 @@ export function estimateOpening(i: OpeningInput): Opening {
     energyJ: km * energyPerKm,
     springDamage: km * springPerKm,
     basis: own
-      ? `${grouped(km)} km on the odometer since fitting that no trip on record covers, at this damper's own recorded rate (${rate} over ${grouped(i.dutyKm)} km)`
-      : `${grouped(km)} km on the odometer since fitting that no trip on record covers, at its spec's reference rate (${rate}: ISO 8608 class B at 80 km/h; fewer than ${grouped(OPENING_MIN_RECORDED_KM)} km on record)`,
+      ? `${formatKm(km)} on the odometer since fitting that no trip on record covers, at this damper's own recorded rate (${rate} over ${formatKm(i.dutyKm)})`
+      : `${formatKm(km)} on the odometer since fitting that no trip on record covers, at its spec's reference rate (${rate}: ISO 8608 class B at 80 km/h; fewer than ${formatKm(OPENING_MIN_RECORDED_KM)} on record)`,
   };
 }

@@ -6,11 +6,9 @@ import { allow, currentUser } from '../http/access';
 import { idParam, parse } from '../http/validate';
 import { inspectionService } from '../inspections/service';
 import { CAUTION_TEXT } from '../mail/templates';
-import { DAMPING_AT_END_OF_LIFE, DUTY_WINDOW_DAYS } from './wear';
+import { DAMPING_AT_END_OF_LIFE, DUTY_WINDOW_DAYS, formatKm } from './wear';
 import { wearReadRepository } from './read-repository';
 import { OPENING_MIN_RECORDED_KM } from './opening';
-
-const formatKm = (km: number) => `${Math.round(km).toLocaleString('en-GB')} km`;
 
 export function registerWearRoutes(r: Router, deps: { sequelize: Sequelize; config: Config }) {
   const repo = wearReadRepository(deps.sequelize);

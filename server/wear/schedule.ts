@@ -16,7 +16,7 @@
  */
 import { addMonths, parseISO } from 'date-fns';
 import type { InspectionTrigger } from '../db/nightly-models';
-import { daysBetween, plusDays } from './wear';
+import { daysBetween, formatKm, plusDays } from './wear';
 
 export interface ScheduleRules {
   /** Inspection threshold as a fraction of life [1]. */
@@ -62,7 +62,7 @@ export type ScheduleDecision =
 export type InspectionStatusOpen = 'scheduled' | 'due' | 'overdue';
 
 const pct = (x: number) => `${Math.round(x * 100)} %`;
-const km = (x: number) => `${Math.round(x).toLocaleString('en-GB')} km`;
+const km = formatKm;
 const fmtDay = (s: string) => s;
 
 /** Status of an open inspection on `today`. */

@@ -34,6 +34,9 @@ export interface LifeEnergy {
 /** Resolves the life energy of a damper; issue 6 can wrap this to use a fleet-fitted life. */
 export type LifeResolver = (input: { damperId: number; corner: CornerParams; ratedDamperLifeKm: number }) => LifeEnergy;
 
+/** A distance for the words the wear area writes: `12,345 km`. */
+export const formatKm = (km: number) => `${Math.round(km).toLocaleString('en-GB')} km`;
+
 const ratedCache = new Map<string, LifeEnergy>();
 
 /**
@@ -48,7 +51,7 @@ export const ratedLife: LifeResolver = ({ corner, ratedDamperLifeKm }) => {
     life = Object.freeze({
       energyJ: ratedLifeEnergyJ(corner, { km: ratedDamperLifeKm }),
       source: 'rated',
-      note: `rated life: energy dissipated over ${Math.round(ratedDamperLifeKm).toLocaleString('en-GB')} km of ISO 8608 class B road at 80 km/h`,
+      note: `rated life: energy dissipated over ${formatKm(ratedDamperLifeKm)} of ISO 8608 class B road at 80 km/h`,
     });
     ratedCache.set(key, life);
   }
