@@ -34,6 +34,8 @@ export default defineConfig({
           environment: 'node',
           testTimeout: 90_000,
           hookTimeout: 120_000,
+          // A browser on a busy two-core host can take more than expect.poll's default second.
+          expect: { poll: { timeout: 10_000 } },
           fileParallelism: false,
         },
       },
