@@ -63,7 +63,7 @@ const add = (counts: Record<string, number>, key: string, n: number) => {
 
 /**
  * Phase 1: every unprocessed trip → duty records, in batches of whole vehicles. Pipelined: while
- * one batch is being written, the next ones are read and computed (on worker threads when
+ * one batch is being written, the next one is read and computed (on worker threads when
  * `ctx.dutyWorkers` > 0). Batches commit one at a time, in order.
  */
 export async function processTrips(ctx: PhaseContext) {
@@ -130,40 +130,16 @@ export async function processTrips(ctx: PhaseContext) {
   if (fallback) ctx.warn?.(fallback);
   let done = 0;
   let committed = 0;
-  // the batch being written; settles to null or to the error of its transaction
-  let storing: Promise<Error | null> | null = null;
-  let storingTrips = 0;
-  let storingCounts = { trips: 0, dutyRecords: 0, segments: 0, tripErrors: 0 };
-  const settle = async () => {
-    if (!storing) return;
-    const err = await storing;
-    storing = null;
-    if (err) throw err;
-    committed++;
-    add(ctx.counts, 'batches', 1);
-    add(ctx.counts, 'trips', storingCounts.trips);
-    add(ctx.counts, 'dutyRecords', storingCounts.dutyRecords);
-    add(ctx.counts, 'segments', storingCounts.segments);
-    add(ctx.counts, 'tripErrors', storingCounts.tripErrors);
-    done += storingTrips;
-    await ctx.progress('duty', done, totalTrips);
-    if (ctx.failAfterBatches !== undefined && committed >= ctx.failAfterBatches) {
-      throw new Error(`injected failure after ${committed} batch(es)`);
-    }
-  };
-  // read and compute batch i; started as soon as the previous computation is done, so the
+  // read and compute batch i; the next one starts as soon as this computation is done, so the
   // threads computing never wait for the database
-  const prepare = (i: number) => {
-    const p = load(batches[i]).then(async ({ works, tripCount }) => ({ works, tripCount, results: await runner.compute(works) }));
-    p.catch(() => {}); // awaited in turn; not an unhandled rejection if the run stops first
-    return p;
+  const read = async (prev: { index: number } | null) => {
+    const index = prev ? prev.index + 1 : 0;
+    if (index >= batches.length) return null;
+    const { works, tripCount } = await load(batches[index]);
+    return { index, works, tripCount, results: await runner.compute(works) };
   };
   try {
-    let next = prepare(0);
-    for (let b = 0; b < batches.length; b++) {
-      checkAbort(ctx.signal);
-      const { works, tripCount, results } = await next;
-      if (b + 1 < batches.length) next = prepare(b + 1);
+    await readAheadWriteBehind(ctx.signal, read, async ({ works, tripCount, results }) => {
       const duties = [];
       const wear = [];
       const processed: number[] = [];
@@ -179,19 +155,21 @@ export async function processTrips(ctx: PhaseContext) {
         segments += r.segments;
         tripErrors += r.errors.length;
       }
-      await settle();
-      checkAbort(ctx.signal);
-      storingTrips = tripCount;
-      storing = repo.storeBatch({ duties, wear, processedTripIds: processed, now: ctx.now, runId: 0 }).then(
-        () => null,
-        (e: unknown) => (e instanceof Error ? e : new Error(String(e))),
-      );
-      storingCounts = { trips: processed.length, dutyRecords: duties.length, segments, tripErrors };
-    }
-    await settle();
+      await repo.storeBatch({ duties, wear, processedTripIds: processed, now: ctx.now, runId: 0 });
+      // counted once committed
+      committed++;
+      add(ctx.counts, 'batches', 1);
+      add(ctx.counts, 'trips', processed.length);
+      add(ctx.counts, 'dutyRecords', duties.length);
+      add(ctx.counts, 'segments', segments);
+      add(ctx.counts, 'tripErrors', tripErrors);
+      done += tripCount;
+      await ctx.progress('duty', done, totalTrips);
+      if (ctx.failAfterBatches !== undefined && committed >= ctx.failAfterBatches) {
+        throw new Error(`injected failure after ${committed} batch(es)`);
+      }
+    });
   } finally {
-    // never leave a transaction running behind a thrown error
-    if (storing) await (storing as Promise<Error | null>);
     const st = runner.stats();
     add(ctx.counts, 'closedFormSolves', st.solves);
     add(ctx.counts, 'profileSimulations', st.simulations);
@@ -229,6 +207,7 @@ async function readAheadWriteBehind<T>(signal: AbortSignal | undefined, read: (p
       await settle();
       checkAbort(signal);
       writing = write(item);
+      writing.catch(() => {}); // awaited by the next settle; a failed write is thrown from there
     }
     await settle();
   } finally {
