@@ -4,7 +4,7 @@
  * fleet fits the nightly budget; everything returns plain objects.
  */
 import type { Sequelize, Transaction } from 'sequelize';
-import { inList, insertRows, runSql, selectRows } from '../db/raw';
+import { JSON_ROWS, fromJsonRows, inList, insertRows, jsonRows, runSql, selectRows } from '../db/raw';
 import type { CornerParams } from '../physics/types';
 import type { AxleInput, DamperSpan, DutyRecord, RouteInput, SegmentInput, TripInput, WearDelta } from './duty';
 import type { Prediction, WearDayRow, WearSummary } from './wear';
@@ -36,7 +36,6 @@ export function startOfLocalDay(day: string, timeZone: string): Date {
   return new Date(guess.getTime() - (wall - guess.getTime()));
 }
 
-const CHUNK_ROWS = 400;
 
 export interface VehiclePlan {
   vehicleId: number;
@@ -183,14 +182,14 @@ export function wearRepository(sequelize: Sequelize) {
           const ids = batch.processedTripIds.slice(i, i + 5000);
           await runSql(sequelize, `UPDATE trips SET processed_at = ?, updated_at = ? WHERE id IN (${inList(ids)})`, [stamp, stamp], t);
         }
-        for (let i = 0; i < batch.wear.length; i += CHUNK_ROWS) {
-          const part = batch.wear.slice(i, i + CHUNK_ROWS);
+        for (let i = 0; i < batch.wear.length; i += JSON_ROWS) {
+          const part = batch.wear.slice(i, i + JSON_ROWS);
           await runSql(
             sequelize,
-            `WITH d(id, first) AS (VALUES ${part.map(() => '(?, ?)').join(',')})
+            `WITH d AS (${fromJsonRows(['id', 'first'])})
              UPDATE dampers SET wear_dirty_from = CASE WHEN wear_dirty_from IS NULL OR wear_dirty_from > d.first THEN d.first ELSE wear_dirty_from END
              FROM d WHERE dampers.id = d.id`,
-            part.flatMap((w) => [w.damperId, w.firstDay]),
+            [jsonRows(part.map((w) => [w.damperId, w.firstDay]))],
             t,
           );
         }
@@ -278,13 +277,13 @@ export function wearRepository(sequelize: Sequelize) {
     ) {
       const stamp = sqlDate(now);
       await sequelize.transaction(async (t) => {
-        for (let i = 0; i < openings.length; i += CHUNK_ROWS) {
-          const part = openings.slice(i, i + CHUNK_ROWS);
+        for (let i = 0; i < openings.length; i += JSON_ROWS) {
+          const part = openings.slice(i, i + JSON_ROWS);
           await runSql(
             sequelize,
-            `WITH o(id, km, e, f, b) AS (VALUES ${part.map(() => '(?, ?, ?, ?, ?)').join(',')})
+            `WITH o AS (${fromJsonRows(['id', 'km', 'e', 'f', 'b'])})
              UPDATE dampers SET opening_km = o.km, opening_energy_j = o.e, opening_spring_damage = o.f, opening_basis = o.b FROM o WHERE dampers.id = o.id`,
-            part.flatMap((x) => [x.damperId, x.km, x.energyJ, x.springDamage, x.basis]),
+            [jsonRows(part.map((x) => [x.damperId, x.km, x.energyJ, x.springDamage, x.basis]))],
             t,
           );
         }
@@ -301,14 +300,14 @@ export function wearRepository(sequelize: Sequelize) {
           rows.map((r) => [r.damperId, r.day, r.vehicleId, r.distanceKm, r.energyJ, r.springDamage, r.cumEnergyJ, r.cumSpringDamage, r.lifeEnergyJ, r.lifeUsedFraction, r.dampingNsPerM]),
           t,
         );
-        for (let i = 0; i < totals.length; i += CHUNK_ROWS) {
-          const part = totals.slice(i, i + CHUNK_ROWS);
+        for (let i = 0; i < totals.length; i += JSON_ROWS) {
+          const part = totals.slice(i, i + JSON_ROWS);
           await runSql(
             sequelize,
-            `WITH d(id, e, f, u, c) AS (VALUES ${part.map(() => '(?, ?, ?, ?, ?)').join(',')})
+            `WITH d AS (${fromJsonRows(['id', 'e', 'f', 'u', 'c'])})
              UPDATE dampers SET energy_j = d.e, fatigue_damage = d.f, life_used_fraction = d.u, damping_ns_per_m = d.c, wear_updated_at = ?, updated_at = ?, wear_dirty_from = NULL
              FROM d WHERE dampers.id = d.id`,
-            [...part.flatMap((x) => [x.damperId, x.energyJ, x.springDamage, x.lifeUsedFraction, x.dampingNsPerM]), stamp, stamp],
+            [jsonRows(part.map((x) => [x.damperId, x.energyJ, x.springDamage, x.lifeUsedFraction, x.dampingNsPerM])), stamp, stamp],
             t,
           );
         }
@@ -336,7 +335,7 @@ export function wearRepository(sequelize: Sequelize) {
       const rows = await q<{
         damper_id: number; we: number; wkm: number; wd: number; th_day: string | null; eol_day: string | null; sp_day: string | null; cum_energy_j: number; cum_spring_damage: number;
       }>(
-        `WITH t(id, ws, eth, eend) AS (VALUES ${targets.map(() => '(?, ?, ?, ?)').join(',')}),
+        `WITH t AS (${fromJsonRows(['id', 'ws', 'eth', 'eend'])}),
          s AS (
            SELECT w.damper_id,
                   SUM(CASE WHEN w.day >= t.ws THEN w.energy_j ELSE 0 END) AS we,
@@ -350,7 +349,7 @@ export function wearRepository(sequelize: Sequelize) {
            GROUP BY w.damper_id)
          SELECT s.damper_id, s.we, s.wkm, s.wd, s.th_day, s.eol_day, s.sp_day, l.cum_energy_j, l.cum_spring_damage
          FROM s JOIN damper_wear_days l ON l.damper_id = s.damper_id AND l.day = s.last_day`,
-        [...targets.flatMap((t) => [t.damperId, t.windowStart, t.thresholdJ, t.endOfLifeJ]), springLevel, asOf],
+        [jsonRows(targets.map((t) => [t.damperId, t.windowStart, t.thresholdJ, t.endOfLifeJ])), springLevel, asOf],
       );
       for (const r of rows) {
         out.set(r.damper_id, {
