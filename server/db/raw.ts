@@ -17,7 +17,7 @@ import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 
 interface RawSqlite {
   all(sql: string, params: unknown[], cb: (err: Error | null, rows: unknown[]) => void): void;
-  run(sql: string, params: unknown[], cb: (err: Error | null) => void): void;
+  run(sql: string, params: unknown[], cb: (this: { changes?: number }, err: Error | null) => void): void;
 }
 
 const isRaw = (c: unknown): c is RawSqlite => !!c && typeof (c as RawSqlite).all === 'function' && typeof (c as RawSqlite).run === 'function';
@@ -36,14 +36,22 @@ export async function selectRows<T extends object>(sequelize: Sequelize, sql: st
   return new Promise<T[]>((resolve, reject) => conn.all(sql, params, (err, rows) => (err ? reject(err) : resolve(rows as T[]))));
 }
 
-/** A statement that returns no rows (INSERT, UPDATE, DELETE) with positional `?` parameters. */
-export async function runSql(sequelize: Sequelize, sql: string, params: unknown[] = [], transaction?: Transaction): Promise<void> {
+/**
+ * A statement that returns no rows (INSERT, UPDATE, DELETE) with positional `?` parameters.
+ * Resolves to the number of rows it changed.
+ */
+export async function runSql(sequelize: Sequelize, sql: string, params: unknown[] = [], transaction?: Transaction): Promise<number> {
   const conn = await connectionOf(sequelize, transaction);
   if (!conn) {
-    await sequelize.query(sql, { replacements: params as never, transaction });
-    return;
+    const [, meta] = await sequelize.query(sql, { replacements: params as never, transaction });
+    return Number((meta as { changes?: number } | null)?.changes ?? 0);
   }
-  await new Promise<void>((resolve, reject) => conn.run(sql, params, (err) => (err ? reject(err) : resolve())));
+  return new Promise<number>((resolve, reject) =>
+    conn.run(sql, params, function (this: { changes?: number }, err) {
+      if (err) reject(err);
+      else resolve(this.changes ?? 0);
+    }),
+  );
 }
 
 /** A value as SQL literal text (numbers, strings, null); for values the same on every row. */

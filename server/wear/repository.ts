@@ -4,10 +4,10 @@
  * fleet fits the nightly budget; everything returns plain objects.
  */
 import type { Sequelize, Transaction } from 'sequelize';
-import { JSON_ROWS, fromJsonRows, inList, insertRows, jsonRows, runSql, selectRows } from '../db/raw';
+import { JSON_ROWS, fromJsonRows, inList, insertRows, jsonRows, runSql, selectRows, sqlLiteral } from '../db/raw';
 import type { CornerParams } from '../physics/types';
 import type { AxleInput, DamperSpan, DutyRecord, RouteInput, SegmentInput, TripInput, WearDelta } from './duty';
-import type { Prediction, WearDayRow, WearSummary } from './wear';
+import { DAMPING_AT_END_OF_LIFE, type Prediction, type WearDayRow, type WearSummary } from './wear';
 
 /** Sequelize's SQLite text form of a date (`2026-11-30 12:00:00.000 +00:00`). */
 export function sqlDate(d: Date): string {
@@ -48,6 +48,17 @@ export interface SpecAxles {
 }
 
 /** What the wear and prediction phases need of a damper: its ids, installation day and its spec axle's corner. */
+/** Where a dirty damper's wear is accumulated from, and against what. */
+export interface WearStart {
+  damperId: number;
+  vehicleId: number;
+  /** Cumulative wear on the last day kept (or the opening wear, or none). */
+  energyJ: number;
+  springDamage: number;
+  lifeEnergyJ: number;
+  nominalDampingNsPerM: number;
+}
+
 export interface DamperContext {
   id: number;
   vehicleId: number;
@@ -249,16 +260,6 @@ export function wearRepository(sequelize: Sequelize) {
       return out;
     },
 
-    /** Daily duty sums of dirty dampers from their dirty day on. */
-    async dailyDutyFromDirty(ids: number[]) {
-      return q<{ damper_id: number; trip_date: string; distance_km: number; energy_j: number; spring_damage: number }>(
-        `SELECT td.damper_id, td.trip_date, SUM(td.distance_km) AS distance_km, SUM(td.energy_j) AS energy_j, SUM(td.spring_damage) AS spring_damage
-         FROM trip_duties td JOIN dampers d ON d.id = td.damper_id
-         WHERE td.damper_id IN (${inList(ids)}) AND td.trip_date >= d.wear_dirty_from
-         GROUP BY td.damper_id, td.trip_date ORDER BY td.damper_id, td.trip_date`,
-      );
-    },
-
     /** The last stored wear day before each dirty damper's dirty day. */
     async wearBeforeDirty(ids: number[]) {
       return q<{ damper_id: number; cum_energy_j: number; cum_spring_damage: number }>(
@@ -267,15 +268,21 @@ export function wearRepository(sequelize: Sequelize) {
       );
     },
 
-    /** Replaces dirty dampers' wear days from their dirty day on and updates their totals, clearing the mark. */
-    async storeWear(
-      rows: WearDayRow[],
-      totals: { damperId: number; energyJ: number; springDamage: number; lifeUsedFraction: number; dampingNsPerM: number }[],
-      ids: number[],
-      now: Date,
-      openings: { damperId: number; km: number; energyJ: number; springDamage: number; basis: string }[] = [],
-    ) {
+    /**
+     * Replaces dirty dampers' wear days from their dirty day on and updates their totals, clearing
+     * the mark; stores new opening estimates first. Each damper's daily duty sums are accumulated
+     * in SQL onto its starting wear (the last day kept, or the opening wear), against its life
+     * energy: the same sums as {@link accumulateDays} in wear.ts, without carrying every
+     * damper-day through this thread and back (a test checks the two agree).
+     */
+    async storeWear(dampers: WearStart[], now: Date, openings: { damperId: number; km: number; energyJ: number; springDamage: number; basis: string }[] = []) {
       const stamp = sqlDate(now);
+      const ids = inList(dampers.map((d) => d.damperId));
+      const start = jsonRows(dampers.map((d) => [d.damperId, d.vehicleId, d.energyJ, d.springDamage, d.lifeEnergyJ, d.nominalDampingNsPerM]));
+      const startCols = ['id', 'vehicle_id', 'e0', 'f0', 'life', 'c0'];
+      // estimatedDamping(c0, u) of wear.ts
+      let wearDays = 0;
+      const damping = (c0: string, u: string) => `${c0} * (1 - ${sqlLiteral(1 - DAMPING_AT_END_OF_LIFE)} * MIN(1, MAX(0, ${u})))`;
       await sequelize.transaction(async (t) => {
         for (let i = 0; i < openings.length; i += JSON_ROWS) {
           const part = openings.slice(i, i + JSON_ROWS);
@@ -289,29 +296,43 @@ export function wearRepository(sequelize: Sequelize) {
         }
         await runSql(
           sequelize,
-          `DELETE FROM damper_wear_days WHERE rowid IN (SELECT w.rowid FROM damper_wear_days w JOIN dampers d ON d.id = w.damper_id WHERE d.id IN (${inList(ids)}) AND w.day >= d.wear_dirty_from)`,
+          `DELETE FROM damper_wear_days WHERE rowid IN (SELECT w.rowid FROM damper_wear_days w JOIN dampers d ON d.id = w.damper_id WHERE d.id IN (${ids}) AND w.day >= d.wear_dirty_from)`,
           [],
           t,
         );
-        await insertRows(
+        wearDays = await runSql(
           sequelize,
-          'damper_wear_days',
-          ['damper_id', 'day', 'vehicle_id', 'distance_km', 'energy_j', 'spring_damage', 'cum_energy_j', 'cum_spring_damage', 'life_energy_j', 'life_used_fraction', 'damping_ns_per_m'],
-          rows.map((r) => [r.damperId, r.day, r.vehicleId, r.distanceKm, r.energyJ, r.springDamage, r.cumEnergyJ, r.cumSpringDamage, r.lifeEnergyJ, r.lifeUsedFraction, r.dampingNsPerM]),
+          `INSERT INTO damper_wear_days (damper_id, day, vehicle_id, distance_km, energy_j, spring_damage, cum_energy_j, cum_spring_damage, life_energy_j, life_used_fraction, damping_ns_per_m)
+           WITH p AS (${fromJsonRows(startCols)}),
+           daily AS (
+             SELECT td.damper_id, td.trip_date AS day, SUM(td.distance_km) AS km, SUM(td.energy_j) AS e, SUM(td.spring_damage) AS f
+             FROM trip_duties td JOIN dampers d ON d.id = td.damper_id
+             WHERE td.damper_id IN (${ids}) AND td.trip_date >= d.wear_dirty_from
+             GROUP BY td.damper_id, td.trip_date),
+           cum AS (
+             SELECT daily.*, p.e0 + SUM(daily.e) OVER w AS ce, p.f0 + SUM(daily.f) OVER w AS cf
+             FROM daily JOIN p ON p.id = daily.damper_id
+             WINDOW w AS (PARTITION BY daily.damper_id ORDER BY daily.day ROWS UNBOUNDED PRECEDING))
+           SELECT cum.damper_id, cum.day, p.vehicle_id, cum.km, cum.e, cum.f, cum.ce, cum.cf, p.life, cum.ce / p.life, ${damping('p.c0', 'cum.ce / p.life')}
+           FROM cum JOIN p ON p.id = cum.damper_id`,
+          [start],
           t,
         );
-        for (let i = 0; i < totals.length; i += JSON_ROWS) {
-          const part = totals.slice(i, i + JSON_ROWS);
-          await runSql(
-            sequelize,
-            `WITH d AS (${fromJsonRows(['id', 'e', 'f', 'u', 'c'])})
-             UPDATE dampers SET energy_j = d.e, fatigue_damage = d.f, life_used_fraction = d.u, damping_ns_per_m = d.c, wear_updated_at = ?, updated_at = ?, wear_dirty_from = NULL
-             FROM d WHERE dampers.id = d.id`,
-            [jsonRows(part.map((x) => [x.damperId, x.energyJ, x.springDamage, x.lifeUsedFraction, x.dampingNsPerM])), stamp, stamp],
-            t,
-          );
-        }
+        // totals: the last wear day (recomputed or kept), else the starting wear
+        await runSql(
+          sequelize,
+          `WITH p AS (${fromJsonRows(startCols)}),
+           tot AS (
+             SELECT p.id, COALESCE(l.cum_energy_j, p.e0) AS e, COALESCE(l.cum_spring_damage, p.f0) AS f, p.life, p.c0
+             FROM p LEFT JOIN damper_wear_days l ON l.damper_id = p.id AND l.day = (SELECT MAX(day) FROM damper_wear_days x WHERE x.damper_id = p.id))
+           UPDATE dampers SET energy_j = tot.e, fatigue_damage = tot.f, life_used_fraction = tot.e / tot.life,
+             damping_ns_per_m = ${damping('tot.c0', 'tot.e / tot.life')}, wear_updated_at = ?, updated_at = ?, wear_dirty_from = NULL
+           FROM tot WHERE dampers.id = tot.id`,
+          [start, stamp, stamp],
+          t,
+        );
       });
+      return wearDays;
     },
 
     /** Installed dampers (on non-retired vehicles) in id order, from `afterId`. */

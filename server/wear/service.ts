@@ -9,8 +9,8 @@ import type { AxleInput, RouteInput, SegmentInput, VehicleWork } from './duty';
 import { createDutyRunner } from './duty-pool';
 import { referenceDutyPerKm } from './duty';
 import { estimateOpening, type Opening } from './opening';
-import { accumulateDays, predictFromSummary, predictionWindow, ratedLife, type DayDuty, type LifeResolver, type WearDayRow, type WearSummary } from './wear';
-import { wearRepository } from './repository';
+import { predictFromSummary, predictionWindow, ratedLife, type LifeResolver, type WearSummary } from './wear';
+import { wearRepository, type WearStart } from './repository';
 
 export interface ItemError {
   item: string;
@@ -130,12 +130,23 @@ export async function processTrips(ctx: PhaseContext) {
   if (fallback) ctx.warn?.(fallback);
   let done = 0;
   let committed = 0;
-  // read and compute batch i; the next one starts as soon as this computation is done, so the
-  // threads computing never wait for the database
+  // Read and compute batch i. The read of batch i+1 starts with the computation of batch i, and
+  // its computation as soon as that one is done, so the threads computing do not wait for the
+  // database. (Reads use the shared connection, writes their transaction's own one.)
+  const loads = new Map<number, ReturnType<typeof load>>();
+  const loadAhead = (i: number) => {
+    if (i >= batches.length || loads.has(i)) return;
+    const p = load(batches[i]);
+    p.catch(() => {}); // awaited in turn; not an unhandled rejection if the run stops first
+    loads.set(i, p);
+  };
   const read = async (prev: { index: number } | null) => {
     const index = prev ? prev.index + 1 : 0;
     if (index >= batches.length) return null;
-    const { works, tripCount } = await load(batches[index]);
+    loadAhead(index);
+    loadAhead(index + 1);
+    const { works, tripCount } = await loads.get(index)!;
+    loads.delete(index);
     return { index, works, tripCount, results: await runner.compute(works) };
   };
   try {
@@ -226,25 +237,14 @@ export async function recomputeWear(ctx: PhaseContext) {
     const from = prev ? prev.end : 0;
     if (from >= ids.length) return null;
     const chunk = ids.slice(from, from + (ctx.damperChunk ?? WEAR_CHUNK));
-    const [context, daily, before, openingInputs] = await Promise.all([
-      repo.damperContext(chunk),
-      repo.dailyDutyFromDirty(chunk),
-      repo.wearBeforeDirty(chunk),
-      repo.openingInputs(chunk, ctx.before),
-    ]);
-    return { end: from + chunk.length, context, daily, before, openingInputs };
+    const [context, before, openingInputs] = await Promise.all([repo.damperContext(chunk), repo.wearBeforeDirty(chunk), repo.openingInputs(chunk, ctx.before)]);
+    return { end: from + chunk.length, context, before, openingInputs };
   };
-  await readAheadWriteBehind(ctx.signal, read, async ({ end, context, daily, before, openingInputs }) => {
+  await readAheadWriteBehind(ctx.signal, read, async ({ end, context, before, openingInputs }) => {
     const openingOf = new Map(openingInputs.map((o) => [o.id, o]));
     const openings: (Opening & { damperId: number })[] = [];
-    const byDamper = new Map<number, DayDuty[]>();
-    for (const d of daily) {
-      if (!byDamper.has(d.damper_id)) byDamper.set(d.damper_id, []);
-      byDamper.get(d.damper_id)!.push({ day: d.trip_date, distanceKm: d.distance_km, energyJ: d.energy_j, springDamage: d.spring_damage });
-    }
-    const start = new Map(before.map((b) => [b.damper_id, { cumEnergyJ: b.cum_energy_j, cumSpringDamage: b.cum_spring_damage }]));
-    const rows: WearDayRow[] = [];
-    const totals = [];
+    const kept = new Map(before.map((b) => [b.damper_id, { cumEnergyJ: b.cum_energy_j, cumSpringDamage: b.cum_spring_damage }]));
+    const starts: WearStart[] = [];
     for (const c of context) {
       try {
         const life = resolve({ damperId: c.id, corner: c.corner, ratedDamperLifeKm: c.ratedDamperLifeKm });
@@ -264,22 +264,23 @@ export async function recomputeWear(ctx: PhaseContext) {
           opening = o;
         }
         // the last stored day before the recomputed range, or the opening wear
-        const s = start.get(c.id) ?? (opening ? { cumEnergyJ: opening.energyJ, cumSpringDamage: opening.springDamage } : null);
-        const days = accumulateDays({ damperId: c.id, vehicleId: c.vehicleId }, s, byDamper.get(c.id) ?? [], life.energyJ, c.corner.dampingNsPerM);
-        for (const d of days) rows.push(d);
-        const last = days[days.length - 1];
-        const e = last?.cumEnergyJ ?? s?.cumEnergyJ ?? 0;
-        const f = last?.cumSpringDamage ?? s?.cumSpringDamage ?? 0;
-        const u = e / life.energyJ;
-        totals.push({ damperId: c.id, energyJ: e, springDamage: f, lifeUsedFraction: u, dampingNsPerM: last?.dampingNsPerM ?? c.corner.dampingNsPerM });
+        const s = kept.get(c.id);
+        starts.push({
+          damperId: c.id,
+          vehicleId: c.vehicleId,
+          energyJ: s?.cumEnergyJ ?? opening?.energyJ ?? 0,
+          springDamage: s?.cumSpringDamage ?? opening?.springDamage ?? 0,
+          lifeEnergyJ: life.energyJ,
+          nominalDampingNsPerM: c.corner.dampingNsPerM,
+        });
       } catch (err) {
         ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
       }
     }
-    await repo.storeWear(rows, totals, totals.map((t) => t.damperId), ctx.now, openings);
+    const wearDays = await repo.storeWear(starts, ctx.now, openings);
     add(ctx.counts, 'openingsEstimated', openings.length);
-    add(ctx.counts, 'dampersUpdated', totals.length);
-    add(ctx.counts, 'wearDays', rows.length);
+    add(ctx.counts, 'dampersUpdated', starts.length);
+    add(ctx.counts, 'wearDays', wearDays);
     await ctx.progress('wear', end, ids.length);
   });
 }

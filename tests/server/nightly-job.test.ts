@@ -5,7 +5,7 @@ import { ApiClient, DEMO } from '../support/client';
 import { run } from '../../jobs/nightly';
 import type { Db } from '../../server/db';
 import { sqlDate, wearDayFromDb, wearRepository, type WearDayDb } from '../../server/wear/repository';
-import { daysBetween, predictionWindow, summarizeWear, type WearDayRow } from '../../server/wear/wear';
+import { accumulateDays, daysBetween, predictionWindow, summarizeWear, type WearDayRow } from '../../server/wear/wear';
 
 /**
  * The nightly job end to end on the demo fleet: through the API, twice (idempotent), killed
@@ -266,6 +266,42 @@ describe('nightly job threads', () => {
 });
 
 describe('prediction inputs', () => {
+  it("when the job accumulates wear days in SQL, then each day equals what accumulateDays gives from the damper's daily duty and opening wear", async () => {
+    const repo = wearRepository(A.db.sequelize);
+    const ids = (await A.db.sequelize.query<{ id: number }>(`SELECT DISTINCT damper_id AS id FROM damper_wear_days ORDER BY damper_id LIMIT 60`, { type: QueryTypes.SELECT })).map((r) => r.id);
+    expect(ids.length).toBeGreaterThan(20);
+    const context = await repo.damperContext(ids);
+    let days = 0;
+    for (const c of context) {
+      const stored = (await A.db.sequelize.query<WearDayDb>(`SELECT * FROM damper_wear_days WHERE damper_id = ? ORDER BY day`, { replacements: [c.id], type: QueryTypes.SELECT })).map(wearDayFromDb);
+      const daily = await A.db.sequelize.query<{ day: string; km: number; e: number; f: number }>(
+        `SELECT trip_date AS day, SUM(distance_km) AS km, SUM(energy_j) AS e, SUM(spring_damage) AS f FROM trip_duties WHERE damper_id = ? GROUP BY trip_date ORDER BY trip_date`,
+        { replacements: [c.id], type: QueryTypes.SELECT },
+      );
+      const lifeJ = stored[0].lifeEnergyJ;
+      const start = { cumEnergyJ: c.opening?.energyJ ?? 0, cumSpringDamage: c.opening?.springDamage ?? 0 };
+      const js = accumulateDays({ damperId: c.id, vehicleId: c.vehicleId }, start, daily.map((d) => ({ day: d.day, distanceKm: d.km, energyJ: d.e, springDamage: d.f })), lifeJ, c.corner.dampingNsPerM);
+      expect(stored.map((d) => d.day), `damper ${c.id}`).toEqual(js.map((d) => d.day));
+      const close = (a: number, b: number) => Math.abs(a - b) <= 1e-12 * Math.max(Math.abs(a), Math.abs(b), 1e-300);
+      stored.forEach((d, i) => {
+        const j = js[i];
+        for (const k of ['distanceKm', 'energyJ', 'springDamage', 'cumEnergyJ', 'cumSpringDamage', 'lifeUsedFraction', 'dampingNsPerM'] as const) {
+          expect(close(d[k], j[k]), `damper ${c.id} ${d.day} ${k}: ${d[k]} vs ${j[k]}`).toBe(true);
+        }
+        expect(d.vehicleId).toBe(c.vehicleId);
+      });
+      days += stored.length;
+      // the damper's totals are those of its last day
+      const [tot] = await A.db.sequelize.query<{ energy_j: number; fatigue_damage: number; life_used_fraction: number; damping_ns_per_m: number }>(
+        `SELECT energy_j, fatigue_damage, life_used_fraction, damping_ns_per_m FROM dampers WHERE id = ?`,
+        { replacements: [c.id], type: QueryTypes.SELECT },
+      );
+      const last = js[js.length - 1];
+      expect(close(tot.energy_j, last.cumEnergyJ) && close(tot.fatigue_damage, last.cumSpringDamage) && close(tot.life_used_fraction, last.lifeUsedFraction) && close(tot.damping_ns_per_m, last.dampingNsPerM), `damper ${c.id} totals`).toBe(true);
+    }
+    expect(days).toBeGreaterThan(100);
+  });
+
   it("when the job sums a damper's wear in SQL, then it finds what the history itself gives: window sums, last cumulative wear and the days the levels were reached", async () => {
     const repo = wearRepository(A.db.sequelize);
     const ids = (await A.db.sequelize.query<{ id: number }>(`SELECT DISTINCT damper_id AS id FROM damper_wear_days ORDER BY damper_id LIMIT 60`, { type: QueryTypes.SELECT })).map((r) => r.id);
