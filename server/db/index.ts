@@ -45,21 +45,24 @@ export async function openDb(file: string, opts: { log?: (sql: string) => void }
     define: { underscored: true },
   });
   // Every sqlite3 connection (Sequelize opens one per transaction) waits for the lock rather
-  // than failing at once with SQLITE_BUSY.
+  // than failing at once with SQLITE_BUSY, and syncs as WAL mode allows: at checkpoints, not at
+  // every commit (a crash or power cut can lose the last commits, never corrupt the file).
+  // These are settings of the connection, not of the file, so each new one gets them.
   const cm = sequelize.connectionManager as unknown as {
-    getConnection: (o?: unknown) => Promise<{ configure(k: 'busyTimeout', ms: number): void; __rb?: boolean }>;
+    getConnection: (o?: unknown) => Promise<{ configure(k: 'busyTimeout', ms: number): void; run(sql: string): void; __rb?: boolean }>;
   };
   const getConnection = cm.getConnection.bind(cm);
   cm.getConnection = async (o?: unknown) => {
     const conn = await getConnection(o);
     if (!conn.__rb) {
       conn.configure('busyTimeout', 15000);
+      // queued on the connection, so it runs before anything the caller sends
+      conn.run('PRAGMA synchronous = NORMAL');
       conn.__rb = true;
     }
     return conn;
   };
   await sequelize.query('PRAGMA journal_mode = WAL');
-  await sequelize.query('PRAGMA synchronous = NORMAL');
   initModels(sequelize);
   initNightlyModels(sequelize);
   initDriverModels(sequelize);
