@@ -130,24 +130,23 @@ export async function processTrips(ctx: PhaseContext) {
   if (fallback) ctx.warn?.(fallback);
   let done = 0;
   let committed = 0;
-  // Read and compute batch i. The read of batch i+1 starts with the computation of batch i, and
-  // its computation as soon as that one is done, so the threads computing do not wait for the
-  // database. (Reads use the shared connection, writes their transaction's own one.)
-  const loads = new Map<number, ReturnType<typeof load>>();
-  const loadAhead = (i: number) => {
-    if (i >= batches.length || loads.has(i)) return;
-    const p = load(batches[i]);
+  // Read and compute batch i. Batch i+1 is read and queued for computing as soon as batch i is
+  // taken, so the threads computing do not wait for the database, nor for a slow write.
+  const prepared = new Map<number, Promise<{ index: number; works: VehicleWork[]; tripCount: number; results: Awaited<ReturnType<typeof runner.compute>> }>>();
+  const prepare = (i: number) => {
+    if (i >= batches.length || prepared.has(i)) return;
+    const p = load(batches[i]).then(async ({ works, tripCount }) => ({ index: i, works, tripCount, results: await runner.compute(works) }));
     p.catch(() => {}); // awaited in turn; not an unhandled rejection if the run stops first
-    loads.set(i, p);
+    prepared.set(i, p);
   };
   const read = async (prev: { index: number } | null) => {
     const index = prev ? prev.index + 1 : 0;
     if (index >= batches.length) return null;
-    loadAhead(index);
-    loadAhead(index + 1);
-    const { works, tripCount } = await loads.get(index)!;
-    loads.delete(index);
-    return { index, works, tripCount, results: await runner.compute(works) };
+    prepare(index);
+    prepare(index + 1);
+    const item = await prepared.get(index)!;
+    prepared.delete(index);
+    return item;
   };
   try {
     await readAheadWriteBehind(ctx.signal, read, async ({ works, tripCount, results }) => {
