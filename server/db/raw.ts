@@ -14,6 +14,9 @@
  * job's thread, reading the JSON costs SQLite a fraction of that on its own thread.
  */
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { joinJsonRows, jsonRows } from './json-rows';
+
+export { joinJsonRows, jsonRows };
 
 interface RawSqlite {
   all(sql: string, params: unknown[], cb: (err: Error | null, rows: unknown[]) => void): void;
@@ -65,36 +68,7 @@ export function sqlLiteral(v: string | number | null): string {
 }
 
 /**
- * One value as JSON text that SQLite reads back as exactly the value sqlite3 would have bound:
- * integers (up to 2^53) in plain digits, other numbers with 17 significant digits. The shortest
- * form JavaScript writes is not always read back to the same double by SQLite's number parser
- * (one unit in the last place off, now and then); 17 digits are.
- */
-function jsonValue(v: unknown): string {
-  if (v === null || v === undefined) return 'null';
-  if (typeof v === 'number') {
-    if (!Number.isFinite(v)) throw new Error(`not a finite number: ${v}`);
-    return Number.isInteger(v) && Math.abs(v) <= Number.MAX_SAFE_INTEGER ? String(v) : v.toPrecision(17);
-  }
-  if (typeof v === 'string') return JSON.stringify(v);
-  if (typeof v === 'boolean') return v ? '1' : '0';
-  throw new Error(`not a number, text or null: ${typeof v}`);
-}
-
-/** Rows as one JSON array of arrays, for {@link fromJsonRows}. */
-export function jsonRows(rows: readonly (readonly unknown[])[]): string {
-  let s = '[';
-  for (let r = 0; r < rows.length; r++) {
-    const row = rows[r];
-    s += r ? ',[' : '[';
-    for (let k = 0; k < row.length; k++) s += k ? ',' + jsonValue(row[k]) : jsonValue(row[k]);
-    s += ']';
-  }
-  return s + ']';
-}
-
-/**
- * A row set read from one JSON parameter made by {@link jsonRows}:
+ * A row set read from one JSON parameter made by {@link jsonRows} (json-rows.ts):
  * `SELECT value->>0 AS a, … FROM jsonb_each(?)`. One parameter instead of one per value: binding
  * costs about a microsecond per value on the calling thread, while SQLite reads the text on its
  * own thread in a fraction of that. Needs SQLite 3.45 or later (the one sqlite3 bundles is newer).
@@ -105,24 +79,51 @@ export const fromJsonRows = (names: readonly string[], literals: readonly (reado
 /** Rows per JSON parameter (a few megabytes of text). */
 export const JSON_ROWS = 5000;
 
+type InsertOptions = { orReplace?: boolean; fixed?: Record<string, string | number | null> };
+
+const insertSql = (table: string, cols: string[], opts: InsertOptions) => {
+  const fixed = Object.entries(opts.fixed ?? {});
+  return `INSERT ${opts.orReplace ? 'OR REPLACE ' : ''}INTO ${table} (${[...cols, ...fixed.map(([k]) => k)].join(',')}) ${fromJsonRows(cols, fixed)}`;
+};
+
 /**
  * INSERT (optionally OR REPLACE) of `rows`, each in `cols` order, from JSON parameters of
  * {@link JSON_ROWS} rows. `fixed` columns take the same value on every row and go into the
  * statement as literals.
  */
-export async function insertRows(
-  sequelize: Sequelize,
-  table: string,
-  cols: string[],
-  rows: unknown[][],
-  transaction?: Transaction,
-  opts: { orReplace?: boolean; fixed?: Record<string, string | number | null> } = {},
-): Promise<void> {
-  const fixed = Object.entries(opts.fixed ?? {});
-  const sql = `INSERT ${opts.orReplace ? 'OR REPLACE ' : ''}INTO ${table} (${[...cols, ...fixed.map(([k]) => k)].join(',')}) ${fromJsonRows(cols, fixed)}`;
+export async function insertRows(sequelize: Sequelize, table: string, cols: string[], rows: unknown[][], transaction?: Transaction, opts: InsertOptions = {}): Promise<void> {
+  const sql = insertSql(table, cols, opts);
   for (let i = 0; i < rows.length; i += JSON_ROWS) {
     await runSql(sequelize, sql, [jsonRows(rows.slice(i, i + JSON_ROWS))], transaction);
   }
+}
+
+/**
+ * {@link insertRows} of rows already packed as {@link jsonRows} texts (`count` rows each), joined
+ * into parameters of about {@link JSON_ROWS} rows.
+ */
+export async function insertPackedRows(
+  sequelize: Sequelize,
+  table: string,
+  cols: string[],
+  packed: readonly { json: string; count: number }[],
+  transaction?: Transaction,
+  opts: InsertOptions = {},
+): Promise<void> {
+  const sql = insertSql(table, cols, opts);
+  let part: string[] = [];
+  let n = 0;
+  const flush = async () => {
+    if (n) await runSql(sequelize, sql, [joinJsonRows(part)], transaction);
+    part = [];
+    n = 0;
+  };
+  for (const p of packed) {
+    part.push(p.json);
+    n += p.count;
+    if (n >= JSON_ROWS) await flush();
+  }
+  await flush();
 }
 
 /** A comma-separated list of integer ids for an `IN (…)` clause (`NULL` when empty). */

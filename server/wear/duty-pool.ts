@@ -5,12 +5,12 @@
  * its own inputs and on cache entries that are the same for the same key.
  */
 import { Worker } from 'node:worker_threads';
-import { computeVehicleDuty, DutyCache, type RouteInput, type VehicleDutyResult, type VehicleWork } from './duty';
+import { computeVehicleDuty, DutyCache, packDuty, type PackedDutyResult, type RouteInput, type VehicleWork } from './duty';
 import type { FromWorker, ToWorker } from './duty-worker';
 
 export interface DutyRunner {
-  /** Duty of each vehicle, in the order given. */
-  compute(works: VehicleWork[]): Promise<VehicleDutyResult[]>;
+  /** Duty of each vehicle, in the order given, packed for the database. */
+  compute(works: VehicleWork[]): Promise<PackedDutyResult[]>;
   /** Closed-form solves and profile simulations so far, summed over threads. */
   stats(): { solves: number; simulations: number };
   /** Threads computing (0 = the job's own). */
@@ -24,7 +24,7 @@ export function inProcessDutyRunner(routes: Map<number, RouteInput>): DutyRunner
   return {
     workers: 0,
     async compute(works) {
-      return works.map((w) => computeVehicleDuty(w, routes, cache));
+      return works.map((w) => packDuty(computeVehicleDuty(w, routes, cache)));
     },
     stats: () => ({ solves: cache.solves, simulations: cache.simulations }),
     async close() {},
@@ -35,7 +35,7 @@ const READY_TIMEOUT_MS = 30_000;
 
 class DutyWorker {
   private readonly worker: Worker;
-  private readonly pending = new Map<number, { resolve: (r: VehicleDutyResult[]) => void; reject: (e: Error) => void }>();
+  private readonly pending = new Map<number, { resolve: (r: PackedDutyResult[]) => void; reject: (e: Error) => void }>();
   private nextId = 1;
   private dead: Error | null = null;
   solves = 0;
@@ -78,7 +78,7 @@ class DutyWorker {
     this.worker.postMessage({ type: 'init', routes } satisfies ToWorker);
   }
 
-  compute(works: VehicleWork[]): Promise<VehicleDutyResult[]> {
+  compute(works: VehicleWork[]): Promise<PackedDutyResult[]> {
     if (this.dead) return Promise.reject(this.dead);
     const id = this.nextId++;
     return new Promise((resolve, reject) => {

@@ -4,12 +4,12 @@
  * `duty-worker-boot.mjs` (which loads TypeScript); pure computation, no database.
  */
 import { parentPort } from 'node:worker_threads';
-import { computeVehicleDuty, DutyCache, type RouteInput, type VehicleDutyResult, type VehicleWork } from './duty';
+import { computeVehicleDuty, DutyCache, packDuty, type PackedDutyResult, type RouteInput, type VehicleWork } from './duty';
 
 export type ToWorker = { type: 'init'; routes: RouteInput[] } | { type: 'batch'; id: number; works: VehicleWork[] };
 export type FromWorker =
   | { type: 'ready' }
-  | { type: 'done'; id: number; results: VehicleDutyResult[]; solves: number; simulations: number }
+  | { type: 'done'; id: number; results: PackedDutyResult[]; solves: number; simulations: number }
   | { type: 'failed'; id: number; message: string };
 
 if (parentPort) {
@@ -23,7 +23,7 @@ if (parentPort) {
     }
     let reply: FromWorker;
     try {
-      const results = msg.works.map((w) => computeVehicleDuty(w, routes, cache));
+      const results = msg.works.map((w) => packDuty(computeVehicleDuty(w, routes, cache)));
       reply = { type: 'done', id: msg.id, results, solves: cache.solves, simulations: cache.simulations };
     } catch (err) {
       reply = { type: 'failed', id: msg.id, message: (err as Error).message };

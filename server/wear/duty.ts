@@ -36,6 +36,7 @@ import { cornerTransfer } from '../physics/quarter-car';
 import { prepareSimulation, type PreparedSimulation } from '../physics/simulate';
 import { dirlikDamage, type SnCurve, type SpectralMoments } from '../physics/fatigue';
 import { rainflowDamage, simulateTravel } from './fast-sim';
+import { jsonRows } from '../db/json-rows';
 import { ISO8608_N0, gdForClass } from '../physics/iso8608';
 import { STANDARD_GRAVITY, type CornerParams } from '../physics/types';
 
@@ -166,6 +167,34 @@ export interface VehicleDutyResult {
   /** Per-trip problems (the trip is skipped, the rest goes on). */
   errors: { tripId: number; message: string }[];
   segments: number;
+}
+
+/** The columns of a stored duty record (table `trip_duties`), in {@link dutyRow} order. */
+export const TRIP_DUTY_COLUMNS = [
+  'trip_id', 'vehicle_id', 'damper_id', 'route_id', 'driver_id', 'position', 'axle_index', 'trip_date', 'distance_km', 'duration_s',
+  'sprung_mass_kg', 'energy_j', 'mean_power_w', 'rms_relative_velocity', 'rms_suspension_travel', 'rms_tire_load_ratio', 'rms_body_accel',
+  'rms_weighted_accel', 'spring_damage', 'segments', 'profiled_segments', 'unrated_segments',
+];
+
+/** A duty record's values in {@link TRIP_DUTY_COLUMNS} order. */
+export const dutyRow = (d: DutyRecord) => [
+  d.tripId, d.vehicleId, d.damperId, d.routeId, d.driverId, d.position, d.axleIndex, d.tripDate, d.distanceKm, d.durationS,
+  d.sprungMassKg, d.energyJ, d.meanPowerW, d.rmsRelativeVelocity, d.rmsSuspensionTravel, d.rmsTireLoadRatio, d.rmsBodyAccel,
+  d.rmsWeightedAccel, d.springDamage, d.segments, d.profiledSegments, d.unratedSegments,
+];
+
+/**
+ * A vehicle's duty as it travels to the database: the records already written as JSON rows
+ * ({@link TRIP_DUTY_COLUMNS}), on the thread that computed them, so the job's thread only passes
+ * the text on (no copy of every record between threads, no formatting on the job's thread).
+ */
+export interface PackedDutyResult extends Omit<VehicleDutyResult, 'duties'> {
+  dutyRows: string;
+  dutyCount: number;
+}
+
+export function packDuty(r: VehicleDutyResult): PackedDutyResult {
+  return { dutyRows: jsonRows(r.duties.map(dutyRow)), dutyCount: r.duties.length, wear: r.wear, errors: r.errors, segments: r.segments };
 }
 
 /** Positions of an axle's two corners. */

@@ -4,9 +4,9 @@
  * fleet fits the nightly budget; everything returns plain objects.
  */
 import type { Sequelize, Transaction } from 'sequelize';
-import { JSON_ROWS, fromJsonRows, inList, insertRows, jsonRows, runSql, selectRows, sqlLiteral } from '../db/raw';
+import { JSON_ROWS, fromJsonRows, inList, insertPackedRows, insertRows, jsonRows, runSql, selectRows, sqlLiteral } from '../db/raw';
 import type { CornerParams } from '../physics/types';
-import type { AxleInput, DamperSpan, DutyRecord, RouteInput, SegmentInput, TripInput, WearDelta } from './duty';
+import { TRIP_DUTY_COLUMNS, type AxleInput, type DamperSpan, type RouteInput, type SegmentInput, type TripInput, type WearDelta } from './duty';
 import { DAMPING_AT_END_OF_LIFE, type Prediction, type WearDayRow, type WearSummary } from './wear';
 
 /** Sequelize's SQLite text form of a date (`2026-11-30 12:00:00.000 +00:00`). */
@@ -175,20 +175,10 @@ export function wearRepository(sequelize: Sequelize) {
      * Stores one batch in one transaction: the duty records, the trips' processed mark and
      * the dampers' "recompute from" day. A crash before COMMIT leaves none of it.
      */
-    async storeBatch(batch: { duties: DutyRecord[]; wear: WearDelta[]; processedTripIds: number[]; now: Date; runId: number }) {
+    async storeBatch(batch: { duties: { json: string; count: number }[]; wear: WearDelta[]; processedTripIds: number[]; now: Date; runId: number }) {
       const stamp = sqlDate(batch.now);
       await sequelize.transaction(async (t) => {
-        const cols = [
-          'trip_id', 'vehicle_id', 'damper_id', 'route_id', 'driver_id', 'position', 'axle_index', 'trip_date', 'distance_km', 'duration_s',
-          'sprung_mass_kg', 'energy_j', 'mean_power_w', 'rms_relative_velocity', 'rms_suspension_travel', 'rms_tire_load_ratio', 'rms_body_accel',
-          'rms_weighted_accel', 'spring_damage', 'segments', 'profiled_segments', 'unrated_segments',
-        ];
-        const rows = batch.duties.map((d) => [
-          d.tripId, d.vehicleId, d.damperId, d.routeId, d.driverId, d.position, d.axleIndex, d.tripDate, d.distanceKm, d.durationS,
-          d.sprungMassKg, d.energyJ, d.meanPowerW, d.rmsRelativeVelocity, d.rmsSuspensionTravel, d.rmsTireLoadRatio, d.rmsBodyAccel,
-          d.rmsWeightedAccel, d.springDamage, d.segments, d.profiledSegments, d.unratedSegments,
-        ]);
-        await insertRows(sequelize, 'trip_duties', cols, rows, t, { fixed: { job_run_id: null, created_at: stamp, updated_at: stamp } });
+        await insertPackedRows(sequelize, 'trip_duties', TRIP_DUTY_COLUMNS, batch.duties, t, { fixed: { job_run_id: null, created_at: stamp, updated_at: stamp } });
         for (let i = 0; i < batch.processedTripIds.length; i += 5000) {
           const ids = batch.processedTripIds.slice(i, i + 5000);
           await runSql(sequelize, `UPDATE trips SET processed_at = ?, updated_at = ? WHERE id IN (${inList(ids)})`, [stamp, stamp], t);

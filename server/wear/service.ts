@@ -151,6 +151,7 @@ export async function processTrips(ctx: PhaseContext) {
   try {
     await readAheadWriteBehind(ctx.signal, read, async ({ works, tripCount, results }) => {
       const duties = [];
+      let dutyRecords = 0;
       const wear = [];
       const processed: number[] = [];
       let segments = 0;
@@ -160,7 +161,8 @@ export async function processTrips(ctx: PhaseContext) {
         for (const e of r.errors) ctx.errors.push({ item: `trip ${e.tripId}`, message: e.message });
         const failed = new Set(r.errors.map((e) => e.tripId));
         for (const t of works[i].trips) if (!failed.has(t.id)) processed.push(t.id);
-        for (const d of r.duties) duties.push(d);
+        duties.push({ json: r.dutyRows, count: r.dutyCount });
+        dutyRecords += r.dutyCount;
         for (const w of r.wear) wear.push(w);
         segments += r.segments;
         tripErrors += r.errors.length;
@@ -170,7 +172,7 @@ export async function processTrips(ctx: PhaseContext) {
       committed++;
       add(ctx.counts, 'batches', 1);
       add(ctx.counts, 'trips', processed.length);
-      add(ctx.counts, 'dutyRecords', duties.length);
+      add(ctx.counts, 'dutyRecords', dutyRecords);
       add(ctx.counts, 'segments', segments);
       add(ctx.counts, 'tripErrors', tripErrors);
       done += tripCount;

@@ -3,6 +3,8 @@ import {
   computeVehicleDuty,
   cornerPayloadKg,
   DutyCache,
+  dutyRow,
+  TRIP_DUTY_COLUMNS,
   FRONT_AXLE_PAYLOAD_SHARE,
   travelMoments,
   type RouteInput,
@@ -212,8 +214,15 @@ describe('duty on worker threads', () => {
       expect(runner.workers).toBe(2);
       const threaded = await runner.compute(works);
       const local = await inProcessDutyRunner(routes).compute(works);
-      expect(threaded.map((r) => r.duties.length)).toEqual(works.map((w) => 4 * w.trips.length));
+      expect(threaded.map((r) => r.dutyCount)).toEqual(works.map((w) => 4 * w.trips.length));
       expect(threaded).toEqual(local);
+      // the packed rows are the records, value for value, in the table's column order
+      for (const [i, w] of works.entries()) {
+        const records = computeVehicleDuty(w, routes, new DutyCache()).duties;
+        expect(records.length).toBeGreaterThan(0);
+        expect(JSON.parse(threaded[i].dutyRows)).toEqual(records.map(dutyRow));
+      }
+      expect(TRIP_DUTY_COLUMNS).toHaveLength(dutyRow(computeVehicleDuty(works[0], routes, new DutyCache()).duties[0]).length);
       expect(runner.stats().simulations).toBeGreaterThan(0);
     } finally {
       await runner.close();
