@@ -270,8 +270,8 @@ export function wearRepository(sequelize: Sequelize) {
       const ids = inList(dampers.map((d) => d.damperId));
       const start = jsonRows(dampers.map((d) => [d.damperId, d.vehicleId, d.energyJ, d.springDamage, d.lifeEnergyJ, d.nominalDampingNsPerM]));
       const startCols = ['id', 'vehicle_id', 'e0', 'f0', 'life', 'c0'];
-      // estimatedDamping(c0, u) of wear.ts
       let wearDays = 0;
+      // estimatedDamping(c0, u) of wear.ts
       const damping = (c0: string, u: string) => `${c0} * (1 - ${sqlLiteral(1 - DAMPING_AT_END_OF_LIFE)} * MIN(1, MAX(0, ${u})))`;
       await sequelize.transaction(async (t) => {
         for (let i = 0; i < openings.length; i += JSON_ROWS) {

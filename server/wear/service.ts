@@ -63,7 +63,7 @@ const add = (counts: Record<string, number>, key: string, n: number) => {
 
 /**
  * Phase 1: every unprocessed trip → duty records, in batches of whole vehicles. Pipelined: while
- * one batch is being written, the next one is read and computed (on worker threads when
+ * one batch is being written, the next two are read and computed (on worker threads when
  * `ctx.dutyWorkers` > 0). Batches commit one at a time, in order.
  */
 export async function processTrips(ctx: PhaseContext) {
