@@ -4,6 +4,7 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openDb, type Db } from '../../../server/db';
 import { fromJsonRows, insertRows, jsonRows, runSql, selectRows } from '../../../server/db/raw';
+import { seededRandom } from '../../../server/physics/iso8608';
 
 /**
  * The nightly job's bulk writes send rows as one JSON parameter instead of one bound parameter
@@ -25,20 +26,8 @@ describe('bulk rows through one JSON parameter', () => {
     fs.rmSync(dir, { recursive: true, force: true });
   });
 
-  // a seeded generator, so a failure can be replayed (mulberry32)
-  function random(seed: number) {
-    let a = seed >>> 0;
-    return () => {
-      a = (a + 0x6d2b79f5) >>> 0;
-      let t = a;
-      t = Math.imul(t ^ (t >>> 15), t | 1);
-      t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-      return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-    };
-  }
-
   it('when 12 000 rows of random doubles, integers, text and nulls are inserted, then every stored value equals the one sqlite3 binds', async () => {
-    const rnd = random(20261202);
+    const rnd = seededRandom(20261202); // seeded, so a failure can be replayed
     const texts = ['plain', "it's", 'a "quoted" word', 'back\\slash', 'line\nbreak', 'Ølstykke — 5 %', '😀', ''];
     const rows: unknown[][] = [];
     for (let i = 1; i <= 12_000; i++) {
