@@ -121,15 +121,17 @@ describe('drivers on a phone (390 × 844)', () => {
 
   it('when a driver opens their exposure, then the chart shows the action and limit values with the screening caution', async () => {
     const [driver] = await q<{ id: number }>('SELECT id FROM users WHERE email = ?', [DEMO.driver]);
-    const trips = await q<{ id: number; vehicle_id: number; route_id: number; started_at: string }>('SELECT id, vehicle_id, route_id, started_at FROM trips WHERE driver_id = ? ORDER BY started_at DESC LIMIT 12', [driver!.id]);
+    // 24 days of driving; from the 9th day back on, rough enough to be above the action value
+    const trips = await q<{ id: number; vehicle_id: number; route_id: number; started_at: string }>('SELECT id, vehicle_id, route_id, started_at FROM trips WHERE driver_id = ? ORDER BY started_at DESC LIMIT 24', [driver!.id]);
+    expect(trips).toHaveLength(24);
     const now = new Date().toISOString();
     for (const [i, t] of trips.entries()) {
-      const day = new Date(Date.parse('2026-11-29T00:00:00Z') - i * 2 * 86_400_000).toISOString().slice(0, 10);
+      const day = new Date(Date.parse('2026-11-29T00:00:00Z') - i * 86_400_000).toISOString().slice(0, 10);
       for (const pos of ['FL', 'FR']) {
         await server.db.sequelize.query(
           `INSERT INTO trip_duties (trip_id, vehicle_id, route_id, driver_id, position, axle_index, trip_date, distance_km, duration_s, sprung_mass_kg, energy_j, mean_power_w, rms_relative_velocity, rms_suspension_travel, rms_tire_load_ratio, rms_body_accel, rms_weighted_accel, spring_damage, segments, profiled_segments, unrated_segments, created_at, updated_at)
            VALUES (?, ?, ?, ?, ?, 0, ?, 60, ?, 400, 1, 1, 0.1, 0.01, 0.1, 1, ?, 0, 1, 0, 0, ?, ?)`,
-          { replacements: [t.id, t.vehicle_id, t.route_id, driver!.id, pos, day, 3600 * (3 + (i % 4)), 0.35 + 0.05 * (i % 6), now, now] },
+          { replacements: [t.id, t.vehicle_id, t.route_id, driver!.id, pos, day, 3600 * (3 + (i % 4)), i >= 8 ? 1.0 : 0.35 + 0.05 * (i % 6), now, now] },
         );
       }
     }
@@ -150,7 +152,16 @@ describe('drivers on a phone (390 × 844)', () => {
     await mp.goto(`${server.url}/exposure`);
     await expectHeading(mp, 'Drivers’ vibration exposure');
     await mp.getByRole('heading', { name: /Days above the action value/ }).waitFor();
+    // the 15 highest days first, the rest on request
+    const days = mp.getByRole('table', { name: 'Days above the action value' });
+    const above = Number((await mp.getByRole('heading', { name: /Days above the action value/ }).innerText()).match(/\((\d+)\)/)![1]);
+    expect(above).toBeGreaterThanOrEqual(16);
+    expect(await days.locator('tbody tr').count()).toBe(15);
+    const a8s = (await days.locator('tbody tr td:nth-child(3)').allInnerTexts()).map(Number);
+    expect(a8s).toEqual([...a8s].sort((x, y) => y - x));
     await mp.screenshot({ path: screenshotPath('drivers-desktop-exposure-overview'), fullPage: true });
+    await mp.getByRole('button', { name: `Show all ${above} days` }).click();
+    await expect.poll(() => days.locator('tbody tr').count()).toBe(above);
     await mctx.close();
   });
 

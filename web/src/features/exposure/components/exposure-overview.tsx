@@ -10,10 +10,14 @@ import { ExposureCaution } from './exposure-caution';
 import { ExposureStatusBadge } from './exposure-status';
 import { DriverExposure } from './my-exposure';
 
+/** Rows of the days-above list shown before "show all". */
+const DAYS_SHOWN = 15;
+
 /** The manager's view: every driver, the days above the action value, and what contributes most. */
 export function ExposureOverview() {
   const q = useExposureOverview({});
   const [driverId, setDriverId] = useState<number | null>(null);
+  const [allDays, setAllDays] = useState(false);
   if (q.isPending) return <LoadingState label="Loading drivers’ exposure…" />;
   if (q.error) return <ErrorState error={q.error} what="drivers’ exposure" onRetry={() => void q.refetch()} />;
   const d = q.data;
@@ -30,26 +34,6 @@ export function ExposureOverview() {
       <p className="text-sm text-slate">
         {formatDate(d.from)} – {formatDate(d.to)}. Dose = a_w² × hours, the quantity A(8) adds up.
       </p>
-      <Section title={`Days above the action value (${d.daysAbove.length})`}>
-        {d.daysAbove.length ? (
-          <SimpleTable
-            label="Days above the action value"
-            rows={d.daysAbove}
-            getRowKey={(r) => `${r.driverId}-${r.day}`}
-            columns={[
-              { key: 'day', header: 'Day', cell: (r) => formatDate(r.day) },
-              { key: 'name', header: 'Driver', rowHeader: true, cell: (r) => r.name },
-              { key: 'a8', header: 'A(8)', unit: 'm/s²', numeric: true, cell: (r) => formatNumber(r.a8, 2) },
-              { key: 'st', header: 'Against the values', cell: (r) => <ExposureStatusBadge a8={r.a8} action={d.actionValue} limit={d.limitValue} /> },
-              { key: 'h', header: 'Driving', unit: 'h', numeric: true, cell: (r) => formatNumber(r.hours, 1) },
-              { key: 'route', header: 'Main route', cell: (r) => r.topRoute ?? '—' },
-              { key: 'veh', header: 'Vehicle', cell: (r) => r.topVehicle ?? '—' },
-            ]}
-          />
-        ) : (
-          <p className="text-sm text-slate">No driver’s day was above the action value of {d.actionValue} m/s² in this period.</p>
-        )}
-      </Section>
       <Section title="Drivers">
         {d.drivers.length ? (
           <SimpleTable
@@ -74,6 +58,34 @@ export function ExposureOverview() {
             <DriverExposure driverId={driverId} />
           </div>
         ) : null}
+      </Section>
+      <Section title={`Days above the action value (${d.daysAbove.length})`}>
+        {d.daysAbove.length ? (
+          <>
+            <p className="mb-2 text-sm text-slate">Highest A(8) first{d.daysAbove.length > DAYS_SHOWN && !allDays ? `; the ${DAYS_SHOWN} highest of ${d.daysAbove.length} shown` : ''}.</p>
+            <SimpleTable
+              label="Days above the action value"
+              rows={allDays ? d.daysAbove : d.daysAbove.slice(0, DAYS_SHOWN)}
+              getRowKey={(r) => `${r.driverId}-${r.day}`}
+              columns={[
+                { key: 'day', header: 'Day', cell: (r) => formatDate(r.day) },
+                { key: 'name', header: 'Driver', rowHeader: true, cell: (r) => r.name },
+                { key: 'a8', header: 'A(8)', unit: 'm/s²', numeric: true, cell: (r) => formatNumber(r.a8, 2) },
+                { key: 'st', header: 'Against the values', cell: (r) => <ExposureStatusBadge a8={r.a8} action={d.actionValue} limit={d.limitValue} /> },
+                { key: 'h', header: 'Driving', unit: 'h', numeric: true, cell: (r) => formatNumber(r.hours, 1) },
+                { key: 'route', header: 'Main route', cell: (r) => r.topRoute ?? '—' },
+                { key: 'veh', header: 'Vehicle', cell: (r) => r.topVehicle ?? '—' },
+              ]}
+            />
+            {d.daysAbove.length > DAYS_SHOWN ? (
+              <Button className="mt-2" size="sm" variant="quiet" onClick={() => setAllDays((v) => !v)} aria-expanded={allDays}>
+                {allDays ? `Show the ${DAYS_SHOWN} highest only` : `Show all ${d.daysAbove.length} days`}
+              </Button>
+            ) : null}
+          </>
+        ) : (
+          <p className="text-sm text-slate">No driver’s day was above the action value of {d.actionValue} m/s² in this period.</p>
+        )}
       </Section>
       <div className="mt-8 grid gap-4 xl:grid-cols-2">
         <div>
