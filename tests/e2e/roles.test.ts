@@ -60,6 +60,11 @@ describe('each role lands on its own page and sees only what it may use', () => 
     await page.getByRole('heading', { name: 'Vehicles by status' }).waitFor();
     await page.getByText('In service', { exact: true }).first().waitFor();
     await page.getByRole('table', { name: /Depots/ }).waitFor();
+    // the inspections coming due, as the due list counts them
+    const counts = (await (await page.request.get(`${server.url}/api/inspections/due`)).json()).counts as Record<string, number>;
+    const inspections = page.getByRole('region', { name: 'Inspections' });
+    await expect.poll(() => inspections.locator('.tabular').allInnerTexts()).toEqual([counts.overdue, counts.due, counts.next30].map(String));
+    expect(counts.due + counts.next30).toBeGreaterThan(0);
     await fullPageScreenshot(page, 'manager-desktop-fleet');
 
     for (const [link, title, shot] of [

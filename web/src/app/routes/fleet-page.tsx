@@ -4,7 +4,6 @@ import { Button } from '@/components/ui/button';
 import { type Depot, useDepots } from '@/features/depots/api/get-depots';
 import { DepotFormDialog } from '@/features/depots/components/depot-form';
 import { ButtonLink } from '@/components/ui/button';
-import { EmptyState } from '@/components/ui/empty-state';
 import { ErrorState } from '@/components/ui/error-state';
 import { FigureCard } from '@/components/ui/figure-card';
 import { LoadingState } from '@/components/ui/loading-state';
@@ -15,6 +14,7 @@ import { DepotsTable } from '@/features/depots/components/depots-table';
 import { VEHICLE_STATUSES } from '@/features/vehicles/api/get-vehicles';
 import { vehicleStatusLabels, vehicleStatusTones } from '@/features/vehicles/components/vehicle-status-badge';
 import { useVehicleCounts } from '@/features/vehicles/hooks/use-vehicle-counts';
+import { useDueInspections } from '@/features/inspections/api/get-due-inspections';
 import { formatNumber } from '@/lib/format';
 import { pages } from '../navigation';
 
@@ -24,10 +24,12 @@ const statusNotes = {
   retired: 'Kept for their history; not driven.',
 };
 
-/** The fleet manager's start page: the fleet at a glance, by status and by depot. */
+/** The fleet at a glance: vehicles by status, inspections coming due, depots. */
 export function FleetPage() {
   const counts = useVehicleCounts();
   const depots = useDepots();
+  const due = useDueInspections(null);
+  const dc = due.data?.counts;
   const [depotForm, setDepotForm] = useState<{ open: boolean; depot?: Depot }>({ open: false });
   const list = depots.data?.items ?? [];
   const near: [number, number] = list.length ? [list.reduce((s, d) => s + d.lat, 0) / list.length, list.reduce((s, d) => s + d.lon, 0) / list.length] : [52.56, -1.4];
@@ -37,7 +39,7 @@ export function FleetPage() {
       <title>Fleet · Reboundry</title>
       <PageHeader
         title="Fleet"
-        description="Your vehicles by status and depot. Inspections that come due will be listed here too."
+        description="Your vehicles by status and depot, and the inspections coming due."
         actions={
           <ButtonLink to={pages.vehicles.path} variant="primary">
             Open the vehicles table
@@ -71,12 +73,29 @@ export function FleetPage() {
         )}
       </Section>
 
-      <Section title="Inspections">
-        <EmptyState title="Due and overdue inspections will be listed here">
-          Once the nightly wear run is switched on, vehicles with a damper nearing its inspection point appear here, overdue
-          first, each with the reason. Until then, each vehicle&rsquo;s page shows its booked inspections and the distance
-          on each damper.
-        </EmptyState>
+      <Section
+        title="Inspections"
+        actions={
+          <ButtonLink to={pages.due.path} size="sm">
+            Open the due list
+          </ButtonLink>
+        }
+      >
+        {due.error ? (
+          <ErrorState error={due.error} what="the due inspections" onRetry={() => void due.refetch()} />
+        ) : (
+          <div className="grid gap-3 sm:grid-cols-3">
+            <FigureCard icon={<StatusShape tone="overdue" />} label="Overdue" value={dc ? formatNumber(dc.overdue) : '…'} unit={dc?.overdue === 1 ? 'vehicle' : 'vehicles'} footer="Past the due date." />
+            <FigureCard icon={<StatusShape tone="due" />} label="Due now" value={dc ? formatNumber(dc.due) : '…'} unit={dc?.due === 1 ? 'vehicle' : 'vehicles'} footer="Due within the next few days." />
+            <FigureCard
+              icon={<StatusShape tone="watch" />}
+              label="Next 30 days"
+              value={dc ? formatNumber(dc.next30) : '…'}
+              unit={dc?.next30 === 1 ? 'vehicle' : 'vehicles'}
+              footer="From predicted wear and the interval rule."
+            />
+          </div>
+        )}
       </Section>
 
       <Section
