@@ -69,12 +69,12 @@ export function sqlLiteral(v: string | number | null): string {
 
 /**
  * A row set read from one JSON parameter made by {@link jsonRows} (json-rows.ts):
- * `SELECT value->>0 AS a, … FROM jsonb_each(?)`. One parameter instead of one per value: binding
+ * `SELECT value->>0 AS a, … FROM jsonb_each(?)` (or a numbered `param` such as `?1`). One parameter instead of one per value: binding
  * costs about a microsecond per value on the calling thread, while SQLite reads the text on its
  * own thread in a fraction of that. Needs SQLite 3.45 or later (the one sqlite3 bundles is newer).
  */
-export const fromJsonRows = (names: readonly string[], literals: readonly (readonly [string, string | number | null])[] = []) =>
-  `SELECT ${[...names.map((n, i) => `value->>${i} AS ${n}`), ...literals.map(([n, v]) => `${sqlLiteral(v)} AS ${n}`)].join(', ')} FROM jsonb_each(?)`;
+export const fromJsonRows = (names: readonly string[], literals: readonly (readonly [string, string | number | null])[] = [], param = '?') =>
+  `SELECT ${[...names.map((n, i) => `value->>${i} AS ${n}`), ...literals.map(([n, v]) => `${sqlLiteral(v)} AS ${n}`)].join(', ')} FROM jsonb_each(${param})`;
 
 /** Rows per JSON parameter (a few megabytes of text). */
 export const JSON_ROWS = 5000;

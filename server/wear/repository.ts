@@ -338,7 +338,10 @@ export function wearRepository(sequelize: Sequelize) {
      * Per damper, what its prediction rests on ({@link WearSummary}), from its wear days up to
      * `asOf`: window sums from the damper's own window start, the cumulative wear on its last
      * day, and the first days its cumulative energy reached the given levels [J] (and its
-     * spring damage reached `springLevel`). One aggregate query per call.
+     * spring damage reached `springLevel`). One query per call that reads each damper's window
+     * and last day through the (damper, day) key; the first days are looked up only for dampers
+     * whose last day has reached the level (cumulative wear never falls), so the nightly cost
+     * does not grow with the length of the history.
      */
     async wearSummaries(targets: { damperId: number; windowStart: string; thresholdJ: number; endOfLifeJ: number }[], springLevel: number, asOf: string) {
       const out = new Map<number, WearSummary>();
@@ -346,21 +349,25 @@ export function wearRepository(sequelize: Sequelize) {
       const rows = await q<{
         damper_id: number; we: number; wkm: number; wd: number; th_day: string | null; eol_day: string | null; sp_day: string | null; cum_energy_j: number; cum_spring_damage: number;
       }>(
-        `WITH t AS (${fromJsonRows(['id', 'ws', 'eth', 'eend'])}),
+        `WITH t AS (${fromJsonRows(['id', 'ws', 'eth', 'eend'], [], '?1')}),
+         l AS (
+           SELECT t.*, w.cum_energy_j, w.cum_spring_damage
+           FROM t JOIN damper_wear_days w ON w.damper_id = t.id
+             AND w.day = (SELECT MAX(x.day) FROM damper_wear_days x WHERE x.damper_id = t.id AND x.day <= ?2)),
          s AS (
-           SELECT w.damper_id,
-                  SUM(CASE WHEN w.day >= t.ws THEN w.energy_j ELSE 0 END) AS we,
-                  SUM(CASE WHEN w.day >= t.ws THEN w.distance_km ELSE 0 END) AS wkm,
-                  SUM(CASE WHEN w.day >= t.ws THEN w.spring_damage ELSE 0 END) AS wd,
-                  MAX(w.day) AS last_day,
-                  MIN(CASE WHEN w.cum_energy_j >= t.eth THEN w.day END) AS th_day,
-                  MIN(CASE WHEN w.cum_energy_j >= t.eend THEN w.day END) AS eol_day,
-                  MIN(CASE WHEN w.cum_spring_damage >= ? THEN w.day END) AS sp_day
-           FROM t JOIN damper_wear_days w ON w.damper_id = t.id AND w.day <= ?
+           SELECT w.damper_id, SUM(w.energy_j) AS we, SUM(w.distance_km) AS wkm, SUM(w.spring_damage) AS wd
+           FROM t JOIN damper_wear_days w ON w.damper_id = t.id AND w.day >= t.ws AND w.day <= ?2
            GROUP BY w.damper_id)
-         SELECT s.damper_id, s.we, s.wkm, s.wd, s.th_day, s.eol_day, s.sp_day, l.cum_energy_j, l.cum_spring_damage
-         FROM s JOIN damper_wear_days l ON l.damper_id = s.damper_id AND l.day = s.last_day`,
-        [jsonRows(targets.map((t) => [t.damperId, t.windowStart, t.thresholdJ, t.endOfLifeJ])), springLevel, asOf],
+         SELECT l.id AS damper_id, COALESCE(s.we, 0) AS we, COALESCE(s.wkm, 0) AS wkm, COALESCE(s.wd, 0) AS wd,
+                CASE WHEN l.cum_energy_j >= l.eth
+                  THEN (SELECT MIN(x.day) FROM damper_wear_days x WHERE x.damper_id = l.id AND x.day <= ?2 AND x.cum_energy_j >= l.eth) END AS th_day,
+                CASE WHEN l.cum_energy_j >= l.eend
+                  THEN (SELECT MIN(x.day) FROM damper_wear_days x WHERE x.damper_id = l.id AND x.day <= ?2 AND x.cum_energy_j >= l.eend) END AS eol_day,
+                CASE WHEN l.cum_spring_damage >= ?3
+                  THEN (SELECT MIN(x.day) FROM damper_wear_days x WHERE x.damper_id = l.id AND x.day <= ?2 AND x.cum_spring_damage >= ?3) END AS sp_day,
+                l.cum_energy_j, l.cum_spring_damage
+         FROM l LEFT JOIN s ON s.damper_id = l.id`,
+        [jsonRows(targets.map((t) => [t.damperId, t.windowStart, t.thresholdJ, t.endOfLifeJ])), asOf, springLevel],
       );
       for (const r of rows) {
         out.set(r.damper_id, {
