@@ -36,7 +36,6 @@ export function startOfLocalDay(day: string, timeZone: string): Date {
   return new Date(guess.getTime() - (wall - guess.getTime()));
 }
 
-
 export interface VehiclePlan {
   vehicleId: number;
   trips: number;
@@ -47,7 +46,6 @@ export interface SpecAxles {
   axles: AxleInput[];
 }
 
-/** What the wear and prediction phases need of a damper: its ids, installation day and its spec axle's corner. */
 /** Where a dirty damper's wear is accumulated from, and against what. */
 export interface WearStart {
   damperId: number;
@@ -59,6 +57,7 @@ export interface WearStart {
   nominalDampingNsPerM: number;
 }
 
+/** What the wear and prediction phases need of a damper: its ids, installation day and its spec axle's corner. */
 export interface DamperContext {
   id: number;
   vehicleId: number;

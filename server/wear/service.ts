@@ -244,7 +244,7 @@ export async function recomputeWear(ctx: PhaseContext) {
   await readAheadWriteBehind(ctx.signal, read, async ({ end, context, before, openingInputs }) => {
     const openingOf = new Map(openingInputs.map((o) => [o.id, o]));
     const openings: (Opening & { damperId: number })[] = [];
-    const kept = new Map(before.map((b) => [b.damper_id, { cumEnergyJ: b.cum_energy_j, cumSpringDamage: b.cum_spring_damage }]));
+    const kept = new Map(before.map((b) => [b.damper_id, b]));
     const starts: WearStart[] = [];
     for (const c of context) {
       try {
@@ -269,8 +269,8 @@ export async function recomputeWear(ctx: PhaseContext) {
         starts.push({
           damperId: c.id,
           vehicleId: c.vehicleId,
-          energyJ: s?.cumEnergyJ ?? opening?.energyJ ?? 0,
-          springDamage: s?.cumSpringDamage ?? opening?.springDamage ?? 0,
+          energyJ: s?.cum_energy_j ?? opening?.energyJ ?? 0,
+          springDamage: s?.cum_spring_damage ?? opening?.springDamage ?? 0,
           lifeEnergyJ: life.energyJ,
           nominalDampingNsPerM: c.corner.dampingNsPerM,
         });

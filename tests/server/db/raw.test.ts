@@ -6,24 +6,44 @@ import { openDb, type Db } from '../../../server/db';
 import { fromJsonRows, insertRows, jsonRows, runSql, selectRows } from '../../../server/db/raw';
 import { seededRandom } from '../../../server/physics/iso8608';
 
+let db: Db;
+let dir: string;
+
+beforeAll(async () => {
+  dir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-raw-'));
+  db = await openDb(path.join(dir, 'raw.sqlite'));
+});
+afterAll(async () => {
+  await db.close();
+  fs.rmSync(dir, { recursive: true, force: true });
+});
+
+/** Sequelize opens a new sqlite3 connection for each transaction; each must get the app's settings. */
+describe('database connections', () => {
+  it('when a transaction runs on its own connection, then it has WAL mode, synchronous NORMAL and foreign keys on, like the shared connection', async () => {
+    const settings = async (t?: Parameters<typeof selectRows>[3]) => ({
+      journal: (await selectRows<{ journal_mode: string }>(db.sequelize, 'PRAGMA journal_mode', [], t))[0].journal_mode,
+      // 1 = NORMAL (2 = FULL, the SQLite default for a new connection)
+      synchronous: (await selectRows<{ synchronous: number }>(db.sequelize, 'PRAGMA synchronous', [], t))[0].synchronous,
+      foreignKeys: (await selectRows<{ foreign_keys: number }>(db.sequelize, 'PRAGMA foreign_keys', [], t))[0].foreign_keys,
+    });
+    const expected = { journal: 'wal', synchronous: 1, foreignKeys: 1 };
+    expect(await settings()).toEqual(expected);
+    for (let i = 0; i < 2; i++) {
+      expect(await db.sequelize.transaction(async (t) => settings(t))).toEqual(expected);
+    }
+  });
+});
+
 /**
  * The nightly job's bulk writes send rows as one JSON parameter instead of one bound parameter
  * per value. What lands in the table must be exactly what binding each value would have stored:
  * the reference here is sqlite3's own parameter binding, on the same connection.
  */
 describe('bulk rows through one JSON parameter', () => {
-  let db: Db;
-  let dir: string;
-
   beforeAll(async () => {
-    dir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-raw-'));
-    db = await openDb(path.join(dir, 'raw.sqlite'));
     await runSql(db.sequelize, 'CREATE TABLE bound (id INTEGER PRIMARY KEY, x REAL, n INTEGER, s TEXT, d DATE, stamp TEXT)');
     await runSql(db.sequelize, 'CREATE TABLE viajson (id INTEGER PRIMARY KEY, x REAL, n INTEGER, s TEXT, d DATE, stamp TEXT)');
-  });
-  afterAll(async () => {
-    await db.close();
-    fs.rmSync(dir, { recursive: true, force: true });
   });
 
   it('when 12 000 rows of random doubles, integers, text and nulls are inserted, then every stored value equals the one sqlite3 binds', async () => {
