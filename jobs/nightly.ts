@@ -22,7 +22,7 @@ import { loadSurveyProfile } from '../server/roads/profile-store';
 import { localDay, startOfLocalDay } from '../server/wear/repository';
 import { predictAll, processTrips, recomputeWear, RunAborted, type ItemError, type PhaseContext } from '../server/wear/service';
 import { plusDays, type LifeResolver } from '../server/wear/wear';
-import { workshopLifeOrRated } from '../server/workshop/nightly-life';
+import { refitAndResolveLife } from '../server/workshop/nightly-life';
 // issue 7: drivers' daily exposure step; importing ride-mail registers the severe-reports digest section
 import { refreshExposure } from '../server/drivers/exposure';
 import '../server/drivers/ride-mail';
@@ -44,7 +44,7 @@ export interface NightlyOptions {
   asOf?: string;
   trigger?: JobTrigger;
   requestedById?: number | null;
-  /** Hook for issue 6: a fleet-fitted life instead of the rated one. */
+  /** A given life for every damper instead of the fleet-fitted models (tools and tests). */
   lifeResolver?: LifeResolver;
   /** Test hook: fail after this many committed batches (simulated crash). */
   failAfterBatches?: number;
@@ -112,9 +112,9 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     dutyWorkers: config.nightlyWorkers,
     warn: (m) => log.warn(`nightly: ${m}`),
     thresholdFraction: config.inspection.threshold,
+    calendarYears: config.workshop.life.calendarYears,
+    scheduleQuantile: config.workshop.life.scheduleQuantile,
     signal: opts.signal,
-    // issue 6: the fleet-blended / test-lane life unless a caller gives its own
-    lifeResolver: opts.lifeResolver ?? (await workshopLifeOrRated(config, log)),
     failAfterBatches: opts.failAfterBatches,
     damperChunk: opts.damperChunk,
     loadProfile: loadSurveyProfile,
@@ -126,6 +126,14 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
   let message: string | null = null;
   try {
     await processTrips(ctx);
+    // the life models are refitted to the removals on record before the wear is summed with them
+    await progress('life models', 0, 1);
+    if (opts.lifeResolver) ctx.lifeResolver = opts.lifeResolver;
+    else {
+      const life = await refitAndResolveLife(config, opts.now, log);
+      ctx.lifeResolver = life.resolver;
+      counts.lifeModelsFitted = life.fitted;
+    }
     await recomputeWear(ctx);
     await predictAll(ctx);
     // issue 7: drivers' daily A(8) from the front-axle duty just stored (queues managers' mail, sent below)

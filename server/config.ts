@@ -42,8 +42,11 @@ const schema = z
       .union([z.literal('auto'), z.coerce.number({ message: "must be a number or 'auto'" }).int('must be a whole number').min(0).max(64)])
       .default('auto'),
     JOB_LOCK_TIMEOUT_MINUTES: z.coerce.number({ message: 'must be a number' }).positive().max(24 * 60).default(30),
-    FLEET_LIFE_MIN_REMOVALS: z.coerce.number({ message: 'must be a number' }).int().min(2, 'must be at least 2').max(10_000).default(5),
-    FLEET_LIFE_CREDIBILITY_K: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(10_000).default(10),
+    DAMPER_CALENDAR_YEARS: z.coerce.number({ message: 'must be a number' }).min(1, 'must be at least 1').max(20, 'must be at most 20').default(6),
+    INSPECTION_QUANTILE: z.coerce.number({ message: 'must be a number' }).gt(0, 'must be above 0').lt(1, 'must be below 1').default(0.5),
+    LIFE_CLASS_STEP_FACTOR: z.coerce.number({ message: 'must be a number' }).min(1, 'must be at least 1').max(2.4, 'must be at most 2.4').default(1.5),
+    LIFE_PRIOR_SHAPE: z.coerce.number({ message: 'must be a number' }).min(1, 'must be at least 1').max(8, 'must be at most 8').default(2.5),
+    LIFE_PRIOR_REMOVALS: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(1000).default(5),
     ATTACHMENT_MAX_MB: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(100).default(8),
     LANE_FLAG_POINTS: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(100).default(15),
     LOG_LEVEL: z.enum(['silent', 'error', 'warn', 'info', 'debug']).default('info'),
@@ -77,8 +80,12 @@ const schema = z
     nightlyWorkers: c.NIGHTLY_WORKERS === 'auto' ? Math.max(1, os.availableParallelism() - 1) : c.NIGHTLY_WORKERS,
     jobLockTimeoutMinutes: c.JOB_LOCK_TIMEOUT_MINUTES,
     workshop: {
-      fleetLifeMinRemovals: c.FLEET_LIFE_MIN_REMOVALS,
-      fleetLifeCredibilityK: c.FLEET_LIFE_CREDIBILITY_K,
+      /** Damper life model (server/reliability/life-model.ts, docs/methods.md "Damper life model"). */
+      life: {
+        calendarYears: c.DAMPER_CALENDAR_YEARS,
+        scheduleQuantile: c.INSPECTION_QUANTILE,
+        prior: { classStepFactor: c.LIFE_CLASS_STEP_FACTOR, shape: c.LIFE_PRIOR_SHAPE, removals: c.LIFE_PRIOR_REMOVALS, sdB: 0.25, sdLogSigma: 0.3 },
+      },
       attachmentMaxBytes: Math.round(c.ATTACHMENT_MAX_MB * 1024 * 1024),
       laneFlagPoints: c.LANE_FLAG_POINTS,
       /** The scheduler's threshold, for the words on each corner (watch from ¾ of it, inspect from it). */

@@ -109,6 +109,9 @@ export class Damper extends Model<Attrs<Damper>, CAttrs<Damper>> {
   declare openingEnergyJ: CreationOptional<number | null>;
   declare openingSpringDamage: CreationOptional<number | null>;
   declare openingBasis: CreationOptional<string | null>;
+  /** Wear km (distance weighted by road severity, recorded and opening) and the road sensitivity its wear days were summed with. */
+  declare wearKm: CreationOptional<number | null>;
+  declare wearExponent: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -338,6 +341,8 @@ export function initModels(sequelize: Sequelize) {
       wearUpdatedAt: { type: DataTypes.DATE, allowNull: true },
       wearDirtyFrom: { type: DataTypes.DATEONLY, allowNull: true },
       openingKm: { type: DataTypes.DOUBLE, allowNull: true },
+      wearKm: { type: DataTypes.DOUBLE, allowNull: true },
+      wearExponent: { type: DataTypes.DOUBLE, allowNull: true },
       openingEnergyJ: { type: DataTypes.DOUBLE, allowNull: true },
       openingSpringDamage: { type: DataTypes.DOUBLE, allowNull: true },
       openingBasis: { type: DataTypes.TEXT, allowNull: true },

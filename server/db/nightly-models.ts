@@ -56,49 +56,14 @@ export class TripDuty extends Model<Attrs<TripDuty>, CAttrs<TripDuty>> {
   declare segments: number;
   declare profiledSegments: number;
   declare unratedSegments: number;
+  /** Rod sliding distance [m] and road severity [1] of the damper's duty measure (server/wear/life-law.ts). */
+  declare slidingM: CreationOptional<number>;
+  declare severity: CreationOptional<number>;
   declare jobRunId: number | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
 
-/** One day of one damper's wear (days with duty only). */
-export class DamperWearDay extends Model<Attrs<DamperWearDay>, CAttrs<DamperWearDay>> {
-  declare damperId: number;
-  declare day: string;
-  declare vehicleId: number;
-  declare distanceKm: number;
-  declare energyJ: number;
-  declare springDamage: number;
-  declare cumEnergyJ: number;
-  declare cumSpringDamage: number;
-  declare lifeEnergyJ: number;
-  declare lifeUsedFraction: number;
-  declare dampingNsPerM: number;
-}
-
-/** The latest prediction of a damper (and its corner's spring), with what it rests on. */
-export class DamperPrediction extends Model<Attrs<DamperPrediction>, CAttrs<DamperPrediction>> {
-  declare damperId: number;
-  declare vehicleId: number;
-  declare asOf: string;
-  declare windowDays: number;
-  declare windowEnergyJ: number;
-  declare windowKm: number;
-  declare rateJPerDay: number;
-  declare lifeEnergyJ: number;
-  declare lifeSource: string;
-  declare energyJ: number;
-  declare lifeUsedFraction: number;
-  declare dampingNsPerM: number;
-  declare thresholdFraction: number;
-  declare thresholdDate: string | null;
-  declare endOfLifeDate: string | null;
-  declare springDamage: number;
-  declare springRatePerDay: number;
-  declare springThresholdDate: string | null;
-  /** JSON text: the assumptions and inputs the prediction rests on. */
-  declare basis: string;
-}
 
 export class JobRun extends Model<Attrs<JobRun>, CAttrs<JobRun>> {
   declare id: CreationOptional<number>;
@@ -188,50 +153,12 @@ export function initNightlyModels(sequelize: Sequelize) {
       segments: { type: DataTypes.INTEGER, allowNull: false },
       profiledSegments: { type: DataTypes.INTEGER, allowNull: false },
       unratedSegments: { type: DataTypes.INTEGER, allowNull: false },
+      slidingM: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
+      severity: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 1 },
       jobRunId: { type: DataTypes.INTEGER, allowNull: true },
       ...ts,
     },
     { ...common, tableName: 'trip_duties' },
-  );
-  DamperWearDay.init(
-    {
-      damperId: { type: DataTypes.INTEGER, primaryKey: true },
-      day: { type: DataTypes.DATEONLY, primaryKey: true },
-      vehicleId: { type: DataTypes.INTEGER, allowNull: false },
-      distanceKm: dbl,
-      energyJ: dbl,
-      springDamage: dbl,
-      cumEnergyJ: dbl,
-      cumSpringDamage: dbl,
-      lifeEnergyJ: dbl,
-      lifeUsedFraction: dbl,
-      dampingNsPerM: dbl,
-    },
-    { ...common, tableName: 'damper_wear_days', timestamps: false },
-  );
-  DamperPrediction.init(
-    {
-      damperId: { type: DataTypes.INTEGER, primaryKey: true },
-      vehicleId: { type: DataTypes.INTEGER, allowNull: false },
-      asOf: { type: DataTypes.DATEONLY, allowNull: false },
-      windowDays: { type: DataTypes.INTEGER, allowNull: false },
-      windowEnergyJ: dbl,
-      windowKm: dbl,
-      rateJPerDay: dbl,
-      lifeEnergyJ: dbl,
-      lifeSource: { type: DataTypes.STRING(20), allowNull: false },
-      energyJ: dbl,
-      lifeUsedFraction: dbl,
-      dampingNsPerM: dbl,
-      thresholdFraction: dbl,
-      thresholdDate: { type: DataTypes.DATEONLY, allowNull: true },
-      endOfLifeDate: { type: DataTypes.DATEONLY, allowNull: true },
-      springDamage: dbl,
-      springRatePerDay: dbl,
-      springThresholdDate: { type: DataTypes.DATEONLY, allowNull: true },
-      basis: { type: DataTypes.TEXT, allowNull: false },
-    },
-    { ...common, tableName: 'damper_predictions', timestamps: false },
   );
   JobRun.init(
     {
@@ -306,8 +233,6 @@ export function initNightlyModels(sequelize: Sequelize) {
   TripDuty.belongsTo(Route, { as: 'route', foreignKey: 'routeId' });
   TripDuty.belongsTo(User, { as: 'driver', foreignKey: 'driverId' });
   Trip.hasMany(TripDuty, { as: 'duties', foreignKey: 'tripId' });
-  Damper.hasMany(DamperWearDay, { as: 'wearDays', foreignKey: 'damperId' });
-  Damper.hasOne(DamperPrediction, { as: 'prediction', foreignKey: 'damperId' });
   JobRun.belongsTo(User, { as: 'requestedBy', foreignKey: 'requestedById' });
   MailMessage.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 }

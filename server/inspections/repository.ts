@@ -48,8 +48,8 @@ export function inspectionRepository(sequelize: Sequelize) {
     },
 
     async forecasts(): Promise<Map<number, CornerForecast[]>> {
-      const rows = await q<{ vehicle_id: number; position: string; life_used_fraction: number; threshold_date: string | null; rate_j_per_day: number; spring_damage: number; spring_threshold_date: string | null }>(
-        `SELECT p.vehicle_id, d.position, p.life_used_fraction, p.threshold_date, p.rate_j_per_day, p.spring_damage, p.spring_threshold_date
+      const rows = await q<{ vehicle_id: number; position: string; life_used_fraction: number; threshold_date: string | null; km_per_day: number; spring_damage: number; spring_threshold_date: string | null }>(
+        `SELECT p.vehicle_id, d.position, p.life_used_fraction, p.threshold_date, p.km_per_day, p.spring_damage, p.spring_threshold_date
          FROM damper_predictions p JOIN dampers d ON d.id = p.damper_id WHERE d.removed_at IS NULL ORDER BY p.vehicle_id, d.position`,
       );
       const out = new Map<number, CornerForecast[]>();
@@ -59,7 +59,7 @@ export function inspectionRepository(sequelize: Sequelize) {
           position: r.position,
           lifeUsedFraction: r.life_used_fraction,
           thresholdDate: r.threshold_date,
-          rateJPerDay: r.rate_j_per_day,
+          kmPerDay: r.km_per_day,
           springDamage: r.spring_damage,
           springThresholdDate: r.spring_threshold_date,
         });

@@ -27,6 +27,7 @@ import { adhesionPct, dampingFromAdhesion } from './adhesion';
 import { dailyA8, exposureStatus, EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE, type ExposureTrip } from './exposure';
 import { PhysicsInputError, validateCorner, type CornerParams } from './types';
 import { weibullCommand } from '../reliability/weibull-cli';
+import { lifeCommand, lifeFitCommand } from '../reliability/life-cli';
 
 /** A usage error (wrong command or flags): exit code 2. */
 export class CliUsageError extends Error {
@@ -47,7 +48,9 @@ const USAGE = `usage: cli <command> [args]
   adhesion --spec <file.json> [--amplitude-mm a]
   damping-from-adhesion --spec <file.json> --adhesion <pct> [--amplitude-mm a]
   exposure --trips <file.json>
-  weibull <file.csv>   (columns life, failed: 1 removal, 0 still running)`;
+  weibull <file.csv>   (columns life, failed: 1 removal, 0 still running)
+  life --spec <file.json> --rated-km <km> (--class C | --gd <m3>) --speed-kmh <v> [--model <fit.json>]
+  life-fit <dampers.csv> --spec <file.json> --rated-km <km>   (columns damper,km,gd,speed_kmh,failed)`;
 
 function readText(path: string, what: string): string {
   try {
@@ -263,6 +266,30 @@ export function runCommand(argv: string[]): unknown {
     case 'weibull': {
       const { positionals } = parse(rest, {}, 1);
       return weibullCommand(readText(positionals[0], 'life data'));
+    }
+    case 'life': {
+      const { values } = parse(
+        rest,
+        { spec: { type: 'string' }, 'rated-km': { type: 'string' }, class: { type: 'string' }, gd: { type: 'string' }, 'speed-kmh': { type: 'string' }, model: { type: 'string' } },
+        0,
+      );
+      const corner = readSpec(str(values.spec));
+      const ratedKm = num(str(values['rated-km']), 'rated-km', 'km');
+      if (!(ratedKm > 0)) throw new PhysicsInputError('rated-km', 'km', `must be above 0, got ${ratedKm}`);
+      const cls = str(values.class);
+      const gdArg = str(values.gd);
+      if ((cls === undefined) === (gdArg === undefined)) throw new CliUsageError('give exactly one of --class <A–H> or --gd <m3>');
+      const gdN0 = cls !== undefined ? gdForClass(cls) : num(gdArg, 'gd', 'm³');
+      const speedKmh = num(str(values['speed-kmh']), 'speed-kmh', 'km/h');
+      const modelPath = str(values.model);
+      return lifeCommand({ corner, ratedKm, gdN0, speedKmh, model: modelPath === undefined ? undefined : readJson(modelPath, 'model') });
+    }
+    case 'life-fit': {
+      const { values, positionals } = parse(rest, { spec: { type: 'string' }, 'rated-km': { type: 'string' } }, 1);
+      const corner = readSpec(str(values.spec));
+      const ratedKm = num(str(values['rated-km']), 'rated-km', 'km');
+      if (!(ratedKm > 0)) throw new PhysicsInputError('rated-km', 'km', `must be above 0, got ${ratedKm}`);
+      return lifeFitCommand(readText(positionals[0], 'dampers'), corner, ratedKm);
     }
     case undefined:
     case '--help':

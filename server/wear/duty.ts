@@ -39,6 +39,7 @@ import { rainflowDamage, simulateTravel } from './fast-sim';
 import { jsonRows } from '../db/json-rows';
 import { ISO8608_N0, gdForClass } from '../physics/iso8608';
 import { STANDARD_GRAVITY, type CornerParams } from '../physics/types';
+import { heatFactor, severityReference, slidingM } from './life-law';
 
 /** Share of the payload on the front axle of a multi-axle spec (assumption, see module doc). */
 export const FRONT_AXLE_PAYLOAD_SHARE = 0.3;
@@ -147,6 +148,10 @@ export interface DutyRecord {
   rmsBodyAccel: number;
   rmsWeightedAccel: number;
   springDamage: number;
+  /** Rod sliding distance over the trip [m] (life-law.ts). */
+  slidingM: number;
+  /** Road severity of the trip [1]: sliding per km × heat factor against the reference road (life-law.ts); unrated stretches count 1. */
+  severity: number;
   segments: number;
   profiledSegments: number;
   unratedSegments: number;
@@ -173,14 +178,14 @@ export interface VehicleDutyResult {
 export const TRIP_DUTY_COLUMNS = [
   'trip_id', 'vehicle_id', 'damper_id', 'route_id', 'driver_id', 'position', 'axle_index', 'trip_date', 'distance_km', 'duration_s',
   'sprung_mass_kg', 'energy_j', 'mean_power_w', 'rms_relative_velocity', 'rms_suspension_travel', 'rms_tire_load_ratio', 'rms_body_accel',
-  'rms_weighted_accel', 'spring_damage', 'segments', 'profiled_segments', 'unrated_segments',
+  'rms_weighted_accel', 'spring_damage', 'segments', 'profiled_segments', 'unrated_segments', 'sliding_m', 'severity',
 ];
 
 /** A duty record's values in {@link TRIP_DUTY_COLUMNS} order. */
 export const dutyRow = (d: DutyRecord) => [
   d.tripId, d.vehicleId, d.damperId, d.routeId, d.driverId, d.position, d.axleIndex, d.tripDate, d.distanceKm, d.durationS,
   d.sprungMassKg, d.energyJ, d.meanPowerW, d.rmsRelativeVelocity, d.rmsSuspensionTravel, d.rmsTireLoadRatio, d.rmsBodyAccel,
-  d.rmsWeightedAccel, d.springDamage, d.segments, d.profiledSegments, d.unratedSegments,
+  d.rmsWeightedAccel, d.springDamage, d.segments, d.profiledSegments, d.unratedSegments, d.slidingM, d.severity,
 ];
 
 /**
@@ -399,6 +404,9 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
         const cornerKey = cornerKeyOf(axle.corner);
         let energy = 0, time = 0, msRel = 0, msTravel = 0, msTire = 0, msAcc = 0, msW = 0, spring = 0;
         let profiled = 0, unrated = 0;
+        // duty measure (life-law.ts): sliding distance, and sliding weighted by the heat factor
+        const ref = severityReference(axle.corner);
+        let sliding = 0, heatedSliding = 0, ratedKm = 0, unratedKm = 0;
         // consecutive segments mostly share a speed band: look the cache up only when it changes
         let lastV = Number.NaN;
         let p: Prepared | null = null;
@@ -408,6 +416,7 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
           const v = speedBand(seg.speedKmh ?? trip.meanSpeedKmh);
           if (seg.gdN0 === null && !seg.profile) {
             unrated++;
+            unratedKm += lengthKm;
             continue;
           }
           if (v !== lastV || !p) {
@@ -427,6 +436,10 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
             // damage of one traversal of the segment's length, scaled to the driven length
             spring += sim.springDamage * scale;
             if (cf) msW += cf.rmsWeightedAccel ** 2 * t;
+            const rmsRel = Math.sqrt(sim.msRelVel);
+            const sl = slidingM(rmsRel, t);
+            sliding += sl;
+            heatedSliding += sl * heatFactor(corner.dampingNsPerM * sim.msRelVel, ref.powerW);
           } else if (cf) {
             energy += cf.damperEnergyJPerKm * lengthKm;
             msRel += cf.rmsRelativeVelocity ** 2 * t;
@@ -435,13 +448,20 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
             msAcc += cf.rmsBodyAccel ** 2 * t;
             msW += cf.rmsWeightedAccel ** 2 * t;
             spring += p.springDamagePerSRef * Math.pow(seg.gdN0! / GD_REF, p.sn.k / 2) * t;
+            const sl = slidingM(cf.rmsRelativeVelocity, t);
+            sliding += sl;
+            heatedSliding += sl * heatFactor(cf.damperPowerW, ref.powerW);
           } else {
             unrated++;
+            unratedKm += lengthKm;
             continue;
           }
+          ratedKm += lengthKm;
           time += t;
         }
         const rms = (s: number) => (time > 0 ? Math.sqrt(s / time) : 0);
+        const drivenKm = ratedKm + unratedKm;
+        const severity = drivenKm > 0 ? (heatedSliding / ref.slidingMPerKm + unratedKm) / drivenKm : 1;
         for (const position of axlePositions(axle.axleIndex, axleCount)) {
           const damper = damperOn(work.dampers, position, trip.tripDate);
           records.push({
@@ -464,6 +484,8 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
             rmsBodyAccel: rms(msAcc),
             rmsWeightedAccel: rms(msW),
             springDamage: spring,
+            slidingM: sliding,
+            severity,
             segments: route.segments.length,
             profiledSegments: profiled,
             unratedSegments: unrated,
@@ -471,7 +493,7 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
         }
       }
       for (const r of records) {
-        if (![r.energyJ, r.springDamage, r.rmsWeightedAccel].every(Number.isFinite)) throw new Error(`non-finite duty on ${r.position}`);
+        if (![r.energyJ, r.springDamage, r.rmsWeightedAccel, r.severity].every(Number.isFinite)) throw new Error(`non-finite duty on ${r.position}`);
       }
       segmentCount += route.segments.length;
       for (const r of records) {

@@ -1,5 +1,5 @@
 /**
- * Reads for the vehicle wear view and for other areas (driver exposure in issue 7).
+ * Reads for the vehicle wear view and for other areas (driver exposure).
  */
 import { QueryTypes, type Sequelize } from 'sequelize';
 
@@ -14,14 +14,19 @@ export function wearReadRepository(sequelize: Sequelize) {
     async fittedDampers(vehicleId: number) {
       return q<{
         id: number; position: string; axle_index: number; installed_at: string; installed_odometer_km: number; part_number: string | null; energy_j: number; fatigue_damage: number; life_used_fraction: number;
-        damping_ns_per_m: number | null; nominal_damping: number; rated_damper_life_km: number; wear_updated_at: string | null; opening_km: number | null; opening_energy_j: number | null; opening_basis: string | null;
-        p_as_of: string | null; window_days: number | null; window_energy_j: number | null; window_km: number | null; rate_j_per_day: number | null; life_energy_j: number | null; life_source: string | null;
-        threshold_fraction: number | null; threshold_date: string | null; end_of_life_date: string | null; spring_rate_per_day: number | null; spring_threshold_date: string | null; basis: string | null;
+        damping_ns_per_m: number | null; nominal_damping: number; rated_damper_life_km: number; wear_updated_at: string | null; opening_basis: string | null;
+        p_as_of: string | null; window_days: number | null; window_km: number | null; window_wear_km: number | null; wear_km_per_day: number | null; km_per_day: number | null;
+        life_wear_km: number | null; life_p10_wear_km: number | null; life_p90_wear_km: number | null; road_sensitivity: number | null; life_source: string | null; wear_km: number | null;
+        distance_life_used: number | null; calendar_life_used: number | null; opening_km: number | null; opening_share: number | null; opening_share_low: number | null; opening_share_high: number | null;
+        threshold_fraction: number | null; schedule_quantile: number | null; threshold_date: string | null; end_of_life_date: string | null; end_of_life_p10_date: string | null; end_of_life_p90_date: string | null;
+        governed_by: string | null; spring_rate_per_day: number | null; spring_threshold_date: string | null; basis: string | null;
       }>(
         `SELECT d.id, d.position, d.axle_index, d.installed_at, d.installed_odometer_km, d.part_number, d.energy_j, d.fatigue_damage, d.life_used_fraction, d.damping_ns_per_m,
-                a.damping_ns_per_m AS nominal_damping, a.rated_damper_life_km, d.wear_updated_at, d.opening_km, d.opening_energy_j, d.opening_basis,
-                p.as_of AS p_as_of, p.window_days, p.window_energy_j, p.window_km, p.rate_j_per_day, p.life_energy_j, p.life_source, p.threshold_fraction, p.threshold_date,
-                p.end_of_life_date, p.spring_rate_per_day, p.spring_threshold_date, p.basis
+                a.damping_ns_per_m AS nominal_damping, a.rated_damper_life_km, d.wear_updated_at, d.opening_basis,
+                p.as_of AS p_as_of, p.window_days, p.window_km, p.window_wear_km, p.wear_km_per_day, p.km_per_day, p.life_wear_km, p.life_p10_wear_km, p.life_p90_wear_km,
+                p.road_sensitivity, p.life_source, p.wear_km, p.distance_life_used, p.calendar_life_used, p.opening_km, p.opening_share, p.opening_share_low, p.opening_share_high,
+                p.threshold_fraction, p.schedule_quantile, p.threshold_date, p.end_of_life_date, p.end_of_life_p10_date, p.end_of_life_p90_date, p.governed_by,
+                p.spring_rate_per_day, p.spring_threshold_date, p.basis
          FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
          LEFT JOIN damper_predictions p ON p.damper_id = d.id
          WHERE d.vehicle_id = ? AND d.removed_at IS NULL ORDER BY d.axle_index, d.position`,
@@ -31,8 +36,8 @@ export function wearReadRepository(sequelize: Sequelize) {
 
     async history(damperIds: number[]) {
       if (!damperIds.length) return [];
-      return q<{ damper_id: number; day: string; distance_km: number; energy_j: number; cum_energy_j: number; life_used_fraction: number; damping_ns_per_m: number; cum_spring_damage: number }>(
-        `SELECT damper_id, day, distance_km, energy_j, cum_energy_j, life_used_fraction, damping_ns_per_m, cum_spring_damage FROM damper_wear_days
+      return q<{ damper_id: number; day: string; distance_km: number; energy_j: number; wear_km: number; cum_wear_km: number; cum_spring_damage: number }>(
+        `SELECT damper_id, day, distance_km, energy_j, wear_km, cum_wear_km, cum_spring_damage FROM damper_wear_days
          WHERE damper_id IN (${damperIds.map(Number).join(',')}) ORDER BY damper_id, day`,
       );
     },
@@ -40,8 +45,9 @@ export function wearReadRepository(sequelize: Sequelize) {
     /** Duty of the fitted dampers by route: trips, km, energy per axle. */
     async dutyByRoute(damperIds: number[]) {
       if (!damperIds.length) return [];
-      return q<{ route_id: number; route_name: string; axle_index: number; trips: number; km: number; energy_j: number; spring_damage: number; avg_weighted_accel: number }>(
+      return q<{ route_id: number; route_name: string; axle_index: number; trips: number; km: number; severity: number; energy_j: number; spring_damage: number; avg_weighted_accel: number }>(
         `SELECT td.route_id, r.name AS route_name, td.axle_index, COUNT(DISTINCT td.trip_id) AS trips, SUM(td.distance_km) / COUNT(*) * COUNT(DISTINCT td.trip_id) AS km,
+                SUM(td.distance_km * td.severity) / SUM(td.distance_km) AS severity,
                 SUM(td.energy_j) AS energy_j, SUM(td.spring_damage) AS spring_damage, AVG(td.rms_weighted_accel) AS avg_weighted_accel
          FROM trip_duties td JOIN routes r ON r.id = td.route_id
          WHERE td.damper_id IN (${damperIds.map(Number).join(',')}) GROUP BY td.route_id, td.axle_index ORDER BY energy_j DESC`,
@@ -49,7 +55,7 @@ export function wearReadRepository(sequelize: Sequelize) {
     },
 
     /**
-     * Front-axle duty per trip (issue 7, driver exposure): the Wk-weighted RMS body acceleration
+     * Front-axle duty per trip (driver exposure): the Wk-weighted RMS body acceleration
      * on the front axle [m/s²] and the trip's duration [s]. Left and right front corners are
      * equal by construction; the left one is returned.
      */

@@ -4,10 +4,10 @@
  * fleet fits the nightly budget; everything returns plain objects.
  */
 import type { Sequelize, Transaction } from 'sequelize';
-import { JSON_ROWS, fromJsonRows, inList, insertPackedRows, insertRows, jsonRows, runSql, selectRows, sqlLiteral } from '../db/raw';
+import { JSON_ROWS, fromJsonRows, inList, insertPackedRows, insertRows, jsonRows, runSql, selectRows } from '../db/raw';
 import type { CornerParams } from '../physics/types';
 import { TRIP_DUTY_COLUMNS, type AxleInput, type DamperSpan, type RouteInput, type SegmentInput, type TripInput, type WearDelta } from './duty';
-import { DAMPING_AT_END_OF_LIFE, type Prediction, type WearDayRow, type WearSummary } from './wear';
+import { estimatedDamping, type Prediction, type WearDayRow, type WearSummary } from './wear';
 
 /** Sequelize's SQLite text form of a date (`2026-11-30 12:00:00.000 +00:00`). */
 export function sqlDate(d: Date): string {
@@ -46,26 +46,30 @@ export interface SpecAxles {
   axles: AxleInput[];
 }
 
-/** Where a dirty damper's wear is accumulated from, and against what. */
+/** Where a dirty damper's wear is accumulated from, and with what road sensitivity. */
 export interface WearStart {
   damperId: number;
   vehicleId: number;
-  /** Cumulative wear on the last day kept (or the opening wear, or none). */
-  energyJ: number;
+  /** Cumulative recorded wear on the last day kept (or none). */
+  cumKm: number;
+  cumEnergyJ: number;
+  cumWearKm: number;
   springDamage: number;
-  lifeEnergyJ: number;
-  nominalDampingNsPerM: number;
+  /** Road sensitivity b of the spec's life model: wear km = Σ km·severity^b. */
+  b: number;
 }
 
-/** What the wear and prediction phases need of a damper: its ids, installation day and its spec axle's corner. */
+/** What the wear and prediction phases need of a damper. */
 export interface DamperContext {
   id: number;
   vehicleId: number;
+  specId: number;
+  axleIndex: number;
   installedAt: string;
   corner: CornerParams;
   ratedDamperLifeKm: number;
-  /** Its opening wear, once estimated (null before). */
-  opening: { km: number; energyJ: number; springDamage: number } | null;
+  /** Distance since fitting no trip on record covers [km] (null before the first estimate). */
+  untrackedKm: number | null;
 }
 
 export function wearRepository(sequelize: Sequelize) {
@@ -196,7 +200,7 @@ export function wearRepository(sequelize: Sequelize) {
       });
     },
 
-    /** Marks every damper without an opening estimate for a recompute from its fitting day. */
+    /** Marks every damper without an untracked-distance estimate for a recompute from its fitting day. */
     async markOpeningsDue() {
       await runSql(
         sequelize,
@@ -205,20 +209,29 @@ export function wearRepository(sequelize: Sequelize) {
     },
 
     /**
-     * What the opening estimate of each damper without one needs: odometer now (or at removal)
-     * and at fitting, the vehicle's trips on record since fitting (started before `before`),
-     * and the damper's duty so far.
+     * Marks a spec's dampers whose wear days were summed with another road sensitivity for a
+     * recompute from their fitting day (the fitted b changed).
      */
-    async openingInputs(ids: number[], before: Date) {
-      return q<{ id: number; odometer_km: number; installed_odometer_km: number; recorded_km: number; duty_km: number; duty_energy_j: number; duty_spring_damage: number }>(
-        `SELECT d.id, COALESCE(d.removed_odometer_km, v.odometer_km) AS odometer_km, d.installed_odometer_km,
+    async markExponentChanged(specId: number, b: number) {
+      await runSql(
+        sequelize,
+        `UPDATE dampers SET wear_dirty_from = installed_at
+         WHERE vehicle_id IN (SELECT id FROM vehicles WHERE spec_id = ?) AND (wear_exponent IS NULL OR ABS(wear_exponent - ?) > 1e-9)`,
+        [specId, b],
+      );
+    },
+
+    /**
+     * Each damper's untracked distance: odometer now (or at removal) less odometer at fitting
+     * less the vehicle's trips on record since fitting (started before `before`); never below 0.
+     */
+    async untrackedKm(ids: number[], before: Date) {
+      return q<{ id: number; untracked_km: number }>(
+        `SELECT d.id, MAX(0, COALESCE(d.removed_odometer_km, v.odometer_km) - d.installed_odometer_km -
                 (SELECT COALESCE(SUM(t.distance_km), 0) FROM trips t
-                 WHERE t.vehicle_id = d.vehicle_id AND t.started_at >= d.installed_at AND t.started_at < ? AND (d.removed_at IS NULL OR t.started_at < d.removed_at)) AS recorded_km,
-                COALESCE(td.km, 0) AS duty_km, COALESCE(td.e, 0) AS duty_energy_j, COALESCE(td.f, 0) AS duty_spring_damage
+                 WHERE t.vehicle_id = d.vehicle_id AND t.started_at >= d.installed_at AND t.started_at < ? AND (d.removed_at IS NULL OR t.started_at < d.removed_at))) AS untracked_km
          FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id
-         LEFT JOIN (SELECT damper_id, SUM(distance_km) AS km, SUM(energy_j) AS e, SUM(spring_damage) AS f FROM trip_duties
-                    WHERE damper_id IN (${inList(ids)}) GROUP BY damper_id) td ON td.damper_id = d.id
-         WHERE d.id IN (${inList(ids)}) AND d.opening_km IS NULL ORDER BY d.id`,
+         WHERE d.id IN (${inList(ids)}) ORDER BY d.id`,
         [sqlDate(before)],
       );
     },
@@ -234,8 +247,8 @@ export function wearRepository(sequelize: Sequelize) {
       specsOnce ??= this.specAxles();
       const [specs, rows] = await Promise.all([
         specsOnce,
-        q<{ id: number; vehicle_id: number; installed_at: string; spec_id: number; axle_index: number; opening_km: number | null; opening_energy_j: number | null; opening_spring_damage: number | null }>(
-          `SELECT d.id, d.vehicle_id, d.installed_at, v.spec_id, d.axle_index, d.opening_km, d.opening_energy_j, d.opening_spring_damage
+        q<{ id: number; vehicle_id: number; installed_at: string; spec_id: number; axle_index: number; opening_km: number | null }>(
+          `SELECT d.id, d.vehicle_id, d.installed_at, v.spec_id, d.axle_index, d.opening_km
            FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE d.id IN (${inList(ids)}) ORDER BY d.id`,
         ),
       ]);
@@ -243,43 +256,39 @@ export function wearRepository(sequelize: Sequelize) {
       for (const r of rows) {
         const axle = specs.get(r.spec_id)?.find((a) => a.axleIndex === r.axle_index);
         if (!axle) continue;
-        const opening = r.opening_km === null ? null : { km: r.opening_km, energyJ: r.opening_energy_j ?? 0, springDamage: r.opening_spring_damage ?? 0 };
-        out.push({ id: r.id, vehicleId: r.vehicle_id, installedAt: r.installed_at, corner: axle.corner, ratedDamperLifeKm: axle.ratedDamperLifeKm, opening });
+        out.push({ id: r.id, vehicleId: r.vehicle_id, specId: r.spec_id, axleIndex: r.axle_index, installedAt: r.installed_at, corner: axle.corner, ratedDamperLifeKm: axle.ratedDamperLifeKm, untrackedKm: r.opening_km });
       }
       return out;
     },
 
     /** The last stored wear day before each dirty damper's dirty day. */
     async wearBeforeDirty(ids: number[]) {
-      return q<{ damper_id: number; cum_energy_j: number; cum_spring_damage: number }>(
-        `SELECT w.damper_id, w.cum_energy_j, w.cum_spring_damage FROM damper_wear_days w JOIN dampers d ON d.id = w.damper_id
+      return q<{ damper_id: number; cum_km: number; cum_energy_j: number; cum_wear_km: number; cum_spring_damage: number }>(
+        `SELECT w.damper_id, w.cum_km, w.cum_energy_j, w.cum_wear_km, w.cum_spring_damage FROM damper_wear_days w JOIN dampers d ON d.id = w.damper_id
          WHERE d.id IN (${inList(ids)}) AND w.day = (SELECT MAX(day) FROM damper_wear_days x WHERE x.damper_id = d.id AND x.day < d.wear_dirty_from)`,
       );
     },
 
     /**
      * Replaces dirty dampers' wear days from their dirty day on and updates their totals, clearing
-     * the mark; stores new opening estimates first. Each damper's daily duty sums are accumulated
-     * in SQL onto its starting wear (the last day kept, or the opening wear), against its life
-     * energy: the same sums as {@link accumulateDays} in wear.ts, without carrying every
-     * damper-day through this thread and back (a test checks the two agree).
+     * the mark; stores their untracked distance first. Each damper's daily duty sums — distance,
+     * energy, spring damage and wear km Σ km·severity^b — are accumulated in SQL onto its starting
+     * wear (the last day kept, or zero): the same sums as {@link accumulateDays} in wear.ts,
+     * without carrying every damper-day through this thread and back (a test checks the two agree).
      */
-    async storeWear(dampers: WearStart[], now: Date, openings: { damperId: number; km: number; energyJ: number; springDamage: number; basis: string }[] = []) {
+    async storeWear(dampers: WearStart[], now: Date, untracked: { damperId: number; km: number }[] = []) {
       const stamp = sqlDate(now);
       const ids = inList(dampers.map((d) => d.damperId));
-      const start = jsonRows(dampers.map((d) => [d.damperId, d.vehicleId, d.energyJ, d.springDamage, d.lifeEnergyJ, d.nominalDampingNsPerM]));
-      const startCols = ['id', 'vehicle_id', 'e0', 'f0', 'life', 'c0'];
+      const start = jsonRows(dampers.map((d) => [d.damperId, d.vehicleId, d.cumKm, d.cumEnergyJ, d.cumWearKm, d.springDamage, d.b]));
+      const startCols = ['id', 'vehicle_id', 'k0', 'e0', 'w0', 'f0', 'b'];
       let wearDays = 0;
-      // estimatedDamping(c0, u) of wear.ts
-      const damping = (c0: string, u: string) => `${c0} * (1 - ${sqlLiteral(1 - DAMPING_AT_END_OF_LIFE)} * MIN(1, MAX(0, ${u})))`;
       await sequelize.transaction(async (t) => {
-        for (let i = 0; i < openings.length; i += JSON_ROWS) {
-          const part = openings.slice(i, i + JSON_ROWS);
+        for (let i = 0; i < untracked.length; i += JSON_ROWS) {
+          const part = untracked.slice(i, i + JSON_ROWS);
           await runSql(
             sequelize,
-            `WITH o AS (${fromJsonRows(['id', 'km', 'e', 'f', 'b'])})
-             UPDATE dampers SET opening_km = o.km, opening_energy_j = o.e, opening_spring_damage = o.f, opening_basis = o.b FROM o WHERE dampers.id = o.id`,
-            [jsonRows(part.map((x) => [x.damperId, x.km, x.energyJ, x.springDamage, x.basis]))],
+            `WITH o AS (${fromJsonRows(['id', 'km'])}) UPDATE dampers SET opening_km = o.km FROM o WHERE dampers.id = o.id`,
+            [jsonRows(part.map((x) => [x.damperId, x.km]))],
             t,
           );
         }
@@ -291,18 +300,19 @@ export function wearRepository(sequelize: Sequelize) {
         );
         wearDays = await runSql(
           sequelize,
-          `INSERT INTO damper_wear_days (damper_id, day, vehicle_id, distance_km, energy_j, spring_damage, cum_energy_j, cum_spring_damage, life_energy_j, life_used_fraction, damping_ns_per_m)
+          `INSERT INTO damper_wear_days (damper_id, day, vehicle_id, distance_km, energy_j, spring_damage, wear_km, cum_km, cum_energy_j, cum_wear_km, cum_spring_damage)
            WITH p AS (${fromJsonRows(startCols)}),
            daily AS (
-             SELECT td.damper_id, td.trip_date AS day, SUM(td.distance_km) AS km, SUM(td.energy_j) AS e, SUM(td.spring_damage) AS f
-             FROM trip_duties td JOIN dampers d ON d.id = td.damper_id
+             SELECT td.damper_id, td.trip_date AS day, SUM(td.distance_km) AS km, SUM(td.energy_j) AS e, SUM(td.spring_damage) AS f,
+                    SUM(td.distance_km * pow(td.severity, p.b)) AS w
+             FROM trip_duties td JOIN dampers d ON d.id = td.damper_id JOIN p ON p.id = td.damper_id
              WHERE td.damper_id IN (${ids}) AND td.trip_date >= d.wear_dirty_from
              GROUP BY td.damper_id, td.trip_date),
            cum AS (
-             SELECT daily.*, p.e0 + SUM(daily.e) OVER w AS ce, p.f0 + SUM(daily.f) OVER w AS cf
+             SELECT daily.*, p.k0 + SUM(daily.km) OVER w AS ck, p.e0 + SUM(daily.e) OVER w AS ce, p.w0 + SUM(daily.w) OVER w AS cw, p.f0 + SUM(daily.f) OVER w AS cf
              FROM daily JOIN p ON p.id = daily.damper_id
              WINDOW w AS (PARTITION BY daily.damper_id ORDER BY daily.day ROWS UNBOUNDED PRECEDING))
-           SELECT cum.damper_id, cum.day, p.vehicle_id, cum.km, cum.e, cum.f, cum.ce, cum.cf, p.life, cum.ce / p.life, ${damping('p.c0', 'cum.ce / p.life')}
+           SELECT cum.damper_id, cum.day, p.vehicle_id, cum.km, cum.e, cum.f, cum.w, cum.ck, cum.ce, cum.cw, cum.cf
            FROM cum JOIN p ON p.id = cum.damper_id`,
           [start],
           t,
@@ -312,10 +322,9 @@ export function wearRepository(sequelize: Sequelize) {
           sequelize,
           `WITH p AS (${fromJsonRows(startCols)}),
            tot AS (
-             SELECT p.id, COALESCE(l.cum_energy_j, p.e0) AS e, COALESCE(l.cum_spring_damage, p.f0) AS f, p.life, p.c0
+             SELECT p.id, COALESCE(l.cum_energy_j, p.e0) AS e, COALESCE(l.cum_spring_damage, p.f0) AS f, p.b
              FROM p LEFT JOIN damper_wear_days l ON l.damper_id = p.id AND l.day = (SELECT MAX(day) FROM damper_wear_days x WHERE x.damper_id = p.id))
-           UPDATE dampers SET energy_j = tot.e, fatigue_damage = tot.f, life_used_fraction = tot.e / tot.life,
-             damping_ns_per_m = ${damping('tot.c0', 'tot.e / tot.life')}, wear_updated_at = ?, updated_at = ?, wear_dirty_from = NULL
+           UPDATE dampers SET energy_j = tot.e, fatigue_damage = tot.f, wear_exponent = tot.b, wear_updated_at = ?, updated_at = ?, wear_dirty_from = NULL
            FROM tot WHERE dampers.id = tot.id`,
           [start, stamp, stamp],
           t,
@@ -325,9 +334,10 @@ export function wearRepository(sequelize: Sequelize) {
     },
 
     /** Installed dampers (on non-retired vehicles) in id order, from `afterId`. */
-    async installedDamperIds(afterId: number, limit: number): Promise<number[]> {
+    async installedDamperIds(afterId: number, limit: number, vehicleIds?: number[]): Promise<number[]> {
+      const only = vehicleIds ? `AND d.vehicle_id IN (${inList(vehicleIds)})` : '';
       const rows = await q<{ id: number }>(
-        `SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE d.removed_at IS NULL AND v.status != 'retired' AND d.id > ? ORDER BY d.id LIMIT ?`,
+        `SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE d.removed_at IS NULL AND v.status != 'retired' AND d.id > ? ${only} ORDER BY d.id LIMIT ?`,
         [afterId, limit],
       );
       return rows.map((r) => r.id);
@@ -335,52 +345,66 @@ export function wearRepository(sequelize: Sequelize) {
 
     /**
      * Per damper, what its prediction rests on ({@link WearSummary}), from its wear days up to
-     * `asOf`: window sums from the damper's own window start, the cumulative wear on its last
-     * day, and the first days its cumulative energy reached the given levels [J] (and its
-     * spring damage reached `springLevel`). One query per call that reads each damper's window
-     * and last day through the (damper, day) key; the first days are looked up only for dampers
-     * whose last day has reached the level (cumulative wear never falls), so the nightly cost
-     * does not grow with the length of the history.
+     * `asOf`: window sums from the damper's own window start, the cumulative recorded wear on
+     * its last day, and the first days its recorded wear km reached each of its four levels
+     * (and its spring damage reached `springLevel`). One query per call that reads each damper's
+     * window and last day through the (damper, day) key; the first days are looked up only for
+     * dampers whose last day has reached the level (cumulative wear never falls), so the
+     * nightly cost does not grow with the length of the history.
      */
-    async wearSummaries(targets: { damperId: number; windowStart: string; thresholdJ: number; endOfLifeJ: number }[], springLevel: number, asOf: string) {
+    async wearSummaries(targets: { damperId: number; windowStart: string; levels: number[] }[], springLevel: number, asOf: string) {
       const out = new Map<number, WearSummary>();
       if (!targets.length) return out;
       const rows = await q<{
-        damper_id: number; we: number; wkm: number; wd: number; th_day: string | null; eol_day: string | null; sp_day: string | null; cum_energy_j: number; cum_spring_damage: number;
+        damper_id: number; ww: number; wkm: number; wd: number; d0: string | null; d1: string | null; d2: string | null; d3: string | null; sp_day: string | null;
+        cum_km: number; cum_wear_km: number; cum_spring_damage: number;
       }>(
-        `WITH t AS (${fromJsonRows(['id', 'ws', 'eth', 'eend'], [], '?1')}),
+        `WITH t AS (${fromJsonRows(['id', 'ws', 'l0', 'l1', 'l2', 'l3'], [], '?1')}),
          l AS (
-           SELECT t.*, w.cum_energy_j, w.cum_spring_damage
+           SELECT t.*, w.cum_km, w.cum_wear_km, w.cum_spring_damage
            FROM t JOIN damper_wear_days w ON w.damper_id = t.id
              AND w.day = (SELECT MAX(x.day) FROM damper_wear_days x WHERE x.damper_id = t.id AND x.day <= ?2)),
          s AS (
-           SELECT w.damper_id, SUM(w.energy_j) AS we, SUM(w.distance_km) AS wkm, SUM(w.spring_damage) AS wd
+           SELECT w.damper_id, SUM(w.wear_km) AS ww, SUM(w.distance_km) AS wkm, SUM(w.spring_damage) AS wd
            FROM t JOIN damper_wear_days w ON w.damper_id = t.id AND w.day >= t.ws AND w.day <= ?2
            GROUP BY w.damper_id)
-         SELECT l.id AS damper_id, COALESCE(s.we, 0) AS we, COALESCE(s.wkm, 0) AS wkm, COALESCE(s.wd, 0) AS wd,
-                CASE WHEN l.cum_energy_j >= l.eth
-                  THEN (SELECT MIN(x.day) FROM damper_wear_days x WHERE x.damper_id = l.id AND x.day <= ?2 AND x.cum_energy_j >= l.eth) END AS th_day,
-                CASE WHEN l.cum_energy_j >= l.eend
-                  THEN (SELECT MIN(x.day) FROM damper_wear_days x WHERE x.damper_id = l.id AND x.day <= ?2 AND x.cum_energy_j >= l.eend) END AS eol_day,
+         SELECT l.id AS damper_id, COALESCE(s.ww, 0) AS ww, COALESCE(s.wkm, 0) AS wkm, COALESCE(s.wd, 0) AS wd,
+                ${[0, 1, 2, 3]
+                  .map(
+                    (k) => `CASE WHEN l.cum_wear_km >= l.l${k}
+                  THEN (SELECT MIN(x.day) FROM damper_wear_days x WHERE x.damper_id = l.id AND x.day <= ?2 AND x.cum_wear_km >= l.l${k}) END AS d${k},`,
+                  )
+                  .join('\n')}
                 CASE WHEN l.cum_spring_damage >= ?3
                   THEN (SELECT MIN(x.day) FROM damper_wear_days x WHERE x.damper_id = l.id AND x.day <= ?2 AND x.cum_spring_damage >= ?3) END AS sp_day,
-                l.cum_energy_j, l.cum_spring_damage
+                l.cum_km, l.cum_wear_km, l.cum_spring_damage
          FROM l LEFT JOIN s ON s.damper_id = l.id`,
-        [jsonRows(targets.map((t) => [t.damperId, t.windowStart, t.thresholdJ, t.endOfLifeJ])), asOf, springLevel],
+        [jsonRows(targets.map((t) => [t.damperId, t.windowStart, ...t.levels])), asOf, springLevel],
       );
       for (const r of rows) {
         out.set(r.damper_id, {
-          windowEnergyJ: r.we,
+          windowWearKm: r.ww,
           windowKm: r.wkm,
           windowSpringDamage: r.wd,
-          energyJ: r.cum_energy_j,
+          cumKm: r.cum_km,
+          cumWearKm: r.cum_wear_km,
           springDamage: r.cum_spring_damage,
-          thresholdDay: r.th_day,
-          endOfLifeDay: r.eol_day,
+          levelDays: [r.d0, r.d1, r.d2, r.d3],
           springThresholdDay: r.sp_day,
         });
       }
       return out;
+    },
+
+    /** Per damper, its recorded distance and wear km up to `asOf` (the last wear day's sums). */
+    async recordedTotals(ids: number[], asOf: string) {
+      if (!ids.length) return new Map<number, { cumKm: number; cumWearKm: number }>();
+      const rows = await q<{ damper_id: number; cum_km: number; cum_wear_km: number }>(
+        `SELECT w.damper_id, w.cum_km, w.cum_wear_km FROM damper_wear_days w
+         WHERE w.damper_id IN (${inList(ids)}) AND w.day = (SELECT MAX(x.day) FROM damper_wear_days x WHERE x.damper_id = w.damper_id AND x.day <= ?)`,
+        [asOf],
+      );
+      return new Map(rows.map((r) => [r.damper_id, { cumKm: r.cum_km, cumWearKm: r.cum_wear_km }]));
     },
 
     async storePredictions(rows: (Prediction & { damperId: number; vehicleId: number })[]) {
@@ -389,18 +413,31 @@ export function wearRepository(sequelize: Sequelize) {
           sequelize,
           'damper_predictions',
           [
-            'damper_id', 'vehicle_id', 'as_of', 'window_days', 'window_energy_j', 'window_km', 'rate_j_per_day', 'life_energy_j', 'life_source', 'energy_j',
-            'life_used_fraction', 'damping_ns_per_m', 'threshold_fraction', 'threshold_date', 'end_of_life_date', 'spring_damage', 'spring_rate_per_day',
-            'spring_threshold_date', 'basis',
+            'damper_id', 'vehicle_id', 'as_of', 'window_days', 'window_km', 'window_wear_km', 'wear_km_per_day', 'km_per_day', 'life_wear_km', 'life_p10_wear_km',
+            'life_p90_wear_km', 'road_sensitivity', 'life_source', 'wear_km', 'life_used_fraction', 'distance_life_used', 'calendar_life_used', 'opening_km',
+            'opening_share', 'opening_share_low', 'opening_share_high', 'damping_ns_per_m', 'threshold_fraction', 'schedule_quantile', 'threshold_date',
+            'end_of_life_date', 'end_of_life_p10_date', 'end_of_life_p90_date', 'governed_by', 'spring_damage', 'spring_rate_per_day', 'spring_threshold_date', 'basis',
           ],
           rows.map((p) => [
-            p.damperId, p.vehicleId, p.asOf, p.windowDays, p.windowEnergyJ, p.windowKm, p.rateJPerDay, p.lifeEnergyJ, p.lifeSource, p.energyJ,
-            p.lifeUsedFraction, p.dampingNsPerM, p.thresholdFraction, p.thresholdDate, p.endOfLifeDate, p.springDamage, p.springRatePerDay,
-            p.springThresholdDate, JSON.stringify(p.basis),
+            p.damperId, p.vehicleId, p.asOf, p.windowDays, p.windowKm, p.windowWearKm, p.wearKmPerDay, p.kmPerDay, p.life.medianWearKm, p.life.p10WearKm,
+            p.life.p90WearKm, p.life.b, p.life.source, p.wearKm, p.lifeUsedFraction, p.distanceLifeUsed, p.calendarLifeUsed, p.opening.km,
+            p.openingShare, p.openingShareLow, p.openingShareHigh, p.dampingNsPerM, p.thresholdFraction, p.scheduleQuantile, p.thresholdDate,
+            p.endOfLifeDate, p.endOfLifeP10Date, p.endOfLifeP90Date, p.governedBy, p.springDamage, p.springRatePerDay, p.springThresholdDate, JSON.stringify(p.basis),
           ]),
           t,
           { orReplace: true },
         );
+        // the damper's own totals follow its prediction
+        for (let i = 0; i < rows.length; i += JSON_ROWS) {
+          const part = rows.slice(i, i + JSON_ROWS);
+          await runSql(
+            sequelize,
+            `WITH p AS (${fromJsonRows(['id', 'w', 'u', 'c', 'b'])})
+             UPDATE dampers SET wear_km = p.w, life_used_fraction = p.u, damping_ns_per_m = p.c, opening_basis = p.b FROM p WHERE dampers.id = p.id`,
+            [jsonRows(part.map((p) => [p.damperId, p.wearKm, p.lifeUsedFraction, p.dampingNsPerM, p.opening.basis]))],
+            t,
+          );
+        }
       });
     },
 
@@ -422,26 +459,32 @@ export interface WearDayDb {
   distance_km: number;
   energy_j: number;
   spring_damage: number;
+  wear_km: number;
+  cum_km: number;
   cum_energy_j: number;
+  cum_wear_km: number;
   cum_spring_damage: number;
-  life_energy_j: number;
-  life_used_fraction: number;
-  damping_ns_per_m: number;
 }
 
-/** A stored wear day as the wear functions take it. */
-export const wearDayFromDb = (r: WearDayDb): WearDayRow => ({
-  damperId: r.damper_id,
-  vehicleId: r.vehicle_id,
-  day: r.day,
-  distanceKm: r.distance_km,
-  energyJ: r.energy_j,
-  springDamage: r.spring_damage,
-  cumEnergyJ: r.cum_energy_j,
-  cumSpringDamage: r.cum_spring_damage,
-  lifeEnergyJ: r.life_energy_j,
-  lifeUsedFraction: r.life_used_fraction,
-  dampingNsPerM: r.damping_ns_per_m,
-});
+/** A stored wear day as the wear functions take it, against a life (median wear km) and opening wear. */
+export const wearDayFromDb = (r: WearDayDb, lifeWearKm: number, nominalDampingNsPerM: number, openingWearKm = 0): WearDayRow => {
+  const u = (r.cum_wear_km + openingWearKm) / lifeWearKm;
+  return {
+    damperId: r.damper_id,
+    vehicleId: r.vehicle_id,
+    day: r.day,
+    distanceKm: r.distance_km,
+    energyJ: r.energy_j,
+    springDamage: r.spring_damage,
+    wearKm: r.wear_km,
+    cumKm: r.cum_km,
+    cumEnergyJ: r.cum_energy_j,
+    cumWearKm: r.cum_wear_km,
+    cumSpringDamage: r.cum_spring_damage,
+    lifeWearKm,
+    lifeUsedFraction: u,
+    dampingNsPerM: estimatedDamping(nominalDampingNsPerM, u),
+  };
+};
 
 export type WearRepository = ReturnType<typeof wearRepository>;

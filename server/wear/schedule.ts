@@ -32,7 +32,8 @@ export interface CornerForecast {
   position: string;
   lifeUsedFraction: number;
   thresholdDate: string | null;
-  rateJPerDay: number;
+  /** Distance per day over the prediction window [km/day]. */
+  kmPerDay: number;
   springDamage: number;
   springThresholdDate: string | null;
 }
@@ -88,12 +89,12 @@ export function candidates(input: VehicleScheduleInput, rules: ScheduleRules): C
     const used = first.spring ? first.c.springDamage : first.c.lifeUsedFraction;
     const reason = first.spring
       ? `${first.what} ${passed ? 'reached' : 'predicted to reach'} ${pct(rules.threshold)} of its assumed fatigue life ${passed ? 'on' : 'on'} ${fmtDay(first.date)} (Miner damage now ${used.toFixed(2)}); inspection set ${rules.leadDays} days ahead.`
-      : `${first.what} ${passed ? 'reached' : 'predicted to reach'} ${pct(rules.threshold)} of its rated life on ${fmtDay(first.date)} (now ${pct(used)}, ${(first.c.rateJPerDay / 1000).toFixed(0)} kJ/day over the last 30 days); inspection set ${rules.leadDays} days ahead.`;
+      : `${first.what} ${passed ? 'reached' : 'predicted to reach'} ${pct(rules.threshold)} of its expected life on ${fmtDay(first.date)} (now ${pct(used)} used, driving ${Math.round(first.c.kmPerDay)} km/day over the last 30 days); inspection set ${rules.leadDays} days ahead.`;
     out.push({
       dueDate: due,
       trigger: 'prediction',
       reason,
-      basis: { rule: 'prediction', corner: first.c.position, component: first.spring ? 'spring' : 'damper', thresholdDate: first.date, threshold: rules.threshold, leadDays: rules.leadDays, lifeUsed: used, rateJPerDay: first.c.rateJPerDay },
+      basis: { rule: 'prediction', corner: first.c.position, component: first.spring ? 'spring' : 'damper', thresholdDate: first.date, threshold: rules.threshold, leadDays: rules.leadDays, lifeUsed: used, kmPerDay: first.c.kmPerDay },
     });
   }
   // interval (months)

@@ -7,9 +7,8 @@
 import type { Sequelize } from 'sequelize';
 import type { AxleInput, RouteInput, SegmentInput, VehicleWork } from './duty';
 import { createDutyRunner } from './duty-pool';
-import { referenceDutyPerKm } from './duty';
-import { estimateOpening, type Opening } from './opening';
-import { predictFromSummary, predictionWindow, ratedLife, type LifeResolver, type WearSummary } from './wear';
+import { estimateOpening, levelsOf, predictFromSummary, predictionWindow, type LifeResolver, type PredictOptions, type WearSummary } from './wear';
+import { priorLifeResolver } from '../workshop/life';
 import { wearRepository, type WearStart } from './repository';
 
 export interface ItemError {
@@ -33,8 +32,14 @@ export interface PhaseContext {
   /** Where a fallback (e.g. worker threads not available) is reported. */
   warn?: (message: string) => void;
   thresholdFraction: number;
+  /** Calendar life [years] and the life quantile inspections are scheduled on. */
+  calendarYears?: number;
+  scheduleQuantile?: number;
   signal?: AbortSignal;
+  /** The life each damper is measured against (default: the prior of every spec). */
   lifeResolver?: LifeResolver;
+  /** Only these vehicles' dampers in the prediction phase (a vehicle re-predicted at once). */
+  vehicleIds?: number[];
   /** Test hook: throw after this many committed batches (a crash in the middle of the run). */
   failAfterBatches?: number;
   /** Dampers per chunk of the wear and prediction phases (default {@link WEAR_CHUNK}). */
@@ -227,88 +232,89 @@ async function readAheadWriteBehind<T>(signal: AbortSignal | undefined, read: (p
   }
 }
 
-/** Phase 2: recompute daily history and totals of every damper whose duty changed. */
+/**
+ * Phase 2: recompute daily history and totals of every damper whose duty changed (or whose
+ * spec's road sensitivity changed since its wear days were summed), and store each one's
+ * untracked distance (the distance before the records, revised as they grow).
+ */
 export async function recomputeWear(ctx: PhaseContext) {
   const repo = wearRepository(ctx.sequelize);
-  const resolve = ctx.lifeResolver ?? ratedLife;
+  const resolve = ctx.lifeResolver ?? priorLifeResolver();
   await repo.markOpeningsDue();
+  // the road sensitivity b of each spec: wear days summed with another b are recomputed
+  const specs = await repo.specAxles();
+  const bOf = new Map<number, number>();
+  for (const [specId, axles] of specs) {
+    if (!axles.length) continue;
+    const b = resolve({ damperId: 0, specId, axleIndex: axles[0].axleIndex, ratedDamperLifeKm: axles[0].ratedDamperLifeKm }).b;
+    bOf.set(specId, b);
+    await repo.markExponentChanged(specId, b);
+  }
   const ids = await repo.dirtyDampers();
   await ctx.progress('wear', 0, ids.length);
   const read = async (prev: { end: number } | null) => {
     const from = prev ? prev.end : 0;
     if (from >= ids.length) return null;
     const chunk = ids.slice(from, from + (ctx.damperChunk ?? WEAR_CHUNK));
-    const [context, before, openingInputs] = await Promise.all([repo.damperContext(chunk), repo.wearBeforeDirty(chunk), repo.openingInputs(chunk, ctx.before)]);
-    return { end: from + chunk.length, context, before, openingInputs };
+    const [context, before, untracked] = await Promise.all([repo.damperContext(chunk), repo.wearBeforeDirty(chunk), repo.untrackedKm(chunk, ctx.before)]);
+    return { end: from + chunk.length, context, before, untracked };
   };
-  await readAheadWriteBehind(ctx.signal, read, async ({ end, context, before, openingInputs }) => {
-    const openingOf = new Map(openingInputs.map((o) => [o.id, o]));
-    const openings: (Opening & { damperId: number })[] = [];
+  await readAheadWriteBehind(ctx.signal, read, async ({ end, context, before, untracked }) => {
     const kept = new Map(before.map((b) => [b.damper_id, b]));
     const starts: WearStart[] = [];
     for (const c of context) {
-      try {
-        const life = resolve({ damperId: c.id, corner: c.corner, ratedDamperLifeKm: c.ratedDamperLifeKm });
-        let opening = c.opening;
-        const oi = openingOf.get(c.id);
-        if (!opening && oi) {
-          const o = estimateOpening({
-            odometerKm: oi.odometer_km,
-            installedOdometerKm: oi.installed_odometer_km,
-            recordedKm: oi.recorded_km,
-            dutyKm: oi.duty_km,
-            dutyEnergyJ: oi.duty_energy_j,
-            dutySpringDamage: oi.duty_spring_damage,
-            reference: referenceDutyPerKm(c.corner),
-          });
-          openings.push({ damperId: c.id, ...o });
-          opening = o;
-        }
-        // the last stored day before the recomputed range, or the opening wear
-        const s = kept.get(c.id);
-        starts.push({
-          damperId: c.id,
-          vehicleId: c.vehicleId,
-          energyJ: s?.cum_energy_j ?? opening?.energyJ ?? 0,
-          springDamage: s?.cum_spring_damage ?? opening?.springDamage ?? 0,
-          lifeEnergyJ: life.energyJ,
-          nominalDampingNsPerM: c.corner.dampingNsPerM,
-        });
-      } catch (err) {
-        ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
-      }
+      const s = kept.get(c.id);
+      starts.push({
+        damperId: c.id,
+        vehicleId: c.vehicleId,
+        cumKm: s?.cum_km ?? 0,
+        cumEnergyJ: s?.cum_energy_j ?? 0,
+        cumWearKm: s?.cum_wear_km ?? 0,
+        springDamage: s?.cum_spring_damage ?? 0,
+        b: bOf.get(c.specId) ?? 0,
+      });
     }
-    const wearDays = await repo.storeWear(starts, ctx.now, openings);
-    add(ctx.counts, 'openingsEstimated', openings.length);
+    const wearDays = await repo.storeWear(starts, ctx.now, untracked.map((u) => ({ damperId: u.id, km: u.untracked_km })));
     add(ctx.counts, 'dampersUpdated', starts.length);
     add(ctx.counts, 'wearDays', wearDays);
     await ctx.progress('wear', end, ids.length);
   });
 }
 
-/** Phase 3: predict every fitted damper as of the run's day. */
+/** Phase 3: predict every fitted damper (or those of `ctx.vehicleIds`) as of the run's day. */
 export async function predictAll(ctx: PhaseContext) {
   const repo = wearRepository(ctx.sequelize);
-  const resolve = ctx.lifeResolver ?? ratedLife;
+  const resolve = ctx.lifeResolver ?? priorLifeResolver();
   let done = 0;
-  await repo.dropStalePredictions();
+  if (!ctx.vehicleIds) await repo.dropStalePredictions();
   const read = async (prev: { lastId: number } | null) => {
-    const ids = await repo.installedDamperIds(prev ? prev.lastId : 0, ctx.damperChunk ?? WEAR_CHUNK);
+    const ids = await repo.installedDamperIds(prev ? prev.lastId : 0, ctx.damperChunk ?? WEAR_CHUNK, ctx.vehicleIds);
     if (!ids.length) return null;
-    const context = await repo.damperContext(ids);
-    const inputs = [];
+    const [context, recorded] = await Promise.all([repo.damperContext(ids), repo.recordedTotals(ids, ctx.asOf)]);
+    const inputs: { c: (typeof context)[number]; opts: PredictOptions; windowStart: string; levels: number[] }[] = [];
     const errors: ItemError[] = [];
     for (const c of context) {
       try {
-        const life = resolve({ damperId: c.id, corner: c.corner, ratedDamperLifeKm: c.ratedDamperLifeKm });
-        const opts = { asOf: ctx.asOf, installedAt: c.installedAt, life, thresholdFraction: ctx.thresholdFraction, nominalDampingNsPerM: c.corner.dampingNsPerM };
-        inputs.push({ c, opts, windowStart: predictionWindow(opts).windowStart });
+        const life = resolve({ damperId: c.id, specId: c.specId, axleIndex: c.axleIndex, ratedDamperLifeKm: c.ratedDamperLifeKm });
+        const opts: PredictOptions = {
+          asOf: ctx.asOf,
+          installedAt: c.installedAt,
+          life,
+          thresholdFraction: ctx.thresholdFraction,
+          nominalDampingNsPerM: c.corner.dampingNsPerM,
+          untrackedKm: c.untrackedKm ?? 0,
+          calendarYears: ctx.calendarYears,
+          scheduleQuantile: ctx.scheduleQuantile,
+        };
+        const r = recorded.get(c.id);
+        const opening = estimateOpening({ untrackedKm: opts.untrackedKm, recordedKm: r?.cumKm ?? 0, recordedWearKm: r?.cumWearKm ?? 0 });
+        inputs.push({ c, opts, windowStart: predictionWindow(opts).windowStart, levels: levelsOf(opts, opening.wearKm) });
       } catch (err) {
         errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
       }
     }
     const summaries = await repo.wearSummaries(
-      inputs.map((x) => ({ damperId: x.c.id, windowStart: x.windowStart, thresholdJ: x.opts.thresholdFraction * x.opts.life.energyJ, endOfLifeJ: x.opts.life.energyJ })),
+      inputs.map((x) => ({ damperId: x.c.id, windowStart: x.windowStart, levels: x.levels })),
       ctx.thresholdFraction,
       ctx.asOf,
     );
@@ -319,9 +325,7 @@ export async function predictAll(ctx: PhaseContext) {
     const out = [];
     for (const { c, opts } of inputs) {
       try {
-        // no wear day yet: the opening wear, if any, is all it has used
-        const none = c.opening ? { ...NO_WEAR, energyJ: c.opening.energyJ, springDamage: c.opening.springDamage } : NO_WEAR;
-        const p = predictFromSummary(summaries.get(c.id) ?? none, opts);
+        const p = predictFromSummary(summaries.get(c.id) ?? NO_WEAR, opts);
         out.push({ ...p, damperId: c.id, vehicleId: c.vehicleId });
       } catch (err) {
         ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
@@ -334,4 +338,4 @@ export async function predictAll(ctx: PhaseContext) {
   });
 }
 
-const NO_WEAR: WearSummary = Object.freeze({ windowEnergyJ: 0, windowKm: 0, windowSpringDamage: 0, energyJ: 0, springDamage: 0, thresholdDay: null, endOfLifeDay: null, springThresholdDay: null });
+const NO_WEAR: WearSummary = Object.freeze({ windowWearKm: 0, windowKm: 0, windowSpringDamage: 0, cumKm: 0, cumWearKm: 0, springDamage: 0, levelDays: [null, null, null, null], springThresholdDay: null });

@@ -1,64 +1,53 @@
 /**
- * Wear accumulation and prediction: pure functions over a damper's daily duty.
+ * Wear accumulation and prediction: pure functions over a damper's daily duty. See
+ * docs/methods.md, "Damper wear and prediction".
  *
- * - Consumed life = dissipated energy / life energy. The life energy comes from a resolver
- *   ({@link LifeResolver}); the default is the rated life (`ratedLifeEnergyJ(corner, { km:
- *   ratedDamperLifeKm })`: that many km of ISO 8608 class B at 80 km/h, product.md §3). The
- *   workshop issue can plug in a fleet-fitted life (Weibull) through the same resolver.
+ * - Wear km: each day's distance weighted by its road severity, Σ km·s^b, with b the spec's
+ *   road sensitivity (server/reliability/life-model.ts): the distance at the rated road
+ *   (ISO 8608 class B, 80 km/h) that does the same wear. Life used = wear km (recorded, plus the
+ *   opening wear of the distance before the records) / the median life in wear km.
+ * - The life comes from a resolver ({@link LifeResolver}): the spec's fitted life model (or
+ *   its prior), times a damper's own test-lane calibration when it has one.
+ * - Calendar limit: a damper is at end of life after {@link DEFAULT_CALENDAR_YEARS} years
+ *   whatever its distance (configurable; common practice: dampers are replaced at 5–7 years).
  * - Present damping (ASSUMPTION, stated in the product): the coefficient fades linearly with
- *   consumed life from the nominal value to {@link DAMPING_AT_END_OF_LIFE} × nominal at end of
- *   life, and stays there beyond it. A test-lane result (issue 6) replaces this estimate.
- * - Prediction: from the trailing {@link DUTY_WINDOW_DAYS}-day duty rate (energy per calendar
- *   day in the window, or since installation if shorter), the dates consumed life reaches the
- *   inspection threshold and end of life. The spring's Miner damage is predicted the same way.
+ *   life used from nominal to {@link DAMPING_AT_END_OF_LIFE} × nominal at end of life.
+ * - Prediction: from the trailing {@link DUTY_WINDOW_DAYS}-day wear rate, the dates life used
+ *   reaches the inspection threshold and end of life, with the end of life as a median and a
+ *   P10–P90 range from the fitted Weibull scatter.
  *
  * @module
  */
-import { ratedLifeEnergyJ } from '../physics/closed-form';
-import type { CornerParams } from '../physics/types';
+import { addMonths as addMonthsFns } from 'date-fns';
 
 /** Fraction of nominal damping left at end of life (ASSUMPTION: linear fade to 60 %). */
 export const DAMPING_AT_END_OF_LIFE = 0.6;
 /** Trailing window of the duty rate [days]. */
 export const DUTY_WINDOW_DAYS = 30;
+/** Calendar life of a damper [years] (common practice: 5–7 years). */
+export const DEFAULT_CALENDAR_YEARS = 6;
 
-export interface LifeEnergy {
-  /** Life energy of the damper [J]. */
-  energyJ: number;
-  /** Where it comes from: 'rated' (spec) or, later, 'fleet' (fitted from replacements). */
+/** The life a damper's wear is measured against. */
+export interface LifeBasis {
+  /** Road sensitivity b of the spec's model: wear km = Σ km·s^b. */
+  b: number;
+  /** Life in wear km at the median, P10 and P90 of the fitted scatter. */
+  medianWearKm: number;
+  p10WearKm: number;
+  p90WearKm: number;
+  /** 'prior', 'fleet' (fitted to removals) or 'test-lane' (calibrated on this damper). */
   source: string;
   /** One line on what it rests on. */
   note: string;
 }
 
-/** Resolves the life energy of a damper; issue 6 can wrap this to use a fleet-fitted life. */
-export type LifeResolver = (input: { damperId: number; corner: CornerParams; ratedDamperLifeKm: number }) => LifeEnergy;
+/** Resolves the life of a damper from its spec, axle and rated km. */
+export type LifeResolver = (input: { damperId: number; specId: number; axleIndex: number; ratedDamperLifeKm: number }) => LifeBasis;
 
 /** A distance for the words the wear area writes: `12,345 km`. */
 export const formatKm = (km: number) => `${Math.round(km).toLocaleString('en-GB')} km`;
 
-const ratedCache = new Map<string, LifeEnergy>();
-
-/**
- * The default resolver: the spec's rated life as energy (class B, 80 km/h, rated km). Cached
- * per corner and rated distance: a night asks for it once per damper, and the Lyapunov solve
- * and the note's number formatting are the same for every damper of a spec's axle.
- */
-export const ratedLife: LifeResolver = ({ corner, ratedDamperLifeKm }) => {
-  const key = `${corner.sprungMassKg}/${corner.unsprungMassKg}/${corner.springRateNPerM}/${corner.dampingNsPerM}/${corner.tireRateNPerM}/${ratedDamperLifeKm}`;
-  let life = ratedCache.get(key);
-  if (!life) {
-    life = Object.freeze({
-      energyJ: ratedLifeEnergyJ(corner, { km: ratedDamperLifeKm }),
-      source: 'rated',
-      note: `rated life: energy dissipated over ${formatKm(ratedDamperLifeKm)} of ISO 8608 class B road at 80 km/h`,
-    });
-    ratedCache.set(key, life);
-  }
-  return life;
-};
-
-/** Estimated present damping [N·s/m] from consumed life (linear fade, see module doc). */
+/** Estimated present damping [N·s/m] from life used (linear fade, see module doc). */
 export function estimatedDamping(nominalNsPerM: number, lifeUsedFraction: number): number {
   const u = Math.min(1, Math.max(0, lifeUsedFraction));
   return nominalNsPerM * (1 - (1 - DAMPING_AT_END_OF_LIFE) * u);
@@ -69,36 +58,45 @@ export interface DayDuty {
   distanceKm: number;
   energyJ: number;
   springDamage: number;
+  /** Σ km·s^b of the day's trips. */
+  wearKm: number;
 }
 
 export interface WearDayRow extends DayDuty {
   damperId: number;
   vehicleId: number;
+  cumKm: number;
   cumEnergyJ: number;
+  cumWearKm: number;
   cumSpringDamage: number;
-  lifeEnergyJ: number;
+  lifeWearKm: number;
   lifeUsedFraction: number;
   dampingNsPerM: number;
 }
 
 /**
- * Cumulative daily wear from a starting point (the last stored day before the recomputed
- * range, or zero) and the days' duty in date order.
+ * Cumulative daily wear of the recorded duty, from a starting point (the last stored day
+ * before the recomputed range, or zero) and the days' duty in date order. Opening wear is not
+ * in these sums (it is revised as the records grow): `openingWearKm` only shifts life used.
  */
 export function accumulateDays(
   ids: { damperId: number; vehicleId: number },
-  start: { cumEnergyJ: number; cumSpringDamage: number } | null,
+  start: { cumKm: number; cumEnergyJ: number; cumWearKm: number; cumSpringDamage: number } | null,
   days: DayDuty[],
-  lifeEnergyJ: number,
+  lifeWearKm: number,
   nominalDampingNsPerM: number,
+  openingWearKm = 0,
 ): WearDayRow[] {
+  let km = start?.cumKm ?? 0;
   let e = start?.cumEnergyJ ?? 0;
+  let w = start?.cumWearKm ?? 0;
   let d = start?.cumSpringDamage ?? 0;
   return days.map((x) => {
+    km += x.distanceKm;
     e += x.energyJ;
+    w += x.wearKm;
     d += x.springDamage;
-    const u = e / lifeEnergyJ;
-    // explicit fields, not spreads: this runs once per damper-day of the night
+    const u = (w + openingWearKm) / lifeWearKm;
     return {
       damperId: ids.damperId,
       vehicleId: ids.vehicleId,
@@ -106,38 +104,16 @@ export function accumulateDays(
       distanceKm: x.distanceKm,
       energyJ: x.energyJ,
       springDamage: x.springDamage,
+      wearKm: x.wearKm,
+      cumKm: km,
       cumEnergyJ: e,
+      cumWearKm: w,
       cumSpringDamage: d,
-      lifeEnergyJ,
+      lifeWearKm,
       lifeUsedFraction: u,
       dampingNsPerM: estimatedDamping(nominalDampingNsPerM, u),
     };
   });
-}
-
-export interface Prediction {
-  asOf: string;
-  windowDays: number;
-  windowEnergyJ: number;
-  windowKm: number;
-  rateJPerDay: number;
-  lifeEnergyJ: number;
-  lifeSource: string;
-  energyJ: number;
-  lifeUsedFraction: number;
-  dampingNsPerM: number;
-  thresholdFraction: number;
-  thresholdDate: string | null;
-  endOfLifeDate: string | null;
-  springDamage: number;
-  springRatePerDay: number;
-  springThresholdDate: string | null;
-  basis: {
-    method: string;
-    life: string;
-    damping: string;
-    window: string;
-  };
 }
 
 const DAY_MS = 86_400_000;
@@ -147,31 +123,85 @@ export const plusDays = (day: string, n: number) => new Date(dayMs(day) + n * DA
 /** Calendar days from `from` to `to` (YYYY-MM-DD). */
 export const daysBetween = (from: string, to: string) => Math.round((dayMs(to) - dayMs(from)) / DAY_MS);
 
+/** `day` plus `n` calendar months (YYYY-MM-DD; the last day of a shorter month when the day does not exist). */
+export function addMonths(day: string, n: number): string {
+  return addMonthsFns(new Date(`${day}T00:00:00Z`), n).toISOString().slice(0, 10);
+}
+
+/** Opening wear: the distance a damper ran before the records, see {@link estimateOpening}. */
+export interface OpeningInput {
+  /** Distance since fitting no trip on record covers [km]. */
+  untrackedKm: number;
+  /** The damper's own recorded distance [km] and wear km. */
+  recordedKm: number;
+  recordedWearKm: number;
+}
+
+export interface Opening {
+  km: number;
+  wearKm: number;
+  /** Range of the estimate: all of it at severity 1, or all at the damper's recorded rate. */
+  lowWearKm: number;
+  highWearKm: number;
+  /** Wear km per km used (1 = the ordinary road the rating is stated on). */
+  perKm: number;
+  basis: string;
+}
+
 /**
- * What a prediction rests on, as of its day: the duty in the trailing window, the cumulative
- * wear on the last day with duty (on or before the as-of day), and the first days the levels
- * were reached (null while not reached).
+ * Opening wear (stated rule): the untracked distance is charged at the prior's ordinary-road
+ * rate (severity 1: ISO 8608 class B at 80 km/h) unless the damper's own record is at least as
+ * long as the untracked distance, in which case at its own recorded wear per km. A short record
+ * never extrapolates over a longer untracked distance. The range runs from the lower to the
+ * higher of the two rates.
+ */
+export function estimateOpening(i: OpeningInput): Opening {
+  const km = Math.max(0, i.untrackedKm);
+  const own = i.recordedKm > 0 ? i.recordedWearKm / i.recordedKm : 1;
+  if (!(km > 0)) return { km: 0, wearKm: 0, lowWearKm: 0, highWearKm: 0, perKm: 1, basis: 'none: the trips on record cover the distance since fitting' };
+  const useOwn = i.recordedKm >= km && i.recordedKm > 0;
+  const perKm = useOwn ? own : 1;
+  return {
+    km,
+    wearKm: km * perKm,
+    lowWearKm: km * Math.min(1, own),
+    highWearKm: km * Math.max(1, own),
+    perKm,
+    basis: useOwn
+      ? `${formatKm(km)} before the trips on record, at this damper's own recorded rate (${own.toFixed(2)}× the rated road, over ${formatKm(i.recordedKm)} on record)`
+      : `${formatKm(km)} before the trips on record, at the rated road's rate (class B at 80 km/h): its ${formatKm(i.recordedKm)} on record are too short to say otherwise${i.recordedKm > 0 ? ` (they run at ${own.toFixed(2)}× that rate)` : ''}`,
+  };
+}
+
+/**
+ * What a prediction rests on, as of its day: the recorded duty in the trailing window, the
+ * cumulative recorded wear on the last day with duty (on or before the as-of day), and the
+ * first days the recorded wear reached the given levels (null while not reached).
  */
 export interface WearSummary {
-  windowEnergyJ: number;
+  windowWearKm: number;
   windowKm: number;
   windowSpringDamage: number;
-  /** Cumulative damper energy [J] and spring damage [1] at the last day with duty. */
-  energyJ: number;
+  cumKm: number;
+  cumWearKm: number;
   springDamage: number;
-  /** First days cumulative energy reached threshold × life energy, and the life energy. */
-  thresholdDay: string | null;
-  endOfLifeDay: string | null;
-  /** First day the spring's cumulative damage reached the threshold fraction. */
+  /** First days recorded wear km reached each level of {@link levelsOf} (threshold, median, P10, P90 end of life). */
+  levelDays: (string | null)[];
   springThresholdDay: string | null;
 }
 
 export interface PredictOptions {
   asOf: string;
   installedAt: string;
-  life: LifeEnergy;
+  life: LifeBasis;
   thresholdFraction: number;
   nominalDampingNsPerM: number;
+  /** Untracked distance before the records [km] (0 when the records cover it). */
+  untrackedKm: number;
+  /** Calendar life [years]. */
+  calendarYears?: number;
+  /** Quantile of the life the inspection threshold is scheduled on (0.5 = median). */
+  scheduleQuantile?: number;
   windowDays?: number;
 }
 
@@ -182,82 +212,164 @@ export function predictionWindow(opts: { asOf: string; installedAt: string; wind
 }
 
 /**
- * The summary of a damper's daily wear rows (in date order; days after `asOf` ignored) that
- * {@link predictFromSummary} needs. The nightly job gets the same figures from one SQL
- * aggregate per chunk of dampers instead.
+ * Life in wear km at quantile q from the basis' median, P10 and P90 (log-linear in the Weibull
+ * log-quantile between them, exact at the three).
  */
-export function summarizeWear(history: WearDayRow[], opts: PredictOptions): WearSummary {
+export function lifeAtQuantile(life: LifeBasis, q: number): number {
+  if (q === 0.5) return life.medianWearKm;
+  // Weibull: ln L_q = ln scale + σ·ln(−ln(1−q)); σ and scale from P10 and P90
+  const z = (p: number) => Math.log(-Math.log(1 - p));
+  const sigma = (Math.log(life.p90WearKm) - Math.log(life.p10WearKm)) / (z(0.9) - z(0.1));
+  return life.medianWearKm * Math.exp(sigma * (z(q) - z(0.5)));
+}
+
+/**
+ * Recorded wear-km levels whose first days a prediction needs: the inspection threshold (at
+ * the schedule quantile), end of life at the median, P10 and P90; each less the opening wear.
+ */
+export function levelsOf(opts: PredictOptions, openingWearKm: number): number[] {
+  const q = opts.scheduleQuantile ?? 0.5;
+  return [opts.thresholdFraction * lifeAtQuantile(opts.life, q), opts.life.medianWearKm, opts.life.p10WearKm, opts.life.p90WearKm].map((x) => x - openingWearKm);
+}
+
+/** The summary of a damper's daily wear rows (in date order; days after `asOf` ignored). */
+export function summarizeWear(history: WearDayRow[], opts: PredictOptions, openingWearKm: number): WearSummary {
   const { windowStart } = predictionWindow(opts);
-  const L = opts.life.energyJ;
-  const th = opts.thresholdFraction;
-  const s: WearSummary = { windowEnergyJ: 0, windowKm: 0, windowSpringDamage: 0, energyJ: 0, springDamage: 0, thresholdDay: null, endOfLifeDay: null, springThresholdDay: null };
+  const levels = levelsOf(opts, openingWearKm);
+  const s: WearSummary = { windowWearKm: 0, windowKm: 0, windowSpringDamage: 0, cumKm: 0, cumWearKm: 0, springDamage: 0, levelDays: levels.map(() => null), springThresholdDay: null };
   for (const h of history) {
     if (h.day > opts.asOf) break;
-    s.energyJ = h.cumEnergyJ;
+    s.cumKm = h.cumKm;
+    s.cumWearKm = h.cumWearKm;
     s.springDamage = h.cumSpringDamage;
     if (h.day >= windowStart) {
-      s.windowEnergyJ += h.energyJ;
+      s.windowWearKm += h.wearKm;
       s.windowKm += h.distanceKm;
       s.windowSpringDamage += h.springDamage;
     }
-    if (s.thresholdDay === null && h.cumEnergyJ >= th * L) s.thresholdDay = h.day;
-    if (s.endOfLifeDay === null && h.cumEnergyJ >= L) s.endOfLifeDay = h.day;
-    if (s.springThresholdDay === null && h.cumSpringDamage >= th) s.springThresholdDay = h.day;
+    levels.forEach((l, i) => {
+      if (s.levelDays[i] === null && h.cumWearKm >= l) s.levelDays[i] = h.day;
+    });
+    if (s.springThresholdDay === null && h.cumSpringDamage >= opts.thresholdFraction) s.springThresholdDay = h.day;
   }
   return s;
 }
 
-/**
- * Predicts when a damper's consumed life reaches the threshold and end of life, and when its
- * spring's Miner damage reaches the threshold, from the trailing duty rate.
- *
- * @param history the damper's daily wear rows in date order (any days after `asOf` ignored)
- * @param opts as-of day, installation day, life energy [J], threshold fraction [1], nominal damping [N·s/m]
- */
-export function predict(history: WearDayRow[], opts: PredictOptions): Prediction {
-  return predictFromSummary(summarizeWear(history, opts), opts);
+export interface Prediction {
+  asOf: string;
+  windowDays: number;
+  windowKm: number;
+  windowWearKm: number;
+  /** Wear km per calendar day and km per day over the window. */
+  wearKmPerDay: number;
+  kmPerDay: number;
+  life: LifeBasis;
+  /** Recorded plus opening wear km. */
+  wearKm: number;
+  lifeUsedFraction: number;
+  /** Life used by the distance alone and by the calendar alone. */
+  distanceLifeUsed: number;
+  calendarLifeUsed: number;
+  opening: Opening;
+  /** Opening wear as a share of life, with its range. */
+  openingShare: number;
+  openingShareLow: number;
+  openingShareHigh: number;
+  dampingNsPerM: number;
+  thresholdFraction: number;
+  scheduleQuantile: number;
+  thresholdDate: string | null;
+  /** End of life at the median of the fitted scatter, and its P10–P90 range. */
+  endOfLifeDate: string | null;
+  endOfLifeP10Date: string | null;
+  endOfLifeP90Date: string | null;
+  /** Which limit sets the end of life: 'distance' or 'calendar'. */
+  governedBy: 'distance' | 'calendar';
+  springDamage: number;
+  springRatePerDay: number;
+  springThresholdDate: string | null;
+  basis: {
+    method: string;
+    life: string;
+    opening: string;
+    calendar: string;
+    damping: string;
+    window: string;
+  };
 }
 
-/** {@link predict} from a {@link WearSummary}. */
+/** Predicts from a {@link WearSummary}. */
 export function predictFromSummary(s: WearSummary, opts: PredictOptions): Prediction {
   const { windowDays, windowStart } = predictionWindow(opts);
-  const L = opts.life.energyJ;
-  const E = s.energyJ;
-  const D = s.springDamage;
-  const wE = s.windowEnergyJ;
-  const wKm = s.windowKm;
-  const rate = wE / windowDays;
+  const opening = estimateOpening({ untrackedKm: opts.untrackedKm, recordedKm: s.cumKm, recordedWearKm: s.cumWearKm });
+  const q = opts.scheduleQuantile ?? 0.5;
+  const years = opts.calendarYears ?? DEFAULT_CALENDAR_YEARS;
+  const L = opts.life.medianWearKm;
+  const W = s.cumWearKm + opening.wearKm;
+  const rate = s.windowWearKm / windowDays;
   const dRate = s.windowSpringDamage / windowDays;
   const th = opts.thresholdFraction;
+  const calEnd = addMonths(opts.installedAt, Math.round(years * 12));
+  const calendarDays = daysBetween(opts.installedAt, calEnd);
+  const ageDays = Math.max(0, daysBetween(opts.installedAt, opts.asOf));
   const reached = (level: number, cum: number, r: number, firstDay: string | null): string | null => {
     if (cum >= level) return firstDay ?? opts.asOf;
     if (!(r > 0)) return null;
     const days = Math.ceil((level - cum) / r);
     return days > 365 * 100 ? null : plusDays(opts.asOf, days);
   };
-  const u = E / L;
+  const earlier = (a: string | null, b: string) => (a === null || b < a ? b : a);
+  const levels = levelsOf(opts, opening.wearKm).map((l) => l + opening.wearKm);
+  const distTh = reached(levels[0], W, rate, s.levelDays[0]);
+  const distEol = reached(levels[1], W, rate, s.levelDays[1]);
+  const calTh = plusDays(opts.installedAt, Math.round(th * calendarDays));
+  const endOfLifeDate = earlier(distEol, calEnd);
+  const distanceLifeUsed = W / L;
+  const calendarLifeUsed = ageDays / calendarDays;
+  const u = Math.max(distanceLifeUsed, calendarLifeUsed);
+  const pctOf = (x: number) => `${Math.round(x * 100)} %`;
   return {
     asOf: opts.asOf,
     windowDays,
-    windowEnergyJ: wE,
-    windowKm: wKm,
-    rateJPerDay: rate,
-    lifeEnergyJ: L,
-    lifeSource: opts.life.source,
-    energyJ: E,
+    windowKm: s.windowKm,
+    windowWearKm: s.windowWearKm,
+    wearKmPerDay: rate,
+    kmPerDay: s.windowKm / windowDays,
+    life: opts.life,
+    wearKm: W,
     lifeUsedFraction: u,
+    distanceLifeUsed,
+    calendarLifeUsed,
+    opening,
+    openingShare: opening.wearKm / L,
+    openingShareLow: opening.lowWearKm / L,
+    openingShareHigh: opening.highWearKm / L,
     dampingNsPerM: estimatedDamping(opts.nominalDampingNsPerM, u),
     thresholdFraction: th,
-    thresholdDate: reached(th * L, E, rate, s.thresholdDay),
-    endOfLifeDate: reached(L, E, rate, s.endOfLifeDay),
-    springDamage: D,
+    scheduleQuantile: q,
+    thresholdDate: earlier(distTh, calTh),
+    endOfLifeDate,
+    endOfLifeP10Date: earlier(reached(levels[2], W, rate, s.levelDays[2]), calEnd),
+    endOfLifeP90Date: earlier(reached(levels[3], W, rate, s.levelDays[3]), calEnd),
+    governedBy: distEol !== null && distEol <= calEnd ? 'distance' : 'calendar',
+    springDamage: s.springDamage,
     springRatePerDay: dRate,
-    springThresholdDate: reached(th, D, dRate, s.springThresholdDay),
+    springThresholdDate: reached(th, s.springDamage, dRate, s.springThresholdDay),
     basis: {
-      method: `straight-line projection of the duty rate over the last ${windowDays} day(s) (${windowStart} to ${opts.asOf})`,
+      method: `straight-line projection of the wear rate over the last ${windowDays} day(s) (${windowStart} to ${opts.asOf}); end of life as the median of the fitted scatter with its P10–P90 range; inspection threshold ${pctOf(th)} of the ${q === 0.5 ? 'median' : `P${Math.round(q * 100)}`} life`,
       life: opts.life.note,
+      opening: opening.basis,
+      calendar: `calendar limit ${years} years from fitting (common practice: 5–7 years), reached ${calEnd}`,
       damping: `estimated present damping: linear fade from nominal to ${Math.round(DAMPING_AT_END_OF_LIFE * 100)} % at end of life (assumption)`,
-      window: `${Math.round(wKm)} km and ${(wE / 1e6).toFixed(2)} MJ in the window`,
+      window: `${formatKm(s.windowKm)} driven in the window, ${formatKm(s.windowWearKm)} of wear at the rated road's rate`,
     },
   };
+}
+
+/** {@link predictFromSummary} over a damper's wear rows. */
+export function predict(history: WearDayRow[], opts: PredictOptions): Prediction {
+  // the opening depends on the record; the levels on the opening: one pass for each
+  const pre = summarizeWear(history, opts, 0);
+  const opening = estimateOpening({ untrackedKm: opts.untrackedKm, recordedKm: pre.cumKm, recordedWearKm: pre.cumWearKm });
+  return predictFromSummary(summarizeWear(history, opts, opening.wearKm), opts);
 }

@@ -1,17 +1,19 @@
 /**
- * The life resolver the nightly job uses (issue 5's hook): the workshop's fleet-blended and
- * test-lane-calibrated life; if it cannot be built, the rated life, with a warning in the log.
+ * The life phase of the nightly job: refit each spec's life model to the fleet's removals and
+ * build the resolver the wear and prediction phases measure each damper against; if that
+ * fails, the prior, with a warning in the log.
  */
 import type { Logger } from '../logger';
-import { ratedLife, type LifeResolver } from '../wear/wear';
+import type { LifeResolver } from '../wear/wear';
 import type { Config } from '../config';
-import { createWorkshopLifeResolver } from './life';
+import { createWorkshopLifeResolver, priorLifeResolver, refitLifeModels } from './life';
 
-export async function workshopLifeOrRated(config: Config, log?: Pick<Logger, 'warn'>): Promise<LifeResolver> {
+export async function refitAndResolveLife(config: Config, now: Date, log?: Pick<Logger, 'warn'>): Promise<{ resolver: LifeResolver; fitted: number }> {
   try {
-    return await createWorkshopLifeResolver(config.workshop);
+    const models = await refitLifeModels(config.workshop.life, now);
+    return { resolver: await createWorkshopLifeResolver(config.workshop.life.prior), fitted: [...models.values()].filter((m) => m.source === 'fleet').length };
   } catch (err) {
-    log?.warn?.(`workshop life not available, using the rated life: ${(err as Error).message}`);
-    return ratedLife;
+    log?.warn?.(`damper life model not available, using the prior: ${(err as Error).message}`);
+    return { resolver: priorLifeResolver(config.workshop.life.prior), fitted: 0 };
   }
 }

@@ -44,6 +44,12 @@ export interface FittedCornerRow {
   p_threshold_date: string | null;
   p_end_date: string | null;
   p_rate: number | null;
+  p_life_wear_km: number | null;
+  p_window_km: number | null;
+  p_window_wear_km: number | null;
+  p_end_p10: string | null;
+  p_end_p90: string | null;
+  p_opening_share: number | null;
 }
 
 export const workshopRepository = {
@@ -54,7 +60,8 @@ export const workshopRepository = {
               d.life_used_fraction, d.damping_ns_per_m, d.wear_updated_at, v.odometer_km, v.spec_id,
               a.sprung_mass_kg, a.unsprung_mass_kg, a.spring_rate_n_per_m, a.damping_ns_per_m AS nominal_ns_per_m, a.tire_rate_n_per_m, a.rated_damper_life_km,
               p.life_used_fraction AS p_life, p.damping_ns_per_m AS p_damping, p.life_source AS p_source, p.threshold_date AS p_threshold_date,
-              p.end_of_life_date AS p_end_date, p.rate_j_per_day AS p_rate
+              p.end_of_life_date AS p_end_date, p.wear_km_per_day AS p_rate, p.life_wear_km AS p_life_wear_km, p.window_km AS p_window_km,
+              p.window_wear_km AS p_window_wear_km, p.end_of_life_p10_date AS p_end_p10, p.end_of_life_p90_date AS p_end_p90, p.opening_share AS p_opening_share
        FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id
        JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
        LEFT JOIN damper_predictions p ON p.damper_id = d.id
@@ -141,29 +148,16 @@ export const workshopRepository = {
   },
 
   /** Life records of every damper ever fitted to vehicles of a spec. */
-  async lifeRecords(specId: number) {
-    return q<{
-      id: number; axle_index: number; installed_odometer_km: number; removed_odometer_km: number | null; removed_at: string | null; removal_reason: string | null;
-      energy_j: number; odometer_km: number; duty_km: number | null; rated_damper_life_km: number;
-    }>(
-      `SELECT d.id, d.axle_index, d.installed_odometer_km, d.removed_odometer_km, d.removed_at, d.removal_reason, d.energy_j, v.odometer_km,
-              (SELECT SUM(t.distance_km) FROM trip_duties t WHERE t.damper_id = d.id) AS duty_km, a.rated_damper_life_km
-       FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
-       WHERE v.spec_id = ? ORDER BY d.id`,
-      [specId],
-    );
-  },
-
   async specs() {
     return q<{ id: number; name: string }>('SELECT id, name FROM suspension_specs ORDER BY name');
   },
 
   /** The latest test-lane estimate of each installed damper that has one. */
   async latestMeasurements() {
-    return q<{ damper_id: number; measured_damping_ns_per_m: number; nominal_damping_ns_per_m: number; energy_j_at_test: number; inspection_id: number }>(
-      `SELECT c.damper_id, c.measured_damping_ns_per_m, c.nominal_damping_ns_per_m, c.energy_j_at_test, c.inspection_id
+    return q<{ damper_id: number; measured_damping_ns_per_m: number; nominal_damping_ns_per_m: number; life_used_at_test: number; inspection_id: number }>(
+      `SELECT c.damper_id, c.measured_damping_ns_per_m, c.nominal_damping_ns_per_m, c.life_used_at_test, c.inspection_id
        FROM inspection_corners c JOIN dampers d ON d.id = c.damper_id
-       WHERE d.removed_at IS NULL AND c.measured_damping_ns_per_m IS NOT NULL AND c.energy_j_at_test > 0
+       WHERE d.removed_at IS NULL AND c.measured_damping_ns_per_m IS NOT NULL AND c.life_used_at_test > 0
          AND c.id = (SELECT x.id FROM inspection_corners x WHERE x.damper_id = c.damper_id AND x.measured_damping_ns_per_m IS NOT NULL ORDER BY x.id DESC LIMIT 1)`,
     );
   },

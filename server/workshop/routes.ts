@@ -177,6 +177,11 @@ export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: (
     res.json(await svc.fleetLife(specId));
   });
 
+  r.get('/life-backtest', allow('manager', 'mechanic'), async (req, res) => {
+    const { specId } = parse(lifeQuery, req.query, 'query');
+    res.json(await svc.lifeBacktest(specId));
+  });
+
   r.get('/forecast', allow('manager'), async (req, res) => {
     const qy = parse(forecastQuery, req.query, 'query');
     const f = await svc.forecast(qy.days);
@@ -206,6 +211,6 @@ export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: (
   });
 
   r.get('/workshop/options', allow('manager', 'mechanic'), (_req, res) => {
-    res.json({ findings: FINDINGS, verdicts: VERDICTS, removalReasons: REMOVAL_REASONS, laneFlagPoints: cfg.laneFlagPoints, attachmentMaxBytes: cfg.attachmentMaxBytes, fleetLifeMinRemovals: cfg.fleetLifeMinRemovals });
+    res.json({ findings: FINDINGS, verdicts: VERDICTS, removalReasons: REMOVAL_REASONS, laneFlagPoints: cfg.laneFlagPoints, attachmentMaxBytes: cfg.attachmentMaxBytes });
   });
 }

@@ -12,7 +12,8 @@ import { queueAssignmentNotes } from '../mail/service';
 import { AppError } from '../errors';
 import type { SessionUser } from '../http/access';
 import { sequelize, exec, inList, insert, inTransaction, q, stamp, workshopRepository, type FittedCornerRow } from './repository';
-import { lifeUsedFromDamping, specLife, usedLifeKm, type SpecLife } from './life';
+import { backtest, lifeUsedFromDamping, modelNote, specLife, storedLifeModels } from './life';
+import { lifeKmAt, type LifeModel } from '../reliability/life-model';
 import { attachmentPath, storeAttachment, type AttachmentKind } from './attachments';
 import type { WorkshopConfig } from './config';
 
@@ -40,6 +41,12 @@ export interface CornerState {
   state: 'ok' | 'watch' | 'due' | 'past_life';
   thresholdDate: string | null;
   endOfLifeDate: string | null;
+  /** P10–P90 range of the end-of-life date from the fitted scatter. */
+  endOfLifeP10Date: string | null;
+  endOfLifeP90Date: string | null;
+  /** Share of life used before the trips on record (opening wear), null before the nightly job. */
+  openingShare: number | null;
+  /** Median life [km] at the damper's own recent wear rate (or on the rated road before the nightly job). */
   lifeKm: number;
   lifeSource: string;
 }
@@ -48,9 +55,11 @@ export interface CornerState {
 const stateOf = (u: number, threshold: number): CornerState['state'] => (u >= 1 ? 'past_life' : u >= threshold ? 'due' : u >= threshold * 0.75 - 1e-9 ? 'watch' : 'ok');
 
 /** Each corner's predicted state from the nightly wear state, or a km estimate before it. */
-export function cornerState(r: FittedCornerRow, lives: Map<number, SpecLife>, threshold = 0.8): CornerState {
-  const life = lives.get(r.spec_id);
-  const lifeKm = life?.blend.axles.find((a) => a.axleIndex === r.axle_index)?.usedKm ?? r.rated_damper_life_km;
+export function cornerState(r: FittedCornerRow, models: Map<number, LifeModel>, threshold = 0.8): CornerState {
+  const model = models.get(r.spec_id);
+  const ratedRoadKm = model ? lifeKmAt(model, r.rated_damper_life_km, 1, 0.5) : r.rated_damper_life_km;
+  const perKm = r.p_window_km && r.p_window_km > 0 && r.p_window_wear_km !== null ? r.p_window_wear_km / r.p_window_km : null;
+  const lifeKm = r.p_life_wear_km !== null && perKm ? r.p_life_wear_km / perKm : ratedRoadKm;
   const km = Math.max(0, r.odometer_km - r.installed_odometer_km);
   const fromModel = r.wear_updated_at !== null;
   const u = fromModel ? r.life_used_fraction : km / lifeKm;
@@ -69,8 +78,11 @@ export function cornerState(r: FittedCornerRow, lives: Map<number, SpecLife>, th
     state: stateOf(u, threshold),
     thresholdDate: r.p_threshold_date,
     endOfLifeDate: r.p_end_date,
+    endOfLifeP10Date: r.p_end_p10,
+    endOfLifeP90Date: r.p_end_p90,
+    openingShare: r.p_opening_share,
     lifeKm,
-    lifeSource: r.p_source ?? (life?.blend.used ? 'fleet' : 'rated'),
+    lifeSource: r.p_source ?? model?.source ?? 'prior',
   };
 }
 
@@ -123,7 +135,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
   }
 
   async function cornersOf(vehicleIds: number[]) {
-    const [rows, lives] = await Promise.all([workshopRepository.fittedCorners(vehicleIds), usedLifeKm(cfg)]);
+    const [rows, lives] = await Promise.all([workshopRepository.fittedCorners(vehicleIds), storedLifeModels(cfg.life.prior)]);
     const by = new Map<number, CornerState[]>();
     for (const r of rows) {
       if (!by.has(r.vehicle_id)) by.set(r.vehicle_id, []);
@@ -267,7 +279,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       await scopeCheck(user, i);
       if (!OPEN.includes(i.status)) throw AppError.conflict('This inspection is closed; results can no longer be changed.', { status: `is ${i.status}` });
       const rows = await workshopRepository.fittedCorners([i.vehicle_id]);
-      const lives = await usedLifeKm(cfg);
+      const lives = await storedLifeModels(cfg.life.prior);
       const now = deps.now();
       const fields: Record<string, string> = {};
       body.corners.forEach((c, k) => {
@@ -429,7 +441,14 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
     async fleetLife(specId: number) {
       const [s] = await q<{ id: number; name: string }>('SELECT id, name FROM suspension_specs WHERE id = ?', [specId]);
       if (!s) throw AppError.notFound('Suspension spec');
-      return specLife(s.id, s.name, cfg);
+      return specLife(s.id, s.name, cfg.life);
+    },
+
+    /** What the model trained only on earlier data predicted for each removal, against what happened. */
+    async lifeBacktest(specId: number) {
+      const [s] = await q<{ id: number; name: string }>('SELECT id, name FROM suspension_specs WHERE id = ?', [specId]);
+      if (!s) throw AppError.notFound('Suspension spec');
+      return { specName: s.name, ...(await backtest(s.id, cfg.life)) };
     },
 
     /** Expected damper replacements in the next `days` days, with cost, by spec and depot. */
@@ -437,7 +456,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       const from = today();
       const to = day(addDays(new Date(`${from}T00:00:00Z`), days));
       const [{ rows, lives }, km30, costs] = await Promise.all([
-        Promise.all([workshopRepository.fittedCorners('all'), usedLifeKm(cfg)]).then(([rows, lives]) => ({ rows, lives })),
+        Promise.all([workshopRepository.fittedCorners('all'), storedLifeModels(cfg.life.prior)]).then(([rows, lives]) => ({ rows, lives })),
         workshopRepository.km30(`${from} 23:59:59`),
         q<{ spec_id: number; cost: number; n: number }>(
           `SELECT v.spec_id, AVG(i.cost) AS cost, COUNT(*) AS n FROM work_record_items i JOIN work_records w ON w.id = i.work_record_id JOIN vehicles v ON v.id = w.vehicle_id
@@ -571,17 +590,12 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         vehicleId,
         corners: (by.get(vehicleId) ?? []).map((c) => ({ ...c, lifeSource: calibrated.has(c.damperId) ? 'test-lane' : c.lifeSource })),
         life: {
-          specId: life.specId,
-          specName: life.specName,
-          used: life.blend.used ? 'fleet' : 'rated',
-          axles: life.blend.axles,
-          weight: life.blend.weight,
-          failures: life.blend.failures,
-          minRemovals: life.blend.minRemovals,
-          rule: life.blend.rule,
-          text: life.blend.used
-            ? `Life used: fleet-blended (${(life.blend.weight * 100).toFixed(0)} % weight on ${life.blend.failures} removals of this spec), ${life.blend.axles.map((a) => `axle ${a.axleIndex + 1}: ${Math.round(a.usedKm).toLocaleString('en-GB')} km`).join(', ')}.`
-            : `Life used: rated (${life.blend.axles.map((a) => `axle ${a.axleIndex + 1}: ${Math.round(a.ratedKm).toLocaleString('en-GB')} km`).join(', ')}); the fleet's own life takes over from ${life.blend.minRemovals} removals (now ${life.blend.failures}).`,
+          specId: v.spec_id,
+          source: life.source,
+          failures: life.failures,
+          classStepFactor: life.classStepFactor,
+          shape: life.shape,
+          text: `Life used is measured against ${modelNote(life)}.`,
         },
         comparisons: comparisons.map((c) => ({ inspectionId: c.inspection_id, position: c.position, adhesionPct: c.adhesion_pct, predictedNsPerM: c.predicted, measuredNsPerM: c.measured, nominalNsPerM: c.nominal, note: c.note, verdict: c.verdict, at: iso(c.at), basis: c.basis })),
         workRecords: (await workshopRepository.workRecords({ vehicleId })).map(workView),

@@ -81,6 +81,7 @@ export const ACCESS: Record<string, Rule> = {
   'GET /api/work-records/:id': { allow: ['manager', 'mechanic'], expect: 404, path: '/api/work-records/999999' },
   'POST /api/work-records': { allow: ['mechanic'], expect: 400, body: {} },
   'GET /api/fleet-life': { allow: ['manager', 'mechanic'], expect: 200, path: '/api/fleet-life?specId=1' },
+  'GET /api/life-backtest': { allow: ['manager', 'mechanic'], expect: 200, path: '/api/life-backtest?specId=1' },
   'GET /api/forecast': { allow: ['manager'], expect: 200 },
   'GET /api/workload': { allow: ['manager'], expect: 200 },
   'GET /api/model-check': { allow: ['manager'], expect: 200 },

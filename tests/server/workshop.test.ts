@@ -238,14 +238,30 @@ describe('work records', () => {
     expect((await r.text()).split('\n')[0]).toBe('spec,depot,replacements,cost,cost_known');
   });
 
-  it('when the fleet life of a spec is asked for, then it gives the km and energy fits or why not, and the blending rule', async () => {
+  it("when the fleet life of a spec is asked for, then it gives the life model, the removals' own Weibull in km (or why not), the comparison and its assumptions", async () => {
     const m = await manager();
-    const r = await m.get<{ km: { points: unknown[]; fit: unknown; reason: string | null }; energy: unknown; blend: { minRemovals: number; rule: string; axles: unknown[] } }>('/api/fleet-life?specId=1');
+    const r = await m.get<{ fleetKm: { points: unknown[]; fit: unknown; reason: string | null }; model: { shape: number; source: string }; comparison: { ratio: number | null }; assumptions: string[] }>('/api/fleet-life?specId=1');
     expect(r.status).toBe(200);
-    expect(r.body.blend.minRemovals).toBe(5);
-    expect(r.body.blend.axles.length).toBeGreaterThan(0);
-    expect(r.body.km.fit !== null || r.body.km.reason !== null).toBe(true);
+    expect(r.body.model.shape).toBeGreaterThan(0);
+    expect(r.body.assumptions.length).toBeGreaterThan(3);
+    expect(r.body.fleetKm.fit !== null || r.body.fleetKm.reason !== null).toBe(true);
     expect((await m.get('/api/fleet-life')).status).toBe(400);
+  });
+
+  it('when the back-test of a spec is asked for, then every removal for wear has a prediction made before it, with the error figures', async () => {
+    const m = await manager();
+    const r = await m.get<{ points: { actualKm: number; predictedMedianKm: number; p10Km: number; p90Km: number; removedAt: string }[]; mdape: number | null; insideShare: number | null; method: string }>('/api/life-backtest?specId=1');
+    expect(r.status).toBe(200);
+    expect(r.body.method).toMatch(/before/);
+    for (const p of r.body.points) expect(p.p10Km <= p.predictedMedianKm && p.predictedMedianKm <= p.p90Km).toBe(true);
+    if (r.body.points.length) {
+      expect(r.body.mdape).toBeGreaterThanOrEqual(0);
+      expect(r.body.insideShare).toBeGreaterThanOrEqual(0);
+    }
+    expect((await m.get('/api/life-backtest?specId=abc')).status).toBe(400);
+    const d = new ApiClient(srv.url);
+    await d.login(DEMO.driver);
+    expect((await d.get('/api/life-backtest?specId=1')).status).toBe(403);
   });
 
   it('when the workload is asked for, then each depot has its weeks', async () => {
@@ -258,34 +274,38 @@ describe('work records', () => {
 });
 
 describe('life used by the nightly job', () => {
-  it('when a spec has at least FLEET_LIFE_MIN_REMOVALS removals, then the resolver gives the fleet-blended life (credibility n/(n+k)) and says so', async () => {
-    const { createWorkshopLifeResolver } = await import('../../server/workshop/life');
+  it("when the life models are refitted, then the resolver measures each damper against its spec's stored model, and the damper-life page shows the same model", async () => {
+    const { createWorkshopLifeResolver, refitLifeModels } = await import('../../server/workshop/life');
+    const { lifeWearKm } = await import('../../server/reliability/life-model');
     const { loadConfig } = await import('../../server/config');
-    const { ratedLife } = await import('../../server/wear/wear');
+    const settings = loadConfig({}).workshop.life;
+    const models = await refitLifeModels(settings, new Date('2026-11-30T03:00:00Z'));
+    const resolve = await createWorkshopLifeResolver(settings.prior);
     const m = await manager();
-    const specs = await m.get<{ items: { id: number }[] }>('/api/specs');
-    let checked = 0;
-    const resolve = await createWorkshopLifeResolver(loadConfig({}).workshop);
-    for (const s of specs.body.items) {
-      const life = await m.get<{ blend: { used: boolean; weight: number; failures: number; axles: { axleIndex: number; ratedKm: number; usedKm: number }[] } }>(`/api/fleet-life?specId=${s.id}`);
-      if (!life.body.blend.used) continue;
-      expect(life.body.blend.failures).toBeGreaterThanOrEqual(5);
-      expect(life.body.blend.weight).toBeCloseTo(life.body.blend.failures / (life.body.blend.failures + 10), 12);
-      const [d] = await srv.db.sequelize.query<{ id: number; axle_index: number; sprung_mass_kg: number; unsprung_mass_kg: number; spring_rate_n_per_m: number; damping_ns_per_m: number; tire_rate_n_per_m: number; rated_damper_life_km: number }>(
-        `SELECT d.id, d.axle_index, a.sprung_mass_kg, a.unsprung_mass_kg, a.spring_rate_n_per_m, a.damping_ns_per_m, a.tire_rate_n_per_m, a.rated_damper_life_km
-         FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
-         WHERE v.spec_id = ? AND d.removed_at IS NULL AND NOT EXISTS (SELECT 1 FROM inspection_corners c WHERE c.damper_id = d.id) LIMIT 1`,
-        { replacements: [s.id], type: 'SELECT' as never },
+    let fitted = 0;
+    for (const [specId, model] of models) {
+      const [d] = await srv.db.sequelize.query<{ id: number; axle_index: number; rated_damper_life_km: number }>(
+        `SELECT d.id, d.axle_index, a.rated_damper_life_km FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
+         WHERE v.spec_id = ? AND d.removed_at IS NULL AND NOT EXISTS (SELECT 1 FROM inspection_corners c WHERE c.damper_id = d.id AND c.measured_damping_ns_per_m IS NOT NULL) LIMIT 1`,
+        { replacements: [specId], type: 'SELECT' as never },
       );
-      const corner = { sprungMassKg: d.sprung_mass_kg, unsprungMassKg: d.unsprung_mass_kg, springRateNPerM: d.spring_rate_n_per_m, dampingNsPerM: d.damping_ns_per_m, tireRateNPerM: d.tire_rate_n_per_m };
-      const got = resolve({ damperId: d.id, corner, ratedDamperLifeKm: d.rated_damper_life_km });
-      const axle = life.body.blend.axles.find((a) => a.axleIndex === d.axle_index)!;
-      const rated = ratedLife({ damperId: d.id, corner, ratedDamperLifeKm: d.rated_damper_life_km }).energyJ;
-      expect(got.source).toBe('fleet');
-      // rated-life energy is linear in km (class B at 80 km/h), so the blend scales it by used/rated km (computed)
-      expect(got.energyJ / rated).toBeCloseTo(axle.usedKm / axle.ratedKm, 6);
-      checked++;
+      if (!d) continue;
+      const got = resolve({ damperId: d.id, specId, axleIndex: d.axle_index, ratedDamperLifeKm: d.rated_damper_life_km });
+      expect(got.source).toBe(model.source);
+      expect(got.b).toBe(model.b);
+      expect(got.medianWearKm).toBeCloseTo(lifeWearKm(model, d.rated_damper_life_km, 0.5), 6);
+      expect(got.p10WearKm).toBeLessThan(got.medianWearKm);
+      expect(got.p90WearKm).toBeGreaterThan(got.medianWearKm);
+      const page = await m.get<{ model: { roadSensitivity: number; failures: number }; lifeTable: { cls: string; medianKm: number }[] }>(`/api/fleet-life?specId=${specId}`);
+      expect(page.status).toBe(200);
+      expect(page.body.model.roadSensitivity).toBeCloseTo(model.b, 12);
+      expect(page.body.model.failures).toBe(model.failures);
+      // rougher class, shorter life
+      const t = page.body.lifeTable;
+      expect(t.map((r) => r.cls)).toEqual(['A', 'B', 'C', 'D']);
+      for (let i = 1; i < t.length; i++) expect(t[i].medianKm).toBeLessThanOrEqual(t[i - 1].medianKm);
+      if (model.source === 'fleet') fitted++;
     }
-    expect(checked, 'the demo fleet has a spec past the removal threshold').toBeGreaterThan(0);
+    expect(fitted, 'the demo fleet has a spec with removals for wear').toBeGreaterThan(0);
   });
 });

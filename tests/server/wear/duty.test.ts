@@ -17,7 +17,8 @@ import { prepareDuty } from '../../../server/physics/closed-form';
 import { prepareSimulation, runSimulation } from '../../../server/physics/simulate';
 import { minerDamage, rainflow } from '../../../server/physics/fatigue';
 import { gdForClass, seededRandom, synthesizeProfile } from '../../../server/physics/iso8608';
-import { accumulateDays, predict, ratedLife } from '../../../server/wear/wear';
+import { accumulateDays, predict, type LifeBasis } from '../../../server/wear/wear';
+import { priorLifeResolver } from '../../../server/workshop/life';
 
 const front = { sprungMassKg: 430, unsprungMassKg: 46, springRateNPerM: 32000, dampingNsPerM: 2400, tireRateNPerM: 260000 };
 const rear = { sprungMassKg: 360, unsprungMassKg: 55, springRateNPerM: 38000, dampingNsPerM: 2500, tireRateNPerM: 270000 };
@@ -138,54 +139,79 @@ describe('fast loops of the nightly run', () => {
   });
 });
 
+const basis = (L: number): LifeBasis => ({ b: 0.585, medianWearKm: L, p10WearKm: 0.5 * L, p90WearKm: 1.5 * L, source: 'prior', note: '' });
+const dayOf = (i: number) => `2026-11-${String(i + 1).padStart(2, '0')}`;
+
 describe('wear and prediction', () => {
   it('when twin dampers drive a rough and a smooth route, then the rough one is predicted to reach the threshold sooner', () => {
     const cache = new DutyCache();
-    const trips = Array.from({ length: 30 }, (_, i) => `2026-11-${String(i + 1).padStart(2, '0')}`);
-    const rough = computeVehicleDuty(van(1, 1, trips), new Map([[1, route(1, gdForClass('E'))]]), cache);
+    const trips = Array.from({ length: 30 }, (_, i) => dayOf(i));
+    const rough = computeVehicleDuty(van(1, 1, trips), new Map([[1, route(1, gdForClass('D'))]]), cache);
     const smooth = computeVehicleDuty(van(2, 2, trips), new Map([[2, route(2, gdForClass('B'))]]), cache);
-    const life = ratedLife({ damperId: 10, corner: front, ratedDamperLifeKm: 90000 });
+    const life = priorLifeResolver()({ damperId: 10, specId: 1, axleIndex: 0, ratedDamperLifeKm: 90000 });
     const forecast = (r: typeof rough, damperId: number) => {
-      const perDay = r.duties.filter((d) => d.damperId === damperId).map((d) => ({ day: d.tripDate, distanceKm: d.distanceKm, energyJ: d.energyJ, springDamage: d.springDamage }));
-      const hist = accumulateDays({ damperId, vehicleId: 1 }, null, perDay, life.energyJ, front.dampingNsPerM);
-      return predict(hist, { asOf: '2026-11-30', installedAt: '2026-01-01', life, thresholdFraction: 0.8, nominalDampingNsPerM: front.dampingNsPerM });
+      const perDay = r.duties
+        .filter((d) => d.damperId === damperId)
+        .map((d) => ({ day: d.tripDate, distanceKm: d.distanceKm, energyJ: d.energyJ, springDamage: d.springDamage, wearKm: d.distanceKm * Math.pow(d.severity, life.b) }));
+      const hist = accumulateDays({ damperId, vehicleId: 1 }, null, perDay, life.medianWearKm, front.dampingNsPerM);
+      return predict(hist, { asOf: '2026-11-30', installedAt: '2026-11-01', life, thresholdFraction: 0.8, nominalDampingNsPerM: front.dampingNsPerM, untrackedKm: 0, calendarYears: 50 });
     };
     const a = forecast(rough, 10);
     const b = forecast(smooth, 20);
     expect(a.thresholdDate && b.thresholdDate).toBeTruthy();
     expect(a.thresholdDate! < b.thresholdDate!, `rough ${a.thresholdDate} vs smooth ${b.thresholdDate}`).toBe(true);
-    expect(a.rateJPerDay).toBeGreaterThan(b.rateJPerDay);
+    // class D is two ISO class steps rougher: severity about 4, wear rate 4^0.585 ≈ 2.25× (computed)
+    expect(a.wearKmPerDay / b.wearKmPerDay).toBeGreaterThan(1.8);
+    expect(a.wearKmPerDay / b.wearKmPerDay).toBeLessThan(3);
   });
 
   it('when a damper has used 40 % of its life at 1 %/day, then it reaches 80 % in 40 days and end of life in 60 (computed)', () => {
-    const L = 1e8;
-    const hist = accumulateDays({ damperId: 1, vehicleId: 1 }, { cumEnergyJ: 0.1 * L, cumSpringDamage: 0 }, Array.from({ length: 30 }, (_, i) => ({ day: `2026-11-${String(i + 1).padStart(2, '0')}`, distanceKm: 100, energyJ: 0.01 * L, springDamage: 0 })), L, 2000);
-    const p = predict(hist, { asOf: '2026-11-30', installedAt: '2025-01-01', life: { energyJ: L, source: 'rated', note: '' }, thresholdFraction: 0.8, nominalDampingNsPerM: 2000 });
+    const L = 100_000;
+    const hist = accumulateDays(
+      { damperId: 1, vehicleId: 1 },
+      { cumKm: 10_000, cumEnergyJ: 0, cumWearKm: 0.1 * L, cumSpringDamage: 0 },
+      Array.from({ length: 30 }, (_, i) => ({ day: dayOf(i), distanceKm: 100, energyJ: 1, springDamage: 0, wearKm: 0.01 * L })),
+      L,
+      2000,
+    );
+    const p = predict(hist, { asOf: '2026-11-30', installedAt: '2025-01-01', life: basis(L), thresholdFraction: 0.8, nominalDampingNsPerM: 2000, untrackedKm: 0, calendarYears: 20 });
     expect(p.lifeUsedFraction).toBeCloseTo(0.4, 12);
-    expect(p.rateJPerDay).toBeCloseTo(0.01 * L, 6);
+    expect(p.wearKmPerDay).toBeCloseTo(0.01 * L, 6);
     expect(p.thresholdDate).toBe('2027-01-09');
     expect(p.endOfLifeDate).toBe('2027-01-29');
+    // P10 life is half the median here: 0.1 L to go at 0.01 L/day; P90 1.5 L: 110 days
+    expect(p.endOfLifeP10Date).toBe('2026-12-10');
+    expect(p.endOfLifeP90Date).toBe('2027-03-20');
     // linear fade to 60 % at end of life (stated assumption): 40 % used → 84 % of nominal
     expect(p.dampingNsPerM).toBeCloseTo(2000 * 0.84, 9);
     expect(p.windowDays).toBe(30);
+    expect(p.governedBy).toBe('distance');
+  });
+
+  it('when the calendar limit comes first, then it sets the end of life (common practice: 5–7 years)', () => {
+    const p = predict([], { asOf: '2026-11-30', installedAt: '2021-01-01', life: basis(100_000), thresholdFraction: 0.8, nominalDampingNsPerM: 2000, untrackedKm: 0, calendarYears: 6 });
+    expect(p.endOfLifeDate).toBe('2027-01-01');
+    expect(p.governedBy).toBe('calendar');
+    expect(p.calendarLifeUsed).toBeGreaterThan(0.95);
+    expect(p.lifeUsedFraction).toBe(p.calendarLifeUsed);
   });
 
   it('when the threshold was already passed, then the threshold date is the day it was crossed', () => {
     const L = 100;
     const hist = accumulateDays({ damperId: 1, vehicleId: 1 }, null, [
-      { day: '2026-11-01', distanceKm: 1, energyJ: 50, springDamage: 0 },
-      { day: '2026-11-02', distanceKm: 1, energyJ: 35, springDamage: 0 },
-      { day: '2026-11-03', distanceKm: 1, energyJ: 5, springDamage: 0 },
+      { day: '2026-11-01', distanceKm: 1, energyJ: 0, springDamage: 0, wearKm: 50 },
+      { day: '2026-11-02', distanceKm: 1, energyJ: 0, springDamage: 0, wearKm: 35 },
+      { day: '2026-11-03', distanceKm: 1, energyJ: 0, springDamage: 0, wearKm: 5 },
     ], L, 1000);
-    const p = predict(hist, { asOf: '2026-11-30', installedAt: '2026-11-01', life: { energyJ: L, source: 'rated', note: '' }, thresholdFraction: 0.8, nominalDampingNsPerM: 1000 });
+    const p = predict(hist, { asOf: '2026-11-30', installedAt: '2026-11-01', life: basis(L), thresholdFraction: 0.8, nominalDampingNsPerM: 1000, untrackedKm: 0 });
     expect(p.thresholdDate).toBe('2026-11-02');
     expect(p.endOfLifeDate! > '2026-11-30').toBe(true);
   });
 
-  it('when a damper had no duty in the window, then no date is predicted', () => {
-    const p = predict([], { asOf: '2026-11-30', installedAt: '2026-01-01', life: { energyJ: 1, source: 'rated', note: '' }, thresholdFraction: 0.8, nominalDampingNsPerM: 1000 });
-    expect(p.thresholdDate).toBeNull();
-    expect(p.endOfLifeDate).toBeNull();
+  it('when a damper had no duty in the window, then no distance date is predicted (only the calendar limit)', () => {
+    const p = predict([], { asOf: '2026-11-30', installedAt: '2026-01-01', life: basis(1), thresholdFraction: 0.8, nominalDampingNsPerM: 1000, untrackedKm: 0 });
+    expect(p.governedBy).toBe('calendar');
+    expect(p.endOfLifeDate).toBe('2032-01-01');
   });
 });
 

@@ -17,7 +17,7 @@ const corner = (position: string, thresholdDate: string | null, springThresholdD
   position,
   lifeUsedFraction: 0.6,
   thresholdDate,
-  rateJPerDay: 500_000,
+  kmPerDay: 180,
   springDamage: 0.01,
   springThresholdDate,
 });
@@ -31,7 +31,7 @@ describe('inspection scheduling rules', () => {
     expect(d.candidate.trigger).toBe('prediction');
     expect(d.candidate.reason).toContain('RR damper predicted to reach 80 %');
     expect(d.candidate.reason).toContain('2027-01-10');
-    expect(d.candidate.reason).toContain('500 kJ/day');
+    expect(d.candidate.reason).toContain('180 km/day');
     expect(d.status).toBe('scheduled');
   });
 
