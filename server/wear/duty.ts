@@ -17,6 +17,10 @@
  *   segment's Gd(n0) (derived from its measured IRI): carrying the 8-state Wk filter through
  *   every simulated step would triple the cost of the run.
  *
+ * - Damper duty measure (docs/methods.md, "Damper duty measure"): per segment, the rod sliding
+ *   distance √(2/π)·σ_rel·t weighted by the heat factor, summed into the trip's severity against
+ *   the unladen corner on class B at 80 km/h (life-law.ts); unrated stretches count severity 1.
+ *
  * Rules and assumptions (stated, not published):
  * - Payload sharing: the front axle carries {@link FRONT_AXLE_PAYLOAD_SHARE} of the trip's
  *   payload and the other axles share the rest equally (the load space of a van or rigid truck
