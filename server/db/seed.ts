@@ -30,6 +30,7 @@ import { lineLengthM, splitLine, type LonLat } from '../roads/geometry';
 import { classifyGd, gdForClass, seededRandom, synthesizeProfile, type IsoClass } from '../physics/iso8608';
 import { gdFromIri, iriFromGd, iriSegments } from '../physics/iri';
 import { formatProfileCsv, storeProfileFile, SURVEY_DIR } from '../roads/profile-store';
+import { currentValue } from '../roads/current-roughness';
 
 /** Sample interval of the demo survey profiles [m] (ASTM E1926's 250 mm). */
 const DEMO_SURVEY_DX_M = 0.25;
@@ -310,40 +311,40 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
         );
         surveyId = survey.id;
       }
+      // each segment's observations: its own, and an older stated class under surveyed and
+      // reported segments so history shows
+      const history = segRows.map((s) => {
+        const own = {
+          iri: s.roughnessSource === 'survey' ? s.iri : null,
+          gdN0: s.gdN0,
+          isoClass: s.isoClass,
+          source: s.roughnessSource,
+          observedOn: s.roughnessDate,
+          surveyId: s.roughnessSource === 'survey' ? surveyId : null,
+          note:
+            s.roughnessSource === 'survey'
+              ? 'Profile survey (demo)'
+              : s.roughnessSource === 'driver_report'
+                ? 'Accepted from drivers’ reports (demo)'
+                : 'Class stated from the highway authority’s condition map (demo)',
+        };
+        const older = { iri: null, gdN0: gdForClass(r.base), isoClass: r.base, source: 'stated' as const, observedOn: statedDate, surveyId: null, note: 'Class stated from the highway authority’s condition map (demo)' };
+        return s.roughnessSource === 'stated' ? [own] : [older, own];
+      });
+      // the stored current value follows the current-value rule over them (drivers' reports
+      // blended in at half a survey's weight), as the app keeps it
+      for (const [i, s] of segRows.entries()) {
+        const cur = currentValue(history[i].map((o, k) => ({ ...o, id: k + 1 })), classifyGd, iriFromGd)!;
+        Object.assign(s, { gdN0: cur.gdN0, iri: cur.iri, isoClass: cur.isoClass, roughnessSource: cur.source, roughnessDate: cur.observedOn });
+      }
       const created = await RouteSegment.bulkCreate(
         segRows.map((s) => ({ ...s, surveyId: s.roughnessSource === 'survey' ? surveyId : null })),
         { ...opts, returning: true },
       );
-      const obs = created.map((seg, i) => ({
-        segmentId: seg.id,
-        iri: segRows[i].roughnessSource === 'survey' ? segRows[i].iri : null,
-        gdN0: segRows[i].gdN0,
-        isoClass: segRows[i].isoClass,
-        source: segRows[i].roughnessSource,
-        observedOn: segRows[i].roughnessDate,
-        recordedById: null,
-        surveyId: segRows[i].roughnessSource === 'survey' ? surveyId : null,
-        note:
-          segRows[i].roughnessSource === 'survey'
-            ? 'Profile survey (demo)'
-            : segRows[i].roughnessSource === 'driver_report'
-              ? 'Accepted from drivers’ reports (demo)'
-              : 'Class stated from the highway authority’s condition map (demo)',
-      }));
-      // older stated class under surveyed and reported segments, so history shows
-      const older = created
-        .filter((_, i) => segRows[i].roughnessSource !== 'stated')
-        .map((seg) => ({
-          segmentId: seg.id,
-          iri: null,
-          gdN0: gdForClass(r.base),
-          isoClass: r.base,
-          source: 'stated' as const,
-          observedOn: statedDate,
-          recordedById: null,
-          note: 'Class stated from the highway authority’s condition map (demo)',
-        }));
-      await RoughnessObservation.bulkCreate([...older, ...obs], opts);
+      await RoughnessObservation.bulkCreate(
+        created.flatMap((seg, i) => history[i].map((o) => ({ ...o, segmentId: seg.id, recordedById: null }))),
+        opts,
+      );
     }
 
     // Vehicles, dampers, trips
