@@ -476,7 +476,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
     async lifeBacktest(specId: number) {
       const [s] = await q<{ id: number; name: string }>('SELECT id, name FROM suspension_specs WHERE id = ?', [specId]);
       if (!s) throw AppError.notFound('Suspension spec');
-      return { specName: s.name, ...(await backtest(s.id, cfg.life)) };
+      return { specName: s.name, ...(await backtest(s.id, cfg.life, today())) };
     },
 
     /** Expected damper replacements in the next `days` days, with cost, by spec and depot. */

@@ -36,7 +36,7 @@ function fleet(n: number, seed: number, truth = { b: 1.0, c: 0.8, k: 3.0 }): Dam
 
 describe('back-test replay on a fleet with a known true law (computed)', () => {
   const lives = fleet(300, 21);
-  const { points, priorPoints } = replayRemovals(lives);
+  const { points, priorPoints } = replayRemovals(lives, '2026-11-30');
   const late = points.filter((p) => p.trainedOn >= 40);
 
   it('predicts every removal for wear from what was known before it', () => {
