@@ -12,6 +12,8 @@ export interface OpenInspection {
   status: string;
   trigger: string | null;
   assigneeId: number | null;
+  reason: string;
+  basis: Record<string, unknown> | null;
 }
 
 export interface DueItem {
@@ -48,8 +50,8 @@ export function inspectionRepository(sequelize: Sequelize) {
     },
 
     async forecasts(): Promise<Map<number, CornerForecast[]>> {
-      const rows = await q<{ vehicle_id: number; position: string; life_used_fraction: number; threshold_date: string | null; rate_j_per_day: number; spring_damage: number; spring_threshold_date: string | null }>(
-        `SELECT p.vehicle_id, d.position, p.life_used_fraction, p.threshold_date, p.rate_j_per_day, p.spring_damage, p.spring_threshold_date
+      const rows = await q<{ vehicle_id: number; position: string; life_used_fraction: number; threshold_date: string | null; end_of_life_date: string | null; rate_j_per_day: number; spring_damage: number; spring_threshold_date: string | null }>(
+        `SELECT p.vehicle_id, d.position, p.life_used_fraction, p.threshold_date, p.end_of_life_date, p.rate_j_per_day, p.spring_damage, p.spring_threshold_date
          FROM damper_predictions p JOIN dampers d ON d.id = p.damper_id WHERE d.removed_at IS NULL ORDER BY p.vehicle_id, d.position`,
       );
       const out = new Map<number, CornerForecast[]>();
@@ -59,6 +61,7 @@ export function inspectionRepository(sequelize: Sequelize) {
           position: r.position,
           lifeUsedFraction: r.life_used_fraction,
           thresholdDate: r.threshold_date,
+          endOfLifeDate: r.end_of_life_date,
           rateJPerDay: r.rate_j_per_day,
           springDamage: r.spring_damage,
           springThresholdDate: r.spring_threshold_date,
@@ -87,10 +90,13 @@ export function inspectionRepository(sequelize: Sequelize) {
     },
 
     async open(): Promise<OpenInspection[]> {
-      const rows = await q<{ id: number; vehicle_id: number; due_date: string; status: string; trigger: string | null; assignee_id: number | null }>(
-        `SELECT id, vehicle_id, due_date, status, "trigger", assignee_id FROM inspections WHERE status IN ('scheduled', 'due', 'overdue') ORDER BY id`,
+      const rows = await q<{ id: number; vehicle_id: number; due_date: string; status: string; trigger: string | null; assignee_id: number | null; reason: string; basis: string | null }>(
+        `SELECT id, vehicle_id, due_date, status, "trigger", assignee_id, reason, basis FROM inspections WHERE status IN ('scheduled', 'due', 'overdue') ORDER BY id`,
       );
-      return rows.map((r) => ({ id: r.id, vehicleId: r.vehicle_id, dueDate: r.due_date, status: r.status, trigger: r.trigger, assigneeId: r.assignee_id }));
+      return rows.map((r) => ({
+        id: r.id, vehicleId: r.vehicle_id, dueDate: r.due_date, status: r.status, trigger: r.trigger, assigneeId: r.assignee_id, reason: r.reason,
+        basis: r.basis ? (JSON.parse(r.basis) as Record<string, unknown>) : null,
+      }));
     },
 
     /** Active mechanics with their depot and number of open assigned inspections. */
