@@ -3,7 +3,7 @@
  */
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { sqlDate } from '../wear/repository';
-import type { CornerForecast } from '../wear/schedule';
+import type { CornerForecast, FollowUp } from '../wear/schedule';
 
 export interface OpenInspection {
   id: number;
@@ -78,6 +78,40 @@ export function inspectionRepository(sequelize: Sequelize) {
            ORDER BY COALESCE(x.completed_at, x.due_date) DESC, x.id DESC LIMIT 1)`,
       );
       return new Map(rows.map((r) => [r.vehicle_id, { date: r.completed_at ? timeZoneDay(new Date(r.completed_at)) : r.due_date, odometerKm: r.odometer_km }]));
+    },
+
+    /**
+     * Each vehicle's pending follow-up: the last done inspection's follow-up date, unless a
+     * follow-up inspection booked after it was cancelled. "Looked at" are the corners recorded
+     * in it with a keep verdict whose damper is still the one fitted.
+     */
+    async followUps(timeZoneDay: (d: Date) => string): Promise<Map<number, FollowUp>> {
+      const rows = await q<{ id: number; vehicle_id: number; follow_up_on: string; results_at: string | null; completed_at: string | null; due_date: string }>(
+        `SELECT i.id, i.vehicle_id, i.follow_up_on, i.results_at, i.completed_at, i.due_date FROM inspections i
+         WHERE i.status = 'done' AND i.follow_up_on IS NOT NULL
+           AND i.id = (SELECT x.id FROM inspections x WHERE x.vehicle_id = i.vehicle_id AND x.status = 'done'
+             ORDER BY COALESCE(x.completed_at, x.due_date) DESC, x.id DESC LIMIT 1)
+           AND NOT EXISTS (SELECT 1 FROM inspections c WHERE c.vehicle_id = i.vehicle_id AND c."trigger" = 'follow_up' AND c.status = 'cancelled' AND c.id > i.id)`,
+      );
+      const out = new Map<number, FollowUp>();
+      if (!rows.length) return out;
+      const corners = await q<{ inspection_id: number; position: string; verdict: string }>(
+        `SELECT c.inspection_id, c.position, c.verdict FROM inspection_corners c JOIN dampers d ON d.id = c.damper_id
+         WHERE d.removed_at IS NULL AND c.verdict IN ('ok', 'monitor') AND c.inspection_id IN (${rows.map(() => '?').join(', ')}) ORDER BY c.inspection_id, c.axle_index, c.position`,
+        rows.map((r) => r.id),
+      );
+      for (const r of rows) {
+        const mine = corners.filter((c) => c.inspection_id === r.id);
+        const at = r.results_at ?? r.completed_at;
+        out.set(r.vehicle_id, {
+          date: r.follow_up_on,
+          inspectionId: r.id,
+          askedOn: at ? timeZoneDay(new Date(at)) : r.due_date,
+          checkAgain: mine.filter((c) => c.verdict === 'monitor').map((c) => c.position),
+          looked: mine.map((c) => c.position),
+        });
+      }
+      return out;
     },
 
     /** Distance driven per vehicle in [from, before). */

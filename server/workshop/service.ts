@@ -4,7 +4,7 @@
  * model check.
  */
 import fs from 'node:fs';
-import { addDays, formatISO, startOfISOWeek } from 'date-fns';
+import { addDays, formatISO, parseISO, startOfISOWeek } from 'date-fns';
 import { dampingFromAdhesion, NoDampingSolutionError } from '../physics/adhesion';
 import type { CornerParams } from '../physics/types';
 import { estimatedDamping } from '../wear/wear';
@@ -18,6 +18,10 @@ import type { WorkshopConfig } from './config';
 
 export const FINDINGS = ['oil_leak', 'mount_loose_or_cracked', 'bush_worn', 'bump_stop_damaged', 'spring_cracked_or_sagging', 'tyre_uneven_wear'] as const;
 export const VERDICTS = ['ok', 'monitor', 'replace'] as const;
+/** The verdict "keep, check again soon": it sets the inspection's follow-up date. */
+export const CHECK_AGAIN = 'monitor';
+/** Days from the inspection to the follow-up when the mechanic gives no date (stated default). */
+export const FOLLOW_UP_DEFAULT_DAYS = 30;
 export const OPEN = ['scheduled', 'due', 'overdue'];
 
 const day = (d: Date) => formatISO(d, { representation: 'date' });
@@ -109,7 +113,7 @@ export function axleDifferences(corners: { position: string; axleIndex: number; 
   });
 }
 
-export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; dataDir: string; publicUrl: string }) {
+export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; dataDir: string; publicUrl: string; timeZone: string }) {
   const today = () => day(deps.now());
 
   async function scopeCheck(user: SessionUser, insp: { assignee_id: number | null; assigned_depot_id: number | null; vehicle_depot_id: number }) {
@@ -222,6 +226,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         notes: i.notes,
         resultsAt: iso(i.results_at),
         completedAt: iso(i.completed_at),
+        followUpOn: i.follow_up_on,
         predicted: by.get(i.vehicle_id) ?? [],
         results: corners,
         axleDifferences: axleDifferences(corners, cfg.laneFlagPoints),
@@ -260,7 +265,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
     async recordResults(
       user: SessionUser,
       id: number,
-      body: { odometerKm: number; notes?: string | null; complete?: boolean; corners: { position: string; adhesionPct: number | null; findings: string[]; verdict: string }[] },
+      body: { odometerKm: number; notes?: string | null; complete?: boolean; followUpOn?: string | null; corners: { position: string; adhesionPct: number | null; findings: string[]; verdict: string }[] },
     ) {
       const i = await workshopRepository.inspectionRow(id);
       if (!i) throw AppError.notFound('Inspection');
@@ -274,6 +279,12 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         if (!rows.some((r) => r.position === c.position)) fields[`corners.${k}.position`] = `the vehicle has no damper fitted at ${c.position}`;
       });
       if (Object.keys(fields).length) throw AppError.badRequest('Some corners do not exist on this vehicle.', fields);
+      // "check again soon" on any corner: the follow-up the nightly scheduling books (the range is checked by the route)
+      const checkAgain = body.corners.some((c) => c.verdict === CHECK_AGAIN);
+      if (!checkAgain && body.followUpOn) {
+        throw AppError.badRequest('A follow-up date goes with a "check again soon" verdict.', { followUpOn: 'give a corner the verdict "check again soon", or leave the follow-up date empty' });
+      }
+      const followUpOn = checkAgain ? (body.followUpOn ?? day(addDays(parseISO(today()), FOLLOW_UP_DEFAULT_DAYS))) : null;
       const computed = body.corners.map((c) => {
         const r = rows.find((x) => x.position === c.position)!;
         const st = cornerState(r, lives, cfg.inspectionThreshold);
@@ -303,8 +314,8 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
           }
         }
         await exec(
-          `UPDATE inspections SET odometer_km = ?, notes = ?, results_at = ?, results_by_id = ?, updated_at = ?${body.complete ? `, status = 'done', completed_at = ?` : ''} WHERE id = ?`,
-          [body.odometerKm, body.notes ?? null, stamp(now), user.id, stamp(now), ...(body.complete ? [stamp(now)] : []), id],
+          `UPDATE inspections SET odometer_km = ?, notes = ?, results_at = ?, results_by_id = ?, follow_up_on = ?, updated_at = ?${body.complete ? `, status = 'done', completed_at = ?` : ''} WHERE id = ?`,
+          [body.odometerKm, body.notes ?? null, stamp(now), user.id, followUpOn, stamp(now), ...(body.complete ? [stamp(now)] : []), id],
           t,
         );
         await exec('UPDATE vehicles SET odometer_km = MAX(odometer_km, ?), updated_at = ? WHERE id = ?', [body.odometerKm, stamp(now), i.vehicle_id], t);
