@@ -37,6 +37,8 @@ export interface PhaseContext {
   lifeResolver?: LifeResolver;
   /** Test hook: throw after this many committed batches (a crash in the middle of the run). */
   failAfterBatches?: number;
+  /** The prediction phase predicts only these vehicles' dampers (all when absent). */
+  vehicleIds?: number[];
   /** Dampers per chunk of the wear and prediction phases (default {@link WEAR_CHUNK}). */
   damperChunk?: number;
   /** Loads a measured profile (server/roads/profile-store.ts `loadSurveyProfile`). */
@@ -293,7 +295,7 @@ export async function predictAll(ctx: PhaseContext) {
   let done = 0;
   await repo.dropStalePredictions();
   const read = async (prev: { lastId: number } | null) => {
-    const ids = await repo.installedDamperIds(prev ? prev.lastId : 0, ctx.damperChunk ?? WEAR_CHUNK);
+    const ids = await repo.installedDamperIds(prev ? prev.lastId : 0, ctx.damperChunk ?? WEAR_CHUNK, ctx.vehicleIds);
     if (!ids.length) return null;
     const context = await repo.damperContext(ids);
     const inputs = [];

@@ -7,7 +7,7 @@ import { ratedLife, type LifeResolver } from '../wear/wear';
 import type { Config } from '../config';
 import { createWorkshopLifeResolver } from './life';
 
-export async function workshopLifeOrRated(config: Config, log?: Pick<Logger, 'warn'>): Promise<LifeResolver> {
+export async function workshopLifeOrRated(config: Pick<Config, 'workshop'>, log?: Pick<Logger, 'warn'>): Promise<LifeResolver> {
   try {
     return await createWorkshopLifeResolver(config.workshop);
   } catch (err) {

@@ -8,6 +8,7 @@ import { addDays, formatISO, parseISO, startOfISOWeek } from 'date-fns';
 import { dampingFromAdhesion, NoDampingSolutionError } from '../physics/adhesion';
 import type { CornerParams } from '../physics/types';
 import { estimatedDamping } from '../wear/wear';
+import { repredictVehicle } from '../wear/repredict';
 import { queueAssignmentNotes } from '../mail/service';
 import { AppError } from '../errors';
 import type { SessionUser } from '../http/access';
@@ -115,6 +116,9 @@ export function axleDifferences(corners: { position: string; axleIndex: number; 
 
 export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; dataDir: string; publicUrl: string; timeZone: string }) {
   const today = () => day(deps.now());
+  /** The vehicle's predictions as of today, with the life the results just saved imply (server/wear/repredict.ts). */
+  const repredict = (vehicleId: number) =>
+    repredictVehicle(sequelize(), vehicleId, { now: deps.now(), asOf: today(), timeZone: deps.timeZone, thresholdFraction: cfg.inspectionThreshold, workshop: cfg });
 
   async function scopeCheck(user: SessionUser, insp: { assignee_id: number | null; assigned_depot_id: number | null; vehicle_depot_id: number }) {
     if (user.role === 'manager') return;
@@ -320,6 +324,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         );
         await exec('UPDATE vehicles SET odometer_km = MAX(odometer_km, ?), updated_at = ? WHERE id = ?', [body.odometerKm, stamp(now), i.vehicle_id], t);
       });
+      await repredict(i.vehicle_id);
       return this.detail(user, id);
     },
 
@@ -423,6 +428,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         await exec('UPDATE vehicles SET odometer_km = MAX(odometer_km, ?), updated_at = ? WHERE id = ?', [body.odometerKm, stamp(now), body.vehicleId], t);
         return wid;
       });
+      await repredict(body.vehicleId);
       return this.workRecord(workId);
     },
 
