@@ -235,7 +235,7 @@ export function decide(input: VehicleScheduleInput, rules: ScheduleRules): Sched
       const moved: Candidate = {
         ...c,
         trigger: open.trigger === 'manual' ? 'manual' : c.trigger,
-        reason: `Moved earlier from ${fmtDay(open.dueDate)}: ${lowerFirst(c.reason)}${handReason ? ` Booked by hand: ${handReason}` : ''}`,
+        reason: `Moved earlier from ${fmtDay(open.dueDate)}: ${lowerFirst(c.reason)}${handReason ? ` Reason when booked by hand: ${handReason}` : ''}`,
         basis: { ...c.basis, movedFrom: open.dueDate, ...(open.trigger === 'manual' ? { handReason } : {}) },
       };
       return { action: 'move', id: open.id, candidate: moved, status: openStatus(moved.dueDate, today, rules.dueSoonDays) };

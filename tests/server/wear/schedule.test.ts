@@ -155,14 +155,14 @@ describe('an inspection booked by hand', () => {
     expect(d.candidate.trigger).toBe('manual');
     expect(d.status).toBe('scheduled');
     expect(d.candidate.reason).toBe(
-      'Moved earlier from 2027-03-01: the FL damper is predicted to reach 80 % of its expected life on 2027-01-10 (70 % used now; the vehicle drove 100 km/day over the last 30 days); inspection set 14 days ahead. Booked by hand: Driver reports a knock at the front.',
+      'Moved earlier from 2027-03-01: the FL damper is predicted to reach 80 % of its expected life on 2027-01-10 (70 % used now; the vehicle drove 100 km/day over the last 30 days); inspection set 14 days ahead. Reason when booked by hand: Driver reports a knock at the front.',
     );
     // moved again on a later night: the manager's reason is kept once, not nested
     const again = decide(base({ open: { ...manual, dueDate: d.candidate.dueDate, reason: d.candidate.reason, basis: d.candidate.basis }, corners: [corner('FL', '2027-01-01', null, '2027-03-20', 0.72)] }), rules);
     expect(again.action).toBe('move');
     expect(again.candidate?.dueDate).toBe('2026-12-18');
-    expect(again.candidate?.reason.match(/Booked by hand/g)).toHaveLength(1);
-    expect(again.candidate?.reason).toMatch(/^Moved earlier from 2026-12-27: .* Booked by hand: Driver reports a knock at the front\.$/);
+    expect(again.candidate?.reason.match(/Reason when booked by hand/g)).toHaveLength(1);
+    expect(again.candidate?.reason).toMatch(/^Moved earlier from 2026-12-27: .* Reason when booked by hand: Driver reports a knock at the front\.$/);
   });
 
   it('when the prediction asks for a later date, then it is never moved later (stated rule)', () => {
