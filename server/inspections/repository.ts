@@ -38,6 +38,13 @@ export interface DueItem {
   firstThresholdDate: string | null;
 }
 
+/** Orders of the due list: by due date (then fleet number), or most-worn damper first (then due date). */
+export const DUE_SORTS = ['due', 'lifeUsed'] as const;
+export type DueSort = (typeof DUE_SORTS)[number];
+
+const byLifeUsed = (a: DueItem, b: DueItem) =>
+  (b.maxLifeUsed ?? -Infinity) - (a.maxLifeUsed ?? -Infinity) || (a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : 0) || a.fleetNumber.localeCompare(b.fleetNumber);
+
 export function inspectionRepository(sequelize: Sequelize) {
   const q = <T extends object>(sql: string, replacements: unknown[] = [], transaction?: Transaction) =>
     sequelize.query<T>(sql, { replacements: replacements as never, type: QueryTypes.SELECT, transaction });
@@ -172,7 +179,7 @@ export function inspectionRepository(sequelize: Sequelize) {
     },
 
     /** Open inspections with everything the due list shows. */
-    async dueList(opts: { today: string; depotId?: number; withinDays?: number }): Promise<DueItem[]> {
+    async dueList(opts: { today: string; depotId?: number; withinDays?: number; sort?: DueSort }): Promise<DueItem[]> {
       const rows = await q<{
         id: number; vehicle_id: number; fleet_number: string; plate: string; vehicle_status: string; depot_id: number; depot_name: string; lat: number; lon: number;
         due_date: string; status: string; trigger: string | null; reason: string; basis: string | null; assignee_id: number | null; assignee_name: string | null;
@@ -209,7 +216,8 @@ export function inspectionRepository(sequelize: Sequelize) {
           maxLifeUsed: r.max_life,
           firstThresholdDate: r.first_threshold,
         }))
-        .filter((r) => opts.withinDays === undefined || r.daysLeft <= opts.withinDays);
+        .filter((r) => opts.withinDays === undefined || r.daysLeft <= opts.withinDays)
+        .sort(opts.sort === 'lifeUsed' ? byLifeUsed : () => 0);
     },
 
     async nextForVehicle(vehicleId: number) {

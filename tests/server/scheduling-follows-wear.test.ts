@@ -177,3 +177,28 @@ describe('the follow-up booked by the nightly run', () => {
     expect(again).toEqual([{ due_date: '2027-01-15' }]);
   }, 300_000);
 });
+
+describe('the due list sorted by life used', () => {
+  type Due = { items: { id: number; dueDate: string; maxLifeUsed: number | null }[]; sort: string; error?: { fields: Record<string, string> } };
+
+  it('when the manager asks for sort=lifeUsed, then the most-worn damper comes first; sort=due (the default) keeps due-date order; another value is refused with the field named', async () => {
+    const m = await login(DEMO.manager);
+    const worn = await m.get<Due>('/api/inspections/due?sort=lifeUsed');
+    expect(worn.status).toBe(200);
+    expect(worn.body.sort).toBe('lifeUsed');
+    expect(worn.body.items.length).toBeGreaterThan(2);
+    const lives = worn.body.items.map((i) => i.maxLifeUsed ?? -1);
+    for (let k = 1; k < lives.length; k++) expect(lives[k], `row ${k}`).toBeLessThanOrEqual(lives[k - 1]);
+    const due = await m.get<Due>('/api/inspections/due?sort=due');
+    const plain = await m.get<Due>('/api/inspections/due');
+    expect(plain.body.items.map((i) => i.id)).toEqual(due.body.items.map((i) => i.id));
+    const dates = due.body.items.map((i) => i.dueDate);
+    expect([...dates].sort()).toEqual(dates);
+    // the same inspections either way, in another order
+    expect([...worn.body.items.map((i) => i.id)].sort()).toEqual([...due.body.items.map((i) => i.id)].sort());
+    expect(worn.body.items.map((i) => i.id)).not.toEqual(due.body.items.map((i) => i.id));
+    const bad = await m.get<Due>('/api/inspections/due?sort=worn');
+    expect(bad.status).toBe(400);
+    expect(bad.body.error?.fields.sort).toBe('must be due or lifeUsed');
+  });
+});

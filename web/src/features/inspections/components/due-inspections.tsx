@@ -9,7 +9,7 @@ import type { DueInspection, DueInspections } from '../api/get-due-inspections';
 
 export const inspectionTones: Record<string, StatusTone> = { overdue: 'overdue', due: 'due', scheduled: 'watch' };
 export const inspectionLabels: Record<string, string> = { overdue: 'Overdue', due: 'Due', scheduled: 'Scheduled' };
-const ruleLabels: Record<string, string> = { prediction: 'Predicted wear', interval_km: 'Interval (km)', interval_months: 'Interval (months)', manual: 'Entered by hand' };
+const ruleLabels: Record<string, string> = { prediction: 'Predicted wear', interval_km: 'Interval (km)', interval_months: 'Interval (months)', manual: 'Entered by hand', follow_up: 'Follow-up' };
 
 function daysText(d: number) {
   if (d < 0) return `${-d} overdue`;
@@ -74,7 +74,12 @@ export function DueInspectionsList({ data, vehiclePath }: { data: DueInspections
         Due dates from predicted wear are estimates from a model of the vehicle and its roads. They support, and never replace, inspection by a
         qualified mechanic, the vehicle and damper makers’ requirements and local regulations.
       </Caution>
-      {groups.map((g) => {
+      {data.sort === 'lifeUsed' ? (
+        <Section title={`All open inspections (${data.items.length})`} description="Most-worn damper first: the highest share of its expected life used on each vehicle.">
+          <SimpleTable label="Open inspections by life used" columns={cols} rows={data.items} getRowKey={(r) => r.id} />
+        </Section>
+      ) : null}
+      {data.sort === 'lifeUsed' ? null : groups.map((g) => {
         const rows = data.items.filter(g.pick);
         if (!rows.length) return null;
         return (
