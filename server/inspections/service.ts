@@ -86,7 +86,8 @@ export async function runSchedule(ctx: ScheduleContext) {
   ctx.counts.inspectionsCreated = create.length;
   ctx.counts.inspectionsMovedEarlier = move.length;
   ctx.counts.inspectionsNowDue = due + create.filter((c) => c.status === 'due').length;
-  ctx.counts.inspectionsNowOverdue = overdue;
+  // a damper past its end of life creates (or moves) an inspection that is overdue at once
+  ctx.counts.inspectionsNowOverdue = overdue + create.filter((c) => c.status === 'overdue').length + open.filter((o) => moved.get(o.id) === 'overdue' && o.status !== 'overdue').length;
 }
 
 export function inspectionService(sequelize: Sequelize) {
