@@ -53,7 +53,7 @@ const groups: { id: string; title: string; description: string; pick: (r: DueIns
   { id: 'due', title: 'Due now', description: 'Due within the next few days.', pick: (r) => r.status === 'due' },
   { id: 'next30', title: 'Next 30 days', description: 'Scheduled, due within 30 days.', pick: (r) => r.status === 'scheduled' && r.daysLeft <= 30 },
   { id: 'next90', title: 'In 31–90 days', description: 'Scheduled further ahead.', pick: (r) => r.status === 'scheduled' && r.daysLeft > 30 && r.daysLeft <= 90 },
-  { id: 'later', title: 'Later', description: 'Entered by hand, more than 90 days ahead.', pick: (r) => r.status === 'scheduled' && r.daysLeft > 90 },
+  { id: 'later', title: 'Later', description: 'More than 90 days ahead: entered by hand, or a follow-up the mechanic set.', pick: (r) => r.status === 'scheduled' && r.daysLeft > 90 },
 ];
 
 /** The due list, grouped: overdue, due, next 30 days, 31–90 days. */
