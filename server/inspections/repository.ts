@@ -89,8 +89,9 @@ export function inspectionRepository(sequelize: Sequelize) {
 
     /**
      * Each vehicle's pending follow-up: the last done inspection's follow-up date, unless a
-     * follow-up inspection booked after it was cancelled. "Looked at" are the corners recorded
-     * in it with a keep verdict whose damper is still the one fitted.
+     * follow-up inspection booked after it was cancelled or every damper given "check again
+     * soon" has been replaced since. "Looked at" are the corners recorded in it with a keep
+     * verdict whose damper is still the one fitted.
      */
     async followUps(timeZoneDay: (d: Date) => string): Promise<Map<number, FollowUp>> {
       const rows = await q<{ id: number; vehicle_id: number; follow_up_on: string; results_at: string | null; completed_at: string | null; due_date: string }>(
@@ -109,12 +110,15 @@ export function inspectionRepository(sequelize: Sequelize) {
       );
       for (const r of rows) {
         const mine = corners.filter((c) => c.inspection_id === r.id);
+        const checkAgain = mine.filter((c) => c.verdict === 'monitor').map((c) => c.position);
+        // every damper to be checked again has since been replaced: nothing left to follow up
+        if (!checkAgain.length) continue;
         const at = r.results_at ?? r.completed_at;
         out.set(r.vehicle_id, {
           date: r.follow_up_on,
           inspectionId: r.id,
           askedOn: at ? timeZoneDay(new Date(at)) : r.due_date,
-          checkAgain: mine.filter((c) => c.verdict === 'monitor').map((c) => c.position),
+          checkAgain,
           looked: mine.map((c) => c.position),
         });
       }

@@ -5,6 +5,7 @@ import { ApiClient, DEMO } from '../support/client';
 import { run } from '../../jobs/nightly';
 import { adhesionPct } from '../../server/physics/adhesion';
 import { DAMPING_AT_END_OF_LIFE } from '../../server/wear/wear';
+import { inspectionRepository } from '../../server/inspections/repository';
 
 /**
  * Scheduling that follows the wear, through the API on the demo fleet after one nightly run:
@@ -176,6 +177,19 @@ describe('the follow-up booked by the nightly run', () => {
     const again = await rows<{ due_date: string }>(`SELECT due_date FROM inspections WHERE vehicle_id = ? AND status IN ('scheduled','due','overdue')`, [A.vehicleId]);
     expect(again).toEqual([{ due_date: '2027-01-15' }]);
   }, 300_000);
+
+  it('when the damper to be checked again is replaced, then the follow-up no longer holds (stated rule)', async () => {
+    const repo = inspectionRepository(srv.db.sequelize);
+    const day = (d: Date) => d.toISOString().slice(0, 10);
+    expect((await repo.followUps(day)).get(A.vehicleId)).toMatchObject({ date: '2027-01-15', checkAgain: ['FL'] });
+    const mech = await login(DEMO.mechanic);
+    const w = await mech.json('POST', '/api/work-records', {
+      vehicleId: A.vehicleId, performedOn: TODAY, odometerKm: A.odometerKm, summary: 'FL damper replaced', labourHours: 1,
+      items: [{ position: 'FL', component: 'damper', partDescription: 'Damper', partNumber: null, cost: 90, removalReason: 'leaking' }],
+    });
+    expect(w.status, JSON.stringify(w.body)).toBe(201);
+    expect((await repo.followUps(day)).has(A.vehicleId)).toBe(false);
+  });
 });
 
 describe('the due list sorted by life used', () => {
