@@ -77,7 +77,7 @@ afterAll(() => srv?.stop());
 describe('the follow-up date of "check again soon"', () => {
   const results = (over: Record<string, unknown>, verdict = 'monitor') => ({ odometerKm: A.odometerKm, corners: [{ position: 'FL', adhesionPct: null, findings: [], verdict }], ...over });
 
-  it('when the date is not after the inspection day, more than a year on, not a calendar day, or given without "check again soon", then it is refused with the field named and nothing is saved', async () => {
+  it('when the date is not after the inspection day, more than a year on, not a calendar day, or given without "check again soon", then it is refused with the field named and nothing is saved (stated rule)', async () => {
     const mech = await login(DEMO.mechanic);
     const cases: [Record<string, unknown>, string, RegExp][] = [
       [{ followUpOn: TODAY }, 'monitor', /after the inspection day \(2026-11-30\)/],
@@ -142,7 +142,7 @@ describe('predictions recomputed when the workshop saves', () => {
     expect(c.endOfLifeDate === null || c.endOfLifeDate >= TODAY, `end of life ${c.endOfLifeDate} at ${c.lifeUsedFraction}`).toBe(true);
   });
 
-  it('when a replacement is recorded, then the new damper has its prediction at once and the old one none', async () => {
+  it('when a replacement is recorded, then the new damper has its prediction at once and the old one none (stated rule: a new damper starts at 0 % used)', async () => {
     const mech = await login(DEMO.mechanic);
     const w = await mech.json<{ items: { removedDamperId: number; installedDamperId: number }[] }>('POST', '/api/work-records', {
       vehicleId: B.vehicleId, inspectionId: B.inspectionId, performedOn: TODAY, odometerKm: B.odometerKm, summary: 'Damper replaced after the lane test', labourHours: 1,
@@ -195,7 +195,7 @@ describe('the follow-up booked by the nightly run', () => {
 describe('the due list sorted by life used', () => {
   type Due = { items: { id: number; dueDate: string; maxLifeUsed: number | null }[]; sort: string; error?: { fields: Record<string, string> } };
 
-  it('when the manager asks for sort=lifeUsed, then the most-worn damper comes first; sort=due (the default) keeps due-date order; another value is refused with the field named', async () => {
+  it('when the manager asks for sort=lifeUsed, then the most-worn damper comes first; sort=due (the default) keeps due-date order; another value is refused with the field named (stated rule)', async () => {
     const m = await login(DEMO.manager);
     const worn = await m.get<Due>('/api/inspections/due?sort=lifeUsed');
     expect(worn.status).toBe(200);
