@@ -191,7 +191,7 @@ export class Inspection extends Model<Attrs<Inspection>, CAttrs<Inspection>> {
   declare completedAt: Date | null;
   declare odometerKm: number | null;
   declare notes: string | null;
-  /** Issue 5: the rule that scheduled it (prediction | interval_km | interval_months | manual), null for older rows. */
+  /** Issue 5: the rule that scheduled it (prediction | interval_km | interval_months | manual | follow_up), null for older rows. */
   declare trigger: CreationOptional<string | null>;
   /** Issue 5: JSON text of the numbers the schedule rests on. */
   declare basis: CreationOptional<string | null>;
@@ -200,6 +200,8 @@ export class Inspection extends Model<Attrs<Inspection>, CAttrs<Inspection>> {
   /** Issue 5: the assignee who was e-mailed about it. */
   declare assigneeNotifiedId: CreationOptional<number | null>;
   declare createdByRunId: CreationOptional<number | null>;
+  /** The day the mechanic asked to check again ("check again soon"), or null. */
+  declare followUpOn: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -449,6 +451,7 @@ export function initModels(sequelize: Sequelize) {
       notifiedStatus: { type: DataTypes.STRING(16), allowNull: true },
       assigneeNotifiedId: { type: DataTypes.INTEGER, allowNull: true },
       createdByRunId: { type: DataTypes.INTEGER, allowNull: true },
+      followUpOn: { type: DataTypes.DATEONLY, allowNull: true },
       ...ts,
     },
     { ...common, tableName: 'inspections' },

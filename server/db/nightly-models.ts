@@ -23,7 +23,7 @@ export const JOB_TRIGGERS = ['schedule', 'cli', 'manual', 'test', 'seed'] as con
 export type JobTrigger = (typeof JOB_TRIGGERS)[number];
 export const MAIL_KINDS = ['digest', 'assignment', 'note'] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
-export const INSPECTION_TRIGGERS = ['prediction', 'interval_km', 'interval_months', 'manual'] as const;
+export const INSPECTION_TRIGGERS = ['prediction', 'interval_km', 'interval_months', 'manual', 'follow_up'] as const;
 export type InspectionTrigger = (typeof INSPECTION_TRIGGERS)[number];
 
 /**

@@ -3,7 +3,7 @@
  */
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { sqlDate } from '../wear/repository';
-import type { CornerForecast } from '../wear/schedule';
+import type { CornerForecast, FollowUp } from '../wear/schedule';
 
 export interface OpenInspection {
   id: number;
@@ -12,6 +12,8 @@ export interface OpenInspection {
   status: string;
   trigger: string | null;
   assigneeId: number | null;
+  reason: string;
+  basis: Record<string, unknown> | null;
 }
 
 export interface DueItem {
@@ -36,6 +38,13 @@ export interface DueItem {
   firstThresholdDate: string | null;
 }
 
+/** Orders of the due list: by due date (then fleet number), or most-worn damper first (then due date). */
+export const DUE_SORTS = ['due', 'lifeUsed'] as const;
+export type DueSort = (typeof DUE_SORTS)[number];
+
+const byLifeUsed = (a: DueItem, b: DueItem) =>
+  (b.maxLifeUsed ?? -Infinity) - (a.maxLifeUsed ?? -Infinity) || (a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : 0) || a.fleetNumber.localeCompare(b.fleetNumber);
+
 export function inspectionRepository(sequelize: Sequelize) {
   const q = <T extends object>(sql: string, replacements: unknown[] = [], transaction?: Transaction) =>
     sequelize.query<T>(sql, { replacements: replacements as never, type: QueryTypes.SELECT, transaction });
@@ -48,8 +57,8 @@ export function inspectionRepository(sequelize: Sequelize) {
     },
 
     async forecasts(): Promise<Map<number, CornerForecast[]>> {
-      const rows = await q<{ vehicle_id: number; position: string; life_used_fraction: number; threshold_date: string | null; km_per_day: number; spring_damage: number; spring_threshold_date: string | null }>(
-        `SELECT p.vehicle_id, d.position, p.life_used_fraction, p.threshold_date, p.km_per_day, p.spring_damage, p.spring_threshold_date
+      const rows = await q<{ vehicle_id: number; position: string; life_used_fraction: number; threshold_date: string | null; end_of_life_date: string | null; spring_damage: number; spring_threshold_date: string | null }>(
+        `SELECT p.vehicle_id, d.position, p.life_used_fraction, p.threshold_date, p.end_of_life_date, p.spring_damage, p.spring_threshold_date
          FROM damper_predictions p JOIN dampers d ON d.id = p.damper_id WHERE d.removed_at IS NULL ORDER BY p.vehicle_id, d.position`,
       );
       const out = new Map<number, CornerForecast[]>();
@@ -59,7 +68,7 @@ export function inspectionRepository(sequelize: Sequelize) {
           position: r.position,
           lifeUsedFraction: r.life_used_fraction,
           thresholdDate: r.threshold_date,
-          kmPerDay: r.km_per_day,
+          endOfLifeDate: r.end_of_life_date,
           springDamage: r.spring_damage,
           springThresholdDate: r.spring_threshold_date,
         });
@@ -77,6 +86,44 @@ export function inspectionRepository(sequelize: Sequelize) {
       return new Map(rows.map((r) => [r.vehicle_id, { date: r.completed_at ? timeZoneDay(new Date(r.completed_at)) : r.due_date, odometerKm: r.odometer_km }]));
     },
 
+    /**
+     * Each vehicle's pending follow-up: the last done inspection's follow-up date, unless a
+     * follow-up inspection booked after it was cancelled or every damper given "check again
+     * soon" has been replaced since. "Looked at" are the corners recorded in it with a keep
+     * verdict whose damper is still the one fitted.
+     */
+    async followUps(timeZoneDay: (d: Date) => string): Promise<Map<number, FollowUp>> {
+      const rows = await q<{ id: number; vehicle_id: number; follow_up_on: string; results_at: string | null; completed_at: string | null; due_date: string }>(
+        `SELECT i.id, i.vehicle_id, i.follow_up_on, i.results_at, i.completed_at, i.due_date FROM inspections i
+         WHERE i.status = 'done' AND i.follow_up_on IS NOT NULL
+           AND i.id = (SELECT x.id FROM inspections x WHERE x.vehicle_id = i.vehicle_id AND x.status = 'done'
+             ORDER BY COALESCE(x.completed_at, x.due_date) DESC, x.id DESC LIMIT 1)
+           AND NOT EXISTS (SELECT 1 FROM inspections c WHERE c.vehicle_id = i.vehicle_id AND c."trigger" = 'follow_up' AND c.status = 'cancelled' AND c.id > i.id)`,
+      );
+      const out = new Map<number, FollowUp>();
+      if (!rows.length) return out;
+      const corners = await q<{ inspection_id: number; position: string; verdict: string }>(
+        `SELECT c.inspection_id, c.position, c.verdict FROM inspection_corners c JOIN dampers d ON d.id = c.damper_id
+         WHERE d.removed_at IS NULL AND c.verdict IN ('ok', 'monitor') AND c.inspection_id IN (${rows.map(() => '?').join(', ')}) ORDER BY c.inspection_id, c.axle_index, c.position`,
+        rows.map((r) => r.id),
+      );
+      for (const r of rows) {
+        const mine = corners.filter((c) => c.inspection_id === r.id);
+        const checkAgain = mine.filter((c) => c.verdict === 'monitor').map((c) => c.position);
+        // every damper to be checked again has since been replaced: nothing left to follow up
+        if (!checkAgain.length) continue;
+        const at = r.results_at ?? r.completed_at;
+        out.set(r.vehicle_id, {
+          date: r.follow_up_on,
+          inspectionId: r.id,
+          askedOn: at ? timeZoneDay(new Date(at)) : r.due_date,
+          checkAgain,
+          looked: mine.map((c) => c.position),
+        });
+      }
+      return out;
+    },
+
     /** Distance driven per vehicle in [from, before). */
     async distanceSince(from: Date, before: Date) {
       const rows = await q<{ vehicle_id: number; km: number }>(
@@ -87,10 +134,13 @@ export function inspectionRepository(sequelize: Sequelize) {
     },
 
     async open(): Promise<OpenInspection[]> {
-      const rows = await q<{ id: number; vehicle_id: number; due_date: string; status: string; trigger: string | null; assignee_id: number | null }>(
-        `SELECT id, vehicle_id, due_date, status, "trigger", assignee_id FROM inspections WHERE status IN ('scheduled', 'due', 'overdue') ORDER BY id`,
+      const rows = await q<{ id: number; vehicle_id: number; due_date: string; status: string; trigger: string | null; assignee_id: number | null; reason: string; basis: string | null }>(
+        `SELECT id, vehicle_id, due_date, status, "trigger", assignee_id, reason, basis FROM inspections WHERE status IN ('scheduled', 'due', 'overdue') ORDER BY id`,
       );
-      return rows.map((r) => ({ id: r.id, vehicleId: r.vehicle_id, dueDate: r.due_date, status: r.status, trigger: r.trigger, assigneeId: r.assignee_id }));
+      return rows.map((r) => ({
+        id: r.id, vehicleId: r.vehicle_id, dueDate: r.due_date, status: r.status, trigger: r.trigger, assigneeId: r.assignee_id, reason: r.reason,
+        basis: r.basis ? (JSON.parse(r.basis) as Record<string, unknown>) : null,
+      }));
     },
 
     /** Active mechanics with their depot and number of open assigned inspections. */
@@ -132,7 +182,7 @@ export function inspectionRepository(sequelize: Sequelize) {
     },
 
     /** Open inspections with everything the due list shows. */
-    async dueList(opts: { today: string; depotId?: number; withinDays?: number }): Promise<DueItem[]> {
+    async dueList(opts: { today: string; depotId?: number; withinDays?: number; sort?: DueSort }): Promise<DueItem[]> {
       const rows = await q<{
         id: number; vehicle_id: number; fleet_number: string; plate: string; vehicle_status: string; depot_id: number; depot_name: string; lat: number; lon: number;
         due_date: string; status: string; trigger: string | null; reason: string; basis: string | null; assignee_id: number | null; assignee_name: string | null;
@@ -169,7 +219,8 @@ export function inspectionRepository(sequelize: Sequelize) {
           maxLifeUsed: r.max_life,
           firstThresholdDate: r.first_threshold,
         }))
-        .filter((r) => opts.withinDays === undefined || r.daysLeft <= opts.withinDays);
+        .filter((r) => opts.withinDays === undefined || r.daysLeft <= opts.withinDays)
+        .sort(opts.sort === 'lifeUsed' ? byLifeUsed : () => 0);
     },
 
     async nextForVehicle(vehicleId: number) {

@@ -5,12 +5,14 @@ import type { Config } from '../config';
 import { allow } from '../http/access';
 import { parse } from '../http/validate';
 import { localDay } from '../wear/repository';
+import { DUE_SORTS } from './repository';
 import { inspectionService } from './service';
 
 const dueQuery = z
   .object({
     depotId: z.coerce.number({ message: 'must be a number' }).int().positive('must be a positive id').optional(),
     withinDays: z.coerce.number({ message: 'must be a number' }).int().min(0).max(3650).optional(),
+    sort: z.enum(DUE_SORTS, { message: 'must be due or lifeUsed' }).default('due'),
   })
   .strict();
 
@@ -20,7 +22,7 @@ export function registerInspectionRoutes(r: Router, deps: { sequelize: Sequelize
   r.get('/inspections/due', allow('manager', 'mechanic'), async (req, res) => {
     const q = parse(dueQuery, req.query, 'query');
     const today = localDay(deps.now(), deps.config.timeZone);
-    const items = await service.dueList({ today, depotId: q.depotId, withinDays: q.withinDays });
+    const items = await service.dueList({ today, depotId: q.depotId, withinDays: q.withinDays, sort: q.sort });
     const counts = {
       overdue: items.filter((i) => i.status === 'overdue').length,
       due: items.filter((i) => i.status === 'due').length,
@@ -28,6 +30,6 @@ export function registerInspectionRoutes(r: Router, deps: { sequelize: Sequelize
       next90: items.filter((i) => i.status === 'scheduled' && i.daysLeft > 30 && i.daysLeft <= 90).length,
       later: items.filter((i) => i.status === 'scheduled' && i.daysLeft > 90).length,
     };
-    res.json({ items, total: items.length, today, counts, rules: deps.config.inspection });
+    res.json({ items, total: items.length, today, sort: q.sort, counts, rules: deps.config.inspection });
   });
 }

@@ -26,10 +26,11 @@ export async function runSchedule(ctx: ScheduleContext) {
   const today = ctx.asOf;
   const windowFrom = startOfLocalDay(plusDays(today, -29), ctx.timeZone);
   const before = startOfLocalDay(plusDays(today, 1), ctx.timeZone);
-  const [vehicles, forecasts, lastDone, km30, open, mechanics] = await Promise.all([
+  const [vehicles, forecasts, lastDone, followUps, km30, open, mechanics] = await Promise.all([
     repo.vehicles(),
     repo.forecasts(),
     repo.lastDone((d) => localDay(d, ctx.timeZone)),
+    repo.followUps((d) => localDay(d, ctx.timeZone)),
     repo.distanceSince(windowFrom, before),
     repo.open(),
     repo.mechanics(),
@@ -49,6 +50,7 @@ export async function runSchedule(ctx: ScheduleContext) {
           lastDone: lastDone.get(v.id) ?? null,
           kmPerDay: (km30.get(v.id) ?? 0) / 30,
           open: openByVehicle.get(v.id) ?? null,
+          followUp: followUps.get(v.id) ?? null,
         },
         ctx.rules,
       );
@@ -84,7 +86,8 @@ export async function runSchedule(ctx: ScheduleContext) {
   ctx.counts.inspectionsCreated = create.length;
   ctx.counts.inspectionsMovedEarlier = move.length;
   ctx.counts.inspectionsNowDue = due + create.filter((c) => c.status === 'due').length;
-  ctx.counts.inspectionsNowOverdue = overdue;
+  // a damper past its end of life creates (or moves) an inspection that is overdue at once
+  ctx.counts.inspectionsNowOverdue = overdue + create.filter((c) => c.status === 'overdue').length + open.filter((o) => moved.get(o.id) === 'overdue' && o.status !== 'overdue').length;
 }
 
 export function inspectionService(sequelize: Sequelize) {

@@ -368,11 +368,12 @@ export function wearRepository(sequelize: Sequelize) {
     },
 
     /** Installed dampers (on non-retired vehicles) in id order, from `afterId`. */
+    /** Fitted dampers of vehicles in service, by id after `afterId`; only those of `vehicleIds` when given. */
     async installedDamperIds(afterId: number, limit: number, vehicleIds?: number[]): Promise<number[]> {
-      const only = vehicleIds ? `AND d.vehicle_id IN (${inList(vehicleIds)})` : '';
+      const only = vehicleIds ? `AND d.vehicle_id IN (${vehicleIds.map(() => '?').join(', ') || 'NULL'})` : '';
       const rows = await q<{ id: number }>(
         `SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE d.removed_at IS NULL AND v.status != 'retired' AND d.id > ? ${only} ORDER BY d.id LIMIT ?`,
-        [afterId, limit],
+        [afterId, ...(vehicleIds ?? []), limit],
       );
       return rows.map((r) => r.id);
     },

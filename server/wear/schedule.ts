@@ -2,15 +2,23 @@
  * Inspection scheduling rules (pure). One open inspection per vehicle at most. The due date is
  * the earliest of:
  * - prediction: `leadDays` before the first date a damper (or its corner's spring) is predicted
- *   to reach the inspection threshold;
+ *   to reach the inspection threshold; a damper already past its predicted end of life makes
+ *   the inspection due on its end-of-life date (so it is overdue, not "due today");
+ * - follow-up: the date the mechanic set when a corner's verdict was "check again soon";
  * - interval (months): `intervalMonths` after the last done inspection (or commissioning);
  * - interval (km): when the odometer is predicted to be `intervalKm` past the last done
  *   inspection (or 0 km), at the trailing 30-day km/day.
- * An inspection is created only when that date falls within `horizonDays`; a due date already
- * past is set to today (the inspection cannot have been due before it existed; its reason says
- * by how much the rule was passed). An open inspection made by these rules is moved earlier
- * when a rule now asks for an earlier date, never later; one entered by hand is left alone.
+ * While a follow-up is pending, the corners looked at in that inspection are not booked by the
+ * prediction rule before the follow-up date, unless the damper's predicted end of life comes
+ * before it (then `leadDays` before its end of life).
+ * An inspection is created only when that date falls within `horizonDays` (a follow-up is
+ * booked whatever its distance); a due date already past is set to today (the inspection cannot
+ * have been due before it existed; its reason says by how much the rule was passed), except a
+ * damper's passed end of life, which keeps its date. An open inspection made by these rules is
+ * moved earlier when a rule now asks for an earlier date, never later; one booked by hand is
+ * moved earlier only by the prediction rule, and its reason says from which date and why.
  * Status: `overdue` after the due date, `due` within `dueSoonDays` of it, else `scheduled`.
+ * See docs/methods.md, "Scheduling that follows the wear".
  *
  * @module
  */
@@ -32,10 +40,23 @@ export interface CornerForecast {
   position: string;
   lifeUsedFraction: number;
   thresholdDate: string | null;
-  /** Distance per day over the prediction window [km/day]. */
-  kmPerDay: number;
+  /** Day the damper is predicted to reach (or reached) the end of its expected life. */
+  endOfLifeDate: string | null;
   springDamage: number;
   springThresholdDate: string | null;
+}
+
+/** A follow-up the mechanic asked for at the last done inspection. */
+export interface FollowUp {
+  /** Day to check again (YYYY-MM-DD). */
+  date: string;
+  inspectionId: number;
+  /** Day of the inspection that asked for it. */
+  askedOn: string;
+  /** Corners given "check again soon". */
+  checkAgain: string[];
+  /** Corners looked at in that inspection and kept in service (their damper still fitted). */
+  looked: string[];
 }
 
 export interface VehicleScheduleInput {
@@ -45,7 +66,9 @@ export interface VehicleScheduleInput {
   lastDone: { date: string; odometerKm: number | null } | null;
   /** Trailing 30-day distance per day [km/day]. */
   kmPerDay: number;
-  open: { id: number; dueDate: string; status: string; trigger: string | null } | null;
+  open: { id: number; dueDate: string; status: string; trigger: string | null; reason?: string; basis?: Record<string, unknown> | null } | null;
+  /** The pending follow-up, if any (none once it was cancelled). */
+  followUp?: FollowUp | null;
 }
 
 export interface Candidate {
@@ -53,6 +76,8 @@ export interface Candidate {
   trigger: InspectionTrigger;
   reason: string;
   basis: Record<string, unknown>;
+  /** A damper past its end of life: the date is kept even though it has passed. */
+  pastEndOfLife?: boolean;
 }
 
 export type ScheduleDecision =
@@ -65,6 +90,7 @@ export type InspectionStatusOpen = 'scheduled' | 'due' | 'overdue';
 const pct = (x: number) => `${Math.round(x * 100)} %`;
 const km = formatKm;
 const fmtDay = (s: string) => s;
+const lowerFirst = (s: string) => s.charAt(0).toLowerCase() + s.slice(1);
 
 /** Status of an open inspection on `today`. */
 export function openStatus(dueDate: string, today: string, dueSoonDays: number): InspectionStatusOpen {
@@ -73,28 +99,75 @@ export function openStatus(dueDate: string, today: string, dueSoonDays: number):
   return 'scheduled';
 }
 
-/** Each rule's candidate date for a vehicle, earliest first. */
-export function candidates(input: VehicleScheduleInput, rules: ScheduleRules): Candidate[] {
-  const out: Candidate[] = [];
+/** The prediction rule's candidate for each corner (damper past end of life, damper or spring threshold), unsorted. */
+function predictionCandidates(input: VehicleScheduleInput, rules: ScheduleRules): Candidate[] {
   const { today } = input;
-  // prediction
-  let first: { date: string; what: string; c: CornerForecast; spring: boolean } | null = null;
+  const out: Candidate[] = [];
+  const follow = input.followUp ?? null;
+  const drives = `the vehicle drove ${Math.round(input.kmPerDay)} km/day over the last 30 days`;
   for (const c of input.corners) {
-    if (c.thresholdDate && (!first || c.thresholdDate < first.date)) first = { date: c.thresholdDate, what: `${c.position} damper`, c, spring: false };
-    if (c.springThresholdDate && (!first || c.springThresholdDate < first.date)) first = { date: c.springThresholdDate, what: `${c.position} spring`, c, spring: true };
+    const held = follow !== null && follow.looked.includes(c.position);
+    const common = { corner: c.position, threshold: rules.threshold, leadDays: rules.leadDays, kmPerDay: Math.round(input.kmPerDay * 10) / 10 };
+    const eol = c.endOfLifeDate;
+    if (eol && eol < today) {
+      // past its end of life: overdue since that day, whatever a follow-up said
+      out.push({
+        dueDate: eol,
+        trigger: 'prediction',
+        pastEndOfLife: true,
+        reason: `The ${c.position} damper passed the end of its expected life on ${fmtDay(eol)} (${pct(c.lifeUsedFraction)} of its expected life used now): overdue since then.`,
+        basis: { rule: 'prediction', component: 'damper', endOfLifeDate: eol, lifeUsed: c.lifeUsedFraction, ...common },
+      });
+      continue;
+    }
+    if (c.thresholdDate) {
+      const th = c.thresholdDate;
+      let due = plusDays(th, -rules.leadDays);
+      const passed = th <= today;
+      let reason = `The ${c.position} damper ${passed ? 'reached' : 'is predicted to reach'} ${pct(rules.threshold)} of its expected life on ${fmtDay(th)} (${pct(c.lifeUsedFraction)} used now; ${drives}); inspection set ${rules.leadDays} days ahead.`;
+      let skip = false;
+      if (held && due < follow.date) {
+        if (eol && eol < follow.date) {
+          due = plusDays(eol, -rules.leadDays);
+          reason = `The ${c.position} damper is predicted to reach the end of its expected life on ${fmtDay(eol)} (${pct(c.lifeUsedFraction)} used now; ${drives}), before the follow-up the mechanic set for ${fmtDay(follow.date)}; inspection set ${rules.leadDays} days ahead.`;
+        } else skip = true; // the follow-up looks at it first
+      }
+      if (!skip) out.push({ dueDate: due, trigger: 'prediction', reason, basis: { rule: 'prediction', component: 'damper', thresholdDate: th, endOfLifeDate: eol, lifeUsed: c.lifeUsedFraction, ...common } });
+    }
+    if (c.springThresholdDate && !(held && plusDays(c.springThresholdDate, -rules.leadDays) < follow.date)) {
+      const th = c.springThresholdDate;
+      const passed = th <= today;
+      out.push({
+        dueDate: plusDays(th, -rules.leadDays),
+        trigger: 'prediction',
+        reason: `The ${c.position} spring ${passed ? 'reached' : 'is predicted to reach'} ${pct(rules.threshold)} of its expected fatigue life on ${fmtDay(th)} (${pct(c.springDamage)} used now; ${drives}); inspection set ${rules.leadDays} days ahead.`,
+        basis: { rule: 'prediction', component: 'spring', thresholdDate: th, lifeUsed: c.springDamage, ...common },
+      });
+    }
   }
-  if (first) {
-    const due = plusDays(first.date, -rules.leadDays);
-    const passed = first.date <= today;
-    const used = first.spring ? first.c.springDamage : first.c.lifeUsedFraction;
-    const reason = first.spring
-      ? `${first.what} ${passed ? 'reached' : 'predicted to reach'} ${pct(rules.threshold)} of its assumed fatigue life ${passed ? 'on' : 'on'} ${fmtDay(first.date)} (Miner damage now ${used.toFixed(2)}); inspection set ${rules.leadDays} days ahead.`
-      : `${first.what} ${passed ? 'reached' : 'predicted to reach'} ${pct(rules.threshold)} of its expected life on ${fmtDay(first.date)} (now ${pct(used)} used, driving ${Math.round(first.c.kmPerDay)} km/day over the last 30 days); inspection set ${rules.leadDays} days ahead.`;
+  return out;
+}
+
+/** The date a candidate is booked for on `today`: a passed date is today, except a passed end of life. */
+const bookedDate = (c: Candidate, today: string) => (c.pastEndOfLife || c.dueDate >= today ? c.dueDate : today);
+const byDate = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
+/** Earliest booked date first, then earliest rule date. */
+const earliestFirst = (today: string) => (a: Candidate, b: Candidate) => byDate(bookedDate(a, today), bookedDate(b, today)) || byDate(a.dueDate, b.dueDate);
+
+/** Each rule's candidate date for a vehicle (the prediction rule's earliest corner only), earliest booked date first. */
+export function candidates(input: VehicleScheduleInput, rules: ScheduleRules): Candidate[] {
+  const { today } = input;
+  const out: Candidate[] = [];
+  const pred = predictionCandidates(input, rules).sort(earliestFirst(today));
+  if (pred.length) out.push(pred[0]);
+  const follow = input.followUp;
+  if (follow) {
+    const which = follow.checkAgain.length ? follow.checkAgain.join(', ') : 'the vehicle';
     out.push({
-      dueDate: due,
-      trigger: 'prediction',
-      reason,
-      basis: { rule: 'prediction', corner: first.c.position, component: first.spring ? 'spring' : 'damper', thresholdDate: first.date, threshold: rules.threshold, leadDays: rules.leadDays, lifeUsed: used, kmPerDay: first.c.kmPerDay },
+      dueDate: follow.date,
+      trigger: 'follow_up',
+      reason: `Follow-up: at the inspection on ${fmtDay(follow.askedOn)} the mechanic asked to check ${which} again by ${fmtDay(follow.date)}.`,
+      basis: { rule: 'follow_up', followUpOn: follow.date, fromInspectionId: follow.inspectionId, askedOn: follow.askedOn, checkAgain: follow.checkAgain, looked: follow.looked },
     });
   }
   // interval (months)
@@ -131,30 +204,43 @@ export function candidates(input: VehicleScheduleInput, rules: ScheduleRules): C
       });
     }
   }
-  return out.sort((a, b) => (a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : 0));
+  return out.sort(earliestFirst(today));
 }
 
 /** What to do for one vehicle today. Deterministic: the same input gives the same decision. */
 export function decide(input: VehicleScheduleInput, rules: ScheduleRules): ScheduleDecision {
-  const all = candidates(input, rules);
-  const best = all[0] ?? null;
-  if (!best) return { action: 'none', candidate: null };
   const { today } = input;
-  const late = best.dueDate < today ? daysBetween(best.dueDate, today) : 0;
-  const dueDate = late > 0 ? today : best.dueDate;
-  const candidate: Candidate = {
-    ...best,
-    dueDate,
-    reason: late > 0 ? `${best.reason} Rule date ${best.dueDate} passed ${late} day${late === 1 ? '' : 's'} ago: due now.` : best.reason,
-    basis: { ...best.basis, ruleDueDate: best.dueDate, createdOn: today },
+  const all = candidates(input, rules);
+  const settle = (best: Candidate): Candidate => {
+    const dueDate = bookedDate(best, today);
+    const late = dueDate > best.dueDate ? daysBetween(best.dueDate, today) : 0;
+    return {
+      ...best,
+      dueDate,
+      reason: late > 0 ? `${best.reason} Rule date ${best.dueDate} passed ${late} day${late === 1 ? '' : 's'} ago: due now.` : best.reason,
+      basis: { ...best.basis, ruleDueDate: best.dueDate, createdOn: today },
+    };
   };
-  if (input.open) {
-    const movable = input.open.trigger !== null && input.open.trigger !== 'manual';
-    if (movable && dueDate < input.open.dueDate) {
-      return { action: 'move', id: input.open.id, candidate, status: openStatus(dueDate, today, rules.dueSoonDays) };
+  const best = all[0] ? settle(all[0]) : null;
+  if (!best) return { action: 'none', candidate: null };
+  const open = input.open;
+  if (open) {
+    if (open.trigger === null) return { action: 'none', candidate: best }; // entered before the rules existed: left alone
+    // one booked by hand is moved only by the prediction rule: the manager chose its date
+    const mover = open.trigger === 'manual' ? all.find((c) => c.trigger === 'prediction') : all[0];
+    const c = mover ? settle(mover) : null;
+    if (c && c.dueDate < open.dueDate) {
+      const handReason = open.trigger === 'manual' ? String(open.basis?.handReason ?? open.reason ?? '') : '';
+      const moved: Candidate = {
+        ...c,
+        trigger: open.trigger === 'manual' ? 'manual' : c.trigger,
+        reason: `Moved earlier from ${fmtDay(open.dueDate)}: ${lowerFirst(c.reason)}${handReason ? ` Reason when booked by hand: ${handReason}` : ''}`,
+        basis: { ...c.basis, movedFrom: open.dueDate, ...(open.trigger === 'manual' ? { handReason } : {}) },
+      };
+      return { action: 'move', id: open.id, candidate: moved, status: openStatus(moved.dueDate, today, rules.dueSoonDays) };
     }
-    return { action: 'none', candidate };
+    return { action: 'none', candidate: best };
   }
-  if (daysBetween(today, dueDate) > rules.horizonDays) return { action: 'none', candidate };
-  return { action: 'create', candidate, status: openStatus(dueDate, today, rules.dueSoonDays) };
+  if (best.trigger !== 'follow_up' && daysBetween(today, best.dueDate) > rules.horizonDays) return { action: 'none', candidate: best };
+  return { action: 'create', candidate: best, status: openStatus(best.dueDate, today, rules.dueSoonDays) };
 }

@@ -283,7 +283,7 @@ export async function predictAll(ctx: PhaseContext) {
   const repo = wearRepository(ctx.sequelize);
   const resolve = ctx.lifeResolver ?? priorLifeResolver();
   let done = 0;
-  if (!ctx.vehicleIds) await repo.dropStalePredictions();
+  await repo.dropStalePredictions();
   const read = async (prev: { lastId: number } | null) => {
     const ids = await repo.installedDamperIds(prev ? prev.lastId : 0, ctx.damperChunk ?? WEAR_CHUNK, ctx.vehicleIds);
     if (!ids.length) return null;
@@ -305,7 +305,7 @@ export async function predictAll(ctx: PhaseContext) {
         };
         const r = recorded.get(c.id);
         const opening = estimateOpening({ untrackedKm: opts.untrackedKm, recordedKm: r?.cumKm ?? 0, recordedWearKm: r?.cumWearKm ?? 0 });
-        inputs.push({ c, opts, windowStart: predictionWindow(opts).windowStart, levels: levelsOf(opts, opening.wearKm) });
+        inputs.push({ c, opts, windowStart: predictionWindow(opts).windowStart, levels: levelsOf(opts, opening.wearKm + (life.offsetWearKm ?? 0)) });
       } catch (err) {
         errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
       }

@@ -39,6 +39,11 @@ export interface LifeBasis {
   source: string;
   /** One line on what it rests on. */
   note: string;
+  /**
+   * Wear km added to the damper's own so that its life used on the day of a test-lane result is
+   * what the lane measured, where the calibration factor alone is bounded (0 otherwise).
+   */
+  offsetWearKm?: number;
 }
 
 /** Resolves the life of a damper from its spec, axle and rated km. */
@@ -305,7 +310,7 @@ export function predictFromSummary(s: WearSummary, opts: PredictOptions): Predic
   const q = opts.scheduleQuantile ?? 0.5;
   const years = opts.calendarYears ?? DEFAULT_CALENDAR_YEARS;
   const L = opts.life.medianWearKm;
-  const W = s.cumWearKm + opening.wearKm;
+  const W = s.cumWearKm + opening.wearKm + (opts.life.offsetWearKm ?? 0);
   const rate = s.windowWearKm / windowDays;
   const dRate = s.windowSpringDamage / windowDays;
   const th = opts.thresholdFraction;
@@ -319,7 +324,7 @@ export function predictFromSummary(s: WearSummary, opts: PredictOptions): Predic
     return days > 365 * 100 ? null : plusDays(opts.asOf, days);
   };
   const earlier = (a: string | null, b: string) => (a === null || b < a ? b : a);
-  const levels = levelsOf(opts, opening.wearKm).map((l) => l + opening.wearKm);
+  const levels = levelsOf(opts, 0);
   const distTh = reached(levels[0], W, rate, s.levelDays[0]);
   const distEol = reached(levels[1], W, rate, s.levelDays[1]);
   const calTh = plusDays(opts.installedAt, Math.round(th * calendarDays));
@@ -371,5 +376,5 @@ export function predict(history: WearDayRow[], opts: PredictOptions): Prediction
   // the opening depends on the record; the levels on the opening: one pass for each
   const pre = summarizeWear(history, opts, 0);
   const opening = estimateOpening({ untrackedKm: opts.untrackedKm, recordedKm: pre.cumKm, recordedWearKm: pre.cumWearKm });
-  return predictFromSummary(summarizeWear(history, opts, opening.wearKm), opts);
+  return predictFromSummary(summarizeWear(history, opts, opening.wearKm + (opts.life.offsetWearKm ?? 0)), opts);
 }

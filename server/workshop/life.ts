@@ -191,16 +191,20 @@ export async function createWorkshopLifeResolver(prior: LifePrior = DEFAULT_PRIO
       cache.set(key, base);
     }
     const t = meas.get(damperId);
-    if (t && t.life_used_at_test > 0) {
+    if (t) {
       const u = lifeUsedFromDamping(t.measured_damping_ns_per_m, t.nominal_damping_ns_per_m);
-      const f = Math.min(3, Math.max(1 / 3, t.life_used_at_test / u));
+      const modelUsed = t.wear_km_at_test / base.medianWearKm;
+      const f = Math.min(3, Math.max(1 / 3, modelUsed / u));
+      // where the factor is bounded, an offset puts life used at the test where the lane says
+      const offsetWearKm = u * f * base.medianWearKm - t.wear_km_at_test;
       return {
         b: base.b,
         medianWearKm: base.medianWearKm * f,
         p10WearKm: base.p10WearKm * f,
         p90WearKm: base.p90WearKm * f,
+        offsetWearKm,
         source: 'test-lane',
-        note: `calibrated by the test lane (inspection ${t.inspection_id}: ${Math.round(t.measured_damping_ns_per_m)} N·s/m measured ⇒ ${Math.round(u * 100)} % of life used where the model said ${Math.round(t.life_used_at_test * 100)} %): life ×${f.toFixed(2)}, bounded to ⅓–3×; ${base.note}`,
+        note: `calibrated by the test lane (inspection ${t.inspection_id}: ${Math.round(t.measured_damping_ns_per_m)} N·s/m measured ⇒ ${Math.round(u * 100)} % of life used where the model said ${Math.round(modelUsed * 100)} %): life ×${f.toFixed(2)}, bounded to ⅓–3×${Math.abs(offsetWearKm) > 1 ? `, the rest as ${formatKm(offsetWearKm)} of wear` : ''}; ${base.note}`,
       };
     }
     return base;

@@ -54,6 +54,7 @@ export interface FittedCornerRow {
   p_p90_wear_km: number | null;
   p_wear_km: number | null;
   p_governed: string | null;
+  p_distance_life: number | null;
 }
 
 export const workshopRepository = {
@@ -66,7 +67,7 @@ export const workshopRepository = {
               p.life_used_fraction AS p_life, p.damping_ns_per_m AS p_damping, p.life_source AS p_source, p.threshold_date AS p_threshold_date,
               p.end_of_life_date AS p_end_date, p.wear_km_per_day AS p_rate, p.life_wear_km AS p_life_wear_km, p.window_km AS p_window_km,
               p.window_wear_km AS p_window_wear_km, p.end_of_life_p10_date AS p_end_p10, p.end_of_life_p90_date AS p_end_p90, p.opening_share AS p_opening_share,
-              p.life_p10_wear_km AS p_p10_wear_km, p.life_p90_wear_km AS p_p90_wear_km, p.wear_km AS p_wear_km, p.governed_by AS p_governed
+              p.life_p10_wear_km AS p_p10_wear_km, p.life_p90_wear_km AS p_p90_wear_km, p.wear_km AS p_wear_km, p.governed_by AS p_governed, p.distance_life_used AS p_distance_life
        FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id
        JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
        LEFT JOIN damper_predictions p ON p.damper_id = d.id
@@ -95,10 +96,10 @@ export const workshopRepository = {
     const [r] = await q<{
       id: number; vehicle_id: number; due_date: string; status: string; reason: string; assignee_id: number | null; assigned_depot_id: number | null;
       completed_at: string | null; odometer_km: number | null; notes: string | null; trigger: string | null; basis: string | null; results_at: string | null;
-      results_by_id: number | null; vehicle_depot_id: number; fleet_number: string; plate: string; spec_id: number; vehicle_odometer_km: number; vehicle_status: string;
+      results_by_id: number | null; follow_up_on: string | null; vehicle_depot_id: number; fleet_number: string; plate: string; spec_id: number; vehicle_odometer_km: number; vehicle_status: string;
     }>(
       `SELECT i.id, i.vehicle_id, i.due_date, i.status, i.reason, i.assignee_id, i.assigned_depot_id, i.completed_at, i.odometer_km, i.notes, i."trigger", i.basis,
-              i.results_at, i.results_by_id, v.depot_id AS vehicle_depot_id, v.fleet_number, v.plate, v.spec_id, v.odometer_km AS vehicle_odometer_km, v.status AS vehicle_status
+              i.results_at, i.results_by_id, i.follow_up_on, v.depot_id AS vehicle_depot_id, v.fleet_number, v.plate, v.spec_id, v.odometer_km AS vehicle_odometer_km, v.status AS vehicle_status
        FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id WHERE i.id = ?`,
       [id],
       transaction,
@@ -159,10 +160,10 @@ export const workshopRepository = {
 
   /** The latest test-lane estimate of each installed damper that has one. */
   async latestMeasurements() {
-    return q<{ damper_id: number; measured_damping_ns_per_m: number; nominal_damping_ns_per_m: number; life_used_at_test: number; inspection_id: number }>(
-      `SELECT c.damper_id, c.measured_damping_ns_per_m, c.nominal_damping_ns_per_m, c.life_used_at_test, c.inspection_id
+    return q<{ damper_id: number; measured_damping_ns_per_m: number; nominal_damping_ns_per_m: number; wear_km_at_test: number; inspection_id: number }>(
+      `SELECT c.damper_id, c.measured_damping_ns_per_m, c.nominal_damping_ns_per_m, COALESCE(c.wear_km_at_test, 0) AS wear_km_at_test, c.inspection_id
        FROM inspection_corners c JOIN dampers d ON d.id = c.damper_id
-       WHERE d.removed_at IS NULL AND c.measured_damping_ns_per_m IS NOT NULL AND c.life_used_at_test > 0
+       WHERE d.removed_at IS NULL AND c.measured_damping_ns_per_m IS NOT NULL
          AND c.id = (SELECT x.id FROM inspection_corners x WHERE x.damper_id = c.damper_id AND x.measured_damping_ns_per_m IS NOT NULL ORDER BY x.id DESC LIMIT 1)`,
     );
   },

@@ -1,5 +1,6 @@
 import type { Router } from 'express';
 import fs from 'node:fs';
+import { addYears, formatISO, isValid, parseISO } from 'date-fns';
 import { z } from 'zod';
 import type { Config } from '../config';
 import { AppError } from '../errors';
@@ -31,11 +32,22 @@ const assignBody = z
   .strict()
   .refine((v) => Object.keys(v).length > 0, { message: 'give a mechanic, a depot or a due date', path: ['_'] });
 
-const resultsBody = z
+/** A follow-up date: a real day after the inspection day (`today`) and at most a year after it. */
+const followUpDate = (today: string) => {
+  const last = formatISO(addYears(parseISO(today), 1), { representation: 'date' });
+  return isoDate
+    .refine((s) => isValid(parseISO(s)) && formatISO(parseISO(s), { representation: 'date' }) === s, 'is not a calendar date')
+    .refine((s) => s > today, `must be after the inspection day (${today})`)
+    .refine((s) => s <= last, `must be within a year of the inspection (on or before ${last})`);
+};
+
+const resultsBody = (today: string) => z
   .object({
     odometerKm: odometer,
     notes: z.string().trim().max(4000, 'must be 4000 characters or fewer').nullish(),
     complete: z.boolean({ message: 'must be true or false' }).optional(),
+    /** With a "check again soon" verdict: when to check again (default 30 days on). */
+    followUpOn: followUpDate(today).nullish(),
     corners: z
       .array(
         z
@@ -116,7 +128,7 @@ const csvCell = (v: unknown) => {
 
 export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: () => Date }) {
   const cfg = deps.config.workshop;
-  const svc = workshopService(cfg, { now: deps.now, dataDir: deps.config.dataDir, publicUrl: deps.config.publicUrl });
+  const svc = workshopService(cfg, { now: deps.now, dataDir: deps.config.dataDir, publicUrl: deps.config.publicUrl, timeZone: deps.config.timeZone });
 
   r.get('/inspections', allow('manager', 'mechanic'), async (req, res) => {
     const qy = parse(inspectionList, req.query, 'query');
@@ -136,7 +148,7 @@ export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: (
 
   r.post('/inspections/:id/results', allow('mechanic'), async (req, res) => {
     const { id } = parse(idParam, req.params, 'address');
-    const body = parse(resultsBody, req.body, 'results');
+    const body = parse(resultsBody(formatISO(deps.now(), { representation: 'date' })), req.body, 'results');
     res.json(await svc.recordResults(currentUser(req), id, body));
   });
 

@@ -4,10 +4,11 @@
  * model check.
  */
 import fs from 'node:fs';
-import { addDays, formatISO, startOfISOWeek } from 'date-fns';
+import { addDays, formatISO, parseISO, startOfISOWeek } from 'date-fns';
 import { dampingFromAdhesion, NoDampingSolutionError } from '../physics/adhesion';
 import type { CornerParams } from '../physics/types';
 import { estimatedDamping } from '../wear/wear';
+import { repredictVehicle } from '../wear/repredict';
 import { queueAssignmentNotes } from '../mail/service';
 import { AppError } from '../errors';
 import type { SessionUser } from '../http/access';
@@ -19,6 +20,10 @@ import type { WorkshopConfig } from './config';
 
 export const FINDINGS = ['oil_leak', 'mount_loose_or_cracked', 'bush_worn', 'bump_stop_damaged', 'spring_cracked_or_sagging', 'tyre_uneven_wear'] as const;
 export const VERDICTS = ['ok', 'monitor', 'replace'] as const;
+/** The verdict "keep, check again soon": it sets the inspection's follow-up date. */
+export const CHECK_AGAIN = 'monitor';
+/** Days from the inspection to the follow-up when the mechanic gives no date (stated default). */
+export const FOLLOW_UP_DEFAULT_DAYS = 30;
 export const OPEN = ['scheduled', 'due', 'overdue'];
 
 const day = (d: Date) => formatISO(d, { representation: 'date' });
@@ -149,8 +154,11 @@ export function replacementChance(r: FittedCornerRow, st: CornerState, days: num
   return { chance, basis: `km estimate from ${from}: ${Math.round(kmPerDay)} km/day on its spec's life at the rated road (${Math.round(chance * 100)} %)` };
 }
 
-export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; dataDir: string; publicUrl: string }) {
+export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; dataDir: string; publicUrl: string; timeZone: string }) {
   const today = () => day(deps.now());
+  /** The vehicle's predictions as of today, with the life the results just saved imply (server/wear/repredict.ts). */
+  const repredict = (vehicleId: number) =>
+    repredictVehicle(sequelize(), vehicleId, { now: deps.now(), asOf: today(), timeZone: deps.timeZone, thresholdFraction: cfg.inspectionThreshold, workshop: cfg });
 
   async function scopeCheck(user: SessionUser, insp: { assignee_id: number | null; assigned_depot_id: number | null; vehicle_depot_id: number }) {
     if (user.role === 'manager') return;
@@ -262,6 +270,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         notes: i.notes,
         resultsAt: iso(i.results_at),
         completedAt: iso(i.completed_at),
+        followUpOn: i.follow_up_on,
         predicted: by.get(i.vehicle_id) ?? [],
         results: corners,
         axleDifferences: axleDifferences(corners, cfg.laneFlagPoints),
@@ -300,7 +309,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
     async recordResults(
       user: SessionUser,
       id: number,
-      body: { odometerKm: number; notes?: string | null; complete?: boolean; corners: { position: string; adhesionPct: number | null; findings: string[]; verdict: string }[] },
+      body: { odometerKm: number; notes?: string | null; complete?: boolean; followUpOn?: string | null; corners: { position: string; adhesionPct: number | null; findings: string[]; verdict: string }[] },
     ) {
       const i = await workshopRepository.inspectionRow(id);
       if (!i) throw AppError.notFound('Inspection');
@@ -314,6 +323,12 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         if (!rows.some((r) => r.position === c.position)) fields[`corners.${k}.position`] = `the vehicle has no damper fitted at ${c.position}`;
       });
       if (Object.keys(fields).length) throw AppError.badRequest('Some corners do not exist on this vehicle.', fields);
+      // "check again soon" on any corner: the follow-up the nightly scheduling books (the range is checked by the route)
+      const checkAgain = body.corners.some((c) => c.verdict === CHECK_AGAIN);
+      if (!checkAgain && body.followUpOn) {
+        throw AppError.badRequest('A follow-up date goes with a "check again soon" verdict.', { followUpOn: 'give a corner the verdict "check again soon", or leave the follow-up date empty' });
+      }
+      const followUpOn = checkAgain ? (body.followUpOn ?? day(addDays(parseISO(today()), FOLLOW_UP_DEFAULT_DAYS))) : null;
       const computed = body.corners.map((c) => {
         const r = rows.find((x) => x.position === c.position)!;
         const st = cornerState(r, lives, cfg.inspectionThreshold);
@@ -325,10 +340,10 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         for (const { c, r, st, est } of computed) {
           await exec(
             `INSERT INTO inspection_corners (inspection_id, damper_id, position, axle_index, adhesion_pct, findings, verdict, nominal_damping_ns_per_m, predicted_damping_ns_per_m,
-               predicted_basis, measured_damping_ns_per_m, estimate_note, energy_j_at_test, life_used_at_test, created_at, updated_at)
-             VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+               predicted_basis, measured_damping_ns_per_m, estimate_note, energy_j_at_test, life_used_at_test, wear_km_at_test, created_at, updated_at)
+             VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
             [id, r.damper_id, c.position, r.axle_index, c.adhesionPct, JSON.stringify(c.findings), c.verdict, r.nominal_ns_per_m, st.dampingNsPerM, st.basis,
-              est.dampingNsPerM, est.note, r.energy_j, st.lifeUsedFraction, stamp(now), stamp(now)],
+              est.dampingNsPerM, est.note, r.energy_j, st.lifeUsedFraction, r.p_wear_km ?? 0, stamp(now), stamp(now)],
             t,
           );
           if (est.dampingNsPerM !== null) {
@@ -343,12 +358,13 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
           }
         }
         await exec(
-          `UPDATE inspections SET odometer_km = ?, notes = ?, results_at = ?, results_by_id = ?, updated_at = ?${body.complete ? `, status = 'done', completed_at = ?` : ''} WHERE id = ?`,
-          [body.odometerKm, body.notes ?? null, stamp(now), user.id, stamp(now), ...(body.complete ? [stamp(now)] : []), id],
+          `UPDATE inspections SET odometer_km = ?, notes = ?, results_at = ?, results_by_id = ?, follow_up_on = ?, updated_at = ?${body.complete ? `, status = 'done', completed_at = ?` : ''} WHERE id = ?`,
+          [body.odometerKm, body.notes ?? null, stamp(now), user.id, followUpOn, stamp(now), ...(body.complete ? [stamp(now)] : []), id],
           t,
         );
         await exec('UPDATE vehicles SET odometer_km = MAX(odometer_km, ?), updated_at = ? WHERE id = ?', [body.odometerKm, stamp(now), i.vehicle_id], t);
       });
+      await repredict(i.vehicle_id);
       return this.detail(user, id);
     },
 
@@ -452,6 +468,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         await exec('UPDATE vehicles SET odometer_km = MAX(odometer_km, ?), updated_at = ? WHERE id = ?', [body.odometerKm, stamp(now), body.vehicleId], t);
         return wid;
       });
+      await repredict(body.vehicleId);
       return this.workRecord(workId);
     },
 

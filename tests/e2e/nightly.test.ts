@@ -60,6 +60,18 @@ describe('nightly damper-duty run in the browser', () => {
     await page.screenshot({ path: screenshotPath('manager-desktop-due-map'), fullPage: true });
     await page.getByRole('button', { name: 'List' }).click();
 
+    // ordered by life used: one table, in the server's order (most-worn damper first)
+    await page.getByLabel('Order by').selectOption('lifeUsed');
+    const byLife = page.getByRole('table', { name: 'Open inspections by life used' });
+    await byLife.waitFor();
+    const api = (await (await page.request.get(`${server.url}/api/inspections/due?sort=lifeUsed`)).json()) as { items: { fleetNumber: string; maxLifeUsed: number | null }[] };
+    const shown = (await byLife.locator('tbody tr').getByRole('link').allInnerTexts()).map((t) => t.split('\n')[0].trim());
+    expect(shown).toEqual(api.items.map((i) => i.fleetNumber));
+    expect(api.items[0].maxLifeUsed).toBeGreaterThanOrEqual(api.items[api.items.length - 1].maxLifeUsed ?? 0);
+    await page.screenshot({ path: screenshotPath('manager-desktop-due-by-life'), fullPage: true });
+    await page.getByLabel('Order by').selectOption('due');
+    await page.getByRole('heading', { name: /^Due now \(\d+\)$/ }).waitFor();
+
     // a vehicle's wear: charts with the predicted path, duty per route, next inspection and why
     const firstDue = page.getByRole('table', { name: 'Due now inspections' }).getByRole('link').first();
     const fleetNumber = (await firstDue.innerText()).split('\n')[0].trim();

@@ -79,8 +79,16 @@ describe('workshop', () => {
     await mec.getByLabel('Verdict FL').selectOption('replace');
     await mec.getByRole('group', { name: 'Corner FL' }).first().getByLabel(/Oil on the damper body/).check();
     await expect(mec.getByText(/large: over 15 points/).count()).resolves.toBeGreaterThan(0);
+    // "check again soon" asks for a follow-up day: the form refuses one not after today (the server too: API tests)
+    await mec.getByLabel('Verdict RR').selectOption('monitor');
+    const followUp = mec.getByLabel('Check again by');
+    await followUp.fill('2026-11-30');
+    await expect(followUp.evaluate((el) => (el as HTMLInputElement).validity.rangeUnderflow)).resolves.toBe(true);
+    await followUp.fill('2027-01-20');
+    await expect(followUp.evaluate((el) => (el as HTMLInputElement).checkValidity())).resolves.toBe(true);
     await mec.getByRole('button', { name: 'Save results' }).click();
     await mec.getByRole('table', { name: 'Predicted and measured damping' }).waitFor();
+    await mec.getByText('Follow-up set for 20 Jan 2027.').waitFor();
 
     // A photo, checked by content on the server.
     await mec.getByLabel('Attach a file').setInputFiles({ name: 'front-left-leak.png', mimeType: 'image/png', buffer: PNG });

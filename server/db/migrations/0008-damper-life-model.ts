@@ -73,6 +73,9 @@ export async function up({ context: qi }: { context: QueryInterface }) {
   await qi.addColumn('dampers', 'wear_exponent', { type: DataTypes.DOUBLE, allowNull: true });
   await qi.sequelize.query('UPDATE dampers SET wear_dirty_from = installed_at, opening_km = NULL, energy_j = 0, fatigue_damage = 0, life_used_fraction = 0');
 
+  // the damper's wear km when a test-lane result was recorded: its calibration rests on it
+  await qi.addColumn('inspection_corners', 'wear_km_at_test', { type: DataTypes.DOUBLE, allowNull: true });
+
   await qi.createTable('life_models', {
     spec_id: { type: DataTypes.INTEGER, allowNull: false, primaryKey: true, references: { model: 'suspension_specs', key: 'id' }, onDelete: 'CASCADE' },
     model: { type: DataTypes.TEXT, allowNull: false },

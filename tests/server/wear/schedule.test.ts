@@ -13,11 +13,11 @@ const base = (over: Partial<VehicleScheduleInput> = {}): VehicleScheduleInput =>
   ...over,
 });
 
-const corner = (position: string, thresholdDate: string | null, springThresholdDate: string | null = null) => ({
+const corner = (position: string, thresholdDate: string | null, springThresholdDate: string | null = null, endOfLifeDate: string | null = null, lifeUsedFraction = 0.6) => ({
   position,
-  lifeUsedFraction: 0.6,
+  lifeUsedFraction,
   thresholdDate,
-  kmPerDay: 180,
+  endOfLifeDate,
   springDamage: 0.01,
   springThresholdDate,
 });
@@ -29,9 +29,9 @@ describe('inspection scheduling rules', () => {
     if (d.action !== 'create') return;
     expect(d.candidate.dueDate).toBe('2026-12-27'); // 2027-01-10 − 14 days
     expect(d.candidate.trigger).toBe('prediction');
-    expect(d.candidate.reason).toContain('RR damper predicted to reach 80 %');
-    expect(d.candidate.reason).toContain('2027-01-10');
-    expect(d.candidate.reason).toContain('180 km/day');
+    expect(d.candidate.reason).toContain('The RR damper is predicted to reach 80 % of its expected life on 2027-01-10 (60 % used now; the vehicle drove 100 km/day over the last 30 days)');
+    // in a mechanic's words: no energy rate, no "rated" life
+    expect(d.candidate.reason).not.toMatch(/kJ|rated/);
     expect(d.status).toBe('scheduled');
   });
 
@@ -79,12 +79,11 @@ describe('inspection scheduling rules', () => {
     expect(same.action).toBe('none');
   });
 
-  it('when a rule now asks for an earlier date than the open inspection, then that inspection is moved earlier, never later, and a hand-made one is left alone', () => {
+  it('when a rule now asks for an earlier date than the open inspection, then that inspection is moved earlier, never later, and says from which date', () => {
     const open = { id: 5, dueDate: '2027-02-20', status: 'scheduled', trigger: 'interval_months' };
     const d = decide(base({ open, corners: [corner('RR', '2027-01-10')] }), rules);
     expect(d).toMatchObject({ action: 'move', id: 5, candidate: { dueDate: '2026-12-27', trigger: 'prediction' } });
-    const manual = decide(base({ open: { ...open, trigger: 'manual' }, corners: [corner('RR', '2027-01-10')] }), rules);
-    expect(manual.action).toBe('none');
+    expect(d.candidate?.reason).toMatch(/^Moved earlier from 2027-02-20: the RR damper is predicted to reach 80 %/);
     const legacy = decide(base({ open: { ...open, trigger: null }, corners: [corner('RR', '2027-01-10')] }), rules);
     expect(legacy.action).toBe('none');
   });
@@ -92,7 +91,7 @@ describe('inspection scheduling rules', () => {
   it('when the same input is decided twice, then the decision is the same (deterministic)', () => {
     const input = base({ corners: [corner('FL', '2027-01-20', '2027-01-05')] });
     expect(decide(input, rules)).toEqual(decide(input, rules));
-    expect(decide(input, rules).candidate?.reason).toContain('FL spring');
+    expect(decide(input, rules).candidate?.reason).toContain('The FL spring is predicted to reach 80 % of its expected fatigue life on 2027-01-05');
   });
 
   it('when the due date has passed, then the inspection is overdue; within the due-soon window it is due; otherwise scheduled', () => {
@@ -107,5 +106,120 @@ describe('inspection scheduling rules', () => {
     expect(d.candidate?.trigger).toBe('interval_months');
     expect(d.candidate?.dueDate).toBe('2027-03-01');
     expect(d.candidate?.reason).toContain('commissioning on 2026-03-01 (no inspection on record)');
+  });
+});
+
+// Stated rules (README "Scheduling rules", docs/methods.md "Scheduling that follows the wear");
+// the dates below are computed by hand from them.
+describe('a damper past its end of life', () => {
+  it('when a damper passed its predicted end of life, then the inspection is overdue from that day (not due today), and the reason says when it passed (stated rule)', () => {
+    const d = decide(base({ corners: [corner('FL', '2026-09-01', null, '2026-11-10', 1.04), corner('RR', '2027-01-10')] }), rules);
+    expect(d.action).toBe('create');
+    if (d.action !== 'create') return;
+    expect(d.candidate.dueDate).toBe('2026-11-10');
+    expect(d.status).toBe('overdue');
+    expect(d.candidate.trigger).toBe('prediction');
+    expect(d.candidate.reason).toBe('The FL damper passed the end of its expected life on 2026-11-10 (104 % of its expected life used now): overdue since then.');
+    expect(d.candidate.reason).not.toContain('due now');
+  });
+
+  it('when an interval rule passed even longer ago, then the damper past its end of life still sets the date: the inspection is overdue, not due today (stated rule)', () => {
+    // months rule: 2025-06-01 + 12 months = 2026-06-01, passed; booked today if it stood alone
+    const d = decide(base({ lastDone: { date: '2025-06-01', odometerKm: 55000 }, corners: [corner('RL', '2026-08-01', null, '2026-11-20', 1.01)] }), rules);
+    expect(d).toMatchObject({ action: 'create', status: 'overdue', candidate: { dueDate: '2026-11-20', trigger: 'prediction' } });
+  });
+
+  it('when the open inspection is due later, then it is moved to the end-of-life date and becomes overdue (stated rule)', () => {
+    const open = { id: 9, dueDate: '2026-12-15', status: 'scheduled', trigger: 'interval_months' };
+    const d = decide(base({ open, corners: [corner('FR', '2026-10-01', null, '2026-11-25', 1.01)] }), rules);
+    expect(d).toMatchObject({ action: 'move', id: 9, status: 'overdue', candidate: { dueDate: '2026-11-25' } });
+    expect(d.candidate?.reason).toBe('Moved earlier from 2026-12-15: the FR damper passed the end of its expected life on 2026-11-25 (101 % of its expected life used now): overdue since then.');
+  });
+
+  it('when the end of life is today, then it is due today, not overdue (stated rule)', () => {
+    const d = decide(base({ corners: [corner('FL', '2026-10-01', null, '2026-11-30', 1)] }), rules);
+    expect(d).toMatchObject({ action: 'create', status: 'due', candidate: { dueDate: '2026-11-30' } });
+  });
+});
+
+describe('an inspection booked by hand', () => {
+  const manual = { id: 7, dueDate: '2027-03-01', status: 'scheduled', trigger: 'manual', reason: 'Driver reports a knock at the front.', basis: null };
+
+  it('when a damper threshold date less the lead days comes before it, then it is moved earlier and its reason says from when and why, keeping the manager\'s own reason (stated rule)', () => {
+    const d = decide(base({ open: manual, corners: [corner('FL', '2027-01-10', null, '2027-04-01', 0.7)] }), rules);
+    expect(d.action).toBe('move');
+    if (d.action !== 'move') return;
+    expect(d.id).toBe(7);
+    expect(d.candidate.dueDate).toBe('2026-12-27'); // 2027-01-10 − 14 days
+    expect(d.candidate.trigger).toBe('manual');
+    expect(d.status).toBe('scheduled');
+    expect(d.candidate.reason).toBe(
+      'Moved earlier from 2027-03-01: the FL damper is predicted to reach 80 % of its expected life on 2027-01-10 (70 % used now; the vehicle drove 100 km/day over the last 30 days); inspection set 14 days ahead. Reason when booked by hand: Driver reports a knock at the front.',
+    );
+    // moved again on a later night: the manager's reason is kept once, not nested
+    const again = decide(base({ open: { ...manual, dueDate: d.candidate.dueDate, reason: d.candidate.reason, basis: d.candidate.basis }, corners: [corner('FL', '2027-01-01', null, '2027-03-20', 0.72)] }), rules);
+    expect(again.action).toBe('move');
+    expect(again.candidate?.dueDate).toBe('2026-12-18');
+    expect(again.candidate?.reason.match(/Reason when booked by hand/g)).toHaveLength(1);
+    expect(again.candidate?.reason).toMatch(/^Moved earlier from 2026-12-27: .* Reason when booked by hand: Driver reports a knock at the front\.$/);
+  });
+
+  it('when the prediction asks for a later date, then it is never moved later (stated rule)', () => {
+    const d = decide(base({ open: { ...manual, dueDate: '2026-12-05' }, corners: [corner('FL', '2027-01-10')] }), rules);
+    expect(d.action).toBe('none');
+  });
+
+  it('when only an interval rule comes before it, then the date the manager chose stands (stated rule)', () => {
+    // months rule: 2026-01-15 + 12 months = 2027-01-15, before 2027-03-01
+    const d = decide(base({ open: manual, lastDone: { date: '2026-01-15', odometerKm: 58000 } }), rules);
+    expect(d.candidate?.trigger).toBe('interval_months');
+    expect(d.action).toBe('none');
+  });
+
+  it('when a damper is past its end of life, then the hand-booked inspection is moved to that day and is overdue (stated rule)', () => {
+    const d = decide(base({ open: manual, corners: [corner('RR', '2026-10-01', null, '2026-11-28', 1.01)] }), rules);
+    expect(d).toMatchObject({ action: 'move', status: 'overdue', candidate: { dueDate: '2026-11-28', trigger: 'manual' } });
+  });
+});
+
+describe('the mechanic\'s follow-up', () => {
+  const followUp = { date: '2026-12-20', inspectionId: 3, askedOn: '2026-11-20', checkAgain: ['FL'], looked: ['FL', 'FR', 'RL', 'RR'] };
+  const lastDone = { date: '2026-11-20', odometerKm: 59000 };
+
+  it('when a corner was given "check again soon", then the follow-up is booked for the mechanic\'s date instead of today, though its threshold date has passed (stated rule)', () => {
+    const d = decide(base({ lastDone, followUp, corners: [corner('FL', '2026-10-01', null, '2027-02-01', 0.86)] }), rules);
+    expect(d.action).toBe('create');
+    if (d.action !== 'create') return;
+    expect(d.candidate.trigger).toBe('follow_up');
+    expect(d.candidate.dueDate).toBe('2026-12-20');
+    expect(d.status).toBe('scheduled');
+    expect(d.candidate.reason).toBe('Follow-up: at the inspection on 2026-11-20 the mechanic asked to check FL again by 2026-12-20.');
+    // without the follow-up the same corner is booked today
+    const without = decide(base({ lastDone, corners: [corner('FL', '2026-10-01', null, '2027-02-01', 0.86)] }), rules);
+    expect(without).toMatchObject({ action: 'create', status: 'due', candidate: { dueDate: '2026-11-30', trigger: 'prediction' } });
+  });
+
+  it('when the damper\'s end of life comes before the follow-up, then it is booked the lead days before its end of life, and says so (stated rule)', () => {
+    // end of life 2026-12-18, before the follow-up on 2026-12-20: booked 2026-12-18 − 14 days = 2026-12-04
+    const d = decide(base({ lastDone, followUp, corners: [corner('FL', '2026-10-01', null, '2026-12-18', 0.9)] }), rules);
+    expect(d).toMatchObject({ action: 'create', status: 'due', candidate: { dueDate: '2026-12-04', trigger: 'prediction' } });
+    expect(d.candidate?.reason).toContain('predicted to reach the end of its expected life on 2026-12-18');
+    expect(d.candidate?.reason).toContain('before the follow-up the mechanic set for 2026-12-20');
+    // an end of life after the follow-up leaves the follow-up to look at it
+    const after = decide(base({ lastDone, followUp, corners: [corner('FL', '2026-10-01', null, '2026-12-28', 0.9)] }), rules);
+    expect(after.candidate).toMatchObject({ dueDate: '2026-12-20', trigger: 'follow_up' });
+  });
+
+  it('when the follow-up inspection is open, then the prediction rule does not move it earlier for a corner looked at, but does for one not looked at (stated rule)', () => {
+    const open = { id: 11, dueDate: '2026-12-20', status: 'scheduled', trigger: 'follow_up' };
+    const held = decide(base({ lastDone, followUp, open, corners: [corner('RR', '2026-12-01', null, '2027-03-01')] }), rules);
+    expect(held.action).toBe('none');
+    const notLooked = decide(base({ lastDone, followUp: { ...followUp, looked: ['FL', 'FR'] }, open, corners: [corner('RR', '2026-12-20', null, '2027-03-01')] }), rules);
+    expect(notLooked).toMatchObject({ action: 'move', candidate: { dueDate: '2026-12-06', trigger: 'prediction' } });
+  });
+
+  it('when the follow-up date is beyond the booking horizon, then it is booked all the same (stated rule)', () => {
+    const d = decide(base({ lastDone, followUp: { ...followUp, date: '2027-06-01' } }), rules);
+    expect(d).toMatchObject({ action: 'create', status: 'scheduled', candidate: { dueDate: '2027-06-01', trigger: 'follow_up' } });
   });
 });

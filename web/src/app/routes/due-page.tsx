@@ -9,7 +9,7 @@ import { SelectField } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { StatusShape } from '@/components/ui/status-badge';
 import { useDepots } from '@/features/depots/api/get-depots';
-import { useDueInspections } from '@/features/inspections/api/get-due-inspections';
+import { useDueInspections, type DueSort } from '@/features/inspections/api/get-due-inspections';
 import { DueInspectionsList } from '@/features/inspections/components/due-inspections';
 import { DueMap } from '@/features/inspections/components/due-map';
 import { formatNumber } from '@/lib/format';
@@ -19,7 +19,8 @@ import { pages, vehiclePath } from '../navigation';
 export function DuePage() {
   const [depotId, setDepotId] = useState<number | null>(null);
   const [mode, setMode] = useState<'list' | 'map'>('list');
-  const due = useDueInspections(depotId);
+  const [sort, setSort] = useState<DueSort>('due');
+  const due = useDueInspections(depotId, sort);
   const depots = useDepots();
   const c = due.data?.counts;
 
@@ -53,6 +54,16 @@ export function DuePage() {
           value={depotId === null ? '' : String(depotId)}
           onChange={(e) => setDepotId(e.target.value ? Number(e.target.value) : null)}
           options={[{ value: '', label: 'All depots' }, ...(depots.data?.items ?? []).map((d) => ({ value: String(d.id), label: d.name }))]}
+        />
+        <SelectField
+          label="Order by"
+          className="w-48"
+          value={sort}
+          onChange={(e) => setSort(e.target.value === 'lifeUsed' ? 'lifeUsed' : 'due')}
+          options={[
+            { value: 'due', label: 'Due date' },
+            { value: 'lifeUsed', label: 'Life used' },
+          ]}
         />
         <div className="flex gap-2" role="group" aria-label="View">
           <Button variant={mode === 'list' ? 'primary' : 'secondary'} aria-pressed={mode === 'list'} onClick={() => setMode('list')}>

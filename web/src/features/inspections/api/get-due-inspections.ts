@@ -15,7 +15,7 @@ export interface DueInspection {
   depotLon: number;
   dueDate: string;
   status: OpenInspectionStatus;
-  /** prediction | interval_km | interval_months | manual, null for ones entered before the nightly job. */
+  /** prediction | interval_km | interval_months | manual | follow_up, null for ones entered before the nightly job. */
   trigger: string | null;
   reason: string;
   basis: Record<string, unknown> | null;
@@ -26,25 +26,29 @@ export interface DueInspection {
   firstThresholdDate: string | null;
 }
 
+/** Order of the due list: by due date, or most-worn damper first. */
+export type DueSort = 'due' | 'lifeUsed';
+
 export interface DueInspections {
   items: DueInspection[];
   total: number;
   today: string;
+  sort: DueSort;
   counts: { overdue: number; due: number; next30: number; next90: number; later: number };
   rules: { threshold: number; leadDays: number; intervalKm: number; intervalMonths: number; dueSoonDays: number; horizonDays: number };
 }
 
 export const inspectionKeys = {
   all: ['inspections'] as const,
-  due: (depotId: number | null) => [...inspectionKeys.all, 'due', { depotId }] as const,
+  due: (depotId: number | null, sort: DueSort = 'due') => [...inspectionKeys.all, 'due', { depotId, sort }] as const,
 };
 
-export const dueInspectionsQueryOptions = (depotId: number | null) =>
+export const dueInspectionsQueryOptions = (depotId: number | null, sort: DueSort = 'due') =>
   queryOptions({
-    queryKey: inspectionKeys.due(depotId),
-    queryFn: ({ signal }) => api.get<DueInspections>('/api/inspections/due', { query: { depotId }, signal }),
+    queryKey: inspectionKeys.due(depotId, sort),
+    queryFn: ({ signal }) => api.get<DueInspections>('/api/inspections/due', { query: { depotId, sort }, signal }),
   });
 
-export function useDueInspections(depotId: number | null) {
-  return useQuery(dueInspectionsQueryOptions(depotId));
+export function useDueInspections(depotId: number | null, sort: DueSort = 'due') {
+  return useQuery(dueInspectionsQueryOptions(depotId, sort));
 }

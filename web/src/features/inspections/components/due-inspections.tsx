@@ -9,7 +9,7 @@ import type { DueInspection, DueInspections } from '../api/get-due-inspections';
 
 export const inspectionTones: Record<string, StatusTone> = { overdue: 'overdue', due: 'due', scheduled: 'watch' };
 export const inspectionLabels: Record<string, string> = { overdue: 'Overdue', due: 'Due', scheduled: 'Scheduled' };
-const ruleLabels: Record<string, string> = { prediction: 'Predicted wear', interval_km: 'Interval (km)', interval_months: 'Interval (months)', manual: 'Entered by hand' };
+const ruleLabels: Record<string, string> = { prediction: 'Predicted wear', interval_km: 'Interval (km)', interval_months: 'Interval (months)', manual: 'Entered by hand', follow_up: 'Follow-up' };
 
 function daysText(d: number) {
   if (d < 0) return `${-d} overdue`;
@@ -53,7 +53,7 @@ const groups: { id: string; title: string; description: string; pick: (r: DueIns
   { id: 'due', title: 'Due now', description: 'Due within the next few days.', pick: (r) => r.status === 'due' },
   { id: 'next30', title: 'Next 30 days', description: 'Scheduled, due within 30 days.', pick: (r) => r.status === 'scheduled' && r.daysLeft <= 30 },
   { id: 'next90', title: 'In 31–90 days', description: 'Scheduled further ahead.', pick: (r) => r.status === 'scheduled' && r.daysLeft > 30 && r.daysLeft <= 90 },
-  { id: 'later', title: 'Later', description: 'Entered by hand, more than 90 days ahead.', pick: (r) => r.status === 'scheduled' && r.daysLeft > 90 },
+  { id: 'later', title: 'Later', description: 'More than 90 days ahead: entered by hand, or a follow-up the mechanic set.', pick: (r) => r.status === 'scheduled' && r.daysLeft > 90 },
 ];
 
 /** The due list, grouped: overdue, due, next 30 days, 31–90 days. */
@@ -74,7 +74,12 @@ export function DueInspectionsList({ data, vehiclePath }: { data: DueInspections
         Due dates from predicted wear are estimates from a model of the vehicle and its roads. They support, and never replace, inspection by a
         qualified mechanic, the vehicle and damper makers’ requirements and local regulations.
       </Caution>
-      {groups.map((g) => {
+      {data.sort === 'lifeUsed' ? (
+        <Section title={`All open inspections (${data.items.length})`} description="Most-worn damper first: the highest share of its expected life used on each vehicle.">
+          <SimpleTable label="Open inspections by life used" columns={cols} rows={data.items} getRowKey={(r) => r.id} />
+        </Section>
+      ) : null}
+      {data.sort === 'lifeUsed' ? null : groups.map((g) => {
         const rows = data.items.filter(g.pick);
         if (!rows.length) return null;
         return (

@@ -72,6 +72,8 @@ export interface InspectionDetail {
   notes: string | null;
   resultsAt: string | null;
   completedAt: string | null;
+  /** The day the mechanic asked to check again (a corner given "check again soon"), or null. */
+  followUpOn: string | null;
   predicted: CornerState[];
   results: CornerResult[];
   axleDifferences: { axleIndex: number; differencePoints: number | null; flagged: boolean; limitPoints: number }[];

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { addDays, addYears, format, parseISO } from 'date-fns';
 import { Button } from '@/components/ui/button';
 import { Caution } from '@/components/ui/caution';
 import { Notice } from '@/components/ui/notice';
@@ -6,7 +7,7 @@ import { Section } from '@/components/ui/section';
 import { SimpleTable } from '@/components/ui/simple-table';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { isApiError } from '@/lib/api-client';
-import { formatNumber, isoDate } from '@/lib/format';
+import { formatDate, formatNumber, isoDate } from '@/lib/format';
 import { useRecordResults, type ResultsInput } from '../api/record-results';
 import { useUploadAttachment } from '../api/upload-attachment';
 import { useRecordWork, type WorkInput } from '../api/record-work';
@@ -18,6 +19,10 @@ const inputCls = 'min-h-11 w-full rounded border border-line bg-surface px-3 tex
 
 interface CornerDraft { position: string; axleIndex: number; adhesion: string; findings: string[]; verdict: string }
 interface PartDraft { position: string; damper: boolean; spring: boolean; partDescription: string; partNumber: string; cost: string; removalReason: string }
+
+/** The verdict "keep, check again soon": it asks for a follow-up inspection. */
+const CHECK_AGAIN = 'monitor';
+const dayAfter = (day: string, f: (d: Date) => Date) => format(f(parseISO(day)), 'yyyy-MM-dd');
 
 const num = (s: string) => (s.trim() === '' ? null : Number(s.replace(',', '.')));
 
@@ -36,13 +41,14 @@ function differences(corners: CornerDraft[], limit: number) {
 
 export function InspectionRecord({ inspection, options, today, onWorkSaved }: { inspection: InspectionDetail; options: WorkshopOptions; today: string; onWorkSaved: (id: number) => void }) {
   const open = ['scheduled', 'due', 'overdue'].includes(inspection.status);
-  const results = useDraft<{ corners: CornerDraft[]; odometer: string; notes: string }>(`rb-draft:inspection:${inspection.id}:results`, () => ({
+  const results = useDraft<{ corners: CornerDraft[]; odometer: string; notes: string; followUp?: string }>(`rb-draft:inspection:${inspection.id}:results`, () => ({
     corners: inspection.predicted.map((c) => {
       const r = inspection.results.find((x) => x.position === c.position);
       return { position: c.position, axleIndex: c.axleIndex, adhesion: r?.adhesionPct == null ? '' : String(r.adhesionPct), findings: r?.findings ?? [], verdict: r?.verdict ?? 'ok' };
     }),
     odometer: String(Math.round(inspection.odometerKm ?? inspection.vehicle.odometerKm)),
     notes: inspection.notes ?? '',
+    followUp: inspection.followUpOn ?? '',
   }));
   const work = useDraft<{ parts: PartDraft[]; summary: string; labour: string; odometer: string; date: string; notes: string }>(`rb-draft:inspection:${inspection.id}:work`, () => ({
     parts: inspection.predicted.map((c) => ({ position: c.position, damper: false, spring: false, partDescription: '', partNumber: '', cost: '', removalReason: options.removalReasons[0] })),
@@ -61,11 +67,13 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
   const setPart = (i: number, patch: Partial<PartDraft>) => work.setValue((v) => ({ ...v, parts: v.parts.map((c, k) => (k === i ? { ...c, ...patch } : c)) }));
   const fieldErr = (e: unknown, key: string) => (isApiError(e) ? e.fields[key] : undefined);
 
+  const checkAgain = results.value.corners.some((c) => c.verdict === CHECK_AGAIN);
   const submitResults = (complete: boolean) => {
     const body: ResultsInput = {
       odometerKm: Number(results.value.odometer),
       notes: results.value.notes.trim() || null,
       complete,
+      followUpOn: checkAgain ? results.value.followUp || null : null,
       corners: results.value.corners.map((c) => ({ position: c.position, adhesionPct: num(c.adhesion), findings: c.findings, verdict: c.verdict })),
     };
     save.mutate(body, { onSuccess: () => results.clear() });
@@ -167,6 +175,27 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
                 <textarea className={`${inputCls} min-h-20 py-2`} value={results.value.notes} onChange={(e) => results.setValue((v) => ({ ...v, notes: e.target.value }))} />
               </label>
             </div>
+            {checkAgain ? (
+              <div className="mt-3 max-w-md">
+                <label className="block text-sm font-medium">
+                  Check again by (optional)
+                  <input
+                    type="date"
+                    className={inputCls}
+                    aria-label="Check again by"
+                    value={results.value.followUp ?? ''}
+                    min={dayAfter(today, (d) => addDays(d, 1))}
+                    max={dayAfter(today, (d) => addYears(d, 1))}
+                    onChange={(e) => results.setValue((v) => ({ ...v, followUp: e.target.value }))}
+                  />
+                </label>
+                <p className="text-sm text-slate">
+                  A corner is to be checked again soon: the follow-up inspection is booked for this day (left empty: {formatDate(dayAfter(today, (d) => addDays(d, 30)))}).
+                </p>
+                {fieldErr(save.error, 'followUpOn') ? <p className="text-sm text-overdue">{fieldErr(save.error, 'followUpOn')}</p> : null}
+              </div>
+            ) : null}
+            {inspection.followUpOn ? <p className="mt-2 text-sm">Follow-up set for {formatDate(inspection.followUpOn)}.</p> : null}
             {save.error ? <p role="alert" className="mt-2 text-sm text-overdue">{(save.error as Error).message}</p> : null}
             <div className="mt-3 flex flex-wrap gap-2">
               <Button type="submit" variant="primary" size="lg" busy={save.isPending}>
