@@ -1,5 +1,6 @@
 /**
- * The nightly damper-duty job (issue 5): trips → duty per trip × corner → each damper's wear
+ * The nightly damper-duty job: trips → duty per trip × corner → life models refitted to the
+ * removals → each damper's wear
  * and daily history → predictions → inspection scheduling → e-mail, with a run row and a lock.
  *
  * Idempotent and crash-safe: trips are committed in batches together with their processed

@@ -36,6 +36,9 @@ export class RideReport extends Model<InferAttributes<RideReport>, InferCreation
   declare classBefore: string | null;
   declare estimatedClass: string | null;
   declare estimatedGdN0: number | null;
+  /** The segment's class and Gd(n0) just after the report was blended in (null before 0010). */
+  declare classAfter: CreationOptional<string | null>;
+  declare gdN0After: CreationOptional<number | null>;
   declare observationId: ForeignKey<number> | null;
   declare digestNotifiedAt: Date | null;
   declare createdAt: CreationOptional<Date>;
@@ -82,6 +85,8 @@ export function initDriverModels(sequelize: Sequelize) {
       classBefore: { type: DataTypes.STRING(1), allowNull: true },
       estimatedClass: { type: DataTypes.STRING(1), allowNull: true },
       estimatedGdN0: { type: DataTypes.DOUBLE, allowNull: true, field: 'estimated_gd_n0' },
+      classAfter: { type: DataTypes.STRING(1), allowNull: true },
+      gdN0After: { type: DataTypes.DOUBLE, allowNull: true, field: 'gd_n0_after' },
       digestNotifiedAt: { type: DataTypes.DATE, allowNull: true },
       createdAt: { type: DataTypes.DATE, allowNull: false },
       updatedAt: { type: DataTypes.DATE, allowNull: false },

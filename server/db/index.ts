@@ -11,6 +11,7 @@ import * as m0005 from './migrations/0005-drivers';
 import * as m0006 from './migrations/0006-opening-wear';
 import * as m0007 from './migrations/0007-drop-unused-duty-indexes';
 import * as m0008 from './migrations/0008-damper-life-model';
+import * as m0010 from './migrations/0010-ride-report-class-after';
 import { initNightlyModels } from './nightly-models';
 import { initDriverModels } from './driver-models';
 
@@ -30,6 +31,7 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
   { name: '0006-opening-wear', up: m0006.up, down: m0006.down },
   { name: '0007-drop-unused-duty-indexes', up: m0007.up, down: m0007.down },
   { name: '0008-damper-life-model', up: m0008.up, down: m0008.down },
+  { name: '0010-ride-report-class-after', up: m0010.up, down: m0010.down },
 ];
 
 /**

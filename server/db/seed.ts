@@ -30,6 +30,8 @@ import { lineLengthM, splitLine, type LonLat } from '../roads/geometry';
 import { classifyGd, gdForClass, seededRandom, synthesizeProfile, type IsoClass } from '../physics/iso8608';
 import { gdFromIri, iriFromGd, iriSegments } from '../physics/iri';
 import { formatProfileCsv, storeProfileFile, SURVEY_DIR } from '../roads/profile-store';
+import { currentValue } from '../roads/current-roughness';
+import { DEMO_LIFE_LAWS, ROUGH_FROM_CLASS, simulateAxleHistory, type DemoDamperSpan } from './demo-history';
 
 /** Sample interval of the demo survey profiles [m] (ASTM E1926's 250 mm). */
 const DEMO_SURVEY_DX_M = 0.25;
@@ -69,6 +71,21 @@ interface SpecSeed {
   count: number;
   prefix: string;
   payloadKg: [number, number];
+  /** Gross vehicle mass of its class [kg]: unladen + driver + payload stays within it. */
+  grossKg: number;
+  /** Age range at "today" [days since commissioning]. */
+  ageDays: [number, number];
+  /** Range of the vehicles' distances per working day [km]. */
+  workingDayKm: [number, number];
+}
+
+/** Mass of a driver allowed for when capping the payload [kg] (assumption). */
+const DRIVER_KG = 75;
+
+/** The largest payload that keeps a vehicle of a spec within its gross mass [kg]: gross − unladen − driver. */
+export function maxPayloadKg(spec: Pick<SpecSeed, 'axles' | 'grossKg'>): number {
+  const unladen = spec.axles.reduce((a, x) => a + 2 * (x.sprungMassKg + x.unsprungMassKg), 0);
+  return spec.grossKg - unladen - DRIVER_KG;
 }
 
 const SPECS: SpecSeed[] = [
@@ -83,6 +100,9 @@ const SPECS: SpecSeed[] = [
     count: 18,
     prefix: 'CV',
     payloadKg: [80, 750],
+    grossKg: 2800,
+    ageDays: [400, 1500],
+    workingDayKm: [80, 140],
   },
   {
     name: 'Long-body van 3.5 t',
@@ -95,6 +115,9 @@ const SPECS: SpecSeed[] = [
     count: 16,
     prefix: 'LV',
     payloadKg: [150, 1250],
+    grossKg: 3500,
+    ageDays: [400, 1500],
+    workingDayKm: [80, 140],
   },
   {
     name: 'Rigid truck 18 t',
@@ -107,6 +130,9 @@ const SPECS: SpecSeed[] = [
     count: 10,
     prefix: 'RT',
     payloadKg: [1500, 8000],
+    grossKg: 18000,
+    ageDays: [400, 1200],
+    workingDayKm: [140, 220],
   },
 ];
 
@@ -221,7 +247,7 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
     }
 
     // Routes, segments and roughness
-    const routeRows: { route: Route; depotIdx: number; speedKmh: number }[] = [];
+    const routeRows: { route: Route; depotIdx: number; speedKmh: number; roughShare: number }[] = [];
     for (const r of ROUTES) {
       const depot = DEPOTS[r.depot];
       const line = routeLine(rand, [depot.lon, depot.lat], r.heading, r.lengthKm);
@@ -238,7 +264,8 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
         },
         opts,
       );
-      routeRows.push({ route, depotIdx: r.depot, speedKmh: r.speedKmh });
+      const routeRow = { route, depotIdx: r.depot, speedKmh: r.speedKmh, roughShare: 0 };
+      routeRows.push(routeRow);
       const segs = splitLine(line, 100);
       const baseIdx = CLASSES.indexOf(r.base);
       const roughIdx = CLASSES.indexOf(r.rough);
@@ -310,52 +337,53 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
         );
         surveyId = survey.id;
       }
+      // each segment's observations: its own, and an older stated class under surveyed and
+      // reported segments so history shows
+      const history = segRows.map((s) => {
+        const own = {
+          iri: s.roughnessSource === 'survey' ? s.iri : null,
+          gdN0: s.gdN0,
+          isoClass: s.isoClass,
+          source: s.roughnessSource,
+          observedOn: s.roughnessDate,
+          surveyId: s.roughnessSource === 'survey' ? surveyId : null,
+          note:
+            s.roughnessSource === 'survey'
+              ? 'Profile survey (demo)'
+              : s.roughnessSource === 'driver_report'
+                ? 'Accepted from drivers’ reports (demo)'
+                : 'Class stated from the highway authority’s condition map (demo)',
+        };
+        const older = { iri: null, gdN0: gdForClass(r.base), isoClass: r.base, source: 'stated' as const, observedOn: statedDate, surveyId: null, note: 'Class stated from the highway authority’s condition map (demo)' };
+        return s.roughnessSource === 'stated' ? [own] : [older, own];
+      });
+      // the stored current value follows the current-value rule over them (drivers' reports
+      // blended in at half a survey's weight), as the app keeps it
+      for (const [i, s] of segRows.entries()) {
+        const cur = currentValue(history[i].map((o, k) => ({ ...o, id: k + 1 })), classifyGd, iriFromGd)!;
+        Object.assign(s, { gdN0: cur.gdN0, iri: cur.iri, isoClass: cur.isoClass, roughnessSource: cur.source, roughnessDate: cur.observedOn });
+      }
+      // share of the route's length on class C or rougher (the demo's removal law reads it)
+      routeRow.roughShare = segRows.reduce((a, x) => a + (CLASSES.indexOf(x.isoClass as IsoClass) >= CLASSES.indexOf(ROUGH_FROM_CLASS) ? x.endM - x.startM : 0), 0) / lengthM;
       const created = await RouteSegment.bulkCreate(
         segRows.map((s) => ({ ...s, surveyId: s.roughnessSource === 'survey' ? surveyId : null })),
         { ...opts, returning: true },
       );
-      const obs = created.map((seg, i) => ({
-        segmentId: seg.id,
-        iri: segRows[i].roughnessSource === 'survey' ? segRows[i].iri : null,
-        gdN0: segRows[i].gdN0,
-        isoClass: segRows[i].isoClass,
-        source: segRows[i].roughnessSource,
-        observedOn: segRows[i].roughnessDate,
-        recordedById: null,
-        surveyId: segRows[i].roughnessSource === 'survey' ? surveyId : null,
-        note:
-          segRows[i].roughnessSource === 'survey'
-            ? 'Profile survey (demo)'
-            : segRows[i].roughnessSource === 'driver_report'
-              ? 'Accepted from drivers’ reports (demo)'
-              : 'Class stated from the highway authority’s condition map (demo)',
-      }));
-      // older stated class under surveyed and reported segments, so history shows
-      const older = created
-        .filter((_, i) => segRows[i].roughnessSource !== 'stated')
-        .map((seg) => ({
-          segmentId: seg.id,
-          iri: null,
-          gdN0: gdForClass(r.base),
-          isoClass: r.base,
-          source: 'stated' as const,
-          observedOn: statedDate,
-          recordedById: null,
-          note: 'Class stated from the highway authority’s condition map (demo)',
-        }));
-      await RoughnessObservation.bulkCreate([...older, ...obs], opts);
+      await RoughnessObservation.bulkCreate(
+        created.flatMap((seg, i) => history[i].map((o) => ({ ...o, segmentId: seg.id, recordedById: null }))),
+        opts,
+      );
     }
 
-    // Vehicles, dampers, trips
+    // Vehicles. Each has a daily distance of its own (km per working day); its odometer before
+    // the trips on record grew at the rate its trips on record show.
     let vehicleNo = 0;
-    const vehicles: { v: Vehicle; spec: SpecSeed; depotIdx: number }[] = [];
+    const vehicles: { v: Vehicle; spec: SpecSeed; depotIdx: number; workingDayKm: number }[] = [];
     for (const { row, seed } of specs) {
       for (let i = 0; i < seed.count; i++) {
         const depotIdx = vehicleNo % 2;
-        const commissioned = subDays(today, 400 + Math.floor(rand() * 1100));
-        const ageDays = Math.round((today.getTime() - commissioned.getTime()) / 86_400_000);
-        const kmPerDay = 45 + rand() * 55;
-        const startOdo = Math.round((ageDays - 60) * kmPerDay);
+        const commissioned = subDays(today, seed.ageDays[0] + Math.floor(rand() * (seed.ageDays[1] - seed.ageDays[0])));
+        const workingDayKm = seed.workingDayKm[0] + rand() * (seed.workingDayKm[1] - seed.workingDayKm[0]);
         const v = await Vehicle.create(
           {
             fleetNumber: `${seed.prefix}-${String(101 + i)}`,
@@ -363,25 +391,31 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
             specId: row.id,
             depotId: depots[depotIdx].id,
             driverId: vehicleNo < drivers.length ? drivers[vehicleNo].id : null,
-            odometerKm: startOdo,
+            odometerKm: 0, // set below, from the trips
             status: vehicleNo === 7 ? 'workshop' : vehicleNo === 40 ? 'retired' : 'in_service',
             commissionedAt: day(commissioned),
           },
           opts,
         );
-        vehicles.push({ v, spec: seed, depotIdx });
+        vehicles.push({ v, spec: seed, depotIdx, workingDayKm });
         vehicleNo++;
       }
     }
 
+    // Trips: one a working day per vehicle, a day's work on one route — the loop driven as many
+    // times as the vehicle's daily distance needs. Payload within the vehicle's gross mass.
     const tripRows: CreationAttributes<Trip>[] = [];
     const kmByVehicle = new Map<number, number>();
-    for (const [vi, { v, spec, depotIdx }] of vehicles.entries()) {
+    const roughKmByVehicle = new Map<number, number>();
+    for (const [vi, { v, spec, depotIdx, workingDayKm }] of vehicles.entries()) {
       if (v.status === 'retired') continue;
       const myRoutes = routeRows.filter((r) => r.depotIdx === depotIdx && (spec.prefix === 'RT' ? true : !r.route.name.includes('aggregates')));
       const favourite = myRoutes[vi % myRoutes.length];
       const afternoonDriver = v.driverId ? null : drivers[(vi - drivers.length) * 2 % drivers.length];
+      const [pmin, pmax] = spec.payloadKg;
+      const payloadCap = Math.min(pmax, maxPayloadKg(spec));
       let km = 0;
+      let roughKm = 0;
       for (let d = 60; d >= 1; d--) {
         const date = subDays(today, d);
         const dow = date.getUTCDay();
@@ -390,12 +424,13 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
         if (rand() < 0.08) continue; // days off, holidays
         const r = rand() < 0.7 ? favourite : myRoutes[Math.floor(rand() * myRoutes.length)];
         const speed = Math.round(r.speedKmh * (0.85 + rand() * 0.25) * 10) / 10;
-        const distanceKm = Math.round((r.route.lengthM / 1000) * 10) / 10;
+        const loopKm = r.route.lengthM / 1000;
+        const rounds = Math.max(1, Math.round((workingDayKm * (0.85 + rand() * 0.3)) / loopKm));
+        const distanceKm = Math.round(loopKm * rounds * 10) / 10;
         const hours = distanceKm / speed;
-        const startMin = afternoonDriver ? 13 * 60 + 30 + Math.floor(rand() * 60) : 6 * 60 + 30 + Math.floor(rand() * 90);
+        const startMin = afternoonDriver ? 12 * 60 + 30 + Math.floor(rand() * 60) : 6 * 60 + Math.floor(rand() * 90);
         const startedAt = new Date(date.getTime() + startMin * 60_000);
         const endedAt = new Date(startedAt.getTime() + hours * 3_600_000);
-        const [pmin, pmax] = spec.payloadKg;
         tripRows.push({
           vehicleId: v.id,
           routeId: r.route.id,
@@ -404,116 +439,142 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
           endedAt,
           distanceKm,
           meanSpeedKmh: speed,
-          payloadKg: Math.round(pmin + rand() * (pmax - pmin)),
+          payloadKg: Math.round(pmin + rand() * (payloadCap - pmin)),
         });
         km += distanceKm;
+        roughKm += distanceKm * r.roughShare;
       }
       kmByVehicle.set(v.id, km);
+      roughKmByVehicle.set(v.id, roughKm);
     }
     await Trip.bulkCreate(tripRows, opts);
 
-    // Dampers with a little history: some corners were replaced, with the old unit's reason.
-    const reasons = ['leaking', 'low adhesion on test lane', 'worn: fading', 'mount damage', 'leaking'];
-    const mechanicId = (await User.findOne({ where: { email: 'mechanic@reboundry.test' }, ...opts }))!.id;
-    // The odometer at a past moment: during the 60 days of trips on record, now less the trips
-    // since; before them, at the vehicle's earlier daily distance back from the first day on record.
+    // Odometers and damper histories (docs/methods.md, "Demo fleet").
+    const mechanicOf = [
+      (await User.findOne({ where: { email: 'mechanic@reboundry.test' }, ...opts }))!.id,
+      (await User.findOne({ where: { email: 'mechanic.millbrook@reboundry.test' }, ...opts }))!.id,
+    ];
     const recordsStart = subDays(today, 60);
+    const DAY_MS = 86_400_000;
     const tripsOf = new Map<number, { at: number; km: number }[]>();
     for (const t of tripRows) {
       if (!tripsOf.has(t.vehicleId)) tripsOf.set(t.vehicleId, []);
       tripsOf.get(t.vehicleId)!.push({ at: (t.startedAt as Date).getTime(), km: t.distanceKm });
     }
-    for (const [vi, { v, spec }] of vehicles.entries()) {
-      const startOdo = v.odometerKm;
-      const odoNow = startOdo + (kmByVehicle.get(v.id) ?? 0);
-      await v.update({ odometerKm: Math.round(odoNow) }, opts);
-      const daysBeforeRecords = Math.max(1, (recordsStart.getTime() - new Date(v.commissionedAt!).getTime()) / 86_400_000);
-      const kmPerDay = startOdo / daysBeforeRecords;
-      const odoAt = (when: Date) => {
-        if (when >= recordsStart) return Math.round(odoNow - (tripsOf.get(v.id) ?? []).reduce((sum, t) => sum + (t.at >= when.getTime() ? t.km : 0), 0));
-        return Math.max(0, Math.round(startOdo - (kmPerDay * (recordsStart.getTime() - when.getTime())) / 86_400_000));
+    for (const [vi, { v, spec, depotIdx, workingDayKm }] of vehicles.entries()) {
+      const trips = (tripsOf.get(v.id) ?? []).sort((a, b) => a.at - b.at);
+      const recordedKm = kmByVehicle.get(v.id) ?? 0;
+      const commissioned = new Date(`${v.commissionedAt!}T00:00:00Z`).getTime();
+      const retired = v.status === 'retired';
+      // km per calendar day: the rate of its trips on record; a retired vehicle, its working-day
+      // distance over the working days of the records (5 in 7, less 8 % days off)
+      const kmPerDay = retired ? (workingDayKm * 5 * 0.92) / 7 : recordedKm / 60;
+      const retiredOn = retired ? subDays(recordsStart, 45).getTime() : null;
+      const lastDay = retiredOn ?? recordsStart.getTime();
+      const startOdo = Math.round((kmPerDay * Math.max(0, lastDay - commissioned)) / DAY_MS);
+      const odoNow = Math.round(startOdo + recordedKm);
+      await v.update({ odometerKm: odoNow }, opts);
+      /** Odometer at the start of a day: before the records at the steady rate, in them from the trips. */
+      const odoAt = (when: number) => {
+        if (when <= commissioned) return 0;
+        if (when >= recordsStart.getTime() && !retired) return Math.round(odoNow - trips.reduce((sum, t) => sum + (t.at >= when ? t.km : 0), 0));
+        return Math.min(startOdo, Math.round((kmPerDay * (when - commissioned)) / DAY_MS));
       };
-      const positions = spec.axles.map((a, axleIndex) => [
-        { position: axleIndex === 0 ? 'FL' : 'RL', axleIndex },
-        { position: axleIndex === 0 ? 'FR' : 'RR', axleIndex },
-      ]).flat();
-      const replaced = vi % 4 === 1; // a quarter of the fleet had one axle redone
-      let work: WorkRecord | null = null;
-      const replacedAxle = vi % 3 === 0 ? 0 : 1;
-      const replacedOn = subDays(today, 30 + (vi * 37) % 300);
-      const replacedOdo = odoAt(replacedOn);
-      if (replaced) {
-        const insp = await Inspection.create(
-          {
-            vehicleId: v.id,
-            dueDate: day(subDays(replacedOn, 2)),
-            status: 'done',
-            reason: `Driver reported a knock from the ${replacedAxle === 0 ? 'front' : 'rear'} axle; booked for the test lane.`,
-            trigger: 'manual',
-            assigneeId: mechanicId,
-            completedAt: replacedOn,
-            odometerKm: replacedOdo,
-            notes: `${replacedAxle === 0 ? 'Front' : 'Rear'} axle dampers below 40 % adhesion; replaced as a pair.`,
-          },
-          opts,
-        );
-        work = await WorkRecord.create(
-          {
-            vehicleId: v.id,
-            inspectionId: insp.id,
-            mechanicId,
-            performedAt: replacedOn,
-            odometerKm: replacedOdo,
-            summary: `Replaced ${spec.axles[replacedAxle].label} dampers (pair).`,
-            partsCost: spec.prefix === 'RT' ? 412 : 186,
-            labourHours: spec.prefix === 'RT' ? 2.5 : 1.2,
-          },
-          opts,
-        );
-      }
-      const commissioned = v.commissionedAt!;
-      // The dampers not replaced in the records were fitted before the trips on record begin:
-      // 3 000–9 000 km ago (a fleet on rough roads that renews dampers), never before commissioning. The
-      // nightly job estimates what they used before the records (opening wear).
-      const fittedKmAgo = 3000 + rand() * 6000;
-      const fittedDaysAgo = Math.max(65, Math.round(fittedKmAgo / kmPerDay));
-      const sinceCommissioned = Math.round((today.getTime() - new Date(commissioned).getTime()) / 86_400_000);
-      const fitted =
-        fittedDaysAgo >= sinceCommissioned
-          ? { on: commissioned, odometerKm: 0, partNumber: (axle: number) => `${spec.prefix}-D${axle}-OE` }
-          : { on: day(subDays(today, fittedDaysAgo)), odometerKm: odoAt(subDays(today, fittedDaysAgo)), partNumber: (axle: number) => `${spec.prefix}-D${axle}-AM1` };
-      for (const p of positions) {
-        if (replaced && p.axleIndex === replacedAxle) {
-          await Damper.create(
+      /** The first day starting at or past an odometer reading (removals are done that day). */
+      const dayAtKm = (km: number): number => {
+        if (km <= 0) return commissioned;
+        if (km <= startOdo) return Math.min(commissioned + Math.ceil(km / kmPerDay) * DAY_MS, lastDay - DAY_MS);
+        let odo = startOdo;
+        for (const t of trips) {
+          odo += t.km;
+          if (odo >= km) return startOfDay(new Date(t.at + DAY_MS)).getTime();
+        }
+        return today.getTime();
+      };
+      // its route mix: the share of its km on class C or rougher (the retired vehicle, with no
+      // trips on record, is given a quarter)
+      const roughShare = retired ? 0.25 : recordedKm > 0 ? roughKmByVehicle.get(v.id)! / recordedKm : 0;
+      const law = DEMO_LIFE_LAWS[spec.prefix];
+      const mechanicId = mechanicOf[depotIdx];
+      let doneInspectionAt = 0;
+      for (const [axleIndex, axle] of spec.axles.entries()) {
+        const positions: [string, string] = axleIndex === 0 ? ['FL', 'FR'] : ['RL', 'RR'];
+        const { spans, visits } = simulateAxleHistory(rand, law, roughShare, odoNow, positions);
+        // one work record (and, for wear, the inspection that found it) per workshop visit
+        const records: number[] = [];
+        for (const visit of visits) {
+          const when = new Date(dayAtKm(visit.km) + 10 * 3_600_000);
+          const odo = odoAt(startOfDay(when).getTime());
+          const removed = spans.filter((x) => x.visit === records.length);
+          const causeReason = removed.find((x) => x.position === visit.cause)?.reason ?? '';
+          const where = `${axle.label} ${visit.cause ?? ''}`.trim();
+          let inspectionId: number | null = null;
+          if (visit.kind === 'wear') {
+            const reason =
+              causeReason === 'worn: low adhesion'
+                ? `Interval check on the test lane (${where}).`
+                : causeReason === 'leaking'
+                  ? `Driver reported oil on the ${where} damper.`
+                  : `Driver reported a knock from the ${axle.label} axle.`;
+            const insp = await Inspection.create(
+              { vehicleId: v.id, dueDate: day(subDays(when, 2)), status: 'done', reason, trigger: 'manual', assigneeId: mechanicId, completedAt: when, odometerKm: odo, notes: `${where} damper ${causeReason}; replaced${removed.length > 1 ? ' as a pair' : ''}.` },
+              opts,
+            );
+            inspectionId = insp.id;
+            doneInspectionAt = Math.max(doneInspectionAt, when.getTime());
+          }
+          const summary =
+            visit.kind === 'other_work'
+              ? `${axle.label[0].toUpperCase()}${axle.label.slice(1)} springs and bushes renewed; dampers renewed with them.`
+              : `Replaced ${removed.length > 1 ? `${axle.label} dampers (pair)` : `${where} damper`}${visit.kind === 'accident' ? ' after accident damage' : ''}.`;
+          const wr = await WorkRecord.create(
+            { vehicleId: v.id, inspectionId, mechanicId, performedAt: when, odometerKm: odo, summary, partsCost: (spec.prefix === 'RT' ? 206 : 93) * removed.length, labourHours: (spec.prefix === 'RT' ? 1.3 : 0.6) * removed.length },
+            opts,
+          );
+          records.push(wr.id);
+        }
+        // the dampers, in the order they were fitted on each corner
+        let aftermarket = 0;
+        const idOf = new Map<DemoDamperSpan, { id: number; partNumber: string | null }>();
+        for (const x of spans) {
+          const fittedOn = dayAtKm(x.fittedKm);
+          const removedOn = x.removedKm !== null ? dayAtKm(x.removedKm) : retired ? retiredOn : null;
+          const d = await Damper.create(
             {
               vehicleId: v.id,
-              position: p.position,
-              axleIndex: p.axleIndex,
-              partNumber: `${spec.prefix}-D${p.axleIndex}-OE`,
-              installedAt: commissioned,
-              installedOdometerKm: 0,
-              removedAt: day(replacedOn),
-              removedOdometerKm: replacedOdo,
-              removalReason: reasons[vi % reasons.length],
-              removedByWorkRecordId: work!.id,
+              position: x.position,
+              axleIndex,
+              partNumber: x.fittedKm === 0 ? `${spec.prefix}-D${axleIndex}-OE` : `${spec.prefix}-D${axleIndex}-AM${++aftermarket}`,
+              installedAt: day(new Date(fittedOn)),
+              installedOdometerKm: x.fittedKm === 0 ? 0 : odoAt(fittedOn),
+              removedAt: removedOn !== null ? day(new Date(removedOn)) : null,
+              removedOdometerKm: removedOn !== null ? odoAt(removedOn) : null,
+              removalReason: x.reason ?? (retired ? 'vehicle retired' : null),
+              removedByWorkRecordId: x.visit !== null ? records[x.visit] : null,
             },
             opts,
           );
-          await Damper.create(
-            { vehicleId: v.id, position: p.position, axleIndex: p.axleIndex, partNumber: `${spec.prefix}-D${p.axleIndex}-AM2`, installedAt: day(replacedOn), installedOdometerKm: replacedOdo, removedByWorkRecordId: null },
-            opts,
-          );
-        } else {
-          await Damper.create(
-            { vehicleId: v.id, position: p.position, axleIndex: p.axleIndex, partNumber: fitted.partNumber(p.axleIndex), installedAt: fitted.on, installedOdometerKm: fitted.odometerKm, removedByWorkRecordId: null },
-            opts,
+          idOf.set(x, { id: d.id, partNumber: d.partNumber ?? null });
+        }
+        const items = [];
+        for (const x of spans) {
+          if (x.visit === null) continue;
+          const successor = spans.find((y) => y.position === x.position && y.fittedKm === x.removedKm);
+          const next = successor ? idOf.get(successor)! : null;
+          items.push([records[x.visit], x.position, axleIndex, 'damper', `${axle.label} damper`, next?.partNumber ?? null, spec.prefix === 'RT' ? 206 : 93, x.reason, idOf.get(x)!.id, next?.id ?? null]);
+        }
+        if (items.length) {
+          const stamp = now.toISOString();
+          await db.sequelize.query(
+            `INSERT INTO work_record_items (work_record_id, position, axle_index, component, part_description, part_number, cost, removal_reason, removed_damper_id, installed_damper_id, created_at, updated_at)
+             VALUES ${items.map(() => '(?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)').join(', ')}`,
+            { replacements: items.flatMap((it) => [...it, stamp, stamp]), transaction },
           );
         }
       }
-      if (!replaced && v.status !== 'retired') {
+      if (!retired && today.getTime() - doneInspectionAt > 320 * DAY_MS) {
         // an ordinary check some time in the last year, so the interval rule is spread out
-        const ago = 25 + ((vi * 53) % 320);
-        const doneOn = subDays(today, ago);
+        const doneOn = subDays(today, 25 + ((vi * 53) % 320));
         await Inspection.create(
           {
             vehicleId: v.id,
@@ -523,13 +584,13 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
             trigger: 'interval_months',
             assigneeId: mechanicId,
             completedAt: doneOn,
-            odometerKm: odoAt(doneOn),
+            odometerKm: odoAt(startOfDay(doneOn).getTime()),
             notes: 'All corners within limits on the test lane.',
           },
           opts,
         );
       }
-      if (vi % 9 === 2) {
+      if (vi % 9 === 2 && !retired) {
         await Inspection.create(
           {
             vehicleId: v.id,

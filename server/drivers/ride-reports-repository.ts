@@ -45,6 +45,8 @@ const row = (r: Joined) => ({
   classBefore: r.classBefore,
   estimatedClass: r.estimatedClass,
   estimatedGdN0: r.estimatedGdN0,
+  classAfter: r.classAfter ?? null,
+  gdN0After: r.gdN0After ?? null,
   observationId: r.observationId ?? null,
 });
 export type RideReportRow = ReturnType<typeof row>;
@@ -155,7 +157,7 @@ export const rideReportsRepository = {
     });
   },
 
-  async decide(id: number, patch: Partial<{ status: RideReportStatus; decidedById: number; decidedAt: Date; dismissReason: string | null; classBefore: string | null; estimatedClass: string | null; estimatedGdN0: number | null; observationId: number | null }>, t: Transaction) {
+  async decide(id: number, patch: Partial<{ status: RideReportStatus; decidedById: number; decidedAt: Date; dismissReason: string | null; classBefore: string | null; estimatedClass: string | null; estimatedGdN0: number | null; classAfter: string | null; gdN0After: number | null; observationId: number | null }>, t: Transaction) {
     const [n] = await RideReport.update(patch, { where: { id, status: 'new' }, transaction: t });
     return n;
   },

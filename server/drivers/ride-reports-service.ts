@@ -126,7 +126,7 @@ export const rideReportsService = {
         t,
       );
       const after = (await rideReportsRepository.segmentInfo(r.segmentId, t))!;
-      await rideReportsRepository.decide(id, { status: 'accepted', decidedById: user.id, decidedAt: now, classBefore: before.isoClass, estimatedClass: est.isoClass, estimatedGdN0: est.gdN0, observationId }, t);
+      await rideReportsRepository.decide(id, { status: 'accepted', decidedById: user.id, decidedAt: now, classBefore: before.isoClass, estimatedClass: est.isoClass, estimatedGdN0: est.gdN0, classAfter: after.isoClass, gdN0After: after.gdN0, observationId }, t);
       await queueDriverNote(r, 'accepted', null, before.isoClass, after.isoClass, ctx, t);
       return { before, after };
     });

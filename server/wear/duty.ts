@@ -17,6 +17,10 @@
  *   segment's Gd(n0) (derived from its measured IRI): carrying the 8-state Wk filter through
  *   every simulated step would triple the cost of the run.
  *
+ * - Damper duty measure (docs/methods.md, "Damper duty measure"): per segment, the rod sliding
+ *   distance √(2/π)·σ_rel·t weighted by the heat factor, summed into the trip's severity against
+ *   the unladen corner on class B at 80 km/h (life-law.ts); unrated stretches count severity 1.
+ *
  * Rules and assumptions (stated, not published):
  * - Payload sharing: the front axle carries {@link FRONT_AXLE_PAYLOAD_SHARE} of the trip's
  *   payload and the other axles share the rest equally (the load space of a van or rigid truck
@@ -40,6 +44,7 @@ import { jsonRows } from '../db/json-rows';
 import { ISO8608_N0, gdForClass } from '../physics/iso8608';
 import { STANDARD_GRAVITY, type CornerParams } from '../physics/types';
 import { heatFactor, severityReference, slidingM } from './life-law';
+import { segmentsOnDay, type DatedRoute } from './roughness-as-of';
 
 /** Share of the payload on the front axle of a multi-axle spec (assumption, see module doc). */
 export const FRONT_AXLE_PAYLOAD_SHARE = 0.3;
@@ -385,7 +390,7 @@ export function damperOn(dampers: DamperSpan[], position: Position, day: string)
  * @param routes the routes driven, by id
  * @param cache the run's cache
  */
-export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteInput>, cache: DutyCache): VehicleDutyResult {
+export function computeVehicleDuty(work: VehicleWork, routes: Map<number, DatedRoute>, cache: DutyCache): VehicleDutyResult {
   const duties: DutyRecord[] = [];
   const wear = new Map<number, WearDelta>();
   const errors: { tripId: number; message: string }[] = [];
@@ -395,6 +400,8 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
     try {
       const route = routes.get(trip.routeId);
       if (!route) throw new Error(`route ${trip.routeId} is not loaded`);
+      // the segments as they stood on the trip's day (roughness-as-of.ts)
+      const segments = segmentsOnDay(route, trip.tripDate);
       if (!(trip.meanSpeedKmh > 0)) throw new Error(`mean speed ${trip.meanSpeedKmh} km/h is not positive`);
       const scale = route.lengthM > 0 ? (trip.distanceKm * 1000) / route.lengthM : 1;
       const records: DutyRecord[] = [];
@@ -410,7 +417,7 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
         // consecutive segments mostly share a speed band: look the cache up only when it changes
         let lastV = Number.NaN;
         let p: Prepared | null = null;
-        for (const seg of route.segments) {
+        for (const seg of segments) {
           const lengthKm = ((seg.endM - seg.startM) / 1000) * scale;
           if (!(lengthKm > 0)) continue;
           const v = speedBand(seg.speedKmh ?? trip.meanSpeedKmh);
@@ -486,7 +493,7 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
             springDamage: spring,
             slidingM: sliding,
             severity,
-            segments: route.segments.length,
+            segments: segments.length,
             profiledSegments: profiled,
             unratedSegments: unrated,
           });
@@ -495,7 +502,7 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, RouteI
       for (const r of records) {
         if (![r.energyJ, r.springDamage, r.rmsWeightedAccel, r.severity].every(Number.isFinite)) throw new Error(`non-finite duty on ${r.position}`);
       }
-      segmentCount += route.segments.length;
+      segmentCount += segments.length;
       for (const r of records) {
         duties.push(r);
         if (r.damperId === null) continue;

@@ -6,7 +6,10 @@
 import type { Sequelize, Transaction } from 'sequelize';
 import { JSON_ROWS, fromJsonRows, inList, insertPackedRows, insertRows, jsonRows, runSql, selectRows } from '../db/raw';
 import type { CornerParams } from '../physics/types';
-import { TRIP_DUTY_COLUMNS, type AxleInput, type DamperSpan, type RouteInput, type SegmentInput, type TripInput, type WearDelta } from './duty';
+import { TRIP_DUTY_COLUMNS, type AxleInput, type DamperSpan, type TripInput, type WearDelta } from './duty';
+import { allSegments, routeVersions, type DatedRoute, type SegmentBase } from './roughness-as-of';
+import type { ObservationValue } from '../roads/current-roughness';
+import type { RoughnessSource } from '../db/models';
 import { estimatedDamping, type Prediction, type WearDayRow, type WearSummary } from './wear';
 
 /** Sequelize's SQLite text form of a date (`2026-11-30 12:00:00.000 +00:00`). */
@@ -107,24 +110,55 @@ export function wearRepository(sequelize: Sequelize) {
       return out;
     },
 
-    /** Routes (with segments, in order) driven by unprocessed trips before `before`. */
-    async routesForUnprocessed(before: Date): Promise<{ routes: Map<number, RouteInput>; surveyIds: number[] }> {
+    /**
+     * Routes driven by unprocessed trips before `before`, with their segments in order as they
+     * stood on each day those trips were driven (roughness-as-of.ts: the observation in force on
+     * the trip's day, not the current value), and the surveys whose profiles those versions use.
+     * Each segment's observation history is read once per run.
+     */
+    async routesForUnprocessed(before: Date): Promise<{ routes: Map<number, DatedRoute>; surveyIds: number[] }> {
       const routeRows = await q<{ id: number; length_m: number }>(
         `SELECT id, length_m FROM routes WHERE id IN (SELECT DISTINCT route_id FROM trips WHERE processed_at IS NULL AND started_at < ?)`,
         [sqlDate(before)],
       );
-      const routes = new Map<number, RouteInput>();
-      for (const r of routeRows) routes.set(r.id, { id: r.id, lengthM: r.length_m, segments: [] });
-      if (!routes.size) return { routes, surveyIds: [] };
-      const segs = await q<{ id: number; route_id: number; start_m: number; end_m: number; speed_kmh: number | null; gd_n0: number | null; survey_id: number | null; roughness_source: string | null }>(
-        `SELECT id, route_id, start_m, end_m, speed_kmh, gd_n0, survey_id, roughness_source FROM route_segments WHERE route_id IN (${inList([...routes.keys()])}) ORDER BY route_id, seq`,
+      const routes = new Map<number, DatedRoute>();
+      if (!routeRows.length) return { routes, surveyIds: [] };
+      const ids = inList(routeRows.map((r) => r.id));
+      const [span] = await q<{ first: string; last: string }>(
+        `SELECT MIN(started_at) AS first, MAX(started_at) AS last FROM trips WHERE processed_at IS NULL AND started_at < ?`,
+        [sqlDate(before)],
       );
-      const surveyIds = new Set<number>();
+      // a day either side of the UTC dates covers the trips' local days in any time zone
+      const utcDay = (s: string, days: number) => new Date(new Date(s).getTime() + days * 86_400_000).toISOString().slice(0, 10);
+      const fromDay = utcDay(span.first, -1);
+      const toDay = utcDay(span.last, 1);
+      const [segs, obs] = await Promise.all([
+        q<{ id: number; route_id: number; start_m: number; end_m: number; speed_kmh: number | null; gd_n0: number | null; survey_id: number | null; roughness_source: string | null }>(
+          `SELECT id, route_id, start_m, end_m, speed_kmh, gd_n0, survey_id, roughness_source FROM route_segments WHERE route_id IN (${ids}) ORDER BY route_id, seq`,
+        ),
+        q<{ id: number; segment_id: number; source: RoughnessSource; observed_on: string; gd_n0: number | null; iri: number | null; iso_class: string | null; survey_id: number | null }>(
+          `SELECT o.id, o.segment_id, o.source, o.observed_on, o.gd_n0, o.iri, o.iso_class, o.survey_id FROM roughness_observations o
+           JOIN route_segments s ON s.id = o.segment_id WHERE s.route_id IN (${ids})`,
+        ),
+      ]);
+      const history = new Map<number, ObservationValue[]>();
+      for (const o of obs) {
+        let h = history.get(o.segment_id);
+        if (!h) history.set(o.segment_id, (h = []));
+        h.push({ id: o.id, source: o.source, observedOn: String(o.observed_on).slice(0, 10), gdN0: o.gd_n0, iri: o.iri, isoClass: o.iso_class, surveyId: o.survey_id });
+      }
+      const byRoute = new Map<number, SegmentBase[]>();
       for (const s of segs) {
-        const surveyId = s.roughness_source === 'survey' ? s.survey_id : null;
-        if (surveyId) surveyIds.add(surveyId);
-        const seg: SegmentInput & { surveyId?: number | null } = { id: s.id, startM: s.start_m, endM: s.end_m, speedKmh: s.speed_kmh, gdN0: s.gd_n0, profile: null, surveyId };
-        routes.get(s.route_id)!.segments.push(seg);
+        let list = byRoute.get(s.route_id);
+        if (!list) byRoute.set(s.route_id, (list = []));
+        list.push({ id: s.id, startM: s.start_m, endM: s.end_m, speedKmh: s.speed_kmh, gdN0: s.gd_n0, surveyId: s.roughness_source === 'survey' ? s.survey_id : null });
+      }
+      const surveyIds = new Set<number>();
+      for (const r of routeRows) {
+        const v = routeVersions(byRoute.get(r.id) ?? [], history, fromDay, toDay);
+        const route: DatedRoute = { id: r.id, lengthM: r.length_m, segments: v.segments, ...(v.later.length ? { later: v.later } : {}) };
+        for (const s of allSegments(route)) if (s.surveyId) surveyIds.add(s.surveyId);
+        routes.set(r.id, route);
       }
       return { routes, surveyIds: [...surveyIds].sort((a, b) => a - b) };
     },

@@ -5,7 +5,8 @@
  * split or interrupted), then every fitted damper's prediction as of the run's day.
  */
 import type { Sequelize } from 'sequelize';
-import type { AxleInput, RouteInput, SegmentInput, VehicleWork } from './duty';
+import type { AxleInput, RouteInput, VehicleWork } from './duty';
+import { attachProfiles } from './roughness-as-of';
 import { createDutyRunner } from './duty-pool';
 import { estimateOpening, levelsOf, predictFromSummary, predictionWindow, type LifeResolver, type PredictOptions, type WearSummary } from './wear';
 import { priorLifeResolver } from '../workshop/life';
@@ -79,7 +80,7 @@ export async function processTrips(ctx: PhaseContext) {
   if (!plan.length) return;
   const specs = await repo.specAxles();
   const { routes, surveyIds } = await repo.routesForUnprocessed(ctx.before);
-  // measured profiles behind segments' current roughness
+  // measured profiles behind the segments' roughness on the trips' days
   const profiles = new Map<number, { dxM: number; startM: number; elevationsM: Float64Array }>();
   for (const id of surveyIds) {
     try {
@@ -88,12 +89,8 @@ export async function processTrips(ctx: PhaseContext) {
       ctx.errors.push({ item: `survey ${id}`, message: `profile not readable, its segments use the closed form: ${(err as Error).message}` });
     }
   }
-  for (const route of routes.values()) {
-    for (const seg of route.segments as (SegmentInput & { surveyId?: number | null })[]) {
-      const p = seg.surveyId ? profiles.get(seg.surveyId) : undefined;
-      seg.profile = p && seg.surveyId ? { surveyId: seg.surveyId, ...p } : null;
-    }
-  }
+  // on every version of each route's segments (the value in force on each trip's day)
+  attachProfiles(routes.values(), profiles);
   // batches of whole vehicles, in vehicle order: a rerun after a crash forms the same batches
   const batches: number[][] = [];
   let cur: number[] = [];

@@ -333,7 +333,7 @@ export interface Backtest {
  * at the share of their life driven by then, their road mix taken as even over their life)
  * predicts its life on its own road mix, against what happened. Pure.
  */
-export function replayRemovals(lives: DamperLife[], prior: LifePrior = DEFAULT_PRIOR): { points: BacktestPoint[]; priorPoints: BacktestPoint[] } {
+export function replayRemovals(lives: DamperLife[], asOf: string, prior: LifePrior = DEFAULT_PRIOR): { points: BacktestPoint[]; priorPoints: BacktestPoint[] } {
   const days = (a: string, b: string) => (Date.parse(`${b}T00:00:00Z`) - Date.parse(`${a}T00:00:00Z`)) / 86_400_000;
   const failures = lives.filter((d) => d.failed && d.removedAt && d.lifeKm > 0).sort((a, b) => (a.removedAt! < b.removedAt! ? -1 : 1));
   const points: BacktestPoint[] = [];
@@ -351,9 +351,9 @@ export function replayRemovals(lives: DamperLife[], prior: LifePrior = DEFAULT_P
         if (d.failed) trainedOn++;
         continue;
       }
-      const end = d.removedAt ?? null;
-      const span = end ? days(d.installedAt, end) : null;
-      const share = span && span > 0 ? Math.min(1, days(d.installedAt, cut) / span) : 0.5;
+      // the share of its life (to its removal, or to today) it had driven by the cut
+      const span = days(d.installedAt, d.removedAt ?? asOf);
+      const share = span > 0 ? Math.min(1, days(d.installedAt, cut) / span) : 0;
       if (!(share > 0)) continue;
       units.push({ rows: d.rows.map((r) => ({ km: r.km * share, severity: r.severity })), failed: false, ratedKm: d.ratedKm });
     }
@@ -395,9 +395,9 @@ export const summarizeBacktest = (pts: BacktestPoint[]) => ({
   insideShare: pts.length ? pts.filter((x) => x.inside).length / pts.length : null,
 });
 
-export async function backtest(specId: number, settings: LifeSettings): Promise<Backtest> {
+export async function backtest(specId: number, settings: LifeSettings, asOf: string): Promise<Backtest> {
   const lives = await damperLives(specId);
-  const { points, priorPoints } = replayRemovals(lives, settings.prior);
+  const { points, priorPoints } = replayRemovals(lives, asOf, settings.prior);
   return {
     specId,
     points,

@@ -50,6 +50,10 @@ export interface FittedCornerRow {
   p_end_p10: string | null;
   p_end_p90: string | null;
   p_opening_share: number | null;
+  p_p10_wear_km: number | null;
+  p_p90_wear_km: number | null;
+  p_wear_km: number | null;
+  p_governed: string | null;
 }
 
 export const workshopRepository = {
@@ -61,7 +65,8 @@ export const workshopRepository = {
               a.sprung_mass_kg, a.unsprung_mass_kg, a.spring_rate_n_per_m, a.damping_ns_per_m AS nominal_ns_per_m, a.tire_rate_n_per_m, a.rated_damper_life_km,
               p.life_used_fraction AS p_life, p.damping_ns_per_m AS p_damping, p.life_source AS p_source, p.threshold_date AS p_threshold_date,
               p.end_of_life_date AS p_end_date, p.wear_km_per_day AS p_rate, p.life_wear_km AS p_life_wear_km, p.window_km AS p_window_km,
-              p.window_wear_km AS p_window_wear_km, p.end_of_life_p10_date AS p_end_p10, p.end_of_life_p90_date AS p_end_p90, p.opening_share AS p_opening_share
+              p.window_wear_km AS p_window_wear_km, p.end_of_life_p10_date AS p_end_p10, p.end_of_life_p90_date AS p_end_p90, p.opening_share AS p_opening_share,
+              p.life_p10_wear_km AS p_p10_wear_km, p.life_p90_wear_km AS p_p90_wear_km, p.wear_km AS p_wear_km, p.governed_by AS p_governed
        FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id
        JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
        LEFT JOIN damper_predictions p ON p.damper_id = d.id

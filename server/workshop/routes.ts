@@ -189,8 +189,8 @@ export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: (
     const lines = [['spec', 'depot', 'replacements', 'cost', 'cost_known'].join(',')];
     for (const g of f.rows) lines.push([g.specName, g.depotName, g.replacements, g.cost.toFixed(2), g.costKnown ? 'yes' : 'no'].map(csvCell).join(','));
     lines.push('');
-    lines.push(['date', 'vehicle', 'corner', 'spec', 'depot', 'cost', 'basis'].join(','));
-    for (const it of f.items) lines.push([it.date, it.fleetNumber, it.position, it.specName, it.depotName, it.cost === null ? '' : it.cost.toFixed(2), it.basis].map(csvCell).join(','));
+    lines.push(['end_of_life_date', 'vehicle', 'corner', 'spec', 'depot', 'chance', 'cost', 'basis'].join(','));
+    for (const it of f.items) lines.push([it.date, it.fleetNumber, it.position, it.specName, it.depotName, it.chance.toFixed(3), it.cost === null ? '' : it.cost.toFixed(2), it.basis].map(csvCell).join(','));
     res.setHeader('content-type', 'text/csv; charset=utf-8');
     res.setHeader('content-disposition', `attachment; filename="damper-forecast-${f.from}-to-${f.to}.csv"`);
     res.send(`${lines.join('\n')}\n`);

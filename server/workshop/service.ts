@@ -121,6 +121,34 @@ export function axleDifferences(corners: { position: string; axleIndex: number; 
   });
 }
 
+/** Dampers less likely than this to need replacing within the horizon are left out of the forecast list. */
+export const FORECAST_MIN_CHANCE = 0.02;
+
+/**
+ * Chance a damper reaches end of life within the horizon, given it has lasted so far: its
+ * Weibull life in wear km (from the prediction's median and P10–P90) conditioned on the wear
+ * km it has used, at its recent wear rate; 1 when its calendar limit falls inside the horizon.
+ * Before the nightly job has run, the km estimate of its spec's model at the vehicle's
+ * distance per day (severity 1).
+ */
+export function replacementChance(r: FittedCornerRow, st: CornerState, days: number, from: string, to: string, kmPerDay: number, model?: LifeModel): { chance: number; basis: string } {
+  if (st.endOfLifeDate !== null && st.endOfLifeDate <= to && r.p_governed === 'calendar') return { chance: 1, basis: `calendar limit reached on ${st.endOfLifeDate}` };
+  const z = (p: number) => Math.log(-Math.log(1 - p));
+  if (r.p_life_wear_km !== null && r.p_p10_wear_km !== null && r.p_p90_wear_km !== null && r.p_wear_km !== null) {
+    const sigma = (Math.log(r.p_p90_wear_km) - Math.log(r.p_p10_wear_km)) / (z(0.9) - z(0.1));
+    const scale = r.p_life_wear_km / Math.pow(Math.log(2), sigma);
+    const h = (w: number) => Math.pow(Math.max(0, w) / scale, 1 / sigma);
+    const dw = (r.p_rate ?? 0) * days;
+    const chance = 1 - Math.exp(-(h(r.p_wear_km + dw) - h(r.p_wear_km)));
+    return { chance, basis: `wear model: ${Math.round(st.lifeUsedFraction * 100)} % of expected life used, ${Math.round(chance * 100)} % chance of reaching end of life by ${to}` };
+  }
+  if (!model) return { chance: 0, basis: 'no prediction yet' };
+  const scale = r.rated_damper_life_km * Math.exp(model.beta0);
+  const h = (km: number) => Math.pow(Math.max(0, km) / scale, model.shape);
+  const chance = 1 - Math.exp(-(h(st.kmSinceFitted + kmPerDay * days) - h(st.kmSinceFitted)));
+  return { chance, basis: `km estimate from ${from}: ${Math.round(kmPerDay)} km/day on its spec's life at the rated road (${Math.round(chance * 100)} %)` };
+}
+
 export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; dataDir: string; publicUrl: string }) {
   const today = () => day(deps.now());
 
@@ -448,7 +476,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
     async lifeBacktest(specId: number) {
       const [s] = await q<{ id: number; name: string }>('SELECT id, name FROM suspension_specs WHERE id = ?', [specId]);
       if (!s) throw AppError.notFound('Suspension spec');
-      return { specName: s.name, ...(await backtest(s.id, cfg.life)) };
+      return { specName: s.name, ...(await backtest(s.id, cfg.life, today())) };
     },
 
     /** Expected damper replacements in the next `days` days, with cost, by spec and depot. */
@@ -479,40 +507,35 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       const items = [];
       for (const r of rows) {
         const st = cornerState(r, lives, cfg.inspectionThreshold);
-        let date: string | null = st.endOfLifeDate;
-        let basis = 'wear model: end-of-life date';
-        if (!date) {
-          const perDay = (km30.get(r.vehicle_id) ?? 0) / 30;
-          const left = st.lifeKm * (1 - st.lifeUsedFraction);
-          if (left <= 0) date = from;
-          else if (perDay > 0) date = day(addDays(new Date(`${from}T00:00:00Z`), Math.ceil(left / perDay)));
-          basis = `km rule: ${Math.round(Math.max(0, left)).toLocaleString('en-GB')} km of life left at ${Math.round(perDay)} km/day`;
-        }
-        if (date === null || date > to) continue;
+        const c0 = replacementChance(r, st, days, from, to, (km30.get(r.vehicle_id) ?? 0) / 30, lives.get(r.spec_id));
+        if (c0.chance < FORECAST_MIN_CHANCE) continue;
         const m = vm.get(r.vehicle_id)!;
         const c = costOf.get(r.spec_id);
         items.push({
-          vehicleId: r.vehicle_id, fleetNumber: m.fleet_number, position: r.position, damperId: r.damper_id, date: date < from ? from : date, basis,
+          vehicleId: r.vehicle_id, fleetNumber: m.fleet_number, position: r.position, damperId: r.damper_id, date: st.endOfLifeDate, chance: c0.chance, basis: c0.basis,
           specId: r.spec_id, specName: m.spec_name, depotId: m.depot_id, depotName: m.depot_name, cost: c?.cost ?? null, lifeUsedFraction: st.lifeUsedFraction,
         });
       }
-      items.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : a.fleetNumber.localeCompare(b.fleetNumber)));
+      items.sort((a, b) => b.chance - a.chance || a.fleetNumber.localeCompare(b.fleetNumber) || a.position.localeCompare(b.position));
       const groups = new Map<string, { specId: number; specName: string; depotId: number; depotName: string; replacements: number; cost: number; costKnown: boolean }>();
       for (const it of items) {
         const key = `${it.specId}/${it.depotId}`;
         const g = groups.get(key) ?? { specId: it.specId, specName: it.specName, depotId: it.depotId, depotName: it.depotName, replacements: 0, cost: 0, costKnown: true };
-        g.replacements++;
+        g.replacements += it.chance;
         if (it.cost === null) g.costKnown = false;
-        else g.cost += it.cost;
+        else g.cost += it.chance * it.cost;
         groups.set(key, g);
       }
-      const rowsOut = [...groups.values()].sort((a, b) => a.specName.localeCompare(b.specName) || a.depotName.localeCompare(b.depotName));
+      const rowsOut = [...groups.values()]
+        .map((g) => ({ ...g, replacements: Math.round(g.replacements * 10) / 10 }))
+        .sort((a, b) => a.specName.localeCompare(b.specName) || a.depotName.localeCompare(b.depotName));
       return {
         from,
         to,
         days,
         rows: rowsOut,
-        totals: { replacements: items.length, cost: rowsOut.reduce((s, g) => s + g.cost, 0) },
+        totals: { replacements: Math.round(items.reduce((s, x) => s + x.chance, 0) * 10) / 10, cost: rowsOut.reduce((s, g) => s + g.cost, 0) },
+        method: `Expected replacements: for each fitted damper, the chance it reaches end of life within ${days} days given it has lasted so far (its fitted Weibull life at its last 30 days' wear rate; 1 when its calendar limit falls inside), summed; dampers under ${Math.round(FORECAST_MIN_CHANCE * 100)} % are left out of the list.`,
         costBasis: [...costOf.entries()].map(([specId, c]) => ({ specId, specName: meta.find((m) => vm.get(m.id) && rows.some((r) => r.spec_id === specId && r.vehicle_id === m.id))?.spec_name ?? `spec ${specId}`, ...c })),
         items,
       };

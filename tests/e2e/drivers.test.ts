@@ -102,6 +102,10 @@ describe('drivers on a phone (390 × 844)', () => {
     await msg.waitFor();
     const text = await msg.innerText();
     expect(text).toMatch(new RegExp(`class ${seg!.iso_class} → [A-H]`));
+    // the decisions table tells the same classes as the notice
+    const said = text.match(/segment class [A-H] → [A-H] \(report’s estimate class [A-H]\)/)?.[0];
+    expect(said, text).toBeTruthy();
+    await mp.getByRole('table', { name: 'Recent decisions' }).getByText(said!).first().waitFor();
     await mp.screenshot({ path: screenshotPath('drivers-phone-manager-accepted'), fullPage: true });
 
     const [after] = await q<{ gd_n0: number; iso_class: string; roughness_source: string }>('SELECT gd_n0, iso_class, roughness_source FROM route_segments WHERE id = ?', [seg!.id]);

@@ -167,7 +167,7 @@ describe('ride reports: filing, access, decisions', () => {
   it('when the manager accepts a severe report, then it becomes a driver_report observation weighted half a survey, the segment changes and the driver is told', async () => {
     const [before] = await q<{ gd_n0: number; iso_class: string }>('SELECT gd_n0, iso_class FROM route_segments WHERE id = ?', [segId]);
     expect((await manager.json('POST', `/api/ride-reports/${reportId}/accept`, {})).status).toBe(400);
-    const r = await manager.json<{ report: { status: string; estimatedClass: string; classBefore: string }; segmentAfter: { isoClass: string; gdN0: number; roughnessSource: string } }>('POST', `/api/ride-reports/${reportId}/accept`, { confirm: true });
+    const r = await manager.json<{ report: { status: string; estimatedClass: string; classBefore: string; classAfter: string }; segmentAfter: { isoClass: string; gdN0: number; roughnessSource: string } }>('POST', `/api/ride-reports/${reportId}/accept`, { confirm: true });
     expect(r.status).toBe(200);
     expect(r.body.report.status).toBe('accepted');
     // severe = 3 class steps above the current class (our stated assumption)
@@ -180,6 +180,9 @@ describe('ride reports: filing, access, decisions', () => {
     expect(r.body.segmentAfter.isoClass).toBe(classifyGd(expected));
     expect(r.body.segmentAfter.roughnessSource).toBe('driver_report');
     expect(r.body.segmentAfter.gdN0).toBeGreaterThan(before.gd_n0);
+    // the decision keeps the classes the notice and the decisions table tell: before, the report's estimate, after
+    expect(r.body.report).toMatchObject({ classBefore: before.iso_class, estimatedClass: est, classAfter: classifyGd(expected) });
+    expect((r.body.report as unknown as { gdN0After: number }).gdN0After).toBeCloseTo(expected, 12);
     const obs = await q<{ source: string }>(`SELECT source FROM roughness_observations WHERE segment_id = ? ORDER BY id DESC LIMIT 1`, [segId]);
     expect(obs[0].source).toBe('driver_report');
     const mail = await q<{ to_address: string; subject: string }>(`SELECT to_address, subject FROM mail_messages WHERE dedupe_key = ?`, [`ride-report:${reportId}:accepted`]);
@@ -208,6 +211,34 @@ describe('ride reports: filing, access, decisions', () => {
 
 describe('the current-value rule with drivers\' reports', () => {
   const gd = (c: string) => gdForClass(c);
+  it('when one harsh report follows a stated class B, then the segment is class C (computed from the stated rule: ln Gd = (ln 64 + 0.5 ln 1024)/1.5 → Gd = 161.3e-6, class C 128–512e-6)', () => {
+    const obs = [
+      { id: 1, source: 'stated' as const, observedOn: '2026-01-01', gdN0: gd('B'), iri: null, isoClass: 'B' },
+      { id: 2, source: 'driver_report' as const, observedOn: '2026-02-01', gdN0: gd('D'), iri: null, isoClass: 'D' },
+    ];
+    const v = currentValue(obs, classifyGd, iriFromGd)!;
+    expect(v.gdN0! / 1e-6).toBeCloseTo(161.27, 2);
+    expect(v).toMatchObject({ isoClass: 'C', source: 'driver_report', blendedReports: 1 });
+  });
+  it('when the demo fleet is seeded, then every segment stores the value the rule gives over its observations (the dairy run\'s reported stretch is class C, not the report\'s D)', async () => {
+    const segs = await q<{ id: number; gd_n0: number; iso_class: string; roughness_source: string; roughness_date: string; survey_id: number | null; route: string }>(
+      `SELECT s.id, s.gd_n0, s.iso_class, s.roughness_source, s.roughness_date, s.survey_id, r.name AS route FROM route_segments s JOIN routes r ON r.id = s.route_id
+       WHERE s.id NOT IN (SELECT segment_id FROM ride_reports WHERE status = 'accepted')`,
+    );
+    const obs = await q<{ id: number; segment_id: number; source: 'survey' | 'stated' | 'driver_report'; observed_on: string; gd_n0: number; iri: number | null; iso_class: string; survey_id: number | null }>('SELECT * FROM roughness_observations');
+    const bySeg = new Map<number, typeof obs>();
+    for (const o of obs) bySeg.set(o.segment_id, [...(bySeg.get(o.segment_id) ?? []), o]);
+    let reported = 0;
+    for (const s of segs) {
+      const v = currentValue((bySeg.get(s.id) ?? []).map((o) => ({ id: o.id, source: o.source, observedOn: o.observed_on, gdN0: o.gd_n0, iri: o.iri, isoClass: o.iso_class, surveyId: o.survey_id })), classifyGd, iriFromGd)!;
+      expect({ gd: s.gd_n0, cls: s.iso_class, src: s.roughness_source }, `segment ${s.id}`).toEqual({ gd: v.gdN0, cls: v.isoClass, src: v.source });
+      if (s.route === 'Sedge Vale dairy run' && s.roughness_source === 'driver_report') {
+        reported++;
+        expect(s.iso_class).toBe('C');
+      }
+    }
+    expect(reported).toBeGreaterThan(0);
+  });
   it('when a survey is newer than a report, or on the same day, then the survey alone is current', () => {
     const obs = [
       { id: 1, source: 'driver_report' as const, observedOn: '2026-03-01', gdN0: gd('E'), iri: null, isoClass: 'E' },

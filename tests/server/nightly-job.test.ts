@@ -110,7 +110,14 @@ describe('nightly job through the API', () => {
   it("when a vehicle's wear is read, then each fitted damper has its daily history, prediction and path, and duty per route", async () => {
     const c = new ApiClient(A.url);
     await c.login(DEMO.manager);
-    const vehicleId = Number((await A.db.sequelize.query<{ id: number }>(`SELECT vehicle_id AS id FROM trip_duties GROUP BY vehicle_id ORDER BY SUM(energy_j) DESC LIMIT 1`, { type: QueryTypes.SELECT }))[0].id);
+    // the hardest-worked vehicle with an inspection open, so its next inspection's reason can be read
+    const vehicleId = Number(
+      (await A.db.sequelize.query<{ id: number }>(
+        `SELECT vehicle_id AS id FROM trip_duties WHERE vehicle_id IN (SELECT vehicle_id FROM inspections WHERE status IN ('scheduled', 'due', 'overdue'))
+         GROUP BY vehicle_id ORDER BY SUM(energy_j) DESC LIMIT 1`,
+        { type: QueryTypes.SELECT },
+      ))[0].id,
+    );
     const w = await c.get<{
       dampers: { position: string; history: { day: string; lifeUsedFraction: number }[]; prediction: { thresholdDate: string | null; lifeSource: string; wearKmPerDay: number } | null; path: unknown[] }[];
       dutyByRoute: { routeName: string; energyJ: number }[];

@@ -1,7 +1,8 @@
 /**
  * Generates a synthetic fleet for the nightly-job benchmark into a fresh data folder:
  * 10 000 vehicles (40 000 dampers) of four specs at two depots, 400 routes of 25 segments
- * (ISO 8608 classes A–E; 5 % of routes carry a measured profile), and 30 000 unprocessed trips
+ * (ISO 8608 classes A–E; 5 % of routes carry a measured profile; each segment's roughness history,
+ * with a change in the middle of the trips on every 10th route), and 30 000 unprocessed trips
  * over the last 30 days. Each vehicle has a done inspection 0–12 months ago. Deterministic
  * (seeded).
  *
@@ -69,6 +70,7 @@ export async function generateFleet(dataDir: string, size: FleetSize = BENCH_FLE
     const routeRows: unknown[][] = [];
     const segRows: unknown[][] = [];
     const surveyRows: unknown[][] = [];
+    const obsRows: unknown[][] = [];
     let segId = 1;
     for (let r = 1; r <= size.routes; r++) {
       const depot = (r % 2) + 1;
@@ -94,6 +96,12 @@ export async function generateFleet(dataDir: string, size: FleetSize = BENCH_FLE
       routeRows.push([r, `Route ${r}`, depot, JSON.stringify({ type: 'LineString', coordinates: [[-1.5, 52.6], [-1.49, 52.61]] }), size.segmentsPerRoute * 100, speed, 100, now, now]);
       for (let k = 0; k < size.segmentsPerRoute; k++) {
         const c = classes[k];
+        // each segment's observation history, as the duty phase reads it (the value in force on
+        // the trip's day): the current value, an older stated class on every 4th route, and a
+        // class set by hand in the middle of the trips on every 10th route
+        obsRows.push([segId, gdForClass(c), c, surveyed ? 'survey' : 'stated', '2026-10-01', surveyId, now, now]);
+        if (r % 4 === 0) obsRows.push([segId, gdForClass('B'), 'B', 'stated', '2026-06-01', null, now, now]);
+        if (r % 10 === 0) obsRows.push([segId, gdForClass('D'), 'D', 'stated', '2026-11-15', null, now, now]);
         segRows.push([segId++, r, k, k * 100, (k + 1) * 100, '[[-1.5,52.6],[-1.49,52.61]]', null, null, gdForClass(c), c, surveyed ? 'survey' : 'stated', '2026-10-01', surveyId, now, now]);
       }
     }
@@ -102,6 +110,7 @@ export async function generateFleet(dataDir: string, size: FleetSize = BENCH_FLE
       await insert(db, 'road_surveys', ['id', 'route_id', 'file_path', 'original_name', 'dx_m', 'start_m', 'end_m', 'point_count', 'surveyed_on', 'note', 'uploaded_by_id', 'uploaded_at', 'created_at', 'updated_at'], surveyRows, t);
     }
     await insert(db, 'route_segments', ['id', 'route_id', 'seq', 'start_m', 'end_m', 'geometry', 'speed_kmh', 'iri', 'gd_n0', 'iso_class', 'roughness_source', 'roughness_date', 'survey_id', 'created_at', 'updated_at'], segRows, t);
+    await insert(db, 'roughness_observations', ['segment_id', 'gd_n0', 'iso_class', 'source', 'observed_on', 'survey_id', 'created_at', 'updated_at'], obsRows, t);
 
     const vehicles: unknown[][] = [];
     const dampers: unknown[][] = [];

@@ -42,6 +42,9 @@ export interface RideReport {
   classBefore: string | null;
   estimatedClass: string | null;
   estimatedGdN0: number | null;
+  /** The segment's class and Gd(n0) just after the report was blended in (null for older decisions). */
+  classAfter: string | null;
+  gdN0After: number | null;
 }
 
 export const photoUrl = (id: number) => `/api/ride-reports/${id}/photo`;

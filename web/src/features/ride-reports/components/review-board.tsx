@@ -15,6 +15,7 @@ import { SimpleTable } from '@/components/ui/simple-table';
 import { isApiError } from '@/lib/api-client';
 import { cx } from '@/lib/class-names';
 import { formatDateTime, formatNumber } from '@/lib/format';
+import { acceptedClassText } from '@/lib/ride-decision';
 import { useRideReportGroups, type RideReportGroup } from '../api/get-ride-report-groups';
 import { useRideReports } from '../api/get-ride-reports';
 import { useRideScale } from '../api/get-ride-scale';
@@ -47,7 +48,7 @@ function ReportCard({ r, onDone }: { r: RideReport; onDone: (msg: { tone: 'ok' |
   const afterAccept = (res: AcceptResult) =>
     onDone({
       tone: 'ok',
-      text: `Accepted report #${r.id}. ${r.routeName}, segment ${(r.segmentSeq ?? 0) + 1}: class ${res.segmentBefore.isoClass ?? '—'} → ${res.segmentAfter.isoClass ?? '—'}, Gd(n0) ${gd(res.segmentBefore.gdN0)} → ${gd(res.segmentAfter.gdN0)}. The driver is told by e-mail if they want it.`,
+      text: `Accepted report #${r.id}. ${r.routeName}, segment ${(r.segmentSeq ?? 0) + 1}: ${acceptedClassText(res.report)}, Gd(n0) ${gd(res.segmentBefore.gdN0)} → ${gd(res.segmentAfter.gdN0)}. The driver is told by e-mail if they want it.`,
     });
   return (
     <li className="rounded-md border border-line bg-surface p-3" data-testid="review-report">
@@ -206,7 +207,7 @@ export function ReviewBoard({ routePath, initialReportId }: { routePath: (id: nu
               { key: 'where', header: 'Where', rowHeader: true, cell: (r) => `${r.routeName}, segment ${(r.segmentSeq ?? 0) + 1}` },
               { key: 'by', header: 'Driver', cell: (r) => r.driverName ?? '—' },
               { key: 'status', header: 'Decision', cell: (r) => <ReportStatusBadge status={r.status} /> },
-              { key: 'why', header: 'Result', cell: (r) => (r.status === 'accepted' ? `estimated class ${r.estimatedClass ?? '—'} (was ${r.classBefore ?? '—'})` : r.dismissReason) },
+              { key: 'why', header: 'Result', cell: (r) => (r.status === 'accepted' ? acceptedClassText(r) : r.dismissReason) },
             ]}
           />
         ) : (

@@ -9,7 +9,10 @@ export interface Forecast {
   rows: { specId: number; specName: string; depotId: number; depotName: string; replacements: number; cost: number; costKnown: boolean }[];
   totals: { replacements: number; cost: number };
   costBasis: { specId: number; specName: string; cost: number; basis: string }[];
-  items: { vehicleId: number; fleetNumber: string; position: string; damperId: number; date: string; basis: string; specName: string; depotName: string; cost: number | null }[];
+  /** Dampers likely to need replacing within the horizon, most likely first; `chance` in 0–1, `date` the median end-of-life date. */
+  items: { vehicleId: number; fleetNumber: string; position: string; damperId: number; date: string | null; chance: number; basis: string; specName: string; depotName: string; cost: number | null }[];
+  /** How the expected count is made, in words. */
+  method: string;
 }
 
 export const forecastQueryOptions = (days = 90) =>

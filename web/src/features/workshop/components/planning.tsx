@@ -117,7 +117,7 @@ export function ForecastTables() {
   return (
     <>
       <p className="mb-2 text-sm text-slate">
-        {formatDate(f.from)} to {formatDate(f.to)}: <strong className="tabular text-ink">{f.totals.replacements}</strong> damper replacements expected, about{' '}
+        {formatDate(f.from)} to {formatDate(f.to)}: about <strong className="tabular text-ink">{formatNumber(f.totals.replacements, 1)}</strong> damper replacements expected, about{' '}
         <strong className="tabular text-ink">£{formatNumber(f.totals.cost)}</strong> in parts.{' '}
         <a className="link" href="/api/forecast?format=csv" download>
           Download CSV
@@ -130,12 +130,12 @@ export function ForecastTables() {
         columns={[
           { key: 's', header: 'Spec', rowHeader: true, cell: (r) => r.specName },
           { key: 'd', header: 'Depot', cell: (r) => r.depotName },
-          { key: 'n', header: 'Replacements', numeric: true, cell: (r) => r.replacements },
+          { key: 'n', header: 'Expected replacements', numeric: true, cell: (r) => formatNumber(r.replacements, 1) },
           { key: 'c', header: 'Parts cost', unit: '£', numeric: true, cell: (r) => (r.costKnown ? formatNumber(r.cost) : `${formatNumber(r.cost)} + unknown`) },
         ]}
       />
       <p className="mt-2 text-sm text-slate">
-        Dates come from the wear model&apos;s end-of-life date or, before it has run, from the km left at each vehicle&apos;s last 30 days of driving. Cost per damper: {f.costBasis.map((c) => `${c.specName}: £${formatNumber(c.cost)} (${c.basis})`).join('; ') || 'no history yet'}.
+        {f.method} Cost per damper: {f.costBasis.map((c) => `${c.specName}: £${formatNumber(c.cost)} (${c.basis})`).join('; ') || 'no history yet'}.
       </p>
       <Caution className="mt-2">A forecast for planning, not a decision to replace: inspect before replacing, and follow the manufacturer&apos;s and local regulations&apos; requirements.</Caution>
     </>
