@@ -3,7 +3,7 @@ import { LoadingState } from '@/components/ui/loading-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { useFleetLife } from '@/features/workshop/api/get-fleet-life';
 import { FleetLifeView } from '@/features/workshop/components/fleet-life-charts';
-import { SpecPicker, useSpecChoice } from '@/features/workshop/components/spec-picker';
+import { SpecPicker, useSpecChoice } from './spec-choice';
 import { pages } from '../navigation';
 
 /** Damper life per suspension spec: the life model fitted to the fleet's own removals and what it rests on. */

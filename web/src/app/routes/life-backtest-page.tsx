@@ -5,7 +5,7 @@ import { useQuery } from '@tanstack/react-query';
 import { vehiclesQueryOptions } from '@/features/vehicles/api/get-vehicles';
 import { useLifeBacktest } from '@/features/workshop/api/get-life-backtest';
 import { LifeBacktestView } from '@/features/workshop/components/life-backtest';
-import { SpecPicker, useSpecChoice } from '@/features/workshop/components/spec-picker';
+import { SpecPicker, useSpecChoice } from './spec-choice';
 import { pages, vehiclePath } from '../navigation';
 
 /** How good the damper-life predictions are: each past removal against what the model predicted before it. */
