@@ -48,7 +48,7 @@ function FleetKmCharts({ view }: { view: SpecLife['fleetKm'] }) {
               <ComposedChart margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
                 <CartesianGrid stroke="#e3ded3" />
                 <XAxis type="number" dataKey="x" domain={['dataMin', 'dataMax']} ticks={xTicks} tickFormatter={tick} label={{ value: 'life [km] (log scale)', position: 'bottom', offset: 4 }} />
-                <YAxis type="number" dataKey="y" domain={[yTicks[0], yTicks[yTicks.length - 1]]} ticks={yTicks} width={56} tickFormatter={(v: number) => `${formatNumber((1 - Math.exp(-Math.exp(v))) * 100, 0)} %`} label={{ value: 'removed [%]', angle: -90, position: 'insideLeft' }} />
+                <YAxis type="number" dataKey="y" domain={[yTicks[0], yTicks[yTicks.length - 1]]} ticks={yTicks} width={72} tickFormatter={(v: number) => `${formatNumber((1 - Math.exp(-Math.exp(v))) * 100, 0)} %`} label={{ value: 'removed [%]', angle: -90, position: 'insideLeft' }} />
                 <Scatter name="removals" data={pts} fill="#D9622B" isAnimationActive={false} />
                 <Line name="fit" data={line} dataKey="y" stroke="#1E2A32" dot={false} isAnimationActive={false} />
                 <Legend verticalAlign="top" />
