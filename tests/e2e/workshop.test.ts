@@ -125,7 +125,7 @@ describe('workshop', () => {
     await mgr.screenshot({ path: screenshotPath('manager-desktop-model-check'), fullPage: true });
     await mgr.goto(`${server.url}/damper-life`);
     await expectHeading(mgr, 'Damper life from the fleet');
-    await mgr.getByText('Life in distance').waitFor();
+    await mgr.getByRole('table', { name: 'Damper life per ISO 8608 road class at 80 km/h' }).waitFor();
     await mgr.screenshot({ path: screenshotPath('manager-desktop-damper-life'), fullPage: true });
     await mgrCtx.close();
     await mecCtx.close();

@@ -64,6 +64,8 @@ export const pages = {
   },
   planning: { path: '/planning', label: 'Planning', roles: ['manager'], group: 'workshop', icon: icon('M4 5h16v15H4zM4 9h16M9 5v15M8 3v4M16 3v4') },
   fleetLife: { path: '/damper-life', label: 'Damper life', roles: ['manager', 'mechanic'], group: 'workshop', icon: icon('M4 20V4M4 20h16M6 16c4 0 6-9 14-10') },
+  // reached from the damper-life page, not in the menu (the menu marks "Damper life" while it is open)
+  lifeBacktest: { path: '/damper-life/back-test', label: 'Back-test', roles: ['manager', 'mechanic'], icon: icon('M4 20V4M4 20h16M7 15l3-3 3 2 5-6') },
   modelCheck: { path: '/model-check', label: 'Model check', roles: ['manager'], group: 'workshop', icon: icon('M4 20 20 4M6 14l2 2M12 9l2 2M15 16l2-2') },
   // issue 7: drivers' reports and exposure
   report: { path: '/report', label: 'Report', roles: ['driver'], icon: icon('M12 21s-6-5.5-6-11a6 6 0 0 1 12 0c0 5.5-6 11-6 11zM12 7v4M12 13.5v.5') },

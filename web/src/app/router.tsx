@@ -85,6 +85,7 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: 'work-records/:workRecordId', loader: only({ roles: ['mechanic', 'manager'] }), element: <WorkRecordPage /> },
             { path: strip(pages.planning.path), loader: only(pages.planning), element: <PlanningPage /> },
             { path: strip(pages.fleetLife.path), loader: only(pages.fleetLife), element: <FleetLifePage /> },
+            { path: strip(pages.lifeBacktest.path), loader: only(pages.lifeBacktest), lazy: () => import('./routes/life-backtest-page').then((m) => ({ Component: m.LifeBacktestPage })) },
             { path: strip(pages.modelCheck.path), loader: only(pages.modelCheck), element: <ModelCheckPage /> },
             // issue 7: drivers
             { path: strip(pages.report.path), loader: only(pages.report), element: <ReportPage /> },

@@ -3,8 +3,8 @@ import type { StatusTone } from '@/components/ui/status-badge';
 /**
  * How a damper's estimated life used reads on screen, from the inspection threshold the server
  * schedules by (`INSPECTION_THRESHOLD`, 0.8 unless configured): watch from three quarters of
- * it, inspect from it, past rated life from 100 %. The wear page and the damper cards use the
- * same bands.
+ * it, inspect from it, past end of life from 100 % of the life expected on the damper's roads.
+ * The wear page and the damper cards use the same bands.
  */
 export const DEFAULT_INSPECTION_THRESHOLD = 0.8;
 
@@ -26,7 +26,7 @@ export const wearWords: Record<StatusTone, string> = {
   ok: 'Good',
   watch: 'Watch',
   due: 'Inspect now',
-  overdue: 'Past rated life',
+  overdue: 'Past end of life',
   neutral: 'No estimate',
 };
 
@@ -35,5 +35,5 @@ const pct = (x: number) => `${Math.round(x * 100)} %`;
 /** The rule behind the word, for the "because" line. */
 export function wearRule(threshold: number = DEFAULT_INSPECTION_THRESHOLD): string {
   const b = wearBands(threshold);
-  return `Watch from ${pct(b.watchFrom)}, inspect from ${pct(b.dueFrom)} of rated life used.`;
+  return `Watch from ${pct(b.watchFrom)}, inspect from ${pct(b.dueFrom)} of expected life used.`;
 }

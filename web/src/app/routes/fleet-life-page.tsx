@@ -1,37 +1,30 @@
-import { useState } from 'react';
 import { ErrorState } from '@/components/ui/error-state';
 import { LoadingState } from '@/components/ui/loading-state';
 import { PageHeader } from '@/components/ui/page-header';
-import { useSpecs } from '@/features/specs/api/get-specs';
 import { useFleetLife } from '@/features/workshop/api/get-fleet-life';
 import { FleetLifeView } from '@/features/workshop/components/fleet-life-charts';
+import { SpecPicker, useSpecChoice } from './spec-choice';
+import { pages } from '../navigation';
 
-/** Damper life learned from the fleet's own replacements, per suspension spec. */
+/** Damper life per suspension spec: the life model fitted to the fleet's own removals and what it rests on. */
 export function FleetLifePage() {
-  const specs = useSpecs();
-  const [chosen, setChosen] = useState<number | null>(null);
-  const specId = chosen ?? specs.data?.items[0]?.id ?? 0;
+  const { specId, choose } = useSpecChoice();
   const life = useFleetLife(specId);
   return (
     <>
       <title>Damper life · Reboundry</title>
       <PageHeader
         title="Damper life from the fleet"
-        description="Weibull fit by maximum likelihood to every removal, with dampers still fitted counted as running (right-censored)."
-        actions={
-          <label className="text-sm">
-            Spec{' '}
-            <select className="min-h-9 rounded border border-line bg-surface px-2" value={specId} onChange={(e) => setChosen(Number(e.target.value))}>
-              {(specs.data?.items ?? []).map((s) => (
-                <option key={s.id} value={s.id}>
-                  {s.name}
-                </option>
-              ))}
-            </select>
-          </label>
-        }
+        description="How long a damper of this spec lasts on each kind of road, learned from the fleet's own removals on top of the trade's prior."
+        actions={<SpecPicker specId={specId} onChange={choose} />}
       />
-      {life.isPending ? <LoadingState label="Fitting…" /> : life.error ? <ErrorState error={life.error} what="the fit" /> : <FleetLifeView life={life.data} />}
+      {life.isPending ? (
+        <LoadingState label="Fitting…" />
+      ) : life.error ? (
+        <ErrorState error={life.error} what="the fit" />
+      ) : (
+        <FleetLifeView life={life.data} backtestTo={`${pages.lifeBacktest.path}?specId=${specId}`} />
+      )}
     </>
   );
 }

@@ -67,7 +67,7 @@ export function DamperCorners({ dampers, axles, compact, threshold = DEFAULT_INS
       </div>
       <p className="mt-3 text-[0.8125rem] text-slate">
         {anyEstimate
-          ? `Life used is the duty model's estimate from the roads, speeds and loads of this vehicle's trips, against the rated damper life of its axle. ${wearRule(threshold)}`
+          ? `Life used is the wear model's estimate from the roads, speeds and loads of this vehicle's trips, against the life the spec's model expects on those roads (see Damper wear below). ${wearRule(threshold)}`
           : 'The nightly wear run has not estimated these dampers yet; until it has, the distance driven on each against its rated life is the guide.'}
       </p>
       <Caution className="mt-3">

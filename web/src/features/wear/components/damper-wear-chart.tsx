@@ -1,4 +1,4 @@
-import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { CartesianGrid, Line, LineChart, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { formatDate, formatNumber } from '@/lib/format';
 import type { DamperWear } from '../api/get-vehicle-wear';
 
@@ -7,7 +7,8 @@ const DAY = 86_400_000;
 
 /**
  * One damper's consumed life over time (solid), the predicted path to the inspection threshold
- * and end of life (dashed), and the threshold as a line. Dates on the x axis, % of life on y.
+ * and end of life (dashed), the threshold as a line, and the P10–P90 range of the end-of-life
+ * date as a shaded band (cut at the chart's horizon). Dates on the x axis, % of life on y.
  */
 export function DamperWearChart({ damper, thresholdFraction }: { damper: DamperWear; thresholdFraction: number }) {
   const points = new Map<number, { t: number; used: number | null; predicted: number | null }>();
@@ -31,6 +32,13 @@ export function DamperWearChart({ damper, thresholdFraction }: { damper: DamperW
     }
   }
   const data = [...points.values()].sort((a, b) => a.t - b.t);
+  // end of life between P10 and P90, drawn inside the time span shown
+  const p = damper.prediction;
+  const tMin = data.length ? data[0].t : 0;
+  const tMax = data.length ? data[data.length - 1].t : 0;
+  const p10 = p?.endOfLifeP10Date ? day(p.endOfLifeP10Date) : null;
+  const p90 = p?.endOfLifeP90Date ? day(p.endOfLifeP90Date) : null;
+  const band = p10 !== null && p90 !== null && p10 <= tMax && p90 >= tMin ? { x1: Math.max(p10, tMin), x2: Math.min(p90, tMax), cut: p90 > tMax } : null;
   const top = Math.max(105, ...data.map((d) => Math.max(d.used ?? 0, d.predicted ?? 0) * 1.05));
   // ticks every 20 % up to 120 %, then coarser, so a damper far past end of life keeps a readable axis
   const step = top <= 120 ? 20 : top <= 300 ? 50 : 100;
@@ -54,6 +62,22 @@ export function DamperWearChart({ damper, thresholdFraction }: { damper: DamperW
             />
             <YAxis domain={[0, yMax]} ticks={ticks} tickFormatter={(v: number) => formatNumber(v)} tick={{ fontSize: 11 }} width={44} label={{ value: 'life used [%]', angle: -90, position: 'insideLeft', fontSize: 11, dy: 40 }} />
             <ReferenceLine y={thresholdFraction * 100} stroke="#D9622B" strokeDasharray="6 3" label={{ value: `inspect at ${formatNumber(thresholdFraction * 100)} %`, position: 'insideTopLeft', fontSize: 11, fill: '#9c441a' }} />
+            {band ? (
+              band.x2 > band.x1 ? (
+                <ReferenceArea
+                  x1={band.x1}
+                  x2={band.x2}
+                  fill="#B3261E"
+                  fillOpacity={0.1}
+                  stroke="#B3261E"
+                  strokeOpacity={0.3}
+                  ifOverflow="hidden"
+                  label={{ value: `end of life P10–P90${band.cut ? ' →' : ''}`, position: 'insideBottomRight', fontSize: 11, fill: '#B3261E' }}
+                />
+              ) : (
+                <ReferenceLine x={band.x1} stroke="#B3261E" strokeDasharray="2 2" label={{ value: 'end of life', position: 'insideBottom', fontSize: 11, fill: '#B3261E' }} />
+              )
+            ) : null}
             <ReferenceLine y={100} stroke="#B3261E" label={{ value: 'end of life', position: 'insideTopRight', fontSize: 11, fill: '#B3261E' }} />
             <Tooltip
               labelFormatter={(v) => formatDate(new Date(Number(v)))}
@@ -64,7 +88,10 @@ export function DamperWearChart({ damper, thresholdFraction }: { damper: DamperW
           </LineChart>
         </ResponsiveContainer>
       </div>
-      <figcaption className="sr-only">{label}. Solid: from recorded trips. Dashed: projected at the last 30 days’ rate.</figcaption>
+      <figcaption className="sr-only">
+        {label}. Solid: from recorded trips. Dashed: projected at the last {p?.windowDays ?? 30} days’ rate.
+        {p?.endOfLifeP10Date && p.endOfLifeP90Date ? ` Shaded: end of life between ${formatDate(p.endOfLifeP10Date)} (P10) and ${formatDate(p.endOfLifeP90Date)} (P90).` : ''}
+      </figcaption>
     </figure>
   );
 }

@@ -2,6 +2,7 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { workshopKeys } from './types';
 
+/** A Weibull fit in km to the spec's removals (wear removals failed, the rest censored). */
 export interface Fit {
   shape: number;
   scale: number;
@@ -11,23 +12,46 @@ export interface Fit {
   suspensions: number;
   bounds: { level: number; method: string; shape: [number, number]; scale: [number, number]; b10: [number, number] } | null;
 }
-export interface FitView {
-  fit: Fit | null;
-  reason: string | null;
-  unit: string;
-  points: { life: number; unreliability: number }[];
-  curve: { life: number; survival: number }[];
-  excluded: number;
+
+/** The spec's life model: ln(life / rated km) = beta0 − roadSensitivity·ln(severity) + Weibull scatter of `shape`. */
+export interface LifeModelView {
+  beta0: number;
+  roadSensitivity: number;
+  shape: number;
+  /** How many times shorter the life is one ISO 8608 class step rougher. */
+  classStepFactor: number;
+  /** 'fleet' = fitted to the removals; 'prior' = the trade's prior alone. */
+  source: 'prior' | 'fleet';
+  failures: number;
+  suspensions: number;
 }
-export interface FleetLife {
+
+export interface LifeTableRow {
+  cls: string;
+  severity: number;
+  medianKm: number;
+  p10Km: number;
+  p90Km: number;
+  priorMedianKm: number;
+}
+
+/** GET /api/fleet-life: a spec's fitted life model and what it rests on. */
+export interface SpecLife {
   specId: number;
   specName: string;
-  km: FitView;
-  energy: FitView;
-  blend: { used: boolean; weight: number; failures: number; minRemovals: number; k: number; fleetMeanKm: number | null; axles: { axleIndex: number; ratedKm: number; usedKm: number }[]; rule: string };
+  model: LifeModelView & { note: string };
+  prior: LifeModelView;
+  ratedKm: { axleIndex: number; ratedKm: number }[];
+  /** Life per ISO class at 80 km/h for the first axle's rated km. */
+  lifeTable: LifeTableRow[];
+  /** What the removals alone say, in km. */
+  fleetKm: { fit: Fit | null; reason: string | null; points: { life: number; unreliability: number }[] };
+  comparison: { modelMeanKm: number | null; fleetMeanKm: number | null; ratio: number | null; disagrees: boolean; warning: string | null };
+  dampers: { total: number; failures: number; suspensions: number; withRecords: number };
+  assumptions: string[];
 }
 
 export const fleetLifeQueryOptions = (specId: number) =>
-  queryOptions({ queryKey: workshopKeys.fleetLife(specId), queryFn: ({ signal }) => api.get<FleetLife>('/api/fleet-life', { query: { specId }, signal }), enabled: specId > 0 });
+  queryOptions({ queryKey: workshopKeys.fleetLife(specId), queryFn: ({ signal }) => api.get<SpecLife>('/api/fleet-life', { query: { specId }, signal }), enabled: specId > 0 });
 
 export const useFleetLife = (specId: number) => useQuery(fleetLifeQueryOptions(specId));

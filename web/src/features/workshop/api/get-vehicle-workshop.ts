@@ -5,7 +5,8 @@ import { workshopKeys, type CornerState, type WorkRecord } from './types';
 export interface VehicleWorkshop {
   vehicleId: number;
   corners: CornerState[];
-  life: { specId: number; specName: string; used: 'fleet' | 'rated'; text: string; rule: string; failures: number; minRemovals: number };
+  /** The spec's life model the corners' life used is measured against. */
+  life: { specId: number; source: 'prior' | 'fleet'; failures: number; classStepFactor: number; shape: number; text: string };
   comparisons: { inspectionId: number; position: string; adhesionPct: number | null; predictedNsPerM: number | null; measuredNsPerM: number | null; nominalNsPerM: number; note: string | null; verdict: string; at: string | null; basis: string | null }[];
   workRecords: WorkRecord[];
 }

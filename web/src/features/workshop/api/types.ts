@@ -12,9 +12,24 @@ export interface CornerState {
   state: 'ok' | 'watch' | 'due' | 'past_life';
   thresholdDate: string | null;
   endOfLifeDate: string | null;
+  /** P10–P90 range of the end-of-life date from the fitted scatter. */
+  endOfLifeP10Date: string | null;
+  endOfLifeP90Date: string | null;
+  /** Share of life used before the trips on record (opening wear); null before the nightly job. */
+  openingShare: number | null;
+  /** Median life [km] at the damper's own recent road mix (on the rated road before the nightly job). */
   lifeKm: number;
-  lifeSource: string;
+  lifeSource: LifeSource;
 }
+
+/** Where a damper's life comes from: the trade's prior, the fit to the fleet's removals, or a test-lane result on it. */
+export type LifeSource = 'prior' | 'fleet' | 'test-lane';
+
+export const LIFE_SOURCE_WORDS: Record<LifeSource, string> = {
+  prior: "trade's prior",
+  fleet: "fleet's removals",
+  'test-lane': 'test lane (calibrated)',
+};
 
 export interface InspectionListItem {
   id: number;
@@ -87,7 +102,6 @@ export interface WorkshopOptions {
   removalReasons: string[];
   laneFlagPoints: number;
   attachmentMaxBytes: number;
-  fleetLifeMinRemovals: number;
 }
 
 export const workshopKeys = {
@@ -100,6 +114,7 @@ export const workshopKeys = {
   forecast: (days: number) => [...workshopKeys.all, 'forecast', days] as const,
   workload: (weeks: number) => [...workshopKeys.all, 'workload', weeks] as const,
   fleetLife: (specId: number) => [...workshopKeys.all, 'fleet-life', specId] as const,
+  lifeBacktest: (specId: number) => [...workshopKeys.all, 'life-backtest', specId] as const,
   modelCheck: () => [...workshopKeys.all, 'model-check'] as const,
 };
 

@@ -4,8 +4,17 @@ import { ErrorState } from '@/components/ui/error-state';
 import { LoadingState } from '@/components/ui/loading-state';
 import { Section } from '@/components/ui/section';
 import { SimpleTable } from '@/components/ui/simple-table';
-import { formatDate, formatNumber, formatPercent } from '@/lib/format';
-import { useVehicleWorkshop } from '../api/get-vehicle-workshop';
+import { formatDate, formatNumber } from '@/lib/format';
+import { useVehicleWorkshop, type VehicleWorkshop } from '../api/get-vehicle-workshop';
+import { LIFE_SOURCE_WORDS } from '../api/types';
+
+/** The life model behind the corners, in words. */
+function lifeWords(l: VehicleWorkshop['life']): string {
+  const shape = `${formatNumber(l.classStepFactor, 2)}× shorter per ISO 8608 class step rougher, Weibull shape ${formatNumber(l.shape, 1)}`;
+  return l.source === 'fleet'
+    ? `Life used is measured against this spec's life model, fitted to the fleet's own removals (${l.failures} for wear): ${shape}. A test-lane result calibrates the corner it was taken on.`
+    : `Life used is measured against the trade's prior for this spec (no removal for wear on record yet): the rated km on class B roads at 80 km/h, ${shape}. A test-lane result calibrates the corner it was taken on.`;
+}
 
 /** The vehicle page's workshop part: life used and its source, predicted vs measured damping, work records. */
 export function VehicleWorkshopPanel({ vehicleId, workRecordPath }: { vehicleId: number; workRecordPath: (id: number) => string }) {
@@ -15,18 +24,36 @@ export function VehicleWorkshopPanel({ vehicleId, workRecordPath }: { vehicleId:
   const d = q.data;
   return (
     <>
-      <Section title="Damper state and the life it rests on" description={d.life.text}>
+      <Section title="Damper state and the life it rests on" description={lifeWords(d.life)}>
         <SimpleTable
           label="Damper state per corner"
           rows={d.corners}
           getRowKey={(c) => c.damperId}
           columns={[
             { key: 'p', header: 'Corner', cell: (c) => c.position, rowHeader: true },
-            { key: 'u', header: 'Life used', unit: '%', numeric: true, cell: (c) => formatPercent(c.lifeUsedFraction).replace(' %', '').replace('%', '') },
+            { key: 'u', header: 'Life used', unit: '%', numeric: true, cell: (c) => formatNumber(c.lifeUsedFraction * 100) },
             { key: 'c', header: 'Predicted damping', unit: 'N·s/m', numeric: true, cell: (c) => formatNumber(c.dampingNsPerM) },
             { key: 'km', header: 'Since fitted', unit: 'km', numeric: true, cell: (c) => formatNumber(c.kmSinceFitted) },
-            { key: 'l', header: 'Life', unit: 'km', numeric: true, cell: (c) => formatNumber(c.lifeKm) },
-            { key: 's', header: 'Life source', cell: (c) => (c.lifeSource === 'test-lane' ? 'test lane (calibrated)' : c.lifeSource === 'fleet' ? 'fleet-blended' : 'rated') },
+            { key: 'l', header: 'Expected life on its roads', unit: 'km', numeric: true, cell: (c) => formatNumber(c.lifeKm) },
+            {
+              key: 'e',
+              header: 'End of life',
+              cell: (c) =>
+                c.endOfLifeDate ? (
+                  <>
+                    {formatDate(c.endOfLifeDate)}
+                    {c.endOfLifeP10Date && c.endOfLifeP90Date && c.endOfLifeP10Date !== c.endOfLifeP90Date ? (
+                      <span className="block text-xs whitespace-nowrap text-slate">
+                        P10–P90 {formatDate(c.endOfLifeP10Date)} – {formatDate(c.endOfLifeP90Date)}
+                      </span>
+                    ) : null}
+                  </>
+                ) : (
+                  'not predicted'
+                ),
+            },
+            { key: 'o', header: 'Worn before the records', unit: '%', numeric: true, cell: (c) => (c.openingShare === null ? '—' : formatNumber(c.openingShare * 100)) },
+            { key: 's', header: 'Life from', cell: (c) => LIFE_SOURCE_WORDS[c.lifeSource] ?? c.lifeSource },
             { key: 'b', header: 'Basis', cell: (c) => c.basis },
           ]}
         />

@@ -1,0 +1,177 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
+import { run as runNightly } from '../../jobs/nightly';
+import { DEMO, expectHeading, expectPath, signIn } from './helpers';
+
+let server: TestServer;
+let browser: Browser;
+
+beforeAll(async () => {
+  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
+  // the nightly run fits each spec's life model and predicts every damper's wear
+  const r = await runNightly({ db: server.db, config: server.config, log: server.log, mailer: server.mailer, now: TEST_NOW, trigger: 'test' });
+  expect(r.status).toBe('succeeded');
+}, 240_000);
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+/** The page's figures as the app formats them (en-GB, no decimals). */
+const km = (x: number) => Math.round(x).toLocaleString('en-GB');
+
+interface LifeTableRow {
+  cls: string;
+  medianKm: number;
+  p10Km: number;
+  p90Km: number;
+  priorMedianKm: number;
+}
+
+async function apiJson<T>(page: Page, path: string): Promise<T> {
+  const res = await page.request.get(`${server.url}${path}`);
+  expect(res.status(), path).toBe(200);
+  return (await res.json()) as T;
+}
+
+describe('damper life in the browser', () => {
+  it('when a manager opens the damper-life page, then it shows the life per ISO class of the fitted model against the prior, and links to the back-test of the same spec', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    const specs = await apiJson<{ items: { id: number; name: string }[] }>(page, '/api/specs?pageSize=200');
+    const truck = specs.items.find((s) => /truck/i.test(s.name));
+    expect(truck, specs.items.map((s) => s.name).join(', ')).toBeDefined();
+    if (!truck) return;
+
+    await page.goto(`${server.url}/damper-life`);
+    await expectHeading(page, 'Damper life from the fleet');
+    await page.getByLabel('Spec').selectOption({ label: truck.name });
+    await page.waitForURL((u) => u.searchParams.get('specId') === String(truck.id));
+    const life = await apiJson<{ lifeTable: LifeTableRow[]; comparison: { disagrees: boolean; ratio: number | null } }>(page, `/api/fleet-life?specId=${truck.id}`);
+
+    const table = page.getByRole('table', { name: 'Damper life per ISO 8608 road class at 80 km/h' });
+    await table.waitFor();
+    // the truck's rows, not the first spec's, once the picked spec has loaded
+    await table.getByRole('row', { name: /class B/ }).getByText(km(life.lifeTable[1].medianKm), { exact: true }).waitFor();
+    const rows = await table.locator('tbody tr').allInnerTexts();
+    expect(rows).toHaveLength(4);
+    life.lifeTable.forEach((r, i) => {
+      expect(rows[i]).toContain(`ISO 8608 class ${r.cls}`);
+      expect(rows[i]).toContain(km(r.medianKm));
+      expect(rows[i]).toContain(`${km(r.p10Km)}–${km(r.p90Km)}`);
+      expect(rows[i]).toContain(km(r.priorMedianKm));
+    });
+    // rougher roads, shorter life
+    const medians = life.lifeTable.map((r) => r.medianKm);
+    expect(medians.slice(1).every((m, i) => m < medians[i])).toBe(true);
+
+    // the model against the fleet's history, in plain words either way
+    await page.getByRole('heading', { name: "The model against the fleet's history" }).waitFor();
+    await page.getByText(life.comparison.disagrees ? /differ by more than 1\.5×/ : /agree within a factor 1\.5/).first().waitFor();
+    await page.getByRole('heading', { name: 'Assumptions' }).waitFor();
+    await page.getByRole('figure', { name: 'Weibull probability plot of the removals in km' }).waitFor();
+    expect(await page.getByRole('main').innerText()).not.toMatch(/\bMJ\b|\benergy\b|blend/i);
+    await page.screenshot({ path: screenshotPath('manager-desktop-damper-life-truck'), fullPage: true });
+
+    await page.getByRole('link', { name: 'How good are these predictions? → back-test' }).click();
+    await expectPath(page, '/damper-life/back-test');
+    await expectHeading(page, 'How good are the life predictions?');
+    expect(new URL(page.url()).searchParams.get('specId')).toBe(String(truck.id));
+    expect(await page.getByLabel('Spec').inputValue()).toBe(String(truck.id));
+    await context.close();
+  }, 120_000);
+
+  it('when a mechanic opens the back-test, then it shows the median error and the share inside P10–P90 against the prior, one table row per removal, and the method', async () => {
+    const context = await newContext(browser, 'tablet');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.mechanic);
+    await page.goto(`${server.url}/damper-life/back-test`);
+    await expectHeading(page, 'How good are the life predictions?');
+    await page.getByText('Median error of the predicted life', { exact: true }).waitFor();
+    const specId = Number(await page.getByLabel('Spec').inputValue());
+    expect(specId).toBeGreaterThan(0);
+    const bt = await apiJson<{ points: unknown[]; mdape: number | null; insideShare: number | null; prior: { mdape: number | null; insideShare: number | null }; method: string }>(
+      page,
+      `/api/life-backtest?specId=${specId}`,
+    );
+    // the demo fleet has removals for wear on every spec
+    expect(bt.points.length).toBeGreaterThan(0);
+    expect(bt.mdape).not.toBeNull();
+
+    // each figure card: its label, then its value and the prior's beside it
+    const error = page.getByText('Median error of the predicted life', { exact: true }).locator('xpath=..');
+    await expect(error.innerText()).resolves.toMatch(new RegExp(`^Median error of the predicted life\\s+${Math.round(bt.mdape!)}\\s*%`));
+    await expect(error.innerText()).resolves.toContain(`The prior alone: ${Math.round(bt.prior.mdape!)} %`);
+    const inside = page.getByText('Removals inside the predicted P10–P90', { exact: true }).locator('xpath=..');
+    await expect(inside.innerText()).resolves.toMatch(new RegExp(`^Removals inside the predicted P10–P90\\s+${Math.round(bt.insideShare! * 100)}\\s*%`));
+    await expect(inside.innerText()).resolves.toContain(`The prior alone: ${Math.round(bt.prior.insideShare! * 100)} %`);
+
+    await page.getByRole('figure', { name: /Predicted against actual life of each removal/ }).waitFor();
+    const table = page.getByRole('table', { name: /Back-test: predicted and actual life/ });
+    await expect(table.locator('tbody tr').count()).resolves.toBe(bt.points.length);
+    await page.getByText(bt.method).waitFor();
+    await page.screenshot({ path: screenshotPath('mechanic-tablet-life-backtest'), fullPage: true });
+
+    // back to the damper-life page on the same spec
+    await page.getByRole('main').getByRole('link', { name: 'Damper life' }).click();
+    await expectHeading(page, 'Damper life from the fleet');
+    expect(new URL(page.url()).searchParams.get('specId')).toBe(String(specId));
+    await context.close();
+  }, 120_000);
+
+  it('when a driver opens the back-test by its address, then it is not available to them', async () => {
+    const context = await newContext(browser, 'phone');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.driver);
+    await page.goto(`${server.url}/damper-life/back-test`);
+    await expectHeading(page, 'Not available for your role');
+    await context.close();
+  }, 60_000);
+
+  it("when a manager opens a vehicle's wear, then each damper reads in km, km/day, road severity and dates with a P10–P90 range, and nothing in energy", async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    const list = await apiJson<{ items: { id: number; fleetNumber: string }[] }>(page, '/api/vehicles?q=CV-106&page=1&pageSize=5');
+    const v = list.items.find((x) => x.fleetNumber === 'CV-106');
+    expect(v).toBeDefined();
+    if (!v) return;
+    const wear = await apiJson<{
+      dampers: { position: string; prediction: { lifeKm: number | null; kmPerDay: number; severity: number | null; endOfLifeDate: string | null; endOfLifeP10Date: string | null; endOfLifeP90Date: string | null; governedBy: string } | null }[];
+    }>(page, `/api/vehicles/${v.id}/wear`);
+    const rl = wear.dampers.find((d) => d.position === 'RL');
+    expect(rl?.prediction?.lifeKm).toBeGreaterThan(0);
+
+    await page.goto(`${server.url}/vehicles/${v.id}`);
+    await expectHeading(page, 'CV-106');
+    const region = page.getByRole('region', { name: 'Damper wear', exact: true });
+    await region.getByRole('figure', { name: /Consumed life of the RL damper/ }).waitFor();
+    const card = region.locator('div.rounded-md', { has: page.getByRole('heading', { name: 'RL damper' }) });
+    const text = await card.innerText();
+    const p = rl!.prediction!;
+    expect(text).toMatch(/of its expected life/);
+    expect(text).toContain('Expected life on its roads');
+    // a number and its unit may be kept together by a no-break space
+    expect(text).toMatch(new RegExp(`${km(p.lifeKm!)}\\s+km`));
+    expect(text).toMatch(new RegExp(`${km(p.kmPerDay)}\\s+km/day`));
+    expect(text).toMatch(/Road severity \(last \d+ days\)/);
+    expect(text).toContain(`${p.severity!.toFixed(2)}×`);
+    expect(text).toMatch(/P10–P90: \d{1,2} \w{3} \d{4} – \d{1,2} \w{3} \d{4}/);
+    if (p.governedBy === 'calendar') expect(text).toContain('(calendar limit)');
+    expect(text).toMatch(/Worn before the records\s+\d+\s%\sof its life/);
+    // the wear chart marks the end-of-life range
+    const caption = await region.getByRole('figure', { name: /Consumed life of the RL damper/ }).locator('figcaption').innerText();
+    expect(caption).toMatch(/Shaded: end of life between/);
+
+    const all = await region.innerText();
+    expect(all).not.toMatch(/kJ|\bMJ\b|J\/km|energy/i);
+    const routes = await page.getByRole('table', { name: 'Damper duty by route' }).innerText();
+    expect(routes).toContain('Road severity');
+    expect(routes).not.toMatch(/J\/km|energy/i);
+    await page.screenshot({ path: screenshotPath('manager-desktop-vehicle-wear-km'), fullPage: true });
+    await context.close();
+  }, 120_000);
+});
