@@ -32,7 +32,7 @@ describe('workshop', () => {
     const mgrCtx = await newContext(browser, 'desktop');
     const mgr = await mgrCtx.newPage();
     await signIn(mgr, server.url, DEMO.manager);
-    const before = (await (await mgr.request.get(`${server.url}/api/forecast`)).json()) as { totals: { replacements: number }; items: { vehicleId: number; fleetNumber: string; position: string }[] };
+    const before = (await (await mgr.request.get(`${server.url}/api/forecast`)).json()) as { totals: { replacements: number }; items: { vehicleId: number; damperId: number; fleetNumber: string; position: string; chance: number }[] };
     // a vehicle whose front dampers are due for replacement (the work below replaces the front pair)
     const target = before.items.find((i) => i.position === 'FL' || i.position === 'FR');
     expect(target, JSON.stringify(before.items.slice(0, 5))).toBeDefined();
@@ -114,8 +114,12 @@ describe('workshop', () => {
     const flRow = mgr.getByRole('table', { name: 'Damper state per corner' }).getByRole('row', { name: /^FL/ });
     await expect(flRow.innerText()).resolves.toMatch(/\b0\b/);
     await mgr.screenshot({ path: screenshotPath('manager-desktop-vehicle-workshop'), fullPage: true });
-    const after = (await (await mgr.request.get(`${server.url}/api/forecast`)).json()) as { totals: { replacements: number } };
-    expect(after.totals.replacements).toBeLessThan(before.totals.replacements);
+    const after = (await (await mgr.request.get(`${server.url}/api/forecast`)).json()) as { totals: { replacements: number }; items: { damperId: number; vehicleId: number; position: string }[] };
+    // the replaced front pair leaves the forecast; the new dampers start with no wear
+    const replaced = before.items.filter((i) => i.vehicleId === target.vehicleId && (i.position === 'FL' || i.position === 'FR')).map((i) => i.damperId);
+    expect(replaced.length).toBeGreaterThan(0);
+    expect(after.items.filter((i) => replaced.includes(i.damperId))).toEqual([]);
+    expect(after.items.filter((i) => i.vehicleId === target.vehicleId && (i.position === 'FL' || i.position === 'FR'))).toEqual([]);
     await mgr.goto(`${server.url}/planning`);
     await mgr.getByText(new RegExp(`about ${after.totals.replacements.toFixed(1).replace('.', '\\.')} damper replacements expected`)).waitFor();
 
