@@ -298,7 +298,7 @@ export async function specLife(specId: number, specName: string, settings: LifeS
     assumptions: [
       'Severity 1 is ISO 8608 class B (mean) at 80 km/h, unladen: the road the rated km is stated on. Severity follows the rod sliding distance per km (twice per ISO class step) with a heat factor above 16× the reference damper power.',
       `Prior: median life = rated km at severity 1; ${settings.prior.classStepFactor}× shorter per class step (makers' severe-service schedules commonly halve intervals); Weibull shape ${settings.prior.shape}; it weighs as much as ${settings.prior.removals} removals.`,
-      `Removals for ${WEAR_REASONS.join(', ')} count as failures; ${CENSORED_REASONS.join(', ')} and dampers still fitted count as still running (censored).`,
+      `Removals for wear (recorded as: ${WEAR_REASONS.join('; ')}) count as failures; removals recorded as ${CENSORED_REASONS.join('; ')}, and dampers still fitted, count as still running (censored).`,
       "A damper's road mix is its own duty record where it has one; the distance before the records takes its vehicle's recorded mix at the same position, or severity 1 when the vehicle has no trips on record.",
       `Calendar limit: ${settings.calendarYears} years from fitting whatever the distance (common practice: 5–7 years).`,
       'A prediction is a planning aid, not a verdict on a damper: a qualified inspection, the maker\'s requirements and local regulations decide whether a damper stays in service.',
