@@ -11,16 +11,17 @@
  * - `adhesion --spec <file.json> [--amplitude-mm a]`
  * - `damping-from-adhesion --spec <file.json> --adhesion <pct> [--amplitude-mm a]`
  * - `exposure --trips <file.json>`
+ * - `roughness (--iri <m/km> | --gd <m³>) [--dx-m <interval>]`
  *
  * @module
  */
 import { readFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { pathToFileURL } from 'node:url';
-import { iri, iriSegments } from './iri';
+import { gdFromIri, iri, iriFromGd, iriSegments, IRI_CONVERSION_DX_M } from './iri';
 import { rainflow } from './fatigue';
 import { prepareDuty, dutyOnRoad, type DutyResult } from './closed-form';
-import { gdForClass, synthesizeProfile } from './iso8608';
+import { classifyGd, gdForClass, synthesizeProfile } from './iso8608';
 import { simulateProfile } from './simulate';
 import { modes } from './quarter-car';
 import { adhesionPct, dampingFromAdhesion } from './adhesion';
@@ -47,6 +48,7 @@ const USAGE = `usage: cli <command> [args]
   adhesion --spec <file.json> [--amplitude-mm a]
   damping-from-adhesion --spec <file.json> --adhesion <pct> [--amplitude-mm a]
   exposure --trips <file.json>
+  roughness (--iri <m/km> | --gd <m3>) [--dx-m <profile interval, default 0.05>]
   weibull <file.csv>   (columns life, failed: 1 removal, 0 still running)`;
 
 function readText(path: string, what: string): string {
@@ -259,6 +261,21 @@ export function runCommand(argv: string[]): unknown {
       if (!Array.isArray(trips)) throw new PhysicsInputError('trips', 'JSON', 'must be a list of { "weightedAccel", "hours" }');
       const a8 = dailyA8(trips as ExposureTrip[]);
       return { a8, actionValue: EXPOSURE_ACTION_VALUE, limitValue: EXPOSURE_LIMIT_VALUE, status: exposureStatus(a8) };
+    }
+    case 'roughness': {
+      const { values } = parse(rest, { iri: { type: 'string' }, gd: { type: 'string' }, 'dx-m': { type: 'string' } }, 0);
+      const iriArg = str(values.iri);
+      const gdArg = str(values.gd);
+      if ((iriArg === undefined) === (gdArg === undefined)) throw new CliUsageError('give exactly one of --iri <m/km> or --gd <m3>');
+      const dxM = values['dx-m'] === undefined ? IRI_CONVERSION_DX_M : num(str(values['dx-m']), 'dx-m', 'm');
+      if (iriArg !== undefined) {
+        const v = num(iriArg, 'iri', 'm/km');
+        const gdN0 = gdFromIri(v, dxM);
+        return { iri: v, gdN0, class: classifyGd(gdN0) };
+      }
+      const gdN0 = num(gdArg, 'gd', 'm³');
+      if (!(gdN0 > 0)) throw new PhysicsInputError('gd', 'm³', `must be above 0, got ${gdN0}`);
+      return { iri: iriFromGd(gdN0, dxM), gdN0, class: classifyGd(gdN0) };
     }
     case 'weibull': {
       const { positionals } = parse(rest, {}, 1);

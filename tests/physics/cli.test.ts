@@ -6,6 +6,7 @@ import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { prepareDuty, dutyOnRoad } from '../../server/physics/closed-form';
 import { adhesionPct } from '../../server/physics/adhesion';
+import { iriFromGd } from '../../server/physics/iri';
 import { checkClose, checkThat, CAR } from './check';
 
 const ROOT = resolve(fileURLToPath(new URL('../..', import.meta.url)));
@@ -91,6 +92,23 @@ describe('cli', () => {
     const ex = cli('exposure', '--trips', trips);
     checkClose(ex.json?.a8 as number, Math.sqrt((0.36 * 3 + 0.25 * 4) / 8), { rel: 1e-12 }, 'Directive 2002/44/EC Annex B', {});
     checkThat(ex.json?.actionValue === 0.5 && ex.json?.limitValue === 1.15 && ex.json?.status === 'exceeds-action-value', 'Directive 2002/44/EC Art. 3', ex.stdout);
+  });
+
+  it('when roughness converts an IRI or a Gd(n0), then it prints iri, gdN0 and class consistent with the golden car (computed, physics.md §2) and refuses both or neither', () => {
+    const a = cli('roughness', '--gd', '256e-6');
+    checkThat(a.code === 0, 'cli contract', `exit ${a.code}, stderr "${a.stderr}"`);
+    checkClose(a.json?.iri as number, iriFromGd(256e-6), { rel: 1e-12 }, 'computed', {});
+    checkThat(a.json?.class === 'C' && a.json?.gdN0 === 256e-6, 'ISO 8608 class C mean', JSON.stringify(a.json));
+    const b = cli('roughness', '--iri', String(a.json?.iri));
+    checkClose(b.json?.gdN0 as number, 256e-6, { rel: 1e-9 }, 'property: inverse', {});
+    checkThat(b.json?.class === 'C', 'ISO 8608 class C', JSON.stringify(b.json));
+    // 12 m/km: √(12/542.7)² ≈ 489e-6 m³, upper class C (computed)
+    const c = cli('roughness', '--iri', '12');
+    checkThat(c.json?.class === 'C', 'computed', JSON.stringify(c.json));
+    const d = cli('roughness', '--iri', '12', '--gd', '1e-4');
+    checkThat(d.code === 2 && d.stdout === '' && d.stderr.includes('exactly one'), 'cli contract', `exit ${d.code} "${d.stderr}"`);
+    const e = cli('roughness', '--iri', 'x');
+    checkThat(e.code === 1 && e.stderr.includes('iri'), 'cli contract', `exit ${e.code} "${e.stderr}"`);
   });
 
   it('when the spec is invalid, the profile uneven or the command unknown, then stdout is empty and stderr explains with a non-zero exit', () => {
