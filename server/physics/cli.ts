@@ -45,7 +45,7 @@ const USAGE = `usage: cli <command> [args]
   rainflow <series.csv>
   duty --spec <file.json> (--class C | --gd <m3>) --speed-kmh <v> [--method closed-form|time] [--distance-km <d>] [--seed <n>]
   modes --spec <file.json>
-  adhesion --spec <file.json> [--amplitude-mm a]
+  adhesion --spec <file.json> [--amplitude-mm a, zero-to-peak, default 3]
   damping-from-adhesion --spec <file.json> --adhesion <pct> [--amplitude-mm a]
   exposure --trips <file.json>
   roughness (--iri <m/km> | --gd <m3>) [--dx-m <profile interval, default 0.05>]

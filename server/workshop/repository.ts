@@ -83,10 +83,10 @@ export const workshopRepository = {
     const [r] = await q<{
       id: number; vehicle_id: number; due_date: string; status: string; reason: string; assignee_id: number | null; assigned_depot_id: number | null;
       completed_at: string | null; odometer_km: number | null; notes: string | null; trigger: string | null; basis: string | null; results_at: string | null;
-      results_by_id: number | null; vehicle_depot_id: number; fleet_number: string; plate: string; spec_id: number; vehicle_odometer_km: number; vehicle_status: string;
+      results_by_id: number | null; plate_amplitude_mm: number | null; vehicle_depot_id: number; fleet_number: string; plate: string; spec_id: number; vehicle_odometer_km: number; vehicle_status: string;
     }>(
       `SELECT i.id, i.vehicle_id, i.due_date, i.status, i.reason, i.assignee_id, i.assigned_depot_id, i.completed_at, i.odometer_km, i.notes, i."trigger", i.basis,
-              i.results_at, i.results_by_id, v.depot_id AS vehicle_depot_id, v.fleet_number, v.plate, v.spec_id, v.odometer_km AS vehicle_odometer_km, v.status AS vehicle_status
+              i.results_at, i.results_by_id, i.plate_amplitude_mm, v.depot_id AS vehicle_depot_id, v.fleet_number, v.plate, v.spec_id, v.odometer_km AS vehicle_odometer_km, v.status AS vehicle_status
        FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id WHERE i.id = ?`,
       [id],
       transaction,

@@ -36,6 +36,7 @@ const resultsBody = z
     odometerKm: odometer,
     notes: z.string().trim().max(4000, 'must be 4000 characters or fewer').nullish(),
     complete: z.boolean({ message: 'must be true or false' }).optional(),
+    plateAmplitudeMm: z.number({ message: 'must be a number in mm' }).min(0.5, 'must be 0.5–10 mm (zero-to-peak: half the stroke)').max(10, 'must be 0.5–10 mm (zero-to-peak: half the stroke)').optional(),
     corners: z
       .array(
         z
@@ -206,6 +207,6 @@ export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: (
   });
 
   r.get('/workshop/options', allow('manager', 'mechanic'), (_req, res) => {
-    res.json({ findings: FINDINGS, verdicts: VERDICTS, removalReasons: REMOVAL_REASONS, laneFlagPoints: cfg.laneFlagPoints, attachmentMaxBytes: cfg.attachmentMaxBytes, fleetLifeMinRemovals: cfg.fleetLifeMinRemovals });
+    res.json({ findings: FINDINGS, verdicts: VERDICTS, removalReasons: REMOVAL_REASONS, laneFlagPoints: cfg.laneFlagPoints, lanePlateAmplitudeMm: cfg.lanePlateAmplitudeMm, attachmentMaxBytes: cfg.attachmentMaxBytes, fleetLifeMinRemovals: cfg.fleetLifeMinRemovals });
   });
 }

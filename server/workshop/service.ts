@@ -87,10 +87,11 @@ const cornerParams = (r: FittedCornerRow): CornerParams => ({
  *
  * @param c corner with its nominal damping [N·s/m]
  * @param pct measured adhesion [%]
+ * @param plateAmplitudeMm plate amplitude (zero-to-peak) of the lane that measured it [mm]
  */
-export function estimateDamping(c: CornerParams, pct: number): { dampingNsPerM: number | null; note: string | null } {
+export function estimateDamping(c: CornerParams, pct: number, plateAmplitudeMm: number): { dampingNsPerM: number | null; note: string | null } {
   try {
-    return { dampingNsPerM: dampingFromAdhesion(c, pct).dampingNsPerM, note: null };
+    return { dampingNsPerM: dampingFromAdhesion(c, pct, { amplitudeM: plateAmplitudeMm / 1000 }).dampingNsPerM, note: null };
   } catch (e) {
     if (e instanceof NoDampingSolutionError) return { dampingNsPerM: null, note: e.message.replace(/^physics: /, '') };
     return { dampingNsPerM: null, note: `no estimate: ${(e as Error).message}` };
@@ -220,6 +221,8 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         assignedDepotId: i.assigned_depot_id,
         odometerKm: i.odometer_km,
         notes: i.notes,
+        /** Plate amplitude the results were measured (and inverted) at [mm]; the lane's setting until results exist. */
+        plateAmplitudeMm: i.plate_amplitude_mm ?? cfg.lanePlateAmplitudeMm,
         resultsAt: iso(i.results_at),
         completedAt: iso(i.completed_at),
         predicted: by.get(i.vehicle_id) ?? [],
@@ -260,7 +263,10 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
     async recordResults(
       user: SessionUser,
       id: number,
-      body: { odometerKm: number; notes?: string | null; complete?: boolean; corners: { position: string; adhesionPct: number | null; findings: string[]; verdict: string }[] },
+      body: {
+        odometerKm: number; notes?: string | null; complete?: boolean; plateAmplitudeMm?: number;
+        corners: { position: string; adhesionPct: number | null; findings: string[]; verdict: string }[];
+      },
     ) {
       const i = await workshopRepository.inspectionRow(id);
       if (!i) throw AppError.notFound('Inspection');
@@ -274,10 +280,12 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         if (!rows.some((r) => r.position === c.position)) fields[`corners.${k}.position`] = `the vehicle has no damper fitted at ${c.position}`;
       });
       if (Object.keys(fields).length) throw AppError.badRequest('Some corners do not exist on this vehicle.', fields);
+      // each value is inverted at the amplitude of the lane that measured it (the lane's setting unless the mechanic gives the rig's own)
+      const amplitudeMm = body.plateAmplitudeMm ?? cfg.lanePlateAmplitudeMm;
       const computed = body.corners.map((c) => {
         const r = rows.find((x) => x.position === c.position)!;
         const st = cornerState(r, lives, cfg.inspectionThreshold);
-        const est = c.adhesionPct === null ? { dampingNsPerM: null, note: null } : estimateDamping(cornerParams(r), c.adhesionPct);
+        const est = c.adhesionPct === null ? { dampingNsPerM: null, note: null } : estimateDamping(cornerParams(r), c.adhesionPct, amplitudeMm);
         return { c, r, st, est };
       });
       await inTransaction(async (t) => {
@@ -303,8 +311,8 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
           }
         }
         await exec(
-          `UPDATE inspections SET odometer_km = ?, notes = ?, results_at = ?, results_by_id = ?, updated_at = ?${body.complete ? `, status = 'done', completed_at = ?` : ''} WHERE id = ?`,
-          [body.odometerKm, body.notes ?? null, stamp(now), user.id, stamp(now), ...(body.complete ? [stamp(now)] : []), id],
+          `UPDATE inspections SET odometer_km = ?, notes = ?, plate_amplitude_mm = ?, results_at = ?, results_by_id = ?, updated_at = ?${body.complete ? `, status = 'done', completed_at = ?` : ''} WHERE id = ?`,
+          [body.odometerKm, body.notes ?? null, amplitudeMm, stamp(now), user.id, stamp(now), ...(body.complete ? [stamp(now)] : []), id],
           t,
         );
         await exec('UPDATE vehicles SET odometer_km = MAX(odometer_km, ?), updated_at = ? WHERE id = ?', [body.odometerKm, stamp(now), i.vehicle_id], t);
@@ -559,9 +567,9 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       if (!v) throw AppError.notFound('Vehicle');
       const { by, lives } = await cornersOf([vehicleId]);
       const life = lives.get(v.spec_id)!;
-      const comparisons = await q<{ inspection_id: number; position: string; adhesion_pct: number | null; predicted: number | null; measured: number | null; nominal: number; note: string | null; verdict: string; at: string | null; basis: string | null }>(
+      const comparisons = await q<{ inspection_id: number; position: string; adhesion_pct: number | null; predicted: number | null; measured: number | null; nominal: number; note: string | null; verdict: string; at: string | null; basis: string | null; amplitude: number | null }>(
         `SELECT c.inspection_id, c.position, c.adhesion_pct, c.predicted_damping_ns_per_m AS predicted, c.measured_damping_ns_per_m AS measured, c.nominal_damping_ns_per_m AS nominal,
-                c.estimate_note AS note, c.verdict, COALESCE(i.results_at, i.completed_at) AS at, c.predicted_basis AS basis
+                c.estimate_note AS note, c.verdict, COALESCE(i.results_at, i.completed_at) AS at, c.predicted_basis AS basis, i.plate_amplitude_mm AS amplitude
          FROM inspection_corners c JOIN inspections i ON i.id = c.inspection_id WHERE i.vehicle_id = ? ORDER BY i.results_at DESC, c.axle_index, c.position`,
         [vehicleId],
       );
@@ -583,7 +591,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
             ? `Life used: fleet-blended (${(life.blend.weight * 100).toFixed(0)} % weight on ${life.blend.failures} removals of this spec), ${life.blend.axles.map((a) => `axle ${a.axleIndex + 1}: ${Math.round(a.usedKm).toLocaleString('en-GB')} km`).join(', ')}.`
             : `Life used: rated (${life.blend.axles.map((a) => `axle ${a.axleIndex + 1}: ${Math.round(a.ratedKm).toLocaleString('en-GB')} km`).join(', ')}); the fleet's own life takes over from ${life.blend.minRemovals} removals (now ${life.blend.failures}).`,
         },
-        comparisons: comparisons.map((c) => ({ inspectionId: c.inspection_id, position: c.position, adhesionPct: c.adhesion_pct, predictedNsPerM: c.predicted, measuredNsPerM: c.measured, nominalNsPerM: c.nominal, note: c.note, verdict: c.verdict, at: iso(c.at), basis: c.basis })),
+        comparisons: comparisons.map((c) => ({ inspectionId: c.inspection_id, position: c.position, adhesionPct: c.adhesion_pct, predictedNsPerM: c.predicted, measuredNsPerM: c.measured, nominalNsPerM: c.nominal, note: c.note, verdict: c.verdict, at: iso(c.at), basis: c.basis, plateAmplitudeMm: c.amplitude ?? cfg.lanePlateAmplitudeMm })),
         workRecords: (await workshopRepository.workRecords({ vehicleId })).map(workView),
       };
     },

@@ -79,8 +79,11 @@ describe('workshop', () => {
     await mec.getByLabel('Verdict FL').selectOption('replace');
     await mec.getByRole('group', { name: 'Corner FL' }).first().getByLabel(/Oil on the damper body/).check();
     await expect(mec.getByText(/large: over 15 points/).count()).resolves.toBeGreaterThan(0);
+    // the lane's plate amplitude is a setting, shown and sent with the results
+    expect(await mec.getByLabel('Plate amplitude [mm]').inputValue()).toBe('3');
     await mec.getByRole('button', { name: 'Save results' }).click();
     await mec.getByRole('table', { name: 'Predicted and measured damping' }).waitFor();
+    await mec.getByText(/plate amplitude of 3 mm zero-to-peak \(6 mm stroke\)/).first().waitFor();
 
     // A photo, checked by content on the server.
     await mec.getByLabel('Attach a file').setInputFiles({ name: 'front-left-leak.png', mimeType: 'image/png', buffer: PNG });

@@ -84,7 +84,7 @@ describe('cli', () => {
     const m = cli('modes', '--spec', spec);
     checkThat(m.code === 0 && ['bodyHz', 'bodyDampingRatio', 'wheelHz', 'wheelDampingRatio'].every((k) => typeof m.json?.[k] === 'number'), 'issue 3 CLI', m.stdout + m.stderr);
     const ad = cli('adhesion', '--spec', spec, '--amplitude-mm', '6');
-    checkClose(ad.json?.adhesionPct as number, adhesionPct(CAR).adhesionPct, { rel: 1e-12 }, 'computed: library', {});
+    checkClose(ad.json?.adhesionPct as number, adhesionPct(CAR, { amplitudeM: 0.006 }).adhesionPct, { rel: 1e-12 }, 'computed: library', {});
     const worn = adhesionPct({ ...CAR, dampingNsPerM: 1200 }).adhesionPct;
     const inv = cli('damping-from-adhesion', '--spec', spec, '--adhesion', String(worn));
     checkClose(inv.json?.dampingNsPerM as number, 1200, { rel: 1e-4 }, 'computed: round trip', { worn });

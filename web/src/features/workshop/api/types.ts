@@ -70,6 +70,8 @@ export interface InspectionDetail {
   depot: { id: number; name: string } | null;
   odometerKm: number | null;
   notes: string | null;
+  /** Plate amplitude (zero-to-peak) the results were measured and inverted at [mm]. */
+  plateAmplitudeMm: number;
   resultsAt: string | null;
   completedAt: string | null;
   predicted: CornerState[];
@@ -84,6 +86,8 @@ export interface WorkshopOptions {
   verdicts: string[];
   removalReasons: string[];
   laneFlagPoints: number;
+  /** The test lane's plate amplitude setting (zero-to-peak) [mm]. */
+  lanePlateAmplitudeMm: number;
   attachmentMaxBytes: number;
   fleetLifeMinRemovals: number;
 }

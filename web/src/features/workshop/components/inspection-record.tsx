@@ -36,13 +36,14 @@ function differences(corners: CornerDraft[], limit: number) {
 
 export function InspectionRecord({ inspection, options, today, onWorkSaved }: { inspection: InspectionDetail; options: WorkshopOptions; today: string; onWorkSaved: (id: number) => void }) {
   const open = ['scheduled', 'due', 'overdue'].includes(inspection.status);
-  const results = useDraft<{ corners: CornerDraft[]; odometer: string; notes: string }>(`rb-draft:inspection:${inspection.id}:results`, () => ({
+  const results = useDraft<{ corners: CornerDraft[]; odometer: string; notes: string; amplitude: string }>(`rb-draft:inspection:${inspection.id}:results`, () => ({
     corners: inspection.predicted.map((c) => {
       const r = inspection.results.find((x) => x.position === c.position);
       return { position: c.position, axleIndex: c.axleIndex, adhesion: r?.adhesionPct == null ? '' : String(r.adhesionPct), findings: r?.findings ?? [], verdict: r?.verdict ?? 'ok' };
     }),
     odometer: String(Math.round(inspection.odometerKm ?? inspection.vehicle.odometerKm)),
     notes: inspection.notes ?? '',
+    amplitude: String(inspection.resultsAt ? inspection.plateAmplitudeMm : options.lanePlateAmplitudeMm),
   }));
   const work = useDraft<{ parts: PartDraft[]; summary: string; labour: string; odometer: string; date: string; notes: string }>(`rb-draft:inspection:${inspection.id}:work`, () => ({
     parts: inspection.predicted.map((c) => ({ position: c.position, damper: false, spring: false, partDescription: '', partNumber: '', cost: '', removalReason: options.removalReasons[0] })),
@@ -66,6 +67,7 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
       odometerKm: Number(results.value.odometer),
       notes: results.value.notes.trim() || null,
       complete,
+      plateAmplitudeMm: num(results.value.amplitude ?? '') ?? undefined,
       corners: results.value.corners.map((c) => ({ position: c.position, adhesionPct: num(c.adhesion), findings: c.findings, verdict: c.verdict })),
     };
     save.mutate(body, { onSuccess: () => results.clear() });
@@ -114,6 +116,20 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
               submitResults(false);
             }}
           >
+            <label className="mb-3 block max-w-md text-sm font-medium">
+              Plate amplitude of this lane [mm, zero-to-peak]
+              <input
+                className={inputCls}
+                inputMode="decimal"
+                aria-label="Plate amplitude [mm]"
+                value={results.value.amplitude ?? ''}
+                onChange={(e) => results.setValue((v) => ({ ...v, amplitude: e.target.value }))}
+              />
+              <span className="mt-1 block font-normal text-slate">
+                Half the plate&apos;s stroke: a 6 mm stroke is a 3 mm amplitude (the lane&apos;s setting is {formatNumber(options.lanePlateAmplitudeMm, 1)} mm). Each adhesion is turned into a damping at this amplitude.
+              </span>
+            </label>
+            {fieldErr(save.error, 'plateAmplitudeMm') ? <p className="text-sm text-overdue">{fieldErr(save.error, 'plateAmplitudeMm')}</p> : null}
             <div className="grid gap-3 md:grid-cols-2">
               {results.value.corners.map((c, i) => (
                 <fieldset key={c.position} className="rounded-md border border-line p-3">
@@ -222,7 +238,7 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
         </ul>
       </Section>
 
-      {inspection.results.length ? <ResultsTable results={inspection.results} /> : null}
+      {inspection.results.length ? <ResultsTable results={inspection.results} plateAmplitudeMm={inspection.plateAmplitudeMm} /> : null}
 
       {open ? (
         <Section title="Record work" description="Tick the parts you replaced. Saving retires the old dampers, fits the new ones and closes this inspection, all at once.">
@@ -322,9 +338,12 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
 }
 
 /** Predicted against measured damping per corner, with the engine's reason when there is no estimate. */
-export function ResultsTable({ results }: { results: CornerResult[] }) {
+export function ResultsTable({ results, plateAmplitudeMm }: { results: CornerResult[]; plateAmplitudeMm: number }) {
   return (
-    <Section title="Predicted and measured damping" description="Measured = the damping that explains the adhesion on the two-mass model (worn side only).">
+    <Section
+      title="Predicted and measured damping"
+      description={`Measured = the damping that explains the adhesion on the two-mass model, at the lane's plate amplitude of ${formatNumber(plateAmplitudeMm, 1)} mm zero-to-peak (${formatNumber(2 * plateAmplitudeMm, 1)} mm stroke). A reading above what the nominal damping predicts reads as at least new.`}
+    >
       <SimpleTable
         label="Predicted and measured damping"
         rows={results}
