@@ -10,6 +10,8 @@
  * - `modes --spec <file.json>`
  * - `adhesion --spec <file.json> [--amplitude-mm a]`
  * - `damping-from-adhesion --spec <file.json> --adhesion <pct> [--amplitude-mm a]`
+ * - `phase-shift --spec <file.json> [--amplitude-mm a]`
+ * - `damping-from-phase --spec <file.json> --phase-deg <φ>`
  * - `exposure --trips <file.json>`
  * - `roughness (--iri <m/km> | --gd <m³>) [--dx-m <interval>]`
  *
@@ -24,7 +26,8 @@ import { prepareDuty, dutyOnRoad, type DutyResult } from './closed-form';
 import { classifyGd, gdForClass, synthesizeProfile } from './iso8608';
 import { simulateProfile } from './simulate';
 import { modes } from './quarter-car';
-import { adhesionPct, dampingFromAdhesion } from './adhesion';
+import { adhesionPct, dampingFromAdhesion, DEFAULT_PLATE_AMPLITUDE_M } from './adhesion';
+import { dampingFromPhase, phaseShift } from './phase-shift';
 import { dailyA8, exposureStatus, EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE, type ExposureTrip } from './exposure';
 import { PhysicsInputError, validateCorner, type CornerParams } from './types';
 import { weibullCommand } from '../reliability/weibull-cli';
@@ -47,6 +50,8 @@ const USAGE = `usage: cli <command> [args]
   modes --spec <file.json>
   adhesion --spec <file.json> [--amplitude-mm a, zero-to-peak, default 3]
   damping-from-adhesion --spec <file.json> --adhesion <pct> [--amplitude-mm a]
+  phase-shift --spec <file.json> [--amplitude-mm a]   (minimum phase between the resonances)
+  damping-from-phase --spec <file.json> --phase-deg <deg>
   exposure --trips <file.json>
   roughness (--iri <m/km> | --gd <m3>) [--dx-m <profile interval, default 0.05>]
   weibull <file.csv>   (columns life, failed: 1 removal, 0 still running)`;
@@ -252,6 +257,22 @@ export function runCommand(argv: string[]): unknown {
       const pct = num(str(values.adhesion), 'adhesion', '%');
       const amplitudeM = values['amplitude-mm'] === undefined ? undefined : num(str(values['amplitude-mm']), 'amplitude-mm', 'mm') / 1000;
       return dampingFromAdhesion(c, pct, { amplitudeM });
+    }
+    case 'phase-shift': {
+      const { values } = parse(rest, { spec: { type: 'string' }, 'amplitude-mm': { type: 'string' } }, 0);
+      const c = readSpec(str(values.spec));
+      const amplitudeM = values['amplitude-mm'] === undefined ? DEFAULT_PLATE_AMPLITUDE_M : num(str(values['amplitude-mm']), 'amplitude-mm', 'mm') / 1000;
+      // the linear model's phase does not depend on the amplitude; it must still be a plate the wheel stays on
+      if (adhesionPct(c, { amplitudeM }).adhesionPct <= 0) {
+        throw new PhysicsInputError('amplitude-mm', 'mm', `the wheel leaves the plate at ${amplitudeM * 1000} mm amplitude (0 % adhesion): no phase can be measured`);
+      }
+      const r = phaseShift(c);
+      return { minPhaseDeg: r.minPhaseDeg, atHz: r.atHz };
+    }
+    case 'damping-from-phase': {
+      const { values } = parse(rest, { spec: { type: 'string' }, 'phase-deg': { type: 'string' } }, 0);
+      const c = readSpec(str(values.spec));
+      return dampingFromPhase(c, num(str(values['phase-deg']), 'phase-deg', '°'));
     }
     case 'exposure': {
       const { values } = parse(rest, { trips: { type: 'string' } }, 0);

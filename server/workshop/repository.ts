@@ -98,7 +98,7 @@ export const workshopRepository = {
     return q<{
       id: number; inspection_id: number; damper_id: number | null; position: string; axle_index: number; adhesion_pct: number | null; findings: string; verdict: string;
       nominal_damping_ns_per_m: number; predicted_damping_ns_per_m: number | null; predicted_basis: string | null; measured_damping_ns_per_m: number | null;
-      estimate_note: string | null; energy_j_at_test: number | null; life_used_at_test: number | null;
+      estimate_note: string | null; energy_j_at_test: number | null; life_used_at_test: number | null; phase_deg: number | null; estimate_method: string | null;
     }>(`SELECT * FROM inspection_corners WHERE inspection_id IN (${inList(inspectionIds)}) ORDER BY inspection_id, axle_index, position`);
   },
 

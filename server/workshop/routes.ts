@@ -43,6 +43,7 @@ const resultsBody = z
           .object({
             position,
             adhesionPct: z.number({ message: 'must be a number in %' }).min(0, 'must be 0–100 %').max(100, 'must be 0–100 %').nullable(),
+            phaseDeg: z.number({ message: 'must be a number in °' }).min(0, 'must be 0–180°').max(180, 'must be 0–180°').nullish(),
             findings: z.array(z.enum(FINDINGS, { message: `must be one of ${FINDINGS.join(', ')}` })).max(FINDINGS.length).default([]),
             verdict: z.enum(VERDICTS, { message: 'must be ok, monitor or replace' }),
           })

@@ -81,9 +81,12 @@ describe('workshop', () => {
     await expect(mec.getByText(/large: over 15 points/).count()).resolves.toBeGreaterThan(0);
     // the lane's plate amplitude is a setting, shown and sent with the results
     expect(await mec.getByLabel('Plate amplitude [mm]').inputValue()).toBe('3');
+    // a phase-shift reading beside adhesion on one corner
+    await mec.getByLabel('Minimum phase FL [°]').fill('30');
     await mec.getByRole('button', { name: 'Save results' }).click();
     await mec.getByRole('table', { name: 'Predicted and measured damping' }).waitFor();
     await mec.getByText(/plate amplitude of 3 mm zero-to-peak \(6 mm stroke\)/).first().waitFor();
+    await mec.getByRole('cell', { name: '30.0 (fail)' }).waitFor();
 
     // A photo, checked by content on the server.
     await mec.getByLabel('Attach a file').setInputFiles({ name: 'front-left-leak.png', mimeType: 'image/png', buffer: PNG });

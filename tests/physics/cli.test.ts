@@ -7,6 +7,7 @@ import { fileURLToPath } from 'node:url';
 import { prepareDuty, dutyOnRoad } from '../../server/physics/closed-form';
 import { adhesionPct } from '../../server/physics/adhesion';
 import { iriFromGd } from '../../server/physics/iri';
+import { phaseShift } from '../../server/physics/phase-shift';
 import { checkClose, checkThat, CAR } from './check';
 
 const ROOT = resolve(fileURLToPath(new URL('../..', import.meta.url)));
@@ -92,6 +93,21 @@ describe('cli', () => {
     const ex = cli('exposure', '--trips', trips);
     checkClose(ex.json?.a8 as number, Math.sqrt((0.36 * 3 + 0.25 * 4) / 8), { rel: 1e-12 }, 'Directive 2002/44/EC Annex B', {});
     checkThat(ex.json?.actionValue === 0.5 && ex.json?.limitValue === 1.15 && ex.json?.status === 'exceeds-action-value', 'Directive 2002/44/EC Art. 3', ex.stdout);
+  });
+
+  it('when phase-shift and damping-from-phase run, then they print the library figures and a clear error when no damping explains a phase (computed)', () => {
+    const spec = join(dir, 'spec.json');
+    const r = cli('phase-shift', '--spec', spec);
+    checkThat(r.code === 0, 'cli contract', `exit ${r.code}, stderr "${r.stderr}"`);
+    checkClose(r.json?.minPhaseDeg as number, phaseShift(CAR).minPhaseDeg, { rel: 1e-12 }, 'computed: library', {});
+    checkClose(r.json?.atHz as number, phaseShift(CAR).atHz, { rel: 1e-12 }, 'computed: library', {});
+    const worn = phaseShift({ ...CAR, dampingNsPerM: 900 }).minPhaseDeg;
+    const inv = cli('damping-from-phase', '--spec', spec, '--phase-deg', String(worn));
+    checkClose(inv.json?.dampingNsPerM as number, 900, { rel: 1e-4 }, 'computed: round trip', { worn });
+    const bad = cli('damping-from-phase', '--spec', spec, '--phase-deg', '150');
+    checkThat(bad.code === 1 && bad.stdout === '' && bad.stderr.includes('no damping value explains a minimum phase of 150°'), 'cli contract', `exit ${bad.code} "${bad.stderr}"`);
+    const miss = cli('damping-from-phase', '--spec', spec);
+    checkThat(miss.code === 2 && miss.stderr.includes('--phase-deg'), 'cli contract', miss.stderr);
   });
 
   it('when roughness converts an IRI or a Gd(n0), then it prints iri, gdN0 and class consistent with the golden car (computed, physics.md §2) and refuses both or neither', () => {

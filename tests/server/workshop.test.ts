@@ -5,6 +5,8 @@ import { startTestServer, type TestServer } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 import { adhesionPct } from '../../server/physics/adhesion';
 import { estimateDamping } from '../../server/workshop/service';
+import { phaseShift } from '../../server/physics/phase-shift';
+import { estimateFromLane } from '../../server/physics/lane-estimate';
 
 interface Corner { damperId: number; position: string; axleIndex: number; lifeUsedFraction: number; dampingNsPerM: number; nominalNsPerM: number; basis: string }
 interface ListItem { id: number; vehicle: { id: number; fleetNumber: string }; status: string; assignee: { id: number } | null; corners: Corner[] }
@@ -157,6 +159,38 @@ describe('inspections for the mechanic', () => {
     expect(Math.abs(fl.measuredNsPerM! / known - 1), `measured ${fl.measuredNsPerM} vs ${known}`).toBeLessThan(0.005);
     const opts = await mech.get<{ lanePlateAmplitudeMm: number }>('/api/workshop/options');
     expect(opts.body.lanePlateAmplitudeMm).toBe(3);
+  });
+
+  it('when a minimum phase is recorded alone or beside adhesion, then the damping comes from the phase or the better-conditioned reading and says which (computed)', async () => {
+    const mech = await mechanic();
+    const veh = await mech.get<{ vehicle: { specId: number } }>(`/api/vehicles/${inspection.vehicle.id}`);
+    const spec = await mech.get<{ spec: { axles: Axle[] } }>(`/api/specs/${veh.body.vehicle.specId}`);
+    const corner = spec.body.spec.axles.find((a) => a.axleIndex === 0)!.corner;
+    const known = { ...corner, dampingNsPerM: corner.dampingNsPerM * 0.6 };
+    const phase = phaseShift(known).minPhaseDeg;
+    const pct = adhesionPct(known, { amplitudeM: 0.003 }).adhesionPct;
+    type R = { results: { position: string; measuredNsPerM: number | null; phaseDeg: number | null; estimateMethod: string | null; estimateNote: string | null }[] };
+    const res = await mech.json<R>('POST', `/api/inspections/${inspection.id}/results`, {
+      odometerKm: 200000,
+      corners: [
+        { position: 'FL', adhesionPct: null, phaseDeg: phase, findings: [], verdict: 'monitor' },
+        { position: 'FR', adhesionPct: pct, phaseDeg: phase, findings: [], verdict: 'monitor' },
+      ],
+    });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const fl = res.body.results.find((r) => r.position === 'FL')!;
+    expect(fl.estimateMethod).toBe('phase');
+    expect(fl.phaseDeg).toBeCloseTo(phase, 9);
+    expect(Math.abs(fl.measuredNsPerM! / known.dampingNsPerM - 1)).toBeLessThan(0.002);
+    const fr = res.body.results.find((r) => r.position === 'FR')!;
+    const exp = estimateFromLane(corner, { adhesionPct: pct, phaseDeg: phase, amplitudeM: 0.003 });
+    expect(fr.estimateMethod).toBe(exp.method);
+    expect(fr.estimateNote).toMatch(exp.method === 'phase' ? /^from the phase shift/ : /^from adhesion/);
+    const bad = await mech.json<{ error: { fields: Record<string, string> } }>('POST', `/api/inspections/${inspection.id}/results`, {
+      odometerKm: 1, corners: [{ position: 'FL', adhesionPct: null, phaseDeg: 200, findings: [], verdict: 'ok' }],
+    });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields['corners.0.phaseDeg']).toMatch(/0–180/);
   });
 });
 

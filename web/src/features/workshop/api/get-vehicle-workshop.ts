@@ -6,7 +6,7 @@ export interface VehicleWorkshop {
   vehicleId: number;
   corners: CornerState[];
   life: { specId: number; specName: string; used: 'fleet' | 'rated'; text: string; rule: string; failures: number; minRemovals: number };
-  comparisons: { inspectionId: number; position: string; adhesionPct: number | null; predictedNsPerM: number | null; measuredNsPerM: number | null; nominalNsPerM: number; note: string | null; verdict: string; at: string | null; basis: string | null; plateAmplitudeMm: number }[];
+  comparisons: { inspectionId: number; position: string; adhesionPct: number | null; predictedNsPerM: number | null; measuredNsPerM: number | null; nominalNsPerM: number; note: string | null; verdict: string; at: string | null; basis: string | null; plateAmplitudeMm: number; phaseDeg: number | null; estimateMethod: 'adhesion' | 'phase' | null }[];
   workRecords: WorkRecord[];
 }
 

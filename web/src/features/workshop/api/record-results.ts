@@ -8,7 +8,7 @@ export const resultsSchema = z.object({
   notes: z.string().max(4000).nullable(),
   complete: z.boolean().optional(),
   plateAmplitudeMm: z.number().min(0.5).max(10).optional(),
-  corners: z.array(z.object({ position: z.string(), adhesionPct: z.number().min(0).max(100).nullable(), findings: z.array(z.string()), verdict: z.string() })),
+  corners: z.array(z.object({ position: z.string(), adhesionPct: z.number().min(0).max(100).nullable(), phaseDeg: z.number().min(0).max(180).nullable(), findings: z.array(z.string()), verdict: z.string() })),
 });
 export type ResultsInput = z.infer<typeof resultsSchema>;
 

@@ -36,6 +36,10 @@ export interface CornerResult {
   axleIndex: number;
   damperId: number | null;
   adhesionPct: number | null;
+  /** Measured minimum phase angle [°] (phase-shift method). */
+  phaseDeg: number | null;
+  /** Which reading the measured damping came from. */
+  estimateMethod: 'adhesion' | 'phase' | null;
   findings: string[];
   verdict: string;
   nominalNsPerM: number;
@@ -61,7 +65,7 @@ export interface WorkRecord {
 
 export interface InspectionDetail {
   id: number;
-  vehicle: { id: number; fleetNumber: string; plate: string; odometerKm: number; status: string };
+  vehicle: { id: number; fleetNumber: string; plate: string; odometerKm: number; status: string; vehicleClass: string | null };
   dueDate: string;
   status: InspectionListItem['status'];
   reason: string;

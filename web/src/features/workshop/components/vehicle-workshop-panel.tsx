@@ -43,6 +43,8 @@ export function VehicleWorkshopPanel({ vehicleId, workRecordPath }: { vehicleId:
               { key: 'p', header: 'Corner', cell: (c) => c.position, rowHeader: true },
               { key: 'a', header: 'Adhesion', unit: '%', numeric: true, cell: (c) => formatNumber(c.adhesionPct, 1) },
               { key: 'amp', header: 'Plate amplitude', unit: 'mm', numeric: true, cell: (c) => formatNumber(c.plateAmplitudeMm, 1) },
+              { key: 'ph', header: 'Min. phase', unit: '°', numeric: true, cell: (c) => formatNumber(c.phaseDeg, 1) },
+              { key: 'from', header: 'Estimate from', cell: (c) => (c.estimateMethod === 'phase' ? 'phase shift' : c.estimateMethod === 'adhesion' ? 'adhesion' : '') },
               { key: 'pr', header: 'Predicted', unit: 'N·s/m', numeric: true, cell: (c) => formatNumber(c.predictedNsPerM) },
               { key: 'm', header: 'Measured', unit: 'N·s/m', numeric: true, cell: (c) => formatNumber(c.measuredNsPerM) },
               { key: 'n', header: 'Note', cell: (c) => c.note ?? '' },
