@@ -8,6 +8,7 @@ import { prepareDuty, dutyOnRoad } from '../../server/physics/closed-form';
 import { adhesionPct } from '../../server/physics/adhesion';
 import { iriFromGd } from '../../server/physics/iri';
 import { phaseShift } from '../../server/physics/phase-shift';
+import { synthesizeProfile } from '../../server/physics/iso8608';
 import { checkClose, checkThat, CAR } from './check';
 
 const ROOT = resolve(fileURLToPath(new URL('../..', import.meta.url)));
@@ -93,6 +94,24 @@ describe('cli', () => {
     const ex = cli('exposure', '--trips', trips);
     checkClose(ex.json?.a8 as number, Math.sqrt((0.36 * 3 + 0.25 * 4) / 8), { rel: 1e-12 }, 'Directive 2002/44/EC Annex B', {});
     checkThat(ex.json?.actionValue === 0.5 && ex.json?.limitValue === 1.15 && ex.json?.status === 'exceeds-action-value', 'Directive 2002/44/EC Art. 3', ex.stdout);
+  });
+
+  it('when duty runs over a measured profile, then it prints the same keys as the closed form and agrees with it at the profile Gd(n0) within 6 % (computed)', () => {
+    const gd = 256e-6;
+    const z = synthesizeProfile({ gdN0: gd, lengthM: 4000, dxM: 0.25, seed: 9 });
+    const lines = ['distance_m,elevation_m'];
+    for (let i = 0; i < z.length; i++) lines.push(`${(i * 0.25).toFixed(2)},${z[i].toFixed(7)}`);
+    const prof = file('survey.csv', lines.join('\n'));
+    const spec = join(dir, 'spec.json');
+    const r = cli('duty', '--spec', spec, '--profile', prof, '--speed-kmh', '50');
+    checkThat(r.code === 0, 'cli contract', `exit ${r.code}, stderr "${r.stderr}"`);
+    const exp = dutyOnRoad(prepareDuty(CAR, 50 / 3.6), gd);
+    checkThat(JSON.stringify(Object.keys(r.json ?? {}).sort()) === JSON.stringify(Object.keys(exp).sort()), 'cli contract: same keys as duty', r.stdout);
+    for (const k of Object.keys(exp) as (keyof typeof exp)[]) {
+      checkClose(r.json?.[k] as number, exp[k], { rel: 0.06 }, 'computed: measured-segment path vs closed form', { k });
+    }
+    const both = cli('duty', '--spec', spec, '--profile', prof, '--speed-kmh', '50', '--class', 'C');
+    checkThat(both.code === 2 && both.stderr.includes('--profile'), 'cli contract', both.stderr);
   });
 
   it('when phase-shift and damping-from-phase run, then they print the library figures and a clear error when no damping explains a phase (computed)', () => {
