@@ -12,6 +12,7 @@ import * as m0006 from './migrations/0006-opening-wear';
 import * as m0007 from './migrations/0007-drop-unused-duty-indexes';
 import * as m0012 from './migrations/0012-lane-plate-amplitude';
 import * as m0013 from './migrations/0013-lane-phase-shift';
+import * as m0014 from './migrations/0014-seat-factors';
 import { initNightlyModels } from './nightly-models';
 import { initDriverModels } from './driver-models';
 
@@ -32,6 +33,7 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
   { name: '0007-drop-unused-duty-indexes', up: m0007.up, down: m0007.down },
   { name: '0012-lane-plate-amplitude', up: m0012.up, down: m0012.down },
   { name: '0013-lane-phase-shift', up: m0013.up, down: m0013.down },
+  { name: '0014-seat-factors', up: m0014.up, down: m0014.down },
 ];
 
 /**
