@@ -49,6 +49,7 @@ const schema = z
     LIFE_PRIOR_REMOVALS: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(1000).default(5),
     ATTACHMENT_MAX_MB: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(100).default(8),
     LANE_FLAG_POINTS: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(100).default(15),
+    LANE_PLATE_AMPLITUDE_MM: z.coerce.number({ message: 'must be a number in mm' }).min(0.5, 'must be 0.5–10 mm').max(10, 'must be 0.5–10 mm').default(3),
     LOG_LEVEL: z.enum(['silent', 'error', 'warn', 'info', 'debug']).default('info'),
   })
   .transform((c) => ({
@@ -88,6 +89,8 @@ const schema = z
       },
       attachmentMaxBytes: Math.round(c.ATTACHMENT_MAX_MB * 1024 * 1024),
       laneFlagPoints: c.LANE_FLAG_POINTS,
+      /** The test lane's plate amplitude, zero-to-peak [mm] (a 6 mm stroke is 3 mm; docs/methods.md "Test-lane plate amplitude"). */
+      lanePlateAmplitudeMm: c.LANE_PLATE_AMPLITUDE_MM,
       /** The scheduler's threshold, for the words on each corner (watch from ¾ of it, inspect from it). */
       inspectionThreshold: c.INSPECTION_THRESHOLD,
     },

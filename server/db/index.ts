@@ -13,6 +13,9 @@ import * as m0007 from './migrations/0007-drop-unused-duty-indexes';
 import * as m0008 from './migrations/0008-damper-life-model';
 import * as m0009 from './migrations/0009-inspection-follow-up';
 import * as m0010 from './migrations/0010-ride-report-class-after';
+import * as m0012 from './migrations/0012-lane-plate-amplitude';
+import * as m0013 from './migrations/0013-lane-phase-shift';
+import * as m0014 from './migrations/0014-seat-factors';
 import { initNightlyModels } from './nightly-models';
 import { initDriverModels } from './driver-models';
 
@@ -34,6 +37,9 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
   { name: '0008-damper-life-model', up: m0008.up, down: m0008.down },
   { name: '0009-inspection-follow-up', up: m0009.up, down: m0009.down },
   { name: '0010-ride-report-class-after', up: m0010.up, down: m0010.down },
+  { name: '0012-lane-plate-amplitude', up: m0012.up, down: m0012.down },
+  { name: '0013-lane-phase-shift', up: m0013.up, down: m0013.down },
+  { name: '0014-seat-factors', up: m0014.up, down: m0014.down },
 ];
 
 /**

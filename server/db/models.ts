@@ -51,6 +51,10 @@ export class SuspensionSpec extends Model<Attrs<SuspensionSpec>, CAttrs<Suspensi
   declare name: string;
   declare vehicleClass: string;
   declare description: string | null;
+  /** SEAT value of the driver's seat [1], null = the vehicle class default (server/physics/seat.ts). */
+  declare seatFactor: CreationOptional<number | null>;
+  /** Cab suspension transmissibility [1], null = none. */
+  declare cabFactor: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare axles?: SpecAxle[];
@@ -294,6 +298,8 @@ export function initModels(sequelize: Sequelize) {
       name: { type: DataTypes.STRING(120), allowNull: false, unique: true },
       vehicleClass: { type: DataTypes.STRING(40), allowNull: false },
       description: { type: DataTypes.TEXT, allowNull: true },
+      seatFactor: { type: DataTypes.DOUBLE, allowNull: true },
+      cabFactor: { type: DataTypes.DOUBLE, allowNull: true },
       ...ts,
     },
     { ...common, tableName: 'suspension_specs' },

@@ -141,19 +141,21 @@ const DEPOTS = [
   { name: 'Millbrook Cross Depot', address: 'Unit 9, Weir Road, Millbrook', lat: 52.488, lon: -1.268 },
 ];
 
+// No demo route is rougher than ISO 8608 class D (IRI up to about 25 m/km, a rough unpaved road):
+// a parcel and freight fleet does not run on the IRI 35-70 m/km of classes E-F (docs/methods.md "Demo roads").
 const ROUTES: { name: string; depot: 0 | 1; lengthKm: number; speedKmh: number; heading: number; base: IsoClass; rough: IsoClass; source: RoughnessSource; description: string }[] = [
   { name: 'Tanner Way town loop', depot: 0, lengthKm: 14, speedKmh: 32, heading: 20, base: 'A', rough: 'B', source: 'stated', description: 'Town-centre drops on resurfaced streets.' },
-  { name: 'Hollins Ridge farms', depot: 0, lengthKm: 38, speedKmh: 48, heading: 300, base: 'C', rough: 'E', source: 'survey', description: 'Farm deliveries over the ridge; long unsealed stretch past Hollins.' },
-  { name: 'Quarry Lane aggregates', depot: 0, lengthKm: 22, speedKmh: 40, heading: 250, base: 'D', rough: 'E', source: 'survey', description: 'Truck run to the quarry; broken surface near the gate.' },
+  { name: 'Hollins Ridge farms', depot: 0, lengthKm: 38, speedKmh: 48, heading: 300, base: 'C', rough: 'D', source: 'survey', description: 'Farm deliveries over the ridge; long unsealed stretch past Hollins.' },
+  { name: 'Quarry Lane aggregates', depot: 0, lengthKm: 22, speedKmh: 40, heading: 250, base: 'C', rough: 'D', source: 'survey', description: 'Truck run to the quarry; broken surface near the gate.' },
   { name: 'Northgate retail park', depot: 0, lengthKm: 18, speedKmh: 45, heading: 60, base: 'A', rough: 'B', source: 'stated', description: 'Retail park and ring road.' },
   { name: 'Eastwold villages', depot: 0, lengthKm: 42, speedKmh: 52, heading: 110, base: 'B', rough: 'D', source: 'stated', description: 'Village drops on B-roads.' },
   { name: 'Fenmarsh dyke road', depot: 0, lengthKm: 30, speedKmh: 55, heading: 170, base: 'C', rough: 'D', source: 'survey', description: 'Long straight dyke road with patched heave.' },
   { name: 'Millbrook high street', depot: 1, lengthKm: 12, speedKmh: 28, heading: 0, base: 'B', rough: 'C', source: 'stated', description: 'Town drops; cobbled section by the market.' },
   { name: 'Weir Road industrial', depot: 1, lengthKm: 16, speedKmh: 38, heading: 90, base: 'B', rough: 'C', source: 'stated', description: 'Industrial estate loop.' },
-  { name: 'Coldharbour forestry track', depot: 1, lengthKm: 26, speedKmh: 35, heading: 200, base: 'D', rough: 'F', source: 'stated', description: 'Forestry contractor supplies; unsealed track.' },
+  { name: 'Coldharbour forestry track', depot: 1, lengthKm: 26, speedKmh: 35, heading: 200, base: 'C', rough: 'D', source: 'stated', description: 'Forestry contractor supplies; unsealed track.' },
   { name: 'Sedge Vale dairy run', depot: 1, lengthKm: 34, speedKmh: 50, heading: 140, base: 'B', rough: 'D', source: 'driver_report', description: 'Early dairy collections.' },
   { name: 'Ashby bypass express', depot: 1, lengthKm: 40, speedKmh: 72, heading: 320, base: 'A', rough: 'B', source: 'stated', description: 'Trunk road to the Ashby hub.' },
-  { name: 'Kilnsey moor lanes', depot: 1, lengthKm: 36, speedKmh: 44, heading: 260, base: 'C', rough: 'E', source: 'survey', description: 'Moorland lanes with frost damage.' },
+  { name: 'Kilnsey moor lanes', depot: 1, lengthKm: 36, speedKmh: 44, heading: 260, base: 'C', rough: 'D', source: 'survey', description: 'Moorland lanes with frost damage.' },
 ];
 
 const CLASSES: IsoClass[] = ['A', 'B', 'C', 'D', 'E', 'F', 'G', 'H'];
@@ -311,7 +313,7 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
           const w = mine.reduce((a, b) => a + (b.endM - b.startM), 0);
           const iriSeg = mine.reduce((a, b) => a + b.iri * (b.endM - b.startM), 0) / w;
           s.iri = Math.round(iriSeg * 1000) / 1000;
-          s.gdN0 = gdFromIri(s.iri);
+          s.gdN0 = gdFromIri(s.iri, DEMO_SURVEY_DX_M); // K of the interval the IRI was read at (docs/methods.md "IRI and Gd(n0)")
           s.isoClass = classifyGd(s.gdN0);
         }
         const file = storeProfileFile(

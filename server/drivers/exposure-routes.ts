@@ -22,6 +22,15 @@ function range(q: { from?: string; to?: string }, today: string) {
 
 const base = { actionValue: EXPOSURE_ACTION_VALUE, limitValue: EXPOSURE_LIMIT_VALUE, caution: EXPOSURE_CAUTION, method: EXPOSURE_METHOD };
 
+/** The floor-to-seat factor(s) a day's trips used, as shown beside its figure ("0.82", or "0.65–0.82" over several specs). */
+function seatFactorText(parts: ExposurePart[]): string | null {
+  const f = parts.map((p) => p.seatFactor).filter((x): x is number => typeof x === 'number');
+  if (!f.length) return null;
+  const lo = Math.min(...f).toFixed(2);
+  const hi = Math.max(...f).toFixed(2);
+  return lo === hi ? lo : `${lo}–${hi}`;
+}
+
 export function registerExposureRoutes(api: Router, ctx: { now: () => Date; timeZone: string }) {
   const today = () => new Intl.DateTimeFormat('en-CA', { timeZone: ctx.timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(ctx.now());
 
@@ -34,11 +43,11 @@ export function registerExposureRoutes(api: Router, ctx: { now: () => Date; time
     const { from, to } = range(q, today());
     const [driver] = await DriverExposureDay.sequelize!.query<{ id: number; name: string; role: string }>(`SELECT id, name, role FROM users WHERE id = ?`, { replacements: [driverId], type: QueryTypes.SELECT });
     if (!driver || driver.role !== 'driver') throw AppError.notFound('Driver');
-    const rows = await DriverExposureDay.sequelize!.query<{ day: string; a8: number; hours: number; trips: number; max_weighted_accel: number; status: string }>(
-      `SELECT day, a8, hours, trips, max_weighted_accel, status FROM driver_exposure_days WHERE driver_id = ? AND day >= ? AND day <= ? ORDER BY day`,
+    const rows = await DriverExposureDay.sequelize!.query<{ day: string; a8: number; hours: number; trips: number; max_weighted_accel: number; status: string; parts: string }>(
+      `SELECT day, a8, hours, trips, max_weighted_accel, status, parts FROM driver_exposure_days WHERE driver_id = ? AND day >= ? AND day <= ? ORDER BY day`,
       { replacements: [driverId, from, to], type: QueryTypes.SELECT },
     );
-    const days = rows.map((r) => ({ day: r.day, a8: r.a8, hours: r.hours, trips: r.trips, maxWeightedAccel: r.max_weighted_accel, status: r.status }));
+    const days = rows.map((r) => ({ day: r.day, a8: r.a8, hours: r.hours, trips: r.trips, maxWeightedAccel: r.max_weighted_accel, status: r.status, seatFactor: seatFactorText(JSON.parse(r.parts) as ExposurePart[]) }));
     res.json({
       ...base,
       driver: { id: driver.id, name: driver.name },
@@ -105,7 +114,7 @@ export function registerExposureRoutes(api: Router, ctx: { now: () => Date; time
       }
       if (above) {
         const top = [...parts].sort((a, b) => b.aw * b.aw * b.hours - a.aw * a.aw * a.hours)[0];
-        daysAbove.push({ driverId: r.driver_id, name: r.name, day: r.day, a8: r.a8, hours: r.hours, trips: r.trips, status: r.a8 > EXPOSURE_LIMIT_VALUE ? 'exceeds-limit-value' : 'exceeds-action-value', topRoute: top ? routeName.get(top.routeId) ?? null : null, topVehicle: top ? fleetNo.get(top.vehicleId) ?? null : null });
+        daysAbove.push({ driverId: r.driver_id, name: r.name, day: r.day, a8: r.a8, hours: r.hours, trips: r.trips, seatFactor: seatFactorText(parts), status: r.a8 > EXPOSURE_LIMIT_VALUE ? 'exceeds-limit-value' : 'exceeds-action-value', topRoute: top ? routeName.get(top.routeId) ?? null : null, topVehicle: top ? fleetNo.get(top.vehicleId) ?? null : null });
       }
     }
     const contrib = (m: typeof byRoute, label: (id: number) => string) =>

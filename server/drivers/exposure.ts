@@ -2,23 +2,26 @@
  * Drivers' daily whole-body vibration exposure (issue 7), computed by the nightly job from the
  * duty it stores per trip and corner.
  *
- * Method: the driver sits over the front axle, so a trip's weighted acceleration is that of the
- * front-axle corners (`trip_duties.axle_index = 0`, FL and FR) combined as an RMS:
- * `a_w = √((a_FL² + a_FR²) / 2)`; its duration is the trip's. The day's exposure is
- * Directive 2002/44/EC `A(8) = √(Σ a_w,i²·T_i / 8 h)` ({@link dailyA8}). A screening estimate
- * from a model of the vehicle floor, not a seat measurement (physics.md §5).
+ * Method: the driver sits over the front axle. A trip's floor acceleration is that of the
+ * front-axle corners (`trip_duties.axle_index = 0`, FL and FR, equal in the model) as an RMS,
+ * `a_floor = √((a_FL² + a_FR²) / 2)`; the seat sees `a_w = SEAT · cab · √((1 + ρ)/2) · a_floor`
+ * with the spec's floor-to-seat factors (server/physics/seat.ts, docs/methods.md "Exposure at
+ * the seat"); its duration is the trip's. The day's exposure is Directive 2002/44/EC
+ * `A(8) = √(Σ a_w,i²·T_i / 8 h)` ({@link dailyA8}). A screening estimate from a model, not a
+ * seat measurement (physics.md §5).
  */
 import { createHash } from 'node:crypto';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE, dailyA8, exposureStatus } from '../physics/exposure';
+import { FRONT_TRACK_CORRELATION, floorToSeat } from '../physics/seat';
 import { mailRepository, type QueuedMail } from '../mail/repository';
 import { esc } from '../mail/templates';
 
 export const EXPOSURE_CAUTION =
-  'A screening estimate from a model of the vehicle floor above the front axle, not a measurement at the seat. Follow your local regulations and have a competent person assess drivers’ exposure before acting on it.';
+  'A screening estimate from a model of the vehicle floor above the front axle, carried to the seat by stated factors, not a measurement at the seat. Follow your local regulations and have a competent person assess drivers’ exposure before acting on it.';
 
 export const EXPOSURE_METHOD =
-  'Front-axle corners of each trip (the driver sits over the front axle): a_w = √((a_FL² + a_FR²)/2), T = trip duration; A(8) = √(Σ a_w²·T / 8 h) (Directive 2002/44/EC, vertical, k = 1).';
+  `Front-axle floor acceleration of each trip (the driver sits over the front axle), carried to the seat: a_w = SEAT · cab · √((1 + ρ)/2) · a_floor, with the spec's SEAT value (default by vehicle class: 0.95 conventional seat, 0.75 suspension seat; Griffin 1990, from memory), its cab suspension factor (1 when none is entered) and the left/right wheel tracks taken as correlated ρ = ${FRONT_TRACK_CORRELATION} (assumed; Cebon 1999); T = trip duration; A(8) = √(Σ a_w²·T / 8 h) (Directive 2002/44/EC, vertical, k = 1).`;
 
 /** Days of history the nightly step recomputes (trips imported late land in this window). */
 export const EXPOSURE_WINDOW_DAYS = 60;
@@ -29,8 +32,12 @@ export interface ExposurePart {
   tripId: number;
   vehicleId: number;
   routeId: number;
-  /** Front-axle weighted RMS over the trip [m/s²]. */
+  /** Weighted RMS at the seat over the trip [m/s²]. */
   aw: number;
+  /** Front-axle floor weighted RMS over the trip [m/s²], before the floor-to-seat factor. */
+  awFloor: number;
+  /** Floor-to-seat factor used (SEAT · cab · track) [1]. */
+  seatFactor: number;
   /** Duration [h]. */
   hours: number;
 }
@@ -54,6 +61,8 @@ export interface FrontDutyRow {
   day: string;
   durationS: number;
   rmsWeightedAccel: number;
+  /** The spec's floor-to-seat factor (server/physics/seat.ts) [1]. */
+  floorToSeat: number;
 }
 
 const plusDays = (day: string, n: number) => new Date(Date.parse(`${day}T00:00:00Z`) + n * 86_400_000).toISOString().slice(0, 10);
@@ -71,7 +80,11 @@ export function exposureDays(rows: readonly FrontDutyRow[]): ExposureDayValue[] 
   const days = new Map<string, ExposurePart[]>();
   const dayKey = (d: number, day: string) => `${d}|${day}`;
   for (const { row, sumSq, n } of trips.values()) {
-    const part: ExposurePart = { tripId: row.tripId, vehicleId: row.vehicleId, routeId: row.routeId, aw: Math.sqrt(sumSq / n), hours: Math.min(24, Math.max(0, row.durationS / 3600)) };
+    const awFloor = Math.sqrt(sumSq / n);
+    const part: ExposurePart = {
+      tripId: row.tripId, vehicleId: row.vehicleId, routeId: row.routeId, aw: awFloor * row.floorToSeat, awFloor, seatFactor: row.floorToSeat,
+      hours: Math.min(24, Math.max(0, row.durationS / 3600)),
+    };
     const k = dayKey(row.driverId, row.day);
     days.set(k, [...(days.get(k) ?? []), part]);
   }
@@ -88,7 +101,7 @@ export function exposureDays(rows: readonly FrontDutyRow[]): ExposureDayValue[] 
       trips: parts.length,
       maxWeightedAccel: Math.max(...parts.map((p) => p.aw)),
       status: exposureStatus(a8),
-      parts: parts.map((p) => ({ ...p, aw: r4(p.aw), hours: r4(p.hours) })),
+      parts: parts.map((p) => ({ ...p, aw: r4(p.aw), awFloor: r4(p.awFloor), seatFactor: r4(p.seatFactor), hours: r4(p.hours) })),
     });
   }
   return out.sort((a, b) => a.driverId - b.driverId || a.day.localeCompare(b.day));
@@ -108,7 +121,17 @@ export async function refreshExposure(ctx: { sequelize: Sequelize; now: Date; as
        WHERE axle_index = 0 AND driver_id IS NOT NULL AND trip_date >= ? AND trip_date <= ?`,
       { replacements: [from, ctx.asOf], type: QueryTypes.SELECT, transaction },
     );
-    const days = exposureDays(rows.map((r) => ({ tripId: r.trip_id, driverId: r.driver_id, vehicleId: r.vehicle_id, routeId: r.route_id, day: r.trip_date, durationS: r.duration_s, rmsWeightedAccel: r.rms_weighted_accel })));
+    const specs = await sequelize.query<{ vehicle_id: number; vehicle_class: string; seat_factor: number | null; cab_factor: number | null }>(
+      `SELECT v.id AS vehicle_id, s.vehicle_class, s.seat_factor, s.cab_factor FROM vehicles v JOIN suspension_specs s ON s.id = v.spec_id`,
+      { type: QueryTypes.SELECT, transaction },
+    );
+    const factor = new Map(specs.map((s) => [s.vehicle_id, floorToSeat({ vehicleClass: s.vehicle_class, seatFactor: s.seat_factor, cabFactor: s.cab_factor }).total]));
+    const days = exposureDays(
+      rows.map((r) => ({
+        tripId: r.trip_id, driverId: r.driver_id, vehicleId: r.vehicle_id, routeId: r.route_id, day: r.trip_date, durationS: r.duration_s, rmsWeightedAccel: r.rms_weighted_accel,
+        floorToSeat: factor.get(r.vehicle_id) ?? 1,
+      })),
+    );
     const existing = await sequelize.query<{ driver_id: number; day: string; notified_at: string | null }>(
       `SELECT driver_id, day, notified_at FROM driver_exposure_days WHERE day >= ? AND day <= ?`,
       { replacements: [from, ctx.asOf], type: QueryTypes.SELECT, transaction },

@@ -3,12 +3,13 @@
  * ISO 2631-1 Wk-weighted body acceleration over the front axle stays within a chosen comfort
  * band (ISO 2631-1:1997 Annex C) and every axle's mean damper power stays within a chosen limit.
  *
- * Method: closed form (server/physics/closed-form.ts). On an ISO 8608 `w = 2` road the road
- * velocity is white with PSD ∝ Gd(n0)·v, and the system matrix does not depend on speed, so every
- * variance is exactly proportional to Gd(n0)·v (physics.md §2). With one Lyapunov solve per axle
- * at a reference speed, `a_w(v) = a_w(v_ref)·√(v/v_ref)` and `P(v) = P(v_ref)·v/v_ref`, so the
- * bisection for the crossing speed has a closed-form answer: `v = v_ref·(a_lim/a_w,ref)²`,
- * `v = v_ref·P_lim/P_ref`. The speed-grid chart uses the same scaling.
+ * Method: closed form (server/physics/closed-form.ts) on the app's road band (wavelengths ≥ 0.6 m,
+ * docs/methods.md "One road model for both methods"). Every variance is proportional to Gd(n0);
+ * because the band's top frequency moves with speed, it is no longer exactly proportional to v,
+ * so each axle is solved once per km/h on a grid from {@link GRID_FROM_KMH} to {@link GRID_TO_KMH}
+ * and variances are interpolated linearly in speed between grid points (under 0.1 % from a fresh
+ * solve, tested). The crossing speed of a limit is found on that interpolated curve, which rises
+ * monotonically with speed.
  */
 import { dutyOnRoad, prepareDuty, type PreparedDuty } from '../physics/closed-form';
 import type { CornerParams } from '../physics/types';
@@ -28,7 +29,9 @@ export const DEFAULT_POWER_LIMIT_W = 150;
 /** Advice is given between these speeds [km/h]. */
 export const MIN_ADVICE_KMH = 10;
 export const MAX_ADVICE_KMH = 130;
-const V_REF = 10; // m/s
+/** Speed grid of the per-axle solves [km/h]. */
+export const GRID_FROM_KMH = 1;
+export const GRID_TO_KMH = 140;
 
 export const SPEED_CAUTION =
   'Planning advice from a model of the suspension and the recorded roughness. Posted limits, the road and weather conditions, the load and the driver’s judgement always come first.';
@@ -40,29 +43,69 @@ export interface AxleCorner {
 }
 
 export interface PreparedSpec {
-  axles: { axleIndex: number; label: string; prep: PreparedDuty }[];
+  /** Per axle, one closed-form solve per grid speed (index i ↔ GRID_FROM_KMH + i km/h). */
+  axles: { axleIndex: number; label: string; grid: PreparedDuty[] }[];
 }
 
-/** One Lyapunov solve per axle at the reference speed. */
+/** One closed-form solve per axle and grid speed. */
 export function prepareSpec(axles: readonly AxleCorner[]): PreparedSpec {
-  return { axles: axles.map((a) => ({ axleIndex: a.axleIndex, label: a.label, prep: prepareDuty(a.corner, V_REF) })) };
+  const speeds = Array.from({ length: GRID_TO_KMH - GRID_FROM_KMH + 1 }, (_, i) => (GRID_FROM_KMH + i) / 3.6);
+  return { axles: axles.map((a) => ({ axleIndex: a.axleIndex, label: a.label, grid: speeds.map((v) => prepareDuty(a.corner, v)) })) };
+}
+
+/** An axle's variances per unit Gd(n0) at a speed, interpolated linearly between grid speeds. */
+function preparedAt(grid: PreparedDuty[], speedKmh: number): PreparedDuty {
+  const x = Math.min(GRID_TO_KMH, Math.max(GRID_FROM_KMH, speedKmh)) - GRID_FROM_KMH;
+  const i = Math.min(grid.length - 2, Math.floor(x));
+  const t = x - i;
+  const a = grid[i];
+  const b = grid[i + 1];
+  const mix = (k: 'varBodyAccelPerGd' | 'varWeightedAccelPerGd' | 'varTravelPerGd' | 'varRelVelPerGd' | 'varTireLoadRatioPerGd') => a[k] + (b[k] - a[k]) * t;
+  return {
+    speedMps: speedKmh / 3.6,
+    dampingNsPerM: a.dampingNsPerM,
+    varBodyAccelPerGd: mix('varBodyAccelPerGd'),
+    varWeightedAccelPerGd: mix('varWeightedAccelPerGd'),
+    varTravelPerGd: mix('varTravelPerGd'),
+    varRelVelPerGd: mix('varRelVelPerGd'),
+    varTireLoadRatioPerGd: mix('varTireLoadRatioPerGd'),
+  };
 }
 
 /** Front-axle weighted acceleration [m/s²] and the largest damper power of any axle [W] at a speed. */
 export function dutyAtSpeed(p: PreparedSpec, gdN0: number, speedKmh: number) {
-  const s = speedKmh / 3.6 / V_REF;
   const front = p.axles.reduce((a, b) => (b.axleIndex < a.axleIndex ? b : a));
-  const f = dutyOnRoad(front.prep, gdN0);
+  const f = dutyOnRoad(preparedAt(front.grid, speedKmh), gdN0);
   let power = 0;
   let powerAxle = front.label;
   for (const a of p.axles) {
-    const w = dutyOnRoad(a.prep, gdN0).damperPowerW * s;
+    const w = dutyOnRoad(preparedAt(a.grid, speedKmh), gdN0).damperPowerW;
     if (w > power) {
       power = w;
       powerAxle = a.label;
     }
   }
-  return { speedKmh, weightedAccel: f.rmsWeightedAccel * Math.sqrt(s), damperPowerW: power, powerAxle };
+  return { speedKmh, weightedAccel: f.rmsWeightedAccel, damperPowerW: power, powerAxle };
+}
+
+/**
+ * The speed [km/h] at which a quantity rising with speed reaches `limit` on the interpolated
+ * curve (GRID_TO_KMH when it stays below, GRID_FROM_KMH when it is already above there).
+ */
+function crossing(value: (kmh: number) => number, limit: number): number {
+  if (value(GRID_FROM_KMH) >= limit) return GRID_FROM_KMH;
+  if (value(GRID_TO_KMH) < limit) return GRID_TO_KMH;
+  let lo = GRID_FROM_KMH;
+  while (value(lo + 1) < limit) lo++;
+  // linear in each grid cell for variances; the quantities here are a variance (power) or its root
+  let a = lo;
+  let b = lo + 1;
+  for (let i = 0; i < 50; i++) {
+    const m = (a + b) / 2;
+    if (value(m) < limit) a = m;
+    else b = m;
+  }
+  return (a + b) / 2;
 }
 
 export interface Advice {
@@ -81,9 +124,8 @@ export interface Advice {
  */
 export function adviseSpeed(p: PreparedSpec, gdN0: number | null, awLimit: number, powerLimitW: number): Advice {
   if (gdN0 === null || !(gdN0 > 0)) return { advisedKmh: null, comfortKmh: null, powerKmh: null, limitedBy: 'no roughness on record', belowMinimum: false };
-  const ref = dutyAtSpeed(p, gdN0, V_REF * 3.6);
-  const comfortKmh = V_REF * 3.6 * (awLimit / ref.weightedAccel) ** 2;
-  const powerKmh = V_REF * 3.6 * (powerLimitW / ref.damperPowerW);
+  const comfortKmh = crossing((v) => dutyAtSpeed(p, gdN0, v).weightedAccel, awLimit);
+  const powerKmh = crossing((v) => dutyAtSpeed(p, gdN0, v).damperPowerW, powerLimitW);
   const best = Math.min(comfortKmh, powerKmh);
   const advised = Math.min(MAX_ADVICE_KMH, best);
   return {

@@ -1,4 +1,5 @@
 import { Op, fn, col, literal, type Order, type WhereOptions } from 'sequelize';
+import { floorToSeat, type FloorToSeat } from '../physics/seat';
 import {
   Damper,
   Depot,
@@ -27,11 +28,19 @@ export interface AxleRow {
   ratedDamperLifeKm: number;
 }
 
+const seatOf = (s: { vehicleClass: string; seatFactor?: number | null; cabFactor?: number | null }) => {
+  const seatFactor = s.seatFactor ?? null;
+  const cabFactor = s.cabFactor ?? null;
+  return { seatFactor, cabFactor, used: floorToSeat({ vehicleClass: s.vehicleClass, seatFactor, cabFactor }) };
+};
+
 export interface SpecRow {
   id: number;
   name: string;
   vehicleClass: string;
   description: string | null;
+  /** Floor-to-seat factors for drivers' exposure (entered values, null = default / none) and what is used. */
+  seat: { seatFactor: number | null; cabFactor: number | null; used: FloorToSeat };
   axles: AxleRow[];
   vehicleCount: number;
 }
@@ -129,6 +138,7 @@ export const fleetRepository = {
       name: s.name,
       vehicleClass: s.vehicleClass,
       description: s.description,
+      seat: seatOf(s),
       axles: (s.axles ?? []).map(axleRow),
       vehicleCount: bySpec.get(s.id) ?? 0,
     }));
@@ -141,7 +151,7 @@ export const fleetRepository = {
     });
     if (!s) return null;
     const vehicleCount = await Vehicle.count({ where: { specId: id, status: { [Op.ne]: 'retired' } } });
-    return { id: s.id, name: s.name, vehicleClass: s.vehicleClass, description: s.description, axles: (s.axles ?? []).map(axleRow), vehicleCount };
+    return { id: s.id, name: s.name, vehicleClass: s.vehicleClass, description: s.description, seat: seatOf(s), axles: (s.axles ?? []).map(axleRow), vehicleCount };
   },
 
   async listVehicles(q: {

@@ -15,6 +15,8 @@ export interface SpecInput {
   name: string;
   vehicleClass: string;
   description?: string | null;
+  seatFactor?: number | null;
+  cabFactor?: number | null;
   axles: AxleInput[];
 }
 
@@ -48,7 +50,7 @@ export const fleetWrites = {
   },
   async createSpec(s: SpecInput) {
     return Vehicle.sequelize!.transaction(async (transaction) => {
-      const row = await SuspensionSpec.create({ name: s.name, vehicleClass: s.vehicleClass, description: s.description ?? null }, { transaction });
+      const row = await SuspensionSpec.create({ name: s.name, vehicleClass: s.vehicleClass, description: s.description ?? null, seatFactor: s.seatFactor ?? null, cabFactor: s.cabFactor ?? null }, { transaction });
       await SpecAxle.bulkCreate(
         s.axles.map((a, axleIndex) => ({ ...a, axleIndex, specId: row.id })),
         { transaction },
@@ -58,7 +60,7 @@ export const fleetWrites = {
   },
   async updateSpec(id: number, s: SpecInput) {
     await Vehicle.sequelize!.transaction(async (transaction) => {
-      await SuspensionSpec.update({ name: s.name, vehicleClass: s.vehicleClass, description: s.description ?? null }, { where: { id }, transaction });
+      await SuspensionSpec.update({ name: s.name, vehicleClass: s.vehicleClass, description: s.description ?? null, seatFactor: s.seatFactor ?? null, cabFactor: s.cabFactor ?? null }, { where: { id }, transaction });
       await SpecAxle.destroy({ where: { specId: id }, transaction });
       await SpecAxle.bulkCreate(
         s.axles.map((a, axleIndex) => ({ ...a, axleIndex, specId: id })),

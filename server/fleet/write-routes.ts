@@ -27,6 +27,8 @@ const specBody = z
     name: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(120),
     vehicleClass,
     description: z.string().trim().max(2000).nullish(),
+    seatFactor: z.number({ message: 'must be a number' }).min(0.2, 'must be 0.2–2 (SEAT value)').max(2, 'must be 0.2–2 (SEAT value)').nullish(),
+    cabFactor: z.number({ message: 'must be a number' }).min(0.2, 'must be 0.2–1.5').max(1.5, 'must be 0.2–1.5').nullish(),
     axles: z.array(axle, { message: 'must be a list of axles' }).min(1, 'needs at least one axle').max(6, 'at most 6 axles'),
   })
   .strict();

@@ -15,10 +15,14 @@ import { cornerTransfer } from './quarter-car';
 import { STANDARD_GRAVITY, requireInRange, validateCorner, type CornerParams } from './types';
 
 /**
- * Default plate amplitude [m]: 6 mm (from memory, common practice for EUSAMA rigs; physics.md §4
- * calls it the stroke — pass your rig's zero-to-peak amplitude if it differs).
+ * Default plate amplitude (zero-to-peak) [m]: 3 mm. The EUSAMA method speaks of a 6 mm plate
+ * stroke; a stroke is the total peak-to-peak travel, so the amplitude is half of it (our
+ * reading, from memory; physics.md §4). At this amplitude new dampers on light vans read
+ * 60–80 %, as new dampers commonly do (common practice); read as a 6 mm amplitude they would
+ * read weak or fair. A lane whose rig moves differently sets its own amplitude
+ * (docs/methods.md "Test-lane plate amplitude").
  */
-export const DEFAULT_PLATE_AMPLITUDE_M = 0.006;
+export const DEFAULT_PLATE_AMPLITUDE_M = 0.003;
 
 /** Sweep bounds [Hz] (physics.md §4: from about 25 Hz down to a few Hz; common practice). */
 export const SWEEP_HZ = Object.freeze({ from: 25, to: 3 });
@@ -142,16 +146,18 @@ export interface DampingFromAdhesionOptions extends AdhesionOptions {
  *
  * Adhesion is not monotonic in damping over all values: it rises from 0 % (undamped wheel hop)
  * to a peak and then falls again when the damper is so stiff it couples the body into wheel
- * hop. A worn damper loses damping, so we search the worn side only: from the minimum damping
- * up to the smaller of the corner's nominal damping and the damping of peak adhesion (found
- * by golden-section search on log damping), where adhesion rises monotonically. The root is
+ * hop. A worn damper loses damping, so we search the rising side only: from the minimum
+ * damping up to the damping of peak adhesion (found by golden-section search on log damping),
+ * where adhesion rises monotonically. A reading above what the nominal damping predicts is
+ * explained by a damping above nominal — a damper at least as good as new (a new damper within
+ * its maker's tolerance, or a corner a little heavier than the spec) — not refused. The root is
  * found by bisection on log damping (bracket first, then halve to 1e-10 relative).
  *
  * @param c corner parameters; `dampingNsPerM` is the nominal (new) damping [N·s/m]
  * @param measuredPct measured adhesion [%], 0–100
  * @param opts plate amplitude [m], minimum damping [N·s/m]
  * @returns the damping that explains the measurement [N·s/m]
- * @throws NoDampingSolutionError when the measurement is above what the worn side can reach,
+ * @throws NoDampingSolutionError when the measurement is above the model's peak adhesion,
  *   or 0 % (explained by every damping below a threshold)
  * @example
  * dampingFromAdhesion(corner, adhesionPct({ ...corner, dampingNsPerM: 900 }).adhesionPct); // → { dampingNsPerM ≈ 900 }
@@ -204,15 +210,14 @@ export function dampingFromAdhesion(
       a2 = at(Math.exp(x2));
     }
   }
-  const csPeak = Math.exp((lo + hi) / 2);
-  const upper = Math.min(nominal, csPeak);
+  const upper = Math.exp((lo + hi) / 2);
   const aUpper = at(upper);
   if (measuredPct > aUpper) {
     throw new NoDampingSolutionError(
       measuredPct,
       aUpper,
       upper,
-      `the model's highest adhesion on the worn side (damping ≤ ${upper.toFixed(0)} N·s/m${upper < nominal ? ', the peak' : ', the nominal'}) is ${aUpper.toFixed(1)} %; check the corner's parameters, plate amplitude and the measurement`,
+      `the model's highest adhesion for this corner is ${aUpper.toFixed(1)} % (at ${upper.toFixed(0)} N·s/m, ${(upper / nominal).toFixed(1)}× nominal); check the corner's parameters, the plate amplitude and the measurement`,
     );
   }
   const aMin = at(csMin);

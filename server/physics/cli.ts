@@ -7,27 +7,33 @@
  * - `iri <profile.csv> [--segment-m 100]`
  * - `rainflow <series.csv>`
  * - `duty --spec <file.json> (--class C | --gd <m³>) --speed-kmh <v> [--method closed-form|time] [--distance-km <d>] [--seed <n>]`
+ * - `duty --spec <file.json> --profile <profile.csv> --speed-kmh <v>` (the nightly job's measured-segment path)
  * - `modes --spec <file.json>`
  * - `adhesion --spec <file.json> [--amplitude-mm a]`
  * - `damping-from-adhesion --spec <file.json> --adhesion <pct> [--amplitude-mm a]`
+ * - `phase-shift --spec <file.json> [--amplitude-mm a]`
+ * - `damping-from-phase --spec <file.json> --phase-deg <φ>`
  * - `exposure --trips <file.json>`
+ * - `roughness (--iri <m/km> | --gd <m³>) [--dx-m <interval>]`
  *
  * @module
  */
 import { readFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { pathToFileURL } from 'node:url';
-import { iri, iriSegments } from './iri';
+import { gdFromIri, iri, iriFromGd, iriSegments, IRI_CONVERSION_DX_M } from './iri';
 import { rainflow } from './fatigue';
-import { prepareDuty, dutyOnRoad, type DutyResult } from './closed-form';
-import { gdForClass, synthesizeProfile } from './iso8608';
+import { prepareDuty, dutyOnRoad, ROAD_BAND, type DutyResult } from './closed-form';
+import { classifyGd, gdForClass, synthesizeProfile } from './iso8608';
 import { simulateProfile } from './simulate';
 import { modes } from './quarter-car';
-import { adhesionPct, dampingFromAdhesion } from './adhesion';
+import { adhesionPct, dampingFromAdhesion, DEFAULT_PLATE_AMPLITUDE_M } from './adhesion';
+import { dampingFromPhase, phaseShift } from './phase-shift';
 import { dailyA8, exposureStatus, EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE, type ExposureTrip } from './exposure';
-import { PhysicsInputError, validateCorner, type CornerParams } from './types';
+import { PhysicsInputError, validateCorner, validateSpeed, type CornerParams } from './types';
 import { weibullCommand } from '../reliability/weibull-cli';
 import { lifeCommand, lifeFitCommand } from '../reliability/life-cli';
+import { DutyCache, springSnCurve, type SegmentInput } from '../wear/duty';
 
 /** A usage error (wrong command or flags): exit code 2. */
 export class CliUsageError extends Error {
@@ -44,10 +50,14 @@ const USAGE = `usage: cli <command> [args]
   iri <profile.csv> [--segment-m 100]
   rainflow <series.csv>
   duty --spec <file.json> (--class C | --gd <m3>) --speed-kmh <v> [--method closed-form|time] [--distance-km <d>] [--seed <n>]
+  duty --spec <file.json> --profile <profile.csv> --speed-kmh <v>   (distance_m,elevation_m; even spacing up to 0.3 m)
   modes --spec <file.json>
-  adhesion --spec <file.json> [--amplitude-mm a]
+  adhesion --spec <file.json> [--amplitude-mm a, zero-to-peak, default 3]
   damping-from-adhesion --spec <file.json> --adhesion <pct> [--amplitude-mm a]
+  phase-shift --spec <file.json> [--amplitude-mm a]   (minimum phase between the resonances)
+  damping-from-phase --spec <file.json> --phase-deg <deg>
   exposure --trips <file.json>
+  roughness (--iri <m/km> | --gd <m3>) [--dx-m <profile interval, default 0.05>]
   weibull <file.csv>   (columns life, failed: 1 removal, 0 still running)
   life --spec <file.json> --rated-km <km> (--class C | --gd <m3>) --speed-kmh <v> [--model <fit.json>]
   life-fit <dampers.csv> --spec <file.json> --rated-km <km>   (columns damper,km,gd,speed_kmh,failed)`;
@@ -180,6 +190,30 @@ function parse(args: string[], options: Record<string, { type: 'string' }>, posi
 const str = (v: string | boolean | undefined): string | undefined => (typeof v === 'string' ? v : undefined);
 
 /**
+ * Duty of a corner over a measured profile by the nightly job's own measured-segment path
+ * (server/wear/duty.ts `DutyCache.simulated`: road band, resampling, the quarter car with Wk in
+ * the loop), the whole profile as one segment; the same keys as the closed-form `duty`.
+ */
+function profileDuty(c: CornerParams, p: { startM: number; dxM: number; elevationsM: Float64Array }, speedKmh: number): DutyResult {
+  validateSpeed(speedKmh / 3.6);
+  if (!(p.dxM <= 0.3 + 1e-9)) throw new PhysicsInputError('distance_m', 'm', `spacing ${p.dxM} m is coarser than the 0.3 m a survey may have`);
+  const endM = p.startM + (p.elevationsM.length - 1) * p.dxM;
+  const seg: SegmentInput = { id: 0, startM: p.startM, endM, speedKmh, gdN0: null, profile: { surveyId: 0, dxM: p.dxM, startM: p.startM, elevationsM: p.elevationsM } };
+  const r = new DutyCache().simulated('cli', c, speedKmh, seg, springSnCurve(c));
+  if (!r) throw new PhysicsInputError('profile', 'csv', 'is too short to simulate (fewer than 8 samples)');
+  const v = speedKmh / 3.6;
+  return {
+    rmsBodyAccel: Math.sqrt(r.msBodyAccel),
+    rmsWeightedAccel: Math.sqrt(r.msWeightedAccel),
+    rmsSuspensionTravel: Math.sqrt(r.msTravel),
+    rmsRelativeVelocity: Math.sqrt(r.msRelVel),
+    rmsTireLoadRatio: Math.sqrt(r.msTireLoadRatio),
+    damperPowerW: (r.energyJPerKm * v) / 1000,
+    damperEnergyJPerKm: r.energyJPerKm,
+  };
+}
+
+/**
  * Run one CLI command and return the JSON-serialisable result.
  *
  * @param argv arguments after the script name (command first)
@@ -206,11 +240,17 @@ export function runCommand(argv: string[]): unknown {
         rest,
         {
           spec: { type: 'string' }, class: { type: 'string' }, gd: { type: 'string' }, 'speed-kmh': { type: 'string' },
-          method: { type: 'string' }, 'distance-km': { type: 'string' }, seed: { type: 'string' },
+          method: { type: 'string' }, 'distance-km': { type: 'string' }, seed: { type: 'string' }, profile: { type: 'string' },
         },
         0,
       );
       const c = readSpec(str(values.spec));
+      const profilePath = str(values.profile);
+      if (profilePath !== undefined) {
+        if (values.class !== undefined || values.gd !== undefined || values.method !== undefined) throw new CliUsageError('--profile takes the road from the file: give no --class, --gd or --method');
+        const kmh = num(str(values['speed-kmh']), 'speed-kmh', 'km/h');
+        return profileDuty(c, parseProfileCsv(readText(profilePath, 'profile'), profilePath), kmh);
+      }
       const cls = str(values.class);
       const gdArg = str(values.gd);
       if ((cls === undefined) === (gdArg === undefined)) throw new CliUsageError('give exactly one of --class <A–H> or --gd <m3>');
@@ -224,7 +264,8 @@ export function runCommand(argv: string[]): unknown {
       const seed = values.seed === undefined ? 1 : num(str(values.seed), 'seed', 'integer');
       // 2 ms time step keeps the road interpolation loss below ~0.5 % at wheel hop
       const dxM = Math.min(0.05, Math.max(0.002, speedMps * 0.002));
-      const z = synthesizeProfile({ gdN0: gd, lengthM: distanceKm * 1000, dxM, seed });
+      // the same road band as the closed form (closed-form.ts ROAD_BAND)
+      const z = synthesizeProfile({ gdN0: gd, lengthM: distanceKm * 1000, dxM, seed, nMaxCyclesPerM: ROAD_BAND.maxCyclesPerM });
       const r = simulateProfile(c, z, dxM, speedMps, { weighted: true, warmupM: Math.min(200, distanceKm * 100) });
       const out: DutyResult = {
         rmsBodyAccel: r.rmsBodyAccel,
@@ -254,6 +295,22 @@ export function runCommand(argv: string[]): unknown {
       const amplitudeM = values['amplitude-mm'] === undefined ? undefined : num(str(values['amplitude-mm']), 'amplitude-mm', 'mm') / 1000;
       return dampingFromAdhesion(c, pct, { amplitudeM });
     }
+    case 'phase-shift': {
+      const { values } = parse(rest, { spec: { type: 'string' }, 'amplitude-mm': { type: 'string' } }, 0);
+      const c = readSpec(str(values.spec));
+      const amplitudeM = values['amplitude-mm'] === undefined ? DEFAULT_PLATE_AMPLITUDE_M : num(str(values['amplitude-mm']), 'amplitude-mm', 'mm') / 1000;
+      // the linear model's phase does not depend on the amplitude; it must still be a plate the wheel stays on
+      if (adhesionPct(c, { amplitudeM }).adhesionPct <= 0) {
+        throw new PhysicsInputError('amplitude-mm', 'mm', `the wheel leaves the plate at ${amplitudeM * 1000} mm amplitude (0 % adhesion): no phase can be measured`);
+      }
+      const r = phaseShift(c);
+      return { minPhaseDeg: r.minPhaseDeg, atHz: r.atHz };
+    }
+    case 'damping-from-phase': {
+      const { values } = parse(rest, { spec: { type: 'string' }, 'phase-deg': { type: 'string' } }, 0);
+      const c = readSpec(str(values.spec));
+      return dampingFromPhase(c, num(str(values['phase-deg']), 'phase-deg', '°'));
+    }
     case 'exposure': {
       const { values } = parse(rest, { trips: { type: 'string' } }, 0);
       const path = str(values.trips);
@@ -262,6 +319,21 @@ export function runCommand(argv: string[]): unknown {
       if (!Array.isArray(trips)) throw new PhysicsInputError('trips', 'JSON', 'must be a list of { "weightedAccel", "hours" }');
       const a8 = dailyA8(trips as ExposureTrip[]);
       return { a8, actionValue: EXPOSURE_ACTION_VALUE, limitValue: EXPOSURE_LIMIT_VALUE, status: exposureStatus(a8) };
+    }
+    case 'roughness': {
+      const { values } = parse(rest, { iri: { type: 'string' }, gd: { type: 'string' }, 'dx-m': { type: 'string' } }, 0);
+      const iriArg = str(values.iri);
+      const gdArg = str(values.gd);
+      if ((iriArg === undefined) === (gdArg === undefined)) throw new CliUsageError('give exactly one of --iri <m/km> or --gd <m3>');
+      const dxM = values['dx-m'] === undefined ? IRI_CONVERSION_DX_M : num(str(values['dx-m']), 'dx-m', 'm');
+      if (iriArg !== undefined) {
+        const v = num(iriArg, 'iri', 'm/km');
+        const gdN0 = gdFromIri(v, dxM);
+        return { iri: v, gdN0, class: classifyGd(gdN0) };
+      }
+      const gdN0 = num(gdArg, 'gd', 'm³');
+      if (!(gdN0 > 0)) throw new PhysicsInputError('gd', 'm³', `must be above 0, got ${gdN0}`);
+      return { iri: iriFromGd(gdN0, dxM), gdN0, class: classifyGd(gdN0) };
     }
     case 'weibull': {
       const { positionals } = parse(rest, {}, 1);

@@ -12,9 +12,9 @@
  */
 import { lyapunov } from './linalg';
 import { stateSpace } from './quarter-car';
-import { appendWk } from './exposure';
+import { appendWk, wkWeight } from './exposure';
 import { ISO8608_N0, gdForClass } from './iso8608';
-import { requireInRange, validateCorner, validateSpeed, type CornerParams } from './types';
+import { STANDARD_GRAVITY, requireInRange, validateCorner, validateSpeed, type CornerParams } from './types';
 
 /** Variances per unit Gd(n0) for one (corner, speed), ready for {@link dutyOnRoad}. */
 export interface PreparedDuty {
@@ -62,21 +62,44 @@ const quadForm = (p: Float64Array, r: Float64Array, n: number): number => {
 };
 
 /**
- * Solve once per (corner, speed): the quarter car with the ISO 2631-1 `Wk` filter appended
- * (order 12), one Lyapunov solve, and the variance of each output per unit Gd(n0).
+ * The road input every duty figure of the app is computed on, closed form and simulation alike:
+ * an ISO 8608 road seen through wavelengths of at least 0.6 m (spatial frequencies up to
+ * 1/0.6 = 1.667 cycles/m). That is the band every accepted survey carries (sample interval
+ * ≤ 0.3 m, Nyquist 1.667 cycles/m), and waves shorter than about twice a tyre's contact length
+ * are largely enveloped by the tyre (common practice, from memory). The same limit on both
+ * methods makes a profiled segment and a classified segment of the same Gd(n0) read alike
+ * (docs/methods.md "One road model for both methods").
+ */
+export const ROAD_BAND = Object.freeze({ maxCyclesPerM: 1 / 0.6 });
+
+/** Options of {@link prepareDuty}. */
+export interface PrepareDutyOptions {
+  /** Highest road spatial frequency [cycles/m], or 'unlimited' for the white-velocity road (default {@link ROAD_BAND}). */
+  maxCyclesPerM?: number | 'unlimited';
+}
+
+/**
+ * Solve once per (corner, speed): the variance of each output per unit Gd(n0).
  *
- * Method: Lyapunov equation for white road velocity over the whole frequency range (no band
- * limit), physics.md §2; `Wk` realisation from {@link appendWk}.
+ * Method, band-limited road (the default, {@link ROAD_BAND}): each output's variance is
+ * `∫ |H(f)|²·Gd(n0)·n0²·v/f² df` from 0.01 Hz to `f_max = n_max·v`, |H| from the closed-form
+ * transfer functions of the two-mass model (as quarter-car.ts `cornerTransfer`) and, for the
+ * weighted acceleration, the ISO 2631-1 `Wk` magnitude ({@link wkWeight}); trapezoid rule in
+ * ln f, 400 points a decade (below 0.01 Hz every integrand vanishes as f²). Unlimited road: Lyapunov equation for white road velocity over the
+ * whole frequency range, physics.md §2, with the `Wk` realisation of {@link appendWk}.
  *
  * @param c corner parameters [kg, N/m, N·s/m]
  * @param speedMps speed [m/s]
+ * @param opts road band (default {@link ROAD_BAND})
  * @returns cached variances per unit Gd(n0)
  * @example
  * prepareDuty(corner, 80 / 3.6).speedMps; // → 22.22…
  */
-export function prepareDuty(c: CornerParams, speedMps: number): PreparedDuty {
+export function prepareDuty(c: CornerParams, speedMps: number, opts: PrepareDutyOptions = {}): PreparedDuty {
   validateCorner(c);
   validateSpeed(speedMps);
+  const band = opts.maxCyclesPerM ?? ROAD_BAND.maxCyclesPerM;
+  if (band !== 'unlimited') return prepareBandLimited(c, speedMps, requireInRange('maxCyclesPerM', band, 'cycles/m', 0.05, 1000, false));
   const ss = stateSpace(c);
   const aug = appendWk(ss.A, ss.B, 4, ss.outputs.bodyAccel);
   const n = aug.n;
@@ -98,6 +121,80 @@ export function prepareDuty(c: CornerParams, speedMps: number): PreparedDuty {
     varTravelPerGd: k * quadForm(p, pad(ss.outputs.suspensionTravel), n),
     varRelVelPerGd: k * quadForm(p, pad(ss.outputs.relativeVelocity), n),
     varTireLoadRatioPerGd: (k * quadForm(p, pad(ss.outputs.tireLoad), n)) / (ss.staticLoadN * ss.staticLoadN),
+  };
+}
+
+/** Fixed log-frequency grid of the band-limited integrals: from 0.01 Hz in steps of ln(10)/400 (400 points a decade). */
+const GRID_F0 = 0.01;
+const GRID_LN_STEP = Math.LN10 / 400;
+let wkSquaredGrid = new Float64Array(0);
+
+/** |Wk|² on the grid up to index `n` (cached: it depends on frequency only). */
+function wkSquared(n: number): Float64Array {
+  if (wkSquaredGrid.length <= n) {
+    const g = new Float64Array(n + 401);
+    for (let i = 0; i < g.length; i++) g[i] = wkWeight(GRID_F0 * Math.exp(i * GRID_LN_STEP)) ** 2;
+    wkSquaredGrid = g;
+  }
+  return wkSquaredGrid;
+}
+
+function prepareBandLimited(c: CornerParams, v: number, nMax: number): PreparedDuty {
+  const { sprungMassKg: ms, unsprungMassKg: mu, springRateNPerM: ks, dampingNsPerM: cs, tireRateNPerM: kt } = c;
+  const f1 = nMax * v;
+  // whole grid steps up to f1, then one partial step ending exactly at f1
+  const last = Math.max(1, Math.floor(Math.log(f1 / GRID_F0) / GRID_LN_STEP));
+  const wk2 = wkSquared(last + 1);
+  const out = new Float64Array(5); // acc, weighted, travel, relvel, tyre load
+  const prev = new Float64Array(5);
+  const cur = new Float64Array(5);
+  const at = (f: number, wkSq: number, into: Float64Array) => {
+    // closed-form transfer magnitudes of quarter-car.ts cornerTransfer, inlined (no allocation)
+    const w = 2 * Math.PI * f;
+    const w2 = w * w;
+    const dRe = ms * mu * w2 * w2 - (ms * (ks + kt) + mu * ks) * w2 + ks * kt;
+    const dIm = -cs * (ms + mu) * w2 * w + cs * kt * w;
+    const den = dRe * dRe + dIm * dIm;
+    const zs2 = (kt * kt * (ks * ks + cs * cs * w2)) / den;
+    const travel2 = (kt * ms * w2) ** 2 / den;
+    const nr = kt * (ks - ms * w2);
+    const ni = kt * cs * w;
+    const zuRe = (nr * dRe + ni * dIm) / den;
+    const zuIm = (ni * dRe - nr * dIm) / den;
+    const tire2 = kt * kt * ((1 - zuRe) ** 2 + zuIm * zuIm);
+    // integrand × f (integral in ln f); road displacement PSD per unit Gd(n0): n0²·v/f²
+    const g = (ISO8608_N0 * ISO8608_N0 * v) / f;
+    const acc2 = w2 * w2 * zs2;
+    into[0] = acc2 * g;
+    into[1] = acc2 * wkSq * g;
+    into[2] = travel2 * g;
+    into[3] = travel2 * w2 * g;
+    into[4] = tire2 * g;
+  };
+  at(GRID_F0, wk2[0], prev);
+  for (let i = 1; i <= last; i++) {
+    at(GRID_F0 * Math.exp(i * GRID_LN_STEP), wk2[i], cur);
+    for (let k = 0; k < 5; k++) {
+      out[k] += 0.5 * GRID_LN_STEP * (prev[k] + cur[k]);
+      prev[k] = cur[k];
+    }
+  }
+  const fLast = GRID_F0 * Math.exp(last * GRID_LN_STEP);
+  const h = Math.log(f1 / fLast);
+  if (h > 0) {
+    const frac = h / GRID_LN_STEP;
+    at(f1, wk2[last] + (wk2[last + 1] - wk2[last]) * frac, cur);
+    for (let k = 0; k < 5; k++) out[k] += 0.5 * h * (prev[k] + cur[k]);
+  }
+  const w = (ms + mu) * STANDARD_GRAVITY;
+  return {
+    speedMps: v,
+    dampingNsPerM: cs,
+    varBodyAccelPerGd: out[0],
+    varWeightedAccelPerGd: out[1],
+    varTravelPerGd: out[2],
+    varRelVelPerGd: out[3],
+    varTireLoadRatioPerGd: out[4] / (w * w),
   };
 }
 

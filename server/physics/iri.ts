@@ -174,27 +174,25 @@ export function iriSegments(profileM: ArrayLike<number>, dxM: number, segmentM: 
   return out;
 }
 
-let iriPerSqrtGd: number | null = null;
+let continuousK: number | null = null;
 
 /**
- * The constant K in `IRI = K·√Gd(n0)` for `w = 2` roads [ (m/km)/√m³ ], from the golden car in
- * closed form.
+ * The constant K in `IRI = K·√Gd(n0)` of the golden car in continuous closed form: white
+ * profile slope up to any frequency, no moving average, no sampling. Profiles processed by
+ * {@link iri} read lower than this (see {@link iriPerSqrtGdForInterval}); it is kept as the
+ * upper reference, not used for conversions.
  *
  * Derivation: on a `w = 2` road the profile slope is white with one-sided PSD in time
  * `G0/v²`, `G0 = 4π²·Gd(n0)·n0²·v`. The golden car's relative velocity is then Gaussian with
  * variance σ² = (G0/2)·(C·P·Cᵀ), P solving its Lyapunov equation (physics.md §2). For a
  * zero-mean Gaussian, E|x| = √(2/π)·σ, and IRI = E|zs' − zu'| / v × 1000.
- * Profiles processed by {@link iri} read slightly lower than this: ASTM's 250 mm moving average
- * (and, at 250 mm sampling, the missing content above 2 cycles/m) removes short-wavelength
- * slope that the white-slope model keeps — about 2 % at 50 mm sampling and 4 % at 250 mm on
- * synthesised roads (computed, see tests).
  *
  * @returns K ≈ 554.7 [(m/km)/√m³]
  * @example
- * iriPerSqrtGdConstant() * Math.sqrt(64e-6); // → ≈ 4.44 m/km, ISO 8608 class B geometric mean
+ * iriPerSqrtGdContinuous(); // → ≈ 554.7
  */
-export function iriPerSqrtGdConstant(): number {
-  if (iriPerSqrtGd !== null) return iriPerSqrtGd;
+export function iriPerSqrtGdContinuous(): number {
+  if (continuousK !== null) return continuousK;
   const { k1, k2, c, mu, speedMps: v } = GOLDEN_CAR;
   // state [zs − zu, zs', zu − zr, zu'], input road velocity
   const a = new Float64Array([
@@ -209,33 +207,175 @@ export function iriPerSqrtGdConstant(): number {
   const relVar = p[1 * 4 + 1] - 2 * p[1 * 4 + 3] + p[3 * 4 + 3];
   const g0PerGd = 4 * Math.PI * Math.PI * ISO8608_N0 * ISO8608_N0 * v;
   const sigmaPerSqrtGd = Math.sqrt((g0PerGd / 2) * relVar);
-  iriPerSqrtGd = (Math.sqrt(2 / Math.PI) * sigmaPerSqrtGd * 1000) / v;
-  return iriPerSqrtGd;
+  continuousK = (Math.sqrt(2 / Math.PI) * sigmaPerSqrtGd * 1000) / v;
+  return continuousK;
+}
+
+/** |C·(zI − ST)⁻¹·PR|² for z = e^{jθ}, C = [1, 0, −1, 0] (4×4 complex Gaussian elimination). */
+function goldenGainSquared(st: Float64Array, pr: Float64Array, theta: number): number {
+  const cr = Math.cos(theta);
+  const ci = Math.sin(theta);
+  // augmented rows [re(M) | re(b)], [im(M) | im(b)], M = zI − ST, b = PR
+  const re = new Float64Array(20);
+  const im = new Float64Array(20);
+  for (let i = 0; i < 4; i++) {
+    for (let j = 0; j < 4; j++) re[i * 5 + j] = (i === j ? cr : 0) - st[i * 4 + j];
+    im[i * 5 + i] = ci;
+    re[i * 5 + 4] = pr[i];
+  }
+  for (let col = 0; col < 4; col++) {
+    let piv = col;
+    let best = -1;
+    for (let r = col; r < 4; r++) {
+      const m = Math.hypot(re[r * 5 + col], im[r * 5 + col]);
+      if (m > best) {
+        best = m;
+        piv = r;
+      }
+    }
+    if (piv !== col) {
+      for (let j = 0; j < 5; j++) {
+        [re[col * 5 + j], re[piv * 5 + j]] = [re[piv * 5 + j], re[col * 5 + j]];
+        [im[col * 5 + j], im[piv * 5 + j]] = [im[piv * 5 + j], im[col * 5 + j]];
+      }
+    }
+    const pr0 = re[col * 5 + col];
+    const pi0 = im[col * 5 + col];
+    const d = pr0 * pr0 + pi0 * pi0;
+    for (let r = col + 1; r < 4; r++) {
+      // f = M[r][col] / M[col][col]
+      const ar = re[r * 5 + col];
+      const ai = im[r * 5 + col];
+      const fr = (ar * pr0 + ai * pi0) / d;
+      const fi = (ai * pr0 - ar * pi0) / d;
+      for (let j = col; j < 5; j++) {
+        const br = re[col * 5 + j];
+        const bi = im[col * 5 + j];
+        re[r * 5 + j] -= fr * br - fi * bi;
+        im[r * 5 + j] -= fr * bi + fi * br;
+      }
+    }
+  }
+  const xr = new Float64Array(4);
+  const xi = new Float64Array(4);
+  for (let r = 3; r >= 0; r--) {
+    let sr = re[r * 5 + 4];
+    let si = im[r * 5 + 4];
+    for (let j = r + 1; j < 4; j++) {
+      sr -= re[r * 5 + j] * xr[j] - im[r * 5 + j] * xi[j];
+      si -= re[r * 5 + j] * xi[j] + im[r * 5 + j] * xr[j];
+    }
+    const pr0 = re[r * 5 + r];
+    const pi0 = im[r * 5 + r];
+    const d = pr0 * pr0 + pi0 * pi0;
+    xr[r] = (sr * pr0 + si * pi0) / d;
+    xi[r] = (si * pr0 - sr * pi0) / d;
+  }
+  const yr = xr[0] - xr[2];
+  const yi = xi[0] - xi[2];
+  return yr * yr + yi * yi;
+}
+
+const intervalK = new Map<number, number>();
+
+/**
+ * The constant K in `IRI = K·√Gd(n0)` as {@link iri} itself computes IRI on a `w = 2` profile
+ * sampled at `dxM` (band-limited to its Nyquist frequency 1/(2·dx), as survey profiles and the
+ * app's synthesised profiles are).
+ *
+ * Derivation (computed, docs/methods.md "IRI and Gd(n0)"): {@link iri} feeds the discrete golden
+ * car (ST, PR for dx) with the slope over k = round(0.25 m / dx) samples (the 250 mm moving
+ * average; k = 1 at 0.25 m). That slope sequence has one-sided PSD
+ * `S_u(n) = Gd(n0)·n0²/n² · 4·sin²(π·n·k·dx)/(k·dx)²` for 0 < n ≤ 1/(2dx); the rectified output
+ * `zs − zu` has variance `σ² = ∫ |C(e^{j2πn·dx}I − ST)⁻¹PR|²·S_u(n) dn`, and IRI = √(2/π)·σ·1000.
+ * Trapezoid rule on a log grid, 6000 points from 10⁻⁵ cycles/m to the Nyquist frequency.
+ * Checked against golden-car runs over seeded profiles (tests).
+ *
+ * @param dxM sample interval [m], 1 mm – 0.3 m
+ * @returns K [(m/km)/√m³]: ≈ 543 at 0.01–0.05 m, ≈ 532 at 0.25 m, ≈ 523 at 0.3 m
+ * @example
+ * iriPerSqrtGdForInterval(0.25); // → ≈ 532.3
+ */
+export function iriPerSqrtGdForInterval(dxM: number): number {
+  requireInRange('dxM', dxM, 'm', 0.001, 0.3, false);
+  const hit = intervalK.get(dxM);
+  if (hit !== undefined) return hit;
+  const { ST, PR } = goldenCarST_PR(dxM);
+  const k = Math.max(1, Math.round(GOLDEN_CAR.baseM / dxM));
+  const base = k * dxM;
+  const nyq = 1 / (2 * dxM);
+  const n0 = ISO8608_N0;
+  const points = 6000;
+  const lo = 1e-5;
+  const r = Math.pow(nyq / lo, 1 / (points - 1));
+  let variance = 0;
+  let prevN = 0;
+  let prevG = 0;
+  for (let i = 0; i < points; i++) {
+    const n = i === points - 1 ? nyq : lo * Math.pow(r, i);
+    const s = Math.sin(Math.PI * n * base);
+    const su = ((n0 * n0) / (n * n)) * (4 * s * s) / (base * base);
+    const g = goldenGainSquared(ST, PR, 2 * Math.PI * n * dxM) * su;
+    if (i === 0) variance += g * n; // 0 … lo: the integrand is flat there
+    else variance += 0.5 * (n - prevN) * (g + prevG);
+    prevN = n;
+    prevG = g;
+  }
+  const kk = Math.sqrt(2 / Math.PI) * Math.sqrt(variance) * 1000;
+  intervalK.set(dxM, kk);
+  return kk;
 }
 
 /**
- * IRI of an ISO 8608 `w = 2` road of given `Gd(n0)` (see {@link iriPerSqrtGdConstant}).
+ * The reference sample interval of the IRI ↔ Gd(n0) conversion [m] when the profile behind an
+ * IRI is not known (an IRI typed in, a class drawn as IRI): a finely sampled profile under
+ * ASTM E1926's 250 mm moving average, the limit the standard's IRI tends to. K there ≈ 542.7;
+ * it is ≈ 543 from 0.01 to 0.05 m and reads lower at coarser intervals (≈ 532 at 0.25 m,
+ * ≈ 523 at 0.3 m), where the profile no longer carries the short waves the moving average
+ * passes — conversions of an IRI the app measured on a survey use that survey's interval.
+ */
+export const IRI_CONVERSION_DX_M = 0.05;
+
+/**
+ * The constant K in `IRI = K·√Gd(n0)` used by every IRI ↔ Gd(n0) conversion in the app: the
+ * golden car as {@link iri} computes it at {@link IRI_CONVERSION_DX_M}
+ * ({@link iriPerSqrtGdForInterval}), so a road synthesised at Gd(n0) and measured by the app
+ * reads back the same Gd(n0).
+ *
+ * @returns K ≈ 542.7 [(m/km)/√m³]
+ * @example
+ * iriPerSqrtGdConstant() * Math.sqrt(64e-6); // → ≈ 4.34 m/km, ISO 8608 class B geometric mean
+ */
+export function iriPerSqrtGdConstant(): number {
+  return iriPerSqrtGdForInterval(IRI_CONVERSION_DX_M);
+}
+
+/**
+ * IRI of an ISO 8608 `w = 2` road of given `Gd(n0)`, as the app's golden car reads it on a
+ * profile sampled at `dxM` (see {@link iriPerSqrtGdForInterval}).
  *
  * @param gdN0 displacement PSD at n0 = 0.1 cycles/m [m³], ≥ 0
+ * @param dxM sample interval of the profile the IRI is read on [m] (default {@link IRI_CONVERSION_DX_M})
  * @returns IRI [m/km]
  * @example
- * iriFromGd(256e-6); // → ≈ 8.88 m/km (class C mean; twice class B since IRI ∝ √Gd)
+ * iriFromGd(256e-6); // → ≈ 8.68 m/km (class C mean; twice class B since IRI ∝ √Gd)
  */
-export function iriFromGd(gdN0: number): number {
+export function iriFromGd(gdN0: number, dxM: number = IRI_CONVERSION_DX_M): number {
   requireInRange('gdN0', gdN0, 'm³', 0, 1, false);
-  return iriPerSqrtGdConstant() * Math.sqrt(gdN0);
+  return iriPerSqrtGdForInterval(dxM) * Math.sqrt(gdN0);
 }
 
 /**
  * `Gd(n0)` of the ISO 8608 `w = 2` road with a given IRI (inverse of {@link iriFromGd}).
  *
  * @param iriMPerKm IRI [m/km], ≥ 0
+ * @param dxM sample interval of the profile the IRI was read on [m] (default {@link IRI_CONVERSION_DX_M})
  * @returns Gd(n0) [m³]
  * @example
  * gdFromIri(iriFromGd(64e-6)); // → 64e-6
  */
-export function gdFromIri(iriMPerKm: number): number {
+export function gdFromIri(iriMPerKm: number, dxM: number = IRI_CONVERSION_DX_M): number {
   requireInRange('iri', iriMPerKm, 'm/km', 0, 1000, false);
-  const k = iriPerSqrtGdConstant();
+  const k = iriPerSqrtGdForInterval(dxM);
   return (iriMPerKm / k) ** 2;
 }

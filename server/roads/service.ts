@@ -190,7 +190,7 @@ export const roadsService = {
         routeSegmentCount: segments.length,
       },
       segments: results.map((r) => {
-        const gdN0 = gdFromIri(r.iri);
+        const gdN0 = gdFromIri(r.iri, p.dxM);
         const prev = bySeg.get(r.segmentId)!;
         return {
           segmentId: r.segmentId,
@@ -200,7 +200,7 @@ export const roadsService = {
           iri: r.iri,
           gdN0,
           isoClass: classifyGd(gdN0),
-          iriFromClassCheck: iriFromGd(gdN0),
+          iriFromClassCheck: iriFromGd(gdN0, p.dxM),
           previous: { iri: prev.iri, isoClass: prev.isoClass, source: prev.roughnessSource, date: prev.roughnessDate },
         };
       }),

@@ -10,12 +10,12 @@
  *   spring fatigue by Dirlik's spectral method from the travel PSD (moments per unit Gd(n0)
  *   computed once per cached solve — Dirlik's shape parameters do not depend on Gd(n0) for
  *   `w = 2` roads, only `m0` scales, so damage = D_ref·(Gd/Gd_ref)^(k/2)·T).
- * - Segments whose current roughness is a measured survey: time-domain simulation (exact ZOH)
- *   over the segment's part of the profile (with a lead-in so the start transient is not
- *   counted), rainflow counting of suspension travel and Miner's rule for the spring. The
- *   Wk-weighted body acceleration of such a segment comes from the closed form at the
- *   segment's Gd(n0) (derived from its measured IRI): carrying the 8-state Wk filter through
- *   every simulated step would triple the cost of the run.
+ * - Segments whose current roughness is a measured survey: time-domain simulation (exact ZOH,
+ *   the quarter car with the Wk filter appended) over the segment's part of the profile (with a
+ *   lead-in so the start transient is not counted), limited to the closed form's road band and
+ *   resampled finer; every output of the segment, the weighted acceleration included, comes
+ *   from that simulation; rainflow counting of suspension travel and Miner's rule for the
+ *   spring (docs/methods.md "One road model for both methods").
  *
  * - Damper duty measure (docs/methods.md, "Damper duty measure"): per segment, the rod sliding
  *   distance √(2/π)·σ_rel·t weighted by the heat factor, summed into the trip's severity against
@@ -35,11 +35,12 @@
  *
  * @module
  */
-import { dutyOnRoad, prepareDuty, type PreparedDuty } from '../physics/closed-form';
+import { dutyOnRoad, prepareDuty, ROAD_BAND, type PreparedDuty } from '../physics/closed-form';
 import { cornerTransfer } from '../physics/quarter-car';
 import { prepareSimulation, type PreparedSimulation } from '../physics/simulate';
 import { dirlikDamage, type SnCurve, type SpectralMoments } from '../physics/fatigue';
-import { rainflowDamage, simulateTravel } from './fast-sim';
+import { rainflowDamage, simulateWeighted } from './fast-sim';
+import { bandLimitProfile, type BandLimitedProfile } from '../physics/profile-band';
 import { jsonRows } from '../db/json-rows';
 import { ISO8608_N0, gdForClass } from '../physics/iso8608';
 import { STANDARD_GRAVITY, type CornerParams } from '../physics/types';
@@ -54,6 +55,8 @@ export const MASS_BAND_RATIO = 1.1;
 export const SPEED_BAND_KMH = 5;
 /** Lead-in simulated before a profiled segment and not counted [m]. */
 export const PROFILE_LEAD_IN_M = 30;
+/** Profile taken past a segment's end, where there is more, and not counted [m]: it keeps the band limit's edge ringing out of the segment. */
+export const PROFILE_TAIL_M = 10;
 /** Reference road for the spectral damage cache: ISO 8608 class B mean [m³]. */
 const GD_REF = gdForClass('B');
 
@@ -248,6 +251,7 @@ interface SimOutcome {
   msTravel: number;
   msTireLoadRatio: number;
   msBodyAccel: number;
+  msWeightedAccel: number;
   /** Spring damage over the segment as simulated (per traversal). */
   springDamage: number;
 }
@@ -261,6 +265,8 @@ export class DutyCache {
   private readonly prepared = new Map<string, Prepared>();
   private readonly sims = new Map<string, PreparedSimulation>();
   private readonly simResults = new Map<string, Map<number, SimOutcome>>();
+  /** Band-limited, resampled profile parts per (survey, segment): speed- and corner-independent. */
+  private readonly parts = new Map<string, { part: BandLimitedProfile; first: number; end: number } | null>();
   private travel = new Float64Array(2048);
   solves = 0;
   simulations = 0;
@@ -291,19 +297,35 @@ export class DutyCache {
     }
     const hit = results.get(seg.id);
     if (hit) return hit;
-    const from = Math.round((seg.startM - prof.startM) / prof.dxM);
-    const to = Math.round((seg.endM - prof.startM) / prof.dxM);
-    const lo = Math.max(0, from - Math.round(PROFILE_LEAD_IN_M / prof.dxM));
-    const hi = Math.min(prof.elevationsM.length - 1, to);
-    if (from < 0 || hi - Math.max(lo, from) < 4) return null; // profile does not cover the segment
-    let sim = this.sims.get(key);
-    if (!sim) {
-      sim = prepareSimulation(corner, prof.dxM, speedKmh / 3.6);
-      this.sims.set(key, sim);
+    // The segment's part of the profile with a lead-in before it and a short tail after it
+    // (neither counted), limited to the road band of the closed form and resampled finer, so
+    // both methods see the same road (docs/methods.md "One road model for both methods").
+    const partKey = `${prof.surveyId}|${prof.dxM}|${seg.id}`;
+    let cut = this.parts.get(partKey);
+    if (cut === undefined) {
+      const from = Math.round((seg.startM - prof.startM) / prof.dxM);
+      const to = Math.round((seg.endM - prof.startM) / prof.dxM);
+      const lo = Math.max(0, from - Math.round(PROFILE_LEAD_IN_M / prof.dxM));
+      const last = prof.elevationsM.length - 1;
+      const hi = Math.min(last, to);
+      const tail = Math.min(last, to + Math.round(PROFILE_TAIL_M / prof.dxM));
+      if (from < 0 || hi - Math.max(lo, from) < 4 || tail - lo < 7) cut = null; // profile does not cover the segment
+      else {
+        const part = bandLimitProfile(prof.elevationsM.subarray(lo, tail + 1), prof.dxM);
+        cut = { part, first: (from - lo) * part.factor, end: (hi - lo) * part.factor };
+      }
+      this.parts.set(partKey, cut);
     }
-    const part = prof.elevationsM.subarray(lo, hi + 1);
-    if (this.travel.length < part.length) this.travel = new Float64Array(part.length);
-    const r = simulateTravel(sim, part, from - lo, this.travel);
+    if (!cut) return null;
+    const simKey = `${key}|${cut.part.dxM}`;
+    let sim = this.sims.get(simKey);
+    if (!sim) {
+      sim = prepareSimulation(corner, cut.part.dxM, speedKmh / 3.6, { weighted: true });
+      this.sims.set(simKey, sim);
+    }
+    const n = cut.end - cut.first;
+    if (this.travel.length < n) this.travel = new Float64Array(n);
+    const r = simulateWeighted(sim, cut.part.elevationsM, cut.first, cut.end, this.travel);
     const springDamage = r.counted >= 2 ? rainflowDamage(this.travel, r.counted, sn.k, sn.C) : 0;
     const powerW = sim.dampingNsPerM * r.msRelVel;
     const out: SimOutcome = {
@@ -312,6 +334,7 @@ export class DutyCache {
       msTravel: r.msTravel,
       msTireLoadRatio: r.msTireLoad / (sim.staticLoadN * sim.staticLoadN),
       msBodyAccel: r.msBodyAccel,
+      msWeightedAccel: r.msWeightedAccel,
       springDamage,
     };
     results.set(seg.id, out);
@@ -345,7 +368,8 @@ const referenceCache = new Map<string, { energyJ: number; springDamage: number }
 /**
  * Spectral moments of suspension travel on a `w = 2` road of `gdN0` at speed v, from the
  * closed-form transfer function and the road's temporal PSD `G(f) = Gd(n0)·n0²·v / f²`,
- * trapezoid rule on a log grid 0.01–200 Hz (600 points; m0 within 1 % of the Lyapunov variance, tested).
+ * trapezoid rule on a log grid from 0.01 Hz to the road band's top `ROAD_BAND·v` (600 points; m0
+ * within 1 % of the closed form's travel variance, tested).
  *
  * @param c corner [kg, N/m, N·s/m]
  * @param speedMps speed [m/s]
@@ -354,7 +378,7 @@ const referenceCache = new Map<string, { energyJ: number; springDamage: number }
  */
 export function travelMoments(c: CornerParams, speedMps: number, gdN0: number): SpectralMoments {
   const n = 600;
-  const f0 = 0.01, f1 = 200;
+  const f0 = 0.01, f1 = ROAD_BAND.maxCyclesPerM * speedMps;
   const r = Math.pow(f1 / f0, 1 / (n - 1));
   let m0 = 0, m1 = 0, m2 = 0, m4 = 0;
   let fp = 0, gp = 0;
@@ -442,7 +466,7 @@ export function computeVehicleDuty(work: VehicleWork, routes: Map<number, DatedR
             msAcc += sim.msBodyAccel * t;
             // damage of one traversal of the segment's length, scaled to the driven length
             spring += sim.springDamage * scale;
-            if (cf) msW += cf.rmsWeightedAccel ** 2 * t;
+            msW += sim.msWeightedAccel * t;
             const rmsRel = Math.sqrt(sim.msRelVel);
             const sl = slidingM(rmsRel, t);
             sliding += sl;

@@ -96,10 +96,10 @@ export const workshopRepository = {
     const [r] = await q<{
       id: number; vehicle_id: number; due_date: string; status: string; reason: string; assignee_id: number | null; assigned_depot_id: number | null;
       completed_at: string | null; odometer_km: number | null; notes: string | null; trigger: string | null; basis: string | null; results_at: string | null;
-      results_by_id: number | null; follow_up_on: string | null; vehicle_depot_id: number; fleet_number: string; plate: string; spec_id: number; vehicle_odometer_km: number; vehicle_status: string;
+      results_by_id: number | null; follow_up_on: string | null; plate_amplitude_mm: number | null; vehicle_depot_id: number; fleet_number: string; plate: string; spec_id: number; vehicle_odometer_km: number; vehicle_status: string;
     }>(
       `SELECT i.id, i.vehicle_id, i.due_date, i.status, i.reason, i.assignee_id, i.assigned_depot_id, i.completed_at, i.odometer_km, i.notes, i."trigger", i.basis,
-              i.results_at, i.results_by_id, i.follow_up_on, v.depot_id AS vehicle_depot_id, v.fleet_number, v.plate, v.spec_id, v.odometer_km AS vehicle_odometer_km, v.status AS vehicle_status
+              i.results_at, i.results_by_id, i.follow_up_on, i.plate_amplitude_mm, v.depot_id AS vehicle_depot_id, v.fleet_number, v.plate, v.spec_id, v.odometer_km AS vehicle_odometer_km, v.status AS vehicle_status
        FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id WHERE i.id = ?`,
       [id],
       transaction,
@@ -111,7 +111,7 @@ export const workshopRepository = {
     return q<{
       id: number; inspection_id: number; damper_id: number | null; position: string; axle_index: number; adhesion_pct: number | null; findings: string; verdict: string;
       nominal_damping_ns_per_m: number; predicted_damping_ns_per_m: number | null; predicted_basis: string | null; measured_damping_ns_per_m: number | null;
-      estimate_note: string | null; energy_j_at_test: number | null; life_used_at_test: number | null;
+      estimate_note: string | null; energy_j_at_test: number | null; life_used_at_test: number | null; phase_deg: number | null; estimate_method: string | null;
     }>(`SELECT * FROM inspection_corners WHERE inspection_id IN (${inList(inspectionIds)}) ORDER BY inspection_id, axle_index, position`);
   },
 

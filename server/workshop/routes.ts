@@ -48,12 +48,14 @@ const resultsBody = (today: string) => z
     complete: z.boolean({ message: 'must be true or false' }).optional(),
     /** With a "check again soon" verdict: when to check again (default 30 days on). */
     followUpOn: followUpDate(today).nullish(),
+    plateAmplitudeMm: z.number({ message: 'must be a number in mm' }).min(0.5, 'must be 0.5–10 mm (zero-to-peak: half the stroke)').max(10, 'must be 0.5–10 mm (zero-to-peak: half the stroke)').optional(),
     corners: z
       .array(
         z
           .object({
             position,
             adhesionPct: z.number({ message: 'must be a number in %' }).min(0, 'must be 0–100 %').max(100, 'must be 0–100 %').nullable(),
+            phaseDeg: z.number({ message: 'must be a number in °' }).min(0, 'must be 0–180°').max(180, 'must be 0–180°').nullish(),
             findings: z.array(z.enum(FINDINGS, { message: `must be one of ${FINDINGS.join(', ')}` })).max(FINDINGS.length).default([]),
             verdict: z.enum(VERDICTS, { message: 'must be ok, monitor or replace' }),
           })
@@ -223,6 +225,6 @@ export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: (
   });
 
   r.get('/workshop/options', allow('manager', 'mechanic'), (_req, res) => {
-    res.json({ findings: FINDINGS, verdicts: VERDICTS, removalReasons: REMOVAL_REASONS, laneFlagPoints: cfg.laneFlagPoints, attachmentMaxBytes: cfg.attachmentMaxBytes });
+    res.json({ findings: FINDINGS, verdicts: VERDICTS, removalReasons: REMOVAL_REASONS, laneFlagPoints: cfg.laneFlagPoints, lanePlateAmplitudeMm: cfg.lanePlateAmplitudeMm, attachmentMaxBytes: cfg.attachmentMaxBytes });
   });
 }

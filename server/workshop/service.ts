@@ -5,7 +5,7 @@
  */
 import fs from 'node:fs';
 import { addDays, formatISO, parseISO, startOfISOWeek } from 'date-fns';
-import { dampingFromAdhesion, NoDampingSolutionError } from '../physics/adhesion';
+import { estimateFromLane } from '../physics/lane-estimate';
 import type { CornerParams } from '../physics/types';
 import { estimatedDamping } from '../wear/wear';
 import { repredictVehicle } from '../wear/repredict';
@@ -100,17 +100,29 @@ const cornerParams = (r: FittedCornerRow): CornerParams => ({
 });
 
 /**
- * Present damping from a measured adhesion % with the engine's inverse, or why none.
+ * Present damping from a corner's lane readings (adhesion %, minimum phase, or both) with the
+ * engine's inverses; with both, the better-conditioned one, named (docs/methods.md
+ * "Phase-shift method"). Null with the reason when no reading explains a damping.
  *
  * @param c corner with its nominal damping [N·s/m]
- * @param pct measured adhesion [%]
+ * @param pct measured adhesion [%], null if not measured
+ * @param plateAmplitudeMm plate amplitude (zero-to-peak) of the lane that measured it [mm]
+ * @param phaseDeg measured minimum phase [°], null if not measured
  */
-export function estimateDamping(c: CornerParams, pct: number): { dampingNsPerM: number | null; note: string | null } {
+export function estimateDamping(
+  c: CornerParams,
+  pct: number | null,
+  plateAmplitudeMm: number,
+  phaseDeg: number | null = null,
+): { dampingNsPerM: number | null; method: 'adhesion' | 'phase' | null; note: string | null } {
+  if (pct === null && phaseDeg === null) return { dampingNsPerM: null, method: null, note: null };
   try {
-    return { dampingNsPerM: dampingFromAdhesion(c, pct).dampingNsPerM, note: null };
+    const e = estimateFromLane(c, { adhesionPct: pct, phaseDeg, amplitudeM: plateAmplitudeMm / 1000 });
+    // one reading alone: no need to say which it came from unless it failed
+    const note = e.dampingNsPerM !== null && e.inversions.length === 1 ? null : e.note;
+    return { dampingNsPerM: e.dampingNsPerM, method: e.method, note };
   } catch (e) {
-    if (e instanceof NoDampingSolutionError) return { dampingNsPerM: null, note: e.message.replace(/^physics: /, '') };
-    return { dampingNsPerM: null, note: `no estimate: ${(e as Error).message}` };
+    return { dampingNsPerM: null, method: null, note: `no estimate: ${(e as Error).message}` };
   }
 }
 
@@ -234,19 +246,22 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       const i = await workshopRepository.inspectionRow(id);
       if (!i) throw AppError.notFound('Inspection');
       await scopeCheck(user, i);
-      const [{ by }, results, attachments, work, assignee, depot] = await Promise.all([
+      const [{ by }, results, attachments, work, assignee, depot, spec] = await Promise.all([
         cornersOf([i.vehicle_id]),
         workshopRepository.cornerResults([id]),
         workshopRepository.attachments(id),
         workshopRepository.workRecords({ inspectionId: id }),
         i.assignee_id ? workshopRepository.user(i.assignee_id) : Promise.resolve(null),
         q<{ id: number; name: string }>('SELECT id, name FROM depots WHERE id = ?', [i.assigned_depot_id ?? i.vehicle_depot_id]),
+        q<{ vehicle_class: string }>('SELECT vehicle_class FROM suspension_specs WHERE id = ?', [i.spec_id]),
       ]);
       const corners = results.map((c) => ({
         position: c.position,
         axleIndex: c.axle_index,
         damperId: c.damper_id,
         adhesionPct: c.adhesion_pct,
+        phaseDeg: c.phase_deg,
+        estimateMethod: c.estimate_method,
         findings: JSON.parse(c.findings) as string[],
         verdict: c.verdict,
         nominalNsPerM: c.nominal_damping_ns_per_m,
@@ -257,7 +272,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       }));
       return {
         id: i.id,
-        vehicle: { id: i.vehicle_id, fleetNumber: i.fleet_number, plate: i.plate, odometerKm: i.vehicle_odometer_km, status: i.vehicle_status },
+        vehicle: { id: i.vehicle_id, fleetNumber: i.fleet_number, plate: i.plate, odometerKm: i.vehicle_odometer_km, status: i.vehicle_status, vehicleClass: spec[0]?.vehicle_class ?? null },
         dueDate: i.due_date,
         status: i.status,
         reason: i.reason,
@@ -268,6 +283,8 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         assignedDepotId: i.assigned_depot_id,
         odometerKm: i.odometer_km,
         notes: i.notes,
+        /** Plate amplitude the results were measured (and inverted) at [mm]; the lane's setting until results exist. */
+        plateAmplitudeMm: i.plate_amplitude_mm ?? cfg.lanePlateAmplitudeMm,
         resultsAt: iso(i.results_at),
         completedAt: iso(i.completed_at),
         followUpOn: i.follow_up_on,
@@ -309,7 +326,10 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
     async recordResults(
       user: SessionUser,
       id: number,
-      body: { odometerKm: number; notes?: string | null; complete?: boolean; followUpOn?: string | null; corners: { position: string; adhesionPct: number | null; findings: string[]; verdict: string }[] },
+      body: {
+        odometerKm: number; notes?: string | null; complete?: boolean; followUpOn?: string | null; plateAmplitudeMm?: number;
+        corners: { position: string; adhesionPct: number | null; phaseDeg?: number | null; findings: string[]; verdict: string }[];
+      },
     ) {
       const i = await workshopRepository.inspectionRow(id);
       if (!i) throw AppError.notFound('Inspection');
@@ -329,21 +349,23 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         throw AppError.badRequest('A follow-up date goes with a "check again soon" verdict.', { followUpOn: 'give a corner the verdict "check again soon", or leave the follow-up date empty' });
       }
       const followUpOn = checkAgain ? (body.followUpOn ?? day(addDays(parseISO(today()), FOLLOW_UP_DEFAULT_DAYS))) : null;
+      // each value is inverted at the amplitude of the lane that measured it (the lane's setting unless the mechanic gives the rig's own)
+      const amplitudeMm = body.plateAmplitudeMm ?? cfg.lanePlateAmplitudeMm;
       const computed = body.corners.map((c) => {
         const r = rows.find((x) => x.position === c.position)!;
         const st = cornerState(r, lives, cfg.inspectionThreshold);
-        const est = c.adhesionPct === null ? { dampingNsPerM: null, note: null } : estimateDamping(cornerParams(r), c.adhesionPct);
+        const est = estimateDamping(cornerParams(r), c.adhesionPct, amplitudeMm, c.phaseDeg ?? null);
         return { c, r, st, est };
       });
       await inTransaction(async (t) => {
         await exec('DELETE FROM inspection_corners WHERE inspection_id = ?', [id], t);
         for (const { c, r, st, est } of computed) {
           await exec(
-            `INSERT INTO inspection_corners (inspection_id, damper_id, position, axle_index, adhesion_pct, findings, verdict, nominal_damping_ns_per_m, predicted_damping_ns_per_m,
-               predicted_basis, measured_damping_ns_per_m, estimate_note, energy_j_at_test, life_used_at_test, wear_km_at_test, created_at, updated_at)
-             VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
-            [id, r.damper_id, c.position, r.axle_index, c.adhesionPct, JSON.stringify(c.findings), c.verdict, r.nominal_ns_per_m, st.dampingNsPerM, st.basis,
-              est.dampingNsPerM, est.note, r.energy_j, st.lifeUsedFraction, r.p_wear_km ?? 0, stamp(now), stamp(now)],
+            `INSERT INTO inspection_corners (inspection_id, damper_id, position, axle_index, adhesion_pct, phase_deg, findings, verdict, nominal_damping_ns_per_m, predicted_damping_ns_per_m,
+               predicted_basis, measured_damping_ns_per_m, estimate_method, estimate_note, energy_j_at_test, life_used_at_test, wear_km_at_test, created_at, updated_at)
+             VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`,
+            [id, r.damper_id, c.position, r.axle_index, c.adhesionPct, c.phaseDeg ?? null, JSON.stringify(c.findings), c.verdict, r.nominal_ns_per_m, st.dampingNsPerM, st.basis,
+              est.dampingNsPerM, est.method, est.note, r.energy_j, st.lifeUsedFraction, r.p_wear_km ?? 0, stamp(now), stamp(now)],
             t,
           );
           if (est.dampingNsPerM !== null) {
@@ -358,8 +380,8 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
           }
         }
         await exec(
-          `UPDATE inspections SET odometer_km = ?, notes = ?, results_at = ?, results_by_id = ?, follow_up_on = ?, updated_at = ?${body.complete ? `, status = 'done', completed_at = ?` : ''} WHERE id = ?`,
-          [body.odometerKm, body.notes ?? null, stamp(now), user.id, followUpOn, stamp(now), ...(body.complete ? [stamp(now)] : []), id],
+          `UPDATE inspections SET odometer_km = ?, notes = ?, plate_amplitude_mm = ?, results_at = ?, results_by_id = ?, follow_up_on = ?, updated_at = ?${body.complete ? `, status = 'done', completed_at = ?` : ''} WHERE id = ?`,
+          [body.odometerKm, body.notes ?? null, amplitudeMm, stamp(now), user.id, followUpOn, stamp(now), ...(body.complete ? [stamp(now)] : []), id],
           t,
         );
         await exec('UPDATE vehicles SET odometer_km = MAX(odometer_km, ?), updated_at = ? WHERE id = ?', [body.odometerKm, stamp(now), i.vehicle_id], t);
@@ -618,9 +640,9 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       if (!v) throw AppError.notFound('Vehicle');
       const { by, lives } = await cornersOf([vehicleId]);
       const life = lives.get(v.spec_id)!;
-      const comparisons = await q<{ inspection_id: number; position: string; adhesion_pct: number | null; predicted: number | null; measured: number | null; nominal: number; note: string | null; verdict: string; at: string | null; basis: string | null }>(
+      const comparisons = await q<{ inspection_id: number; position: string; adhesion_pct: number | null; predicted: number | null; measured: number | null; nominal: number; note: string | null; verdict: string; at: string | null; basis: string | null; amplitude: number | null; phase: number | null; method: string | null }>(
         `SELECT c.inspection_id, c.position, c.adhesion_pct, c.predicted_damping_ns_per_m AS predicted, c.measured_damping_ns_per_m AS measured, c.nominal_damping_ns_per_m AS nominal,
-                c.estimate_note AS note, c.verdict, COALESCE(i.results_at, i.completed_at) AS at, c.predicted_basis AS basis
+                c.estimate_note AS note, c.verdict, COALESCE(i.results_at, i.completed_at) AS at, c.predicted_basis AS basis, i.plate_amplitude_mm AS amplitude, c.phase_deg AS phase, c.estimate_method AS method
          FROM inspection_corners c JOIN inspections i ON i.id = c.inspection_id WHERE i.vehicle_id = ? ORDER BY i.results_at DESC, c.axle_index, c.position`,
         [vehicleId],
       );
@@ -637,7 +659,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
           shape: life.shape,
           text: `Life used is measured against ${modelNote(life)}.`,
         },
-        comparisons: comparisons.map((c) => ({ inspectionId: c.inspection_id, position: c.position, adhesionPct: c.adhesion_pct, predictedNsPerM: c.predicted, measuredNsPerM: c.measured, nominalNsPerM: c.nominal, note: c.note, verdict: c.verdict, at: iso(c.at), basis: c.basis })),
+        comparisons: comparisons.map((c) => ({ inspectionId: c.inspection_id, position: c.position, adhesionPct: c.adhesion_pct, predictedNsPerM: c.predicted, measuredNsPerM: c.measured, nominalNsPerM: c.nominal, note: c.note, verdict: c.verdict, at: iso(c.at), basis: c.basis, plateAmplitudeMm: c.amplitude ?? cfg.lanePlateAmplitudeMm, phaseDeg: c.phase, estimateMethod: c.method })),
         workRecords: (await workshopRepository.workRecords({ vehicleId })).map(workView),
       };
     },

@@ -1,7 +1,7 @@
 import { describe, it } from 'vitest';
 import { adhesionPct, dampingFromAdhesion, NoDampingSolutionError, adhesionBand, DEFAULT_PLATE_AMPLITUDE_M } from '../../server/physics/adhesion';
 import { modes } from '../../server/physics/quarter-car';
-import { checkClose, checkRange, checkThat, CAR } from './check';
+import { checkClose, checkRange, checkThat, CAR, DEMO_CORNERS } from './check';
 
 describe('adhesionPct (EUSAMA-style sweep)', () => {
   it('when damping falls toward zero, then predicted adhesion falls, reaching 0 % (property, physics.md §4)', () => {
@@ -10,7 +10,7 @@ describe('adhesionPct (EUSAMA-style sweep)', () => {
     for (let i = 1; i < values.length; i++) {
       checkThat(values[i] <= values[i - 1], 'property: adhesion falls with damping on the worn side', `cs ${dampings[i]} → ${values[i]} %, above ${values[i - 1]} % at ${dampings[i - 1]}`);
     }
-    checkThat(values[0] - values[3] > 20, 'property', `expected a clear fall, got ${values.join(', ')}`);
+    checkThat(values[0] - values[3] > 15, 'property', `expected a clear fall, got ${values.join(', ')}`);
     checkClose(values[values.length - 1], 0, { abs: 0 }, 'property: undamped wheel hop lifts the wheel (clipped at 0)', { cs: 50 });
   });
 
@@ -26,9 +26,20 @@ describe('adhesionPct (EUSAMA-style sweep)', () => {
     checkClose(100 - a3, (100 - a6) / 2, { rel: 1e-9 }, 'property: linearity', { a6, a3 });
   });
 
-  it('when no amplitude is given, then the default is 6 mm (from memory, common practice, physics.md §4)', () => {
-    checkClose(DEFAULT_PLATE_AMPLITUDE_M, 0.006, { abs: 0 }, 'physics.md §4 (from memory)', {});
-    checkClose(adhesionPct(CAR).adhesionPct, adhesionPct(CAR, { amplitudeM: 0.006 }).adhesionPct, { abs: 0 }, 'definition', {});
+  it('when no amplitude is given, then the default is 3 mm, half the 6 mm peak-to-peak stroke (from memory, physics.md §4)', () => {
+    checkClose(DEFAULT_PLATE_AMPLITUDE_M, 0.003, { abs: 0 }, 'physics.md §4 (from memory)', {});
+    checkClose(adhesionPct(CAR).adhesionPct, adhesionPct(CAR, { amplitudeM: 0.003 }).adhesionPct, { abs: 0 }, 'definition', {});
+  });
+
+  it('when new dampers on the demo specs are read at the 3 mm default, then they read good (≥ 60 %), and worn to half their damping they read lower (common practice, physics.md §4)', () => {
+    for (const [name, c] of Object.entries(DEMO_CORNERS)) {
+      const fresh = adhesionPct(c).adhesionPct;
+      checkRange(fresh, 60, 80, 'physics.md §4: new dampers commonly read 60–80 % (common practice)', { name, fresh });
+      const worn = adhesionPct({ ...c, dampingNsPerM: c.dampingNsPerM / 2 }).adhesionPct;
+      checkThat(worn < fresh - 8, 'computed: a damper at half its damping reads clearly lower', `${name}: new ${fresh} %, half damping ${worn} %`);
+      // read as a 6 mm amplitude the same new damper loses twice as much (linear model): the reading the default used to make
+      checkClose(100 - adhesionPct(c, { amplitudeM: 0.006 }).adhesionPct, 2 * (100 - fresh), { rel: 1e-9 }, 'property: linearity', { name });
+    }
   });
 
   it('when the amplitude is 50 mm, then the error names amplitudeM and m', () => {
@@ -68,17 +79,28 @@ describe('dampingFromAdhesion', () => {
     }
   });
 
+  it('when a new courier-van rear damper reads 65 % (above the 63.8 % its nominal predicts), then the inverse reads it as at least new; a poor 20 % reads well below nominal (computed)', () => {
+    const rear = DEMO_CORNERS.courierVanRear;
+    const fresh = dampingFromAdhesion(rear, 65).dampingNsPerM;
+    checkRange(fresh / rear.dampingNsPerM, 1, 1.5, 'computed: above the nominal prediction means at least nominal damping', { fresh });
+    const poor = dampingFromAdhesion(rear, 20).dampingNsPerM;
+    checkRange(poor / rear.dampingNsPerM, 0.25, 0.5, 'computed: a poor reading means a worn damper', { poor });
+    // the lane's own amplitude: the same 20 % read on a 6 mm-amplitude rig is a better damper than on a 3 mm one
+    const at6 = dampingFromAdhesion(rear, 20, { amplitudeM: 0.006 }).dampingNsPerM;
+    checkThat(at6 > poor * 1.5, 'computed: inversion depends on the amplitude that measured it', `3 mm ${poor}, 6 mm ${at6}`);
+  });
+
   it('when the measurement is above anything the worn side reaches, then it says no damping value explains it', () => {
     let err: unknown = null;
     try {
-      dampingFromAdhesion(CAR, 90);
+      dampingFromAdhesion(CAR, 97);
     } catch (e) {
       err = e;
     }
     checkThat(err instanceof NoDampingSolutionError, 'definition', `expected NoDampingSolutionError, got ${String(err)}`);
     const msg = (err as Error).message;
-    checkThat(msg.includes('no damping value explains 90 %'), 'definition', `message "${msg}"`);
-    checkRange((err as NoDampingSolutionError).maxPct, 0, 90, 'definition', {});
+    checkThat(msg.includes('no damping value explains 97 %'), 'definition', `message "${msg}"`);
+    checkRange((err as NoDampingSolutionError).maxPct, 0, 97, 'definition', {});
   });
 
   it('when 0 % is measured, then it says every damping below a threshold explains it', () => {

@@ -69,3 +69,13 @@ export const CAR = Object.freeze({
   dampingNsPerM: 1800,
   tireRateNPerM: 200000,
 });
+
+/** Unladen corners of the demo fleet's specs (server/db/seed.ts), for checks on what the fleet would read. */
+export const DEMO_CORNERS = Object.freeze({
+  courierVanFront: { sprungMassKg: 430, unsprungMassKg: 46, springRateNPerM: 32000, dampingNsPerM: 2400, tireRateNPerM: 260000 },
+  courierVanRear: { sprungMassKg: 360, unsprungMassKg: 55, springRateNPerM: 38000, dampingNsPerM: 2500, tireRateNPerM: 270000 },
+  longVanFront: { sprungMassKg: 600, unsprungMassKg: 58, springRateNPerM: 45000, dampingNsPerM: 3200, tireRateNPerM: 300000 },
+  longVanRear: { sprungMassKg: 520, unsprungMassKg: 76, springRateNPerM: 56000, dampingNsPerM: 3300, tireRateNPerM: 320000 },
+  truckFront: { sprungMassKg: 2400, unsprungMassKg: 450, springRateNPerM: 600000, dampingNsPerM: 28000, tireRateNPerM: 1600000 },
+  truckRear: { sprungMassKg: 2100, unsprungMassKg: 650, springRateNPerM: 260000, dampingNsPerM: 20000, tireRateNPerM: 1800000 },
+});

@@ -6,6 +6,9 @@ import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { prepareDuty, dutyOnRoad } from '../../server/physics/closed-form';
 import { adhesionPct } from '../../server/physics/adhesion';
+import { iriFromGd } from '../../server/physics/iri';
+import { phaseShift } from '../../server/physics/phase-shift';
+import { synthesizeProfile } from '../../server/physics/iso8608';
 import { checkClose, checkThat, CAR } from './check';
 
 const ROOT = resolve(fileURLToPath(new URL('../..', import.meta.url)));
@@ -83,7 +86,7 @@ describe('cli', () => {
     const m = cli('modes', '--spec', spec);
     checkThat(m.code === 0 && ['bodyHz', 'bodyDampingRatio', 'wheelHz', 'wheelDampingRatio'].every((k) => typeof m.json?.[k] === 'number'), 'issue 3 CLI', m.stdout + m.stderr);
     const ad = cli('adhesion', '--spec', spec, '--amplitude-mm', '6');
-    checkClose(ad.json?.adhesionPct as number, adhesionPct(CAR).adhesionPct, { rel: 1e-12 }, 'computed: library', {});
+    checkClose(ad.json?.adhesionPct as number, adhesionPct(CAR, { amplitudeM: 0.006 }).adhesionPct, { rel: 1e-12 }, 'computed: library', {});
     const worn = adhesionPct({ ...CAR, dampingNsPerM: 1200 }).adhesionPct;
     const inv = cli('damping-from-adhesion', '--spec', spec, '--adhesion', String(worn));
     checkClose(inv.json?.dampingNsPerM as number, 1200, { rel: 1e-4 }, 'computed: round trip', { worn });
@@ -91,6 +94,56 @@ describe('cli', () => {
     const ex = cli('exposure', '--trips', trips);
     checkClose(ex.json?.a8 as number, Math.sqrt((0.36 * 3 + 0.25 * 4) / 8), { rel: 1e-12 }, 'Directive 2002/44/EC Annex B', {});
     checkThat(ex.json?.actionValue === 0.5 && ex.json?.limitValue === 1.15 && ex.json?.status === 'exceeds-action-value', 'Directive 2002/44/EC Art. 3', ex.stdout);
+  });
+
+  it('when duty runs over a measured profile, then it prints the same keys as the closed form and agrees with it at the profile Gd(n0) within 6 % (computed)', () => {
+    const gd = 256e-6;
+    const z = synthesizeProfile({ gdN0: gd, lengthM: 4000, dxM: 0.25, seed: 9 });
+    const lines = ['distance_m,elevation_m'];
+    for (let i = 0; i < z.length; i++) lines.push(`${(i * 0.25).toFixed(2)},${z[i].toFixed(7)}`);
+    const prof = file('survey.csv', lines.join('\n'));
+    const spec = join(dir, 'spec.json');
+    const r = cli('duty', '--spec', spec, '--profile', prof, '--speed-kmh', '50');
+    checkThat(r.code === 0, 'cli contract', `exit ${r.code}, stderr "${r.stderr}"`);
+    const exp = dutyOnRoad(prepareDuty(CAR, 50 / 3.6), gd);
+    checkThat(JSON.stringify(Object.keys(r.json ?? {}).sort()) === JSON.stringify(Object.keys(exp).sort()), 'cli contract: same keys as duty', r.stdout);
+    for (const k of Object.keys(exp) as (keyof typeof exp)[]) {
+      checkClose(r.json?.[k] as number, exp[k], { rel: 0.06 }, 'computed: measured-segment path vs closed form', { k });
+    }
+    const both = cli('duty', '--spec', spec, '--profile', prof, '--speed-kmh', '50', '--class', 'C');
+    checkThat(both.code === 2 && both.stderr.includes('--profile'), 'cli contract', both.stderr);
+  });
+
+  it('when phase-shift and damping-from-phase run, then they print the library figures and a clear error when no damping explains a phase (computed)', () => {
+    const spec = join(dir, 'spec.json');
+    const r = cli('phase-shift', '--spec', spec);
+    checkThat(r.code === 0, 'cli contract', `exit ${r.code}, stderr "${r.stderr}"`);
+    checkClose(r.json?.minPhaseDeg as number, phaseShift(CAR).minPhaseDeg, { rel: 1e-12 }, 'computed: library', {});
+    checkClose(r.json?.atHz as number, phaseShift(CAR).atHz, { rel: 1e-12 }, 'computed: library', {});
+    const worn = phaseShift({ ...CAR, dampingNsPerM: 900 }).minPhaseDeg;
+    const inv = cli('damping-from-phase', '--spec', spec, '--phase-deg', String(worn));
+    checkClose(inv.json?.dampingNsPerM as number, 900, { rel: 1e-4 }, 'computed: round trip', { worn });
+    const bad = cli('damping-from-phase', '--spec', spec, '--phase-deg', '150');
+    checkThat(bad.code === 1 && bad.stdout === '' && bad.stderr.includes('no damping value explains a minimum phase of 150°'), 'cli contract', `exit ${bad.code} "${bad.stderr}"`);
+    const miss = cli('damping-from-phase', '--spec', spec);
+    checkThat(miss.code === 2 && miss.stderr.includes('--phase-deg'), 'cli contract', miss.stderr);
+  });
+
+  it('when roughness converts an IRI or a Gd(n0), then it prints iri, gdN0 and class consistent with the golden car (computed, physics.md §2) and refuses both or neither', () => {
+    const a = cli('roughness', '--gd', '256e-6');
+    checkThat(a.code === 0, 'cli contract', `exit ${a.code}, stderr "${a.stderr}"`);
+    checkClose(a.json?.iri as number, iriFromGd(256e-6), { rel: 1e-12 }, 'computed', {});
+    checkThat(a.json?.class === 'C' && a.json?.gdN0 === 256e-6, 'ISO 8608 class C mean', JSON.stringify(a.json));
+    const b = cli('roughness', '--iri', String(a.json?.iri));
+    checkClose(b.json?.gdN0 as number, 256e-6, { rel: 1e-9 }, 'property: inverse', {});
+    checkThat(b.json?.class === 'C', 'ISO 8608 class C', JSON.stringify(b.json));
+    // 12 m/km: √(12/542.7)² ≈ 489e-6 m³, upper class C (computed)
+    const c = cli('roughness', '--iri', '12');
+    checkThat(c.json?.class === 'C', 'computed', JSON.stringify(c.json));
+    const d = cli('roughness', '--iri', '12', '--gd', '1e-4');
+    checkThat(d.code === 2 && d.stdout === '' && d.stderr.includes('exactly one'), 'cli contract', `exit ${d.code} "${d.stderr}"`);
+    const e = cli('roughness', '--iri', 'x');
+    checkThat(e.code === 1 && e.stderr.includes('iri'), 'cli contract', `exit ${e.code} "${e.stderr}"`);
   });
 
   it('when the spec is invalid, the profile uneven or the command unknown, then stdout is empty and stderr explains with a non-zero exit', () => {

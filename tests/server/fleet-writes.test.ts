@@ -94,6 +94,17 @@ describe('spec create and edit', () => {
     expect(edit.status).toBe(200);
     expect(edit.body.spec.axles[0].corner.dampingNsPerM).toBe(1500);
     expect((await counts()).axles).toBe(before.axles + 2);
+    // floor-to-seat factors: the class default until one is entered, then the entered one (docs/methods.md "Exposure at the seat")
+    type Seat = { spec: { seat: { seatFactor: number | null; used: { seat: number; total: number; seatSource: string } } } };
+    const plain = await manager.get<Seat>(`/api/specs/${ok.body.spec.id}`);
+    expect(plain.body.spec.seat.seatFactor).toBeNull();
+    expect(plain.body.spec.seat.used.seat).toBe(0.95);
+    expect(plain.body.spec.seat.used.seatSource).toMatch(/Griffin/);
+    const seat = await manager.json<Seat>('PUT', `/api/specs/${ok.body.spec.id}`, { name: 'Hatchback', vehicleClass: 'passenger car', seatFactor: 0.8, axles: [{ ...carAxle, dampingNsPerM: 1500 }, { ...carAxle, label: 'rear' }] });
+    expect(seat.status).toBe(200);
+    expect(seat.body.spec.seat.used.total).toBeCloseTo(0.8 * Math.sqrt(0.75), 12);
+    const badSeat = await manager.json<Err>('PUT', `/api/specs/${ok.body.spec.id}`, { name: 'Hatchback', vehicleClass: 'passenger car', seatFactor: 5, axles: [carAxle, { ...carAxle, label: 'rear' }] });
+    expect(Object.keys(badSeat.body.error.fields)).toEqual(['seatFactor']);
   });
 
   it('when a spec in use would lose an axle, then the edit is refused and nothing changes', async () => {

@@ -3,7 +3,7 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestServer, type TestServer } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
-import { iriSegments, gdFromIri } from '../../server/physics/iri';
+import { iriSegments, gdFromIri, iriFromGd } from '../../server/physics/iri';
 import { classifyGd, synthesizeProfile } from '../../server/physics/iso8608';
 import { formatProfileCsv, loadSurveyProfile, parseProfileCsv } from '../../server/roads/profile-store';
 import { pickCurrent } from '../../server/roads/current-roughness';
@@ -64,6 +64,16 @@ describe('demo surveys', () => {
     expect(p.startM).toBe(0);
     const bins = iriSegments(p.elevationsM, p.dxM, 100);
     expect(seg.iri!).toBeCloseTo(bins[5].iri, 2);
+  });
+
+  it('when seeded, then no demo segment is rougher than the roughest unpaved roads (IRI under 35 m/km, physics.md §2), and rough stretches exist', async () => {
+    const [row] = await srv.db.sequelize.query<{ maxGd: number; maxIri: number | null; rough: number }>(
+      `SELECT MAX(gd_n0) AS maxGd, MAX(iri) AS maxIri, SUM(CASE WHEN iso_class = 'D' THEN 1 ELSE 0 END) AS rough FROM route_segments`,
+      { type: 'SELECT' as never },
+    );
+    expect(iriFromGd(row.maxGd)).toBeLessThan(35);
+    expect(row.maxIri ?? 0).toBeLessThan(35);
+    expect(Number(row.rough)).toBeGreaterThan(50);
   });
 });
 

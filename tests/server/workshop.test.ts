@@ -5,6 +5,8 @@ import { startTestServer, type TestServer } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 import { adhesionPct } from '../../server/physics/adhesion';
 import { estimateDamping } from '../../server/workshop/service';
+import { phaseShift } from '../../server/physics/phase-shift';
+import { estimateFromLane } from '../../server/physics/lane-estimate';
 
 interface Corner { damperId: number; position: string; axleIndex: number; lifeUsedFraction: number; dampingNsPerM: number; nominalNsPerM: number; basis: string }
 interface ListItem { id: number; vehicle: { id: number; fleetNumber: string }; status: string; assignee: { id: number } | null; corners: Corner[] }
@@ -43,7 +45,7 @@ describe('inverse damping estimate', () => {
     const corner = { sprungMassKg: 430, unsprungMassKg: 46, springRateNPerM: 32000, dampingNsPerM: 2400, tireRateNPerM: 260000 };
     for (const worn of [1300, 1600, 2100]) {
       const pct = adhesionPct({ ...corner, dampingNsPerM: worn }).adhesionPct;
-      const est = estimateDamping(corner, pct);
+      const est = estimateDamping(corner, pct, 3);
       expect(est.note, `adhesion ${pct} %`).toBeNull();
       expect(Math.abs(est.dampingNsPerM! / worn - 1), `worn ${worn} N·s/m → ${pct.toFixed(2)} % → ${est.dampingNsPerM}; tol 0.5 %`).toBeLessThan(0.005);
     }
@@ -51,7 +53,7 @@ describe('inverse damping estimate', () => {
 
   it('when the adhesion is above what any worn damping explains, then no estimate is made and the reason is kept', () => {
     const corner = { sprungMassKg: 430, unsprungMassKg: 46, springRateNPerM: 32000, dampingNsPerM: 2400, tireRateNPerM: 260000 };
-    const est = estimateDamping(corner, 99);
+    const est = estimateDamping(corner, 99, 3);
     expect(est.dampingNsPerM).toBeNull();
     expect(est.note).toMatch(/no damping value explains 99 %/);
   });
@@ -90,7 +92,8 @@ describe('inspections for the mechanic', () => {
     const a0 = spec.body.spec.axles.find((a) => a.axleIndex === 0)!;
     const corner = a0.corner;
     const known = corner.dampingNsPerM * 0.75;
-    const flPct = adhesionPct({ ...corner, dampingNsPerM: known }).adhesionPct;
+    // the lane's default plate amplitude (3 mm, LANE_PLATE_AMPLITUDE_MM) is what the result is inverted at
+    const flPct = adhesionPct({ ...corner, dampingNsPerM: known }, { amplitudeM: 0.003 }).adhesionPct;
     const frPct = Math.min(100, flPct + 20);
     const res = await mech.json<{ results: { position: string; measuredNsPerM: number | null; predictedNsPerM: number; estimateNote: string | null }[]; axleDifferences: { axleIndex: number; flagged: boolean; differencePoints: number }[]; status: string }>(
       'POST',
@@ -133,6 +136,61 @@ describe('inspections for the mechanic', () => {
     });
     expect(r2.status).toBe(400);
     expect(r2.body.error.fields['corners.0.position']).toMatch(/no damper/);
+    const r3 = await mech.json<{ error: { fields: Record<string, string> } }>('POST', `/api/inspections/${inspection.id}/results`, {
+      odometerKm: 1, plateAmplitudeMm: 20, corners: [{ position: 'FL', adhesionPct: 40, findings: [], verdict: 'ok' }],
+    });
+    expect(r3.status).toBe(400);
+    expect(r3.body.error.fields.plateAmplitudeMm).toMatch(/0.5–10 mm/);
+  });
+
+  it('when a lane with a 6 mm amplitude records results, then each value is inverted at 6 mm and the inspection says so (computed)', async () => {
+    const mech = await mechanic();
+    const veh = await mech.get<{ vehicle: { specId: number } }>(`/api/vehicles/${inspection.vehicle.id}`);
+    const spec = await mech.get<{ spec: { axles: Axle[] } }>(`/api/specs/${veh.body.vehicle.specId}`);
+    const corner = spec.body.spec.axles.find((a) => a.axleIndex === 0)!.corner;
+    const known = corner.dampingNsPerM * 0.8;
+    const pct6 = adhesionPct({ ...corner, dampingNsPerM: known }, { amplitudeM: 0.006 }).adhesionPct;
+    const res = await mech.json<{ plateAmplitudeMm: number; results: { position: string; measuredNsPerM: number | null }[] }>('POST', `/api/inspections/${inspection.id}/results`, {
+      odometerKm: 200000, plateAmplitudeMm: 6, corners: [{ position: 'FL', adhesionPct: pct6, findings: [], verdict: 'monitor' }],
+    });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.plateAmplitudeMm).toBe(6);
+    const fl = res.body.results.find((r) => r.position === 'FL')!;
+    expect(Math.abs(fl.measuredNsPerM! / known - 1), `measured ${fl.measuredNsPerM} vs ${known}`).toBeLessThan(0.005);
+    const opts = await mech.get<{ lanePlateAmplitudeMm: number }>('/api/workshop/options');
+    expect(opts.body.lanePlateAmplitudeMm).toBe(3);
+  });
+
+  it('when a minimum phase is recorded alone or beside adhesion, then the damping comes from the phase or the better-conditioned reading and says which (computed)', async () => {
+    const mech = await mechanic();
+    const veh = await mech.get<{ vehicle: { specId: number } }>(`/api/vehicles/${inspection.vehicle.id}`);
+    const spec = await mech.get<{ spec: { axles: Axle[] } }>(`/api/specs/${veh.body.vehicle.specId}`);
+    const corner = spec.body.spec.axles.find((a) => a.axleIndex === 0)!.corner;
+    const known = { ...corner, dampingNsPerM: corner.dampingNsPerM * 0.6 };
+    const phase = phaseShift(known).minPhaseDeg;
+    const pct = adhesionPct(known, { amplitudeM: 0.003 }).adhesionPct;
+    type R = { results: { position: string; measuredNsPerM: number | null; phaseDeg: number | null; estimateMethod: string | null; estimateNote: string | null }[] };
+    const res = await mech.json<R>('POST', `/api/inspections/${inspection.id}/results`, {
+      odometerKm: 200000,
+      corners: [
+        { position: 'FL', adhesionPct: null, phaseDeg: phase, findings: [], verdict: 'monitor' },
+        { position: 'FR', adhesionPct: pct, phaseDeg: phase, findings: [], verdict: 'monitor' },
+      ],
+    });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const fl = res.body.results.find((r) => r.position === 'FL')!;
+    expect(fl.estimateMethod).toBe('phase');
+    expect(fl.phaseDeg).toBeCloseTo(phase, 9);
+    expect(Math.abs(fl.measuredNsPerM! / known.dampingNsPerM - 1)).toBeLessThan(0.002);
+    const fr = res.body.results.find((r) => r.position === 'FR')!;
+    const exp = estimateFromLane(corner, { adhesionPct: pct, phaseDeg: phase, amplitudeM: 0.003 });
+    expect(fr.estimateMethod).toBe(exp.method);
+    expect(fr.estimateNote).toMatch(exp.method === 'phase' ? /^from the phase shift/ : /^from adhesion/);
+    const bad = await mech.json<{ error: { fields: Record<string, string> } }>('POST', `/api/inspections/${inspection.id}/results`, {
+      odometerKm: 1, corners: [{ position: 'FL', adhesionPct: null, phaseDeg: 200, findings: [], verdict: 'ok' }],
+    });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields['corners.0.phaseDeg']).toMatch(/0–180/);
   });
 });
 

@@ -32,6 +32,8 @@ export interface SuspensionSpec {
   name: string;
   vehicleClass: string;
   description: string | null;
+  /** Floor-to-seat factors for drivers' exposure: entered (null = class default / none) and used. */
+  seat?: { seatFactor: number | null; cabFactor: number | null; used: { seat: number; seatSource: string; cab: number; track: number; total: number } };
   axles: SpecAxle[];
 }
 

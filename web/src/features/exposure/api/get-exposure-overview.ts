@@ -20,7 +20,7 @@ export interface ExposureOverview {
   from: string;
   to: string;
   drivers: { driverId: number; name: string; daysDriven: number; daysAboveAction: number; daysAboveLimit: number; maxA8: number; lastDay: string }[];
-  daysAbove: { driverId: number; name: string; day: string; a8: number; hours: number; trips: number; status: string; topRoute: string | null; topVehicle: string | null }[];
+  daysAbove: { driverId: number; name: string; day: string; a8: number; hours: number; trips: number; status: string; seatFactor: string | null; topRoute: string | null; topVehicle: string | null }[];
   routes: Contributor[];
   vehicles: Contributor[];
 }

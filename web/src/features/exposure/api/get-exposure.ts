@@ -15,7 +15,7 @@ export interface ExposureDays {
   driver: { id: number; name: string };
   from: string;
   to: string;
-  days: { day: string; a8: number; hours: number; trips: number; maxWeightedAccel: number; status: string }[];
+  days: { day: string; a8: number; hours: number; trips: number; maxWeightedAccel: number; status: string; seatFactor: string | null }[];
   summary: { daysDriven: number; daysAboveAction: number; daysAboveLimit: number; maxA8: number | null };
 }
 

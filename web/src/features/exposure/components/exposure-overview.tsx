@@ -25,7 +25,7 @@ export function ExposureOverview() {
     { key: 'name', header: what, rowHeader: true, cell: (r: (typeof d.routes)[number]) => r.name },
     { key: 'above', header: 'Share of dose on days above action', unit: '%', numeric: true, cell: (r: (typeof d.routes)[number]) => formatNumber(r.shareAbovePct, 0) },
     { key: 'share', header: 'Share of all dose', unit: '%', numeric: true, cell: (r: (typeof d.routes)[number]) => formatNumber(r.sharePct, 0) },
-    { key: 'aw', header: 'Mean a_w', unit: 'm/s²', numeric: true, cell: (r: (typeof d.routes)[number]) => formatNumber(r.meanWeightedAccel, 2) },
+    { key: 'aw', header: 'Mean a_w at the seat', unit: 'm/s²', numeric: true, cell: (r: (typeof d.routes)[number]) => formatNumber(r.meanWeightedAccel, 2) },
     { key: 'hours', header: 'Driving', unit: 'h', numeric: true, cell: (r: (typeof d.routes)[number]) => formatNumber(r.hours, 0) },
   ];
   return (
@@ -71,6 +71,7 @@ export function ExposureOverview() {
                 { key: 'day', header: 'Day', cell: (r) => formatDate(r.day) },
                 { key: 'name', header: 'Driver', rowHeader: true, cell: (r) => r.name },
                 { key: 'a8', header: 'A(8)', unit: 'm/s²', numeric: true, cell: (r) => formatNumber(r.a8, 2) },
+                { key: 'seat', header: 'Floor to seat', numeric: true, cell: (r) => r.seatFactor ?? '—' },
                 { key: 'st', header: 'Against the values', cell: (r) => <ExposureStatusBadge a8={r.a8} action={d.actionValue} limit={d.limitValue} /> },
                 { key: 'h', header: 'Driving', unit: 'h', numeric: true, cell: (r) => formatNumber(r.hours, 1) },
                 { key: 'route', header: 'Main route', cell: (r) => r.topRoute ?? '—' },

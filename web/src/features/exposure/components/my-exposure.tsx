@@ -38,6 +38,7 @@ export function DriverExposure({ driverId }: { driverId?: number }) {
             columns={[
               { key: 'day', header: 'Day', rowHeader: true, cell: (r) => <span className="whitespace-nowrap">{shortDay(r.day)}</span> },
               { key: 'a8', header: 'A(8)', unit: 'm/s²', numeric: true, cell: (r) => formatNumber(r.a8, 2) },
+              { key: 'seat', header: 'Floor to seat', numeric: true, cell: (r) => r.seatFactor ?? '—' },
               { key: 'status', header: 'Against the values', className: 'whitespace-nowrap', cell: (r) => <ExposureStatusBadge a8={r.a8} action={d.actionValue} limit={d.limitValue} /> },
               { key: 'hours', header: 'Driving', unit: 'h', numeric: true, cell: (r) => formatNumber(r.hours, 1) },
               { key: 'trips', header: 'Trips', numeric: true, cell: (r) => String(r.trips) },

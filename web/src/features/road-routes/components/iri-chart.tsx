@@ -4,10 +4,11 @@ import { formatNumber } from '@/lib/format';
 import type { RouteSegment } from '../api/get-route';
 
 /**
- * IRI = K·√Gd(n0) for ISO 8608 w = 2 roads, K ≈ 554.7 (m/km)/√m³ (golden car in closed form,
- * computed by the physics engine's iriPerSqrtGdConstant). Used to draw the class bands in IRI.
+ * IRI = K·√Gd(n0) for ISO 8608 w = 2 roads, K ≈ 542.7 (m/km)/√m³: the golden car as the app
+ * computes IRI (250 mm moving average on a finely sampled profile), the physics engine's
+ * iriPerSqrtGdConstant (docs/methods.md "IRI and Gd(n0)"). Used to draw the class bands in IRI.
  */
-const K = 554.7;
+const K = 542.7;
 const BOUNDS = [0, 32e-6, 128e-6, 512e-6, 2048e-6, 8192e-6, 32768e-6, 131072e-6, 524288e-6].map((g) => K * Math.sqrt(g));
 
 /** IRI along the route with ISO 8608 class bands behind it. Stated classes show their class-mean equivalent. */

@@ -49,7 +49,7 @@ export function useSpecPreview(body: { vehicleClass: string; axles: AxleForm[] }
 export function useSaveSpec(id: number | null) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (b: { name: string; vehicleClass: string; description: string | null; axles: AxleForm[] }) =>
+    mutationFn: (b: { name: string; vehicleClass: string; description: string | null; seatFactor: number | null; cabFactor: number | null; axles: AxleForm[] }) =>
       id === null ? api.post<{ spec: SuspensionSpec }>('/api/specs', b) : api.put<{ spec: SuspensionSpec }>(`/api/specs/${id}`, b),
     onSuccess: () => void qc.invalidateQueries({ queryKey: specKeys.all }),
   });

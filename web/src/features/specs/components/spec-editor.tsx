@@ -18,7 +18,7 @@ const FIELDS: { key: keyof Omit<AxleForm, 'label'>; label: string; unit: string;
   { key: 'ratedDamperLifeKm', label: 'Rated damper life', unit: 'km' },
 ];
 
-type Draft = { name: string; vehicleClass: string; description: string; axles: Record<string, string>[] };
+type Draft = { name: string; vehicleClass: string; description: string; seatFactor?: string; cabFactor?: string; axles: Record<string, string>[] };
 
 const toDraftAxle = (a: AxleForm): Record<string, string> => Object.fromEntries(Object.entries(a).map(([k, v]) => [k, String(v)]));
 
@@ -27,6 +27,8 @@ function fromSpec(s: SuspensionSpec): Draft {
     name: s.name,
     vehicleClass: s.vehicleClass,
     description: s.description ?? '',
+    seatFactor: s.seat?.seatFactor == null ? '' : String(s.seat.seatFactor),
+    cabFactor: s.seat?.cabFactor == null ? '' : String(s.seat.cabFactor),
     axles: s.axles.map((a) => toDraftAxle({ label: a.label, ...a.corner, ratedDamperLifeKm: a.ratedDamperLifeKm })),
   };
 }
@@ -78,13 +80,29 @@ export function SpecEditor({ spec, onSaved }: { spec: SuspensionSpec | null; onS
       onSubmit={(e) => {
         e.preventDefault();
         if (!axles) return;
-        save.mutate({ name: d.name, vehicleClass: d.vehicleClass, description: d.description || null, axles }, { onSuccess: (r) => onSaved(r.spec.id) });
+        const factor = (v: string | undefined) => (v && v.trim() ? Number(v.replace(',', '.')) : null);
+        save.mutate({ name: d.name, vehicleClass: d.vehicleClass, description: d.description || null, seatFactor: factor(d.seatFactor), cabFactor: factor(d.cabFactor), axles }, { onSuccess: (r) => onSaved(r.spec.id) });
       }}
     >
       <div className="grid gap-3 sm:grid-cols-3">
         <TextField label="Name" value={d.name} onChange={(e) => setD({ ...d, name: e.target.value })} error={fieldError('name')} />
         <SelectField label="Vehicle class" value={d.vehicleClass} onChange={(e) => setD({ ...d, vehicleClass: e.target.value })} error={fieldError('vehicleClass')} options={(presets.data?.vehicleClasses ?? [d.vehicleClass]).map((c) => ({ value: c, label: c }))} />
         <TextField label="Description" aside="(optional)" value={d.description} onChange={(e) => setD({ ...d, description: e.target.value })} />
+      </div>
+      <div className="grid gap-3 sm:grid-cols-3">
+        <TextField
+          label="Seat SEAT value"
+          aside={`(optional; empty = ${d.vehicleClass === 'heavy goods' ? '0.75, suspension seat' : '0.95, conventional seat'})`}
+          inputMode="decimal"
+          value={d.seatFactor ?? ''}
+          onChange={(e) => setD({ ...d, seatFactor: e.target.value })}
+          error={fieldError('seatFactor')}
+        />
+        <TextField label="Cab suspension factor" aside="(optional, trucks; empty = none)" inputMode="decimal" value={d.cabFactor ?? ''} onChange={(e) => setD({ ...d, cabFactor: e.target.value })} error={fieldError('cabFactor')} />
+        <p className="text-sm text-slate sm:self-end">
+          Drivers&apos; exposure is carried from the modelled floor to the seat by these factors (SEAT: conventional seats 0.8–1.1, suspension seats 0.6–0.9; Griffin 1990) and by
+          √((1 + ρ)/2) for the two front wheel tracks, taken as correlated ρ = 0.5.
+        </p>
       </div>
       {presets.data ? <PresetPicker presets={presets.data} onPick={(p) => setD((s) => ({ ...s, vehicleClass: p.vehicleClass, axles: p.axles.map(toDraftAxle) }))} /> : null}
       {d.axles.map((a, i) => (

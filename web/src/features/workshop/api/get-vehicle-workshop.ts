@@ -7,7 +7,7 @@ export interface VehicleWorkshop {
   corners: CornerState[];
   /** The spec's life model the corners' life used is measured against. */
   life: { specId: number; source: 'prior' | 'fleet'; failures: number; classStepFactor: number; shape: number; text: string };
-  comparisons: { inspectionId: number; position: string; adhesionPct: number | null; predictedNsPerM: number | null; measuredNsPerM: number | null; nominalNsPerM: number; note: string | null; verdict: string; at: string | null; basis: string | null }[];
+  comparisons: { inspectionId: number; position: string; adhesionPct: number | null; predictedNsPerM: number | null; measuredNsPerM: number | null; nominalNsPerM: number; note: string | null; verdict: string; at: string | null; basis: string | null; plateAmplitudeMm: number; phaseDeg: number | null; estimateMethod: 'adhesion' | 'phase' | null }[];
   workRecords: WorkRecord[];
 }
 

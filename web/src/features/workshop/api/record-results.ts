@@ -9,7 +9,8 @@ export const resultsSchema = z.object({
   complete: z.boolean().optional(),
   /** With a "check again soon" verdict: the day to check again (the server checks the range; empty = 30 days on). */
   followUpOn: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date').nullable().optional(),
-  corners: z.array(z.object({ position: z.string(), adhesionPct: z.number().min(0).max(100).nullable(), findings: z.array(z.string()), verdict: z.string() })),
+  plateAmplitudeMm: z.number().min(0.5).max(10).optional(),
+  corners: z.array(z.object({ position: z.string(), adhesionPct: z.number().min(0).max(100).nullable(), phaseDeg: z.number().min(0).max(180).nullable(), findings: z.array(z.string()), verdict: z.string() })),
 });
 export type ResultsInput = z.infer<typeof resultsSchema>;
 

@@ -51,6 +51,10 @@ export interface CornerResult {
   axleIndex: number;
   damperId: number | null;
   adhesionPct: number | null;
+  /** Measured minimum phase angle [°] (phase-shift method). */
+  phaseDeg: number | null;
+  /** Which reading the measured damping came from. */
+  estimateMethod: 'adhesion' | 'phase' | null;
   findings: string[];
   verdict: string;
   nominalNsPerM: number;
@@ -76,7 +80,7 @@ export interface WorkRecord {
 
 export interface InspectionDetail {
   id: number;
-  vehicle: { id: number; fleetNumber: string; plate: string; odometerKm: number; status: string };
+  vehicle: { id: number; fleetNumber: string; plate: string; odometerKm: number; status: string; vehicleClass: string | null };
   dueDate: string;
   status: InspectionListItem['status'];
   reason: string;
@@ -85,6 +89,8 @@ export interface InspectionDetail {
   depot: { id: number; name: string } | null;
   odometerKm: number | null;
   notes: string | null;
+  /** Plate amplitude (zero-to-peak) the results were measured and inverted at [mm]. */
+  plateAmplitudeMm: number;
   resultsAt: string | null;
   completedAt: string | null;
   /** The day the mechanic asked to check again (a corner given "check again soon"), or null. */
@@ -101,6 +107,8 @@ export interface WorkshopOptions {
   verdicts: string[];
   removalReasons: string[];
   laneFlagPoints: number;
+  /** The test lane's plate amplitude setting (zero-to-peak) [mm]. */
+  lanePlateAmplitudeMm: number;
   attachmentMaxBytes: number;
 }
 

@@ -13,16 +13,21 @@ import { useUploadAttachment } from '../api/upload-attachment';
 import { useRecordWork, type WorkInput } from '../api/record-work';
 import { FINDING_LABELS, VERDICT_LABELS, type CornerResult, type InspectionDetail, type WorkshopOptions } from '../api/types';
 import { useDraft } from '../hooks/use-draft';
+
+/** Commonly cited fail line of the phase-shift method (common practice; docs/methods.md "Phase-shift method"). */
+const PHASE_FAIL_BELOW_DEG = 35;
 import { CornerChips } from './corner-chips';
 
 const inputCls = 'min-h-11 w-full rounded border border-line bg-surface px-3 text-base tabular focus-visible:outline-2 focus-visible:outline-accent';
 
-interface CornerDraft { position: string; axleIndex: number; adhesion: string; findings: string[]; verdict: string }
+interface CornerDraft { position: string; axleIndex: number; adhesion: string; phase?: string; findings: string[]; verdict: string }
 interface PartDraft { position: string; damper: boolean; spring: boolean; partDescription: string; partNumber: string; cost: string; removalReason: string }
 
 /** The verdict "keep, check again soon": it asks for a follow-up inspection. */
 const CHECK_AGAIN = 'monitor';
 const dayAfter = (day: string, f: (d: Date) => Date) => format(f(parseISO(day)), 'yyyy-MM-dd');
+/** Millimetres without a trailing .0 for whole values. */
+const mm = (v: number) => formatNumber(v, Number.isInteger(v) ? 0 : 1);
 
 const num = (s: string) => (s.trim() === '' ? null : Number(s.replace(',', '.')));
 
@@ -41,14 +46,15 @@ function differences(corners: CornerDraft[], limit: number) {
 
 export function InspectionRecord({ inspection, options, today, onWorkSaved }: { inspection: InspectionDetail; options: WorkshopOptions; today: string; onWorkSaved: (id: number) => void }) {
   const open = ['scheduled', 'due', 'overdue'].includes(inspection.status);
-  const results = useDraft<{ corners: CornerDraft[]; odometer: string; notes: string; followUp?: string }>(`rb-draft:inspection:${inspection.id}:results`, () => ({
+  const results = useDraft<{ corners: CornerDraft[]; odometer: string; notes: string; followUp?: string; amplitude: string }>(`rb-draft:inspection:${inspection.id}:results`, () => ({
     corners: inspection.predicted.map((c) => {
       const r = inspection.results.find((x) => x.position === c.position);
-      return { position: c.position, axleIndex: c.axleIndex, adhesion: r?.adhesionPct == null ? '' : String(r.adhesionPct), findings: r?.findings ?? [], verdict: r?.verdict ?? 'ok' };
+      return { position: c.position, axleIndex: c.axleIndex, adhesion: r?.adhesionPct == null ? '' : String(r.adhesionPct), phase: r?.phaseDeg == null ? '' : String(r.phaseDeg), findings: r?.findings ?? [], verdict: r?.verdict ?? 'ok' };
     }),
     odometer: String(Math.round(inspection.odometerKm ?? inspection.vehicle.odometerKm)),
     notes: inspection.notes ?? '',
     followUp: inspection.followUpOn ?? '',
+    amplitude: String(inspection.resultsAt ? inspection.plateAmplitudeMm : options.lanePlateAmplitudeMm),
   }));
   const work = useDraft<{ parts: PartDraft[]; summary: string; labour: string; odometer: string; date: string; notes: string }>(`rb-draft:inspection:${inspection.id}:work`, () => ({
     parts: inspection.predicted.map((c) => ({ position: c.position, damper: false, spring: false, partDescription: '', partNumber: '', cost: '', removalReason: options.removalReasons[0] })),
@@ -74,7 +80,8 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
       notes: results.value.notes.trim() || null,
       complete,
       followUpOn: checkAgain ? results.value.followUp || null : null,
-      corners: results.value.corners.map((c) => ({ position: c.position, adhesionPct: num(c.adhesion), findings: c.findings, verdict: c.verdict })),
+      plateAmplitudeMm: num(results.value.amplitude ?? '') ?? undefined,
+      corners: results.value.corners.map((c) => ({ position: c.position, adhesionPct: num(c.adhesion), phaseDeg: num(c.phase ?? ''), findings: c.findings, verdict: c.verdict })),
     };
     save.mutate(body, { onSuccess: () => results.clear() });
   };
@@ -122,6 +129,30 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
               submitResults(false);
             }}
           >
+            <p className="mb-3 text-sm">
+              Record the adhesion %, the minimum phase angle (phase-shift method: the least angle between plate movement and tyre force between the body and wheel-hop
+              resonances; commonly read as a fail below {PHASE_FAIL_BELOW_DEG}°), or both. With both, the damping estimate uses the better-conditioned reading and says which.
+            </p>
+            {/heavy/i.test(inspection.vehicle.vehicleClass ?? '') ? (
+              <Notice tone="info" title="A light-vehicle method" className="mb-3">
+                The adhesion (EUSAMA) and phase-shift tests are made for light vehicles. This vehicle is {inspection.vehicle.vehicleClass}: treat the figures and the damping
+                estimated from them with care, and follow the heavy-vehicle tester&apos;s own procedure.
+              </Notice>
+            ) : null}
+            <label className="mb-3 block max-w-md text-sm font-medium">
+              Plate amplitude of this lane [mm, zero-to-peak]
+              <input
+                className={inputCls}
+                inputMode="decimal"
+                aria-label="Plate amplitude [mm]"
+                value={results.value.amplitude ?? ''}
+                onChange={(e) => results.setValue((v) => ({ ...v, amplitude: e.target.value }))}
+              />
+              <span className="mt-1 block font-normal text-slate">
+                Half the plate&apos;s stroke: a 6 mm stroke is a 3 mm amplitude (the lane&apos;s setting is {mm(options.lanePlateAmplitudeMm)} mm). Each adhesion is turned into a damping at this amplitude.
+              </span>
+            </label>
+            {fieldErr(save.error, 'plateAmplitudeMm') ? <p className="text-sm text-overdue">{fieldErr(save.error, 'plateAmplitudeMm')}</p> : null}
             <div className="grid gap-3 md:grid-cols-2">
               {results.value.corners.map((c, i) => (
                 <fieldset key={c.position} className="rounded-md border border-line p-3">
@@ -131,6 +162,11 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
                     <input className={inputCls} inputMode="decimal" aria-label={`Adhesion ${c.position} [%]`} value={c.adhesion} onChange={(e) => setCorner(i, { adhesion: e.target.value })} />
                   </label>
                   {fieldErr(save.error, `corners.${i}.adhesionPct`) ? <p className="text-sm text-overdue">{fieldErr(save.error, `corners.${i}.adhesionPct`)}</p> : null}
+                  <label className="mt-2 block text-sm font-medium">
+                    Minimum phase [°]
+                    <input className={inputCls} inputMode="decimal" aria-label={`Minimum phase ${c.position} [°]`} value={c.phase ?? ''} onChange={(e) => setCorner(i, { phase: e.target.value })} />
+                  </label>
+                  {fieldErr(save.error, `corners.${i}.phaseDeg`) ? <p className="text-sm text-overdue">{fieldErr(save.error, `corners.${i}.phaseDeg`)}</p> : null}
                   <div className="mt-2 grid gap-1">
                     {options.findings.map((f) => (
                       <label key={f} className="flex min-h-9 items-center gap-2 text-sm">
@@ -251,7 +287,7 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
         </ul>
       </Section>
 
-      {inspection.results.length ? <ResultsTable results={inspection.results} /> : null}
+      {inspection.results.length ? <ResultsTable results={inspection.results} plateAmplitudeMm={inspection.plateAmplitudeMm} /> : null}
 
       {open ? (
         <Section title="Record work" description="Tick the parts you replaced. Saving retires the old dampers, fits the new ones and closes this inspection, all at once.">
@@ -351,9 +387,12 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
 }
 
 /** Predicted against measured damping per corner, with the engine's reason when there is no estimate. */
-export function ResultsTable({ results }: { results: CornerResult[] }) {
+export function ResultsTable({ results, plateAmplitudeMm }: { results: CornerResult[]; plateAmplitudeMm: number }) {
   return (
-    <Section title="Predicted and measured damping" description="Measured = the damping that explains the adhesion on the two-mass model (worn side only).">
+    <Section
+      title="Predicted and measured damping"
+      description={`Measured = the damping that explains the adhesion on the two-mass model, at the lane's plate amplitude of ${mm(plateAmplitudeMm)} mm zero-to-peak (${mm(2 * plateAmplitudeMm)} mm stroke). A reading above what the nominal damping predicts reads as at least new.`}
+    >
       <SimpleTable
         label="Predicted and measured damping"
         rows={results}
@@ -361,8 +400,10 @@ export function ResultsTable({ results }: { results: CornerResult[] }) {
         columns={[
           { key: 'p', header: 'Corner', cell: (r) => r.position, rowHeader: true },
           { key: 'a', header: 'Adhesion', unit: '%', numeric: true, cell: (r) => formatNumber(r.adhesionPct, 1) },
+          { key: 'ph', header: 'Min. phase', unit: '°', numeric: true, cell: (r) => (r.phaseDeg === null ? '' : `${formatNumber(r.phaseDeg, 1)}${r.phaseDeg < PHASE_FAIL_BELOW_DEG ? ' (fail)' : ''}`) },
           { key: 'pr', header: 'Predicted', unit: 'N·s/m', numeric: true, cell: (r) => formatNumber(r.predictedNsPerM) },
           { key: 'm', header: 'Measured', unit: 'N·s/m', numeric: true, cell: (r) => formatNumber(r.measuredNsPerM) },
+          { key: 'from', header: 'Estimate from', cell: (r) => (r.estimateMethod === 'phase' ? 'phase shift' : r.estimateMethod === 'adhesion' ? 'adhesion' : '') },
           { key: 'n', header: 'Nominal', unit: 'N·s/m', numeric: true, cell: (r) => formatNumber(r.nominalNsPerM) },
           { key: 'v', header: 'Verdict', cell: (r) => VERDICT_LABELS[r.verdict] ?? r.verdict },
           { key: 'note', header: 'Note', cell: (r) => (r.findings.length ? r.findings.map((f) => FINDING_LABELS[f] ?? f).join('; ') : '') + (r.estimateNote ? ` ${r.estimateNote}` : '') },

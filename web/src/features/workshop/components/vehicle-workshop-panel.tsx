@@ -59,7 +59,7 @@ export function VehicleWorkshopPanel({ vehicleId, workRecordPath }: { vehicleId:
         />
         <Caution className="mt-3">Wear predictions support, and never replace, inspection by a qualified mechanic and the manufacturer&apos;s and local regulations&apos; requirements.</Caution>
       </Section>
-      <Section title="Predicted and measured damping" description="Each test-lane adhesion turned into a present damping on the two-mass model, beside what the wear model predicted.">
+      <Section title="Predicted and measured damping" description="Each test-lane adhesion turned into a present damping on the two-mass model at the plate amplitude of the lane that measured it (zero-to-peak, half the stroke), beside what the wear model predicted.">
         {d.comparisons.length ? (
           <SimpleTable
             label="Predicted and measured damping by inspection"
@@ -69,6 +69,9 @@ export function VehicleWorkshopPanel({ vehicleId, workRecordPath }: { vehicleId:
               { key: 'd', header: 'Date', cell: (c) => formatDate(c.at) },
               { key: 'p', header: 'Corner', cell: (c) => c.position, rowHeader: true },
               { key: 'a', header: 'Adhesion', unit: '%', numeric: true, cell: (c) => formatNumber(c.adhesionPct, 1) },
+              { key: 'amp', header: 'Plate amplitude', unit: 'mm', numeric: true, cell: (c) => formatNumber(c.plateAmplitudeMm, 1) },
+              { key: 'ph', header: 'Min. phase', unit: '°', numeric: true, cell: (c) => formatNumber(c.phaseDeg, 1) },
+              { key: 'from', header: 'Estimate from', cell: (c) => (c.estimateMethod === 'phase' ? 'phase shift' : c.estimateMethod === 'adhesion' ? 'adhesion' : '') },
               { key: 'pr', header: 'Predicted', unit: 'N·s/m', numeric: true, cell: (c) => formatNumber(c.predictedNsPerM) },
               { key: 'm', header: 'Measured', unit: 'N·s/m', numeric: true, cell: (c) => formatNumber(c.measuredNsPerM) },
               { key: 'n', header: 'Note', cell: (c) => c.note ?? '' },
