@@ -105,11 +105,13 @@ export const roadsRepository = {
     return s ? { ...surveyRow(s as RoadSurvey & { uploadedBy?: User | null }), filePath: s.filePath } : null;
   },
 
-  async tripsOn(routeId: number) {
+  /** The route's trip count and 10 latest trips; only `driverId`'s own when given (a driver's view). */
+  async tripsOn(routeId: number, driverId?: number) {
+    const where = driverId === undefined ? { routeId } : { routeId, driverId };
     const [count, recent] = await Promise.all([
-      Trip.count({ where: { routeId } }),
+      Trip.count({ where }),
       Trip.findAll({
-        where: { routeId },
+        where,
         include: [
           { model: Vehicle, as: 'vehicle', attributes: ['id', 'fleetNumber'] },
           { model: User, as: 'driver', attributes: ['id', 'name'] },

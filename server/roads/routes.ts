@@ -123,7 +123,9 @@ export function registerRoadRoutes(r: Router, deps: { config: Config; now: () =>
 
   r.get('/routes/:id', allow(...ALL), async (req, res) => {
     const { id } = parse(idParam, req.params, 'address');
-    res.json(await roadsService.routeDetail(id));
+    const user = currentUser(req);
+    // a driver sees only their own trips on the route (names, vehicles and times of others are theirs)
+    res.json(await roadsService.routeDetail(id, user.role === 'driver' ? user.id : undefined));
   });
 
   r.patch('/routes/:id', allow('manager'), async (req, res) => {

@@ -63,10 +63,11 @@ export function iriPerSegment(p: ParsedProfile, segments: { id: number; seq: num
 export const roadsService = {
   currentRule: CURRENT_RULE_TEXT,
 
-  async routeDetail(id: number) {
+  /** A route with its segments, surveys and trips; `ownTripsOf` limits the trips to one driver's. */
+  async routeDetail(id: number, ownTripsOf?: number) {
     const route = await roadsRepository.findRoute(id);
     if (!route) throw AppError.notFound('Route');
-    const [segments, surveys, trips] = await Promise.all([roadsRepository.segmentsOf(id), roadsRepository.surveysOf(id), roadsRepository.tripsOn(id)]);
+    const [segments, surveys, trips] = await Promise.all([roadsRepository.segmentsOf(id), roadsRepository.surveysOf(id), roadsRepository.tripsOn(id, ownTripsOf)]);
     return { route, segments, surveys, trips, currentRule: CURRENT_RULE_TEXT };
   },
 

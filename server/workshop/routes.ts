@@ -159,12 +159,12 @@ export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: (
 
   r.get('/work-records', allow('manager', 'mechanic'), async (req, res) => {
     const qy = parse(workList, req.query, 'query');
-    res.json(await svc.workRecords(qy));
+    res.json(await svc.workRecords(currentUser(req), qy));
   });
 
   r.get('/work-records/:id', allow('manager', 'mechanic'), async (req, res) => {
     const { id } = parse(idParam, req.params, 'address');
-    res.json(await svc.workRecord(id));
+    res.json(await svc.workRecord(id, currentUser(req)));
   });
 
   r.post('/work-records', allow('mechanic'), async (req, res) => {
@@ -202,7 +202,7 @@ export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: (
 
   r.get('/vehicles/:id/workshop', allow('manager', 'mechanic'), async (req, res) => {
     const { id } = parse(idParam, req.params, 'address');
-    res.json(await svc.vehicleWorkshop(id));
+    res.json(await svc.vehicleWorkshop(currentUser(req), id));
   });
 
   r.get('/workshop/options', allow('manager', 'mechanic'), (_req, res) => {
