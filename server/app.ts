@@ -6,6 +6,7 @@ import passport from 'passport';
 import { doubleCsrf } from 'csrf-csrf';
 import path from 'node:path';
 import fs from 'node:fs';
+import { randomBytes } from 'node:crypto';
 import type { Config } from './config';
 import type { Db } from './db';
 import { AppError, errorHandler } from './errors';
@@ -45,6 +46,8 @@ export interface BuiltApp {
   app: Express;
   /** The router holding every /api route, for the role-access test. */
   api: Router;
+  /** Deletes expired session rows now (also done at start and every 15 minutes). */
+  pruneSessions(): Promise<void>;
   close(): void;
 }
 
@@ -53,7 +56,7 @@ export function createApp(deps: AppDeps): BuiltApp {
   const { config, db, log } = deps;
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  app.set('trust proxy', config.trustProxy);
 
   const SequelizeStore = connectSessionSequelize(session.Store);
   const store = new SequelizeStore({
@@ -62,6 +65,9 @@ export function createApp(deps: AppDeps): BuiltApp {
     checkExpirationInterval: 15 * 60 * 1000,
     expiration: 7 * 24 * 60 * 60 * 1000,
   });
+  // expired sessions go at start as well as every checkExpirationInterval
+  const prune = () => (store as unknown as { clearExpiredSessions(): Promise<unknown> }).clearExpiredSessions().then(() => undefined);
+  void prune();
 
   app.use((_req, res, next) => {
     res.setHeader('X-Content-Type-Options', 'nosniff');
@@ -91,9 +97,20 @@ export function createApp(deps: AppDeps): BuiltApp {
   configurePassport();
   app.use(passport.session());
 
+  // Signed-in requests bind the CSRF token to the session; anonymous ones (the sign-in form) to a
+  // random cookie of their own, so an anonymous visitor stores no session row.
+  const anonCookie = config.production ? '__Host-rb.anon' : 'rb.anon';
+  const anonId = (req: express.Request, res: express.Response) => {
+    const have = (req.cookies as Record<string, unknown> | undefined)?.[anonCookie];
+    if (typeof have === 'string' && /^[A-Za-z0-9_-]{24}$/.test(have)) return have;
+    const id = randomBytes(18).toString('base64url');
+    res.cookie(anonCookie, id, { httpOnly: true, sameSite: 'strict', secure: config.production, path: '/' });
+    (req.cookies as Record<string, unknown>)[anonCookie] = id;
+    return id;
+  };
   const { generateCsrfToken, doubleCsrfProtection } = doubleCsrf({
     getSecret: () => config.sessionSecret,
-    getSessionIdentifier: (req) => req.session.id,
+    getSessionIdentifier: (req) => (req.user ? `s:${req.session.id}` : `a:${String((req.cookies as Record<string, unknown>)[anonCookie] ?? '')}`),
     cookieName: config.production ? '__Host-rb.csrf' : 'rb.csrf',
     cookieOptions: { sameSite: 'strict', secure: config.production, httpOnly: true, path: '/' },
     getCsrfTokenFromRequest: (req) => req.headers['x-csrf-token'],
@@ -105,7 +122,12 @@ export function createApp(deps: AppDeps): BuiltApp {
   api.get('/health', open, (_req, res) => {
     res.json({ ok: true });
   });
-  registerAuthRoutes(api, { csrfToken: (req, res) => generateCsrfToken(req, res), options: { ...defaultAuthOptions, ...deps.auth } });
+  registerAuthRoutes(api, {
+    csrfToken: (req, res) => {
+      if (!req.user) anonId(req, res);
+      return generateCsrfToken(req, res);
+    },
+    options: { ...defaultAuthOptions, ...deps.auth } });
   registerUserRoutes(api);
   registerFleetRoutes(api, { inspectionThreshold: config.inspection.threshold });
   registerFleetWriteRoutes(api, deps.now ?? (() => new Date()));
@@ -147,5 +169,6 @@ export function createApp(deps: AppDeps): BuiltApp {
     app,
     api,
     close: () => store.stopExpiringSessions(),
+    pruneSessions: prune,
   };
 }

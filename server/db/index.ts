@@ -10,6 +10,7 @@ import * as m0004 from './migrations/0004-workshop';
 import * as m0005 from './migrations/0005-drivers';
 import * as m0006 from './migrations/0006-opening-wear';
 import * as m0007 from './migrations/0007-drop-unused-duty-indexes';
+import * as m0017 from './migrations/0017-trip-import-file-hash';
 import { initNightlyModels } from './nightly-models';
 import { initDriverModels } from './driver-models';
 
@@ -28,6 +29,7 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
   { name: '0005-drivers', up: m0005.up, down: m0005.down },
   { name: '0006-opening-wear', up: m0006.up, down: m0006.down },
   { name: '0007-drop-unused-duty-indexes', up: m0007.up, down: m0007.down },
+  { name: '0017-trip-import-file-hash', up: m0017.up, down: m0017.down },
 ];
 
 /**

@@ -105,7 +105,7 @@ let srv: TestServer;
 let driverVehicleId: number;
 
 beforeAll(async () => {
-  srv = await startTestServer({ auth: { loginLimitPerAccount: 1000, loginLimitPerAddress: 1000 } });
+  srv = await startTestServer({ auth: { loginLimitPerPair: 1000, loginLimitPerAddress: 1000 } });
   const c = new ApiClient(srv.url);
   await c.login(DEMO.driver);
   const mine = await c.get<{ items: { id: number }[] }>('/api/vehicles');
