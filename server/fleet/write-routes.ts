@@ -3,7 +3,7 @@ import { formatISO } from 'date-fns';
 import { z } from 'zod';
 import { VEHICLE_STATUSES } from '../db/models';
 import { allow } from '../http/access';
-import { idParam, parse } from '../http/validate';
+import { idParam, isoDay, parse } from '../http/validate';
 import { fleetRepository } from './repository';
 import { fleetWriteService } from './write-service';
 import { HARD_LIMITS, MODE_LIMITS, PRESETS, TYPICAL, TYPICAL_SOURCE, VEHICLE_CLASSES } from './spec-checks';
@@ -41,7 +41,7 @@ const positiveId = z.number({ message: 'must be an id' }).int().positive('must b
 const odometer = z.number({ message: 'must be a number in km' }).min(0, 'must be 0 km or more').max(5_000_000, 'must be at most 5 000 000 km');
 const fleetNumber = z.string({ message: 'is required' }).trim().min(1, 'is required').max(20, 'must be 20 characters or fewer').regex(/^[A-Za-z0-9-]+$/, 'may use letters, digits and -');
 const plate = z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(20, 'must be 20 characters or fewer');
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date YYYY-MM-DD');
+const isoDate = isoDay;
 
 const vehicleBody = z
   .object({

@@ -6,7 +6,7 @@ import type { Config } from '../config';
 import { ROUGHNESS_SOURCES } from '../db/models';
 import { AppError } from '../errors';
 import { allow, currentUser } from '../http/access';
-import { idParam, listQuery, paging, parse, queryBool } from '../http/validate';
+import { idParam, isoDay, listQuery, paging, parse, queryBool } from '../http/validate';
 import { requireFile, singleFile, textOf } from '../http/upload';
 import { MAX_PROFILE_BYTES, surveyFilePath } from './profile-store';
 import { roadsRepository, type SegmentSort } from './repository';
@@ -14,7 +14,7 @@ import { roadsService } from './service';
 
 const CLASSES = ['A', 'B', 'C', 'D', 'E', 'F', 'G', 'H'] as const;
 const isoClass = z.enum(CLASSES, { message: 'must be an ISO 8608 class A–H' });
-const isoDate = z.string({ message: 'must be a date YYYY-MM-DD' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date YYYY-MM-DD');
+const isoDate = isoDay;
 const speed = z.number({ message: 'must be a number in km/h' }).min(5, 'must be at least 5 km/h').max(130, 'must be at most 130 km/h');
 const positiveId = z.number({ message: 'must be an id' }).int().positive('must be an id');
 

@@ -16,6 +16,7 @@
 import { createHash } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import { AppError } from '../errors';
+import { parseIsoDateTime } from '../http/validate';
 import { tripsRepository, type TripInput } from './repository';
 
 export const TRIP_COLUMNS = ['vehicle', 'route', 'driver_email', 'start', 'end', 'distance_km', 'mean_speed_kmh', 'payload_kg'] as const;
@@ -56,15 +57,7 @@ interface Candidate {
   label: string;
 }
 
-const ISO_DT = /^\d{4}-\d{2}-\d{2}[T ]\d{2}:\d{2}(:\d{2}(\.\d+)?)?(Z|[+-]\d{2}:?\d{2})?$/;
-
-function parseDateTime(s: string): Date | null {
-  const t = s.trim();
-  if (!ISO_DT.test(t)) return null;
-  const withT = t.replace(' ', 'T');
-  const d = new Date(/(Z|[+-]\d{2}:?\d{2})$/.test(withT) ? withT : `${withT}Z`);
-  return Number.isNaN(d.getTime()) ? null : d;
-}
+const parseDateTime = parseIsoDateTime;
 
 const NUM = /^[+-]?(\d+(\.\d*)?|\.\d+)$/;
 
@@ -262,9 +255,9 @@ export const tripsService = {
         else driverId = u.id;
       }
       const startedAt = parseDateTime(get('start'));
-      if (!startedAt) problems.push(`start "${get('start')}" is not an ISO 8601 date-time (e.g. 2026-11-02T07:30:00Z)`);
+      if (!startedAt) problems.push(`start "${get('start')}" is not a real ISO 8601 date-time (e.g. 2026-11-02T07:30:00Z)`);
       const endedAt = parseDateTime(get('end'));
-      if (!endedAt) problems.push(`end "${get('end')}" is not an ISO 8601 date-time`);
+      if (!endedAt) problems.push(`end "${get('end')}" is not a real ISO 8601 date-time`);
       const numOf = (name: string, unit: string, min: number, max: number, optional = false): number | null => {
         const s = get(name);
         if (!s && optional) return null;
@@ -370,8 +363,8 @@ export const tripsService = {
     }
     const startedAt = parseDateTime(t.startedAt);
     const endedAt = parseDateTime(t.endedAt);
-    if (!startedAt) fields.startedAt = 'must be an ISO 8601 date-time';
-    if (!endedAt) fields.endedAt = 'must be an ISO 8601 date-time';
+    if (!startedAt) fields.startedAt = 'must be a real ISO 8601 date-time (e.g. 2026-11-02T07:30:00Z)';
+    if (!endedAt) fields.endedAt = 'must be a real ISO 8601 date-time (e.g. 2026-11-02T07:30:00Z)';
     if (Object.keys(fields).length) throw AppError.badRequest('Some values are not valid.', fields);
     const cand: Candidate = { row: 1, problems: [], vehicleId: t.vehicleId, routeId: t.routeId, driverId: t.driverId, startedAt, endedAt, distanceKm: t.distanceKm, meanSpeedKmh: t.meanSpeedKmh, payloadKg: t.payloadKg, label: '' };
     await checkCandidates([cand], now);

@@ -4,13 +4,13 @@ import { z } from 'zod';
 import type { Config } from '../config';
 import { AppError } from '../errors';
 import { allow, currentUser } from '../http/access';
-import { idParam, listQuery, paging, parse } from '../http/validate';
+import { idParam, isoDay, listQuery, paging, parse } from '../http/validate';
 import { requireFile, singleFile } from '../http/upload';
 import { ATTACHMENT_KINDS } from './attachments';
 import { REMOVAL_REASONS } from './life';
 import { FINDINGS, VERDICTS, workshopService } from './service';
 
-const isoDate = z.string({ message: 'must be a date YYYY-MM-DD' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date YYYY-MM-DD');
+const isoDate = isoDay;
 const position = z.string({ message: 'must be a corner such as FL' }).regex(/^[A-Z0-9]{2,4}$/, 'must be a corner such as FL, FR, RL, RR');
 const odometer = z.number({ message: 'must be a number in km' }).min(0, 'must be 0 km or more').max(5_000_000, 'must be at most 5 000 000 km');
 
