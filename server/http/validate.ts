@@ -111,3 +111,15 @@ export const isoDateTime = z
     }
     return d;
   });
+
+/**
+ * Control characters (C0, DEL, C1) and the invisible bidirectional marks and overrides (U+061C,
+ * U+200E–U+200F, U+202A–U+202E, U+2066–U+2069): in a name they can hide or reorder what a reader
+ * sees (a vehicle listed under a reversed plate, a NUL cutting a name short in a log).
+ */
+// eslint-disable-next-line no-control-regex
+const HIDDEN = /[\u0000-\u001f\u007f-\u009f\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/;
+export const hasHiddenChars = (s: string) => HIDDEN.test(s);
+export const NO_HIDDEN_MESSAGE = 'must not contain control characters or invisible direction marks';
+/** Refinement for names and other one-line texts. */
+export const noHiddenChars = [(s: string) => !hasHiddenChars(s), { message: NO_HIDDEN_MESSAGE }] as const;

@@ -6,7 +6,7 @@ import type { Config } from '../config';
 import { ROUGHNESS_SOURCES } from '../db/models';
 import { AppError } from '../errors';
 import { allow, currentUser } from '../http/access';
-import { idParam, isoDay, listQuery, paging, parse, queryBool } from '../http/validate';
+import { idParam, isoDay, listQuery, noHiddenChars, paging, parse, queryBool } from '../http/validate';
 import { requireFile, singleFile, textOf } from '../http/upload';
 import { MAX_PROFILE_BYTES, surveyFilePath } from './profile-store';
 import { roadsRepository, type SegmentSort } from './repository';
@@ -33,7 +33,7 @@ const line = z.discriminatedUnion(
 
 const routeBody = z
   .object({
-    name: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(120, 'must be 120 characters or fewer'),
+    name: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(120, 'must be 120 characters or fewer').refine(...noHiddenChars),
     description: z.string().trim().max(2000).nullish(),
     depotId: positiveId.nullish(),
     defaultSpeedKmh: speed,
@@ -45,7 +45,7 @@ const routeBody = z
 
 const routePatch = z
   .object({
-    name: z.string().trim().min(2, 'must be at least 2 characters').max(120),
+    name: z.string().trim().min(2, 'must be at least 2 characters').max(120).refine(...noHiddenChars),
     description: z.string().trim().max(2000).nullable(),
     depotId: positiveId.nullable(),
     defaultSpeedKmh: speed,

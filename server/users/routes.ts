@@ -2,7 +2,7 @@ import type { Router } from 'express';
 import { z } from 'zod';
 import { ROLES } from '../db/models';
 import { allow, currentUser } from '../http/access';
-import { idParam, listQuery, paging, parse, queryBool } from '../http/validate';
+import { idParam, listQuery, noHiddenChars, paging, parse, queryBool } from '../http/validate';
 import { userService } from './service';
 
 const listSchema = listQuery(['name', 'email', 'role', 'createdAt'], 'name', {
@@ -27,7 +27,7 @@ export const passwordSchema = z
 
 const createSchema = z
   .object({
-    name: z.string().trim().min(1, 'is required').max(120),
+    name: z.string().trim().min(1, 'is required').max(120).refine(...noHiddenChars),
     email: z.email({ message: 'must be an e-mail address' }).max(254),
     role: z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` }),
     password: passwordSchema,
@@ -37,7 +37,7 @@ const createSchema = z
 
 const patchSchema = z
   .object({
-    name: z.string().trim().min(1, 'is required').max(120).optional(),
+    name: z.string().trim().min(1, 'is required').max(120).refine(...noHiddenChars).optional(),
     role: z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` }).optional(),
     active: z.boolean({ message: 'must be true or false' }).optional(),
     depotId: z.number().int().positive().nullable().optional(),

@@ -4,7 +4,7 @@ import { z } from 'zod';
 import type { Config } from '../config';
 import { AppError } from '../errors';
 import { allow, currentUser } from '../http/access';
-import { idParam, isoDay, listQuery, paging, parse } from '../http/validate';
+import { idParam, isoDay, listQuery, noHiddenChars, paging, parse } from '../http/validate';
 import { requireFile, singleFile } from '../http/upload';
 import { ATTACHMENT_KINDS } from './attachments';
 import { REMOVAL_REASONS } from './life';
@@ -66,7 +66,7 @@ const workBody = z
     inspectionId: z.number({ message: 'must be an inspection id' }).int().positive().nullish(),
     performedOn: isoDate,
     odometerKm: odometer,
-    summary: z.string({ message: 'is required' }).trim().min(3, 'must be at least 3 characters').max(400, 'must be 400 characters or fewer'),
+    summary: z.string({ message: 'is required' }).trim().min(3, 'must be at least 3 characters').max(400, 'must be 400 characters or fewer').refine(...noHiddenChars),
     labourHours: z.number({ message: 'must be a number in h' }).min(0, 'must be 0 h or more').max(200, 'must be at most 200 h'),
     notes: z.string().trim().max(4000).nullish(),
     items: z
@@ -75,8 +75,8 @@ const workBody = z
           .object({
             position,
             component: z.enum(['damper', 'spring'], { message: 'must be damper or spring' }),
-            partDescription: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(160),
-            partNumber: z.string().trim().max(60, 'must be 60 characters or fewer').nullish(),
+            partDescription: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(160).refine(...noHiddenChars),
+            partNumber: z.string().trim().max(60, 'must be 60 characters or fewer').refine(...noHiddenChars).nullish(),
             cost: z.number({ message: 'must be a number' }).min(0, 'must be 0 or more').max(1_000_000),
             removalReason: z.enum(REMOVAL_REASONS, { message: `must be one of: ${REMOVAL_REASONS.join(', ')}` }),
           })
