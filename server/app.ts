@@ -2,6 +2,8 @@ import express, { Router, type Express } from 'express';
 import session from 'express-session';
 import connectSessionSequelize from 'connect-session-sequelize';
 import cookieParser from 'cookie-parser';
+import helmet from 'helmet';
+import nocache from 'nocache';
 import passport from 'passport';
 import { doubleCsrf } from 'csrf-csrf';
 import path from 'node:path';
@@ -51,6 +53,17 @@ export interface BuiltApp {
   close(): void;
 }
 
+/** `https://tiles.example.com` from a tile URL template, or null when it is not absolute. */
+function originOf(template: string): string | null {
+  try {
+    // a {s} subdomain placeholder allows any subdomain of the host
+    const origin = new URL(template.replace('{s}', 'subdomain').replace(/\{[a-z]\}/g, '0')).origin;
+    return origin.replace('://subdomain.', '://*.');
+  } catch {
+    return null;
+  }
+}
+
 /** Builds the Express app without listening, so tests and `main.ts` share it. */
 export function createApp(deps: AppDeps): BuiltApp {
   const { config, db, log } = deps;
@@ -69,12 +82,36 @@ export function createApp(deps: AppDeps): BuiltApp {
   const prune = () => (store as unknown as { clearExpiredSessions(): Promise<unknown> }).clearExpiredSessions().then(() => undefined);
   void prune();
 
-  app.use((_req, res, next) => {
-    res.setHeader('X-Content-Type-Options', 'nosniff');
-    res.setHeader('Referrer-Policy', 'same-origin');
-    res.setHeader('X-Frame-Options', 'DENY');
-    next();
-  });
+  // Security headers through helmet: a Content-Security-Policy for the app's pages (scripts,
+  // styles and data from this origin only; images also from the map tile host when one is set),
+  // HSTS in production only (a development server over plain HTTP must stay reachable), and
+  // nosniff, same-origin referrers and no framing.
+  const tileOrigin = config.mapTileUrl ? originOf(config.mapTileUrl) : null;
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          // leaflet and the charts position elements with inline style attributes
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:', ...(tileOrigin ? [tileOrigin] : [])],
+          fontSrc: ["'self'", 'data:'],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+          ...(config.production ? { upgradeInsecureRequests: [] } : {}),
+        },
+      },
+      strictTransportSecurity: config.production ? { maxAge: 180 * 24 * 60 * 60, includeSubDomains: true } : false,
+      referrerPolicy: { policy: 'same-origin' },
+      frameguard: { action: 'deny' },
+      crossOriginEmbedderPolicy: false,
+    }),
+  );
   app.use(express.json({ limit: '2mb' }));
   app.use(cookieParser());
   app.use(
@@ -118,6 +155,8 @@ export function createApp(deps: AppDeps): BuiltApp {
   });
 
   const api = Router();
+  // API answers are per user and change often: never stored by a browser or proxy
+  api.use(nocache());
   api.use(doubleCsrfProtection);
   api.get('/health', open, (_req, res) => {
     res.json({ ok: true });
