@@ -113,19 +113,26 @@ async function checkCandidates(cands: Candidate[], now: Date) {
     if (!found.has(b)) found.set(b, []);
     found.get(b)!.push({ j, text });
   };
-  const pairs = (key: (c: Candidate) => number | null, each: (a: Candidate, b: Candidate, j: number) => void) => {
+  // each overlapping pair (a earlier in the file than b), found by a sweep over the group sorted
+  // by start: O(n log n) plus the overlaps, yielding to other requests between groups
+  const pairs = async (key: (c: Candidate) => number | null, each: (a: Candidate, b: Candidate) => void) => {
     for (const group of groupBy(timed, key).values()) {
-      for (let i = 0; i < group.length; i++) {
-        for (let j = 0; j < i; j++) {
-          const a = group[j];
-          const b = group[i];
-          if (a.startedAt! < b.endedAt! && a.endedAt! > b.startedAt!) each(a, b, j);
+      const sorted = [...group].sort((x, y) => x.startedAt!.getTime() - y.startedAt!.getTime() || x.row - y.row);
+      let active: Candidate[] = [];
+      for (const c of sorted) {
+        active = active.filter((a) => a.endedAt! > c.startedAt!);
+        for (const a of active) {
+          // a starts at or before c and ends after c starts: they overlap (c has positive length)
+          if (a.row < c.row) each(a, c);
+          else each(c, a);
         }
+        active.push(c);
       }
+      await new Promise((resolve) => setImmediate(resolve));
     }
   };
-  pairs((c) => c.vehicleId, (a, b) => note(b, a.row, `overlaps row ${a.row} (same vehicle)`));
-  pairs((c) => c.driverId, (a, b) => {
+  await pairs((c) => c.vehicleId, (a, b) => note(b, a.row, `overlaps row ${a.row} (same vehicle)`));
+  await pairs((c) => c.driverId, (a, b) => {
     if (a.vehicleId === null || a.vehicleId !== b.vehicleId) note(b, a.row, `overlaps row ${a.row} (same driver)`);
   });
   for (const [b, list] of found) for (const p of list.sort((x, y) => x.j - y.j)) b.problems.push(p.text);
@@ -214,6 +221,8 @@ export const tripsService = {
     const routes = new Map(lk.routes.map((r) => [r.name.toLowerCase(), r]));
     const users = new Map(lk.users.map((u) => [u.email.toLowerCase(), u]));
     for (let i = 0; i < lines.length; i++) {
+      // let other requests in every 500 lines of a large file
+      if (i % 500 === 499) await new Promise((resolve) => setImmediate(resolve));
       const lineNo = i + 1;
       const line = lines[i].replace(/^\uFEFF/, '');
       if (!line.trim() || line.trim().startsWith('#')) continue;
