@@ -1,5 +1,6 @@
 import type { Router } from 'express';
 import fs from 'node:fs';
+import { createHash } from 'node:crypto';
 import { formatISO } from 'date-fns';
 import { z } from 'zod';
 import type { Config } from '../config';
@@ -109,8 +110,20 @@ export function registerRoadRoutes(r: Router, deps: { config: Config; now: () =>
     res.json(mapConfigOf(deps.config));
   });
 
-  r.get('/map/segments', allow(...ALL), async (_req, res) => {
-    res.json(await roadsRepository.mapData());
+  // The map data (every segment's line, about 200 kB on the demo fleet) is built once per change
+  // of segments, routes or depots and kept serialized; browsers may keep it and revalidate with
+  // its ETag (a 304 has no body).
+  let mapCache: { version: string; etag: string; body: string } | null = null;
+  r.get('/map/segments', allow(...ALL), async (req, res) => {
+    const version = await roadsRepository.mapVersion();
+    if (!mapCache || mapCache.version !== version) {
+      const body = JSON.stringify(await roadsRepository.mapData());
+      mapCache = { version, body, etag: `"map-${createHash('sha256').update(body).digest('hex').slice(0, 24)}"` };
+    }
+    res.setHeader('Cache-Control', 'private, no-cache');
+    res.setHeader('ETag', mapCache.etag);
+    if (req.headers['if-none-match'] === mapCache.etag) return res.status(304).end();
+    res.type('application/json').send(mapCache.body);
   });
 
   r.post('/routes', allow('manager'), async (req, res) => {
