@@ -34,7 +34,8 @@ async function readings(sequelize: Sequelize, vehicleId: number, transaction?: T
 /** The allowed range for a reading taken on `day` (YYYY-MM-DD). */
 export function odometerRange(recordedKm: number, lastDay: string | null, day: string) {
   const days = lastDay ? Math.max(1, Math.round((Date.parse(`${day}T00:00:00Z`) - Date.parse(`${lastDay}T00:00:00Z`)) / DAY_MS)) : 1;
-  return { min: recordedKm, max: recordedKm + MAX_KM_PER_DAY * days, days };
+  // readings are typed in whole km, so the recorded odometer's fraction is not a step back
+  return { min: Math.floor(recordedKm), max: recordedKm + MAX_KM_PER_DAY * days, days };
 }
 
 /** Throws a 400 naming `field` when `km` is outside the plausible range for the vehicle on `day`. */

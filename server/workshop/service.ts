@@ -365,7 +365,9 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
           const s = await mechanicScope(sequelize(), user, t);
           if (s && v.depot_id !== s.depotId) throw AppError.forbidden('This vehicle belongs to another depot.');
         }
-        if (body.performedOn > today()) throw AppError.badRequest('The work cannot be dated in the future.', { performedOn: `must be on or before ${today()}` });
+        // a day's grace for a browser in a time zone ahead of the server's
+        const latest = day(addDays(new Date(`${today()}T00:00:00Z`), 1));
+        if (body.performedOn > latest) throw AppError.badRequest('The work cannot be dated in the future.', { performedOn: `must be on or before ${latest}` });
         await checkOdometer(sequelize(), body.vehicleId, body.odometerKm, body.performedOn, 'odometerKm', t);
         const partsCost = body.items.reduce((s, x) => s + x.cost, 0);
         const wid = await insert(

@@ -74,7 +74,7 @@ describe('impossible dates at the API', () => {
       items: [{ position: before[0].position, component: 'damper', partDescription: 'Twin-tube damper', cost: 100, removalReason: 'leaking' }],
     });
     expect(r.status).toBe(400);
-    expect(r.body.error.fields.performedOn).toMatch(/on or before 2026-11-30/);
+    expect(r.body.error.fields.performedOn).toMatch(/on or before 2026-12-01/);
     const after = (await manager.get<{ corners: { damperId: number }[] }>(`/api/vehicles/${v.id}/workshop`)).body.corners;
     expect(after.map((c) => c.damperId)).toEqual(before.map((c) => c.damperId));
   });
