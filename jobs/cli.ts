@@ -14,6 +14,7 @@ import { prepareDatabase } from '../server/boot';
 import { createMailer } from '../server/mail/mailer';
 import { LockBusyError } from '../server/jobs/repository';
 import * as nightly from './nightly';
+import { isoDay } from '../server/http/validate';
 
 const JOBS = { nightly } as const;
 
@@ -31,7 +32,7 @@ async function main() {
   for (let i = 1; i < args.length; i++) {
     if (args[i] === '--as-of') {
       asOf = args[++i];
-      if (!asOf || !/^\d{4}-\d{2}-\d{2}$/.test(asOf) || Number.isNaN(Date.parse(asOf))) usage('--as-of needs a date like 2026-11-30');
+      if (!asOf || !isoDay.safeParse(asOf).success) usage('--as-of needs a real date like 2026-11-30');
     } else usage(`unknown option "${args[i]}"`);
   }
   let config;

@@ -2,10 +2,13 @@ import express, { Router, type Express } from 'express';
 import session from 'express-session';
 import connectSessionSequelize from 'connect-session-sequelize';
 import cookieParser from 'cookie-parser';
+import helmet from 'helmet';
+import nocache from 'nocache';
 import passport from 'passport';
 import { doubleCsrf } from 'csrf-csrf';
 import path from 'node:path';
 import fs from 'node:fs';
+import { randomBytes } from 'node:crypto';
 import type { Config } from './config';
 import type { Db } from './db';
 import { AppError, errorHandler } from './errors';
@@ -45,7 +48,20 @@ export interface BuiltApp {
   app: Express;
   /** The router holding every /api route, for the role-access test. */
   api: Router;
+  /** Deletes expired session rows now (also done at start and every 15 minutes). */
+  pruneSessions(): Promise<void>;
   close(): void;
+}
+
+/** `https://tiles.example.com` from a tile URL template, or null when it is not absolute. */
+function originOf(template: string): string | null {
+  try {
+    // a {s} subdomain placeholder allows any subdomain of the host
+    const origin = new URL(template.replace('{s}', 'subdomain').replace(/\{[a-z]\}/g, '0')).origin;
+    return origin.replace('://subdomain.', '://*.');
+  } catch {
+    return null;
+  }
 }
 
 /** Builds the Express app without listening, so tests and `main.ts` share it. */
@@ -53,7 +69,7 @@ export function createApp(deps: AppDeps): BuiltApp {
   const { config, db, log } = deps;
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  app.set('trust proxy', config.trustProxy);
 
   const SequelizeStore = connectSessionSequelize(session.Store);
   const store = new SequelizeStore({
@@ -62,13 +78,40 @@ export function createApp(deps: AppDeps): BuiltApp {
     checkExpirationInterval: 15 * 60 * 1000,
     expiration: 7 * 24 * 60 * 60 * 1000,
   });
+  // expired sessions go at start as well as every checkExpirationInterval
+  const prune = () => (store as unknown as { clearExpiredSessions(): Promise<unknown> }).clearExpiredSessions().then(() => undefined);
+  void prune();
 
-  app.use((_req, res, next) => {
-    res.setHeader('X-Content-Type-Options', 'nosniff');
-    res.setHeader('Referrer-Policy', 'same-origin');
-    res.setHeader('X-Frame-Options', 'DENY');
-    next();
-  });
+  // Security headers through helmet: a Content-Security-Policy for the app's pages (scripts,
+  // styles and data from this origin only; images also from the map tile host when one is set),
+  // HSTS in production only (a development server over plain HTTP must stay reachable), and
+  // nosniff, same-origin referrers and no framing.
+  const tileOrigin = config.mapTileUrl ? originOf(config.mapTileUrl) : null;
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          // leaflet and the charts position elements with inline style attributes
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:', ...(tileOrigin ? [tileOrigin] : [])],
+          fontSrc: ["'self'", 'data:'],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+          ...(config.production ? { upgradeInsecureRequests: [] } : {}),
+        },
+      },
+      strictTransportSecurity: config.production ? { maxAge: 180 * 24 * 60 * 60, includeSubDomains: true } : false,
+      referrerPolicy: { policy: 'same-origin' },
+      frameguard: { action: 'deny' },
+      crossOriginEmbedderPolicy: false,
+    }),
+  );
   app.use(express.json({ limit: '2mb' }));
   app.use(cookieParser());
   app.use(
@@ -91,9 +134,20 @@ export function createApp(deps: AppDeps): BuiltApp {
   configurePassport();
   app.use(passport.session());
 
+  // Signed-in requests bind the CSRF token to the session; anonymous ones (the sign-in form) to a
+  // random cookie of their own, so an anonymous visitor stores no session row.
+  const anonCookie = config.production ? '__Host-rb.anon' : 'rb.anon';
+  const anonId = (req: express.Request, res: express.Response) => {
+    const have = (req.cookies as Record<string, unknown> | undefined)?.[anonCookie];
+    if (typeof have === 'string' && /^[A-Za-z0-9_-]{24}$/.test(have)) return have;
+    const id = randomBytes(18).toString('base64url');
+    res.cookie(anonCookie, id, { httpOnly: true, sameSite: 'strict', secure: config.production, path: '/' });
+    (req.cookies as Record<string, unknown>)[anonCookie] = id;
+    return id;
+  };
   const { generateCsrfToken, doubleCsrfProtection } = doubleCsrf({
     getSecret: () => config.sessionSecret,
-    getSessionIdentifier: (req) => req.session.id,
+    getSessionIdentifier: (req) => (req.user ? `s:${req.session.id}` : `a:${String((req.cookies as Record<string, unknown>)[anonCookie] ?? '')}`),
     cookieName: config.production ? '__Host-rb.csrf' : 'rb.csrf',
     cookieOptions: { sameSite: 'strict', secure: config.production, httpOnly: true, path: '/' },
     getCsrfTokenFromRequest: (req) => req.headers['x-csrf-token'],
@@ -101,11 +155,18 @@ export function createApp(deps: AppDeps): BuiltApp {
   });
 
   const api = Router();
+  // API answers are per user and change often: never stored by a browser or proxy
+  api.use(nocache());
   api.use(doubleCsrfProtection);
   api.get('/health', open, (_req, res) => {
     res.json({ ok: true });
   });
-  registerAuthRoutes(api, { csrfToken: (req, res) => generateCsrfToken(req, res), options: { ...defaultAuthOptions, ...deps.auth } });
+  registerAuthRoutes(api, {
+    csrfToken: (req, res) => {
+      if (!req.user) anonId(req, res);
+      return generateCsrfToken(req, res);
+    },
+    options: { ...defaultAuthOptions, ...deps.auth } });
   registerUserRoutes(api);
   registerFleetRoutes(api, { inspectionThreshold: config.inspection.threshold });
   registerFleetWriteRoutes(api, deps.now ?? (() => new Date()));
@@ -147,5 +208,6 @@ export function createApp(deps: AppDeps): BuiltApp {
     app,
     api,
     close: () => store.stopExpiringSessions(),
+    pruneSessions: prune,
   };
 }

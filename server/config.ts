@@ -50,10 +50,16 @@ const schema = z
     ATTACHMENT_MAX_MB: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(100).default(8),
     LANE_FLAG_POINTS: z.coerce.number({ message: 'must be a number' }).positive('must be above 0').max(100).default(15),
     LANE_PLATE_AMPLITUDE_MM: z.coerce.number({ message: 'must be a number in mm' }).min(0.5, 'must be 0.5–10 mm').max(10, 'must be 0.5–10 mm').default(3),
+    TRUST_PROXY: z
+      .string()
+      .regex(/^(loopback|linklocal|uniquelocal|false|true|\d{1,2}|[0-9a-fA-F:./, ]+)$/, 'must be loopback, a number of proxy hops, false, or addresses/subnets separated by commas')
+      .default('loopback'),
     LOG_LEVEL: z.enum(['silent', 'error', 'warn', 'info', 'debug']).default('info'),
   })
   .transform((c) => ({
     nodeEnv: c.NODE_ENV,
+    /** Express `trust proxy`: which proxies' X-Forwarded-For/-Proto to believe (client address, HTTPS). */
+    trustProxy: c.TRUST_PROXY === 'true' ? true : c.TRUST_PROXY === 'false' ? false : /^\d{1,2}$/.test(c.TRUST_PROXY) ? Number(c.TRUST_PROXY) : c.TRUST_PROXY,
     production: c.NODE_ENV === 'production',
     port: c.PORT,
     host: c.HOST,

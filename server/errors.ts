@@ -66,6 +66,15 @@ export function toAppError(err: unknown): AppError {
   }
   if (e?.type === 'entity.parse.failed') return AppError.badRequest('The request body is not valid JSON.');
   if (e?.type === 'entity.too.large') return new AppError(413, 'too_large', 'The request body is too large.');
+  if (e?.type === 'encoding.unsupported') {
+    return new AppError(415, 'unsupported_encoding', 'The request body\'s Content-Encoding is not supported; send it uncompressed, or as gzip, deflate or br.');
+  }
+  // the router's URIError for a malformed %-escape in the address (e.g. /api/vehicles/%E0%A4%A)
+  if (err instanceof URIError) return AppError.badRequest('The address has a malformed %-escape.', { address: 'is not valid percent-encoding' });
+  // any other client error raised by Express or body-parser, with its own status
+  if (typeof e?.status === 'number' && e.status >= 400 && e.status < 500) {
+    return new AppError(e.status, 'bad_request', (err as { expose?: boolean }).expose ? (err as Error).message : 'The request could not be read.');
+  }
   return new AppError(500, 'internal', 'Something went wrong on our side. The error has been logged.', undefined, false);
 }
 

@@ -6,21 +6,26 @@ import { z } from 'zod';
 import { AppError } from '../errors';
 import { allow, currentUser, open, type SessionUser } from '../http/access';
 import { parse } from '../http/validate';
+import { accountDelay, type AccountDelayOptions } from './account-delay';
 import { userRepository } from '../users/repository';
-import { passwordSchema } from '../users/routes';
+import { PASSWORD_MAX_BYTES, passwordSchema } from '../users/routes';
 import { userService } from '../users/service';
 
+/** The sign-in policy; stated in the README ("Sign-in and sessions"). */
 export interface AuthOptions {
-  /** Failed sign-ins allowed per account, and per address, in `windowMs`. */
-  loginLimitPerAccount: number;
+  /** Failed sign-ins allowed per account and address pair, and per address, in `loginWindowMs`. */
+  loginLimitPerPair: number;
   loginLimitPerAddress: number;
   loginWindowMs: number;
+  /** The growing per-account spacing (server/auth/account-delay.ts). */
+  accountDelay: Omit<AccountDelayOptions, 'windowMs'>;
 }
 
 export const defaultAuthOptions: AuthOptions = {
-  loginLimitPerAccount: 8,
+  loginLimitPerPair: 8,
   loginLimitPerAddress: 30,
   loginWindowMs: 15 * 60 * 1000,
+  accountDelay: { freeFailures: 5, baseDelayMs: 1000, maxDelayMs: 8000, maxWaitMs: 10_000 },
 };
 
 export function configurePassport() {
@@ -44,7 +49,12 @@ export function configurePassport() {
 const loginSchema = z
   .object({
     email: z.email({ message: 'must be an e-mail address' }).max(254),
-    password: z.string().min(1, 'is required').max(200),
+    // longer passwords are refused when set (bcrypt reads 72 bytes); one sent here could only
+    // match by its first 72 bytes, so it is refused rather than cut
+    password: z
+      .string()
+      .min(1, 'is required')
+      .refine((p) => Buffer.byteLength(p, 'utf8') <= PASSWORD_MAX_BYTES, { message: `must be at most ${PASSWORD_MAX_BYTES} bytes` }),
   })
   .strict();
 
@@ -66,15 +76,28 @@ export function registerAuthRoutes(r: Router, deps: { csrfToken: (req: Request, 
     keyGenerator: (req) => `ip:${ipKeyGenerator(req.ip ?? 'unknown')}`,
     handler: limited('Too many sign-in attempts from this address. Wait a few minutes and try again.'),
   });
-  const byAccount = rateLimit({
+  const accountOf = (req: Request) => String((req.body as { email?: unknown })?.email ?? '').toLowerCase().trim();
+  // a pair limit, not an account limit: failures from one address cannot lock the account's owner out elsewhere
+  const byPair = rateLimit({
     windowMs: options.loginWindowMs,
-    limit: options.loginLimitPerAccount,
+    limit: options.loginLimitPerPair,
     skipSuccessfulRequests: true,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
-    keyGenerator: (req) => `acct:${String((req.body as { email?: unknown })?.email ?? '').toLowerCase().trim()}`,
-    handler: limited('Too many failed sign-ins for this account. Wait a few minutes and try again.'),
+    keyGenerator: (req) => `pair:${accountOf(req)}|${ipKeyGenerator(req.ip ?? 'unknown')}`,
+    handler: limited('Too many failed sign-ins for this account from this address. Wait a few minutes and try again.'),
   });
+  const delay = accountDelay({ ...options.accountDelay, windowMs: options.loginWindowMs });
+  setInterval(() => delay.sweep(), 60_000).unref();
+  const byAccount: RequestHandler = (req, res, next) => {
+    const turn = delay.reserve(accountOf(req));
+    if ('retryAfterMs' in turn) {
+      res.setHeader('retry-after', String(Math.ceil(turn.retryAfterMs / 1000)));
+      return next(new AppError(429, 'too_many_attempts', `This account has had many failed sign-ins just now; try again in ${Math.ceil(turn.retryAfterMs / 1000)} s.`));
+    }
+    if (turn.waitMs === 0) return next();
+    setTimeout(next, turn.waitMs);
+  };
 
   const validateLogin: RequestHandler = (req, _res, next) => {
     parse(loginSchema, req.body, 'sign-in form');
@@ -82,17 +105,18 @@ export function registerAuthRoutes(r: Router, deps: { csrfToken: (req: Request, 
   };
 
   r.get('/auth/csrf', open, (req, res) => {
-    // Touch the session so it is stored and its id (which the token is bound to) stays put.
-    (req.session as unknown as { seen?: boolean }).seen = true;
+    // Stores nothing for an anonymous visitor: its token is bound to a cookie of its own (server/app.ts).
     res.json({ token: deps.csrfToken(req, res) });
   });
 
-  r.post('/auth/login', open, validateLogin, byAddress, byAccount, (req, res, next) => {
+  r.post('/auth/login', open, validateLogin, byAddress, byPair, byAccount, (req, res, next) => {
     passport.authenticate('local', (err: unknown, user: SessionUser | false) => {
       if (err) return next(err);
       if (!user) {
+        delay.failed(accountOf(req));
         return next(new AppError(401, 'invalid_credentials', 'That e-mail and password do not match an active account.'));
       }
+      delay.succeeded(accountOf(req));
       req.login(user, (loginErr) => {
         if (loginErr) return next(loginErr);
         res.json({ user });
@@ -115,7 +139,7 @@ export function registerAuthRoutes(r: Router, deps: { csrfToken: (req: Request, 
 
   r.post('/auth/password', allow('manager', 'mechanic', 'driver'), async (req, res) => {
     const body = parse(passwordChangeSchema, req.body, 'form');
-    await userService.changePassword(currentUser(req).id, body.currentPassword, body.newPassword);
+    await userService.changePassword(currentUser(req).id, body.currentPassword, body.newPassword, req.sessionID);
     res.status(204).end();
   });
 }

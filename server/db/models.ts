@@ -248,6 +248,8 @@ export class TripImport extends Model<Attrs<TripImport>, CAttrs<TripImport>> {
   declare id: CreationOptional<number>;
   declare originalName: string;
   declare rowCount: number;
+  /** SHA-256 of the imported file (hex); null for imports made before it was kept. */
+  declare fileSha256: string | null;
   declare importedById: ForeignKey<number> | null;
   declare importedAt: Date;
   declare createdAt: CreationOptional<Date>;
@@ -438,6 +440,7 @@ export function initModels(sequelize: Sequelize) {
       id: pk,
       originalName: { type: DataTypes.STRING(255), allowNull: false },
       rowCount: { type: DataTypes.INTEGER, allowNull: false },
+      fileSha256: { type: DataTypes.STRING(64), allowNull: true },
       importedAt: { type: DataTypes.DATE, allowNull: false },
       ...ts,
     },

@@ -3,13 +3,13 @@ import type { Router } from 'express';
 import { QueryTypes } from 'sequelize';
 import { z } from 'zod';
 import { allow, currentUser } from '../http/access';
-import { parse } from '../http/validate';
+import { isoDay, parse } from '../http/validate';
 import { AppError } from '../errors';
 import { DriverExposureDay } from '../db/driver-models';
 import { EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE } from '../physics/exposure';
 import { EXPOSURE_CAUTION, EXPOSURE_METHOD, type ExposurePart } from './exposure';
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date YYYY-MM-DD');
+const isoDate = isoDay;
 const plusDays = (day: string, n: number) => new Date(Date.parse(`${day}T00:00:00Z`) + n * 86_400_000).toISOString().slice(0, 10);
 
 function range(q: { from?: string; to?: string }, today: string) {

@@ -3,6 +3,7 @@ import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { AppError } from '../errors';
+import { contentLength, type FileKind } from '../http/file-end';
 
 /** Largest photo accepted [bytes]. */
 export const MAX_PHOTO_BYTES = 8 * 1024 * 1024;
@@ -18,6 +19,7 @@ const TYPES: { type: string; ext: string; test: (b: Buffer) => boolean }[] = [
 export function photoType(buf: Buffer): { type: string; ext: string } {
   const t = TYPES.find((x) => x.test(buf));
   if (!t) throw AppError.badRequest('The photo is not a JPEG, PNG or WebP image.', { photo: 'must be a JPEG, PNG or WebP image (checked from the file itself, not its name)' });
+  if (contentLength(t.type as FileKind, buf) === null) throw AppError.badRequest('The photo is damaged: the image does not reach its end.', { photo: 'is a damaged or cut-off image' });
   return { type: t.type, ext: t.ext };
 }
 
@@ -25,7 +27,9 @@ export function photoType(buf: Buffer): { type: string; ext: string } {
 export function storePhoto(dataDir: string, buf: Buffer, ext: string): string {
   const rel = path.join(DIR, `${crypto.randomBytes(16).toString('hex')}.${ext}`);
   fs.mkdirSync(path.join(dataDir, DIR), { recursive: true });
-  fs.writeFileSync(path.join(dataDir, rel), buf, { flag: 'wx' });
+  // only the image itself: anything appended after its end is dropped (server/http/file-end.ts)
+  const kind = TYPES.find((t) => t.ext === ext)!.type as FileKind;
+  fs.writeFileSync(path.join(dataDir, rel), buf.subarray(0, contentLength(kind, buf) ?? buf.length), { flag: 'wx' });
   return rel;
 }
 

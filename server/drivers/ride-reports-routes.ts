@@ -3,7 +3,7 @@ import type { Router, RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
 import { allow, currentUser } from '../http/access';
-import { idParam, listQuery, paging, parse } from '../http/validate';
+import { idParam, isoDateTime, listQuery, paging, parse } from '../http/validate';
 import { AppError } from '../errors';
 import { RIDE_REPORT_STATUSES } from '../db/driver-models';
 import { FELT, FELT_KEYS, SEVERITIES } from './ride-scale';
@@ -37,7 +37,7 @@ const createBody = position
       .preprocess((v) => (typeof v === 'string' ? (v ? v.split(',') : []) : v ?? []), z.array(z.enum(FELT_KEYS, { message: `each must be one of ${FELT_KEYS.join(', ')}` })).max(FELT_KEYS.length))
       .default([]),
     note: z.preprocess((v) => (typeof v === 'string' && v.trim() === '' ? null : v), z.string().trim().max(1000, 'must be at most 1000 characters').nullable()).default(null),
-    reportedAt: z.preprocess((v) => (v === '' || v === undefined ? null : v), z.coerce.date({ message: 'must be a date and time' }).nullable()).default(null),
+    reportedAt: z.preprocess((v) => (v === '' || v === undefined ? null : v), isoDateTime.nullable()).default(null),
   })
   .strict();
 

@@ -3,7 +3,7 @@ import { formatISO } from 'date-fns';
 import { z } from 'zod';
 import { VEHICLE_STATUSES } from '../db/models';
 import { allow } from '../http/access';
-import { idParam, parse } from '../http/validate';
+import { idParam, isoDay, noHiddenChars, parse } from '../http/validate';
 import { fleetRepository } from './repository';
 import { fleetWriteService } from './write-service';
 import { HARD_LIMITS, MODE_LIMITS, PRESETS, TYPICAL, TYPICAL_SOURCE, VEHICLE_CLASSES } from './spec-checks';
@@ -24,7 +24,7 @@ const vehicleClass = z.enum(VEHICLE_CLASSES, { message: `must be one of ${VEHICL
 
 const specBody = z
   .object({
-    name: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(120),
+    name: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(120).refine(...noHiddenChars),
     vehicleClass,
     description: z.string().trim().max(2000).nullish(),
     seatFactor: z.number({ message: 'must be a number' }).min(0.2, 'must be 0.2–2 (SEAT value)').max(2, 'must be 0.2–2 (SEAT value)').nullish(),
@@ -37,13 +37,13 @@ const previewBody = z.object({ vehicleClass, axles: z.array(axle).min(1, 'needs 
 
 const lat = z.number({ message: 'must be a number in degrees' }).min(-90, 'must be between −90° and 90°').max(90, 'must be between −90° and 90°');
 const lon = z.number({ message: 'must be a number in degrees' }).min(-180, 'must be between −180° and 180°').max(180, 'must be between −180° and 180°');
-const depotBody = z.object({ name: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(120), address: z.string().trim().max(240).nullish(), lat, lon }).strict();
+const depotBody = z.object({ name: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(120).refine(...noHiddenChars), address: z.string().trim().max(240).nullish(), lat, lon }).strict();
 
 const positiveId = z.number({ message: 'must be an id' }).int().positive('must be an id');
 const odometer = z.number({ message: 'must be a number in km' }).min(0, 'must be 0 km or more').max(5_000_000, 'must be at most 5 000 000 km');
 const fleetNumber = z.string({ message: 'is required' }).trim().min(1, 'is required').max(20, 'must be 20 characters or fewer').regex(/^[A-Za-z0-9-]+$/, 'may use letters, digits and -');
-const plate = z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(20, 'must be 20 characters or fewer');
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date YYYY-MM-DD');
+const plate = z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(20, 'must be 20 characters or fewer').refine(...noHiddenChars);
+const isoDate = isoDay;
 
 const vehicleBody = z
   .object({

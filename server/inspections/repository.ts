@@ -182,7 +182,8 @@ export function inspectionRepository(sequelize: Sequelize) {
     },
 
     /** Open inspections with everything the due list shows. */
-    async dueList(opts: { today: string; depotId?: number; withinDays?: number; sort?: DueSort }): Promise<DueItem[]> {
+    async dueList(opts: { today: string; depotId?: number; withinDays?: number; sort?: DueSort; scope?: { sql: string; args: unknown[] } }): Promise<DueItem[]> {
+      const args: unknown[] = [...(opts.depotId ? [opts.depotId] : []), ...(opts.scope?.args ?? [])];
       const rows = await q<{
         id: number; vehicle_id: number; fleet_number: string; plate: string; vehicle_status: string; depot_id: number; depot_name: string; lat: number; lon: number;
         due_date: string; status: string; trigger: string | null; reason: string; basis: string | null; assignee_id: number | null; assignee_name: string | null;
@@ -193,9 +194,9 @@ export function inspectionRepository(sequelize: Sequelize) {
                 (SELECT MAX(p.life_used_fraction) FROM damper_predictions p WHERE p.vehicle_id = v.id) AS max_life,
                 (SELECT MIN(p.threshold_date) FROM damper_predictions p WHERE p.vehicle_id = v.id) AS first_threshold
          FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN depots d ON d.id = v.depot_id LEFT JOIN users u ON u.id = i.assignee_id
-         WHERE i.status IN ('scheduled', 'due', 'overdue') ${opts.depotId ? 'AND v.depot_id = ?' : ''}
+         WHERE i.status IN ('scheduled', 'due', 'overdue') ${opts.depotId ? 'AND v.depot_id = ?' : ''} ${opts.scope ? `AND ${opts.scope.sql}` : ''}
          ORDER BY i.due_date, v.fleet_number`,
-        opts.depotId ? [opts.depotId] : [],
+        args,
       );
       const t = Date.parse(`${opts.today}T00:00:00Z`);
       return rows

@@ -2,7 +2,8 @@ import type { Router } from 'express';
 import type { Sequelize } from 'sequelize';
 import { z } from 'zod';
 import type { Config } from '../config';
-import { allow } from '../http/access';
+import { allow, currentUser } from '../http/access';
+import { INSPECTION_SCOPE_SQL, inspectionScopeArgs, mechanicScope } from '../http/mechanic-scope';
 import { parse } from '../http/validate';
 import { localDay } from '../wear/repository';
 import { DUE_SORTS } from './repository';
@@ -22,7 +23,10 @@ export function registerInspectionRoutes(r: Router, deps: { sequelize: Sequelize
   r.get('/inspections/due', allow('manager', 'mechanic'), async (req, res) => {
     const q = parse(dueQuery, req.query, 'query');
     const today = localDay(deps.now(), deps.config.timeZone);
-    const items = await service.dueList({ today, depotId: q.depotId, withinDays: q.withinDays, sort: q.sort });
+    // a mechanic's due list holds only the inspections that are theirs (server/http/mechanic-scope.ts)
+    const s = await mechanicScope(deps.sequelize, currentUser(req));
+    const scope = s ? { sql: INSPECTION_SCOPE_SQL, args: inspectionScopeArgs(s) } : undefined;
+    const items = await service.dueList({ today, depotId: q.depotId, withinDays: q.withinDays, sort: q.sort, scope });
     const counts = {
       overdue: items.filter((i) => i.status === 'overdue').length,
       due: items.filter((i) => i.status === 'due').length,

@@ -1,8 +1,10 @@
 /**
  * Job runs and the run lock. The lock is a row per job name in `job_locks`: taken in an
  * IMMEDIATE transaction (so two starters cannot both see it free), refreshed by a heartbeat,
- * and taken over when its heartbeat is older than the timeout (a run that died).
+ * and taken over when its heartbeat is older than the timeout (a run that died), or at once when
+ * its holder was a process on this host that no longer exists (a crash, a kill -9).
  */
+import os from 'node:os';
 import { Op } from 'sequelize';
 import { JobLock, JobRun, type JobRunStatus, type JobTrigger } from '../db/nightly-models';
 import { User } from '../db/models';
@@ -49,6 +51,25 @@ const toRow = (r: JobRun & { requestedBy?: User | null }, withErrors = true): Jo
   };
 };
 
+/**
+ * Whether a lock holder (`host:pid`, as jobs/nightly.ts writes it) was a process on this host
+ * that no longer runs. A holder on another host, or in a form not understood, is never called
+ * gone: only its heartbeat can tell.
+ */
+export function holderIsGone(holder: string | null | undefined, host = os.hostname()): boolean {
+  const m = /^(.*):(\d+)$/.exec(holder ?? '');
+  if (!m || m[1] !== host) return false;
+  const pid = Number(m[2]);
+  if (pid === process.pid) return false;
+  try {
+    process.kill(pid, 0);
+    return false;
+  } catch (e) {
+    // EPERM: it exists but belongs to another user
+    return (e as NodeJS.ErrnoException).code === 'ESRCH';
+  }
+}
+
 export class LockBusyError extends Error {
   constructor(public readonly runId: number | null, public readonly since: Date) {
     super(`Another run (#${runId ?? '?'}) holds the lock since ${since.toISOString()}.`);
@@ -67,7 +88,8 @@ export const jobRepository = {
       const lock = await JobLock.findByPk(input.name, { transaction });
       let takenOver: number | null = null;
       if (lock) {
-        if (input.wallNow.getTime() - lock.heartbeatAt.getTime() < input.staleMs) throw new LockBusyError(lock.runId, lock.acquiredAt);
+        const fresh = input.wallNow.getTime() - lock.heartbeatAt.getTime() < input.staleMs;
+        if (fresh && !holderIsGone(lock.holder)) throw new LockBusyError(lock.runId, lock.acquiredAt);
         takenOver = lock.runId;
         if (lock.runId) {
           await JobRun.update(

@@ -6,16 +6,13 @@ import type { Logger } from '../logger';
 import type { Mailer } from '../mail/mailer';
 import { AppError } from '../errors';
 import { allow, currentUser } from '../http/access';
-import { idParam, listQuery, paging, parse } from '../http/validate';
+import { idParam, isoDay, listQuery, notAfter, paging, parse } from '../http/validate';
 import { jobService } from './service';
+import { localDay } from '../wear/repository';
 
 const runBody = z
   .object({
-    asOf: z
-      .string()
-      .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date like 2026-11-30')
-      .refine((s) => !Number.isNaN(Date.parse(s)), 'must be a real date')
-      .optional(),
+    asOf: isoDay.optional(),
   })
   .strict();
 
@@ -26,6 +23,8 @@ export function registerJobRoutes(r: Router, deps: { config: Config; db: Db; log
 
   r.post('/jobs/nightly/run', allow('manager'), async (req, res) => {
     const body = parse(runBody, req.body ?? {}, 'body');
+    // a run for a day that has not come yet would stamp predictions and mail a digest for it
+    notAfter(body.asOf, localDay(deps.now(), deps.config.timeZone), 'asOf');
     if (!deps.mailer) throw new AppError(503, 'mail_unavailable', 'Mail is not configured for this app instance, so the job cannot run here.');
     const runId = await jobs.startNightly({ asOf: body.asOf, requestedById: currentUser(req).id });
     res.status(202).json({ runId });

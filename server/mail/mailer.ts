@@ -4,6 +4,7 @@
  * it over real SMTP, so nothing leaves the machine and managers read every message on the
  * Outbox page.
  */
+import { createHash } from 'node:crypto';
 import nodemailer, { type Transporter } from 'nodemailer';
 import type { Config } from '../config';
 import type { Logger } from '../logger';
@@ -28,6 +29,17 @@ export interface Mailer {
   close(): Promise<void>;
 }
 
+/**
+ * The Message-ID of a message, fixed by its de-duplication key: a message sent again (after a
+ * crash between the server accepting it and the outbox marking it sent) carries the same
+ * Message-ID, so a mail server or client can recognise the second copy. The domain is the
+ * sender address's.
+ */
+export function stableMessageId(key: string, from: string): string {
+  const domain = /@([^>\s]+)>?\s*$/.exec(from)?.[1] ?? 'reboundry.invalid';
+  return `<${createHash('sha256').update(key).digest('hex').slice(0, 32)}@${domain}>`;
+}
+
 /** A mailer over a nodemailer SMTP transport. */
 export function smtpMailer(transport: Transporter, from: string, description: string, catches: boolean, onClose?: () => Promise<void>): Mailer {
   return {
@@ -41,6 +53,7 @@ export function smtpMailer(transport: Transporter, from: string, description: st
         text: mail.text,
         html: mail.html,
         headers: { 'X-Reboundry-Key': mail.key },
+        messageId: stableMessageId(mail.key, from),
       });
       return { messageId: String(info.messageId ?? '') };
     },

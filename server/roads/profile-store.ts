@@ -9,9 +9,10 @@
  *     0.25,0.000412
  *     …
  *
- * - a header row `distance_m,elevation_m` (lines starting with `#` and blank lines are skipped);
+ * - a header row `distance_m,elevation_m`, or `distance_m,elevation_mm` for millimetres (the same
+ *   two headers the command line reads; lines starting with `#` and blank lines are skipped);
  * - distance along the route [m], increasing in one even step of at most 0.3 m;
- * - elevation [m] (a relative height; only differences matter).
+ * - elevation [m] or [mm] as the header says (a relative height; only differences matter).
  *
  * Contract for the nightly job (issue 5): {@link loadSurveyProfile} reads a stored survey's
  * profile back as `{ dxM, startM, elevationsM }`; a segment whose current roughness comes from a
@@ -65,6 +66,9 @@ export function parseProfileCsv(text: string): ParsedProfile {
   const elev: number[] = [];
   let dx = 0;
   let tol = 0;
+  // the elevation column's name gives its unit: elevation_m [m] or elevation_mm [mm]
+  let elevationCol = 'elevation_m';
+  let toMetres = 1;
   for (const raw of lines) {
     row += 1;
     const line = raw.replace(/^\uFEFF/, '').trim();
@@ -72,18 +76,20 @@ export function parseProfileCsv(text: string): ParsedProfile {
     const cols = line.split(',').map((c) => c.trim());
     if (!headerSeen) {
       const h = cols.map((c) => c.toLowerCase().replace(/^"|"$/g, ''));
-      if (h.length !== 2 || h[0] !== 'distance_m' || h[1] !== 'elevation_m') {
-        throw new ProfileFormatError(`the header must be "distance_m,elevation_m", found "${line.slice(0, 80)}".`, row, 'header');
+      if (h.length !== 2 || h[0] !== 'distance_m' || (h[1] !== 'elevation_m' && h[1] !== 'elevation_mm')) {
+        throw new ProfileFormatError(`the header must be "distance_m,elevation_m" (or elevation_mm for millimetres), found "${line.slice(0, 80)}".`, row, 'header');
       }
+      elevationCol = h[1];
+      toMetres = h[1] === 'elevation_mm' ? 1e-3 : 1;
       headerSeen = true;
       continue;
     }
-    if (cols.length !== 2) throw new ProfileFormatError(`expected 2 columns (distance_m, elevation_m), found ${cols.length}.`, row, 'file');
+    if (cols.length !== 2) throw new ProfileFormatError(`expected 2 columns (distance_m, ${elevationCol}), found ${cols.length}.`, row, 'file');
     if (!NUM.test(cols[0])) throw new ProfileFormatError(`distance_m "${cols[0].slice(0, 30)}" is not a number.`, row, 'distance_m');
-    if (!NUM.test(cols[1])) throw new ProfileFormatError(`elevation_m "${cols[1].slice(0, 30)}" is not a number.`, row, 'elevation_m');
+    if (!NUM.test(cols[1])) throw new ProfileFormatError(`${elevationCol} "${cols[1].slice(0, 30)}" is not a number.`, row, 'elevation_m');
     const d = Number(cols[0]);
-    const z = Number(cols[1]);
-    if (Math.abs(z) > 10_000) throw new ProfileFormatError(`elevation_m ${z} m is outside ±10 000 m.`, row, 'elevation_m');
+    const z = Number(cols[1]) * toMetres;
+    if (Math.abs(z) > 10_000) throw new ProfileFormatError(`${elevationCol} ${cols[1]} is outside ±10 000 m.`, row, 'elevation_m');
     if (d < 0) throw new ProfileFormatError(`distance_m ${d} m is negative.`, row, 'distance_m');
     const n = dist.length;
     if (n === 1) {

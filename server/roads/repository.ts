@@ -1,5 +1,5 @@
 /** Roads data access: routes, segments, roughness observations, surveys. */
-import { Op, type Order, type Transaction, type WhereOptions } from 'sequelize';
+import { Op, QueryTypes, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import { Depot, RoadSurvey, RoughnessObservation, Route, RouteSegment, Trip, User, Vehicle, type RoughnessSource } from '../db/models';
 import { currentValue } from './current-roughness';
 import { classifyGd } from '../physics/iso8608';
@@ -105,11 +105,13 @@ export const roadsRepository = {
     return s ? { ...surveyRow(s as RoadSurvey & { uploadedBy?: User | null }), filePath: s.filePath } : null;
   },
 
-  async tripsOn(routeId: number) {
+  /** The route's trip count and 10 latest trips; only `driverId`'s own when given (a driver's view). */
+  async tripsOn(routeId: number, driverId?: number) {
+    const where = driverId === undefined ? { routeId } : { routeId, driverId };
     const [count, recent] = await Promise.all([
-      Trip.count({ where: { routeId } }),
+      Trip.count({ where }),
       Trip.findAll({
-        where: { routeId },
+        where,
         include: [
           { model: Vehicle, as: 'vehicle', attributes: ['id', 'fleetNumber'] },
           { model: User, as: 'driver', attributes: ['id', 'name'] },
@@ -314,6 +316,20 @@ export const roadsRepository = {
   },
 
   /** Every segment in a compact form for the map: parallel arrays. */
+  /**
+   * A version of what {@link mapData} returns: the row count and latest change of segments,
+   * routes and depots (every write to them goes through Sequelize, which stamps updated_at).
+   */
+  async mapVersion(): Promise<string> {
+    const [row] = await RouteSegment.sequelize!.query<{ v: string }>(
+      `SELECT (SELECT COUNT(*) || ':' || COALESCE(MAX(updated_at), '') FROM route_segments) || '/' ||
+              (SELECT COUNT(*) || ':' || COALESCE(MAX(updated_at), '') FROM routes) || '/' ||
+              (SELECT COUNT(*) || ':' || COALESCE(MAX(updated_at), '') FROM depots) AS v`,
+      { type: QueryTypes.SELECT },
+    );
+    return row.v;
+  },
+
   async mapData() {
     const [routes, segs, depots] = await Promise.all([
       Route.findAll({ attributes: ['id', 'name', 'defaultSpeedKmh'], order: [['id', 'ASC']] }),

@@ -1,12 +1,13 @@
 import type { Router } from 'express';
 import fs from 'node:fs';
+import { createHash } from 'node:crypto';
 import { formatISO } from 'date-fns';
 import { z } from 'zod';
 import type { Config } from '../config';
 import { ROUGHNESS_SOURCES } from '../db/models';
 import { AppError } from '../errors';
 import { allow, currentUser } from '../http/access';
-import { idParam, listQuery, paging, parse, queryBool } from '../http/validate';
+import { idParam, isoDay, listQuery, noHiddenChars, paging, parse, queryBool } from '../http/validate';
 import { requireFile, singleFile, textOf } from '../http/upload';
 import { MAX_PROFILE_BYTES, surveyFilePath } from './profile-store';
 import { roadsRepository, type SegmentSort } from './repository';
@@ -14,7 +15,7 @@ import { roadsService } from './service';
 
 const CLASSES = ['A', 'B', 'C', 'D', 'E', 'F', 'G', 'H'] as const;
 const isoClass = z.enum(CLASSES, { message: 'must be an ISO 8608 class A–H' });
-const isoDate = z.string({ message: 'must be a date YYYY-MM-DD' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date YYYY-MM-DD');
+const isoDate = isoDay;
 const speed = z.number({ message: 'must be a number in km/h' }).min(5, 'must be at least 5 km/h').max(130, 'must be at most 130 km/h');
 const positiveId = z.number({ message: 'must be an id' }).int().positive('must be an id');
 
@@ -33,7 +34,7 @@ const line = z.discriminatedUnion(
 
 const routeBody = z
   .object({
-    name: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(120, 'must be 120 characters or fewer'),
+    name: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(120, 'must be 120 characters or fewer').refine(...noHiddenChars),
     description: z.string().trim().max(2000).nullish(),
     depotId: positiveId.nullish(),
     defaultSpeedKmh: speed,
@@ -45,7 +46,7 @@ const routeBody = z
 
 const routePatch = z
   .object({
-    name: z.string().trim().min(2, 'must be at least 2 characters').max(120),
+    name: z.string().trim().min(2, 'must be at least 2 characters').max(120).refine(...noHiddenChars),
     description: z.string().trim().max(2000).nullable(),
     depotId: positiveId.nullable(),
     defaultSpeedKmh: speed,
@@ -109,8 +110,20 @@ export function registerRoadRoutes(r: Router, deps: { config: Config; now: () =>
     res.json(mapConfigOf(deps.config));
   });
 
-  r.get('/map/segments', allow(...ALL), async (_req, res) => {
-    res.json(await roadsRepository.mapData());
+  // The map data (every segment's line, about 200 kB on the demo fleet) is built once per change
+  // of segments, routes or depots and kept serialized; browsers may keep it and revalidate with
+  // its ETag (a 304 has no body).
+  let mapCache: { version: string; etag: string; body: string } | null = null;
+  r.get('/map/segments', allow(...ALL), async (req, res) => {
+    const version = await roadsRepository.mapVersion();
+    if (!mapCache || mapCache.version !== version) {
+      const body = JSON.stringify(await roadsRepository.mapData());
+      mapCache = { version, body, etag: `"map-${createHash('sha256').update(body).digest('hex').slice(0, 24)}"` };
+    }
+    res.setHeader('Cache-Control', 'private, no-cache');
+    res.setHeader('ETag', mapCache.etag);
+    if (req.headers['if-none-match'] === mapCache.etag) return res.status(304).end();
+    res.type('application/json').send(mapCache.body);
   });
 
   r.post('/routes', allow('manager'), async (req, res) => {
@@ -123,7 +136,9 @@ export function registerRoadRoutes(r: Router, deps: { config: Config; now: () =>
 
   r.get('/routes/:id', allow(...ALL), async (req, res) => {
     const { id } = parse(idParam, req.params, 'address');
-    res.json(await roadsService.routeDetail(id));
+    const user = currentUser(req);
+    // a driver sees only their own trips on the route (names, vehicles and times of others are theirs)
+    res.json(await roadsService.routeDetail(id, user.role === 'driver' ? user.id : undefined));
   });
 
   r.patch('/routes/:id', allow('manager'), async (req, res) => {

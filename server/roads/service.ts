@@ -63,10 +63,11 @@ export function iriPerSegment(p: ParsedProfile, segments: { id: number; seq: num
 export const roadsService = {
   currentRule: CURRENT_RULE_TEXT,
 
-  async routeDetail(id: number) {
+  /** A route with its segments, surveys and trips; `ownTripsOf` limits the trips to one driver's. */
+  async routeDetail(id: number, ownTripsOf?: number) {
     const route = await roadsRepository.findRoute(id);
     if (!route) throw AppError.notFound('Route');
-    const [segments, surveys, trips] = await Promise.all([roadsRepository.segmentsOf(id), roadsRepository.surveysOf(id), roadsRepository.tripsOn(id)]);
+    const [segments, surveys, trips] = await Promise.all([roadsRepository.segmentsOf(id), roadsRepository.surveysOf(id), roadsRepository.tripsOn(id, ownTripsOf)]);
     return { route, segments, surveys, trips, currentRule: CURRENT_RULE_TEXT };
   },
 
@@ -173,6 +174,14 @@ export const roadsService = {
     if (!results.length) {
       throw AppError.badRequest('The profile is too short for this route.', {
         file: `covers ${round(p.endM - p.startM, 1)} m from ${round(p.startM, 1)} m; it must cover at least half of one ${route.segmentLengthM} m segment after the first segment boundary`,
+      });
+    }
+    // a perfectly flat stretch (IRI 0) has no roughness class; it comes from an elevation column of
+    // zeros or one in the wrong unit, never from a real road
+    const flat = results.filter((r) => !(gdFromIri(r.iri) > 0));
+    if (flat.length) {
+      throw AppError.badRequest('The profile is perfectly flat on some segments, so it cannot be a road survey.', {
+        file: `segment(s) ${flat.slice(0, 10).map((r) => r.seq).join(', ')}${flat.length > 10 ? ' …' : ''} have an IRI of 0 m/km (all elevations equal); check the elevation column and its unit`,
       });
     }
     const bySeg = new Map<number, SegmentRow>(segments.map((s) => [s.id, s]));

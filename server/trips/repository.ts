@@ -15,6 +15,9 @@ export interface TripInput {
   payloadKg: number | null;
 }
 
+/** Trips per INSERT statement when importing. */
+const INSERT_SLICE = 250;
+
 export const tripsRepository = {
   async lookups() {
     const [vehicles, routes, drivers] = await Promise.all([
@@ -30,7 +33,7 @@ export const tripsRepository = {
   },
 
   /** Existing trips of these vehicles or drivers that overlap [from, to]. */
-  async overlapping(vehicleIds: number[], driverIds: number[], from: Date, to: Date) {
+  async overlapping(vehicleIds: number[], driverIds: number[], from: Date, to: Date, transaction?: Transaction) {
     const or: WhereOptions[] = [];
     if (vehicleIds.length) or.push({ vehicleId: { [Op.in]: vehicleIds } });
     if (driverIds.length) or.push({ driverId: { [Op.in]: driverIds } });
@@ -38,19 +41,41 @@ export const tripsRepository = {
     const rows = await Trip.findAll({
       where: { [Op.and]: [{ [Op.or]: or }, { startedAt: { [Op.lt]: to } }, { endedAt: { [Op.gt]: from } }] },
       attributes: ['id', 'vehicleId', 'driverId', 'startedAt', 'endedAt'],
+      transaction,
     });
     return rows.map((t) => ({ id: t.id, vehicleId: t.vehicleId, driverId: t.driverId ?? null, startedAt: t.startedAt, endedAt: t.endedAt }));
   },
 
-  async insert(trips: TripInput[], importMeta: { originalName: string; importedById: number; importedAt: Date } | null) {
+  async importByHash(fileSha256: string, transaction?: Transaction) {
+    return TripImport.findOne({ where: { fileSha256 }, attributes: ['id', 'importedAt', 'rowCount'], transaction });
+  },
+
+  /**
+   * Stores trips (and the import row) in one transaction; `check` runs first inside it and throws
+   * to refuse. The transaction is IMMEDIATE (server/db/index.ts), so what `check` reads cannot
+   * change before the insert.
+   */
+  async insert(
+    trips: TripInput[],
+    importMeta: { originalName: string; importedById: number; importedAt: Date; fileSha256: string } | null,
+    check: (t: Transaction) => Promise<void> = async () => {},
+  ) {
     return Trip.sequelize!.transaction(async (transaction: Transaction) => {
+      await check(transaction);
       let importId: number | null = null;
       if (importMeta) importId = (await TripImport.create({ ...importMeta, rowCount: trips.length }, { transaction })).id;
-      const created = await Trip.bulkCreate(
-        trips.map((t) => ({ ...t, importId })),
-        { transaction, returning: true },
-      );
-      return { importId, ids: created.map((t) => t.id) };
+      // in slices, so a 10 000-row file does not hold the event loop while Sequelize builds one
+      // huge statement: other requests are served between slices
+      const ids: number[] = [];
+      for (let i = 0; i < trips.length; i += INSERT_SLICE) {
+        const created = await Trip.bulkCreate(
+          trips.slice(i, i + INSERT_SLICE).map((t) => ({ ...t, importId })),
+          { transaction, returning: true },
+        );
+        ids.push(...created.map((t) => t.id));
+        await new Promise((resolve) => setImmediate(resolve));
+      }
+      return { importId, ids };
     });
   },
 

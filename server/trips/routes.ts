@@ -1,13 +1,13 @@
 import type { Router } from 'express';
 import { z } from 'zod';
 import { allow, currentUser } from '../http/access';
-import { listQuery, paging, parse, queryBool } from '../http/validate';
+import { isoDay, listQuery, paging, parse, queryBool } from '../http/validate';
 import { requireFile, singleFile, textOf } from '../http/upload';
 import { tripsRepository, type TripSort } from './repository';
 import { MAX_TRIP_BYTES, TRIP_COLUMNS, tripsService } from './service';
 
 const id = z.coerce.number({ message: 'must be a number' }).int().positive('must be a positive id');
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date YYYY-MM-DD');
+const isoDate = isoDay;
 
 const tripList = listQuery(['startedAt', 'distanceKm', 'meanSpeedKmh', 'fleetNumber', 'routeName'], '-startedAt', {
   vehicleId: id.optional(),

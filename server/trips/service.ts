@@ -13,7 +13,10 @@
  * - distance_km [km], mean_speed_kmh [km/h] (moving average), payload_kg [kg] (optional column,
  *   may be empty).
  */
+import { createHash } from 'node:crypto';
+import type { Transaction } from 'sequelize';
 import { AppError } from '../errors';
+import { parseIsoDateTime } from '../http/validate';
 import { tripsRepository, type TripInput } from './repository';
 
 export const TRIP_COLUMNS = ['vehicle', 'route', 'driver_email', 'start', 'end', 'distance_km', 'mean_speed_kmh', 'payload_kg'] as const;
@@ -54,15 +57,7 @@ interface Candidate {
   label: string;
 }
 
-const ISO_DT = /^\d{4}-\d{2}-\d{2}[T ]\d{2}:\d{2}(:\d{2}(\.\d+)?)?(Z|[+-]\d{2}:?\d{2})?$/;
-
-function parseDateTime(s: string): Date | null {
-  const t = s.trim();
-  if (!ISO_DT.test(t)) return null;
-  const withT = t.replace(' ', 'T');
-  const d = new Date(/(Z|[+-]\d{2}:?\d{2})$/.test(withT) ? withT : `${withT}Z`);
-  return Number.isNaN(d.getTime()) ? null : d;
-}
+const parseDateTime = parseIsoDateTime;
 
 const NUM = /^[+-]?(\d+(\.\d*)?|\.\d+)$/;
 
@@ -108,33 +103,96 @@ async function checkCandidates(cands: Candidate[], now: Date) {
       }
     }
   }
-  // Overlaps with stored trips and within the file
-  const timed = cands.filter((c) => c.startedAt && c.endedAt && c.endedAt > c.startedAt);
-  if (!timed.length) return;
-  const from = new Date(Math.min(...timed.map((c) => c.startedAt!.getTime())));
-  const to = new Date(Math.max(...timed.map((c) => c.endedAt!.getTime())));
+  await storedOverlaps(cands);
+  // Overlaps within the file, compared only within one vehicle's or one driver's rows (a
+  // 10 000-row file would otherwise take 50 million comparisons). Intervals are half-open:
+  // a trip that ends as the next starts does not overlap it.
+  const timed = timedOf(cands);
+  const found = new Map<Candidate, { j: number; text: string }[]>();
+  const note = (b: Candidate, j: number, text: string) => {
+    if (!found.has(b)) found.set(b, []);
+    found.get(b)!.push({ j, text });
+  };
+  // each overlapping pair (a earlier in the file than b), found by a sweep over the group sorted
+  // by start: O(n log n) plus the overlaps, yielding to other requests between groups
+  const pairs = async (key: (c: Candidate) => number | null, each: (a: Candidate, b: Candidate) => void) => {
+    for (const group of groupBy(timed, key).values()) {
+      const sorted = [...group].sort((x, y) => x.startedAt!.getTime() - y.startedAt!.getTime() || x.row - y.row);
+      let active: Candidate[] = [];
+      for (const c of sorted) {
+        active = active.filter((a) => a.endedAt! > c.startedAt!);
+        for (const a of active) {
+          // a starts at or before c and ends after c starts: they overlap (c has positive length)
+          if (a.row < c.row) each(a, c);
+          else each(c, a);
+        }
+        active.push(c);
+      }
+      await new Promise((resolve) => setImmediate(resolve));
+    }
+  };
+  await pairs((c) => c.vehicleId, (a, b) => note(b, a.row, `overlaps row ${a.row} (same vehicle)`));
+  await pairs((c) => c.driverId, (a, b) => {
+    if (a.vehicleId === null || a.vehicleId !== b.vehicleId) note(b, a.row, `overlaps row ${a.row} (same driver)`);
+  });
+  for (const [b, list] of found) for (const p of list.sort((x, y) => x.j - y.j)) b.problems.push(p.text);
+}
+
+const timedOf = (cands: Candidate[]) => cands.filter((c) => c.startedAt && c.endedAt && c.endedAt > c.startedAt);
+
+/** Rows grouped by a non-null key, in file order. */
+function groupBy(rows: Candidate[], key: (c: Candidate) => number | null) {
+  const m = new Map<number, Candidate[]>();
+  for (const c of rows) {
+    const k = key(c);
+    if (k === null) continue;
+    if (!m.has(k)) m.set(k, []);
+    m.get(k)!.push(c);
+  }
+  return m;
+}
+
+/**
+ * Adds a problem to each candidate that overlaps a stored trip of the same vehicle or driver.
+ * Run again inside the writing transaction (IMMEDIATE, so no other writer can add a trip between
+ * this check and the insert): two concurrent submits of one trip cannot both be stored.
+ */
+async function storedOverlaps(cands: Candidate[], transaction?: Transaction) {
+  const timed = timedOf(cands);
+  if (!timed.length) return 0;
+  let from = Infinity;
+  let to = -Infinity;
+  for (const c of timed) {
+    from = Math.min(from, c.startedAt!.getTime());
+    to = Math.max(to, c.endedAt!.getTime());
+  }
   const vehicleIds = [...new Set(timed.map((c) => c.vehicleId).filter((x): x is number => x !== null))];
   const driverIds = [...new Set(timed.map((c) => c.driverId).filter((x): x is number => x !== null))];
-  const stored = await tripsRepository.overlapping(vehicleIds, driverIds, from, to);
+  const stored = await tripsRepository.overlapping(vehicleIds, driverIds, new Date(from), new Date(to), transaction);
+  const byVehicle = new Map<number, typeof stored>();
+  const byDriver = new Map<number, typeof stored>();
+  for (const t of stored) {
+    if (!byVehicle.has(t.vehicleId)) byVehicle.set(t.vehicleId, []);
+    byVehicle.get(t.vehicleId)!.push(t);
+    if (t.driverId !== null) {
+      if (!byDriver.has(t.driverId)) byDriver.set(t.driverId, []);
+      byDriver.get(t.driverId)!.push(t);
+    }
+  }
   const fmt = (d: Date) => d.toISOString().slice(0, 16).replace('T', ' ');
+  let n = 0;
   for (const c of timed) {
-    for (const t of stored) {
+    const near = new Set([...(c.vehicleId !== null ? (byVehicle.get(c.vehicleId) ?? []) : []), ...(c.driverId !== null ? (byDriver.get(c.driverId) ?? []) : [])]);
+    for (const t of [...near].sort((a, b) => a.id - b.id)) {
       if (t.startedAt < c.endedAt! && t.endedAt > c.startedAt!) {
         if (t.vehicleId === c.vehicleId) c.problems.push(`overlaps trip #${t.id} of the same vehicle (${fmt(t.startedAt)}–${fmt(t.endedAt)} UTC)`);
         else if (c.driverId !== null && t.driverId === c.driverId) c.problems.push(`overlaps trip #${t.id} of the same driver (${fmt(t.startedAt)}–${fmt(t.endedAt)} UTC)`);
+        else continue;
+        n++;
       }
     }
   }
-  for (let i = 0; i < timed.length; i++) {
-    for (let j = 0; j < i; j++) {
-      const a = timed[j];
-      const b = timed[i];
-      if (a.startedAt! < b.endedAt! && a.endedAt! > b.startedAt!) {
-        if (a.vehicleId !== null && a.vehicleId === b.vehicleId) b.problems.push(`overlaps row ${a.row} (same vehicle)`);
-        else if (a.driverId !== null && a.driverId === b.driverId) b.problems.push(`overlaps row ${a.row} (same driver)`);
-      }
-    }
-  }
+  return n;
 }
 
 function toInput(c: Candidate): TripInput {
@@ -163,6 +221,8 @@ export const tripsService = {
     const routes = new Map(lk.routes.map((r) => [r.name.toLowerCase(), r]));
     const users = new Map(lk.users.map((u) => [u.email.toLowerCase(), u]));
     for (let i = 0; i < lines.length; i++) {
+      // let other requests in every 500 lines of a large file
+      if (i % 500 === 499) await new Promise((resolve) => setImmediate(resolve));
       const lineNo = i + 1;
       const line = lines[i].replace(/^\uFEFF/, '');
       if (!line.trim() || line.trim().startsWith('#')) continue;
@@ -204,9 +264,9 @@ export const tripsService = {
         else driverId = u.id;
       }
       const startedAt = parseDateTime(get('start'));
-      if (!startedAt) problems.push(`start "${get('start')}" is not an ISO 8601 date-time (e.g. 2026-11-02T07:30:00Z)`);
+      if (!startedAt) problems.push(`start "${get('start')}" is not a real ISO 8601 date-time (e.g. 2026-11-02T07:30:00Z)`);
       const endedAt = parseDateTime(get('end'));
-      if (!endedAt) problems.push(`end "${get('end')}" is not an ISO 8601 date-time`);
+      if (!endedAt) problems.push(`end "${get('end')}" is not a real ISO 8601 date-time`);
       const numOf = (name: string, unit: string, min: number, max: number, optional = false): number | null => {
         const s = get(name);
         if (!s && optional) return null;
@@ -262,6 +322,17 @@ export const tripsService = {
   },
 
   async importCsv(text: string, originalName: string, userId: number, now: Date) {
+    const fileSha256 = createHash('sha256').update(text).digest('hex');
+    const refuseRepeat = async (t?: Transaction) => {
+      const earlier = await tripsRepository.importByHash(fileSha256, t);
+      if (earlier) {
+        throw AppError.conflict(`This file was already imported (import #${earlier.id} of ${earlier.importedAt.toISOString().slice(0, 10)}, ${earlier.rowCount} trips); nothing was imported again.`, {
+          file: `is the same file as import #${earlier.id}`,
+        });
+      }
+    };
+    // first for a clear answer, then again inside the writing transaction for concurrent sends
+    await refuseRepeat();
     const { rows, candidates } = await tripsService.checkCsv(text, now);
     const bad = rows.filter((r) => !r.ok);
     if (bad.length) {
@@ -269,7 +340,18 @@ export const tripsService = {
       for (const r of bad.slice(0, 200)) fields[`row ${r.row}`] = r.problems.join('; ');
       throw new AppError(400, 'import_rejected', `${bad.length} of ${rows.length} rows have problems, so nothing was imported. Fix them and import the file again.`, fields);
     }
-    const { importId, ids } = await tripsRepository.insert(candidates.map(toInput), { originalName: originalName.slice(0, 255) || 'trips.csv', importedById: userId, importedAt: now });
+    const { importId, ids } = await tripsRepository.insert(
+      candidates.map(toInput),
+      { originalName: originalName.slice(0, 255) || 'trips.csv', importedById: userId, importedAt: now, fileSha256 },
+      async (t) => {
+        await refuseRepeat(t);
+        if (await storedOverlaps(candidates, t)) {
+          const fields: Record<string, string> = {};
+          for (const c of candidates.filter((x) => x.problems.length).slice(0, 200)) fields[`row ${c.row}`] = c.problems.join('; ');
+          throw new AppError(400, 'import_rejected', 'Trips were stored meanwhile that overlap rows of this file, so nothing was imported. Check the rows named and import again.', fields);
+        }
+      },
+    );
     return { importId, imported: ids.length, rows };
   },
 
@@ -290,8 +372,8 @@ export const tripsService = {
     }
     const startedAt = parseDateTime(t.startedAt);
     const endedAt = parseDateTime(t.endedAt);
-    if (!startedAt) fields.startedAt = 'must be an ISO 8601 date-time';
-    if (!endedAt) fields.endedAt = 'must be an ISO 8601 date-time';
+    if (!startedAt) fields.startedAt = 'must be a real ISO 8601 date-time (e.g. 2026-11-02T07:30:00Z)';
+    if (!endedAt) fields.endedAt = 'must be a real ISO 8601 date-time (e.g. 2026-11-02T07:30:00Z)';
     if (Object.keys(fields).length) throw AppError.badRequest('Some values are not valid.', fields);
     const cand: Candidate = { row: 1, problems: [], vehicleId: t.vehicleId, routeId: t.routeId, driverId: t.driverId, startedAt, endedAt, distanceKm: t.distanceKm, meanSpeedKmh: t.meanSpeedKmh, payloadKg: t.payloadKg, label: '' };
     await checkCandidates([cand], now);
@@ -303,7 +385,9 @@ export const tripsService = {
       }
       throw AppError.badRequest('The trip was not saved.', f);
     }
-    const { ids } = await tripsRepository.insert([toInput(cand)], null);
+    const { ids } = await tripsRepository.insert([toInput(cand)], null, async (tx) => {
+      if (await storedOverlaps([cand], tx)) throw AppError.badRequest('The trip was not saved.', { startedAt: cand.problems.join('; ') });
+    });
     return ids[0];
   },
 };

@@ -1,4 +1,4 @@
-import { Op, type WhereOptions } from 'sequelize';
+import { Op, type Transaction, type WhereOptions } from 'sequelize';
 import { User, type Role } from '../db/models';
 import type { SessionUser } from '../http/access';
 
@@ -22,8 +22,8 @@ export const userRepository = {
     const u = await User.findOne({ where: { email: email.toLowerCase() } });
     return u ? { ...toRow(u), passwordHash: u.passwordHash } : null;
   },
-  async findById(id: number) {
-    const u = await User.findByPk(id);
+  async findById(id: number, transaction?: Transaction) {
+    const u = await User.findByPk(id, { transaction });
     return u ? toRow(u) : null;
   },
   async findHash(id: number) {
@@ -56,13 +56,27 @@ export const userRepository = {
     const u = await User.create({ ...data, email: data.email.toLowerCase(), depotId: data.depotId ?? null });
     return toRow(u);
   },
-  async update(id: number, patch: Partial<{ name: string; role: Role; active: boolean; depotId: number | null; passwordHash: string }>) {
-    const u = await User.findByPk(id);
+  async update(id: number, patch: Partial<{ name: string; role: Role; active: boolean; depotId: number | null; passwordHash: string }>, transaction?: Transaction) {
+    const u = await User.findByPk(id, { transaction });
     if (!u) return null;
-    await u.update(patch);
+    await u.update(patch, { transaction });
     return toRow(u);
   },
-  async countActiveManagers() {
-    return User.count({ where: { role: 'manager', active: true } });
+  async countActiveManagers(transaction?: Transaction) {
+    return User.count({ where: { role: 'manager', active: true }, transaction });
+  },
+  /** Runs `fn` in one IMMEDIATE transaction (server/db/index.ts): a second writer waits for it. */
+  inTransaction<T>(fn: (t: Transaction) => Promise<T>) {
+    return User.sequelize!.transaction(fn);
+  },
+  /**
+   * Ends every stored session of user `id` except `keepSid` (the caller's own, when they changed
+   * their own password). Sessions are rows of `sessions` whose JSON data names the user.
+   */
+  async endSessions(id: number, keepSid: string | null = null) {
+    await User.sequelize!.query(
+      `DELETE FROM sessions WHERE json_valid(data) AND json_extract(data, '$.passport.user') = ? AND (? IS NULL OR sid != ?)`,
+      { replacements: [id, keepSid, keepSid] },
+    );
   },
 };

@@ -2,7 +2,7 @@ import type { Router } from 'express';
 import { z } from 'zod';
 import { ROLES } from '../db/models';
 import { allow, currentUser } from '../http/access';
-import { idParam, listQuery, paging, parse, queryBool } from '../http/validate';
+import { idParam, listQuery, noHiddenChars, paging, parse, queryBool } from '../http/validate';
 import { userService } from './service';
 
 const listSchema = listQuery(['name', 'email', 'role', 'createdAt'], 'name', {
@@ -11,11 +11,23 @@ const listSchema = listQuery(['name', 'email', 'role', 'createdAt'], 'name', {
   active: queryBool.optional(),
 });
 
-export const passwordSchema = z.string().min(10, 'must be at least 10 characters').max(200, 'must be at most 200 characters');
+/**
+ * Password rules: at least 10 characters and at most 72 bytes in UTF-8 (bcrypt reads only the first
+ * 72 bytes; a longer password would be cut silently, so it is refused). 72 bytes are 72 ASCII
+ * characters, fewer with accented letters or other scripts.
+ */
+export const PASSWORD_MIN_CHARS = 10;
+export const PASSWORD_MAX_BYTES = 72;
+export const passwordSchema = z
+  .string({ message: 'is required' })
+  .min(PASSWORD_MIN_CHARS, `must be at least ${PASSWORD_MIN_CHARS} characters`)
+  .refine((p) => Buffer.byteLength(p, 'utf8') <= PASSWORD_MAX_BYTES, {
+    message: `must be at most ${PASSWORD_MAX_BYTES} bytes (72 plain letters or digits; accented letters and other scripts take 2–4 bytes each)`,
+  });
 
 const createSchema = z
   .object({
-    name: z.string().trim().min(1, 'is required').max(120),
+    name: z.string().trim().min(1, 'is required').max(120).refine(...noHiddenChars),
     email: z.email({ message: 'must be an e-mail address' }).max(254),
     role: z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` }),
     password: passwordSchema,
@@ -25,13 +37,15 @@ const createSchema = z
 
 const patchSchema = z
   .object({
-    name: z.string().trim().min(1, 'is required').max(120).optional(),
+    name: z.string().trim().min(1, 'is required').max(120).refine(...noHiddenChars).optional(),
     role: z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` }).optional(),
     active: z.boolean({ message: 'must be true or false' }).optional(),
     depotId: z.number().int().positive().nullable().optional(),
+    /** A manager's password reset; ends the user's sessions. */
+    password: passwordSchema.optional(),
   })
   .strict()
-  .refine((p) => Object.keys(p).length > 0, { message: 'give at least one of name, role, active, depotId' });
+  .refine((p) => Object.keys(p).length > 0, { message: 'give at least one of name, role, active, depotId, password' });
 
 export function registerUserRoutes(r: Router) {
   r.get('/users', allow('manager'), async (req, res) => {

@@ -16,21 +16,32 @@ export const userService = {
     return userRepository.create({ ...input, passwordHash });
   },
 
-  async update(actorId: number, id: number, patch: { name?: string; role?: Role; active?: boolean; depotId?: number | null }) {
-    const current = await userRepository.findById(id);
-    if (!current) throw AppError.notFound('User');
-    const losesManager =
-      current.role === 'manager' && current.active && (patch.active === false || (patch.role && patch.role !== 'manager'));
-    if (losesManager && (await userRepository.countActiveManagers()) <= 1) {
-      throw AppError.conflict('This is the last active manager; make someone else a manager first.', {
-        [patch.active === false ? 'active' : 'role']: 'would leave no active manager',
-      });
-    }
-    if (id === actorId && patch.active === false) {
-      throw AppError.conflict('You cannot deactivate your own account.', { active: 'is your own account' });
-    }
-    const updated = await userRepository.update(id, patch);
-    if (!updated) throw AppError.notFound('User');
+  /**
+   * A manager's change to an account. The last-active-manager check and the change run in one
+   * IMMEDIATE transaction, so two concurrent changes cannot both pass the check and leave the
+   * fleet without an active manager. A new `password` (a manager's reset) ends the user's sessions.
+   */
+  async update(actorId: number, id: number, patch: { name?: string; role?: Role; active?: boolean; depotId?: number | null; password?: string }) {
+    const { password, ...fields } = patch;
+    const passwordHash = password === undefined ? undefined : await hashPassword(password);
+    const updated = await userRepository.inTransaction(async (t) => {
+      const current = await userRepository.findById(id, t);
+      if (!current) throw AppError.notFound('User');
+      const losesManager =
+        current.role === 'manager' && current.active && (fields.active === false || (fields.role && fields.role !== 'manager'));
+      if (losesManager && (await userRepository.countActiveManagers(t)) <= 1) {
+        throw AppError.conflict('This is the last active manager; make someone else a manager first.', {
+          [fields.active === false ? 'active' : 'role']: 'would leave no active manager',
+        });
+      }
+      if (id === actorId && fields.active === false) {
+        throw AppError.conflict('You cannot deactivate your own account.', { active: 'is your own account' });
+      }
+      const row = await userRepository.update(id, passwordHash === undefined ? fields : { ...fields, passwordHash }, t);
+      if (!row) throw AppError.notFound('User');
+      return row;
+    });
+    if (passwordHash !== undefined || fields.active === false) await userRepository.endSessions(id);
     return updated;
   },
 
@@ -43,13 +54,15 @@ export const userService = {
     return user;
   },
 
-  async changePassword(id: number, currentPassword: string, newPassword: string) {
+  /** Changes one's own password and ends one's other sessions (the one asking, `keepSid`, stays). */
+  async changePassword(id: number, currentPassword: string, newPassword: string, keepSid: string) {
     const hash = await userRepository.findHash(id);
     if (!hash) throw AppError.notFound('User');
     if (!(await bcrypt.compare(currentPassword, hash))) {
       throw AppError.badRequest('The current password is not right.', { currentPassword: 'does not match' });
     }
     await userRepository.update(id, { passwordHash: await hashPassword(newPassword) });
+    await userRepository.endSessions(id, keepSid);
   },
 };
 

@@ -7,6 +7,7 @@ import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { AppError } from '../errors';
+import { contentLength, type FileKind } from '../http/file-end';
 
 export const ATTACHMENT_KINDS = ['photo', 'printout'] as const;
 export type AttachmentKind = (typeof ATTACHMENT_KINDS)[number];
@@ -49,8 +50,12 @@ export function storeAttachment(dataDir: string, kind: AttachmentKind, file: { b
   const t = sniffType(file.buffer);
   if (!t) throw AppError.badRequest('Only photos (JPEG, PNG, WebP) and PDF printouts can be attached; this file is neither.', { file: 'must be a JPEG, PNG or WebP image, or a PDF' });
   if (kind === 'photo' && !t.image) throw AppError.badRequest('A photo must be an image (JPEG, PNG or WebP).', { file: 'a photo must be a JPEG, PNG or WebP image' });
+  // only the image or document itself: anything appended after its end is dropped (server/http/file-end.ts)
+  const end = contentLength(t.mime as FileKind, file.buffer);
+  if (end === null) throw AppError.badRequest('The file is damaged: it does not reach its end.', { file: `is a damaged or cut-off ${t.image ? 'image' : 'PDF'}` });
+  const own = file.buffer.subarray(0, end);
   const storedName = `${crypto.randomBytes(16).toString('hex')}.${t.ext}`;
   fs.mkdirSync(attachmentDir(dataDir), { recursive: true });
-  fs.writeFileSync(attachmentPath(dataDir, storedName), file.buffer, { flag: 'wx' });
-  return { storedName, mimeType: t.mime, sizeBytes: file.buffer.length, originalName };
+  fs.writeFileSync(attachmentPath(dataDir, storedName), own, { flag: 'wx' });
+  return { storedName, mimeType: t.mime, sizeBytes: own.length, originalName };
 }

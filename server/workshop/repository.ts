@@ -130,9 +130,10 @@ export const workshopRepository = {
     return r ?? null;
   },
 
-  async workRecords(where: { vehicleId?: number; inspectionId?: number; id?: number }) {
+  async workRecords(where: { vehicleId?: number; inspectionId?: number; id?: number; scope?: { sql: string; args: unknown[] } }) {
     const cond: string[] = [];
     const args: unknown[] = [];
+    if (where.scope) { cond.push(where.scope.sql); args.push(...where.scope.args); }
     if (where.vehicleId) { cond.push('w.vehicle_id = ?'); args.push(where.vehicleId); }
     if (where.inspectionId) { cond.push('w.inspection_id = ?'); args.push(where.inspectionId); }
     if (where.id) { cond.push('w.id = ?'); args.push(where.id); }

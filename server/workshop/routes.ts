@@ -5,13 +5,13 @@ import { z } from 'zod';
 import type { Config } from '../config';
 import { AppError } from '../errors';
 import { allow, currentUser } from '../http/access';
-import { idParam, listQuery, paging, parse } from '../http/validate';
+import { idParam, isoDay, listQuery, noHiddenChars, paging, parse } from '../http/validate';
 import { requireFile, singleFile } from '../http/upload';
 import { ATTACHMENT_KINDS } from './attachments';
 import { REMOVAL_REASONS } from './life';
 import { FINDINGS, VERDICTS, workshopService } from './service';
 
-const isoDate = z.string({ message: 'must be a date YYYY-MM-DD' }).regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date YYYY-MM-DD');
+const isoDate = isoDay;
 const position = z.string({ message: 'must be a corner such as FL' }).regex(/^[A-Z0-9]{2,4}$/, 'must be a corner such as FL, FR, RL, RR');
 const odometer = z.number({ message: 'must be a number in km' }).min(0, 'must be 0 km or more').max(5_000_000, 'must be at most 5 000 000 km');
 
@@ -80,7 +80,7 @@ const workBody = z
     inspectionId: z.number({ message: 'must be an inspection id' }).int().positive().nullish(),
     performedOn: isoDate,
     odometerKm: odometer,
-    summary: z.string({ message: 'is required' }).trim().min(3, 'must be at least 3 characters').max(400, 'must be 400 characters or fewer'),
+    summary: z.string({ message: 'is required' }).trim().min(3, 'must be at least 3 characters').max(400, 'must be 400 characters or fewer').refine(...noHiddenChars),
     labourHours: z.number({ message: 'must be a number in h' }).min(0, 'must be 0 h or more').max(200, 'must be at most 200 h'),
     notes: z.string().trim().max(4000).nullish(),
     items: z
@@ -89,8 +89,8 @@ const workBody = z
           .object({
             position,
             component: z.enum(['damper', 'spring'], { message: 'must be damper or spring' }),
-            partDescription: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(160),
-            partNumber: z.string().trim().max(60, 'must be 60 characters or fewer').nullish(),
+            partDescription: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(160).refine(...noHiddenChars),
+            partNumber: z.string().trim().max(60, 'must be 60 characters or fewer').refine(...noHiddenChars).nullish(),
             cost: z.number({ message: 'must be a number' }).min(0, 'must be 0 or more').max(1_000_000),
             removalReason: z.enum(REMOVAL_REASONS, { message: `must be one of: ${REMOVAL_REASONS.join(', ')}` }),
           })
@@ -173,12 +173,12 @@ export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: (
 
   r.get('/work-records', allow('manager', 'mechanic'), async (req, res) => {
     const qy = parse(workList, req.query, 'query');
-    res.json(await svc.workRecords(qy));
+    res.json(await svc.workRecords(currentUser(req), qy));
   });
 
   r.get('/work-records/:id', allow('manager', 'mechanic'), async (req, res) => {
     const { id } = parse(idParam, req.params, 'address');
-    res.json(await svc.workRecord(id));
+    res.json(await svc.workRecord(id, currentUser(req)));
   });
 
   r.post('/work-records', allow('mechanic'), async (req, res) => {
@@ -221,7 +221,7 @@ export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: (
 
   r.get('/vehicles/:id/workshop', allow('manager', 'mechanic'), async (req, res) => {
     const { id } = parse(idParam, req.params, 'address');
-    res.json(await svc.vehicleWorkshop(id));
+    res.json(await svc.vehicleWorkshop(currentUser(req), id));
   });
 
   r.get('/workshop/options', allow('manager', 'mechanic'), (_req, res) => {

@@ -11,12 +11,15 @@ import { estimatedDamping } from '../wear/wear';
 import { repredictVehicle } from '../wear/repredict';
 import { queueAssignmentNotes } from '../mail/service';
 import { AppError } from '../errors';
+import type { Transaction } from 'sequelize';
 import type { SessionUser } from '../http/access';
 import { sequelize, exec, inList, insert, inTransaction, q, stamp, workshopRepository, type FittedCornerRow } from './repository';
 import { backtest, lifeUsedFromDamping, modelNote, specLife, storedLifeModels } from './life';
 import { lifeKmAt, type LifeModel } from '../reliability/life-model';
 import { attachmentPath, storeAttachment, type AttachmentKind } from './attachments';
 import type { WorkshopConfig } from './config';
+import { INSPECTION_SCOPE_SQL, VEHICLE_SCOPE_SQL, inspectionInScope, inspectionScopeArgs, mechanicScope, vehicleInScope, vehicleScopeArgs } from '../http/mechanic-scope';
+import { checkOdometer } from './odometer';
 
 export const FINDINGS = ['oil_leak', 'mount_loose_or_cracked', 'bush_worn', 'bump_stop_damaged', 'spring_cracked_or_sagging', 'tyre_uneven_wear'] as const;
 export const VERDICTS = ['ok', 'monitor', 'replace'] as const;
@@ -172,14 +175,15 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
   const repredict = (vehicleId: number) =>
     repredictVehicle(sequelize(), vehicleId, { now: deps.now(), asOf: today(), timeZone: deps.timeZone, thresholdFraction: cfg.inspectionThreshold, workshop: cfg });
 
+  // the mechanic's scope: server/http/mechanic-scope.ts
   async function scopeCheck(user: SessionUser, insp: { assignee_id: number | null; assigned_depot_id: number | null; vehicle_depot_id: number }) {
-    if (user.role === 'manager') return;
-    const me = await workshopRepository.user(user.id);
-    const depot = me?.depot_id ?? null;
-    const ok =
-      insp.assignee_id === user.id ||
-      (insp.assignee_id === null && (insp.assigned_depot_id ?? insp.vehicle_depot_id) === depot);
-    if (!ok) throw AppError.forbidden('This inspection is assigned to another mechanic or depot.');
+    const s = await mechanicScope(sequelize(), user);
+    if (s && !inspectionInScope(s, insp)) throw AppError.forbidden('This inspection is assigned to another mechanic or depot.');
+  }
+
+  async function vehicleScopeCheck(user: SessionUser, vehicleId: number, t?: Transaction) {
+    const s = await mechanicScope(sequelize(), user, t);
+    if (s && !(await vehicleInScope(sequelize(), s, vehicleId, t))) throw AppError.forbidden('This vehicle belongs to another depot.');
   }
 
   async function cornersOf(vehicleIds: number[]) {
@@ -203,10 +207,10 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       if (f.assignee === 'me') { cond.push('i.assignee_id = ?'); args.push(user.id); }
       else if (f.assignee === 'none') cond.push('i.assignee_id IS NULL');
       else if (f.assignee) { cond.push('i.assignee_id = ?'); args.push(Number(f.assignee)); }
-      if (user.role === 'mechanic') {
-        const me = await workshopRepository.user(user.id);
-        cond.push('(i.assignee_id = ? OR (i.assignee_id IS NULL AND COALESCE(i.assigned_depot_id, v.depot_id) = ?))');
-        args.push(user.id, me?.depot_id ?? -1);
+      const scope = await mechanicScope(sequelize(), user);
+      if (scope) {
+        cond.push(INSPECTION_SCOPE_SQL);
+        args.push(...inspectionScopeArgs(scope));
       }
       const where = cond.length ? `WHERE ${cond.join(' AND ')}` : '';
       const order = { dueDate: 'i.due_date', fleetNumber: 'v.fleet_number', status: 'i.status' }[f.sort.field] ?? 'i.due_date';
@@ -343,6 +347,7 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
         if (!rows.some((r) => r.position === c.position)) fields[`corners.${k}.position`] = `the vehicle has no damper fitted at ${c.position}`;
       });
       if (Object.keys(fields).length) throw AppError.badRequest('Some corners do not exist on this vehicle.', fields);
+      await checkOdometer(sequelize(), i.vehicle_id, body.odometerKm, today());
       // "check again soon" on any corner: the follow-up the nightly scheduling books (the range is checked by the route)
       const checkAgain = body.corners.some((c) => c.verdict === CHECK_AGAIN);
       if (!checkAgain && body.followUpOn) {
@@ -433,7 +438,15 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
           if (!i || i.vehicle_id !== body.vehicleId) throw AppError.badRequest('That inspection is not one of this vehicle.', { inspectionId: 'is not an inspection of this vehicle' });
           await scopeCheck(user, i);
           if (!OPEN.includes(i.status)) throw AppError.conflict('That inspection is already closed.', { inspectionId: `is ${i.status}` });
+        } else {
+          // without an inspection to vouch for it, only a vehicle of the mechanic's own depot
+          const s = await mechanicScope(sequelize(), user, t);
+          if (s && v.depot_id !== s.depotId) throw AppError.forbidden('This vehicle belongs to another depot.');
         }
+        // a day's grace for a browser in a time zone ahead of the server's
+        const latest = day(addDays(new Date(`${today()}T00:00:00Z`), 1));
+        if (body.performedOn > latest) throw AppError.badRequest('The work cannot be dated in the future.', { performedOn: `must be on or before ${latest}` });
+        await checkOdometer(sequelize(), body.vehicleId, body.odometerKm, body.performedOn, 'odometerKm', t);
         const partsCost = body.items.reduce((s, x) => s + x.cost, 0);
         const wid = await insert(
           `INSERT INTO work_records (vehicle_id, inspection_id, mechanic_id, performed_at, odometer_km, summary, parts_cost, labour_hours, notes, created_at, updated_at)
@@ -494,14 +507,16 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
       return this.workRecord(workId);
     },
 
-    async workRecord(id: number) {
+    async workRecord(id: number, user?: SessionUser) {
       const [w] = await workshopRepository.workRecords({ id });
       if (!w) throw AppError.notFound('Work record');
+      if (user) await vehicleScopeCheck(user, w.vehicle_id);
       return workView(w);
     },
 
-    async workRecords(f: { vehicleId?: number }) {
-      const rows = await workshopRepository.workRecords(f);
+    async workRecords(user: SessionUser, f: { vehicleId?: number }) {
+      const scope = await mechanicScope(sequelize(), user);
+      const rows = await workshopRepository.workRecords({ ...f, scope: scope ? { sql: VEHICLE_SCOPE_SQL, args: vehicleScopeArgs(scope) } : undefined });
       return { items: rows.map(workView), total: rows.length };
     },
 
@@ -635,9 +650,10 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
     },
 
     /** The vehicle page's workshop view: corners, life used, predicted vs measured history. */
-    async vehicleWorkshop(vehicleId: number) {
+    async vehicleWorkshop(user: SessionUser, vehicleId: number) {
       const [v] = await q<{ id: number; spec_id: number }>('SELECT id, spec_id FROM vehicles WHERE id = ?', [vehicleId]);
       if (!v) throw AppError.notFound('Vehicle');
+      await vehicleScopeCheck(user, vehicleId);
       const { by, lives } = await cornersOf([vehicleId]);
       const life = lives.get(v.spec_id)!;
       const comparisons = await q<{ inspection_id: number; position: string; adhesion_pct: number | null; predicted: number | null; measured: number | null; nominal: number; note: string | null; verdict: string; at: string | null; basis: string | null; amplitude: number | null; phase: number | null; method: string | null }>(

@@ -8,6 +8,7 @@ import { baselineOdexSection } from './sections/baseline-odex';
 import { cLoopSection } from './sections/c-loop';
 import { closedFormSection } from './sections/closed-form';
 import { nightlySection } from './sections/nightly';
+import { serverSection } from './sections/server';
 
 /** One row of the printed table. */
 export interface BenchRow {
@@ -44,4 +45,4 @@ export interface BenchSection {
 }
 
 /** Sections in run order. */
-export const SECTIONS: BenchSection[] = [timeDomainSection, baselineOdexSection, cLoopSection, closedFormSection, nightlySection];
+export const SECTIONS: BenchSection[] = [timeDomainSection, baselineOdexSection, cLoopSection, closedFormSection, nightlySection, serverSection];

@@ -31,6 +31,13 @@ describe('rainflow (ASTM E1049)', () => {
     checkClose(cycles.reduce((s, c) => s + c.count, 0), 4.0, { abs: 0 }, 'ASTM E1049-85 §5.4.4 worked example: total 4.0', {});
   });
 
+  it('when two consecutive ranges are equal (0, 3, 1, 3, 2.5), then the inner one is a full cycle of range 2 (ASTM E1049-85 §5.4.4: count when X ≥ Y)', () => {
+    const cycles = rainflow([0, 3, 1, 3, 2.5]);
+    const full = cycles.filter((c) => c.count === 1);
+    checkThat(full.length === 1 && full[0].range === 2 && full[0].mean === 2, 'ASTM E1049-85 §5.4.4, X ≥ Y', JSON.stringify(cycles));
+    checkClose(cycles.filter((c) => c.count === 0.5).length, 2, { abs: 0 }, 'ASTM E1049-85 §5.4.4: the rest as half cycles (3 and 0.5)', {});
+  });
+
   it('when the series has plateaus and monotone runs, then only reversals remain (definition)', () => {
     const r = reversals([0, 1, 2, 2, 1, 1, 3, 4]);
     checkThat(JSON.stringify(r) === JSON.stringify([0, 2, 1, 4]), 'definition of reversals', `got ${JSON.stringify(r)}`);

@@ -4,7 +4,7 @@ import { ApiClient, DEMO } from '../support/client';
 
 let srv: TestServer;
 beforeAll(async () => {
-  srv = await startTestServer({ auth: { loginLimitPerAccount: 3, loginLimitPerAddress: 1000 } });
+  srv = await startTestServer({ auth: { loginLimitPerPair: 3, loginLimitPerAddress: 1000, accountDelay: { freeFailures: 50, baseDelayMs: 100, maxDelayMs: 200, maxWaitMs: 1000 } } });
 });
 afterAll(() => srv?.stop());
 
@@ -39,13 +39,20 @@ describe('sign-in', () => {
     expect(r.body.error.fields).toHaveProperty('email');
   });
 
-  it('when one account fails more than the limit, then further attempts get 429 even from a fresh client', async () => {
+  // the test server trusts a proxy on loopback, so X-Forwarded-For stands for the client's address
+  const loginFrom = (address: string, email: string, password: string) =>
+    new ApiClient(srv.url).raw('POST', '/api/auth/login', { body: { email, password }, headers: { 'x-forwarded-for': address } });
+
+  it('when one address fails more than the limit on an account, then it gets 429 there while the owner signs in from elsewhere', async () => {
     const email = 'priya.nandakumar@reboundry.test';
-    for (let i = 0; i < 3; i++) expect((await new ApiClient(srv.url).login(email, 'wrong-password')).status).toBe(401);
-    const blocked = await new ApiClient(srv.url).login(email, 'reboundry-demo');
+    for (let i = 0; i < 3; i++) expect((await loginFrom('203.0.113.7', email, 'wrong-password')).status).toBe(401);
+    const blocked = await loginFrom('203.0.113.7', email, 'reboundry-demo');
     expect(blocked.status).toBe(429);
-    // another account from the same address is not blocked by this account's limit
-    expect((await new ApiClient(srv.url).login(DEMO.driver)).status).toBe(200);
+    expect(((await blocked.json()) as ErrorBody).error.code).toBe('too_many_attempts');
+    // no lock-out handed to the attacker: the owner, from another address, signs in
+    expect((await loginFrom('198.51.100.20', email, 'reboundry-demo')).status).toBe(200);
+    // and the attacking address may still try other accounts (its own limit is per address)
+    expect((await loginFrom('203.0.113.7', DEMO.driver, 'reboundry-demo')).status).toBe(200);
   });
 
   it('when a state-changing request has no CSRF token, then 403 csrf_invalid and nothing happens', async () => {
@@ -67,6 +74,79 @@ describe('sign-in', () => {
     expect((await c.get('/api/auth/me')).status).toBe(200);
     expect((await c.raw('POST', '/api/auth/logout')).status).toBe(204);
     expect((await c.get('/api/auth/me')).status).toBe(401);
+  });
+});
+
+describe('sessions', () => {
+  const sessionRows = async () => Number(((await srv.db.sequelize.query('SELECT COUNT(*) AS n FROM sessions', { plain: true })) as { n: number }).n);
+
+  it('when anonymous visitors fetch a form token, then no session row is stored, and sign-in with that token still works', async () => {
+    const before = await sessionRows();
+    for (let i = 0; i < 20; i++) expect((await new ApiClient(srv.url).raw('GET', '/api/auth/csrf')).status).toBe(200);
+    expect(await sessionRows()).toBe(before);
+    const c = new ApiClient(srv.url);
+    expect((await c.login(DEMO.driver)).status).toBe(200);
+    expect(await sessionRows()).toBe(before + 1);
+    // a token fetched for one anonymous visitor does not serve another
+    const a = new ApiClient(srv.url);
+    const token = ((await (await a.raw('GET', '/api/auth/csrf')).json()) as { token: string }).token;
+    const res = await fetch(`${srv.url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'x-csrf-token': token }, body: JSON.stringify({ email: DEMO.driver, password: 'reboundry-demo' }) });
+    expect(res.status).toBe(403);
+  });
+
+  it('when a session has expired, then pruning removes its row', async () => {
+    await srv.db.sequelize.query(`INSERT INTO sessions (sid, expires, data, created_at, updated_at) VALUES ('old-one', '2020-01-01 00:00:00.000 +00:00', '{}', '2020-01-01', '2020-01-01')`);
+    await srv.pruneSessions();
+    const [rows] = await srv.db.sequelize.query(`SELECT sid FROM sessions WHERE sid = 'old-one'`);
+    expect(rows).toEqual([]);
+  });
+
+  const newUser = async (email: string, password = 'first-password-1') => {
+    const m = new ApiClient(srv.url);
+    await m.login(DEMO.manager);
+    const r = await m.json<{ user: { id: number } }>('POST', '/api/users', { name: 'Session Tester', email, role: 'driver', password });
+    expect(r.status).toBe(201);
+    return { manager: m, id: r.body.user.id };
+  };
+
+  it('when a user changes their password, then their other sessions end and the one they used stays', async () => {
+    await newUser('sessions.one@reboundry.test');
+    const phone = new ApiClient(srv.url);
+    const laptop = new ApiClient(srv.url);
+    await phone.login('sessions.one@reboundry.test', 'first-password-1');
+    await laptop.login('sessions.one@reboundry.test', 'first-password-1');
+    expect((await phone.json('POST', '/api/auth/password', { currentPassword: 'first-password-1', newPassword: 'second-password-2' })).status).toBe(204);
+    expect((await phone.get('/api/auth/me')).status).toBe(200);
+    expect((await laptop.get('/api/auth/me')).status).toBe(401);
+  });
+
+  it('when a manager resets a password, then every session of that user ends and the new password signs in', async () => {
+    const { manager, id } = await newUser('sessions.two@reboundry.test');
+    const c = new ApiClient(srv.url);
+    await c.login('sessions.two@reboundry.test', 'first-password-1');
+    expect((await manager.json('PATCH', `/api/users/${id}`, { password: 'reset-by-manager-3' })).status).toBe(200);
+    expect((await c.get('/api/auth/me')).status).toBe(401);
+    expect((await new ApiClient(srv.url).login('sessions.two@reboundry.test', 'first-password-1')).status).toBe(401);
+    expect((await new ApiClient(srv.url).login('sessions.two@reboundry.test', 'reset-by-manager-3')).status).toBe(200);
+    // the manager's own session is untouched
+    expect((await manager.get('/api/auth/me')).status).toBe(200);
+  });
+
+  it('when a password is longer than 72 bytes or shorter than 10 characters, then it is refused with the rule; 72 bytes and 10 characters pass', async () => {
+    const m = new ApiClient(srv.url);
+    await m.login(DEMO.manager);
+    const make = (email: string, password: string) => m.json<ErrorBody>('POST', '/api/users', { name: 'Length Rule', email, role: 'driver', password });
+    const long = await make('len.one@reboundry.test', 'x'.repeat(73));
+    expect(long.status).toBe(400);
+    expect(long.body.error.fields?.password).toMatch(/72 bytes/);
+    // 37 characters, 74 bytes in UTF-8
+    expect((await make('len.two@reboundry.test', 'é'.repeat(37))).status).toBe(400);
+    expect((await make('len.three@reboundry.test', 'short-pw1')).body.error.fields?.password).toMatch(/at least 10/);
+    expect((await make('len.four@reboundry.test', 'y'.repeat(72))).status).toBe(201);
+    expect((await make('len.five@reboundry.test', 'ten-chars!')).status).toBe(201);
+    // a longer password cannot sign in as its first 72 bytes (bcrypt's silent cut): it is refused
+    expect((await new ApiClient(srv.url).login('len.four@reboundry.test', `${'y'.repeat(72)}z`)).status).toBe(400);
+    expect((await new ApiClient(srv.url).login('len.four@reboundry.test', 'y'.repeat(72))).status).toBe(200);
   });
 });
 

@@ -1,3 +1,5 @@
+import os from 'node:os';
+import { spawnSync } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
@@ -239,6 +241,20 @@ describe('nightly job through the API', () => {
     expect(taken.status).toBe(202);
     expect((await waitForRun(c, taken.body.runId)).status).toBe('succeeded');
     expect(await count(A.db, `SELECT COUNT(*) AS n FROM job_locks`)).toBe(0);
+  }, 60_000);
+
+  it('when a fresh lock belongs to a process on this host that no longer exists, then the next run takes it over at once', async () => {
+    const c = new ApiClient(A.url);
+    await c.login(DEMO.manager);
+    // a process that has ended: its pid names no running process
+    const child = spawnSync(process.execPath, ['-e', '0']);
+    const now = new Date();
+    await A.db.sequelize.query(`INSERT INTO job_locks (name, run_id, holder, acquired_at, heartbeat_at) VALUES ('nightly', 998, ?, ?, ?)`, {
+      replacements: [`${os.hostname()}:${child.pid}`, sqlDate(now), sqlDate(now)],
+    });
+    const taken = await c.json<{ runId: number }>('POST', '/api/jobs/nightly/run', {});
+    expect(taken.status).toBe(202);
+    expect((await waitForRun(c, taken.body.runId)).status).toBe('succeeded');
   }, 60_000);
 
   it('when the body is not valid, then nothing runs', async () => {

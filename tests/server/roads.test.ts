@@ -301,3 +301,27 @@ describe('map', () => {
     expect(mapConfigOf(loadConfig({})).tileUrl).toBe('/tiles/{z}/{x}/{y}.png');
   });
 });
+
+describe('map data validators', () => {
+  it('when the map data is asked for again with its ETag, then 304 without a body; after a segment changes, the new data with a new ETag', async () => {
+    const first = await manager.raw('GET', '/api/map/segments');
+    expect(first.status).toBe(200);
+    const etag = first.headers.get('etag')!;
+    expect(etag).toMatch(/^"map-[0-9a-f]{24}"$/);
+    expect(first.headers.get('cache-control')).toBe('private, no-cache');
+    const data = (await first.json()) as { segments: { id: number[]; isoClass: (string | null)[] } };
+    const again = await manager.raw('GET', '/api/map/segments', { headers: { 'if-none-match': etag } });
+    expect(again.status).toBe(304);
+    expect(await again.text()).toBe('');
+    // a class change on the first segment of route 1 shows in the next answer
+    const k = data.segments.id.indexOf(Math.min(...data.segments.id));
+    const next = data.segments.isoClass[k] === 'H' ? 'G' : 'H';
+    const set = await manager.json('POST', '/api/routes/1/roughness', { seqFrom: 0, seqTo: 0, isoClass: next, observedOn: '2026-11-29' });
+    expect(set.status).toBe(201);
+    const changed = await manager.raw('GET', '/api/map/segments', { headers: { 'if-none-match': etag } });
+    expect(changed.status).toBe(200);
+    expect(changed.headers.get('etag')).not.toBe(etag);
+    const after = (await changed.json()) as { segments: { id: number[]; isoClass: (string | null)[] } };
+    expect(after.segments.isoClass[after.segments.id.indexOf(data.segments.id[k])]).toBe(next);
+  });
+});

@@ -106,7 +106,7 @@ let srv: TestServer;
 let driverVehicleId: number;
 
 beforeAll(async () => {
-  srv = await startTestServer({ auth: { loginLimitPerAccount: 1000, loginLimitPerAddress: 1000 } });
+  srv = await startTestServer({ auth: { loginLimitPerPair: 1000, loginLimitPerAddress: 1000 } });
   const c = new ApiClient(srv.url);
   await c.login(DEMO.driver);
   const mine = await c.get<{ items: { id: number }[] }>('/api/vehicles');
@@ -148,4 +148,154 @@ describe('role access', () => {
       expect(got).toEqual(want);
     });
   }
+});
+
+/**
+ * Ownership behind the role: a second driver and a mechanic of the second depot, with bodies that
+ * pass validation so the request reaches the depot, assignee and driver checks.
+ */
+describe('scope within a role', () => {
+  interface UserRow { id: number; name: string; email: string; role: Role; depotId: number | null }
+  interface VehicleRow { id: number; depotId: number; odometerKm: number; status: string; driverId?: number | null }
+  const MILLBROOK = 'mechanic.millbrook@reboundry.test';
+  let users: UserRow[];
+  let vehicles: VehicleRow[];
+  let manager: ApiClient;
+
+  const signedIn = async (email: string, password?: string) => {
+    const c = new ApiClient(srv.url);
+    expect((await c.login(email, password)).status).toBe(200);
+    return c;
+  };
+  const workBody = async (vehicleId: number, over: Record<string, unknown> = {}) => {
+    const w = await manager.get<{ corners: { position: string }[] }>(`/api/vehicles/${vehicleId}/workshop`);
+    return {
+      vehicleId, performedOn: '2026-11-30', odometerKm: vehicles.find((v) => v.id === vehicleId)!.odometerKm + 40, summary: 'Front left damper replaced', labourHours: 0.5,
+      items: [{ position: w.body.corners[0].position, component: 'damper', partDescription: 'Twin-tube damper', cost: 120, removalReason: 'leaking' }],
+      ...over,
+    };
+  };
+
+  beforeAll(async () => {
+    manager = await signedIn(DEMO.manager);
+    users = (await manager.get<{ items: UserRow[] }>('/api/users?pageSize=200')).body.items;
+    vehicles = (await manager.get<{ items: VehicleRow[] }>('/api/vehicles?pageSize=200&status=in_service')).body.items;
+  });
+
+  it('when either of two drivers calls every read they are allowed, then no other driver\'s name or email is in any answer', async () => {
+    const drivers = users.filter((u) => u.role === 'driver').slice(0, 2);
+    expect(drivers).toHaveLength(2);
+    const routes = (await manager.get<{ items: { id: number }[] }>('/api/routes?pageSize=200')).body.items;
+    for (const me of drivers) {
+      const c = await signedIn(me.email);
+      const own = (await c.get<{ items: { id: number }[] }>('/api/vehicles')).body.items[0]?.id ?? driverVehicleId;
+      const paths = Object.entries(ACCESS)
+        .filter(([k, r]) => k.startsWith('GET ') && r.allow?.includes('driver'))
+        .map(([k, r]) => (r.path ?? k.slice(4)).replace('{vehicle}', String(own)))
+        .filter((p) => !p.includes(':'));
+      paths.push(...routes.map((r) => `/api/routes/${r.id}`));
+      const others = users.filter((u) => u.id !== me.id && u.role === 'driver');
+      const leaks: string[] = [];
+      let ownTrips = 0;
+      for (const p of paths) {
+        const res = await c.raw('GET', p);
+        const text = await res.text();
+        for (const o of others) if (text.includes(o.name) || text.includes(o.email)) leaks.push(`${p} names ${o.name}`);
+        if (/^\/api\/routes\/\d+$/.test(p) && res.status === 200) ownTrips += (JSON.parse(text) as { trips: { recent: unknown[] } }).trips.recent.length;
+      }
+      expect(leaks, me.email).toEqual([]);
+      // the route pages still show the driver's own trips (the check is not passing by showing none)
+      expect(ownTrips, me.email).toBeGreaterThan(0);
+    }
+  });
+
+  it('when a mechanic of the second depot writes for a vehicle of the first without an inspection, then it is refused and no damper changes', async () => {
+    const mill = users.find((u) => u.email === MILLBROOK)!;
+    const c = await signedIn(MILLBROOK);
+    const other = vehicles.find((v) => v.depotId !== mill.depotId)!;
+    const before = (await manager.get<{ corners: { damperId: number }[] }>(`/api/vehicles/${other.id}/workshop`)).body.corners.map((x) => x.damperId);
+    const refused = await c.json('POST', '/api/work-records', await workBody(other.id));
+    expect(refused.status).toBe(403);
+    const after = (await manager.get<{ corners: { damperId: number }[] }>(`/api/vehicles/${other.id}/workshop`)).body.corners.map((x) => x.damperId);
+    expect(after).toEqual(before);
+    // the same body for a vehicle of their own depot goes through, so the refusal was the depot's
+    const mine = vehicles.find((v) => v.depotId === mill.depotId)!;
+    const ok = await c.json('POST', '/api/work-records', await workBody(mine.id));
+    expect(ok.status).toBe(201);
+  });
+
+  it('when a workshop odometer goes backwards or jumps beyond the daily limit, then it is refused naming the field', async () => {
+    const mill = users.find((u) => u.email === MILLBROOK)!;
+    const c = await signedIn(MILLBROOK);
+    const mine = vehicles.filter((v) => v.depotId === mill.depotId)[1];
+    const km = (await manager.get<{ vehicle: { odometerKm: number } }>(`/api/vehicles/${mine.id}`)).body.vehicle.odometerKm;
+    const jump = await c.json<{ error: { fields: Record<string, string> } }>('POST', '/api/work-records', await workBody(mine.id, { odometerKm: 5_000_000 }));
+    expect(jump.status).toBe(400);
+    expect(jump.body.error.fields.odometerKm).toMatch(/at most/);
+    const back = await c.json<{ error: { fields: Record<string, string> } }>('POST', '/api/work-records', await workBody(mine.id, { odometerKm: km - 1 }));
+    expect(back.status).toBe(400);
+    expect(back.body.error.fields.odometerKm).toMatch(/backwards/);
+    // inspection results are held to the same rule
+    const insp = (await manager.get<{ items: { id: number; vehicle: { id: number } }[] }>(`/api/inspections?status=open&depotId=${mill.depotId}&assignee=none&pageSize=200`)).body.items[0];
+    const vkm = (await manager.get<{ vehicle: { odometerKm: number } }>(`/api/vehicles/${insp.vehicle.id}`)).body.vehicle.odometerKm;
+    const res = await c.json<{ error: { fields: Record<string, string> } }>('POST', `/api/inspections/${insp.id}/results`, {
+      odometerKm: vkm + 4_000_000, corners: [{ position: 'FL', adhesionPct: 60, findings: [], verdict: 'ok' }],
+    });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.odometerKm).toMatch(/at most/);
+  });
+
+  it('when a mechanic reads the due list, work records and vehicle workshop views, then only their own scope is answered and every listed item opens', async () => {
+    const mill = users.find((u) => u.email === MILLBROOK)!;
+    const c = await signedIn(MILLBROOK);
+    // a work record in the first depot, by its own mechanic
+    const first = vehicles.filter((v) => v.depotId !== mill.depotId)[1];
+    expect((await (await signedIn(DEMO.mechanic)).json('POST', '/api/work-records', await workBody(first.id))).status).toBe(201);
+    const firstDepot = vehicles.find((v) => v.depotId !== mill.depotId)!.depotId;
+    for (const q of ['', `?depotId=${firstDepot}`]) {
+      const due = await c.get<{ items: { id: number }[] }>(`/api/inspections/due${q}`);
+      expect(due.status).toBe(200);
+      for (const i of due.body.items) expect((await c.get(`/api/inspections/${i.id}`)).status, `due item ${i.id}`).toBe(200);
+    }
+    expect((await c.get<{ items: unknown[] }>(`/api/inspections/due?depotId=${firstDepot}`)).body.items).toEqual([]);
+    const all = (await manager.get<{ items: { id: number; vehicle: { id: number } }[] }>('/api/work-records')).body.items;
+    const theirs = (await c.get<{ items: { id: number; vehicle: { id: number } }[] }>('/api/work-records')).body.items;
+    const depotOf = (id: number) => vehicles.find((v) => v.id === id)?.depotId;
+    const elsewhere = all.filter((w) => depotOf(w.vehicle.id) !== mill.depotId);
+    expect(elsewhere.length).toBeGreaterThan(0);
+    expect(theirs.length).toBeGreaterThan(0);
+    // the rule: vehicles of their depot, or vehicles with one of their inspections (assigned to them, or sent to their depot unassigned)
+    const withTheirs = new Set(
+      (await srv.db.sequelize.query<{ vehicle_id: number }>(
+        'SELECT DISTINCT vehicle_id FROM inspections WHERE assignee_id = ? OR (assignee_id IS NULL AND assigned_depot_id = ?)',
+        { replacements: [mill.id, mill.depotId], type: 'SELECT' as never },
+      )).map((r) => r.vehicle_id),
+    );
+    expect(theirs.filter((w) => depotOf(w.vehicle.id) !== mill.depotId && !withTheirs.has(w.vehicle.id))).toEqual([]);
+    expect((await c.get(`/api/work-records/${elsewhere[0].id}`)).status).toBe(403);
+    expect((await c.get(`/api/work-records/${theirs[0].id}`)).status).toBe(200);
+    expect((await c.get(`/api/vehicles/${elsewhere[0].vehicle.id}/workshop`)).status).toBe(403);
+    expect((await c.get(`/api/vehicles/${theirs[0].vehicle.id}/workshop`)).status).toBe(200);
+  });
+
+  it('when a mechanic acts on an inspection assigned to another mechanic of the same depot, then results and attachments are refused', async () => {
+    const tomasz = users.find((u) => u.email === DEMO.mechanic)!;
+    const created = await manager.json<{ user: { id: number } }>('POST', '/api/users', {
+      name: 'Priya Lund', email: 'priya.lund@reboundry.test', role: 'mechanic', password: 'a-long-enough-password', depotId: tomasz.depotId,
+    });
+    expect(created.status).toBe(201);
+    const insp = (await manager.get<{ items: { id: number; vehicle: { id: number } }[] }>(`/api/inspections?status=open&depotId=${tomasz.depotId}&pageSize=200`)).body.items[0];
+    expect((await manager.json('PATCH', `/api/inspections/${insp.id}`, { assigneeId: created.body.user.id })).status).toBe(200);
+    const c = await signedIn(DEMO.mechanic);
+    const km = (await manager.get<{ vehicle: { odometerKm: number } }>(`/api/vehicles/${insp.vehicle.id}`)).body.vehicle.odometerKm;
+    const results = { odometerKm: km + 10, corners: [{ position: 'FL', adhesionPct: 60, findings: [], verdict: 'ok' }] };
+    expect((await c.json('POST', `/api/inspections/${insp.id}/results`, results)).status).toBe(403);
+    const f = new FormData();
+    f.append('kind', 'photo');
+    f.append('file', new Blob([new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, ...new Array(64).fill(1)])]), 'lane.png');
+    expect((await c.raw('POST', `/api/inspections/${insp.id}/attachments`, { form: f })).status).toBe(403);
+    // the assignee may
+    const priya = await signedIn('priya.lund@reboundry.test', 'a-long-enough-password');
+    expect((await priya.json('POST', `/api/inspections/${insp.id}/results`, results)).status).toBe(200);
+  });
 });

@@ -83,7 +83,7 @@ describe('the follow-up date of "check again soon"', () => {
       [{ followUpOn: TODAY }, 'monitor', /after the inspection day \(2026-11-30\)/],
       [{ followUpOn: '2026-11-01' }, 'monitor', /after the inspection day/],
       [{ followUpOn: '2027-12-01' }, 'monitor', /within a year of the inspection \(on or before 2027-11-30\)/],
-      [{ followUpOn: '2027-02-30' }, 'monitor', /not a calendar date/],
+      [{ followUpOn: '2027-02-30' }, 'monitor', /real calendar date/],
       [{ followUpOn: 'next week' }, 'monitor', /YYYY-MM-DD/],
       [{ followUpOn: '2027-01-15' }, 'ok', /check again soon/],
     ];

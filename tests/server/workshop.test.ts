@@ -12,7 +12,8 @@ interface Corner { damperId: number; position: string; axleIndex: number; lifeUs
 interface ListItem { id: number; vehicle: { id: number; fleetNumber: string }; status: string; assignee: { id: number } | null; corners: Corner[] }
 interface Axle { axleIndex: number; corner: { sprungMassKg: number; unsprungMassKg: number; springRateNPerM: number; dampingNsPerM: number; tireRateNPerM: number } }
 
-const PNG = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(64, 1)]);
+/** A 1×1 PNG (the smallest valid image). */
+const PNG = Buffer.from('89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d4944415478da63f8cfc0f01f0005000201a0e7d6a90000000049454e44ae426082', 'hex');
 const PDF = Buffer.from('%PDF-1.4\n% test-lane printout\n%%EOF\n');
 const form = (kind: string, buf: Buffer, name: string) => {
   const f = new FormData();

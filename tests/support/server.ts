@@ -16,6 +16,8 @@ export interface TestServer {
   db: Db;
   dataDir: string;
   api: ReturnType<typeof createApp>['api'];
+  /** Deletes expired session rows now. */
+  pruneSessions(): Promise<void>;
   /** The app's configuration, logger and mailer (the built-in mail catcher on a free port). */
   config: Config;
   log: Logger;
@@ -46,6 +48,7 @@ export async function startTestServer(opts: { seed?: boolean; auth?: AppDeps['au
     db,
     dataDir,
     api: built.api,
+    pruneSessions: built.pruneSessions,
     config,
     log,
     mailer,

@@ -7,7 +7,7 @@ export const MIN_PASSWORD_LENGTH = 10;
 export const changePasswordSchema = z
   .object({
     currentPassword: z.string().min(1, 'is required'),
-    newPassword: z.string().min(MIN_PASSWORD_LENGTH, `must be at least ${MIN_PASSWORD_LENGTH} characters`).max(200, 'must be at most 200 characters'),
+    newPassword: z.string().min(MIN_PASSWORD_LENGTH, `must be at least ${MIN_PASSWORD_LENGTH} characters`).refine((p) => new TextEncoder().encode(p).length <= 72, 'must be at most 72 bytes (72 plain letters or digits; accented letters take more)'),
     confirmPassword: z.string().min(1, 'is required'),
   })
   .refine((v) => v.newPassword === v.confirmPassword, { path: ['confirmPassword'], message: 'does not match the new password' })

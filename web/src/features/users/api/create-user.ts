@@ -9,7 +9,7 @@ export const createUserSchema = z.object({
   name: z.string().trim().min(1, 'is required').max(120, 'must be at most 120 characters'),
   email: z.string().trim().min(1, 'is required').pipe(z.email('does not look like an e-mail address')),
   role: z.enum(ROLES, 'must be chosen'),
-  password: z.string().min(10, 'must be at least 10 characters').max(200, 'must be at most 200 characters'),
+  password: z.string().min(10, 'must be at least 10 characters').refine((p) => new TextEncoder().encode(p).length <= 72, 'must be at most 72 bytes (72 plain letters or digits; accented letters take more)'),
 });
 export type CreateUserInput = z.infer<typeof createUserSchema>;
 
