@@ -8,6 +8,7 @@ import { baselineOdexSection } from './sections/baseline-odex';
 import { cLoopSection } from './sections/c-loop';
 import { closedFormSection } from './sections/closed-form';
 import { nightlySection } from './sections/nightly';
+import { clientSection } from './sections/client';
 
 /** One row of the printed table. */
 export interface BenchRow {
@@ -37,6 +38,8 @@ export interface BenchContext {
 
 /** A benchmark section. */
 export interface BenchSection {
+  /** Short key for `--only` (sections without one run only when no `--only` is given). */
+  key?: string;
   /** Short name shown as the table heading. */
   name: string;
   /** Run it. */
@@ -44,4 +47,4 @@ export interface BenchSection {
 }
 
 /** Sections in run order. */
-export const SECTIONS: BenchSection[] = [timeDomainSection, baselineOdexSection, cLoopSection, closedFormSection, nightlySection];
+export const SECTIONS: BenchSection[] = [timeDomainSection, baselineOdexSection, cLoopSection, closedFormSection, nightlySection, clientSection];
