@@ -1,4 +1,4 @@
-import type { z } from 'zod';
+import type { $ZodError } from 'zod/v4/core';
 import { isApiError } from './api-client';
 
 /**
@@ -13,7 +13,7 @@ function sentence(label: string | undefined, message: string): string {
   return /[.!?]$/.test(capital) ? capital : `${capital}.`;
 }
 
-export function zodFieldErrors(error: z.ZodError, labels: Record<string, string>): FieldErrors {
+export function zodFieldErrors(error: $ZodError, labels: Record<string, string>): FieldErrors {
   const out: FieldErrors = {};
   for (const issue of error.issues) {
     const key = String(issue.path[0] ?? '_');
