@@ -24,6 +24,8 @@ export interface DueInspection {
   daysLeft: number;
   maxLifeUsed: number | null;
   firstThresholdDate: string | null;
+  /** Routes the vehicle drove in the 90 days before today. */
+  routeIds: number[];
 }
 
 export interface DueInspections {
