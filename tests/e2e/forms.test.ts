@@ -1,0 +1,75 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { QueryTypes } from 'sequelize';
+import type { Browser } from 'playwright-core';
+import { fullPageScreenshot, launchBrowser, newContext } from '../support/browser';
+import { startTestServer, type TestServer } from '../support/server';
+import { DEMO, signIn } from './helpers';
+
+let server: TestServer;
+let browser: Browser;
+
+beforeAll(async () => {
+  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+describe('forms that speak plainly', () => {
+  it('when a mechanic enters impossible test-lane values, then each field says what is wrong in one sentence, is marked, focus goes to the first, and a good save says it saved', async () => {
+    const sq = server.db.sequelize;
+    // an open inspection at the mechanic's depot, with its FL damper past its life on the wear model
+    const [insp] = await sq.query<{ id: number; vehicle_id: number }>(
+      `SELECT i.id, i.vehicle_id FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN users u ON u.depot_id = v.depot_id
+       WHERE u.email = ? AND i.status IN ('scheduled', 'due', 'overdue') ORDER BY i.id LIMIT 1`,
+      { replacements: [DEMO.mechanic], type: QueryTypes.SELECT },
+    );
+    expect(insp).toBeDefined();
+    await sq.query(`UPDATE dampers SET life_used_fraction = 1.05, wear_updated_at = datetime('now') WHERE vehicle_id = ? AND position = 'FL' AND removed_at IS NULL`, { replacements: [insp.vehicle_id] });
+    await sq.query(`UPDATE dampers SET life_used_fraction = 0.2, wear_updated_at = datetime('now') WHERE vehicle_id = ? AND position = 'FR' AND removed_at IS NULL`, { replacements: [insp.vehicle_id] });
+
+    const context = await newContext(browser, 'tablet');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.mechanic);
+    await page.goto(`${server.url}/inspections/${insp.id}`);
+    const form = page.getByRole('form', { name: 'Test-lane results' });
+    await form.waitFor();
+
+    // the corner the model flags has no verdict chosen; the one within its life keeps "Keep in service"
+    expect(await page.getByLabel('Verdict FL').inputValue()).toBe('');
+    expect(await page.getByLabel('Verdict FR').inputValue()).toBe('ok');
+    await form.getByText('The wear model flags this corner: your verdict, no default.').waitFor();
+
+    await page.getByLabel('Adhesion FL [%]').fill('150');
+    await page.getByLabel('Adhesion FR [%]').fill('abc');
+    await page.getByRole('button', { name: 'Save results' }).click();
+    await form.getByText('Adhesion FL must be 0–100 %.').waitFor();
+    await form.getByText('Adhesion FR must be a number, 0–100 %.').waitFor();
+    await form.getByText(/^Choose a verdict for FL/).waitFor();
+    expect(await page.getByLabel('Adhesion FL [%]').getAttribute('aria-invalid')).toBe('true');
+    expect(await page.getByLabel('Adhesion RL [%]').getAttribute('aria-invalid')).toBeNull();
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('aria-label'))).toBe('Adhesion FL [%]');
+    // the sentence is what a screen reader hears with the field
+    const described = await page.getByLabel('Adhesion FL [%]').getAttribute('aria-describedby');
+    expect(await page.locator(`[id="${described!.split(' ')[0]}"]`).innerText()).toBe('Adhesion FL must be 0–100 %.');
+    expect(await form.innerText()).not.toMatch(/corners\.\d|adhesionPct|invalid_type|Too big/);
+    await fullPageScreenshot(page, 'mechanic-tablet-inspection-errors');
+
+    // a value only the server can refuse comes back as a sentence on its own field
+    await page.getByLabel('Adhesion FL [%]').fill('22');
+    await page.getByLabel('Adhesion FR [%]').fill('44');
+    await page.getByLabel('Verdict FL').selectOption('replace');
+    await page.getByLabel('Odometer [km]').first().fill('6000000');
+    await page.getByRole('button', { name: 'Save results' }).click();
+    await form.getByText('Odometer must be at most 5 000 000 km.').waitFor();
+    expect(await page.evaluate(() => (document.activeElement as HTMLInputElement | null)?.name)).toBe('odometerKm');
+
+    await page.getByLabel('Odometer [km]').first().fill('120000');
+    await page.getByRole('button', { name: 'Save results' }).click();
+    await form.getByRole('status').getByText(/^Results saved at \d\d:\d\d\.$/).waitFor();
+    expect(await form.locator('[aria-invalid="true"]').count()).toBe(0);
+    await context.close();
+  });
+});
