@@ -72,4 +72,47 @@ describe('forms that speak plainly', () => {
     expect(await form.locator('[aria-invalid="true"]').count()).toBe(0);
     await context.close();
   });
+
+  it('when a manager types a wrong or blank figure in the spec editor, then the field says so, the modes go blank, Save says why it is off; the list shows the same units and modes', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await page.goto(`${server.url}/specs`);
+    const table = page.getByRole('table', { name: 'Courier van 2.8 t: corner parameters per axle' });
+    await table.waitFor();
+    const headers = (await table.locator('thead th').allInnerTexts()).map((h) => h.replace(/\s+/g, ' ').trim());
+    expect(headers).toEqual(expect.arrayContaining(['Spring rate (kN/m)', 'Tyre rate (kN/m)', 'Body bounce (Hz)', 'Body damping ratio (%)']));
+    const frontRow = (await table.locator('tbody tr').first().locator('th, td').allInnerTexts()).map((t) => t.trim());
+    const col = (name: string) => frontRow[headers.indexOf(name)];
+
+    await page.getByRole('link', { name: 'Edit Courier van 2.8 t' }).click();
+    const modes = page.getByTestId('corner-modes').first();
+    await modes.waitFor();
+    // the same figures as the list, in the same units
+    expect(await page.getByTestId('body-hz').first().innerText()).toBe(`${col('Body bounce (Hz)')} Hz`);
+    expect(await page.getByTestId('body-zeta').first().innerText()).toBe(`${col('Body damping ratio (%)')} %`);
+    const spring = page.getByLabel('Spring rate at the wheel [kN/m]').first();
+    expect(Number(await spring.inputValue())).toBeCloseTo(Number(col('Spring rate (kN/m)').replace(/,/g, '')), 1);
+
+    await spring.fill('abc');
+    await page.getByText('Spring rate at the wheel must be a number.').first().waitFor();
+    expect(await spring.getAttribute('aria-invalid')).toBe('true');
+    await page.getByText('Fix the values marked in red to see this corner’s modes.').first().waitFor();
+    // every axle's figures go blank rather than keep the old values
+    expect(await page.getByTestId('body-hz').count()).toBe(0);
+    const save = page.getByRole('button', { name: 'Save changes' });
+    expect(await save.isDisabled()).toBe(true);
+    await page.getByText(/^Save is off until every figure is a number: one field is marked in red\.$/).waitFor();
+
+    await page.getByLabel('Tyre rate [kN/m]').first().fill('');
+    await page.getByText('Tyre rate is required.').first().waitFor();
+    await page.getByText(/2 fields are marked in red/).waitFor();
+    await fullPageScreenshot(page, 'manager-desktop-spec-editor-errors');
+
+    await spring.fill(col('Spring rate (kN/m)').replace(/,/g, ''));
+    await page.getByLabel('Tyre rate [kN/m]').first().fill(col('Tyre rate (kN/m)').replace(/,/g, ''));
+    await page.getByTestId('body-hz').first().waitFor();
+    expect(await save.isDisabled()).toBe(false);
+    await context.close();
+  });
 });

@@ -119,7 +119,7 @@ describe('roads, surveys and imports in the browser', () => {
     await damping.fill('4800');
     await page.waitForFunction((b) => document.querySelector('[data-testid=body-zeta]')?.textContent !== b, before);
     const after = await zeta.innerText();
-    expect(Number(after)).toBeGreaterThan(Number(before));
+    expect(parseFloat(after)).toBeGreaterThan(parseFloat(before));
     await page.screenshot({ path: screenshotPath('manager-desktop-spec-editor'), fullPage: true });
     await page.getByRole('button', { name: 'Save changes' }).click();
     await page.getByText('Saved.').waitFor();
