@@ -119,7 +119,8 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
     const ok =
       insp.assignee_id === user.id ||
       (insp.assignee_id === null && (insp.assigned_depot_id ?? insp.vehicle_depot_id) === depot);
-    if (!ok) throw AppError.forbidden('This inspection is assigned to another mechanic or depot.');
+    // not a matter of role: the client says the depot (or the other mechanic) is the reason
+    if (!ok) throw new AppError(403, 'other_depot', insp.assignee_id !== null ? 'This inspection is assigned to another mechanic.' : 'This inspection belongs to another depot.');
   }
 
   async function cornersOf(vehicleIds: number[]) {

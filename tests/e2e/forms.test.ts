@@ -115,4 +115,21 @@ describe('forms that speak plainly', () => {
     expect(await save.isDisabled()).toBe(false);
     await context.close();
   });
+
+  it('when a mechanic opens another depot’s inspection, then the page says the depot is the reason, not their role', async () => {
+    const [insp] = await server.db.sequelize.query<{ id: number }>(
+      `SELECT i.id FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN users u ON u.depot_id = v.depot_id
+       WHERE u.email = ? AND i.assignee_id IS NULL AND i.status IN ('scheduled', 'due', 'overdue') ORDER BY i.id LIMIT 1`,
+      { replacements: [DEMO.mechanic], type: QueryTypes.SELECT },
+    );
+    expect(insp).toBeDefined();
+    const context = await newContext(browser, 'tablet');
+    const page = await context.newPage();
+    await signIn(page, server.url, 'mechanic.millbrook@reboundry.test');
+    await page.goto(`${server.url}/inspections/${insp.id}`);
+    await page.getByText('This inspection belongs to another depot.', { exact: false }).waitFor();
+    expect(await page.getByText('Not available for your role').count()).toBe(0);
+    await context.close();
+  });
 });
+
