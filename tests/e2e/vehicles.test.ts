@@ -144,7 +144,7 @@ describe('vehicles table', () => {
     expect(frontLeft).toMatch(/Fitted/);
     expect(frontLeft).toMatch(/\d\skm/);
     // the wear caution is there (the wear and workshop panels carry their own too)
-    const cautions = page.getByRole('complementary', { name: 'Caution' });
+    const cautions = page.getByRole('note', { name: 'Caution' });
     await cautions.first().waitFor();
     expect((await cautions.allInnerTexts()).join(' ')).toMatch(/qualified mechanic/i);
 

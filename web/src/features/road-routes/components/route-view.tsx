@@ -101,7 +101,7 @@ function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDeta
         )}
       </Section>
       <Section title="Trips on this route" actions={tripsPath ? <Link className="link text-sm" to={tripsPath}>All {formatNumber(d.trips.count)} trips</Link> : undefined}>
-        <div className="overflow-x-auto">
+        <div className="overflow-x-auto" role="group" aria-label="Recent trips on this route" tabIndex={0}>
         <table className="w-full text-sm [&_td]:pr-3 [&_th]:pr-3 [&_td:last-child]:pr-0 [&_th:last-child]:pr-0" aria-label="Recent trips on this route">
           <thead className="text-left text-slate">
             <tr>
