@@ -4,7 +4,7 @@ import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, newContext, type ViewportName } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
 import { axeViolations } from '../support/axe';
-import { DEMO, signIn } from './helpers';
+import { DEMO, goViaMenu, signIn } from './helpers';
 import { menuFor } from '../../web/src/app/navigation';
 import type { Role } from '../../web/src/lib/roles';
 
@@ -70,4 +70,16 @@ describe('accessibility of every page, for each role (axe-core)', () => {
       await context.close();
     }, 300_000);
   }
+
+  it('when a manager moves to another page through the menu, then focus lands on that page’s heading', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await page.getByRole('heading', { level: 1, name: 'Due inspections' }).waitFor();
+    await goViaMenu(page, 'Vehicles');
+    await page.getByRole('heading', { level: 1, name: 'Vehicles' }).waitFor();
+    await expect.poll(() => page.evaluate(() => (document.activeElement?.tagName ?? '') + ' ' + (document.activeElement?.textContent ?? ''))).toBe('H1 Vehicles');
+    await context.close();
+  });
 });
+
