@@ -131,5 +131,23 @@ describe('forms that speak plainly', () => {
     expect(await page.getByText('Not available for your role').count()).toBe(0);
     await context.close();
   });
+
+  it('when a driver sends a report without saying where and then taps the map, then the "say where it was" message goes away', async () => {
+    const context = await newContext(browser, 'phone');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.driver);
+    await page.goto(`${server.url}/report`);
+    const picker = page.getByTestId('place-picker');
+    await picker.locator('canvas').first().waitFor();
+    await page.getByRole('button', { name: 'Send report' }).click();
+    const message = page.getByText('Say where it was: use your position or tap the road on the map.');
+    await message.waitFor();
+    await page.getByText('Choose how bad it was.').waitFor();
+    await picker.click({ position: { x: 60, y: 60 } });
+    await expect.poll(() => message.count()).toBe(0);
+    // the severity message stays until a severity is chosen
+    expect(await page.getByText('Choose how bad it was.').count()).toBe(1);
+    await context.close();
+  });
 });
 
