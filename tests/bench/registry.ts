@@ -9,6 +9,7 @@ import { cLoopSection } from './sections/c-loop';
 import { closedFormSection } from './sections/closed-form';
 import { nightlySection } from './sections/nightly';
 import { serverSection } from './sections/server';
+import { clientSection } from './sections/client';
 
 /** One row of the printed table. */
 export interface BenchRow {
@@ -38,6 +39,8 @@ export interface BenchContext {
 
 /** A benchmark section. */
 export interface BenchSection {
+  /** Short key for `--only` (sections without one run only when no `--only` is given). */
+  key?: string;
   /** Short name shown as the table heading. */
   name: string;
   /** Run it. */
@@ -45,4 +48,4 @@ export interface BenchSection {
 }
 
 /** Sections in run order. */
-export const SECTIONS: BenchSection[] = [timeDomainSection, baselineOdexSection, cLoopSection, closedFormSection, nightlySection, serverSection];
+export const SECTIONS: BenchSection[] = [timeDomainSection, baselineOdexSection, cLoopSection, closedFormSection, nightlySection, serverSection, clientSection];

@@ -1,7 +1,8 @@
 /**
  * Benchmark of the physics engine. `npm run bench` prints a table; `npm run bench -- --json`
  * prints one JSON object with the metrics (timeDomainStepsPerSec, baselineStepsPerSec,
- * closedFormEvalsPerSec, cLoopStepsPerSec, …).
+ * closedFormEvalsPerSec, cLoopStepsPerSec, …). `npm run bench -- --only client` runs only the sections
+ * whose key (see `SECTIONS` in registry.ts) is listed, comma-separated.
  */
 import os from 'node:os';
 import { SECTIONS, type BenchContext, type BenchRow } from './registry';
@@ -17,9 +18,11 @@ const fmt = (r: BenchRow): string => {
 
 async function main(): Promise<void> {
   const json = process.argv.includes('--json');
+  const onlyAt = process.argv.indexOf('--only');
+  const only = onlyAt > 0 ? new Set((process.argv[onlyAt + 1] ?? '').split(',')) : null;
   const ctx: BenchContext = { metrics: {} };
   const tables: { name: string; rows: BenchRow[] }[] = [];
-  for (const s of SECTIONS) {
+  for (const s of SECTIONS.filter((x) => !only || (x.key !== undefined && only.has(x.key)))) {
     const res = await s.run(ctx);
     Object.assign(ctx.metrics, res.metrics);
     tables.push({ name: s.name, rows: res.rows });
@@ -29,7 +32,7 @@ async function main(): Promise<void> {
     process.stdout.write(`${JSON.stringify({ ...ctx.metrics, env })}\n`);
     return;
   }
-  const lines: string[] = [`Reboundry physics benchmark — node ${env.node}, ${env.cpu} (${env.cores} cores)`, ''];
+  const lines: string[] = [`Reboundry benchmark — node ${env.node}, ${env.cpu} (${env.cores} cores)`, ''];
   for (const t of tables) {
     lines.push(t.name);
     for (const r of t.rows) lines.push(`  ${r.label.padEnd(44)} ${fmt(r).padStart(20)}   ${r.note ?? ''}`);

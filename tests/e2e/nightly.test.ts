@@ -55,7 +55,7 @@ describe('nightly damper-duty run in the browser', () => {
     // map mode: where the vehicles due are based
     await page.getByRole('button', { name: 'Map' }).click();
     await page.getByRole('region', { name: /Map of depots/ }).waitFor();
-    await page.getByText(/Brackenford North Yard: \d+ open/).waitFor();
+    await page.getByText(/Brackenford North Yard: \d+ vehicles? \(/).waitFor();
     await page.waitForTimeout(500);
     await page.screenshot({ path: screenshotPath('manager-desktop-due-map'), fullPage: true });
     await page.getByRole('button', { name: 'List' }).click();

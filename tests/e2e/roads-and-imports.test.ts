@@ -6,6 +6,7 @@ import { ApiClient } from '../support/client';
 import { DEMO, expectHeading, signIn, goViaMenu } from './helpers';
 import { synthesizeProfile } from '../../server/physics/iso8608';
 import { formatProfileCsv } from '../../server/roads/profile-store';
+import { roughnessColours } from '../../web/src/lib/roughness';
 
 let server: TestServer;
 let browser: Browser;
@@ -39,7 +40,7 @@ async function pixelsOf(page: Page, container: string, hex: string): Promise<num
   );
 }
 
-const CLASS_F = '#4A546E';
+const CLASS_F = roughnessColours.F;
 
 describe('roads, surveys and imports in the browser', () => {
   it('when a manager uploads a rough survey for a smooth route, then its segments turn to the rough class colour on the map', async () => {
@@ -118,7 +119,7 @@ describe('roads, surveys and imports in the browser', () => {
     await damping.fill('4800');
     await page.waitForFunction((b) => document.querySelector('[data-testid=body-zeta]')?.textContent !== b, before);
     const after = await zeta.innerText();
-    expect(Number(after)).toBeGreaterThan(Number(before));
+    expect(parseFloat(after)).toBeGreaterThan(parseFloat(before));
     await page.screenshot({ path: screenshotPath('manager-desktop-spec-editor'), fullPage: true });
     await page.getByRole('button', { name: 'Save changes' }).click();
     await page.getByText('Saved.').waitFor();

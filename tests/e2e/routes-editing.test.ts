@@ -74,6 +74,8 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     const id = Number(new URL(page.url()).pathname.split('/').pop());
     const saved = (await (await page.request.get(`${server.url}/api/routes/${id}`)).json()) as RouteDetailBody;
     expect(saved.segments).toHaveLength(previewSegments);
+    // a new route has no roughness yet: the IRI chart says so instead of showing bare axes
+    await page.getByRole('figure', { name: 'IRI along the route' }).getByText(/^No survey yet/).waitFor();
     await context.close();
   });
 

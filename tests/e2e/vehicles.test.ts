@@ -144,7 +144,7 @@ describe('vehicles table', () => {
     expect(frontLeft).toMatch(/Fitted/);
     expect(frontLeft).toMatch(/\d\skm/);
     // the wear caution is there (the wear and workshop panels carry their own too)
-    const cautions = page.getByRole('complementary', { name: 'Caution' });
+    const cautions = page.getByRole('note', { name: 'Caution' });
     await cautions.first().waitFor();
     expect((await cautions.allInnerTexts()).join(' ')).toMatch(/qualified mechanic/i);
 
@@ -163,12 +163,18 @@ describe('vehicles table', () => {
     await context.close();
   });
 
-  it('when a vehicle address does not exist, then the page says it could not be found', async () => {
+  it('when a vehicle address does not exist, then the page says it could not be found, having asked the server once', async () => {
     const context = await newContext(browser, 'desktop');
     const page = await context.newPage();
     await signIn(page, server.url, DEMO.manager);
+    const asked: string[] = [];
+    page.on('request', (r) => {
+      if (new URL(r.url()).pathname === '/api/vehicles/99999') asked.push(r.url());
+    });
     await page.goto(`${server.url}/vehicles/99999`);
     await page.getByText('Could not find this vehicle').waitFor();
+    await page.waitForLoadState('networkidle');
+    expect(asked).toHaveLength(1);
     await context.close();
   });
 });

@@ -84,6 +84,10 @@ describe('workshop', () => {
     await mec.getByLabel('Adhesion FR [%]').fill('41');
     await mec.getByLabel('Adhesion RL [%]').fill('30');
     await mec.getByLabel('Adhesion RR [%]').fill('32');
+    // corners the wear model flags have no verdict until the mechanic chooses one
+    for (const pos of ['FR', 'RL', 'RR']) {
+      if ((await mec.getByLabel(`Verdict ${pos}`).inputValue()) === '') await mec.getByLabel(`Verdict ${pos}`).selectOption('monitor');
+    }
     await mec.getByLabel('Verdict FL').selectOption('replace');
     await mec.getByRole('group', { name: 'Corner FL' }).first().getByLabel(/Oil on the damper body/).check();
     await expect(mec.getByText(/large: over 15 points/).count()).resolves.toBeGreaterThan(0);

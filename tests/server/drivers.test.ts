@@ -90,6 +90,8 @@ describe('snapping to the nearest segment', () => {
     expect(r.status).toBe(422);
     expect(r.body.error.code).toBe('too_far');
     expect(r.body.error.fields.position).toMatch(/at most 150 m/);
+    // thousands of kilometres away: said in km, not in metres
+    expect(r.body.error.fields.position).toMatch(/^is [\d,]+ km from the nearest route/);
   });
 });
 

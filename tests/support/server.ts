@@ -32,13 +32,13 @@ export const TEST_NOW = new Date('2026-11-30T12:00:00Z');
  * Boots the real app on port 0 against a fresh SQLite file in a temp folder (with the demo
  * fleet unless `seed: false`), serving the built client from dist/web when present.
  */
-export async function startTestServer(opts: { seed?: boolean; auth?: AppDeps['auth']; env?: Record<string, string> } = {}): Promise<TestServer> {
+export async function startTestServer(opts: { seed?: boolean; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string } = {}): Promise<TestServer> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-test-'));
   const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, SEED_DEMO: opts.seed === false ? 'false' : 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...opts.env });
   const log = createLogger(config.logLevel);
   const db = await prepareDatabase(config, log, TEST_NOW);
   const { mailer } = await createMailer(config, log);
-  const built = createApp({ config, db, log, now: () => TEST_NOW, auth: opts.auth, webDir: defaultWebDir, mailer });
+  const built = createApp({ config, db, log, now: () => TEST_NOW, auth: opts.auth, webDir: opts.webDir ?? defaultWebDir, mailer });
   const server = await new Promise<import('node:http').Server>((resolve) => {
     const s = built.app.listen(0, '127.0.0.1', () => resolve(s));
   });

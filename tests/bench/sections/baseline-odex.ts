@@ -23,6 +23,7 @@ const BASELINE_SAMPLES = 2001;
 const TOL = 1e-10;
 
 export const baselineOdexSection: BenchSection = {
+  key: 'baseline-odex',
   name: 'baseline: adaptive ODE solver (odex)',
   run(ctx) {
     const z = benchProfile().subarray(0, BASELINE_SAMPLES);

@@ -61,6 +61,7 @@ function findCompiler(): string | null {
 }
 
 export const cLoopSection: BenchSection = {
+  key: 'c-loop',
   name: 'reference: same recurrence in C (-O2)',
   run(ctx): BenchResult {
     const cc = findCompiler();

@@ -4,6 +4,7 @@ import type { BenchSection } from '../registry';
 import { BENCH_CORNER, BENCH_SPEED_MPS, bestTime } from '../workload';
 
 export const closedFormSection: BenchSection = {
+  key: 'closed-form',
   name: 'closed-form duty (cached Lyapunov solve)',
   run() {
     const solves = 200;

@@ -14,6 +14,7 @@ import { generateFleet } from '../nightly/generate-fleet';
 const here = import.meta.dirname;
 
 export const nightlySection: BenchSection = {
+  key: 'nightly',
   name: 'Nightly job: 10 000 vehicles, 30 000 trips × 25 segments (whole run, DB writes and mail included)',
   async run() {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-bench-nightly-'));

@@ -4,6 +4,7 @@ import type { BenchSection } from '../registry';
 import { BENCH_CORNER, BENCH_DX_M, BENCH_SPEED_MPS, benchProfile, bestTime } from '../workload';
 
 export const timeDomainSection: BenchSection = {
+  key: 'time-domain',
   name: 'time-domain engine (exact ZOH, Float64Array)',
   run() {
     const z = benchProfile();

@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useState } from 'react';
+import { useCallback, useEffect, useRef, useState } from 'react';
 import { Link, NavLink, Outlet, useLocation, useNavigate, useNavigation } from 'react-router';
 import { BrandMark } from '@/components/ui/brand-mark';
 import { Button } from '@/components/ui/button';
@@ -27,6 +27,7 @@ export function AppShell() {
 
   // A new page closes any open group (also when it was reached some other way than the menu).
   useEffect(() => setOpenGroup(null), [pathname]);
+  useFocusHeadingOnNavigation(pathname);
 
   if (!user) return null;
   const menu = menuFor(user.role);
@@ -159,3 +160,38 @@ function TopLink({ page }: { page: PageAccess }) {
     </NavLink>
   );
 }
+
+/**
+ * After moving to another page inside the app, keyboard and screen-reader focus goes to the new
+ * page's first heading, as it would on a full page load (where it starts at the top). The page
+ * may still be loading, so this waits a moment for its heading to appear. Not on the first load.
+ */
+function useFocusHeadingOnNavigation(pathname: string) {
+  const first = useRef(true);
+  useEffect(() => {
+    if (first.current) {
+      first.current = false;
+      return;
+    }
+    const main = document.getElementById('main');
+    if (!main) return;
+    const focus = () => {
+      const h1 = main.querySelector('h1');
+      if (!h1) return false;
+      if (!h1.hasAttribute('tabindex')) h1.setAttribute('tabindex', '-1');
+      h1.focus({ preventScroll: false });
+      return true;
+    };
+    if (focus()) return;
+    const observer = new MutationObserver(() => {
+      if (focus()) observer.disconnect();
+    });
+    observer.observe(main, { childList: true, subtree: true });
+    const stop = setTimeout(() => observer.disconnect(), 5000);
+    return () => {
+      observer.disconnect();
+      clearTimeout(stop);
+    };
+  }, [pathname]);
+}
+

@@ -1,4 +1,4 @@
-import type { z } from 'zod';
+import type { $ZodError } from 'zod/v4/core';
 import { isApiError } from './api-client';
 
 /**
@@ -7,13 +7,13 @@ import { isApiError } from './api-client';
  */
 export type FieldErrors = Record<string, string>;
 
-function sentence(label: string | undefined, message: string): string {
+export function sentence(label: string | undefined, message: string): string {
   const text = /^[A-Z]/.test(message) || !label ? message : `${label} ${message}`;
   const capital = text.charAt(0).toUpperCase() + text.slice(1);
   return /[.!?]$/.test(capital) ? capital : `${capital}.`;
 }
 
-export function zodFieldErrors(error: z.ZodError, labels: Record<string, string>): FieldErrors {
+export function zodFieldErrors(error: $ZodError, labels: Record<string, string>): FieldErrors {
   const out: FieldErrors = {};
   for (const issue of error.issues) {
     const key = String(issue.path[0] ?? '_');
@@ -28,6 +28,22 @@ export function serverFieldErrors(error: unknown, labels: Record<string, string>
   for (const [key, message] of Object.entries(error.fields)) {
     const top = key.split('.')[0];
     if (!out[top]) out[top] = sentence(labels[top], message);
+  }
+  return out;
+}
+
+/**
+ * Server field errors keyed by their whole path ("corners.0.adhesionPct"), each as one sentence
+ * that starts with the field's label ("Adhesion FL must be 0–100 %."). `labelOf` names the field
+ * a path belongs to; paths it does not know keep the server's words under the form's own key `_`.
+ */
+export function serverPathErrors(error: unknown, labelOf: (path: string) => string | undefined): FieldErrors {
+  if (!isApiError(error)) return {};
+  const out: FieldErrors = {};
+  for (const [path, message] of Object.entries(error.fields)) {
+    const label = labelOf(path);
+    const key = label ? path : '_';
+    if (!out[key]) out[key] = sentence(label, message);
   }
   return out;
 }

@@ -36,6 +36,16 @@ export function formatQuantity(value: Num, unit: string, digits = 0): string {
   return isNum(value) ? `${formatNumber(value, digits)}${NBSP}${unit}` : NO_VALUE;
 }
 
+/**
+ * A distance given in metres, in the unit a person reads it in: `37` → `37 m`, `1520` → `1.5 km`,
+ * `159403` → `159 km`.
+ */
+export function formatDistance(metres: Num): string {
+  if (!isNum(metres)) return NO_VALUE;
+  if (Math.abs(metres) < 1000) return formatQuantity(metres, 'm');
+  return formatQuantity(metres / 1000, 'km', Math.abs(metres) < 10_000 ? 1 : 0);
+}
+
 /** A fraction shown as a percentage: `0.423` → `42 %`. */
 export function formatPercent(fraction: Num, digits = 0): string {
   return isNum(fraction) ? `${formatNumber(fraction * 100, digits)}${NBSP}%` : NO_VALUE;

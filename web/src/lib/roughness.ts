@@ -1,21 +1,35 @@
 /**
- * ISO 8608 road roughness classes and their colours: one sequential, colour-vision-safe scale
- * (cividis, Nuñez, Anderton & Renslow 2018, PLoS ONE 13(7) e0199239), light for smooth roads (A)
- * to dark for very rough ones (H). Every chart or map that uses it shows the legend.
+ * ISO 8608 road roughness classes and their colours: one sequential, perceptually uniform,
+ * colour-vision-safe scale (viridis, van der Walt & Smith for matplotlib 2015), from blue-green for
+ * smooth roads (A) to deep violet for very rough ones (H). Only the darker part of the scale is
+ * used (t = 0.52 for A down to 0 for H, in equal steps) so that every class stands out at least
+ * 3:1 against the light base map (WCAG 2.1 non-text contrast); the light yellow end would vanish
+ * on it. A segment without a known class is drawn dashed in a warm grey, a hue the scale does not
+ * use. Every chart or map that uses the scale shows the legend. Method: docs/methods.md,
+ * "Roughness colours".
  */
 export const ROUGHNESS_CLASSES = ['A', 'B', 'C', 'D', 'E', 'F', 'G', 'H'] as const;
 export type RoughnessClass = (typeof ROUGHNESS_CLASSES)[number];
 
 export const roughnessColours: Record<RoughnessClass, string> = {
-  A: '#FEE838',
-  B: '#D7C659',
-  C: '#B2A66D',
-  D: '#8D8976',
-  E: '#6D6E71',
-  F: '#4A546E',
-  G: '#263B63',
-  H: '#00224E',
+  A: '#1F958B',
+  B: '#25838E',
+  C: '#2C718E',
+  D: '#355F8D',
+  E: '#3E4A89',
+  F: '#463480',
+  G: '#481C6E',
+  H: '#440154',
 };
+
+/** Where the class is not known (no survey, no stated value, no accepted report): drawn dashed. */
+export const UNKNOWN_ROUGHNESS_COLOUR = '#7D7064';
+
+/** The offline base map's paper colour (server/tiles/tiles.ts draws it); lines must stand out on it. */
+export const BASE_MAP_PAPER = '#F3F0E8';
+
+/** The outline drawn under every road line, so a line reads against the base and its neighbours. */
+export const ROAD_OUTLINE_COLOUR = '#FFFFFF';
 
 /** Plain words for each class, as fleet people would say them. */
 export const roughnessWords: Record<RoughnessClass, string> = {

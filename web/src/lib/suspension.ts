@@ -25,6 +25,16 @@ export interface SpecAxle {
   corner: CornerParams;
   /** Rated damper life on this axle [km]. */
   ratedDamperLifeKm: number;
+  /** The corner's modes from the server's two-mass model (the spec editor shows the same). */
+  modes?: CornerModes;
+}
+
+/** Natural frequencies [Hz] and damping ratios [1] of the two-mass corner's two modes. */
+export interface CornerModes {
+  bodyHz: number;
+  bodyDampingRatio: number;
+  wheelHz: number;
+  wheelDampingRatio: number;
 }
 
 export interface SuspensionSpec {

@@ -1,6 +1,6 @@
-import { useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
+import { useQuery } from '@tanstack/react-query';
 import { ButtonLink } from '@/components/ui/button';
-import { BaseLayer } from '@/components/map/base-layer';
 import { ErrorState } from '@/components/ui/error-state';
 import { FigureCard } from '@/components/ui/figure-card';
 import { LoadingState } from '@/components/ui/loading-state';
@@ -11,9 +11,12 @@ import { StatusShape } from '@/components/ui/status-badge';
 import { useDepots } from '@/features/depots/api/get-depots';
 import { useDueInspections, type DueSort } from '@/features/inspections/api/get-due-inspections';
 import { DueInspectionsList } from '@/features/inspections/components/due-inspections';
-import { DueMap } from '@/features/inspections/components/due-map';
+import { mapDataQueryOptions } from '@/features/map/api/get-map-data';
 import { formatNumber } from '@/lib/format';
 import { pages, vehiclePath } from '../navigation';
+
+// The map (leaflet) loads when the map view is chosen, not with the manager's start page.
+const DueMap = lazy(() => import('@/features/inspections/components/due-map').then((m) => ({ default: m.DueMap })));
 
 /** The fleet manager's home: inspections overdue, due, and coming in the next 30 and 90 days. */
 export function DuePage() {
@@ -23,6 +26,7 @@ export function DuePage() {
   const due = useDueInspections(depotId, sort);
   const depots = useDepots();
   const c = due.data?.counts;
+  const roads = useQuery({ ...mapDataQueryOptions(), enabled: mode === 'map' });
 
   return (
     <>
@@ -80,7 +84,9 @@ export function DuePage() {
       ) : due.error ? (
         <ErrorState error={due.error} what="the due inspections" onRetry={() => void due.refetch()} />
       ) : mode === 'map' ? (
-        <DueMap items={due.data.items} baseLayer={<BaseLayer />} vehiclePath={vehiclePath} />
+        <Suspense fallback={<LoadingState label="Loading the map…" />}>
+          <DueMap items={due.data.items} roads={roads.data} vehiclePath={vehiclePath} />
+        </Suspense>
       ) : (
         <DueInspectionsList data={due.data} vehiclePath={vehiclePath} />
       )}

@@ -1,8 +1,7 @@
-import { useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
 import { Link } from 'react-router';
 import { Button } from '@/components/ui/button';
 import { type Depot, useDepots } from '@/features/depots/api/get-depots';
-import { DepotFormDialog } from '@/features/depots/components/depot-form';
 import { ButtonLink } from '@/components/ui/button';
 import { ErrorState } from '@/components/ui/error-state';
 import { FigureCard } from '@/components/ui/figure-card';
@@ -17,6 +16,9 @@ import { useVehicleCounts } from '@/features/vehicles/hooks/use-vehicle-counts';
 import { useDueInspections } from '@/features/inspections/api/get-due-inspections';
 import { formatNumber } from '@/lib/format';
 import { pages } from '../navigation';
+
+// The depot form carries a map (leaflet): loaded when it is opened, not with the overview.
+const DepotFormDialog = lazy(() => import('@/features/depots/components/depot-form').then((m) => ({ default: m.DepotFormDialog })));
 
 const statusNotes = {
   in_service: 'On the road and counted in the nightly wear run.',
@@ -114,7 +116,11 @@ export function FleetPage() {
           <DepotsTable depots={depots.data.items} vehiclesPath={(id) => `${pages.vehicles.path}?depotId=${id}`} onEdit={(depot) => setDepotForm({ open: true, depot })} />
         )}
       </Section>
-      <DepotFormDialog open={depotForm.open} depot={depotForm.depot} near={near} others={list} onClose={() => setDepotForm({ open: false })} />
+      {depotForm.open ? (
+        <Suspense fallback={null}>
+          <DepotFormDialog open depot={depotForm.depot} near={near} others={list} onClose={() => setDepotForm({ open: false })} />
+        </Suspense>
+      ) : null}
     </>
   );
 }

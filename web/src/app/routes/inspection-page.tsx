@@ -2,7 +2,7 @@ import { useNavigate, useParams } from 'react-router';
 import { ErrorState } from '@/components/ui/error-state';
 import { LoadingState } from '@/components/ui/loading-state';
 import { PageHeader } from '@/components/ui/page-header';
-import { StatusBadge } from '@/components/ui/status-badge';
+import { InspectionStatusBadge } from '@/components/ui/inspection-status-badge';
 import { useInspection } from '@/features/workshop/api/get-inspection';
 import { useWorkshopOptions } from '@/features/workshop/api/get-workshop-options';
 import { InspectionRecord } from '@/features/workshop/components/inspection-record';
@@ -31,7 +31,7 @@ export function InspectionPage() {
         back={back}
         eyebrow={`Inspection #${i.id}`}
         title={`${i.vehicle.fleetNumber} · ${i.vehicle.plate}`}
-        badges={<StatusBadge tone={i.status === 'overdue' ? 'overdue' : i.status === 'due' ? 'due' : i.status === 'done' ? 'ok' : 'neutral'}>{i.status} · due {formatDate(i.dueDate)}</StatusBadge>}
+        badges={<InspectionStatusBadge status={i.status}> · due {formatDate(i.dueDate)}</InspectionStatusBadge>}
         description={`${i.reason} Odometer on file ${formatNumber(i.vehicle.odometerKm)} km.`}
       />
       <InspectionRecord inspection={i} options={options.data} today={isoDate(new Date())} onWorkSaved={(w) => void navigate(workRecordPath(w))} />

@@ -1,4 +1,5 @@
 import 'leaflet/dist/leaflet.css';
+import './map.css';
 import { useQuery } from '@tanstack/react-query';
 import { TileLayer } from 'react-leaflet';
 import { api } from '@/lib/api-client';

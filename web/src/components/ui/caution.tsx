@@ -7,7 +7,9 @@ import { cx } from '@/lib/class-names';
  */
 export function Caution({ title = 'Caution', children, className }: { title?: string; children: ReactNode; className?: string }) {
   return (
-    <aside
+    // a note, not a landmark: a page may carry several, and landmarks must each have their own name
+    <div
+      role="note"
       aria-label={title}
       className={cx('flex gap-3 rounded-md border border-watch/45 border-l-4 border-l-watch bg-watch-tint/70 px-3.5 py-2.5 text-sm', className)}
     >
@@ -20,6 +22,6 @@ export function Caution({ title = 'Caution', children, className }: { title?: st
         <span className="font-semibold">{title}. </span>
         {children}
       </div>
-    </aside>
+    </div>
   );
 }

@@ -203,7 +203,7 @@ export function DataTable<T>(props: DataTableProps<T>) {
             ) : null}
           </div>
 
-          <div className="relative overflow-x-auto rounded-md border border-line bg-surface">
+          <div role="group" aria-label={label} tabIndex={0} className="relative overflow-x-auto rounded-md border border-line bg-surface">
             {isFetching && rows ? (
               <div aria-hidden="true" className="absolute inset-x-0 top-0 h-0.5 animate-pulse bg-accent" />
             ) : null}

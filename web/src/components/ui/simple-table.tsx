@@ -34,7 +34,8 @@ export function SimpleTable<T>({
   className?: string;
 }) {
   return (
-    <div className={cx('overflow-x-auto rounded-md border border-line bg-surface', className)}>
+    // focusable, so a keyboard can scroll a table wider than the screen
+    <div role="group" aria-label={label} tabIndex={0} className={cx('overflow-x-auto rounded-md border border-line bg-surface', className)}>
       <table className="w-full border-collapse text-sm">
         <caption className="sr-only">{label}</caption>
         <thead>

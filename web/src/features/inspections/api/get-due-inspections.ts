@@ -24,6 +24,8 @@ export interface DueInspection {
   daysLeft: number;
   maxLifeUsed: number | null;
   firstThresholdDate: string | null;
+  /** Routes the vehicle drove in the 90 days before today. */
+  routeIds: number[];
 }
 
 /** Order of the due list: by due date, or most-worn damper first. */

@@ -3,12 +3,13 @@ import { Caution } from '@/components/ui/caution';
 import { EmptyState } from '@/components/ui/empty-state';
 import { Section } from '@/components/ui/section';
 import { SimpleTable, type SimpleColumn } from '@/components/ui/simple-table';
-import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
+import { InspectionStatusBadge } from '@/components/ui/inspection-status-badge';
+import { inspectionStatusTones, inspectionStatusWords } from '@/lib/inspection-status';
 import { formatDate, formatPercent } from '@/lib/format';
 import type { DueInspection, DueInspections } from '../api/get-due-inspections';
 
-export const inspectionTones: Record<string, StatusTone> = { overdue: 'overdue', due: 'due', scheduled: 'watch' };
-export const inspectionLabels: Record<string, string> = { overdue: 'Overdue', due: 'Due', scheduled: 'Scheduled' };
+export const inspectionTones: Record<string, (typeof inspectionStatusTones)[keyof typeof inspectionStatusTones]> = inspectionStatusTones;
+export const inspectionLabels: Record<string, string> = inspectionStatusWords;
 const ruleLabels: Record<string, string> = { prediction: 'Predicted wear', interval_km: 'Interval (km)', interval_months: 'Interval (months)', manual: 'Entered by hand', follow_up: 'Follow-up' };
 
 function daysText(d: number) {
@@ -29,9 +30,9 @@ const columns = (vehiclePath: (id: number) => string): SimpleColumn<DueInspectio
       </Link>
     ),
   },
-  { key: 'status', header: 'Status', cell: (r) => <StatusBadge tone={inspectionTones[r.status] ?? 'neutral'}>{inspectionLabels[r.status] ?? r.status}</StatusBadge> },
+  { key: 'status', header: 'Status', cell: (r) => <InspectionStatusBadge status={r.status} /> },
   { key: 'due', header: 'Due', cell: (r) => <span className="whitespace-nowrap">{formatDate(r.dueDate)}</span> },
-  { key: 'days', header: 'Days left', unit: 'days', numeric: true, cell: (r) => daysText(r.daysLeft) },
+  { key: 'days', header: 'Due in', unit: 'days', numeric: true, cell: (r) => daysText(r.daysLeft) },
   { key: 'life', header: 'Most-worn damper', unit: '% of life', numeric: true, cell: (r) => formatPercent(r.maxLifeUsed) },
   { key: 'depot', header: 'Depot', cell: (r) => <span className="whitespace-nowrap">{r.depotName}</span> },
   {

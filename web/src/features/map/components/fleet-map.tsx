@@ -12,7 +12,8 @@ import { formatDate, formatNumber } from '@/lib/format';
 import { useMapConfig } from '../api/get-map-config';
 import { useMapData, type MapData } from '../api/get-map-data';
 import { useSegment } from '../api/get-segment';
-import { SegmentLayer } from '@/components/map/segment-layer';
+import { SegmentLayer, useSharedCanvas } from '@/components/map/segment-layer';
+import { RouteNames, routeLabels, ScaleBar } from '@/components/map/map-context';
 
 export const SOURCE_WORDS: Record<string, string> = { survey: 'Profile survey (measured)', stated: 'Stated / set by hand', driver_report: 'Estimated from drivers’ reports' };
 
@@ -48,6 +49,8 @@ export function FleetMap({ initialSegment, routePath, reportLayer, segmentExtra 
   const [show, setShow] = useState({ segments: true, depots: true, reports: true });
   const onSelect = useCallback((id: number) => setSelected(id), []);
   const segments = useMemo(() => data.data?.segments, [data.data]);
+  const labels = useMemo(() => (data.data ? routeLabels(data.data.routes, data.data.segments) : []), [data.data]);
+  const canvas = useSharedCanvas();
 
   if (config.isPending || data.isPending) return <LoadingState label="Loading the map…" />;
   if (config.error || data.error) return <ErrorState error={config.error ?? data.error} what="the map" onRetry={() => void data.refetch()} />;
@@ -56,15 +59,17 @@ export function FleetMap({ initialSegment, routePath, reportLayer, segmentExtra 
     <div className="grid gap-4 lg:grid-cols-[1fr_20rem]">
       <div className="min-w-0">
         <div className="h-[34rem] overflow-hidden rounded-md border border-line" data-testid="fleet-map">
-          <MapContainer preferCanvas center={[52.56, -1.4]} zoom={10} className="h-full w-full" attributionControl>
+          <MapContainer renderer={canvas} center={[52.56, -1.4]} zoom={10} className="h-full w-full" attributionControl>
             <TileLayer url={config.data.tileUrl} attribution={config.data.attribution} />
+            <ScaleBar />
+            {show.segments ? <RouteNames labels={labels} /> : null}
             <FitFleet data={data.data} />
             <FocusSegment data={data.data} id={initialSegment} />
             {show.segments && segments ? <SegmentLayer data={segments} onSelect={onSelect} selectedId={selected} /> : null}
             {show.depots
               ? data.data.depots.map((d) => (
-                  <CircleMarker key={d.id} center={[d.lat, d.lon]} radius={8} pathOptions={{ color: '#1f2a36', weight: 2, fillColor: '#ffffff', fillOpacity: 1 }}>
-                    <Tooltip direction="top" offset={[0, -6]} permanent>
+                  <CircleMarker key={d.id} center={[d.lat, d.lon]} radius={8} pathOptions={{ color: '#1E2A32', weight: 3, fillColor: '#FFFFFF', fillOpacity: 1 }}>
+                    <Tooltip direction="right" offset={[10, 0]} permanent className="map-depot-label">
                       Depot: {d.name}
                     </Tooltip>
                   </CircleMarker>
@@ -94,7 +99,7 @@ export function FleetMap({ initialSegment, routePath, reportLayer, segmentExtra 
         </fieldset>
         <SegmentPanel id={selected} routePath={routePath} />
         {selected !== null && segmentExtra ? segmentExtra(selected) : null}
-        {config.data.offline ? <p className="text-xs text-slate">Base layer: plain offline grid drawn by Reboundry. Set MAP_TILE_URL to use a street map.</p> : null}
+        {config.data.offline ? <p className="text-xs text-slate">Base layer: a plain offline grid with our depots and route names. Set MAP_TILE_URL to use a street map.</p> : null}
       </aside>
     </div>
   );

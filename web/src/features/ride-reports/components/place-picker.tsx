@@ -3,7 +3,8 @@ import { useEffect } from 'react';
 import L from 'leaflet';
 import { CircleMarker, MapContainer, useMap, useMapEvents } from 'react-leaflet';
 import { BaseLayer } from '@/components/map/base-layer';
-import { SegmentLayer } from '@/components/map/segment-layer';
+import { SegmentLayer, useSharedCanvas } from '@/components/map/segment-layer';
+import { ScaleBar } from '@/components/map/map-context';
 import { LoadingState } from '@/components/ui/loading-state';
 import { useRoadLines } from '../api/get-road-lines';
 
@@ -31,12 +32,14 @@ function FollowPoint({ point, lines }: { point: { lat: number; lon: number } | n
 /** A small map of our roads: tap where the rough stretch is. Shows the reported and the snapped point. */
 export function PlacePicker({ point, snapped, onPick }: { point: { lat: number; lon: number } | null; snapped: { lat: number; lon: number } | null; onPick: (lat: number, lon: number) => void }) {
   const lines = useRoadLines();
+  const canvas = useSharedCanvas();
   if (lines.isPending) return <LoadingState label="Loading the road map…" />;
   if (!lines.data) return <p className="text-sm text-slate">The map could not be loaded. Use your position instead.</p>;
   return (
     <div className="h-64 overflow-hidden rounded-md border border-line" data-testid="place-picker">
-      <MapContainer preferCanvas center={[52.56, -1.4]} zoom={10} className="h-full w-full" attributionControl={false} scrollWheelZoom={false}>
+      <MapContainer renderer={canvas} center={[52.56, -1.4]} zoom={10} className="h-full w-full" attributionControl={false} scrollWheelZoom={false}>
         <BaseLayer />
+        <ScaleBar />
         <SegmentLayer data={lines.data.segments} weight={5} />
         <TapToPlace onPick={onPick} />
         <FollowPoint point={point} lines={lines.data.segments.coords} />

@@ -5,7 +5,7 @@ import { Field } from '@/components/ui/field';
 import { LoadingState } from '@/components/ui/loading-state';
 import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
-import { formatNumber } from '@/lib/format';
+import { formatDistance, formatNumber } from '@/lib/format';
 import { cx } from '@/lib/class-names';
 import { useRideScale } from '../api/get-ride-scale';
 import { useSnapPosition, type SnapResult } from '../api/snap-position';
@@ -82,7 +82,18 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
     snapMutate(draft.point, { onSuccess: (r) => setSnapped(r) });
   }, [draft.point, snapMutate]);
 
-  const update = (patch: Partial<Draft>) => setDraft((d) => ({ ...d, ...patch, reportedAt: d.reportedAt ?? new Date().toISOString() }));
+  const update = (patch: Partial<Draft>) => {
+    setDraft((d) => ({ ...d, ...patch, reportedAt: d.reportedAt ?? new Date().toISOString() }));
+    // a new place answers "say where it was"; a new severity answers its own error
+    if (patch.point || patch.severity != null) {
+      setFieldErrors((e) => {
+        const next = { ...e };
+        if (patch.point) delete next.position;
+        if (patch.severity != null) delete next.severity;
+        return next;
+      });
+    }
+  };
 
   function useMyPosition() {
     setGeoError(null);
@@ -197,8 +208,8 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
           {snapped ? (
             <p data-testid="snap-result" className="rounded-md border border-line bg-surface p-2 text-ink">
               <strong>{snapped.segment.routeName}</strong>, segment {snapped.segment.seq + 1} ({formatNumber(snapped.segment.startM / 1000, 1)}–{formatNumber(snapped.segment.endM / 1000, 1)} km). Placed on the road{' '}
-              {formatNumber(snapped.distanceM, 0)} m from {draft.positionSource === 'gps' ? 'your position' : 'where you tapped'}
-              {draft.accuracyM !== null ? ` (position good to about ${formatNumber(draft.accuracyM, 0)} m)` : ''}.
+              {formatDistance(snapped.distanceM)} from {draft.positionSource === 'gps' ? 'your position' : 'where you tapped'}
+              {draft.accuracyM !== null ? ` (position good to about ${formatDistance(draft.accuracyM)})` : ''}.
             </p>
           ) : null}
           {snapError ? <p className="text-overdue">{snapError}</p> : null}

@@ -192,7 +192,7 @@ export function ReviewBoard({ routePath, initialReportId }: { routePath: (id: nu
             </MapContainer>
           </div>
           <p className="mt-2 text-xs text-slate">Markers: one per segment; larger with more reports; solid outline when the worst is severe. Click one to open it.</p>
-          <RoughnessLegend className="mt-2" />
+          <RoughnessLegend className="mt-2" unknown={false} />
         </div>
       </div>
       {scale.data ? <Notice title="How an accepted report changes the road">{scale.data.estimateRule} A newer survey or hand-set class replaces it.</Notice> : null}

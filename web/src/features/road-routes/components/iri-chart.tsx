@@ -18,6 +18,17 @@ export function IriChart({ segments }: { segments: RouteSegment[] }) {
     measured: s.iri,
     equivalent: s.iri === null && s.gdN0 !== null ? K * Math.sqrt(s.gdN0) : null,
   }));
+  if (data.every((d) => d.measured === null && d.equivalent === null)) {
+    // bare axes would look like a smooth road: say that nothing is known yet
+    return (
+      <figure aria-label="IRI along the route" className="flex h-64 items-center justify-center rounded-md border border-dashed border-line-strong p-4">
+        <figcaption className="max-w-sm text-center text-sm text-slate">
+          No survey yet: this route’s roughness is not known. Upload a profile survey, set a class by hand, or accept drivers’ reports on it, and
+          its IRI will show here.
+        </figcaption>
+      </figure>
+    );
+  }
   const top = Math.max(8, ...data.map((d) => d.measured ?? d.equivalent ?? 0)) * 1.1;
   return (
     <figure aria-label="IRI along the route">

@@ -2,7 +2,8 @@ import { useMemo, useState } from 'react';
 import { Link } from 'react-router';
 import { MapContainer } from 'react-leaflet';
 import { BaseLayer } from '@/components/map/base-layer';
-import { SegmentLayer } from '@/components/map/segment-layer';
+import { SegmentLayer, useSharedCanvas } from '@/components/map/segment-layer';
+import { ScaleBar } from '@/components/map/map-context';
 import { Button } from '@/components/ui/button';
 import { ErrorState } from '@/components/ui/error-state';
 import { Facts } from '@/components/ui/facts';
@@ -30,6 +31,7 @@ export function RouteView({ routeId, canEdit, today, vehiclePath, tripsPath }: {
 function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDetail; canEdit: boolean; today: string; vehiclePath?: (id: number) => string; tripsPath?: string }) {
   const lines = useMemo(() => ({ id: d.segments.map((s) => s.id), isoClass: d.segments.map((s) => s.isoClass), coords: d.segments.map((s) => s.coords) }), [d.segments]);
   const surveyed = d.segments.filter((s) => s.roughnessSource === 'survey').length;
+  const canvas = useSharedCanvas();
   return (
     <div className="flex flex-col gap-6">
       <Facts
@@ -44,8 +46,9 @@ function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDeta
       <div className="grid gap-4 lg:grid-cols-[22rem_1fr]">
         <div>
           <div className="h-72 overflow-hidden rounded-md border border-line" data-testid="route-map">
-            <MapContainer preferCanvas center={[d.route.coordinates[0][1], d.route.coordinates[0][0]]} zoom={12} className="h-full w-full">
+            <MapContainer renderer={canvas} center={[d.route.coordinates[0][1], d.route.coordinates[0][0]]} zoom={12} className="h-full w-full">
               <BaseLayer />
+              <ScaleBar />
               <SegmentLayer data={lines} fit weight={5} />
             </MapContainer>
           </div>
@@ -98,7 +101,7 @@ function RouteBody({ d, canEdit, today, vehiclePath, tripsPath }: { d: RouteDeta
         )}
       </Section>
       <Section title="Trips on this route" actions={tripsPath ? <Link className="link text-sm" to={tripsPath}>All {formatNumber(d.trips.count)} trips</Link> : undefined}>
-        <div className="overflow-x-auto">
+        <div className="overflow-x-auto" role="group" aria-label="Recent trips on this route" tabIndex={0}>
         <table className="w-full text-sm [&_td]:pr-3 [&_th]:pr-3 [&_td:last-child]:pr-0 [&_th:last-child]:pr-0" aria-label="Recent trips on this route">
           <thead className="text-left text-slate">
             <tr>

@@ -70,7 +70,7 @@ export function RoutesTable() {
           <div role="search" aria-label="Filter routes" className="w-full max-w-sm">
             <SearchField label="Route name" value={params.q ?? ''} onChange={(q) => update({ q: q || undefined })} />
           </div>
-          <RoughnessLegend />
+          <RoughnessLegend unknown={false} />
         </div>
       }
       empty={

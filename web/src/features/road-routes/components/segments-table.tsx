@@ -148,7 +148,7 @@ export function SegmentsTable({
           )
         }
       />
-      <RoughnessLegend />
+      <RoughnessLegend unknown={false} />
       <p className="text-sm text-slate">“route” after a speed: the segment uses the route’s typical speed. Speeds feed the wear model; they are not driving advice.</p>
     </div>
   );

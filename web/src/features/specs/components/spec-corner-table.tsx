@@ -4,9 +4,11 @@ import { axleLabel, bodyBounceHz, dampingRatio, wheelHopHz, type SpecAxle } from
 
 /**
  * A spec's corner parameters per axle, with units, and the figures an engineer checks them by
- * (body bounce, wheel hop, damping ratio), marked as approximations.
+ * (body bounce, body damping ratio, wheel hop): the two-mass model's modes as the server sends
+ * them, the same the spec editor shows; one-mass approximations, marked ≈, only where it did not.
  */
 export function SpecCornerTable({ axles, label = 'Corner parameters per axle' }: { axles: SpecAxle[]; label?: string }) {
+  const exact = axles.every((a) => a.modes);
   return (
     <SimpleTable
       label={label}
@@ -20,11 +22,15 @@ export function SpecCornerTable({ axles, label = 'Corner parameters per axle' }:
         { key: 'cs', header: 'Damping', unit: 'N·s/m', numeric: true, cell: (a) => formatNumber(a.corner.dampingNsPerM) },
         { key: 'kt', header: 'Tyre rate', unit: 'kN/m', numeric: true, cell: (a) => formatNumber(a.corner.tireRateNPerM / 1000, 0) },
         { key: 'life', header: 'Rated life', unit: 'km', numeric: true, cell: (a) => formatNumber(a.ratedDamperLifeKm) },
-        { key: 'fb', header: 'Body bounce ≈', unit: 'Hz', numeric: true, cell: (a) => formatNumber(bodyBounceHz(a.corner), 2) },
-        { key: 'fw', header: 'Wheel hop ≈', unit: 'Hz', numeric: true, cell: (a) => formatNumber(wheelHopHz(a.corner), 1) },
-        { key: 'zeta', header: 'Damping ratio ≈', unit: '%', numeric: true, cell: (a) => formatNumber(dampingRatio(a.corner) * 100, 0) },
+        { key: 'fb', header: exact ? 'Body bounce' : 'Body bounce ≈', unit: 'Hz', numeric: true, cell: (a) => formatNumber(a.modes?.bodyHz ?? bodyBounceHz(a.corner), 2) },
+        { key: 'zeta', header: exact ? 'Body damping ratio' : 'Body damping ratio ≈', unit: '%', numeric: true, cell: (a) => formatNumber((a.modes?.bodyDampingRatio ?? dampingRatio(a.corner)) * 100, 0) },
+        { key: 'fw', header: exact ? 'Wheel hop' : 'Wheel hop ≈', unit: 'Hz', numeric: true, cell: (a) => formatNumber(a.modes?.wheelHz ?? wheelHopHz(a.corner), 1) },
       ]}
-      footer="Values per corner, at the wheel. Figures marked ≈ are one-mass approximations for a quick check; the wear model uses the full two-mass equations."
+      footer={
+        exact
+          ? 'Values per corner, at the wheel. Body bounce, body damping ratio and wheel hop are the modes of the two-mass model the wear model uses, as the spec editor shows them.'
+          : 'Values per corner, at the wheel. Figures marked ≈ are one-mass approximations for a quick check; the wear model uses the full two-mass equations.'
+      }
     />
   );
 }

@@ -4,23 +4,32 @@ import { Button } from '@/components/ui/button';
 import { Caution } from '@/components/ui/caution';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Section } from '@/components/ui/section';
+import { StatusShape } from '@/components/ui/status-badge';
 import { isApiError } from '@/lib/api-client';
+import { sentence, type FieldErrors } from '@/lib/form-errors';
 import { formatNumber } from '@/lib/format';
 import type { SuspensionSpec } from '@/lib/suspension';
 import { useSaveSpec, useSpecPresets, useSpecPreview, type AxleForm, type CornerPreview, type SpecPresets } from '../api/spec-editor-api';
 
-const FIELDS: { key: keyof Omit<AxleForm, 'label'>; label: string; unit: string; typicalKey?: string }[] = [
+/**
+ * The corner's figures as the form shows them: spring and tyre rates in kN/m, as the spec list
+ * shows them (`scale` converts to the N/m the server takes).
+ */
+const FIELDS: { key: keyof Omit<AxleForm, 'label'>; label: string; unit: string; scale?: number; typicalKey?: string }[] = [
   { key: 'sprungMassKg', label: 'Sprung mass per corner', unit: 'kg', typicalKey: 'sprungMassKg' },
   { key: 'unsprungMassKg', label: 'Unsprung mass per corner', unit: 'kg', typicalKey: 'unsprungMassKg' },
-  { key: 'springRateNPerM', label: 'Spring rate at the wheel', unit: 'N/m', typicalKey: 'springRateNPerM' },
+  { key: 'springRateNPerM', label: 'Spring rate at the wheel', unit: 'kN/m', scale: 1000, typicalKey: 'springRateNPerM' },
   { key: 'dampingNsPerM', label: 'Damping at the wheel', unit: 'N·s/m', typicalKey: 'dampingNsPerM' },
-  { key: 'tireRateNPerM', label: 'Tyre rate', unit: 'N/m', typicalKey: 'tireRateNPerM' },
+  { key: 'tireRateNPerM', label: 'Tyre rate', unit: 'kN/m', scale: 1000, typicalKey: 'tireRateNPerM' },
   { key: 'ratedDamperLifeKm', label: 'Rated damper life', unit: 'km' },
 ];
 
 type Draft = { name: string; vehicleClass: string; description: string; seatFactor?: string; cabFactor?: string; axles: Record<string, string>[] };
 
-const toDraftAxle = (a: AxleForm): Record<string, string> => Object.fromEntries(Object.entries(a).map(([k, v]) => [k, String(v)]));
+const toDraftAxle = (a: AxleForm): Record<string, string> => ({
+  label: a.label,
+  ...Object.fromEntries(FIELDS.map((f) => [f.key, String(Math.round((a[f.key] / (f.scale ?? 1)) * 1e6) / 1e6)])),
+});
 
 function fromSpec(s: SuspensionSpec): Draft {
   return {
@@ -33,15 +42,30 @@ function fromSpec(s: SuspensionSpec): Draft {
   };
 }
 
-function toAxles(d: Draft): AxleForm[] | null {
-  const out: AxleForm[] = [];
-  for (const a of d.axles) {
-    if (FIELDS.some((f) => (a[f.key] ?? '').trim() === '')) return null;
-    const nums = FIELDS.map((f) => Number(a[f.key]));
-    if (nums.some((n) => !Number.isFinite(n))) return null;
-    out.push({ label: a.label || 'axle', ...(Object.fromEntries(FIELDS.map((f, i) => [f.key, nums[i]])) as Omit<AxleForm, 'label'>) });
-  }
+const parseFigure = (raw: string | undefined) => Number((raw ?? '').trim().replace(',', '.'));
+
+/** What is wrong with one typed figure, as a sentence, or null when it is a number. */
+function figureProblem(label: string, raw: string | undefined): string | null {
+  if ((raw ?? '').trim() === '') return `${label} is required.`;
+  if (!Number.isFinite(parseFigure(raw))) return `${label} must be a number.`;
+  return null;
+}
+
+/** The typed figures' problems, keyed like the server's ("axles.0.springRateNPerM"). */
+function draftProblems(d: Draft): FieldErrors {
+  const out: FieldErrors = {};
+  d.axles.forEach((a, i) => {
+    for (const f of FIELDS) {
+      const p = figureProblem(f.label, a[f.key]);
+      if (p) out[`axles.${i}.${f.key}`] = p;
+    }
+  });
   return out;
+}
+
+function toAxles(d: Draft): AxleForm[] | null {
+  if (Object.keys(draftProblems(d)).length) return null;
+  return d.axles.map((a) => ({ label: a.label || 'axle', ...(Object.fromEntries(FIELDS.map((f) => [f.key, parseFigure(a[f.key]) * (f.scale ?? 1)])) as Omit<AxleForm, 'label'>) }));
 }
 
 function useDebounced<T>(value: T, ms: number): T {
@@ -69,7 +93,19 @@ export function SpecEditor({ spec, onSaved }: { spec: SuspensionSpec | null; onS
   const save = useSaveSpec(spec?.id ?? null);
   const previewFields = preview.error && isApiError(preview.error) ? preview.error.fields : {};
   const saveFields = save.error && isApiError(save.error) ? save.error.fields : {};
-  const fieldError = (k: string) => saveFields[k] ?? previewFields[k];
+  const typed = draftProblems(d);
+  const labelOf = (k: string) => {
+    const m = /^axles\.\d+\.(\w+)$/.exec(k);
+    return m ? FIELDS.find((f) => f.key === m[1])?.label : ({ name: 'Name', vehicleClass: 'Vehicle class', description: 'Description' } as Record<string, string>)[k];
+  };
+  const fieldError = (k: string) => {
+    if (typed[k]) return typed[k];
+    const server = saveFields[k] ?? previewFields[k];
+    return server ? sentence(labelOf(k), server) : undefined;
+  };
+  const problems = Object.keys(typed).length;
+  const saveBlocked = !axles ? `Save is off until every figure is a number: ${problems === 1 ? 'one field is' : `${problems} fields are`} marked in red.` : null;
+  const previewBroken = Boolean(preview.error);
   const typical = presets.data?.typical[d.vehicleClass];
 
   const setAxle = (i: number, k: string, v: string) => setD((s) => ({ ...s, axles: s.axles.map((a, j) => (j === i ? { ...a, [k]: v } : a)) }));
@@ -119,24 +155,30 @@ export function SpecEditor({ spec, onSaved }: { spec: SuspensionSpec | null; onS
                     inputMode="decimal"
                     value={a[f.key] ?? ''}
                     onChange={(e) => setAxle(i, f.key, e.target.value)}
-                    hint={r ? `Typical ${formatNumber(r[0])}–${formatNumber(r[1])} ${f.unit}` : f.key === 'ratedDamperLifeKm' ? 'Common practice: 80 000–100 000 km for vans' : undefined}
+                    hint={r ? `Typical ${formatNumber(r[0] / (f.scale ?? 1))}–${formatNumber(r[1] / (f.scale ?? 1))} ${f.unit}` : f.key === 'ratedDamperLifeKm' ? 'Common practice: 80 000–100 000 km for vans' : undefined}
+                    name={`axles.${i}.${f.key}`}
                     error={fieldError(`axles.${i}.${f.key}`)}
                   />
                 );
               })}
             </div>
-            <CornerResult p={preview.data?.axles[i]} stale={preview.isFetching || Boolean(preview.error)} />
+            <CornerResult p={axles && !previewBroken ? preview.data?.axles[i] : undefined} stale={preview.isFetching} reason={!axles ? 'Fix the values marked in red to see this corner’s modes.' : previewBroken ? 'These values do not make a suspension the model can solve: see the fields marked in red.' : undefined} />
           </div>
         </Section>
       ))}
       {presets.data ? <p className="text-xs text-slate">Typical ranges: {presets.data.typicalSource}.</p> : null}
       <Caution>These figures describe the model, not the vehicle. Follow the vehicle and damper makers’ data and have suspensions checked by a qualified mechanic.</Caution>
       <div className="flex items-center gap-3">
-        <Button type="submit" variant="primary" busy={save.isPending} disabled={!axles}>
+        <Button type="submit" variant="primary" busy={save.isPending} disabled={!axles} aria-describedby={saveBlocked ? 'spec-save-blocked' : undefined}>
           {spec ? 'Save changes' : 'Create spec'}
         </Button>
+        {saveBlocked ? (
+          <p id="spec-save-blocked" className="text-sm text-slate">
+            {saveBlocked}
+          </p>
+        ) : null}
         {save.error ? <p role="alert" className="text-sm text-overdue">{save.error.message}</p> : null}
-        {save.isSuccess ? <p role="status" className="text-sm text-ok">Saved.</p> : null}
+        {save.isSuccess && !saveBlocked ? <p role="status" className="text-sm text-ok">Saved.</p> : null}
       </div>
     </form>
   );
@@ -155,8 +197,8 @@ function PresetPicker({ presets, onPick }: { presets: SpecPresets; onPick: (p: S
   );
 }
 
-function CornerResult({ p, stale }: { p: CornerPreview | undefined; stale: boolean }) {
-  if (!p) return <p className="text-sm text-slate">Enter every value to see the corner’s modes.</p>;
+function CornerResult({ p, stale, reason }: { p: CornerPreview | undefined; stale: boolean; /** Why no figures show (blank rather than old ones). */ reason?: string }) {
+  if (!p) return <p className="text-sm text-slate" data-testid="corner-modes-missing">{reason ?? 'Enter every value to see the corner’s modes.'}</p>;
   return (
     <div className={stale ? 'opacity-60' : undefined} data-testid="corner-modes">
       <dl className="grid grid-cols-2 gap-x-4 gap-y-1 text-sm sm:grid-cols-4">
@@ -166,7 +208,7 @@ function CornerResult({ p, stale }: { p: CornerPreview | undefined; stale: boole
         </div>
         <div>
           <dt className="text-slate">Body damping ratio</dt>
-          <dd className="tabular-nums font-medium" data-testid="body-zeta">{formatNumber(p.modes.bodyDampingRatio, 2)}</dd>
+          <dd className="tabular-nums font-medium" data-testid="body-zeta">{formatNumber(p.modes.bodyDampingRatio * 100, 0)} %</dd>
         </div>
         <div>
           <dt className="text-slate">Wheel hop</dt>
@@ -174,13 +216,16 @@ function CornerResult({ p, stale }: { p: CornerPreview | undefined; stale: boole
         </div>
         <div>
           <dt className="text-slate">Wheel damping ratio</dt>
-          <dd className="tabular-nums font-medium">{formatNumber(p.modes.wheelDampingRatio, 2)}</dd>
+          <dd className="tabular-nums font-medium">{formatNumber(p.modes.wheelDampingRatio * 100, 0)} %</dd>
         </div>
       </dl>
       {p.hints.length ? (
-        <ul className="mt-2 list-disc pl-5 text-sm text-watch">
+        <ul className="mt-2 space-y-1 text-sm text-ink" aria-label="Outside the typical range">
           {p.hints.map((h) => (
-            <li key={h}>{h}</li>
+            <li key={h} className="flex items-start gap-2">
+              <StatusShape tone="watch" className="mt-1" />
+              <span>{h}</span>
+            </li>
           ))}
         </ul>
       ) : null}

@@ -80,6 +80,8 @@ export const vehicleQueryOptions = (id: number) =>
   queryOptions({
     queryKey: vehicleKeys.detail(id),
     queryFn: ({ signal }) => getVehicle(id, signal),
+    // The page's loader has just asked: a failure (a missing vehicle, say) is shown, not asked again on mount.
+    retryOnMount: false,
   });
 
 /** The vehicle's page data; waits while `id` is not known yet. */

@@ -1,20 +1,11 @@
 import { EmptyState } from '@/components/ui/empty-state';
 import { SimpleTable } from '@/components/ui/simple-table';
-import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
+import { InspectionStatusBadge as Badge } from '@/components/ui/inspection-status-badge';
 import { formatDate } from '@/lib/format';
 import type { InspectionStatus, VehicleInspection } from '../api/get-vehicle';
 
-const inspectionStatus: Record<InspectionStatus, { tone: StatusTone; label: string }> = {
-  scheduled: { tone: 'neutral', label: 'Booked' },
-  due: { tone: 'due', label: 'Due' },
-  overdue: { tone: 'overdue', label: 'Overdue' },
-  done: { tone: 'ok', label: 'Done' },
-  cancelled: { tone: 'neutral', label: 'Cancelled' },
-};
-
 export function InspectionStatusBadge({ status }: { status: InspectionStatus }) {
-  const s = inspectionStatus[status] ?? { tone: 'neutral' as const, label: status };
-  return <StatusBadge tone={s.tone}>{s.label}</StatusBadge>;
+  return <Badge status={status} />;
 }
 
 /** The vehicle's inspections, soonest first, with why each was booked. */

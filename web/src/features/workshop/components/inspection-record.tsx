@@ -1,12 +1,13 @@
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { addDays, addYears, format, parseISO } from 'date-fns';
 import { Button } from '@/components/ui/button';
 import { Caution } from '@/components/ui/caution';
+import { SelectField, TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { Section } from '@/components/ui/section';
 import { SimpleTable } from '@/components/ui/simple-table';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { isApiError } from '@/lib/api-client';
+import { focusFirstError, serverPathErrors, type FieldErrors } from '@/lib/form-errors';
 import { formatDate, formatNumber, isoDate } from '@/lib/format';
 import { useRecordResults, type ResultsInput } from '../api/record-results';
 import { useUploadAttachment } from '../api/upload-attachment';
@@ -30,6 +31,23 @@ const dayAfter = (day: string, f: (d: Date) => Date) => format(f(parseISO(day)),
 const mm = (v: number) => formatNumber(v, Number.isInteger(v) ? 0 : 1);
 
 const num = (s: string) => (s.trim() === '' ? null : Number(s.replace(',', '.')));
+const isNumber = (s: string) => s.trim() !== '' && Number.isFinite(Number(s.replace(',', '.')));
+
+/** Corners the wear model flags (due for inspection or past their life): the mechanic must choose a verdict. */
+const flagged = (state: string | undefined) => state === 'due' || state === 'past_life';
+
+/** Checks the test-lane form before sending, with the same limits as the server; keys are the server's paths. */
+function checkResults(v: { corners: CornerDraft[]; odometer: string }): FieldErrors {
+  const out: FieldErrors = {};
+  v.corners.forEach((c, i) => {
+    const a = num(c.adhesion);
+    if (a !== null && !Number.isFinite(a)) out[`corners.${i}.adhesionPct`] = `Adhesion ${c.position} must be a number, 0–100 %.`;
+    else if (a !== null && (a < 0 || a > 100)) out[`corners.${i}.adhesionPct`] = `Adhesion ${c.position} must be 0–100 %.`;
+    if (!c.verdict) out[`corners.${i}.verdict`] = `Choose a verdict for ${c.position}: the wear model flags this corner, so there is no default.`;
+  });
+  if (!isNumber(v.odometer) || Number(v.odometer.replace(',', '.')) < 0) out.odometerKm = 'Odometer must be a number of km, 0 or more.';
+  return out;
+}
 
 /** Left–right adhesion difference per axle from the form, flagged over the limit. */
 function differences(corners: CornerDraft[], limit: number) {
@@ -49,7 +67,7 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
   const results = useDraft<{ corners: CornerDraft[]; odometer: string; notes: string; followUp?: string; amplitude: string }>(`rb-draft:inspection:${inspection.id}:results`, () => ({
     corners: inspection.predicted.map((c) => {
       const r = inspection.results.find((x) => x.position === c.position);
-      return { position: c.position, axleIndex: c.axleIndex, adhesion: r?.adhesionPct == null ? '' : String(r.adhesionPct), phase: r?.phaseDeg == null ? '' : String(r.phaseDeg), findings: r?.findings ?? [], verdict: r?.verdict ?? 'ok' };
+      return { position: c.position, axleIndex: c.axleIndex, adhesion: r?.adhesionPct == null ? '' : String(r.adhesionPct), phase: r?.phaseDeg == null ? '' : String(r.phaseDeg), findings: r?.findings ?? [], verdict: r?.verdict ?? (flagged(c.state) ? '' : 'ok') };
     }),
     odometer: String(Math.round(inspection.odometerKm ?? inspection.vehicle.odometerKm)),
     notes: inspection.notes ?? '',
@@ -68,39 +86,97 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
   const upload = useUploadAttachment(inspection.id);
   const recordWork = useRecordWork();
   const [uploadKind, setUploadKind] = useState<'photo' | 'printout'>('photo');
+  const [resultErrors, setResultErrors] = useState<FieldErrors>({});
+  const [workErrors, setWorkErrors] = useState<FieldErrors>({});
+  const [saved, setSaved] = useState<string | null>(null);
+  const resultsForm = useRef<HTMLFormElement>(null);
+  const workForm = useRef<HTMLFormElement>(null);
   const diffs = differences(results.value.corners, options.laneFlagPoints);
   const setCorner = (i: number, patch: Partial<CornerDraft>) => results.setValue((v) => ({ ...v, corners: v.corners.map((c, k) => (k === i ? { ...c, ...patch } : c)) }));
   const setPart = (i: number, patch: Partial<PartDraft>) => work.setValue((v) => ({ ...v, parts: v.parts.map((c, k) => (k === i ? { ...c, ...patch } : c)) }));
-  const fieldErr = (e: unknown, key: string) => (isApiError(e) ? e.fields[key] : undefined);
+  const cornerLabel = (path: string, corners: { position: string }[]) => {
+    const m = /^corners\.(\d+)\.(adhesionPct|verdict|findings|position)/.exec(path);
+    const pos = m ? corners[Number(m[1])]?.position : undefined;
+    if (m && pos) return m[2] === 'adhesionPct' ? `Adhesion ${pos}` : m[2] === 'verdict' ? `Verdict ${pos}` : m[2] === 'findings' ? `Findings ${pos}` : `Corner ${pos}`;
+    return ({ odometerKm: 'Odometer', notes: 'Notes' } as Record<string, string>)[path];
+  };
 
   const checkAgain = results.value.corners.some((c) => c.verdict === CHECK_AGAIN);
   const submitResults = (complete: boolean) => {
+    setSaved(null);
+    const found = checkResults(results.value);
+    setResultErrors(found);
+    if (Object.keys(found).length) {
+      focusFirstError(resultsForm.current, found);
+      return;
+    }
     const body: ResultsInput = {
-      odometerKm: Number(results.value.odometer),
+      odometerKm: Number(results.value.odometer.replace(',', '.')),
       notes: results.value.notes.trim() || null,
       complete,
       followUpOn: checkAgain ? results.value.followUp || null : null,
       plateAmplitudeMm: num(results.value.amplitude ?? '') ?? undefined,
       corners: results.value.corners.map((c) => ({ position: c.position, adhesionPct: num(c.adhesion), phaseDeg: num(c.phase ?? ''), findings: c.findings, verdict: c.verdict })),
     };
-    save.mutate(body, { onSuccess: () => results.clear() });
+    const corners = results.value.corners;
+    save.mutate(body, {
+      onSuccess: () => {
+        results.clear();
+        setSaved(complete ? 'Results saved and the inspection closed.' : `Results saved at ${new Date().toLocaleTimeString('en-GB', { hour: '2-digit', minute: '2-digit' })}.`);
+      },
+      onError: (err) => {
+        const f = serverPathErrors(err, (path) => cornerLabel(path, corners));
+        setResultErrors(f);
+        focusFirstError(resultsForm.current, f);
+      },
+    });
   };
 
   const submitWork = () => {
     const items: WorkInput['items'] = [];
+    // which corner each item came from, to put a server error on that corner's fields
+    const itemCorner: string[] = [];
+    const found: FieldErrors = {};
     for (const p of work.value.parts) {
+      if ((p.damper || p.spring) && p.cost.trim() !== '' && (!isNumber(p.cost) || Number(p.cost.replace(',', '.')) < 0)) found[`cost.${p.position}`] = `Cost ${p.position} must be a number of £, 0 or more.`;
       for (const component of ['damper', 'spring'] as const) {
         if (!p[component]) continue;
-        items.push({ position: p.position, component, partDescription: p.partDescription || `${component === 'damper' ? 'Damper' : 'Spring'}, ${p.position}`, partNumber: p.partNumber || null, cost: Number(p.cost || 0), removalReason: p.removalReason });
+        itemCorner.push(p.position);
+        items.push({ position: p.position, component, partDescription: p.partDescription || `${component === 'damper' ? 'Damper' : 'Spring'}, ${p.position}`, partNumber: p.partNumber || null, cost: Number((p.cost || '0').replace(',', '.')), removalReason: p.removalReason });
       }
     }
+    if (work.value.summary.trim().length < 3) found.summary = 'Summary must be at least 3 characters: say what was done.';
+    if (work.value.labour.trim() !== '' && (!isNumber(work.value.labour) || Number(work.value.labour.replace(',', '.')) < 0)) found.labourHours = 'Labour must be a number of hours, 0 or more.';
+    if (!isNumber(work.value.odometer) || Number(work.value.odometer.replace(',', '.')) < 0) found.odometerKm = 'Odometer must be a number of km, 0 or more.';
+    setWorkErrors(found);
+    if (Object.keys(found).length) {
+      focusFirstError(workForm.current, found);
+      return;
+    }
+    const itemField: Record<string, string> = { partDescription: 'partDescription', partNumber: 'partNumber', cost: 'cost', removalReason: 'removalReason' };
+    const itemLabel: Record<string, string> = { partDescription: 'Part description', partNumber: 'Part number', cost: 'Cost', removalReason: 'Reason for removal' };
     recordWork.mutate(
-      { vehicleId: inspection.vehicle.id, inspectionId: inspection.id, performedOn: work.value.date, odometerKm: Number(work.value.odometer), summary: work.value.summary, labourHours: Number(work.value.labour || 0), notes: work.value.notes || null, items },
+      { vehicleId: inspection.vehicle.id, inspectionId: inspection.id, performedOn: work.value.date, odometerKm: Number(work.value.odometer.replace(',', '.')), summary: work.value.summary, labourHours: Number((work.value.labour || '0').replace(',', '.')), notes: work.value.notes || null, items },
       {
         onSuccess: (w) => {
           work.clear();
           results.clear();
           onWorkSaved(w.id);
+        },
+        onError: (err) => {
+          // item errors go on the corner's field ("items.1.cost" → "cost.FR"), the rest on their own
+          const raw = serverPathErrors(err, (path) => {
+            const m = /^items\.(\d+)\.(\w+)/.exec(path);
+            if (m) return itemCorner[Number(m[1])] && itemLabel[m[2]] ? `${itemLabel[m[2]]} ${itemCorner[Number(m[1])]}` : undefined;
+            return ({ summary: 'Summary', labourHours: 'Labour', odometerKm: 'Odometer', performedOn: 'Date', notes: 'Notes' } as Record<string, string>)[path];
+          });
+          const f: FieldErrors = {};
+          for (const [path, text] of Object.entries(raw)) {
+            const m = /^items\.(\d+)\.(\w+)/.exec(path);
+            f[m && itemField[m[2]] ? `${itemField[m[2]]}.${itemCorner[Number(m[1])]}` : path] = text;
+          }
+          setWorkErrors(f);
+          focusFirstError(workForm.current, f);
         },
       },
     );
@@ -123,7 +199,9 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
             </Notice>
           ) : null}
           <form
+            ref={resultsForm}
             aria-label="Test-lane results"
+            noValidate
             onSubmit={(e) => {
               e.preventDefault();
               submitResults(false);
@@ -152,21 +230,29 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
                 Half the plate&apos;s stroke: a 6 mm stroke is a 3 mm amplitude (the lane&apos;s setting is {mm(options.lanePlateAmplitudeMm)} mm). Each adhesion is turned into a damping at this amplitude.
               </span>
             </label>
-            {fieldErr(save.error, 'plateAmplitudeMm') ? <p className="text-sm text-overdue">{fieldErr(save.error, 'plateAmplitudeMm')}</p> : null}
+            {resultErrors.plateAmplitudeMm ? <p className="text-sm text-overdue">{resultErrors.plateAmplitudeMm}</p> : null}
             <div className="grid gap-3 md:grid-cols-2">
               {results.value.corners.map((c, i) => (
                 <fieldset key={c.position} className="rounded-md border border-line p-3">
                   <legend className="px-1 font-semibold">Corner {c.position}</legend>
-                  <label className="block text-sm font-medium">
-                    Adhesion [%]
-                    <input className={inputCls} inputMode="decimal" aria-label={`Adhesion ${c.position} [%]`} value={c.adhesion} onChange={(e) => setCorner(i, { adhesion: e.target.value })} />
-                  </label>
-                  {fieldErr(save.error, `corners.${i}.adhesionPct`) ? <p className="text-sm text-overdue">{fieldErr(save.error, `corners.${i}.adhesionPct`)}</p> : null}
-                  <label className="mt-2 block text-sm font-medium">
-                    Minimum phase [°]
-                    <input className={inputCls} inputMode="decimal" aria-label={`Minimum phase ${c.position} [°]`} value={c.phase ?? ''} onChange={(e) => setCorner(i, { phase: e.target.value })} />
-                  </label>
-                  {fieldErr(save.error, `corners.${i}.phaseDeg`) ? <p className="text-sm text-overdue">{fieldErr(save.error, `corners.${i}.phaseDeg`)}</p> : null}
+                  <TextField
+                    label="Adhesion [%]"
+                    name={`corners.${i}.adhesionPct`}
+                    inputMode="decimal"
+                    aria-label={`Adhesion ${c.position} [%]`}
+                    value={c.adhesion}
+                    error={resultErrors[`corners.${i}.adhesionPct`]}
+                    onChange={(e) => setCorner(i, { adhesion: e.target.value })}
+                  />
+                  <TextField
+                    label="Minimum phase [°]"
+                    name={`corners.${i}.phaseDeg`}
+                    inputMode="decimal"
+                    aria-label={`Minimum phase ${c.position} [°]`}
+                    value={c.phase ?? ''}
+                    error={resultErrors[`corners.${i}.phaseDeg`]}
+                    onChange={(e) => setCorner(i, { phase: e.target.value })}
+                  />
                   <div className="mt-2 grid gap-1">
                     {options.findings.map((f) => (
                       <label key={f} className="flex min-h-9 items-center gap-2 text-sm">
@@ -180,16 +266,17 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
                       </label>
                     ))}
                   </div>
-                  <label className="mt-2 block text-sm font-medium">
-                    Verdict
-                    <select className={inputCls} aria-label={`Verdict ${c.position}`} value={c.verdict} onChange={(e) => setCorner(i, { verdict: e.target.value })}>
-                      {options.verdicts.map((v) => (
-                        <option key={v} value={v}>
-                          {VERDICT_LABELS[v] ?? v}
-                        </option>
-                      ))}
-                    </select>
-                  </label>
+                  <SelectField
+                    className="mt-2"
+                    label="Verdict"
+                    name={`corners.${i}.verdict`}
+                    aria-label={`Verdict ${c.position}`}
+                    hint={flagged(inspection.predicted[i]?.state) ? 'The wear model flags this corner: your verdict, no default.' : undefined}
+                    value={c.verdict}
+                    error={resultErrors[`corners.${i}.verdict`]}
+                    onChange={(e) => setCorner(i, { verdict: e.target.value })}
+                    options={[...(c.verdict ? [] : [{ value: '', label: 'Choose a verdict…' }]), ...options.verdicts.map((v) => ({ value: v, label: VERDICT_LABELS[v] ?? v }))]}
+                  />
                 </fieldset>
               ))}
             </div>
@@ -202,13 +289,17 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
               ))}
             </ul>
             <div className="mt-3 grid gap-3 md:grid-cols-2">
-              <label className="block text-sm font-medium">
-                Odometer [km]
-                <input className={inputCls} inputMode="numeric" value={results.value.odometer} onChange={(e) => results.setValue((v) => ({ ...v, odometer: e.target.value }))} />
-              </label>
+              <TextField
+                label="Odometer [km]"
+                name="odometerKm"
+                inputMode="numeric"
+                value={results.value.odometer}
+                error={resultErrors.odometerKm}
+                onChange={(e) => results.setValue((v) => ({ ...v, odometer: e.target.value }))}
+              />
               <label className="block text-sm font-medium">
                 Notes
-                <textarea className={`${inputCls} min-h-20 py-2`} value={results.value.notes} onChange={(e) => results.setValue((v) => ({ ...v, notes: e.target.value }))} />
+                <textarea name="notes" className={`${inputCls} min-h-20 py-2`} value={results.value.notes} onChange={(e) => results.setValue((v) => ({ ...v, notes: e.target.value }))} />
               </label>
             </div>
             {checkAgain ? (
@@ -228,11 +319,25 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
                 <p className="text-sm text-slate">
                   A corner is to be checked again soon: the follow-up inspection is booked for this day (left empty: {formatDate(dayAfter(today, (d) => addDays(d, 30)))}).
                 </p>
-                {fieldErr(save.error, 'followUpOn') ? <p className="text-sm text-overdue">{fieldErr(save.error, 'followUpOn')}</p> : null}
+                {resultErrors.followUpOn ? <p className="text-sm text-overdue">{resultErrors.followUpOn}</p> : null}
               </div>
             ) : null}
             {inspection.followUpOn ? <p className="mt-2 text-sm">Follow-up set for {formatDate(inspection.followUpOn)}.</p> : null}
-            {save.error ? <p role="alert" className="mt-2 text-sm text-overdue">{(save.error as Error).message}</p> : null}
+            {resultErrors.notes ? <p className="mt-1 text-sm text-overdue">{resultErrors.notes}</p> : null}
+            {Object.keys(resultErrors).length ? (
+              <Notice tone="error" className="mt-3" title="Not saved">
+                {resultErrors._ ?? 'Check the fields marked in red, then save again.'}
+              </Notice>
+            ) : save.error ? (
+              <Notice tone="error" className="mt-3" title="Not saved">
+                {(save.error as Error).message}
+              </Notice>
+            ) : null}
+            {saved ? (
+              <Notice tone="ok" className="mt-3">
+                {saved}
+              </Notice>
+            ) : null}
             <div className="mt-3 flex flex-wrap gap-2">
               <Button type="submit" variant="primary" size="lg" busy={save.isPending}>
                 Save results
@@ -297,7 +402,9 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
             </Notice>
           ) : null}
           <form
+            ref={workForm}
             aria-label="Work record"
+            noValidate
             onSubmit={(e) => {
               e.preventDefault();
               submitWork();
@@ -319,18 +426,9 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
                   </div>
                   {p.damper || p.spring ? (
                     <div className="mt-2 grid gap-2">
-                      <label className="text-sm">
-                        Part description
-                        <input className={inputCls} aria-label={`Part description ${p.position}`} value={p.partDescription} onChange={(e) => setPart(i, { partDescription: e.target.value })} />
-                      </label>
-                      <label className="text-sm">
-                        Part number
-                        <input className={inputCls} aria-label={`Part number ${p.position}`} value={p.partNumber} onChange={(e) => setPart(i, { partNumber: e.target.value })} />
-                      </label>
-                      <label className="text-sm">
-                        Cost [£]
-                        <input className={inputCls} inputMode="decimal" aria-label={`Cost ${p.position}`} value={p.cost} onChange={(e) => setPart(i, { cost: e.target.value })} />
-                      </label>
+                      <TextField label="Part description" name={`partDescription.${p.position}`} aria-label={`Part description ${p.position}`} value={p.partDescription} error={workErrors[`partDescription.${p.position}`]} onChange={(e) => setPart(i, { partDescription: e.target.value })} />
+                      <TextField label="Part number" name={`partNumber.${p.position}`} aria-label={`Part number ${p.position}`} value={p.partNumber} error={workErrors[`partNumber.${p.position}`]} onChange={(e) => setPart(i, { partNumber: e.target.value })} />
+                      <TextField label="Cost [£]" name={`cost.${p.position}`} inputMode="decimal" aria-label={`Cost ${p.position}`} value={p.cost} error={workErrors[`cost.${p.position}`]} onChange={(e) => setPart(i, { cost: e.target.value })} />
                       <label className="text-sm">
                         Reason for removal
                         <select className={inputCls} aria-label={`Removal reason ${p.position}`} value={p.removalReason} onChange={(e) => setPart(i, { removalReason: e.target.value })}>
@@ -345,36 +443,19 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
               ))}
             </div>
             <div className="mt-3 grid gap-3 md:grid-cols-2">
-              <label className="text-sm font-medium">
-                Summary
-                <input className={inputCls} aria-label="Work summary" value={work.value.summary} onChange={(e) => work.setValue((v) => ({ ...v, summary: e.target.value }))} />
-              </label>
-              <label className="text-sm font-medium">
-                Labour [h]
-                <input className={inputCls} inputMode="decimal" aria-label="Labour [h]" value={work.value.labour} onChange={(e) => work.setValue((v) => ({ ...v, labour: e.target.value }))} />
-              </label>
-              <label className="text-sm font-medium">
-                Odometer [km]
-                <input className={inputCls} inputMode="numeric" aria-label="Work odometer [km]" value={work.value.odometer} onChange={(e) => work.setValue((v) => ({ ...v, odometer: e.target.value }))} />
-              </label>
-              <label className="text-sm font-medium">
-                Date
-                <input type="date" className={inputCls} value={work.value.date} max={isoDate(new Date())} onChange={(e) => work.setValue((v) => ({ ...v, date: e.target.value }))} />
-              </label>
+              <TextField label="Summary" name="summary" aria-label="Work summary" value={work.value.summary} error={workErrors.summary} onChange={(e) => work.setValue((v) => ({ ...v, summary: e.target.value }))} />
+              <TextField label="Labour [h]" name="labourHours" inputMode="decimal" value={work.value.labour} error={workErrors.labourHours} onChange={(e) => work.setValue((v) => ({ ...v, labour: e.target.value }))} />
+              <TextField label="Odometer [km]" name="odometerKm" inputMode="numeric" aria-label="Work odometer [km]" value={work.value.odometer} error={workErrors.odometerKm} onChange={(e) => work.setValue((v) => ({ ...v, odometer: e.target.value }))} />
+              <TextField label="Date" name="performedOn" type="date" value={work.value.date} max={isoDate(new Date())} error={workErrors.performedOn} onChange={(e) => work.setValue((v) => ({ ...v, date: e.target.value }))} />
             </div>
-            {recordWork.error ? (
-              <div role="alert" className="mt-2 text-sm text-overdue">
+            {Object.keys(workErrors).length ? (
+              <Notice tone="error" className="mt-3" title="Not saved">
+                {workErrors._ ?? 'Check the fields marked in red, then save again.'}
+              </Notice>
+            ) : recordWork.error ? (
+              <Notice tone="error" className="mt-3" title="Not saved">
                 {(recordWork.error as Error).message}
-                {isApiError(recordWork.error) ? (
-                  <ul>
-                    {Object.entries(recordWork.error.fields).map(([k, v]) => (
-                      <li key={k}>
-                        {k}: {v}
-                      </li>
-                    ))}
-                  </ul>
-                ) : null}
-              </div>
+              </Notice>
             ) : null}
             <Button type="submit" variant="primary" size="lg" className="mt-3" busy={recordWork.isPending}>
               Save work record and close inspection

@@ -2,12 +2,11 @@ import { Link } from 'react-router';
 import { EmptyState } from '@/components/ui/empty-state';
 import { ErrorState } from '@/components/ui/error-state';
 import { LoadingState } from '@/components/ui/loading-state';
-import { StatusBadge } from '@/components/ui/status-badge';
+import { InspectionStatusBadge } from '@/components/ui/inspection-status-badge';
 import { formatDate } from '@/lib/format';
 import { useInspections } from '../api/get-inspections';
 import { CornerChips } from './corner-chips';
 
-const statusTone = { scheduled: 'neutral', due: 'due', overdue: 'overdue', done: 'ok', cancelled: 'neutral' } as const;
 
 /** Inspections assigned to the signed-in mechanic or their depot, soonest first; big targets for a tablet. */
 export function MyInspections({ inspectionPath }: { inspectionPath: (id: number) => string }) {
@@ -24,9 +23,7 @@ export function MyInspections({ inspectionPath }: { inspectionPath: (id: number)
               <span className="text-lg font-semibold text-ink">
                 {i.vehicle.fleetNumber} <span className="font-mono text-sm text-slate">{i.vehicle.plate}</span>
               </span>
-              <StatusBadge tone={statusTone[i.status]}>
-                {i.status} · due {formatDate(i.dueDate)}
-              </StatusBadge>
+              <InspectionStatusBadge status={i.status}> · due {formatDate(i.dueDate)}</InspectionStatusBadge>
             </div>
             <p className="mt-1 text-sm text-ink">{i.reason}</p>
             <p className="mb-2 text-sm text-slate">

@@ -6,6 +6,7 @@ import { LoadingState } from '@/components/ui/loading-state';
 import { Section } from '@/components/ui/section';
 import { SimpleTable } from '@/components/ui/simple-table';
 import { StatusBadge } from '@/components/ui/status-badge';
+import { InspectionStatusBadge } from '@/components/ui/inspection-status-badge';
 import { Caution } from '@/components/ui/caution';
 import { formatDate, formatNumber } from '@/lib/format';
 import { useInspections } from '../api/get-inspections';
@@ -13,7 +14,6 @@ import { useAssignInspection } from '../api/assign-inspection';
 import { useForecast } from '../api/get-forecast';
 import { useWorkload } from '../api/get-workload';
 
-const statusTone = { scheduled: 'neutral', due: 'due', overdue: 'overdue', done: 'ok', cancelled: 'neutral' } as const;
 
 /** Open inspections with a mechanic/depot picker each. */
 export function AssignInspections({ mechanics, depots, vehiclePath }: { mechanics: { id: number; name: string; depotId: number | null }[]; depots: { id: number; name: string }[]; vehiclePath: (id: number) => string }) {
@@ -30,7 +30,7 @@ export function AssignInspections({ mechanics, depots, vehiclePath }: { mechanic
         getRowKey={(i) => i.id}
         columns={[
           { key: 'd', header: 'Due', cell: (i) => formatDate(i.dueDate) },
-          { key: 's', header: 'Status', cell: (i) => <StatusBadge tone={statusTone[i.status]}>{i.status}</StatusBadge> },
+          { key: 's', header: 'Status', cell: (i) => <InspectionStatusBadge status={i.status} /> },
           { key: 'v', header: 'Vehicle', rowHeader: true, cell: (i) => <Link className="link" to={vehiclePath(i.vehicle.id)}>{i.vehicle.fleetNumber}</Link> },
           { key: 'r', header: 'Reason', cell: (i) => <span className="line-clamp-2 max-w-md">{i.reason}</span> },
           {

@@ -1,0 +1,85 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { QueryTypes } from 'sequelize';
+import type { Browser, Page } from 'playwright-core';
+import { launchBrowser, newContext, type ViewportName } from '../support/browser';
+import { startTestServer, type TestServer } from '../support/server';
+import { axeViolations } from '../support/axe';
+import { DEMO, goViaMenu, signIn } from './helpers';
+import { menuFor } from '../../web/src/app/navigation';
+import type { Role } from '../../web/src/lib/roles';
+
+let server: TestServer;
+let browser: Browser;
+
+beforeAll(async () => {
+  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+/** Opens a page, waits for it to settle, and returns axe's findings prefixed with its address. */
+async function check(page: Page, path: string): Promise<string[]> {
+  await page.goto(`${server.url}${path}`);
+  await page.getByRole('heading', { level: 1 }).first().waitFor();
+  await page.waitForLoadState('networkidle');
+  await page.waitForTimeout(300);
+  return (await axeViolations(page)).map((v) => `${path}: ${v}`);
+}
+
+async function one<T extends object>(sql: string, replacements: unknown[] = []): Promise<T> {
+  const rows = await server.db.sequelize.query<T>(sql, { replacements, type: QueryTypes.SELECT });
+  return rows[0];
+}
+
+const ROLES: { role: Role; email: string; size: ViewportName }[] = [
+  { role: 'manager', email: DEMO.manager, size: 'desktop' },
+  { role: 'mechanic', email: DEMO.mechanic, size: 'tablet' },
+  { role: 'driver', email: DEMO.driver, size: 'phone' },
+];
+
+describe('accessibility of every page, for each role (axe-core)', () => {
+  for (const { role, email, size } of ROLES) {
+    it(`when a ${role} opens each of their pages on a ${size}, then axe finds no violation`, async () => {
+      const context = await newContext(browser, size);
+      const page = await context.newPage();
+      await signIn(page, server.url, email);
+      const paths = menuFor(role).map((p) => p.path);
+      if (role !== 'driver') {
+        const v = await one<{ id: number }>('SELECT id FROM vehicles ORDER BY id LIMIT 1');
+        const r = await one<{ id: number }>('SELECT id FROM routes ORDER BY id LIMIT 1');
+        const i = await one<{ id: number }>(
+          `SELECT i.id FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN users u ON u.email = ? WHERE i.status IN ('scheduled','due','overdue') AND (u.role = 'manager' OR u.depot_id = v.depot_id) ORDER BY i.id LIMIT 1`,
+          [email],
+        );
+        paths.push(`/vehicles/${v.id}`, `/routes/${r.id}`, `/inspections/${i.id}`);
+      } else {
+        const r = await one<{ id: number }>('SELECT id FROM routes ORDER BY id LIMIT 1');
+        paths.push(`/routes/${r.id}`, '/map');
+      }
+      if (role === 'manager') {
+        const s = await one<{ id: number }>('SELECT id FROM suspension_specs ORDER BY id LIMIT 1');
+        paths.push(`/specs/${s.id}/edit`, '/specs/new');
+      }
+      const found: string[] = [];
+      for (const path of [...new Set(paths)]) found.push(...(await check(page, path)));
+
+      expect(found, found.join('\n')).toEqual([]);
+      await context.close();
+    }, 300_000);
+  }
+
+  it('when a manager moves to another page through the menu, then focus lands on that page’s heading', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await page.getByRole('heading', { level: 1, name: 'Due inspections' }).waitFor();
+    await goViaMenu(page, 'Vehicles');
+    await page.getByRole('heading', { level: 1, name: 'Vehicles' }).waitFor();
+    await expect.poll(() => page.evaluate(() => (document.activeElement?.tagName ?? '') + ' ' + (document.activeElement?.textContent ?? ''))).toBe('H1 Vehicles');
+    await context.close();
+  });
+});
+

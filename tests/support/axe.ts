@@ -1,0 +1,11 @@
+import { AxeBuilder } from '@axe-core/playwright';
+import type { Page } from 'playwright-core';
+
+/**
+ * Runs axe-core (WCAG 2.1 A and AA rules, and best practices) on the page as it stands and returns
+ * its violations, one line each: rule, impact, how many elements, the first element's selector.
+ */
+export async function axeViolations(page: Page): Promise<string[]> {
+  const result = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'best-practice']).analyze();
+  return result.violations.map((v) => `${v.id} (${v.impact}): ${v.nodes.length}× e.g. ${v.nodes[0]?.target.join(' ')} — ${v.help}`);
+}
