@@ -317,6 +317,11 @@ export function predictFromSummary(s: WearSummary, opts: PredictOptions): Predic
   const calEnd = addMonths(opts.installedAt, Math.round(years * 12));
   const calendarDays = daysBetween(opts.installedAt, calEnd);
   const ageDays = Math.max(0, daysBetween(opts.installedAt, opts.asOf));
+  // wear before the records (opening, and a test-lane offset): a level it alone reaches was
+  // passed before the first trip on record; that day is estimated as if the damper's wear had
+  // grown evenly from its fitting to today (stated in the basis)
+  const before = opening.wearKm + (opts.life.offsetWearKm ?? 0);
+  let estimatedBefore = false;
   const reached = (level: number, cum: number, r: number, firstDay: string | null): string | null => {
     if (cum >= level) return firstDay ?? opts.asOf;
     if (!(r > 0)) return null;
@@ -325,8 +330,15 @@ export function predictFromSummary(s: WearSummary, opts: PredictOptions): Predic
   };
   const earlier = (a: string | null, b: string) => (a === null || b < a ? b : a);
   const levels = levelsOf(opts, 0);
-  const distTh = reached(levels[0], W, rate, s.levelDays[0]);
-  const distEol = reached(levels[1], W, rate, s.levelDays[1]);
+  const reachedWear = (level: number, firstDay: string | null): string | null => {
+    if (W >= level && level <= before && W > 0 && ageDays > 0) {
+      estimatedBefore = true;
+      return plusDays(opts.installedAt, Math.max(0, Math.floor((level / W) * ageDays)));
+    }
+    return reached(level, W, rate, firstDay);
+  };
+  const distTh = reachedWear(levels[0], s.levelDays[0]);
+  const distEol = reachedWear(levels[1], s.levelDays[1]);
   const calTh = plusDays(opts.installedAt, Math.round(th * calendarDays));
   const endOfLifeDate = earlier(distEol, calEnd);
   const distanceLifeUsed = W / L;
@@ -354,8 +366,8 @@ export function predictFromSummary(s: WearSummary, opts: PredictOptions): Predic
     scheduleQuantile: q,
     thresholdDate: earlier(distTh, calTh),
     endOfLifeDate,
-    endOfLifeP10Date: earlier(reached(levels[2], W, rate, s.levelDays[2]), calEnd),
-    endOfLifeP90Date: earlier(reached(levels[3], W, rate, s.levelDays[3]), calEnd),
+    endOfLifeP10Date: earlier(reachedWear(levels[2], s.levelDays[2]), calEnd),
+    endOfLifeP90Date: earlier(reachedWear(levels[3], s.levelDays[3]), calEnd),
     governedBy: distEol !== null && distEol <= calEnd ? 'distance' : 'calendar',
     springDamage: s.springDamage,
     springRatePerDay: dRate,
@@ -363,7 +375,7 @@ export function predictFromSummary(s: WearSummary, opts: PredictOptions): Predic
     basis: {
       method: `straight-line projection of the wear rate over the last ${windowDays} day(s) (${windowStart} to ${opts.asOf}); end of life as the median of the fitted scatter with its P10–P90 range; inspection threshold ${pctOf(th)} of the ${q === 0.5 ? 'median' : `P${Math.round(q * 100)}`} life`,
       life: opts.life.note,
-      opening: opening.basis,
+      opening: estimatedBefore ? `${opening.basis}; levels it alone passes are dated as if the wear had grown evenly since fitting (before the trips on record)` : opening.basis,
       calendar: `calendar limit ${years} years from fitting (common practice: 5–7 years), reached ${calEnd}`,
       damping: `estimated present damping: linear fade from nominal to ${Math.round(DAMPING_AT_END_OF_LIFE * 100)} % at end of life (assumption)`,
       window: `${formatKm(s.windowKm)} driven in the window, ${formatKm(s.windowWearKm)} of wear at the rated road's rate`,

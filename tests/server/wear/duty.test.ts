@@ -18,7 +18,7 @@ import { prepareDuty } from '../../../server/physics/closed-form';
 import { prepareSimulation, runSimulation } from '../../../server/physics/simulate';
 import { minerDamage, rainflow } from '../../../server/physics/fatigue';
 import { gdForClass, seededRandom, synthesizeProfile } from '../../../server/physics/iso8608';
-import { accumulateDays, predict, type LifeBasis } from '../../../server/wear/wear';
+import { accumulateDays, plusDays, predict, type LifeBasis } from '../../../server/wear/wear';
 import { priorLifeResolver } from '../../../server/workshop/life';
 
 const front = { sprungMassKg: 430, unsprungMassKg: 46, springRateNPerM: 32000, dampingNsPerM: 2400, tireRateNPerM: 260000 };
@@ -214,6 +214,18 @@ describe('wear and prediction', () => {
     expect(p.governedBy).toBe('calendar');
     expect(p.calendarLifeUsed).toBeGreaterThan(0.95);
     expect(p.lifeUsedFraction).toBe(p.calendarLifeUsed);
+  });
+
+  it('when the wear before the records alone passed end of life, then its date is estimated between fitting and the records, not the first day on record (stated rule)', () => {
+    const L = 50_000;
+    // 110 000 km untracked at the rated road's rate, then 10 days on record
+    const hist = accumulateDays({ damperId: 1, vehicleId: 1 }, null, Array.from({ length: 10 }, (_, i) => ({ day: dayOf(20 + i), distanceKm: 100, energyJ: 0, springDamage: 0, wearKm: 100 })), L, 2000);
+    const p = predict(hist, { asOf: '2026-11-30', installedAt: '2022-11-30', life: basis(L), thresholdFraction: 0.8, nominalDampingNsPerM: 2000, untrackedKm: 110_000, calendarYears: 20 });
+    expect(p.lifeUsedFraction).toBeCloseTo(111_000 / L, 9);
+    // even growth over 1 461 days: end of life at 50 000 / 111 000 of them (computed)
+    expect(p.endOfLifeDate).toBe(plusDays('2022-11-30', Math.floor((50_000 / 111_000) * 1461)));
+    expect(p.endOfLifeDate! < '2026-11-21').toBe(true);
+    expect(p.basis.opening).toMatch(/evenly since fitting/);
   });
 
   it('when the threshold was already passed, then the threshold date is the day it was crossed', () => {
