@@ -127,11 +127,17 @@ describe('nightly job through the API', () => {
     }>(`/api/vehicles/${vehicleId}/wear`);
     expect(w.status).toBe(200);
     expect(w.body.dampers).toHaveLength(4);
+    // the life is the rated one, or the fleet-blended one once the spec's removals suffice
+    const specId = Number((await A.db.sequelize.query<{ id: number }>(`SELECT spec_id AS id FROM vehicles WHERE id = ?`, { replacements: [vehicleId], type: QueryTypes.SELECT }))[0].id);
+    const blend = (await c.get<{ blend: { used: boolean } }>(`/api/fleet-life?specId=${specId}`)).body.blend;
     for (const d of w.body.dampers) {
       expect(d.history.length).toBeGreaterThan(10);
-      expect(d.prediction?.lifeSource).toBe('rated');
+      expect(d.prediction?.lifeSource).toBe(blend.used ? 'fleet' : 'rated');
       expect(d.prediction!.rateJPerDay).toBeGreaterThan(0);
-      expect(d.path.length).toBeGreaterThanOrEqual(2);
+      // the path runs from the prediction day through the threshold and end-of-life dates still ahead
+      const p = d.prediction as unknown as { asOf: string; thresholdDate: string | null; endOfLifeDate: string | null };
+      const ahead = [p.thresholdDate, p.endOfLifeDate].filter((x) => x !== null && x > p.asOf).length;
+      expect(d.path.length).toBe(1 + ahead);
       const u = d.history.map((h) => h.lifeUsedFraction);
       expect([...u].sort((a, b) => a - b)).toEqual(u); // consumed life never goes down
     }
