@@ -79,6 +79,9 @@ interface SpecSeed {
   workingDayKm: [number, number];
 }
 
+/** Longest day's trip [h]: a morning shift (from 05:30–07:00) ends before the afternoon one (14:00–15:00) starts. */
+const MAX_TRIP_HOURS = 7;
+
 /** Mass of a driver allowed for when capping the payload [kg] (assumption). */
 const DRIVER_KG = 75;
 
@@ -427,10 +430,11 @@ export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string =
         const r = rand() < 0.7 ? favourite : myRoutes[Math.floor(rand() * myRoutes.length)];
         const speed = Math.round(r.speedKmh * (0.85 + rand() * 0.25) * 10) / 10;
         const loopKm = r.route.lengthM / 1000;
-        const rounds = Math.max(1, Math.round((workingDayKm * (0.85 + rand() * 0.3)) / loopKm));
+        // at most MAX_TRIP_HOURS at the day's speed, so a driver's morning and afternoon shifts do not overlap
+        const rounds = Math.max(1, Math.min(Math.floor((MAX_TRIP_HOURS * speed) / loopKm), Math.round((workingDayKm * (0.85 + rand() * 0.3)) / loopKm)));
         const distanceKm = Math.round(loopKm * rounds * 10) / 10;
         const hours = distanceKm / speed;
-        const startMin = afternoonDriver ? 12 * 60 + 30 + Math.floor(rand() * 60) : 6 * 60 + Math.floor(rand() * 90);
+        const startMin = afternoonDriver ? 14 * 60 + Math.floor(rand() * 60) : 5 * 60 + 30 + Math.floor(rand() * 90);
         const startedAt = new Date(date.getTime() + startMin * 60_000);
         const endedAt = new Date(startedAt.getTime() + hours * 3_600_000);
         tripRows.push({

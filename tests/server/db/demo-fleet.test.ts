@@ -82,6 +82,16 @@ describe('the demo fleet', () => {
     expect(perDay).toBeLessThan(110);
   });
 
+  it('when a driver\'s trips are listed, then none overlaps another, and none is longer than 7 h', async () => {
+    const overlaps = await q<{ n: number }>(
+      `SELECT COUNT(*) AS n FROM trips a JOIN trips b ON a.driver_id = b.driver_id AND a.id < b.id AND a.started_at < b.ended_at AND b.started_at < a.ended_at`,
+    );
+    expect(Number(overlaps[0].n)).toBe(0);
+    const [long] = await q<{ h: number }>(`SELECT MAX((julianday(substr(ended_at, 1, 23)) - julianday(substr(started_at, 1, 23))) * 24) AS h FROM trips`);
+    expect(long.h).toBeLessThanOrEqual(7.0001);
+    expect(long.h).toBeGreaterThan(3);
+  });
+
   it('when payloads are added to the unladen mass and a 75 kg driver, then no trip exceeds the gross mass of its vehicle class (from the spec name)', async () => {
     const specs = await q<{ id: number; name: string; unladen: number }>(
       `SELECT s.id, s.name, SUM(2 * (a.sprung_mass_kg + a.unsprung_mass_kg)) AS unladen FROM suspension_specs s JOIN spec_axles a ON a.spec_id = s.id GROUP BY s.id`,
