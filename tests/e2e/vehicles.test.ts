@@ -62,10 +62,11 @@ describe('vehicles table', () => {
     await odoHeader.getByRole('button').click();
     await range(page, /^1–25 of/);
     await page.waitForFunction(() => new URL(location.href).searchParams.get('sort') === 'odometerKm');
-    expect(await odoHeader.getAttribute('aria-sort')).toBe('ascending');
+    // the header's mark follows the address a moment later under load: wait for it
+    await expect.poll(() => odoHeader.getAttribute('aria-sort'), { timeout: 10_000 }).toBe('ascending');
     await odoHeader.getByRole('button').click();
     await page.waitForFunction(() => new URL(location.href).searchParams.get('sort') === '-odometerKm');
-    expect(await odoHeader.getAttribute('aria-sort')).toBe('descending');
+    await expect.poll(() => odoHeader.getAttribute('aria-sort'), { timeout: 10_000 }).toBe('descending');
     // the busy mark may not be up yet when first checked: wait for the rows themselves
     await expect
       .poll(async () => {
