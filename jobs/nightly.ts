@@ -24,7 +24,7 @@ import { localDay, startOfLocalDay } from '../server/wear/repository';
 import { predictAll, processTrips, recomputeWear, RunAborted, type ItemError, type PhaseContext } from '../server/wear/service';
 import { plusDays, type LifeResolver } from '../server/wear/wear';
 import { refitAndResolveLife } from '../server/workshop/nightly-life';
-// issue 7: drivers' daily exposure step; importing ride-mail registers the severe-reports digest section
+// Drivers' daily exposure step; importing ride-mail registers the severe-reports digest section
 import { refreshExposure } from '../server/drivers/exposure';
 import '../server/drivers/ride-mail';
 
@@ -137,7 +137,7 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     }
     await recomputeWear(ctx);
     await predictAll(ctx);
-    // issue 7: drivers' daily A(8) from the front-axle duty just stored (queues managers' mail, sent below)
+    // Drivers' daily A(8) from the front-axle duty just stored (queues managers' mail, sent below)
     if (opts.signal?.aborted) throw new RunAborted();
     await progress('exposure', 0, 1);
     Object.assign(counts, await refreshExposure({ sequelize: db.sequelize, now: opts.now, asOf, publicUrl: config.publicUrl, runId }));

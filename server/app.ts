@@ -176,7 +176,7 @@ export function createApp(deps: AppDeps): BuiltApp {
   registerFleetWriteRoutes(api, deps.now ?? (() => new Date()));
   registerRoadRoutes(api, { config, now: deps.now ?? (() => new Date()) });
   registerTripRoutes(api, { now: deps.now ?? (() => new Date()) });
-  // issue 7: drivers
+  // Drivers
   registerRideReportRoutes(api, { now: deps.now ?? (() => new Date()), dataDir: config.dataDir, publicUrl: config.publicUrl, log, mailer: deps.mailer ?? null });
   registerExposureRoutes(api, { now: deps.now ?? (() => new Date()), timeZone: config.timeZone });
   registerSpeedAdviceRoutes(api);
@@ -184,7 +184,7 @@ export function createApp(deps: AppDeps): BuiltApp {
   registerInspectionRoutes(api, { sequelize: db.sequelize, config, now: deps.now ?? (() => new Date()) });
   registerWearRoutes(api, { sequelize: db.sequelize, config });
   registerMailRoutes(api, { mailer: deps.mailer ?? null });
-  // issue 6: workshop (after issue 5's /inspections/due so that literal path wins)
+  // Workshop (after the inspections' /inspections/due so that literal path wins)
   registerWorkshopRoutes(api, { config, now: deps.now ?? (() => new Date()) });
   api.use((req, _res, next) => next(AppError.notFound(`The API address ${req.method} ${req.originalUrl}`)));
 

@@ -1,5 +1,5 @@
 /**
- * Models of issue 7 (migration 0005): drivers' ride reports and daily vibration exposure.
+ * Models of the drivers' area (migration 0005): drivers' ride reports and daily vibration exposure.
  * Registered by `openDb` after the core models.
  */
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';

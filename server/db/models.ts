@@ -28,7 +28,7 @@ export class User extends Model<Attrs<User>, CAttrs<User>> {
   declare passwordHash: string;
   declare active: CreationOptional<boolean>;
   declare depotId: ForeignKey<number> | null;
-  /** E-mail preferences (issue 5): managers' inspection digest, its ride-report section, mechanics' assignment notes. */
+  /** E-mail preferences: managers' inspection digest, its ride-report section, mechanics' assignment notes. */
   declare notifyInspectionDigest: CreationOptional<boolean>;
   declare notifyRideReports: CreationOptional<boolean>;
   declare notifyAssignments: CreationOptional<boolean>;
@@ -106,7 +106,7 @@ export class Damper extends Model<Attrs<Damper>, CAttrs<Damper>> {
   declare lifeUsedFraction: CreationOptional<number>;
   declare dampingNsPerM: CreationOptional<number | null>;
   declare wearUpdatedAt: CreationOptional<Date | null>;
-  /** Issue 5: derived wear must be recomputed from this day on (null = up to date). */
+  /** Derived wear must be recomputed from this day on (null = up to date). */
   declare wearDirtyFrom: CreationOptional<string | null>;
   /** Opening wear (distance before the trips on record), estimated once by the nightly job; null until then. */
   declare openingKm: CreationOptional<number | null>;
@@ -195,13 +195,13 @@ export class Inspection extends Model<Attrs<Inspection>, CAttrs<Inspection>> {
   declare completedAt: Date | null;
   declare odometerKm: number | null;
   declare notes: string | null;
-  /** Issue 5: the rule that scheduled it (prediction | interval_km | interval_months | manual | follow_up), null for older rows. */
+  /** The rule that scheduled it (prediction | interval_km | interval_months | manual | follow_up), null for older rows. */
   declare trigger: CreationOptional<string | null>;
-  /** Issue 5: JSON text of the numbers the schedule rests on. */
+  /** JSON text of the numbers the schedule rests on. */
   declare basis: CreationOptional<string | null>;
-  /** Issue 5: the last status managers were e-mailed about. */
+  /** The last status managers were e-mailed about. */
   declare notifiedStatus: CreationOptional<string | null>;
-  /** Issue 5: the assignee who was e-mailed about it. */
+  /** The assignee who was e-mailed about it. */
   declare assigneeNotifiedId: CreationOptional<number | null>;
   declare createdByRunId: CreationOptional<number | null>;
   /** The day the mechanic asked to check again ("check again soon"), or null. */

@@ -1,5 +1,5 @@
 /**
- * Models of the nightly damper-duty job (issue 5, migration 0003): duty per trip × corner,
+ * Models of the nightly damper-duty job (migration 0003): duty per trip × corner,
  * daily wear history, latest prediction per damper, job runs and locks, outgoing and caught
  * mail. Registered by `initModels`.
  */

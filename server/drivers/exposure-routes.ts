@@ -1,4 +1,4 @@
-/** Exposure API (issue 7): a driver's own days; the manager's overview of every driver. */
+/** Exposure API: a driver's own days; the manager's overview of every driver. */
 import type { Router } from 'express';
 import { QueryTypes } from 'sequelize';
 import { z } from 'zod';

@@ -1,5 +1,5 @@
 /**
- * Drivers' daily whole-body vibration exposure (issue 7), computed by the nightly job from the
+ * Drivers' daily whole-body vibration exposure, computed by the nightly job from the
  * duty it stores per trip and corner.
  *
  * Method: the driver sits over the front axle. A trip's floor acceleration is that of the

@@ -1,4 +1,4 @@
-/** Ride reports data access (issue 7). Returns plain objects. */
+/** Ride reports data access. Returns plain objects. */
 import { Op, QueryTypes, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import { RideReport, type RideReportStatus } from '../db/driver-models';
 import { Route, RouteSegment, User, Vehicle } from '../db/models';

@@ -1,4 +1,4 @@
-/** Ride-report API (issue 7): drivers file and read their own; managers read all and decide. */
+/** Ride-report API: drivers file and read their own; managers read all and decide. */
 import type { Router, RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';

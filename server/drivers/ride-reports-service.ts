@@ -1,4 +1,4 @@
-/** Ride-report rules (issue 7): snapping, filing, access, the manager's decision and the driver's note. */
+/** Ride-report rules: snapping, filing, access, the manager's decision and the driver's note. */
 import { AppError } from '../errors';
 import type { Logger } from '../logger';
 import type { SessionUser } from '../http/access';

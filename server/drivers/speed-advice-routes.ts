@@ -1,4 +1,4 @@
-/** `GET /api/routes/:id/speed-advice` (issue 7). */
+/** `GET /api/routes/:id/speed-advice`. */
 import type { Router } from 'express';
 import { z } from 'zod';
 import { allow, currentUser } from '../http/access';

@@ -1,5 +1,5 @@
 /**
- * Speed advice per road segment and suspension spec (issue 7): the highest speed at which the
+ * Speed advice per road segment and suspension spec: the highest speed at which the
  * ISO 2631-1 Wk-weighted body acceleration over the front axle stays within a chosen comfort
  * band (ISO 2631-1:1997 Annex C) and every axle's mean damper power stays within a chosen limit.
  *

@@ -6,7 +6,7 @@
  *
  * - Manager digest: inspections that became due or overdue since managers were last told
  *   (`inspections.notified_status`), for the manager's depot (all depots when they have none),
- *   plus the sections other areas register with {@link registerDigestSection} (issue 7: severe
+ *   plus the sections other areas register with {@link registerDigestSection} (severe
  *   ride reports). Each kind follows the user's preference.
  * - Mechanic note: an inspection assigned to a mechanic who has not been told
  *   (`inspections.assignee_notified_id`). Other areas that assign by hand call
@@ -28,7 +28,7 @@ export interface DigestRecipient {
   notifyRideReports: boolean;
 }
 
-/** One section of the manager digest, provided by an area (inspections here; ride reports in issue 7). */
+/** One section of the manager digest, provided by an area (inspections here; ride reports from the drivers' area). */
 export interface DigestSectionProvider {
   id: string;
   heading: string;
@@ -81,7 +81,7 @@ const inspectionSection: DigestSectionProvider = {
 
 const sections: DigestSectionProvider[] = [inspectionSection];
 
-/** Adds a section to the manager digest (issue 7: severe ride reports). */
+/** Adds a section to the manager digest (severe ride reports). */
 export function registerDigestSection(provider: DigestSectionProvider) {
   if (!sections.some((s) => s.id === provider.id)) sections.push(provider);
 }

@@ -6,7 +6,7 @@
  * full tie the later-recorded one wins. So a new survey always takes over, and a manager can
  * still record that a road was resurfaced after its last survey.
  *
- * Issue 7: drivers' reports count with a lower weight than a survey — see {@link currentValue},
+ * Drivers' reports count with a lower weight than a survey — see {@link currentValue},
  * which the repository applies.
  */
 import type { RoughnessSource } from '../db/models';
@@ -38,7 +38,7 @@ export function pickCurrent<T extends ObservationLike>(observations: readonly T[
 }
 
 /**
- * Weight of each source when a segment's current value is blended (issue 7). A profile survey
+ * Weight of each source when a segment's current value is blended. A profile survey
  * and a value set by hand count fully; an accepted driver's report is an estimate from how the
  * ride felt, so it counts half as much as a survey.
  */

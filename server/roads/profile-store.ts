@@ -14,7 +14,7 @@
  * - distance along the route [m], increasing in one even step of at most 0.3 m;
  * - elevation [m] or [mm] as the header says (a relative height; only differences matter).
  *
- * Contract for the nightly job (issue 5): {@link loadSurveyProfile} reads a stored survey's
+ * Contract for the nightly job: {@link loadSurveyProfile} reads a stored survey's
  * profile back as `{ dxM, startM, elevationsM }`; a segment whose current roughness comes from a
  * survey has `route_segments.survey_id` set, and its part of the profile is
  * `[segment.startM, segment.endM]` (route distance, the same axis as `startM`).

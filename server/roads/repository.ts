@@ -216,7 +216,7 @@ export const roadsRepository = {
       const bySeg = new Map<number, RoughnessObservation[]>();
       for (const o of all) bySeg.set(o.segmentId, [...(bySeg.get(o.segmentId) ?? []), o]);
       for (const id of ids) {
-        // issue 7: drivers' reports are blended in with a lower weight than a survey
+        // Drivers' reports are blended in with a lower weight than a survey
         const cur = currentValue(bySeg.get(id) ?? [], classifyGd, iriFromGd);
         await RouteSegment.update(
           cur
@@ -228,7 +228,7 @@ export const roadsRepository = {
     }
   },
 
-  /** Issue 7: the id of a segment's most recently recorded observation. */
+  /** The id of a segment's most recently recorded observation. */
   async lastObservationId(segmentId: number, transaction: Transaction) {
     const o = await RoughnessObservation.findOne({ where: { segmentId }, order: [['id', 'DESC']], attributes: ['id'], transaction });
     return o?.id ?? null;

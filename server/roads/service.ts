@@ -267,7 +267,7 @@ export const roadsService = {
   },
 
   /**
-   * Issue 7: an accepted driver's report becomes a roughness observation (source
+   * An accepted driver's report becomes a roughness observation (source
    * `driver_report`, weighted below a survey by the current-value rule). Runs in the caller's
    * transaction; returns the new observation's id.
    */

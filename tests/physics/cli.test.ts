@@ -84,7 +84,7 @@ describe('cli', () => {
   it('when modes, adhesion, damping-from-adhesion and exposure run, then each prints its documented keys', () => {
     const spec = join(dir, 'spec.json');
     const m = cli('modes', '--spec', spec);
-    checkThat(m.code === 0 && ['bodyHz', 'bodyDampingRatio', 'wheelHz', 'wheelDampingRatio'].every((k) => typeof m.json?.[k] === 'number'), 'issue 3 CLI', m.stdout + m.stderr);
+    checkThat(m.code === 0 && ['bodyHz', 'bodyDampingRatio', 'wheelHz', 'wheelDampingRatio'].every((k) => typeof m.json?.[k] === 'number'), 'physics CLI', m.stdout + m.stderr);
     const ad = cli('adhesion', '--spec', spec, '--amplitude-mm', '6');
     checkClose(ad.json?.adhesionPct as number, adhesionPct(CAR, { amplitudeM: 0.006 }).adhesionPct, { rel: 1e-12 }, 'computed: library', {});
     const worn = adhesionPct({ ...CAR, dampingNsPerM: 1200 }).adhesionPct;

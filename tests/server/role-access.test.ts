@@ -37,7 +37,7 @@ export const ACCESS: Record<string, Rule> = {
   'GET /api/vehicles': { allow: ALL, expect: 200 },
   'GET /api/vehicles/:id': { allow: ALL, expect: 200, path: '/api/vehicles/{vehicle}' },
   'GET /api/routes': { allow: ALL, expect: 200 },
-  // issue 4: fleet writes, roads, surveys, trips, map
+  // Fleet writes, roads, surveys, trips, map
   'GET /api/spec-presets': { allow: ['manager', 'mechanic'], expect: 200 },
   'POST /api/specs/preview': { allow: ['manager', 'mechanic'], expect: 400, body: {} },
   'POST /api/specs': { allow: ['manager'], expect: 400, body: {} },
@@ -60,7 +60,7 @@ export const ACCESS: Record<string, Rule> = {
   'GET /api/trips': { allow: ['manager'], expect: 200 },
   'POST /api/trips': { allow: ['manager'], expect: 400, body: {} },
   'POST /api/trips/import': { allow: ['manager'], expect: 400, body: {} },
-  // issue 5: nightly job, due inspections, wear, outbox, notification preferences
+  // Nightly job, due inspections, wear, outbox, notification preferences
   'POST /api/jobs/nightly/run': { allow: ['manager'], expect: 400, body: { asOf: 'not-a-date' } },
   'GET /api/jobs/runs': { allow: ['manager'], expect: 200 },
   'GET /api/jobs/runs/:id': { allow: ['manager'], expect: 404, path: '/api/jobs/runs/999999' },
@@ -70,7 +70,7 @@ export const ACCESS: Record<string, Rule> = {
   'GET /api/outbox/:id': { allow: ['manager'], expect: 404, path: '/api/outbox/999999' },
   'GET /api/account/notifications': { allow: ALL, expect: 200 },
   'PATCH /api/account/notifications': { allow: ALL, expect: 400, body: {} },
-  // issue 6: workshop (inspections recorded by mechanics, work records, fleet life, forecast)
+  // Workshop (inspections recorded by mechanics, work records, fleet life, forecast)
   'GET /api/inspections': { allow: ['manager', 'mechanic'], expect: 200 },
   'GET /api/inspections/:id': { allow: ['manager', 'mechanic'], expect: 404, path: '/api/inspections/999999' },
   'PATCH /api/inspections/:id': { allow: ['manager'], expect: 400, path: '/api/inspections/999999', body: {} },
@@ -87,7 +87,7 @@ export const ACCESS: Record<string, Rule> = {
   'GET /api/model-check': { allow: ['manager'], expect: 200 },
   'GET /api/vehicles/:id/workshop': { allow: ['manager', 'mechanic'], expect: 200, path: '/api/vehicles/{vehicle}/workshop' },
   'GET /api/workshop/options': { allow: ['manager', 'mechanic'], expect: 200 },
-  // issue 7: drivers' ride reports, exposure, speed advice
+  // Drivers' ride reports, exposure, speed advice
   'GET /api/ride-reports/scale': { allow: ['driver', 'manager'], expect: 200 },
   'POST /api/ride-reports/snap': { allow: ['driver', 'manager'], expect: 400, body: {} },
   'POST /api/ride-reports': { allow: ['driver'], expect: 400, body: {} },

@@ -14,7 +14,7 @@ const fk = (table: string, allowNull = false, onDelete = 'RESTRICT') => ({
 });
 
 /**
- * Issue 4: road profile surveys (the uploaded file is kept under DATA_DIR), the link from a
+ * Road profile surveys (the uploaded file is kept under DATA_DIR), the link from a
  * roughness observation — and from a segment's current roughness — to the survey it came from,
  * and a record of each trip import.
  */

@@ -15,14 +15,14 @@ const fk = (table: string, allowNull = false, onDelete = 'RESTRICT') => ({
 const num = (allowNull = false) => ({ type: DataTypes.DOUBLE, allowNull });
 
 /**
- * Issue 5, the nightly damper-duty job: duty per trip and corner, each damper's daily wear
+ * The nightly damper-duty job: duty per trip and corner, each damper's daily wear
  * history and latest prediction, job runs and the run lock, outgoing and caught mail, the
  * scheduling columns of inspections and users' notification preferences.
  */
 export async function up({ context: qi }: { context: QueryInterface }) {
   // One row per trip × corner. Everything in SI units; `rms_weighted_accel` is the ISO 2631-1
   // Wk-weighted RMS body acceleration on that corner (axle_index 0 = front axle, the one nearest
-  // the driver: issue 7 reads it for exposure).
+  // the driver: the exposure step reads it).
   await qi.createTable('trip_duties', {
     id,
     trip_id: fk('trips', false, 'CASCADE'),

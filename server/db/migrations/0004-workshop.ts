@@ -15,7 +15,7 @@ const fk = (table: string, allowNull = false, onDelete = 'RESTRICT') => ({
 const num = (allowNull = true) => ({ type: DataTypes.DOUBLE, allowNull });
 
 /**
- * Issue 6, the workshop: test-lane results per corner (with the model's predicted and the
+ * The workshop: test-lane results per corner (with the model's predicted and the
  * estimated present damping), photos and printouts, the parts of a work record, and who an
  * inspection is assigned to (a mechanic or a whole depot).
  */

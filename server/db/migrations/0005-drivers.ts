@@ -14,7 +14,7 @@ const fk = (table: string, allowNull = false, onDelete = 'RESTRICT') => ({
 });
 
 /**
- * Issue 7, drivers: harsh-ride reports filed from the road (snapped to a route segment, with a
+ * Drivers: harsh-ride reports filed from the road (snapped to a route segment, with a
  * photo kept under DATA_DIR) and the manager's decision on each; each driver's daily vibration
  * exposure A(8), computed by the nightly job from the front-axle duty of their trips.
  */

@@ -1,7 +1,7 @@
 /**
  * Nightly job on a synthetic fleet (10 000 vehicles, 30 000 trips, 25 segments each): the whole
  * run — duty, wear history, predictions, scheduling, e-mail through the built-in catcher and
- * every database write — in a child process, so its peak memory is its own. Targets (issue 5):
+ * every database write — in a child process, so its peak memory is its own. Targets:
  * under 30 s and under 1 GB on a 2-core machine.
  */
 import { execFileSync } from 'node:child_process';

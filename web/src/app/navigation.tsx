@@ -51,7 +51,7 @@ export const pages = {
   specs: { path: '/specs', label: 'Specs', roles: ['manager'], group: 'fleet', icon: icon('M12 3v3l-5 2 10 3-10 3 10 3-5 2v2') },
   routes: { path: '/routes', label: 'Routes', roles: ['manager'], group: 'roads', icon: icon('M5 19c0-4 4-4 7-7s7-3 7-7M5 19a1.5 1.5 0 1 0 0 .01M19 5a1.5 1.5 0 1 0 0 .01') },
   map: { path: '/map', label: 'Roads', roles: ['manager', 'mechanic'], group: 'roads', groupLabel: 'Map', icon: icon('M9 4 3 6v14l6-2 6 2 6-2V4l-6 2-6-2zM9 4v14M15 6v14') },
-  // issue 4: route pages and the road map can be read by every role (not in every menu); segments table
+  // Route pages and the road map can be read by every role (not in every menu); segments table
   roadsRead: { path: '/map', label: 'Roads', roles: ['manager', 'mechanic', 'driver'], icon: icon('M9 4 3 6v14l6-2 6 2 6-2V4l-6 2-6-2zM9 4v14M15 6v14') },
   segments: { path: '/segments', label: 'Segments', roles: ['manager'], group: 'roads', icon: icon('M4 18 9 6l6 12 5-10') },
   trips: { path: '/trips', label: 'Trips', roles: ['manager'], group: 'roads', icon: icon('M4 17h2l2-9h8l2 9h2M7 17a2 2 0 1 0 4 0M13 17a2 2 0 1 0 4 0') },
@@ -67,7 +67,7 @@ export const pages = {
   // reached from the damper-life page, not in the menu (the menu marks "Damper life" while it is open)
   lifeBacktest: { path: '/damper-life/back-test', label: 'Back-test', roles: ['manager', 'mechanic'], icon: icon('M4 20V4M4 20h16M7 15l3-3 3 2 5-6') },
   modelCheck: { path: '/model-check', label: 'Model check', roles: ['manager'], group: 'workshop', icon: icon('M4 20 20 4M6 14l2 2M12 9l2 2M15 16l2-2') },
-  // issue 7: drivers' reports and exposure
+  // Drivers' reports and exposure
   report: { path: '/report', label: 'Report', roles: ['driver'], icon: icon('M12 21s-6-5.5-6-11a6 6 0 0 1 12 0c0 5.5-6 11-6 11zM12 7v4M12 13.5v.5') },
   myReports: { path: '/my-reports', label: 'My reports', roles: ['driver'], icon: icon('M6 3h9l3 3v15H6zM9 10h6M9 14h6M9 18h4') },
   rideReports: { path: '/ride-reports', label: 'Ride reports', roles: ['manager'], group: 'drivers', icon: icon('M12 21s-6-5.5-6-11a6 6 0 0 1 12 0c0 5.5-6 11-6 11zM9.5 10h5') },
@@ -77,7 +77,7 @@ export const pages = {
 
 const menuOrder: PageAccess[] = [pages.due, pages.fleet, pages.workshop, pages.myVehicle, pages.map, pages.vehicles, pages.specs, pages.routes, pages.trips, pages.planning, pages.fleetLife, pages.modelCheck, pages.people, pages.account];
 
-// issue 7: the driver's report pages after "My vehicle"; ride reports and exposure after "Map"
+// The driver's report pages after "My vehicle"; ride reports and exposure after "Map"
 menuOrder.splice(menuOrder.indexOf(pages.myVehicle) + 1, 0, pages.report, pages.myReports);
 menuOrder.splice(menuOrder.indexOf(pages.map) + 1, 0, pages.rideReports, pages.exposure);
 // grouped menu: pages reached only from other pages until the menu had room for them

@@ -8,7 +8,7 @@ import { meQueryOptions } from '@/features/auth/api/get-me';
 
 export function MapPage() {
   const segment = Number(useSearchParams()[0].get('segment')) || null;
-  // issue 7: drivers' reports are the manager's to see
+  // Drivers' reports are the manager's to see
   const isManager = useQuery(meQueryOptions()).data?.role === 'manager';
   return (
     <>

@@ -13,7 +13,7 @@ export function RoutePage() {
   const me = useQuery(meQueryOptions());
   const route = useQuery(routeQueryOptions(id));
   const name = route.data?.route.name ?? 'Route';
-  // Issue 4: mechanics and drivers read route pages; only managers see edit controls, trips and (drivers) no vehicle links.
+  // Mechanics and drivers read route pages; only managers see edit controls, trips and (drivers) no vehicle links.
   const role = me.data?.role;
   const isManager = role === 'manager';
   return (

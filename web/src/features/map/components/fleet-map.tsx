@@ -42,7 +42,7 @@ function FitFleet({ data }: { data: MapData }) {
 }
 
 /** The fleet's roads coloured by roughness class, with depots; click a segment for its details. */
-export function FleetMap({ initialSegment, routePath, reportLayer, segmentExtra }: { /** Issue 4: a segment to open the map on. */ initialSegment?: number | null; routePath: (id: number) => string; reportLayer?: ReactNode; /** Issue 7: more about the selected segment (speed advice). */ segmentExtra?: (id: number) => ReactNode }) {
+export function FleetMap({ initialSegment, routePath, reportLayer, segmentExtra }: { /** A segment to open the map on. */ initialSegment?: number | null; routePath: (id: number) => string; reportLayer?: ReactNode; /** More about the selected segment (speed advice). */ segmentExtra?: (id: number) => ReactNode }) {
   const config = useMapConfig();
   const data = useMapData();
   const [selected, setSelected] = useState<number | null>(initialSegment ?? null);
