@@ -7,6 +7,7 @@
 import { PhysicsInputError, type CornerParams } from '../physics/types';
 import { roadSeverity } from '../wear/life-law';
 import { fitLifeModel, lifeKmAt, meanLifeKmAt, modelFromJson, modelToJson, priorModel, type LifeModel, type LifeUnit } from './life-model';
+import { CsvSyntaxError, readCsv, type CsvRow } from '../lib/csv';
 
 /**
  * Life [km] of a damper that spends its whole life on a `w = 2` road of `gdN0` at `speedKmh`:
@@ -35,17 +36,21 @@ const COLUMNS = ['damper', 'km', 'gd', 'speed_kmh', 'failed'];
  * @throws PhysicsInputError naming the row and column of bad data
  */
 export function lifeFitCommand(csvText: string, corner: CornerParams, ratedKm: number) {
-  const lines = csvText.replace(/^\uFEFF/, '').split(/\r?\n/).filter((l) => l.trim() !== '');
-  if (!lines.length) throw new PhysicsInputError('dampers', 'CSV', 'is empty');
-  const head = lines[0].split(',').map((h) => h.trim().toLowerCase());
+  let rows: CsvRow[];
+  try {
+    rows = readCsv(csvText);
+  } catch (e) {
+    if (e instanceof CsvSyntaxError) throw new PhysicsInputError(e.line !== null ? `row ${e.line}` : 'dampers', 'CSV', e.message);
+    throw e;
+  }
+  if (!rows.length) throw new PhysicsInputError('dampers', 'CSV', 'is empty');
+  const head = rows[0].cells.map((h) => h.toLowerCase());
   const missing = COLUMNS.filter((c) => !head.includes(c));
   if (missing.length) throw new PhysicsInputError('dampers', 'CSV', `lacks the column(s) ${missing.join(', ')} (header: ${COLUMNS.join(',')})`);
   const at = Object.fromEntries(COLUMNS.map((c) => [c, head.indexOf(c)]));
   const units = new Map<string, LifeUnit>();
   const severityCache = new Map<string, number>();
-  lines.slice(1).forEach((line, k) => {
-    const row = k + 2;
-    const cells = line.split(',').map((x) => x.trim());
+  rows.slice(1).forEach(({ line: row, cells }) => {
     const n = (col: string, ok: (x: number) => boolean, what: string) => {
       const v = Number(cells[at[col]]);
       if (cells[at[col]] === undefined || cells[at[col]] === '' || !Number.isFinite(v) || !ok(v)) throw new PhysicsInputError(`row ${row}, ${col}`, 'CSV', `must be ${what}, got "${cells[at[col]] ?? ''}"`);

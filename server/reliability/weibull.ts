@@ -17,6 +17,7 @@
  *
  * @module
  */
+import { CsvSyntaxError, readCsv, type CsvRow } from '../lib/csv';
 
 /** One unit's life and whether it ended in a failure (true) or is censored (false). */
 export interface LifeObservation {
@@ -202,18 +203,23 @@ export function weibullPlotPoints(data: readonly LifeObservation[]): { life: num
  * @throws WeibullInputError naming the row of a bad value
  */
 export function parseLifeCsv(text: string): LifeObservation[] {
-  const lines = text.replace(/^\uFEFF/, '').split(/\r?\n/).filter((l) => l.trim() !== '');
-  if (!lines.length) throw new WeibullInputError('the file is empty');
-  const head = lines[0].split(',').map((h) => h.trim().toLowerCase());
+  let rows: CsvRow[];
+  try {
+    rows = readCsv(text);
+  } catch (e) {
+    if (e instanceof CsvSyntaxError) throw new WeibullInputError(`${e.line !== null ? `row ${e.line}: ` : ''}${e.message}`);
+    throw e;
+  }
+  if (!rows.length) throw new WeibullInputError('the file is empty');
+  const head = rows[0].cells.map((h) => h.toLowerCase());
   const iLife = head.indexOf('life');
   const iFailed = head.indexOf('failed');
   if (iLife < 0 || iFailed < 0) throw new WeibullInputError('the header must name the columns life and failed');
-  return lines.slice(1).map((l, k) => {
-    const cells = l.split(',').map((c) => c.trim());
+  return rows.slice(1).map(({ line, cells }) => {
     const life = Number(cells[iLife]);
     const f = cells[iFailed];
-    if (!Number.isFinite(life) || life <= 0) throw new WeibullInputError(`row ${k + 2}: life must be a positive number (got "${cells[iLife] ?? ''}")`);
-    if (f !== '0' && f !== '1') throw new WeibullInputError(`row ${k + 2}: failed must be 1 or 0 (got "${f ?? ''}")`);
+    if (cells[iLife] === undefined || cells[iLife] === '' || !Number.isFinite(life) || life <= 0) throw new WeibullInputError(`row ${line}: life must be a positive number (got "${cells[iLife] ?? ''}")`);
+    if (f !== '0' && f !== '1') throw new WeibullInputError(`row ${line}: failed must be 1 or 0 (got "${f ?? ''}")`);
     return { life, failed: f === '1' };
   });
 }

@@ -7,6 +7,7 @@
  *   `lng`), in either order, then one point per row in driving order; other columns are ignored.
  */
 import type { LonLat } from './geometry';
+import { CsvSyntaxError, readCsv, type CsvRow } from '../lib/csv';
 
 export class LineInputError extends Error {
   constructor(message: string, public readonly row: number | null = null) {
@@ -55,16 +56,17 @@ export function parseGeoJsonLine(text: string): LonLat[] {
 }
 
 export function parseCsvLine(text: string): LonLat[] {
-  const lines = text.split(/\r?\n/);
+  let rows: CsvRow[];
+  try {
+    rows = readCsv(text, { delimiters: [',', ';', '\t'] });
+  } catch (e) {
+    if (e instanceof CsvSyntaxError) throw new LineInputError(`The file is not valid CSV: ${e.message}.`, e.line);
+    throw e;
+  }
   let latCol = -1;
   let lonCol = -1;
-  let row = 0;
   const pts: LonLat[] = [];
-  for (const raw of lines) {
-    row += 1;
-    const line = raw.replace(/^\uFEFF/, '').trim();
-    if (!line || line.startsWith('#')) continue;
-    const cols = line.split(/[,;\t]/).map((c) => c.trim().replace(/^"|"$/g, ''));
+  for (const { line: row, cells: cols } of rows) {
     if (latCol < 0) {
       const h = cols.map((c) => c.toLowerCase());
       latCol = h.findIndex((c) => c === 'lat' || c === 'latitude');

@@ -17,6 +17,7 @@ import { createHash } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import { AppError } from '../errors';
 import { parseIsoDateTime } from '../http/validate';
+import { CsvSyntaxError, readCsv, type CsvRow } from '../lib/csv';
 import { tripsRepository, type TripInput } from './repository';
 
 export const TRIP_COLUMNS = ['vehicle', 'route', 'driver_email', 'start', 'end', 'distance_km', 'mean_speed_kmh', 'payload_kg'] as const;
@@ -60,29 +61,6 @@ interface Candidate {
 const parseDateTime = parseIsoDateTime;
 
 const NUM = /^[+-]?(\d+(\.\d*)?|\.\d+)$/;
-
-/** Splits one CSV line, honouring double quotes. */
-function splitCsv(line: string): string[] {
-  const out: string[] = [];
-  let cur = '';
-  let q = false;
-  for (let i = 0; i < line.length; i++) {
-    const ch = line[i];
-    if (q) {
-      if (ch === '"' && line[i + 1] === '"') {
-        cur += '"';
-        i++;
-      } else if (ch === '"') q = false;
-      else cur += ch;
-    } else if (ch === '"') q = true;
-    else if (ch === ',') {
-      out.push(cur);
-      cur = '';
-    } else cur += ch;
-  }
-  out.push(cur);
-  return out.map((c) => c.trim());
-}
 
 const fmtH = (h: number) => `${Math.floor(h)} h ${Math.round((h % 1) * 60)} min`;
 
@@ -211,7 +189,13 @@ function toInput(c: Candidate): TripInput {
 export const tripsService = {
   /** Reads a trip CSV and checks every row; never writes. */
   async checkCsv(text: string, now: Date): Promise<{ rows: ReportRow[]; candidates: Candidate[] }> {
-    const lines = text.split(/\r?\n/);
+    let rowsIn: CsvRow[];
+    try {
+      rowsIn = readCsv(text);
+    } catch (e) {
+      if (e instanceof CsvSyntaxError) throw AppError.badRequest('The trip file is not valid CSV.', { [e.line !== null ? `row ${e.line}` : 'file']: e.message });
+      throw e;
+    }
     let header: string[] | null = null;
     let headerRow = 0;
     const cands: Candidate[] = [];
@@ -220,13 +204,10 @@ export const tripsService = {
     const vehicles = new Map(lk.vehicles.map((v) => [v.fleetNumber.toLowerCase(), v]));
     const routes = new Map(lk.routes.map((r) => [r.name.toLowerCase(), r]));
     const users = new Map(lk.users.map((u) => [u.email.toLowerCase(), u]));
-    for (let i = 0; i < lines.length; i++) {
-      // let other requests in every 500 lines of a large file
+    for (let i = 0; i < rowsIn.length; i++) {
+      // let other requests in every 500 rows of a large file
       if (i % 500 === 499) await new Promise((resolve) => setImmediate(resolve));
-      const lineNo = i + 1;
-      const line = lines[i].replace(/^\uFEFF/, '');
-      if (!line.trim() || line.trim().startsWith('#')) continue;
-      const cols = splitCsv(line);
+      const { line: lineNo, cells: cols } = rowsIn[i];
       if (!header) {
         header = cols.map((c) => c.toLowerCase());
         headerRow = lineNo;
