@@ -8,9 +8,9 @@ import { AppError } from '../errors';
 import { DriverExposureDay } from '../db/driver-models';
 import { EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE } from '../physics/exposure';
 import { EXPOSURE_CAUTION, EXPOSURE_METHOD, type ExposurePart } from './exposure';
+import { localDay, plusDays } from '../lib/days';
 
 const isoDate = isoDay;
-const plusDays = (day: string, n: number) => new Date(Date.parse(`${day}T00:00:00Z`) + n * 86_400_000).toISOString().slice(0, 10);
 
 function range(q: { from?: string; to?: string }, today: string) {
   const to = q.to ?? today;
@@ -32,7 +32,7 @@ function seatFactorText(parts: ExposurePart[]): string | null {
 }
 
 export function registerExposureRoutes(api: Router, ctx: { now: () => Date; timeZone: string }) {
-  const today = () => new Intl.DateTimeFormat('en-CA', { timeZone: ctx.timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(ctx.now());
+  const today = () => localDay(ctx.now(), ctx.timeZone);
 
   api.get('/exposure', allow('driver', 'manager'), async (req, res) => {
     const q = parse(z.object({ driverId: z.coerce.number({ message: 'must be an id' }).int().positive('must be an id').optional(), from: isoDate.optional(), to: isoDate.optional() }).strict(), req.query, 'query');

@@ -16,6 +16,7 @@ import { EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE, dailyA8, exposureStatus } 
 import { FRONT_TRACK_CORRELATION, floorToSeat } from '../physics/seat';
 import { mailRepository, type QueuedMail } from '../mail/repository';
 import { esc } from '../mail/templates';
+import { plusDays } from '../lib/days';
 
 export const EXPOSURE_CAUTION =
   'A screening estimate from a model of the vehicle floor above the front axle, carried to the seat by stated factors, not a measurement at the seat. Follow your local regulations and have a competent person assess drivers’ exposure before acting on it.';
@@ -65,7 +66,6 @@ export interface FrontDutyRow {
   floorToSeat: number;
 }
 
-const plusDays = (day: string, n: number) => new Date(Date.parse(`${day}T00:00:00Z`) + n * 86_400_000).toISOString().slice(0, 10);
 const r4 = (x: number) => Math.round(x * 1e4) / 1e4;
 
 /** Driver-days from front-axle duty rows (pure). */

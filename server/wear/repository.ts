@@ -12,32 +12,9 @@ import type { ObservationValue } from '../roads/current-roughness';
 import type { RoughnessSource } from '../db/models';
 import { estimatedDamping, type Prediction, type WearDayRow, type WearSummary } from './wear';
 
-/** Sequelize's SQLite text form of a date (`2026-11-30 12:00:00.000 +00:00`). */
-export function sqlDate(d: Date): string {
-  return d.toISOString().replace('T', ' ').replace('Z', ' +00:00');
-}
-
-/** The local calendar day of an instant in a time zone (YYYY-MM-DD). */
-export function localDay(d: Date, timeZone: string): string {
-  let f = dayFormats.get(timeZone);
-  if (!f) {
-    f = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' });
-    dayFormats.set(timeZone, f);
-  }
-  return f.format(d);
-}
-const dayFormats = new Map<string, Intl.DateTimeFormat>();
-
-/** The instant a local day starts in a time zone. */
-export function startOfLocalDay(day: string, timeZone: string): Date {
-  const guess = new Date(`${day}T00:00:00Z`);
-  // offset of the zone at that moment, from the difference of the formatted wall clock
-  const parts = new Intl.DateTimeFormat('en-US', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' })
-    .formatToParts(guess)
-    .reduce<Record<string, string>>((a, p) => ((a[p.type] = p.value), a), {});
-  const wall = Date.UTC(+parts.year, +parts.month - 1, +parts.day, +parts.hour, +parts.minute, +parts.second);
-  return new Date(guess.getTime() - (wall - guess.getTime()));
-}
+/** Day and time helpers, from the one days module (callers here import them from this file). */
+export { sqlStamp as sqlDate, localDay, startOfLocalDay } from '../lib/days';
+import { sqlStamp as sqlDate, localDay } from '../lib/days';
 
 export interface VehiclePlan {
   vehicleId: number;

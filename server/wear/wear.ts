@@ -121,12 +121,8 @@ export function accumulateDays(
   });
 }
 
-const DAY_MS = 86_400_000;
-const dayMs = (s: string) => Date.UTC(Number(s.slice(0, 4)), Number(s.slice(5, 7)) - 1, Number(s.slice(8, 10)));
-/** `day` plus `n` calendar days (YYYY-MM-DD, UTC arithmetic on dates). */
-export const plusDays = (day: string, n: number) => new Date(dayMs(day) + n * DAY_MS).toISOString().slice(0, 10);
-/** Calendar days from `from` to `to` (YYYY-MM-DD). */
-export const daysBetween = (from: string, to: string) => Math.round((dayMs(to) - dayMs(from)) / DAY_MS);
+export { plusDays, daysBetween } from '../lib/days';
+import { plusDays, daysBetween } from '../lib/days';
 
 /** `day` plus `n` calendar months (YYYY-MM-DD; the last day of a shorter month when the day does not exist). */
 export function addMonths(day: string, n: number): string {

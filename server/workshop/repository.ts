@@ -15,7 +15,8 @@ export const insert = async (sql: string, replacements: unknown[], transaction?:
   return row.id;
 };
 export const inTransaction = <T>(fn: (t: Transaction) => Promise<T>) => db().transaction(fn);
-export const stamp = (d: Date) => d.toISOString().replace('T', ' ').replace('Z', ' +00:00');
+/** Sequelize's SQLite text form of an instant, for the raw statements below. */
+export { sqlStamp as stamp } from '../lib/days';
 export const inList = (ids: number[]) => (ids.length ? ids.map((i) => Number(i)).join(',') : 'NULL');
 
 export interface FittedCornerRow {
