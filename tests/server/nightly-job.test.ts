@@ -2,48 +2,17 @@ import os from 'node:os';
 import { spawnSync } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
+import { startTestServer, type TestServer } from '../support/server';
+import { count, diffTables, dump, NIGHTLY_TEST_ENV } from '../support/nightly';
 import { ApiClient, DEMO } from '../support/client';
-import { run } from '../../jobs/nightly';
-import type { Db } from '../../server/db';
 import { sqlDate, wearDayFromDb, wearRepository, type WearDayDb } from '../../server/wear/repository';
 import { accumulateDays, daysBetween, levelsOf, predictionWindow, summarizeWear, type WearDayRow } from '../../server/wear/wear';
 
 /**
- * The nightly job end to end on the demo fleet: through the API, twice (idempotent), killed
- * halfway and rerun (crash-safe: same tables as one clean run), cancelled and rerun, with the
- * lock, and with e-mail through real SMTP to the built-in mail catcher.
+ * The nightly job end to end on the demo fleet: through the API, twice (idempotent), with the
+ * lock, and with e-mail through real SMTP to the built-in mail catcher. Its threads and its
+ * crash safety are checked in tests/jobs.
  */
-
-/** Tables and columns that legitimately differ between two databases holding the same state. */
-const SKIP_TABLES = new Set(['sessions', 'job_runs', 'job_locks', 'caught_mail', 'schema_migrations', 'sqlite_sequence']);
-const SKIP_COLUMNS = new Set(['created_at', 'updated_at', 'password_hash', 'file_path', 'message_id', 'job_run_id', 'created_by_run_id']);
-
-async function dump(db: Db): Promise<Record<string, unknown[]>> {
-  const tables = await db.sequelize.query<{ name: string }>(`SELECT name FROM sqlite_master WHERE type = 'table' ORDER BY name`, { type: QueryTypes.SELECT });
-  const out: Record<string, unknown[]> = {};
-  for (const { name } of tables) {
-    if (SKIP_TABLES.has(name)) continue;
-    const rows = await db.sequelize.query<Record<string, unknown>>(`SELECT * FROM "${name}" ORDER BY rowid`, { type: QueryTypes.SELECT });
-    out[name] = rows.map((r) => Object.fromEntries(Object.entries(r).filter(([k]) => !SKIP_COLUMNS.has(k))));
-  }
-  return out;
-}
-
-function diffTables(a: Record<string, unknown[]>, b: Record<string, unknown[]>): string[] {
-  const problems: string[] = [];
-  for (const t of new Set([...Object.keys(a), ...Object.keys(b)])) {
-    const x = JSON.stringify(a[t] ?? null);
-    const y = JSON.stringify(b[t] ?? null);
-    if (x !== y) {
-      const rowsA = a[t] ?? [];
-      const rowsB = b[t] ?? [];
-      const i = rowsA.findIndex((r, k) => JSON.stringify(r) !== JSON.stringify(rowsB[k]));
-      problems.push(`${t}: ${rowsA.length} vs ${rowsB.length} rows; first difference at row ${i}: ${JSON.stringify(rowsA[i])} vs ${JSON.stringify(rowsB[i])}`);
-    }
-  }
-  return problems;
-}
 
 async function waitForRun(c: ApiClient, id: number) {
   for (let i = 0; i < 600; i++) {
@@ -54,14 +23,13 @@ async function waitForRun(c: ApiClient, id: number) {
   throw new Error(`run ${id} did not finish`);
 }
 
-const count = async (db: Db, sql: string) => Number((await db.sequelize.query<{ n: number }>(sql, { type: QueryTypes.SELECT }))[0].n);
 
 let A: TestServer;
 let clean: Record<string, unknown[]>;
 let firstRun: { counts: Record<string, number> };
 
 beforeAll(async () => {
-  A = await startTestServer({ env: { NIGHTLY_BATCH_TRIPS: '400' } });
+  A = await startTestServer({ env: NIGHTLY_TEST_ENV });
 });
 afterAll(() => A?.stop());
 
@@ -268,24 +236,6 @@ describe('nightly job through the API', () => {
   });
 });
 
-describe('nightly job threads', () => {
-  // A ran on the default `auto` setting: at least one worker thread computes the duty.
-  for (const workers of ['0', '2']) {
-    it(`when the duty is computed on ${workers === '0' ? "the job's own thread" : `${workers} worker threads`}, then the tables equal those of the run on the default setting`, async () => {
-      const D = await startTestServer({ env: { NIGHTLY_BATCH_TRIPS: '400', NIGHTLY_WORKERS: workers } });
-      try {
-        expect(D.config.nightlyWorkers).toBe(Number(workers));
-        const r = await run({ db: D.db, config: D.config, log: D.log, mailer: D.mailer, now: TEST_NOW, trigger: 'test' });
-        expect(r.status, JSON.stringify(r.errors)).toBe('succeeded');
-        expect(r.counts.trips).toBe(firstRun.counts.trips);
-        expect(diffTables(clean, await dump(D.db))).toEqual([]);
-      } finally {
-        await D.stop();
-      }
-    }, 240_000);
-  }
-});
-
 describe('prediction inputs', () => {
   it("when the job accumulates wear days in SQL, then each day equals what accumulateDays gives from the damper's daily duty at its spec's road sensitivity", async () => {
     const repo = wearRepository(A.db.sequelize);
@@ -373,72 +323,3 @@ describe('prediction inputs', () => {
   });
 });
 
-describe('nightly job crash safety', () => {
-  it('when a run fails after one batch and is run again, then the tables equal those of one clean run', async () => {
-    const B = await startTestServer({ env: { NIGHTLY_BATCH_TRIPS: '400' } });
-    try {
-      const deps = { db: B.db, config: B.config, log: B.log, mailer: B.mailer, now: TEST_NOW, trigger: 'test' as const };
-      const crashed = await run({ ...deps, failAfterBatches: 1 });
-      expect(crashed.status).toBe('failed');
-      const left = await count(B.db, `SELECT COUNT(*) AS n FROM trips WHERE processed_at IS NULL`);
-      expect(left).toBeGreaterThan(0);
-      expect(crashed.counts.trips).toBeGreaterThan(0);
-      const again = await run(deps);
-      expect(again.status).toBe('succeeded');
-      expect(again.counts.trips).toBe(left);
-      expect(diffTables(clean, await dump(B.db))).toEqual([]);
-    } finally {
-      await B.stop();
-    }
-  }, 240_000);
-
-  it('when a run is cancelled while it writes wear history or predictions and run again, then the tables equal those of one clean run', async () => {
-    for (const phase of ['wear', 'predictions']) {
-      const E = await startTestServer({ env: { NIGHTLY_BATCH_TRIPS: '400' } });
-      try {
-        const deps = { db: E.db, config: E.config, log: E.log, mailer: E.mailer, now: TEST_NOW, trigger: 'test' as const };
-        const abort = new AbortController();
-        // small chunks, so that the demo's dampers take several and the cancel lands between two
-        const cancelled = await run({ ...deps, damperChunk: 40, signal: abort.signal, onProgress: (p, done) => p === phase && done > 0 && abort.abort() });
-        expect(cancelled.status, phase).toBe('cancelled');
-        if (phase === 'predictions') expect(await count(E.db, `SELECT COUNT(*) AS n FROM damper_predictions`)).toBeLessThan(firstRun.counts.predictions);
-        if (phase === 'wear') expect(await count(E.db, `SELECT COUNT(*) AS n FROM dampers WHERE wear_dirty_from IS NOT NULL`)).toBeGreaterThan(0);
-        const again = await run(deps);
-        expect(again.status).toBe('succeeded');
-        expect(diffTables(clean, await dump(E.db)), phase).toEqual([]);
-      } finally {
-        await E.stop();
-      }
-    }
-  }, 240_000);
-
-  it('when a run is cancelled through its signal and run again, then the tables equal those of one clean run; a user who turned the digest off gets none', async () => {
-    const C = await startTestServer({ env: { NIGHTLY_BATCH_TRIPS: '400' } });
-    try {
-      const deps = { db: C.db, config: C.config, log: C.log, mailer: C.mailer, now: TEST_NOW, trigger: 'test' as const };
-      const abort = new AbortController();
-      const cancelled = await run({ ...deps, signal: abort.signal, onProgress: (phase, done) => phase === 'duty' && done > 0 && abort.abort() });
-      expect(cancelled.status).toBe('cancelled');
-      expect(cancelled.counts.batches).toBe(1);
-      const again = await run(deps);
-      expect(again.status).toBe('succeeded');
-      expect(diffTables(clean, await dump(C.db))).toEqual([]);
-
-      // preferences: the manager turns the digest off; a later day makes scheduled inspections due
-      const c = new ApiClient(C.url);
-      await c.login(DEMO.manager);
-      const off = await c.json<{ preferences: Record<string, boolean> }>('PATCH', '/api/account/notifications', { inspectionDigest: false });
-      expect(off.body.preferences).toEqual({ inspectionDigest: false, rideReports: true, assignments: true });
-      const bad = await c.json('PATCH', '/api/account/notifications', {});
-      expect(bad.status).toBe(400);
-      const before = await count(C.db, `SELECT COUNT(*) AS n FROM mail_messages WHERE kind = 'digest'`);
-      const later = await run({ ...deps, now: new Date('2026-12-20T12:00:00Z') });
-      expect(later.status).toBe('succeeded');
-      expect(later.counts.inspectionsNowDue + later.counts.inspectionsNowOverdue).toBeGreaterThan(0);
-      expect(await count(C.db, `SELECT COUNT(*) AS n FROM mail_messages WHERE kind = 'digest'`)).toBe(before);
-      expect(await count(C.db, `SELECT COUNT(*) AS n FROM inspections WHERE status IN ('due','overdue') AND notified_status IS NOT status`)).toBe(0);
-    } finally {
-      await C.stop();
-    }
-  }, 300_000);
-});

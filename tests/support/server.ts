@@ -1,3 +1,4 @@
+import crypto from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -28,12 +29,56 @@ export interface TestServer {
 /** A fixed "today" for tests, so seeded dates and due dates are stable. */
 export const TEST_NOW = new Date('2026-11-30T12:00:00Z');
 
+/** Every server source file, hashed: a template seeded by other code is never reused. */
+function serverCodeHash(): string {
+  const h = crypto.createHash('sha256');
+  const walk = (dir: string) => {
+    for (const e of fs.readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
+      const p = path.join(dir, e.name);
+      if (e.isDirectory()) walk(p);
+      else if (/\.(ts|mjs|json)$/.test(e.name)) h.update(p).update(fs.readFileSync(p));
+    }
+  };
+  walk(path.resolve('server'));
+  h.update(TEST_NOW.toISOString());
+  return h.digest('hex').slice(0, 16);
+}
+
+let templateDir: Promise<string> | null = null;
+
+/**
+ * A data folder holding the migrated database with the demo fleet seeded as of {@link TEST_NOW},
+ * shared by every test file of a run (and of later runs while the server code is unchanged).
+ * Seeded into a private folder, closed (so the WAL is folded into the database file) and moved
+ * into place by one rename, so concurrent test workers never see a half-written template.
+ */
+function demoTemplate(): Promise<string> {
+  templateDir ??= (async () => {
+    const dir = path.join(os.tmpdir(), `reboundry-demo-template-${serverCodeHash()}`);
+    if (fs.existsSync(path.join(dir, 'reboundry.sqlite'))) return dir;
+    const work = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-demo-seeding-'));
+    const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: work, SEED_DEMO: 'true', LOG_LEVEL: 'error' });
+    const db = await prepareDatabase(config, createLogger(config.logLevel), TEST_NOW);
+    await db.close();
+    try {
+      fs.renameSync(work, dir);
+    } catch {
+      // another worker put its template in place first: use that one
+      fs.rmSync(work, { recursive: true, force: true });
+    }
+    return dir;
+  })();
+  return templateDir;
+}
+
 /**
  * Boots the real app on port 0 against a fresh SQLite file in a temp folder (with the demo
  * fleet unless `seed: false`), serving the built client from dist/web when present.
  */
 export async function startTestServer(opts: { seed?: boolean; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string } = {}): Promise<TestServer> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-test-'));
+  // The demo fleet is seeded once per version of the server code and copied into each test's folder.
+  if (opts.seed !== false) fs.cpSync(await demoTemplate(), dataDir, { recursive: true });
   const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, SEED_DEMO: opts.seed === false ? 'false' : 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...opts.env });
   const log = createLogger(config.logLevel);
   const db = await prepareDatabase(config, log, TEST_NOW);

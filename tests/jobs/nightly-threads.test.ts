@@ -1,0 +1,30 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { startTestServer, TEST_NOW } from '../support/server';
+import { cleanRun, diffTables, dump, NIGHTLY_TEST_ENV, type CleanRun } from '../support/nightly';
+import { run } from '../../jobs/nightly';
+
+/** The nightly job's duty computed on its own thread and on worker threads gives the same tables. */
+
+let ref: CleanRun;
+beforeAll(async () => {
+  ref = await cleanRun();
+}, 240_000);
+
+describe('nightly job threads', () => {
+  // The reference ran on the default `auto` setting: at least one worker thread computes the duty.
+  for (const workers of ['0', '2']) {
+    it(`when the duty is computed on ${workers === '0' ? "the job's own thread" : `${workers} worker threads`}, then the tables equal those of the run on the default setting`, async () => {
+      const D = await startTestServer({ env: { ...NIGHTLY_TEST_ENV, NIGHTLY_WORKERS: workers } });
+      try {
+        expect(D.config.nightlyWorkers).toBe(Number(workers));
+        const r = await run({ db: D.db, config: D.config, log: D.log, mailer: D.mailer, now: TEST_NOW, trigger: 'test' });
+        expect(r.status, JSON.stringify(r.errors)).toBe('succeeded');
+        expect(r.counts.trips).toBe(ref.counts.trips);
+        expect(diffTables(ref.dump, await dump(D.db))).toEqual([]);
+      } finally {
+        await D.stop();
+      }
+    }, 240_000);
+  }
+});
+
