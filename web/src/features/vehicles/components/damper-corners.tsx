@@ -96,7 +96,7 @@ function DamperCard({ damper, fallback, ratedLifeKm, compact, threshold }: { dam
   // One life figure per damper, with what it rests on: the wear model's estimate once the wear run
   // has made one; until then the distance driven against the axle's rated life.
   const headline = estimated
-    ? { label: 'Life used', value: formatPercent(damper.lifeUsedFraction), fraction: damper.lifeUsedFraction ?? 0, basis: 'wear model, from its roads, speeds and loads' }
+    ? { label: 'Life used', value: formatPercent(damper.lifeUsedFraction), fraction: damper.lifeUsedFraction ?? 0, basis: compact ? 'wear model' : 'wear model, from its roads, speeds and loads' }
     : { label: 'Life used', value: formatPercent(kmShare), fraction: kmShare ?? 0, basis: ratedLifeKm ? `distance driven against the rated ${formatQuantity(ratedLifeKm, 'km')}; the wear run has not estimated it yet` : 'not estimated yet' };
   const barColour = { ok: 'bg-ok', watch: 'bg-watch', due: 'bg-due', overdue: 'bg-overdue', neutral: 'bg-slate/70' }[tone];
   const name = positionName(damper.position);
