@@ -69,6 +69,10 @@ describe('drivers on a phone (390 × 844)', () => {
     const sayWhere = page.getByText(/^Say where it was/);
     await page.getByRole('button', { name: 'Send report' }).click();
     await sayWhere.waitFor();
+    // focus goes to what answers it, which names the error to a screen reader
+    const focused = page.getByRole('button', { name: 'Use my position' });
+    expect(await focused.evaluate((el) => el === document.activeElement)).toBe(true);
+    expect(await focused.getAttribute('aria-describedby')).toBeTruthy();
     await page.getByRole('button', { name: 'Use my position' }).click();
     const snap = page.getByTestId('snap-result');
     await snap.waitFor();

@@ -62,6 +62,7 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
   const [sentId, setSentId] = useState<number | null>(null);
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
   const fileRef = useRef<HTMLInputElement>(null);
+  const formRef = useRef<HTMLFormElement>(null);
   const snapMutate = snap.mutate;
   const nearestReset = nearest.reset;
 
@@ -149,7 +150,12 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
     if (!draft.point) errors.position = 'Say where it was: use your position or tap the road on the map.';
     if (!draft.severity) errors.severity = 'Choose how bad it was.';
     setFieldErrors(errors);
-    if (Object.keys(errors).length) return;
+    if (Object.keys(errors).length) {
+      // to the first thing to answer: the place, else how bad it was
+      const first = errors.position ? formRef.current?.querySelector<HTMLElement>('[data-answers="position"]') : formRef.current?.querySelector<HTMLElement>('input[name="severity"]');
+      first?.focus();
+      return;
+    }
     create.mutate(
       {
         input: { lat: draft.point!.lat, lon: draft.point!.lon, positionSource: draft.positionSource, accuracyM: draft.accuracyM, severity: draft.severity!, felt: draft.felt, note: draft.note, reportedAt: draft.reportedAt ?? new Date().toISOString() },
@@ -192,6 +198,7 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
 
   return (
     <form
+      ref={formRef}
       className="flex flex-col gap-6"
       noValidate
       onSubmit={(e) => {
@@ -203,7 +210,7 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
 
       <fieldset className="flex flex-col gap-3">
         <legend className="mb-2 text-base font-semibold text-ink">1. Where was it?</legend>
-        <Button variant="secondary" size="lg" onClick={useMyPosition} busy={locating}>
+        <Button variant="secondary" size="lg" onClick={useMyPosition} busy={locating} data-answers="position" aria-describedby={fieldErrors.position ? 'position-error' : undefined}>
           {locating ? 'Finding your position…' : 'Use my position'}
         </Button>
         <p className="text-sm text-slate">…or tap the road on the map (only when parked).</p>
@@ -241,7 +248,7 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
               </Button>
             </div>
           ) : null}
-          {fieldErrors.position ? <p className="text-overdue">{fieldErrors.position}</p> : null}
+          {fieldErrors.position ? <p id="position-error" className="text-overdue">{fieldErrors.position}</p> : null}
         </div>
       </fieldset>
 
