@@ -22,7 +22,7 @@ export const EXPOSURE_CAUTION =
   'A screening estimate from a model of the vehicle floor above the front axle, carried to the seat by stated factors, not a measurement at the seat. Follow your local regulations and have a competent person assess drivers’ exposure before acting on it.';
 
 export const EXPOSURE_METHOD =
-  `Front-axle floor acceleration of each trip (the driver sits over the front axle), carried to the seat: a_w = SEAT · cab · √((1 + ρ)/2) · a_floor, with the spec's SEAT value (default by vehicle class: 0.95 conventional seat, 0.75 suspension seat; Griffin 1990, from memory), its cab suspension factor (1 when none is entered) and the left/right wheel tracks taken as correlated ρ = ${FRONT_TRACK_CORRELATION} (assumed; Cebon 1999); T = trip duration; A(8) = √(Σ a_w²·T / 8 h) (Directive 2002/44/EC, vertical, k = 1).`;
+  `Front-axle floor acceleration of each trip (the driver sits over the front axle), carried to the seat: a_w = SEAT · cab · √((1 + ρ)/2) · a_floor, with the spec's SEAT value (default by vehicle class: 0.95 conventional seat, 0.75 suspension seat; typical textbook values, Griffin 1990), its cab suspension factor (1 when none is entered) and the left/right wheel tracks taken as correlated ρ = ${FRONT_TRACK_CORRELATION} (assumed; Cebon 1999); T = trip duration; A(8) = √(Σ a_w²·T / 8 h) (Directive 2002/44/EC, vertical, k = 1).`;
 
 /** Days of history the nightly step recomputes (trips imported late land in this window). */
 export const EXPOSURE_WINDOW_DAYS = 60;

@@ -55,8 +55,9 @@ export function registerRideReportRoutes(api: Router, ctx: RideContext) {
   });
 
   api.post('/ride-reports/snap', allow('driver', 'manager'), async (req, res) => {
-    const p = parse(position.strict(), req.body, 'position');
-    res.json(await rideReportsService.snap(p.lat, p.lon));
+    // `nearest: true` answers with the nearest route however far it is (withinReach says whether a report could be filed there)
+    const p = parse(position.extend({ nearest: z.boolean({ message: 'must be true or false' }).optional() }).strict(), req.body, 'position');
+    res.json(await rideReportsService.snap(p.lat, p.lon, { nearest: p.nearest }));
   });
 
   api.post('/ride-reports', allow('driver'), photoUpload, async (req, res) => {

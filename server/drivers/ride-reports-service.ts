@@ -38,12 +38,17 @@ export interface NewReportInput {
 export const rideReportsService = {
   estimateRule: ESTIMATE_RULE_TEXT,
 
-  /** The nearest route segment to a position, refused beyond {@link MAX_SNAP_M}. */
-  async snap(lat: number, lon: number) {
+  /**
+   * The nearest route segment to a position, refused beyond {@link MAX_SNAP_M} — unless `nearest`
+   * asks for it anyway (to show a driver far from every route which one is closest; a report
+   * is still only filed within reach).
+   */
+  async snap(lat: number, lon: number, opts: { nearest?: boolean } = {}) {
     const lines = await rideReportsRepository.segmentLines();
     const hit = snapToSegments([lon, lat] as LonLat, lines);
     if (!hit) throw AppError.badRequest('There are no routes to report on yet.', { position: 'no route segments exist' });
-    if (hit.distanceM > MAX_SNAP_M) {
+    const withinReach = hit.distanceM <= MAX_SNAP_M;
+    if (!withinReach && !opts.nearest) {
       // in km once it is a kilometre or more ("159 km", not "159403 m")
       const far = hit.distanceM >= 1000 ? `${(hit.distanceM / 1000).toFixed(hit.distanceM < 10_000 ? 1 : 0)} km` : `${Math.round(hit.distanceM)} m`;
       throw new AppError(422, 'too_far', `That place is ${far} from the nearest route we know; reports must be within ${MAX_SNAP_M} m of a route. Move the pin onto the road you drove.`, {
@@ -51,7 +56,7 @@ export const rideReportsService = {
       });
     }
     const seg = (await rideReportsRepository.segmentInfo(hit.segmentId))!;
-    return { segment: seg, point: { lat: hit.point[1], lon: hit.point[0] }, distanceM: round(hit.distanceM), maxDistanceM: MAX_SNAP_M };
+    return { segment: seg, point: { lat: hit.point[1], lon: hit.point[0] }, distanceM: round(hit.distanceM), maxDistanceM: MAX_SNAP_M, withinReach };
   },
 
   async create(user: SessionUser, input: NewReportInput, photo: Buffer | null, ctx: RideContext) {

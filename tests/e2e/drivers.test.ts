@@ -3,6 +3,7 @@ import { QueryTypes } from 'sequelize';
 import type { Browser } from 'playwright-core';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
+import { axeViolations } from '../support/axe';
 import { DEMO, expectHeading, signIn } from './helpers';
 import { refreshExposure } from '../../server/drivers/exposure';
 
@@ -64,15 +65,38 @@ describe('drivers on a phone (390 × 844)', () => {
     await expect.poll(() => page.getByRole('radio', { name: /Severe/ }).isChecked()).toBe(true);
     expect(await page.getByRole('checkbox', { name: 'Potholes' }).isChecked()).toBe(true);
 
+    // sending without a place asks for one; finding the position answers it
+    const sayWhere = page.getByText(/^Say where it was/);
+    await page.getByRole('button', { name: 'Send report' }).click();
+    await sayWhere.waitFor();
+    // focus goes to what answers it, which names the error to a screen reader
+    const focused = page.getByRole('button', { name: 'Use my position' });
+    expect(await focused.evaluate((el) => el === document.activeElement)).toBe(true);
+    expect(await focused.getAttribute('aria-describedby')).toBeTruthy();
     await page.getByRole('button', { name: 'Use my position' }).click();
     const snap = page.getByTestId('snap-result');
     await snap.waitFor();
+    expect(await sayWhere.count()).toBe(0);
     expect(await snap.innerText()).toContain(seg!.route_name);
     expect(await snap.innerText()).toMatch(/segment \d+/);
     await page.getByLabel(/Anything else/).fill('Deep hole on the left after the bend');
     await page.locator('input[type=file]').setInputFiles({ name: 'hole.png', mimeType: 'image/png', buffer: PNG });
     await page.getByText('Photo chosen: hole.png').waitFor();
-    await page.screenshot({ path: screenshotPath('drivers-phone-report-form'), fullPage: true });
+    // the send bar (pinned while the form runs on below it) and the bottom menu together leave
+    // the form most of the screen
+    await page.evaluate(() => window.scrollTo(0, 0));
+    const pinned = await page.evaluate(() => {
+      const bar = document.querySelector('form .sticky')!.getBoundingClientRect();
+      const menu = [...document.querySelectorAll('nav[aria-label="Main"]')].map((n) => n.getBoundingClientRect()).find((r) => r.height > 0)!;
+      return { barTop: bar.top, barBottom: bar.bottom, menuTop: menu.top, menuBottom: menu.bottom, screen: window.innerHeight };
+    });
+    expect(pinned.screen).toBe(844);
+    expect(pinned.menuBottom).toBe(844);
+    expect(pinned.barBottom).toBeLessThanOrEqual(pinned.menuTop + 0.5);
+    expect(pinned.screen - pinned.barTop, JSON.stringify(pinned)).toBeLessThanOrEqual(120);
+    expect(await axeViolations(page)).toEqual([]);
+    await page.screenshot({ path: screenshotPath('drivers-phone-report-form') });
+    await page.screenshot({ path: screenshotPath('drivers-phone-report-form-full'), fullPage: true });
     await page.getByRole('button', { name: 'Send report' }).click();
     await page.getByText('Report sent').waitFor();
     await page.screenshot({ path: screenshotPath('drivers-phone-report-sent') });
@@ -84,6 +108,11 @@ describe('drivers on a phone (390 × 844)', () => {
 
     await page.goto(`${server.url}/my-reports`);
     await page.getByText('Waiting for review').first().waitFor();
+    // the driver sees the photo they sent, loaded (the photo address answers only its own driver)
+    const mine = page.getByTestId('my-report').first().getByRole('img', { name: /Your photo with the report on/ });
+    await mine.waitFor();
+    await expect.poll(() => mine.evaluate((img) => (img as HTMLImageElement).complete && (img as HTMLImageElement).naturalWidth)).toBe(1);
+    expect(await axeViolations(page)).toEqual([]);
     await page.screenshot({ path: screenshotPath('drivers-phone-my-reports-new'), fullPage: true });
 
     // --- the manager reviews (also on a phone)
@@ -121,6 +150,38 @@ describe('drivers on a phone (390 × 844)', () => {
     await page.screenshot({ path: screenshotPath('drivers-phone-my-reports-accepted'), fullPage: true });
     await driverCtx.close();
     await mgrCtx.close();
+  });
+
+  it('when a driver is far from every route, then the distance reads in km and the nearest route can be shown on the map and picked', async () => {
+    const ctx = await newContext(browser, 'phone', server.url);
+    await ctx.grantPermissions(['geolocation'], { origin: server.url });
+    // central London: over 100 km from the demo fleet's roads
+    await ctx.setGeolocation({ latitude: 51.5, longitude: -0.12, accuracy: 10 });
+    const page = await ctx.newPage();
+    await signIn(page, server.url, DEMO.driver);
+    await page.goto(`${server.url}/report`);
+    await expectHeading(page, 'Report a rough stretch');
+    await page.getByRole('button', { name: 'Use my position' }).click();
+    const refused = page.getByText(/^That place is .* from the nearest route we know/);
+    await refused.waitFor();
+    const said = await refused.innerText();
+    expect(said).toMatch(/is \d{2,3} km from/);
+    expect(said).not.toMatch(/\d{4,} m\b/);
+    await page.getByRole('button', { name: 'Show the nearest route' }).click();
+    const panel = page.getByTestId('nearest-route');
+    await panel.waitFor();
+    const routeName = await panel.locator('strong').innerText();
+    expect(routeName).not.toBe('');
+    expect(await panel.innerText()).toMatch(/\d{2,3}\s+km away/);
+    expect(await axeViolations(page)).toEqual([]);
+    await page.screenshot({ path: screenshotPath('drivers-phone-report-nearest-route') });
+    await panel.getByRole('button', { name: `Report it on ${routeName}` }).click();
+    const snap = page.getByTestId('snap-result');
+    await snap.waitFor();
+    expect(await snap.innerText()).toContain(routeName);
+    expect(await refused.count()).toBe(0);
+    expect(await panel.count()).toBe(0);
+    await ctx.close();
   });
 
   it('when a driver opens their exposure, then the chart shows the action and limit values with the screening caution', async () => {

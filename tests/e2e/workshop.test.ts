@@ -4,6 +4,7 @@ import { QueryTypes } from 'sequelize';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
 import { run as runNightly } from '../../jobs/nightly';
+import { axeViolations } from '../support/axe';
 import { DEMO, expectHeading, signIn } from './helpers';
 
 let server: TestServer;
@@ -126,7 +127,36 @@ describe('workshop', () => {
     await mec.getByLabel('Date', { exact: true }).fill(TEST_NOW.toISOString().slice(0, 10));
     await mec.getByRole('button', { name: 'Save work record and close inspection' }).click();
     await mec.getByRole('heading', { level: 1, name: /Work record \d+/ }).waitFor();
+    await mec.getByText('The work record is saved').waitFor();
+    // the print view carries the evidence: the lane's readings at its plate amplitude, the findings and the photo
+    const sheet = mec.getByRole('article', { name: /Work record \d+/ });
+    const lane = sheet.getByRole('table', { name: 'Test-lane results and findings' });
+    await lane.waitFor();
+    await sheet.getByText(/plate amplitude of 3 mm zero-to-peak \(6 mm stroke\)/).waitFor();
+    const fl = await lane.getByRole('row', { name: /^FL/ }).innerText();
+    expect(fl).toMatch(/18\.0/);
+    expect(fl).toMatch(/30\.0 \(fail\)/);
+    expect(fl).toContain('Oil on the damper body');
+    expect(fl).toContain('Replace');
+    expect(await lane.getByRole('row', { name: /^FR/ }).innerText()).toMatch(/41\.0/);
+    const photo = sheet.getByRole('img', { name: /Photo from inspection #\d+: front-left-leak\.png/ });
+    await photo.waitFor();
+    await expect.poll(() => photo.evaluate((img) => (img as HTMLImageElement).complete && (img as HTMLImageElement).naturalWidth)).toBe(1);
+    expect(await axeViolations(mec)).toEqual([]);
     await mec.screenshot({ path: screenshotPath('mechanic-tablet-work-record'), fullPage: true });
+    // as printed: only the sheet, without the notice and the print button
+    await mec.emulateMedia({ media: 'print' });
+    expect(await mec.getByText('The work record is saved').isVisible()).toBe(false);
+    expect(await sheet.getByRole('button', { name: 'Print' }).isVisible()).toBe(false);
+    expect(await lane.isVisible()).toBe(true);
+    await mec.screenshot({ path: screenshotPath('mechanic-print-work-record'), fullPage: true });
+    await mec.emulateMedia({ media: 'screen' });
+    // opened again later by its address, it does not claim to have just been saved
+    const recordUrl = mec.url();
+    await mec.goto(`${server.url}/workshop`);
+    await mec.goto(recordUrl);
+    await lane.waitFor();
+    expect(await mec.getByText('The work record is saved').count()).toBe(0);
 
     // The manager sees the vehicle's new state and the forecast move.
     await mgr.goto(`${server.url}/vehicles/${target.vehicleId}`);

@@ -93,6 +93,25 @@ describe('snapping to the nearest segment', () => {
     // thousands of kilometres away: said in km, not in metres
     expect(r.body.error.fields.position).toMatch(/^is [\d,]+ km from the nearest route/);
   });
+
+  it('when a driver far from every route asks for the nearest one anyway, then it names it and the distance and says it is out of reach; near a route it is within reach', async () => {
+    // central London: well away from the demo fleet's roads
+    const far = { lat: 51.5, lon: -0.12 };
+    const r = await driver.json<{ segment: { id: number; routeName: string }; point: { lat: number; lon: number }; distanceM: number; withinReach: boolean }>('POST', '/api/ride-reports/snap', { ...far, nearest: true });
+    expect(r.status).toBe(200);
+    expect(r.body.withinReach).toBe(false);
+    expect(r.body.segment.routeName).not.toBe('');
+    expect(r.body.distanceM).toBeGreaterThan(10_000);
+    // the point it names is on the road: snapping it again finds it within reach, at (almost) no distance
+    const again = await driver.json<{ distanceM: number; withinReach: boolean }>('POST', '/api/ride-reports/snap', r.body.point);
+    expect(again.status).toBe(200);
+    expect(again.body.withinReach).toBe(true);
+    expect(again.body.distanceM).toBeLessThan(1);
+    // without the flag the same place is refused, as before
+    expect((await driver.json('POST', '/api/ride-reports/snap', far)).status).toBe(422);
+    // the flag is checked
+    expect((await driver.json('POST', '/api/ride-reports/snap', { ...far, nearest: 'yes' })).status).toBe(400);
+  });
 });
 
 describe('ride reports: filing, access, decisions', () => {

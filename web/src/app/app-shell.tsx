@@ -126,7 +126,7 @@ export function AppShell() {
                 to={item.path}
                 className={({ isActive }) =>
                   cx(
-                    'flex min-h-16 flex-col items-center justify-center gap-1 px-1 text-xs font-medium',
+                    'flex min-h-14 flex-col items-center justify-center gap-0.5 px-1 text-xs font-medium',
                     'border-t-2',
                     isActive ? 'border-accent text-ink' : 'border-transparent text-slate',
                   )

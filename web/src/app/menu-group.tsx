@@ -61,7 +61,7 @@ export function MenuGroup({ label, pages, active, open, onOpenChange, placement 
         className={
           bottom
             ? cx(
-                'flex min-h-16 w-full flex-col items-center justify-center gap-1 border-t-2 px-1 text-xs font-medium',
+                'flex min-h-14 w-full flex-col items-center justify-center gap-0.5 border-t-2 px-1 text-xs font-medium',
                 active ? 'border-accent' : 'border-transparent',
                 active || open ? 'text-ink' : 'text-slate',
                 open && 'bg-paper',

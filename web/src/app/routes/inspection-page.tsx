@@ -8,6 +8,7 @@ import { useWorkshopOptions } from '@/features/workshop/api/get-workshop-options
 import { InspectionRecord } from '@/features/workshop/components/inspection-record';
 import { formatDate, formatNumber, isoDate } from '@/lib/format';
 import { pages, workRecordPath } from '../navigation';
+import type { WorkRecordPageState } from './work-record-page';
 
 /** One inspection: the mechanic records test-lane results, photos and the work done. */
 export function InspectionPage() {
@@ -34,7 +35,7 @@ export function InspectionPage() {
         badges={<InspectionStatusBadge status={i.status}> · due {formatDate(i.dueDate)}</InspectionStatusBadge>}
         description={`${i.reason} Odometer on file ${formatNumber(i.vehicle.odometerKm)} km.`}
       />
-      <InspectionRecord inspection={i} options={options.data} today={isoDate(new Date())} onWorkSaved={(w) => void navigate(workRecordPath(w))} />
+      <InspectionRecord inspection={i} options={options.data} today={isoDate(new Date())} onWorkSaved={(w) => void navigate(workRecordPath(w), { state: { justSaved: true } satisfies WorkRecordPageState })} />
     </>
   );
 }

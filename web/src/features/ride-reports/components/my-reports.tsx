@@ -5,6 +5,7 @@ import { LoadingState } from '@/components/ui/loading-state';
 import { formatDateTime, formatNumber } from '@/lib/format';
 import { useRideReports } from '../api/get-ride-reports';
 import { useRideScale } from '../api/get-ride-scale';
+import { photoUrl } from '../api/ride-report-keys';
 import { ReportStatusBadge, SeverityBadge } from './report-status';
 
 /** A driver's own reports, newest first, with what became of each. */
@@ -38,6 +39,11 @@ export function MyReports({ reportPath }: { reportPath: string }) {
             ))}
           </div>
           {r.note ? <p className="mt-2 text-sm text-ink">“{r.note}”</p> : null}
+          {r.hasPhoto ? (
+            <a href={photoUrl(r.id)} target="_blank" rel="noreferrer" className="mt-2 block w-fit rounded">
+              <img src={photoUrl(r.id)} alt={`Your photo with the report on ${r.routeName}, ${formatDateTime(r.reportedAt)}`} loading="lazy" className="h-28 max-w-full rounded border border-line object-cover" />
+            </a>
+          ) : null}
           {r.status === 'accepted' ? (
             <p className="mt-2 text-sm text-ink">Accepted{r.decidedByName ? ` by ${r.decidedByName}` : ''}. It is now part of the road record: this segment’s roughness class is {r.segmentClass ?? '—'}{r.classBefore && r.classBefore !== r.segmentClass ? ` (was ${r.classBefore})` : ''}.</p>
           ) : null}

@@ -1,7 +1,7 @@
 import 'leaflet/dist/leaflet.css';
-import { useEffect } from 'react';
+import { useEffect, useMemo } from 'react';
 import L from 'leaflet';
-import { CircleMarker, MapContainer, useMap, useMapEvents } from 'react-leaflet';
+import { CircleMarker, MapContainer, Polyline, useMap, useMapEvents } from 'react-leaflet';
 import { BaseLayer } from '@/components/map/base-layer';
 import { SegmentLayer, useSharedCanvas } from '@/components/map/segment-layer';
 import { ScaleBar } from '@/components/map/map-context';
@@ -29,10 +29,35 @@ function FollowPoint({ point, lines }: { point: { lat: number; lon: number } | n
   return null;
 }
 
+/** Brings a highlighted route into view when it is first shown. */
+function FitRoute({ lines }: { lines: [number, number][][] | null }) {
+  const map = useMap();
+  useEffect(() => {
+    if (!lines?.length) return;
+    const b = L.latLngBounds([]);
+    for (const line of lines) for (const [lon, lat] of line) b.extend([lat, lon]);
+    if (b.isValid()) map.fitBounds(b, { padding: [16, 16] });
+  }, [map, lines]);
+  return null;
+}
+
+interface PlacePickerProps {
+  point: { lat: number; lon: number } | null;
+  snapped: { lat: number; lon: number } | null;
+  onPick: (lat: number, lon: number) => void;
+  /** A route to draw outlined and bring into view (the nearest one, for a place far from every route). */
+  highlightRouteId?: number | null;
+}
+
 /** A small map of our roads: tap where the rough stretch is. Shows the reported and the snapped point. */
-export function PlacePicker({ point, snapped, onPick }: { point: { lat: number; lon: number } | null; snapped: { lat: number; lon: number } | null; onPick: (lat: number, lon: number) => void }) {
+export function PlacePicker({ point, snapped, onPick, highlightRouteId = null }: PlacePickerProps) {
   const lines = useRoadLines();
   const canvas = useSharedCanvas();
+  const segments = lines.data?.segments;
+  const highlighted = useMemo(
+    () => (segments && highlightRouteId !== null ? segments.coords.filter((_, i) => segments.routeId[i] === highlightRouteId) : null),
+    [segments, highlightRouteId],
+  );
   if (lines.isPending) return <LoadingState label="Loading the road map…" />;
   if (!lines.data) return <p className="text-sm text-slate">The map could not be loaded. Use your position instead.</p>;
   return (
@@ -43,6 +68,12 @@ export function PlacePicker({ point, snapped, onPick }: { point: { lat: number; 
         <SegmentLayer data={lines.data.segments} weight={5} />
         <TapToPlace onPick={onPick} />
         <FollowPoint point={point} lines={lines.data.segments.coords} />
+        {highlighted ? (
+          <>
+            <Polyline positions={highlighted.map((l) => l.map(([lon, lat]) => [lat, lon] as [number, number]))} pathOptions={{ color: '#D9622B', weight: 12, opacity: 0.9, interactive: false }} eventHandlers={{ add: (e) => (e.target as L.Polyline).bringToBack() }} />
+            <FitRoute lines={highlighted} />
+          </>
+        ) : null}
         {point ? <CircleMarker center={[point.lat, point.lon]} radius={7} pathOptions={{ color: '#1E2A32', weight: 2, fillColor: '#FAF8F3', fillOpacity: 1 }} /> : null}
         {snapped ? <CircleMarker center={[snapped.lat, snapped.lon]} radius={6} pathOptions={{ color: '#D9622B', weight: 3, fillColor: '#D9622B', fillOpacity: 0.9 }} /> : null}
       </MapContainer>

@@ -50,6 +50,8 @@ function dataUrlToFile(d: { name: string; dataUrl: string }): File {
 export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
   const scale = useRideScale();
   const snap = useSnapPosition();
+  // for a place far from every route: which route is nearest, on request
+  const nearest = useSnapPosition();
   const create = useCreateRideReport();
   const [draft, setDraft] = useState<Draft>(loadDraft);
   const [photo, setPhoto] = useState<File | null>(() => (draft.photo ? dataUrlToFile(draft.photo) : null));
@@ -60,7 +62,9 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
   const [sentId, setSentId] = useState<number | null>(null);
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
   const fileRef = useRef<HTMLInputElement>(null);
+  const formRef = useRef<HTMLFormElement>(null);
   const snapMutate = snap.mutate;
+  const nearestReset = nearest.reset;
 
   useEffect(() => {
     try {
@@ -77,10 +81,11 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
 
   // Snap the chosen place to our roads whenever it changes (also for a restored draft).
   useEffect(() => {
-    if (!draft.point) return;
     setSnapped(null);
+    nearestReset();
+    if (!draft.point) return;
     snapMutate(draft.point, { onSuccess: (r) => setSnapped(r) });
-  }, [draft.point, snapMutate]);
+  }, [draft.point, snapMutate, nearestReset]);
 
   const update = (patch: Partial<Draft>) => {
     setDraft((d) => ({ ...d, ...patch, reportedAt: d.reportedAt ?? new Date().toISOString() }));
@@ -145,7 +150,12 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
     if (!draft.point) errors.position = 'Say where it was: use your position or tap the road on the map.';
     if (!draft.severity) errors.severity = 'Choose how bad it was.';
     setFieldErrors(errors);
-    if (Object.keys(errors).length) return;
+    if (Object.keys(errors).length) {
+      // to the first thing to answer: the place, else how bad it was
+      const first = errors.position ? formRef.current?.querySelector<HTMLElement>('[data-answers="position"]') : formRef.current?.querySelector<HTMLElement>('input[name="severity"]');
+      first?.focus();
+      return;
+    }
     create.mutate(
       {
         input: { lat: draft.point!.lat, lon: draft.point!.lon, positionSource: draft.positionSource, accuracyM: draft.accuracyM, severity: draft.severity!, felt: draft.felt, note: draft.note, reportedAt: draft.reportedAt ?? new Date().toISOString() },
@@ -183,9 +193,12 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
 
   const hasDraft = draft.point !== null || draft.severity !== null || draft.note !== '' || draft.felt.length > 0;
   const snapError = snap.error && isApiError(snap.error) ? snap.error.message : snap.error ? 'The place could not be checked.' : null;
+  const tooFar = !!snap.error && isApiError(snap.error) && snap.error.code === 'too_far';
+  const near = tooFar ? nearest.data ?? null : null;
 
   return (
     <form
+      ref={formRef}
       className="flex flex-col gap-6"
       noValidate
       onSubmit={(e) => {
@@ -197,11 +210,16 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
 
       <fieldset className="flex flex-col gap-3">
         <legend className="mb-2 text-base font-semibold text-ink">1. Where was it?</legend>
-        <Button variant="secondary" size="lg" onClick={useMyPosition} busy={locating}>
+        <Button variant="secondary" size="lg" onClick={useMyPosition} busy={locating} data-answers="position" aria-describedby={fieldErrors.position ? 'position-error' : undefined}>
           {locating ? 'Finding your position…' : 'Use my position'}
         </Button>
         <p className="text-sm text-slate">…or tap the road on the map (only when parked).</p>
-        <PlacePicker point={draft.point} snapped={snapped?.point ?? null} onPick={(lat, lon) => update({ point: { lat, lon }, positionSource: 'map', accuracyM: null })} />
+        <PlacePicker
+          point={draft.point}
+          snapped={snapped?.point ?? near?.point ?? null}
+          highlightRouteId={near?.segment.routeId ?? null}
+          onPick={(lat, lon) => update({ point: { lat, lon }, positionSource: 'map', accuracyM: null })}
+        />
         <div aria-live="polite" className="text-sm">
           {geoError ? <p className="text-overdue">{geoError}</p> : null}
           {snap.isPending ? <p className="text-slate">Finding the nearest road…</p> : null}
@@ -213,7 +231,24 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
             </p>
           ) : null}
           {snapError ? <p className="text-overdue">{snapError}</p> : null}
-          {fieldErrors.position ? <p className="text-overdue">{fieldErrors.position}</p> : null}
+          {tooFar && !near ? (
+            <Button className="mt-2 w-full" busy={nearest.isPending} onClick={() => draft.point && nearest.mutate({ ...draft.point, nearest: true })}>
+              Show the nearest route
+            </Button>
+          ) : null}
+          {tooFar && nearest.error ? <p className="mt-2 text-overdue">The nearest route could not be found just now. Tap the road on the map instead.</p> : null}
+          {near ? (
+            <div data-testid="nearest-route" className="mt-2 flex flex-col gap-2 rounded-md border border-accent bg-surface p-2 text-ink">
+              <p>
+                The nearest route is <strong>{near.segment.routeName}</strong>, {formatDistance(near.distanceM)} away: it is outlined on the map, with its nearest point
+                marked. If that is where it was, report it there; otherwise tap the road on the map.
+              </p>
+              <Button variant="secondary" onClick={() => update({ point: near.point, positionSource: 'map', accuracyM: null })}>
+                Report it on {near.segment.routeName}
+              </Button>
+            </div>
+          ) : null}
+          {fieldErrors.position ? <p id="position-error" className="text-overdue">{fieldErrors.position}</p> : null}
         </div>
       </fieldset>
 
@@ -268,11 +303,13 @@ export function ReportForm({ myReportsPath }: { myReportsPath: string }) {
         </Notice>
       ) : null}
 
-      <div className="sticky bottom-[calc(4.5rem+env(safe-area-inset-bottom))] z-[450] -mx-4 flex gap-2 border-t border-line bg-paper/95 px-4 py-3 backdrop-blur md:bottom-0 md:mx-0">
-        <Button variant="quiet" size="lg" onClick={clear} disabled={!hasDraft || create.isPending}>
+      {/* Sits right on the phone's bottom menu (3.5rem and its 1px top line, app-shell.tsx); the two
+          together stay under 120 px so the form keeps most of the screen. */}
+      <div className="sticky bottom-[calc(3.5rem+1px+env(safe-area-inset-bottom))] z-[450] -mx-4 flex gap-2 border-t border-line bg-paper/95 px-4 py-1.5 backdrop-blur md:bottom-0 md:mx-0 md:py-3">
+        <Button variant="quiet" onClick={clear} disabled={!hasDraft || create.isPending}>
           Clear
         </Button>
-        <Button type="submit" variant="primary" size="lg" className="flex-1" busy={create.isPending}>
+        <Button type="submit" variant="primary" className="flex-1" busy={create.isPending}>
           Send report
         </Button>
       </div>

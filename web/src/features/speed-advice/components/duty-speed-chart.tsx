@@ -14,8 +14,8 @@ export function DutySpeedChart({ advice }: { advice: SpeedAdvice }) {
           <LineChart data={c.points} margin={{ top: 12, right: 8, bottom: 20, left: 4 }}>
             <CartesianGrid stroke="#0001" />
             <XAxis dataKey="speedKmh" type="number" domain={advice.rangeKmh} tickCount={7} label={{ value: 'speed [km/h]', position: 'insideBottom', offset: -12, fontSize: 12 }} />
-            <YAxis yAxisId="a" domain={[0, top]} width={40} tickFormatter={(v: number) => formatNumber(v, 1)} label={{ value: 'a_w [m/s²]', angle: -90, position: 'insideLeft', fontSize: 12, dy: 30 }} />
-            <YAxis yAxisId="p" orientation="right" width={44} tickFormatter={(v: number) => formatNumber(v, 0)} label={{ value: 'power [W]', angle: 90, position: 'insideRight', fontSize: 12, dy: -20 }} />
+            <YAxis yAxisId="a" domain={[0, top]} width={50} tickFormatter={(v: number) => formatNumber(v, 1)} label={{ value: 'a_w [m/s²]', angle: -90, position: 'insideLeft', offset: 0, dx: 8, fontSize: 12, textAnchor: 'middle' }} />
+            <YAxis yAxisId="p" orientation="right" width={54} tickFormatter={(v: number) => formatNumber(v, 0)} label={{ value: 'power [W]', angle: 90, position: 'insideRight', offset: 0, dx: -8, fontSize: 12, textAnchor: 'middle' }} />
             <Tooltip formatter={(v, name) => (typeof v === 'number' ? (String(name).startsWith('Weighted') ? `${formatNumber(v, 2)} m/s²` : `${formatNumber(v, 0)} W`) : v)} labelFormatter={(v) => `${v} km/h`} />
             <ReferenceLine yAxisId="a" y={advice.comfort.limit} stroke="#1E2A32" strokeDasharray="6 3" label={{ value: `comfort ${advice.comfort.limit} m/s²`, position: 'insideTopLeft', fontSize: 11 }} />
             <ReferenceLine yAxisId="p" y={advice.powerLimitW} stroke="#D9622B" strokeDasharray="2 3" label={{ value: `power ${advice.powerLimitW} W`, position: 'insideBottomRight', fontSize: 11 }} />

@@ -93,10 +93,11 @@ function DamperCard({ damper, fallback, ratedLifeKm, compact, threshold }: { dam
   const bands = wearBands(threshold);
   // km it ran before the trips on record: included in life used at an estimated rate
   const opening = estimated && damper.openingKm ? damper.openingKm : 0;
-  // Until the wear run has estimated it, the distance against the rated life is the guide.
+  // One life figure per damper, with what it rests on: the wear model's estimate once the wear run
+  // has made one; until then the distance driven against the axle's rated life.
   const headline = estimated
-    ? { label: 'Life used', value: formatPercent(damper.lifeUsedFraction), fraction: damper.lifeUsedFraction ?? 0 }
-    : { label: 'Of rated km', value: formatPercent(kmShare), fraction: kmShare ?? 0 };
+    ? { label: 'Life used', value: formatPercent(damper.lifeUsedFraction), fraction: damper.lifeUsedFraction ?? 0, basis: compact ? 'wear model' : 'wear model, from its roads, speeds and loads' }
+    : { label: 'Life used', value: formatPercent(kmShare), fraction: kmShare ?? 0, basis: ratedLifeKm ? `distance driven against the rated ${formatQuantity(ratedLifeKm, 'km')}; the wear run has not estimated it yet` : 'not estimated yet' };
   const barColour = { ok: 'bg-ok', watch: 'bg-watch', due: 'bg-due', overdue: 'bg-overdue', neutral: 'bg-slate/70' }[tone];
   const name = positionName(damper.position);
 
@@ -120,9 +121,10 @@ function DamperCard({ damper, fallback, ratedLifeKm, compact, threshold }: { dam
             ))
           : null}
       </div>
-      {estimated && damper.wearUpdatedAt ? (
-        <p className="mt-1 text-xs text-slate">Estimated {formatDate(damper.wearUpdatedAt)}</p>
-      ) : null}
+      <p className="mt-1 text-xs text-slate" data-testid="life-basis">
+        Basis: {headline.basis}
+        {estimated && damper.wearUpdatedAt ? `, estimated ${formatDate(damper.wearUpdatedAt)}` : ''}.
+      </p>
       {opening >= 1 ? (
         <p className="mt-1 text-xs text-slate" title={damper.openingBasis ?? undefined}>
           Includes an estimate for {formatQuantity(opening, 'km')} driven before the trips on record.
@@ -151,12 +153,6 @@ function DamperCard({ damper, fallback, ratedLifeKm, compact, threshold }: { dam
           <dd className="tabular text-right text-ink">{formatQuantity(damper.installedOdometerKm, 'km')}</dd>
           <dt className="text-slate">Driven on it</dt>
           <dd className="tabular text-right text-ink">{formatQuantity(damper.distanceKm, 'km')}</dd>
-          {estimated && kmShare !== null ? (
-            <>
-              <dt className="text-slate">of rated km</dt>
-              <dd className="tabular text-right text-ink">{formatPercent(kmShare)}</dd>
-            </>
-          ) : null}
           {damper.dampingNsPerM ? (
             <>
               <dt className="text-slate">Damping est.</dt>

@@ -49,7 +49,7 @@ export function DamperWearChart({ damper, thresholdFraction }: { damper: DamperW
     <figure aria-label={label}>
       <div className="h-48 w-full">
         <ResponsiveContainer>
-          <LineChart data={data} margin={{ top: 8, right: 12, bottom: 18, left: 0 }}>
+          <LineChart data={data} margin={{ top: 8, right: 12, bottom: 18, left: 2 }}>
             <CartesianGrid stroke="#0001" vertical={false} />
             <XAxis
               dataKey="t"
@@ -60,7 +60,8 @@ export function DamperWearChart({ damper, thresholdFraction }: { damper: DamperW
               tick={{ fontSize: 11 }}
               minTickGap={40}
             />
-            <YAxis domain={[0, yMax]} ticks={ticks} tickFormatter={(v: number) => formatNumber(v)} tick={{ fontSize: 11 }} width={44} label={{ value: 'life used [%]', angle: -90, position: 'insideLeft', fontSize: 11, dy: 40 }} />
+            {/* the axis is wide enough for the title and three-digit ticks side by side; the title sits inside its left edge */}
+            <YAxis domain={[0, yMax]} ticks={ticks} tickFormatter={(v: number) => formatNumber(v)} tick={{ fontSize: 11 }} width={54} label={{ value: 'life used [%]', angle: -90, position: 'insideLeft', offset: 0, dx: 8, fontSize: 11, textAnchor: 'middle' }} />
             <ReferenceLine y={thresholdFraction * 100} stroke="#D9622B" strokeDasharray="6 3" label={{ value: `inspect at ${formatNumber(thresholdFraction * 100)} %`, position: 'insideTopLeft', fontSize: 11, fill: '#9c441a' }} />
             {band ? (
               band.x2 > band.x1 ? (
@@ -78,7 +79,7 @@ export function DamperWearChart({ damper, thresholdFraction }: { damper: DamperW
                 <ReferenceLine x={band.x1} stroke="#B3261E" strokeDasharray="2 2" label={{ value: 'end of life', position: 'insideBottom', fontSize: 11, fill: '#B3261E' }} />
               )
             ) : null}
-            <ReferenceLine y={100} stroke="#B3261E" label={{ value: 'end of life', position: 'insideTopRight', fontSize: 11, fill: '#B3261E' }} />
+            <ReferenceLine y={100} stroke="#B3261E" label={{ value: 'end of life', position: 'insideTopLeft', fontSize: 11, fill: '#B3261E' }} />
             <Tooltip
               labelFormatter={(v) => formatDate(new Date(Number(v)))}
               formatter={(v, name) => [typeof v === 'number' ? `${formatNumber(v, 1)} %` : String(v), name === 'used' ? 'life used' : 'predicted']}

@@ -181,7 +181,11 @@ export function VehicleWear({ vehicleId }: { vehicleId: number }) {
         title="Damper wear"
         description={`Life used from the roads driven, against the life expected on those roads. Dashed: projected at the last ${w.windowDays} days’ rate to the ${formatPercent(th)} inspection point and end of life; shaded: end of life between P10 and P90.`}
       >
-        <Caution className="mb-4">{w.caution}</Caution>
+        {/* The general safety caution is with the first wear figures on the page (Dampers by corner); this one is about the dates. */}
+        <Caution className="mb-4">
+          The dates assume the last {w.windowDays} days&rsquo; driving goes on: a new route, load or season moves them. The shaded range is where most dampers like
+          these reach the end of their life, not a promise for this one.
+        </Caution>
         {!estimated ? (
           <EmptyState title="No wear estimated yet">
             The nightly run has not processed this vehicle’s trips yet. A manager can start it from the <Link to="/jobs" className="link">Job runs</Link> page.

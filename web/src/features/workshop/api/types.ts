@@ -135,4 +135,7 @@ export const FINDING_LABELS: Record<string, string> = {
   tyre_uneven_wear: 'Tyre wearing unevenly (cupping, scalloping)',
 };
 
+/** Commonly cited fail line of the phase-shift method (common practice; docs/methods.md "Phase-shift method"). */
+export const PHASE_FAIL_BELOW_DEG = 35;
+
 export const VERDICT_LABELS: Record<string, string> = { ok: 'Keep in service', monitor: 'Keep, check again soon', replace: 'Replace' };

@@ -12,11 +12,8 @@ import { formatDate, formatNumber, isoDate } from '@/lib/format';
 import { useRecordResults, type ResultsInput } from '../api/record-results';
 import { useUploadAttachment } from '../api/upload-attachment';
 import { useRecordWork, type WorkInput } from '../api/record-work';
-import { FINDING_LABELS, VERDICT_LABELS, type CornerResult, type InspectionDetail, type WorkshopOptions } from '../api/types';
+import { FINDING_LABELS, PHASE_FAIL_BELOW_DEG, VERDICT_LABELS, type CornerResult, type InspectionDetail, type WorkshopOptions } from '../api/types';
 import { useDraft } from '../hooks/use-draft';
-
-/** Commonly cited fail line of the phase-shift method (common practice; docs/methods.md "Phase-shift method"). */
-const PHASE_FAIL_BELOW_DEG = 35;
 import { CornerChips } from './corner-chips';
 
 const inputCls = 'min-h-11 w-full rounded border border-line bg-surface px-3 text-base tabular focus-visible:outline-2 focus-visible:outline-accent';

@@ -57,7 +57,8 @@ export function VehicleWorkshopPanel({ vehicleId, workRecordPath }: { vehicleId:
             { key: 'b', header: 'Basis', cell: (c) => c.basis },
           ]}
         />
-        <Caution className="mt-3">Wear predictions support, and never replace, inspection by a qualified mechanic and the manufacturer&apos;s and local regulations&apos; requirements.</Caution>
+        {/* The page's general safety caution sits with the first wear figures (Dampers by corner); this one says what is particular to these. */}
+        <Caution className="mt-3">Predicted damping is the wear model&apos;s figure, not a measurement: only a test-lane result on a corner shows how that damper works now.</Caution>
       </Section>
       <Section title="Predicted and measured damping" description="Each test-lane adhesion turned into a present damping on the two-mass model at the plate amplitude of the lane that measured it (zero-to-peak, half the stroke), beside what the wear model predicted.">
         {d.comparisons.length ? (
