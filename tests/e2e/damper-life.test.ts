@@ -220,7 +220,7 @@ describe('damper life in the browser', () => {
     expect(v).toBeDefined();
     if (!v) return;
     const wear = await apiJson<{
-      dampers: { position: string; prediction: { lifeKm: number | null; kmPerDay: number; severity: number | null; endOfLifeDate: string | null; endOfLifeP10Date: string | null; endOfLifeP90Date: string | null; governedBy: string } | null }[];
+      dampers: { position: string; prediction: { lifeKm: number | null; distanceLifeUsed: number; kmPerDay: number; severity: number | null; endOfLifeDate: string | null; endOfLifeP10Date: string | null; endOfLifeP90Date: string | null; governedBy: string } | null }[];
     }>(page, `/api/vehicles/${v.id}/wear`);
     const rl = wear.dampers.find((d) => d.position === 'RL');
     expect(rl?.prediction?.lifeKm).toBeGreaterThan(0);
@@ -233,7 +233,9 @@ describe('damper life in the browser', () => {
     const text = await card.innerText();
     const p = rl!.prediction!;
     expect(text).toMatch(/of its expected life/);
-    expect(text).toContain('Expected life on its roads');
+    expect(text).toContain('A new damper’s life on these roads');
+    // what is left is the unused share of that life, so life used and distance agree
+    expect(text).toMatch(new RegExp(`Still to go on its recent roads\\s+about ${km(Math.max(0, 1 - p.distanceLifeUsed) * p.lifeKm!)}\\s+km`));
     // a number and its unit may be kept together by a no-break space
     expect(text).toMatch(new RegExp(`${km(p.lifeKm!)}\\s+km`));
     expect(text).toMatch(new RegExp(`${km(p.kmPerDay)}\\s+km/day`));

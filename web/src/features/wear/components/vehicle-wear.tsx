@@ -65,7 +65,12 @@ function DamperCard({ d, th }: { d: DamperWear; th: number }) {
             </span>
           ) : null}
         </dd>
-        <dt className="text-slate">Expected life on its roads</dt>
+        <dt className="text-slate">Still to go on its recent roads</dt>
+        <dd className="tabular text-right">
+          {p?.lifeKm ? `about ${formatQuantity(Math.max(0, 1 - p.distanceLifeUsed) * p.lifeKm, 'km')}` : '—'}
+          {p?.lifeKm ? <span className="block text-xs text-slate">to the median end of life by distance, at the last {days} days’ road mix</span> : null}
+        </dd>
+        <dt className="text-slate">A new damper’s life on these roads</dt>
         <dd className="tabular text-right">
           {p?.lifeKm ? formatQuantity(p.lifeKm, 'km') : '—'}
           {lifeRange ? (

@@ -34,7 +34,7 @@ export function VehicleWorkshopPanel({ vehicleId, workRecordPath }: { vehicleId:
             { key: 'u', header: 'Life used', unit: '%', numeric: true, cell: (c) => formatNumber(c.lifeUsedFraction * 100) },
             { key: 'c', header: 'Predicted damping', unit: 'N·s/m', numeric: true, cell: (c) => formatNumber(c.dampingNsPerM) },
             { key: 'km', header: 'Since fitted', unit: 'km', numeric: true, cell: (c) => formatNumber(c.kmSinceFitted) },
-            { key: 'l', header: 'Expected life on its roads', unit: 'km', numeric: true, cell: (c) => formatNumber(c.lifeKm) },
+            { key: 'l', header: 'A new damper’s life on these roads', unit: 'km', numeric: true, cell: (c) => formatNumber(c.lifeKm) },
             {
               key: 'e',
               header: 'End of life',
