@@ -26,6 +26,7 @@ export function SegmentSpeedAdvice({ segmentId }: { segmentId: number | null }) 
         )}
       </p>
       <AdviceAssumptions advice={q.data} className="mt-2" />
+      <p className="mt-2 text-xs text-slate">{q.data.method}</p>
       <p className="mt-2 text-xs text-slate">{q.data.caution}</p>
     </section>
   );
