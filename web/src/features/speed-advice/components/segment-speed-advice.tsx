@@ -1,8 +1,8 @@
-import { formatNumber } from '@/lib/format';
 import { useSpeedAdvice } from '../api/get-speed-advice';
 import { useSegmentRoute } from '../api/get-segment-route';
+import { AdviceAssumptions } from './route-speed-advice';
 
-/** The advised speed for one segment (default comfort band and power limit), for the map's segment panel. */
+/** The advised speed for one segment (default ride and damper limits, laden), for the map's segment panel. */
 export function SegmentSpeedAdvice({ segmentId }: { segmentId: number | null }) {
   const seg = useSegmentRoute(segmentId);
   const q = useSpeedAdvice(seg.data?.segment.routeId ?? null, { segmentId: segmentId ?? undefined });
@@ -13,12 +13,20 @@ export function SegmentSpeedAdvice({ segmentId }: { segmentId: number | null }) 
     <section aria-label="Speed advice for the segment" className="rounded-md border border-line bg-surface p-3 text-sm" data-testid="segment-speed-advice">
       <h3 className="font-semibold text-ink">Speed advice</h3>
       <p className="mt-1 text-ink">
-        {s.advisedKmh === null ? 'No roughness on record, so no advice.' : (
+        {s.belowMinimum ? (
           <>
-            Up to <strong className="tabular-nums">{s.belowMinimum ? `under ${q.data.rangeKmh[0]}` : s.advisedKmh} km/h</strong> for {q.data.spec.name} ({q.data.comfort.label.toLowerCase()}, ≤ {q.data.comfort.limit} m/s²; damper ≤ {formatNumber(q.data.powerLimitW, 0)} W); limited by {s.limitedBy}.
+            <strong>Road needs attention</strong> for {q.data.spec.name}: {q.data.attention}
+          </>
+        ) : s.advisedKmh === null ? (
+          'No roughness on record, so no advice.'
+        ) : (
+          <>
+            Up to <strong className="tabular-nums">{s.advisedKmh} km/h</strong> for {q.data.spec.name}, {q.data.load.case}; limited by {s.limitedBy}.
           </>
         )}
       </p>
+      <AdviceAssumptions advice={q.data} className="mt-2" />
+      <p className="mt-2 text-xs text-slate">{q.data.method}</p>
       <p className="mt-2 text-xs text-slate">{q.data.caution}</p>
     </section>
   );
