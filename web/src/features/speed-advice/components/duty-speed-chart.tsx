@@ -23,7 +23,7 @@ export function DutySpeedChart({ advice }: { advice: SpeedAdvice }) {
             <YAxis yAxisId="p" orientation="right" width={54} tickFormatter={(v: number) => formatNumber(v, 0)} label={{ value: 'damper [× class B]', angle: 90, position: 'insideRight', offset: 0, dx: -8, fontSize: 12, textAnchor: 'middle' }} />
             <Tooltip formatter={(v, name) => (typeof v === 'number' ? (String(name).startsWith('Seat') ? `${formatNumber(v, 2)} m/s²` : `${formatNumber(v, 1)} ×`) : v)} labelFormatter={(v) => `${v} km/h`} />
             <ReferenceLine yAxisId="a" y={advice.comfort.limit} stroke="#1E2A32" strokeDasharray="6 3" label={{ value: `ride ${formatNumber(advice.comfort.limit, 2)} m/s²`, position: 'insideTopLeft', fontSize: 11 }} />
-            <ReferenceLine yAxisId="a" x={advice.rangeKmh[0]} stroke="#8A1C1C" strokeDasharray="1 3" label={{ value: `floor ${advice.rangeKmh[0]} km/h`, position: 'insideTopRight', fontSize: 11 }} />
+            <ReferenceLine yAxisId="a" x={advice.rangeKmh[0]} stroke="#8A1C1C" strokeDasharray="1 3" label={{ value: `floor ${advice.rangeKmh[0]} km/h`, position: 'insideTopLeft', fontSize: 11 }} />
             {multiple !== null ? <ReferenceLine yAxisId="p" y={multiple} stroke="#D9622B" strokeDasharray="2 3" label={{ value: `damper ${multiple}×`, position: 'insideBottomRight', fontSize: 11 }} /> : null}
             <Line yAxisId="a" dataKey="seatWeightedAccel" name="Seat weighted acceleration" stroke="#1E2A32" strokeWidth={2} dot={false} isAnimationActive={false} />
             <Line yAxisId="p" dataKey="damperPowerRatio" name="Damper power, busiest damper" stroke="#D9622B" strokeWidth={2} dot={false} isAnimationActive={false} />
