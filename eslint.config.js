@@ -2,6 +2,35 @@ import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
 import reactHooks from 'eslint-plugin-react-hooks';
 import globals from 'globals';
+import fs from 'node:fs';
+
+/*
+ * The direction of dependencies (DEVELOPERS.md, "Layers"): the pure layers below the areas —
+ * lib (plain helpers), physics (numerics only), reliability (life statistics) and db (the
+ * connection, models, migrations) — never import an area or anything above them; client
+ * features never import each other, and the client's shared lib and components import no feature.
+ */
+const rule = (files, ...patterns) => ({ files, rules: { 'no-restricted-imports': ['error', { patterns }] } });
+const noClient = { group: ['**/web/src/*', '@/*'], message: 'The server never imports the client.' };
+// relative paths out of a folder, except into the layers it may use (ESLint's glob groups cannot match `../`);
+// a later block replaces the rule of an earlier one for the same file, so each block repeats `noClient`
+const up = (regex, message) => ({ regex, message });
+const features = fs.readdirSync('web/src/features', { withFileTypes: true }).filter((d) => d.isDirectory()).map((d) => d.name);
+const layerRules = [
+  rule(['server/**/*.ts', 'jobs/**/*.ts'], noClient),
+  rule(['server/lib/**/*.ts'], noClient, up('^\\.\\./', 'server/lib is the bottom layer: it imports only packages and node built-ins.')),
+  rule(['server/physics/**/*.ts'], noClient, up('^\\.\\./(?!lib/)', 'server/physics is pure numerics: it imports only server/lib.')),
+  rule(['server/reliability/**/*.ts'], noClient, up('^\\.\\./(?!lib/|physics/)', 'server/reliability imports only server/lib and server/physics.')),
+  rule(['server/db/*.ts'], noClient, up('^\\.\\./(?!lib/|physics/|config$|logger$)', 'server/db imports no area (an area imports db, never the other way).')),
+  rule(['server/db/migrations/*.ts'], noClient, up('^\\.\\./\\.\\./', 'A migration stands alone: it imports no application code, which may change after it ran.')),
+  rule(['web/src/lib/**/*.{ts,tsx}', 'web/src/components/**/*.{ts,tsx}'], { group: ['@/features/*', '**/features/*', '@/app/*', '**/app/*'], message: 'Shared client code imports no feature and not the app.' }),
+  ...features.map((f) =>
+    rule([`web/src/features/${f}/**/*.{ts,tsx}`], {
+      group: ['@/features/*', `!@/features/${f}`, `!@/features/${f}/**`, '@/app/*'],
+      message: 'A feature imports no other feature and not the app: share through web/src/lib or components, or compose in web/src/app.',
+    }),
+  ),
+];
 
 export default tseslint.config(
   { ignores: ['dist/', 'data/', 'node_modules/', 'coverage/'] },
@@ -13,6 +42,7 @@ export default tseslint.config(
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
     },
   },
+  ...layerRules,
   {
     files: ['web/src/**/*.{ts,tsx}'],
     plugins: { 'react-hooks': reactHooks },

@@ -1,7 +1,7 @@
 import path from 'node:path';
 import type { Config } from './config';
 import { dbFile, migrate, openDb, type Db } from './db';
-import { isEmpty, seedDemo } from './db/seed';
+import { isEmpty, seedDemo } from './demo/seed';
 import type { Logger } from './logger';
 
 /**

@@ -70,7 +70,7 @@ export const CAR = Object.freeze({
   tireRateNPerM: 200000,
 });
 
-/** Unladen corners of the demo fleet's specs (server/db/seed.ts), for checks on what the fleet would read. */
+/** Unladen corners of the demo fleet's specs (server/demo/seed.ts), for checks on what the fleet would read. */
 export const DEMO_CORNERS = Object.freeze({
   courierVanFront: { sprungMassKg: 430, unsprungMassKg: 46, springRateNPerM: 32000, dampingNsPerM: 2400, tireRateNPerM: 260000 },
   courierVanRear: { sprungMassKg: 360, unsprungMassKg: 55, springRateNPerM: 38000, dampingNsPerM: 2500, tireRateNPerM: 270000 },

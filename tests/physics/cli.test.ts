@@ -12,7 +12,7 @@ import { synthesizeProfile } from '../../server/physics/iso8608';
 import { checkClose, checkThat, CAR } from './check';
 
 const ROOT = resolve(fileURLToPath(new URL('../..', import.meta.url)));
-const CLI = join(ROOT, 'server/physics/cli.ts');
+const CLI = join(ROOT, 'server/cli/index.ts');
 let dir = '';
 
 /** Run the CLI as a subprocess (node with the tsx loader). */

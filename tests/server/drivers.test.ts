@@ -364,7 +364,7 @@ describe('speed advice', () => {
     { axleIndex: 0, label: 'front', corner: { sprungMassKg: 430, unsprungMassKg: 46, springRateNPerM: 32000, dampingNsPerM: 2400, tireRateNPerM: 260000 } },
     { axleIndex: 1, label: 'rear', corner: { sprungMassKg: 360, unsprungMassKg: 55, springRateNPerM: 38000, dampingNsPerM: 2500, tireRateNPerM: 270000 } },
   ];
-  // The demo's rigid truck (server/db/seed.ts): dampers ten times the van's.
+  // The demo's rigid truck (server/demo/seed.ts): dampers ten times the van's.
   const truckAxles = [
     { axleIndex: 0, label: 'front', corner: { sprungMassKg: 2400, unsprungMassKg: 450, springRateNPerM: 600000, dampingNsPerM: 28000, tireRateNPerM: 1600000 } },
     { axleIndex: 1, label: 'rear', corner: { sprungMassKg: 2100, unsprungMassKg: 650, springRateNPerM: 260000, dampingNsPerM: 20000, tireRateNPerM: 1800000 } },

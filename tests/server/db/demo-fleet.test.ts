@@ -4,7 +4,7 @@ import { startTestServer, type TestServer } from '../../support/server';
 import { seededRandom } from '../../../server/physics/iso8608';
 import { fitWeibull } from '../../../server/reliability/weibull';
 import { REMOVAL_REASONS } from '../../../server/workshop/life';
-import { CENSORING_REASONS, DEMO_LIFE_LAWS, PAIR_SHARE, WEAR_REASONS, demoMeanLifeKm, demoMedianLifeKm, simulateAxleHistory } from '../../../server/db/demo-history';
+import { CENSORING_REASONS, DEMO_LIFE_LAWS, PAIR_SHARE, WEAR_REASONS, demoMeanLifeKm, demoMedianLifeKm, simulateAxleHistory } from '../../../server/demo/history';
 
 /** The demo fleet as a fleet manager would check it (docs/methods.md, "Demo fleet"). */
 

@@ -13,7 +13,7 @@ import { gdForClass, seededRandom } from '../../../server/physics/iso8608';
 import { roadSeverity } from '../../../server/wear/life-law';
 
 const ROOT = resolve(fileURLToPath(new URL('../../..', import.meta.url)));
-const CLI = join(ROOT, 'server/physics/cli.ts');
+const CLI = join(ROOT, 'server/cli/index.ts');
 const VAN = { sprungMassKg: 450, unsprungMassKg: 50, springRateNPerM: 30000, dampingNsPerM: 2200, tireRateNPerM: 250000 };
 let dir = '';
 

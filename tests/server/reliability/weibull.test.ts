@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 // @ts-expect-error numeric ships no type declarations
 import numeric from 'numeric';
 import { fitWeibull, gamma, parseLifeCsv, weibullPlotPoints, type LifeObservation } from '../../../server/reliability/weibull';
-import { weibullCommand } from '../../../server/reliability/weibull-cli';
+import { weibullCommand } from '../../../server/cli/weibull';
 
 /** Independent log-likelihood (written from the density and survival function, not shared code). */
 function negLogLik(data: LifeObservation[], beta: number, eta: number): number {

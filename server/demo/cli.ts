@@ -1,7 +1,7 @@
 import 'dotenv/config';
 import { parseArgs } from 'node:util';
 import { loadConfig } from '../config';
-import { dbFile, migrate, openDb } from './index';
+import { dbFile, migrate, openDb } from '../db/index';
 import { clearAll, isEmpty, seedDemo } from './seed';
 
 /** `npm run seed [-- --reset]`: seeds the demo fleet into an empty database, or rebuilds it. */

@@ -1,10 +1,10 @@
 /**
- * The `weibull` command of the CLI (server/physics/cli.ts calls it): a CSV of lives with
+ * The `weibull` command of the CLI (server/cli/index.ts calls it): a CSV of lives with
  * failure flags → the maximum-likelihood fit as `{ shape, scale, b10, failures, suspensions }`.
  *
  * @module
  */
-import { fitWeibull, parseLifeCsv } from './weibull';
+import { fitWeibull, parseLifeCsv } from '../reliability/weibull';
 
 /**
  * @param csvText CSV with the columns `life` and `failed` (1 removal, 0 still running)

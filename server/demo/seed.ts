@@ -6,7 +6,7 @@
  */
 import { addDays, formatISO, startOfDay, subDays } from 'date-fns';
 import type { CreationAttributes } from 'sequelize';
-import type { Db } from './index';
+import type { Db } from '../db/index';
 import path from 'node:path';
 import fs from 'node:fs';
 import {
@@ -24,14 +24,14 @@ import {
   Vehicle,
   WorkRecord,
   type RoughnessSource,
-} from './models';
+} from '../db/models';
 import { hashPassword } from '../users/service';
 import { lineLengthM, splitLine, type LonLat } from '../roads/geometry';
 import { classifyGd, gdForClass, seededRandom, synthesizeProfile, type IsoClass } from '../physics/iso8608';
 import { gdFromIri, iriFromGd, iriSegments } from '../physics/iri';
 import { formatProfileCsv, storeProfileFile, SURVEY_DIR } from '../roads/profile-store';
 import { currentValue } from '../roads/current-roughness';
-import { DEMO_LIFE_LAWS, ROUGH_FROM_CLASS, simulateAxleHistory, type DemoDamperSpan } from './demo-history';
+import { DEMO_LIFE_LAWS, ROUGH_FROM_CLASS, simulateAxleHistory, type DemoDamperSpan } from './history';
 
 /** Sample interval of the demo survey profiles [m] (ASTM E1926's 250 mm). */
 const DEMO_SURVEY_DX_M = 0.25;

@@ -21,18 +21,18 @@
 import { readFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { pathToFileURL } from 'node:url';
-import { gdFromIri, iri, iriFromGd, iriSegments, IRI_CONVERSION_DX_M } from './iri';
-import { rainflow } from './fatigue';
-import { prepareDuty, dutyOnRoad, ROAD_BAND, type DutyResult } from './closed-form';
-import { classifyGd, gdForClass, synthesizeProfile } from './iso8608';
-import { simulateProfile } from './simulate';
-import { modes } from './quarter-car';
-import { adhesionPct, dampingFromAdhesion, DEFAULT_PLATE_AMPLITUDE_M } from './adhesion';
-import { dampingFromPhase, phaseShift } from './phase-shift';
-import { dailyA8, exposureStatus, EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE, type ExposureTrip } from './exposure';
-import { PhysicsInputError, validateCorner, validateSpeed, type CornerParams } from './types';
-import { weibullCommand } from '../reliability/weibull-cli';
-import { lifeCommand, lifeFitCommand } from '../reliability/life-cli';
+import { gdFromIri, iri, iriFromGd, iriSegments, IRI_CONVERSION_DX_M } from '../physics/iri';
+import { rainflow } from '../physics/fatigue';
+import { prepareDuty, dutyOnRoad, ROAD_BAND, type DutyResult } from '../physics/closed-form';
+import { classifyGd, gdForClass, synthesizeProfile } from '../physics/iso8608';
+import { simulateProfile } from '../physics/simulate';
+import { modes } from '../physics/quarter-car';
+import { adhesionPct, dampingFromAdhesion, DEFAULT_PLATE_AMPLITUDE_M } from '../physics/adhesion';
+import { dampingFromPhase, phaseShift } from '../physics/phase-shift';
+import { dailyA8, exposureStatus, EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE, type ExposureTrip } from '../physics/exposure';
+import { PhysicsInputError, validateCorner, validateSpeed, type CornerParams } from '../physics/types';
+import { weibullCommand } from './weibull';
+import { lifeCommand, lifeFitCommand } from './life';
 import { DutyCache, springSnCurve, type SegmentInput } from '../wear/duty';
 
 /** A usage error (wrong command or flags): exit code 2. */

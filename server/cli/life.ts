@@ -1,12 +1,12 @@
 /**
- * The `life` and `life-fit` commands of the CLI (server/physics/cli.ts calls them). See
+ * The `life` and `life-fit` commands of the CLI (server/cli/index.ts calls them). See
  * docs/methods.md, "Damper life model".
  *
  * @module
  */
 import { PhysicsInputError, type CornerParams } from '../physics/types';
 import { roadSeverity } from '../wear/life-law';
-import { fitLifeModel, lifeKmAt, meanLifeKmAt, modelFromJson, modelToJson, priorModel, type LifeModel, type LifeUnit } from './life-model';
+import { fitLifeModel, lifeKmAt, meanLifeKmAt, modelFromJson, modelToJson, priorModel, type LifeModel, type LifeUnit } from '../reliability/life-model';
 import { CsvSyntaxError, readCsv, type CsvRow } from '../lib/csv';
 
 /**
