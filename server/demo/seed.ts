@@ -2,7 +2,7 @@
  * The demo fleet: Brackenford Parcel & Freight, a fictional regional carrier with two depots,
  * three suspension specs, 44 vehicles, 12 routes and 60 days of trips. Every number here is
  * invented for the demo (the suspension parameters sit inside the typical ranges of
- * shared physics.md §6); deterministic for a given "today".
+ * shared docs/methods.md "Typical parameters"); deterministic for a given "today".
  */
 import { addDays, formatISO, startOfDay, subDays } from 'date-fns';
 import type { CreationAttributes } from 'sequelize';

@@ -8,7 +8,7 @@
  * with the spec's floor-to-seat factors (server/physics/seat.ts, docs/methods.md "Exposure at
  * the seat"); its duration is the trip's. The day's exposure is Directive 2002/44/EC
  * `A(8) = √(Σ a_w,i²·T_i / 8 h)` ({@link dailyA8}). A screening estimate from a model, not a
- * seat measurement (physics.md §5).
+ * seat measurement (docs/methods.md "Whole-body vibration").
  */
 import { createHash } from 'node:crypto';
 import { QueryTypes, type Sequelize } from 'sequelize';

@@ -1,6 +1,6 @@
 /**
  * Physical-sense checks of suspension spec corners, typical ranges per vehicle class, and the
- * presets. Typical values: physics.md §6 (Gillespie 1992, Wong, Cebon 1999 — textbook ranges,
+ * presets. Typical values: docs/methods.md "Typical parameters" (Gillespie 1992, Wong, Cebon 1999 — textbook ranges,
  * from memory; the Hindawi ISRN 2015 article 974020 car example). Hard limits are wide on
  * purpose (common practice): a value outside them is not a road vehicle's corner.
  */
@@ -47,7 +47,7 @@ export interface TypicalRanges {
   bodyDampingRatio: Range;
 }
 
-/** Typical per-corner ranges by class (physics.md §6, textbook ranges from memory). */
+/** Typical per-corner ranges by class (docs/methods.md "Typical parameters", textbook ranges from memory). */
 export const TYPICAL: Record<VehicleClass, TypicalRanges> = {
   'passenger car': {
     sprungMassKg: [250, 450],
@@ -81,7 +81,7 @@ export const TYPICAL: Record<VehicleClass, TypicalRanges> = {
   },
 };
 
-// Shown to users: typical textbook values (Gillespie 1992, Wong, Cebon 1999; quoted from memory, physics.md §6).
+// Shown to users: typical textbook values (Gillespie 1992, Wong, Cebon 1999; quoted from memory, docs/methods.md "Typical parameters").
 export const TYPICAL_SOURCE = 'typical textbook values for the vehicle class (Gillespie 1992; Wong; Cebon 1999)';
 
 export interface PresetAxle {

@@ -6,7 +6,7 @@
  * 25 Hz down to 3 Hz slowly enough to be steady state at each frequency; the two-mass model is
  * linear, so the contact force is `W − a·|F(f)|` at its minimum, with `F(f)` the dynamic tyre
  * load per metre of plate motion and `W = (ms + mu)·g` the static wheel load. Adhesion % =
- * min over the sweep of that force / W × 100 (physics.md §4). When the linear force would go
+ * min over the sweep of that force / W × 100 (docs/methods.md "Test-lane checks"). When the linear force would go
  * below zero the wheel leaves the plate: we clip at 0 % (the linear model says nothing more).
  *
  * @module
@@ -17,14 +17,14 @@ import { STANDARD_GRAVITY, requireInRange, validateCorner, type CornerParams } f
 /**
  * Default plate amplitude (zero-to-peak) [m]: 3 mm. The EUSAMA method speaks of a 6 mm plate
  * stroke; a stroke is the total peak-to-peak travel, so the amplitude is half of it (our
- * reading, from memory; physics.md §4). At this amplitude new dampers on light vans read
+ * reading, from memory; docs/methods.md "Test-lane checks"). At this amplitude new dampers on light vans read
  * 60–80 %, as new dampers commonly do (common practice); read as a 6 mm amplitude they would
  * read weak or fair. A lane whose rig moves differently sets its own amplitude
  * (docs/methods.md "Test-lane plate amplitude").
  */
 export const DEFAULT_PLATE_AMPLITUDE_M = 0.003;
 
-/** Sweep bounds [Hz] (physics.md §4: from about 25 Hz down to a few Hz; common practice). */
+/** Sweep bounds [Hz] (docs/methods.md "Test-lane checks": from about 25 Hz down to a few Hz; common practice). */
 export const SWEEP_HZ = Object.freeze({ from: 25, to: 3 });
 
 /** Result of a predicted test-lane run. */
@@ -49,7 +49,7 @@ const tyreGain = (c: CornerParams, f: number): number => Math.hypot(...cornerTra
  * Method: |dynamic tyre load / plate displacement| from the two-mass model's transfer function
  * ({@link cornerTransfer}) scanned over 3–25 Hz on a 0.01 Hz grid, then the largest value refined
  * by golden-section search; minimum contact force = W − a·max|F|, clipped at 0 (see module note).
- * Source of the test: EUSAMA test-lane method (physics.md §4).
+ * Source of the test: EUSAMA test-lane method (docs/methods.md "Test-lane checks").
  *
  * @param c corner parameters [kg, N/m, N·s/m]
  * @param opts plate amplitude [m], 0.1–20 mm
@@ -252,7 +252,7 @@ export function dampingFromAdhesion(
 }
 
 /**
- * Commonly cited EUSAMA adhesion bands (common practice, physics.md §4): ≥ 60 good, 40–59 fair,
+ * Commonly cited EUSAMA adhesion bands (common practice, docs/methods.md "Test-lane checks"): ≥ 60 good, 40–59 fair,
  * 20–39 weak, < 20 poor.
  *
  * @param pct adhesion [%]

@@ -2,7 +2,7 @@
  * Closed-form damper duty and ride for ISO 8608 `w = 2` roads.
  *
  * With `w = 2` the road velocity seen at speed v is white noise with one-sided PSD
- * `G0 = 4π²·Gd(n0)·n0²·v` [(m/s)²/Hz] (physics.md §2). For a stable linear system
+ * `G0 = 4π²·Gd(n0)·n0²·v` [(m/s)²/Hz] (docs/methods.md "Road roughness"). For a stable linear system
  * `x' = A·x + B·u` driven by it, the state covariance is `(G0/2)·P` with P solving the Lyapunov
  * equation `A·P + P·Aᵀ + B·Bᵀ = 0` (e.g. Newland, An Introduction to Random Vibrations, ch. 13;
  * Cebon 1999 ch. 4). One solve per (corner, speed) serves every road: variances scale with
@@ -86,7 +86,7 @@ export interface PrepareDutyOptions {
  * transfer functions of the two-mass model (as quarter-car.ts `cornerTransfer`) and, for the
  * weighted acceleration, the ISO 2631-1 `Wk` magnitude ({@link wkWeight}); trapezoid rule in
  * ln f, 400 points a decade (below 0.01 Hz every integrand vanishes as f²). Unlimited road: Lyapunov equation for white road velocity over the
- * whole frequency range, physics.md §2, with the `Wk` realisation of {@link appendWk}.
+ * whole frequency range, docs/methods.md "Road roughness", with the `Wk` realisation of {@link appendWk}.
  *
  * @param c corner parameters [kg, N/m, N·s/m]
  * @param speedMps speed [m/s]
@@ -202,7 +202,7 @@ function prepareBandLimited(c: CornerParams, v: number, nMax: number): PreparedD
  * Duty of a prepared (corner, speed) on a road of given `Gd(n0)`: square roots of the cached
  * variances scaled by Gd(n0). Cheap (no solve): tens of millions of evaluations per second.
  *
- * Source: physics.md §2 (variances linear in Gd(n0)·v), §3 (damper power cs·E[v²]).
+ * Source: docs/methods.md "Road roughness" (variances linear in Gd(n0)·v), §3 (damper power cs·E[v²]).
  *
  * @param p prepared solve from {@link prepareDuty}
  * @param gdN0 road displacement PSD at n0 = 0.1 cycles/m [m³]
@@ -237,7 +237,7 @@ export interface RatedLifeOptions {
 /**
  * Rated damper life as dissipated energy: the energy the corner's damper dissipates over
  * `km` kilometres of a `Gd(n0)` road at `speedMps` (product.md §3 default: 90 000 km of ISO
- * class B at 80 km/h; service life from common practice, physics.md §6).
+ * class B at 80 km/h; service life from common practice, docs/methods.md "Typical parameters").
  *
  * @param c corner parameters [kg, N/m, N·s/m]
  * @param opts distance [km], Gd(n0) [m³], speed [m/s]

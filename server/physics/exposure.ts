@@ -3,7 +3,7 @@
  * weighted RMS of an acceleration series, and daily exposure A(8) against the action and limit
  * values of Directive 2002/44/EC.
  *
- * Caution (physics.md §5): the body acceleration of a quarter-car model is the floor above one
+ * Caution (docs/methods.md "Whole-body vibration"): the body acceleration of a quarter-car model is the floor above one
  * wheel, not the seat; results are a screening estimate, not a measurement.
  *
  * @module
@@ -26,7 +26,7 @@ export const EXPOSURE_LIMIT_VALUE = 1.15;
 /**
  * Parameters of the ISO 2631-1:1997 `Wk` weighting (vertical, seated): band limits f1, f2
  * (2nd-order Butterworth), acceleration–velocity transition f3, f4, Q4 and upward step
- * f5, Q5, f6, Q6 [Hz, 1]. Source: ISO 2631-1:1997 Table A.2 (values from memory, physics.md §5;
+ * f5, Q5, f6, Q6 [Hz, 1]. Source: ISO 2631-1:1997 Table A.2 (values from memory, docs/methods.md "Whole-body vibration";
  * they reproduce Table 3 — see tests).
  */
 export const WK_PARAMS = Object.freeze({
@@ -246,7 +246,7 @@ export interface ExposureTrip {
  * Daily vibration exposure A(8) from several trips (vertical axis, k = 1.0):
  * `A(8) = √(Σ a_w,i²·T_i / 8 h)`.
  *
- * Source: Directive 2002/44/EC Annex B(1) with ISO 2631-1:1997 (physics.md §5).
+ * Source: Directive 2002/44/EC Annex B(1) with ISO 2631-1:1997 (docs/methods.md "Whole-body vibration").
  *
  * @param trips each with weighted RMS [m/s²] and duration [h]
  * @returns A(8) [m/s²]

@@ -100,7 +100,7 @@ function checkSn(sn: SnCurve): void {
  * Palmgren–Miner linear damage of counted cycles with a Basquin S–N curve `N·Sᵏ = C`:
  * `D = Σ nᵢ·Sᵢᵏ / C` (S is the cycle range).
  *
- * Source: Miner 1945; Basquin 1910 (physics.md §3).
+ * Source: Miner 1945; Basquin 1910 (docs/methods.md "Duty, cycles and fatigue").
  *
  * @param cycles counted cycles (range [unit], count [1])
  * @param sn Basquin exponent k [1] and constant C [unitᵏ]
@@ -201,7 +201,7 @@ export interface DirlikParams {
 }
 
 /**
- * Dirlik's parameters from spectral moments (physics.md §3):
+ * Dirlik's parameters from spectral moments (docs/methods.md "Duty, cycles and fatigue"):
  * `γ = m2/√(m0·m4)`, `xm = (m1/m0)·√(m2/m4)`, `D1 = 2(xm − γ²)/(1 + γ²)`,
  * `R = (γ − xm − D1²)/(1 − γ − D1 + D1²)`, `D2 = (1 − γ − D1 + D1²)/(1 − R)`, `D3 = 1 − D1 − D2`,
  * `Q = 1.25(γ − D3 − D2·R)/D1`.
@@ -232,7 +232,7 @@ export function dirlikParams(m: SpectralMoments): DirlikParams {
  * Dirlik's rainflow range probability density at range S:
  * `p(S) = [D1/Q·e^(−Z/Q) + D2·Z/R²·e^(−Z²/2R²) + D3·Z·e^(−Z²/2)] / (2√m0)`, `Z = S/(2√m0)`.
  *
- * Source: Dirlik 1985 (physics.md §3).
+ * Source: Dirlik 1985 (docs/methods.md "Duty, cycles and fatigue").
  *
  * @param m spectral moments
  * @param rangeS range S [unit], ≥ 0
@@ -295,7 +295,7 @@ export function dirlikDamage(m: SpectralMoments, opts: SpectralDamageOptions): n
  * Expected Miner damage of a narrow-band Gaussian process (Rayleigh ranges, S = 2·amplitude):
  * `D = ν0·T/C·(2√(2·m0))ᵏ·Γ(1 + k/2)`, ν0 = √(m2/m0) the rate of zero up-crossings.
  *
- * Source: Bendat 1964 narrow-band approximation (physics.md §3).
+ * Source: Bendat 1964 narrow-band approximation (docs/methods.md "Duty, cycles and fatigue").
  *
  * @param m spectral moments
  * @param opts Basquin k [1], C [unitᵏ], duration [s]

@@ -5,7 +5,7 @@
  * Method: ASTM E1926 / World Bank Technical Paper 46 (Sayers, Gillespie & Queiroz 1986;
  * Sayers 1995): a reference quarter car normalised by sprung mass (`k1 = kt/ms = 653 s⁻²`,
  * `k2 = ks/ms = 63.3 s⁻²`, `c = cs/ms = 6.0 s⁻¹`, `μ = mu/ms = 0.15`) driven at 80 km/h over
- * the profile slope; IRI = mean |body − wheel slope| [m/m] × 1000 = m/km (physics.md §2).
+ * the profile slope; IRI = mean |body − wheel slope| [m/m] × 1000 = m/km (docs/methods.md "Road roughness").
  *
  * @module
  */
@@ -44,7 +44,7 @@ export interface GoldenCarCoefficients {
  * Sayers' IRI program: `ST = exp(A·dt)`, `PR = A⁻¹(ST − I)·B`, `dt = dx / (80 km/h)`.
  *
  * Source: ASTM E1926; Sayers 1995 ("On the calculation of IRI from longitudinal road
- * profile", TRR 1501); published ST/PR for 0.25 m in physics.md §2 (reproduced by tests).
+ * profile", TRR 1501); published ST/PR for 0.25 m in docs/methods.md "Road roughness" (reproduced by tests).
  *
  * @param dxM sample interval [m], 1 mm – 1 m
  * @returns ST and PR
@@ -131,7 +131,7 @@ function rectifiedSlopes(profileM: ArrayLike<number>, dxM: number): { rs: Float6
  * @param dxM sample interval [m]
  * @returns IRI [m/km]
  * @example
- * iri(Float64Array.from({ length: 4001 }, (_, i) => 0.005 * Math.sin(2 * Math.PI * i * 0.25 / 5)), 0.25); // → ≈ 4.65 (physics.md §2, computed)
+ * iri(Float64Array.from({ length: 4001 }, (_, i) => 0.005 * Math.sin(2 * Math.PI * i * 0.25 / 5)), 0.25); // → ≈ 4.65 (docs/methods.md "Road roughness", computed)
  */
 export function iri(profileM: ArrayLike<number>, dxM: number): number {
   const { rs } = rectifiedSlopes(profileM, dxM);
@@ -184,7 +184,7 @@ let continuousK: number | null = null;
  *
  * Derivation: on a `w = 2` road the profile slope is white with one-sided PSD in time
  * `G0/v²`, `G0 = 4π²·Gd(n0)·n0²·v`. The golden car's relative velocity is then Gaussian with
- * variance σ² = (G0/2)·(C·P·Cᵀ), P solving its Lyapunov equation (physics.md §2). For a
+ * variance σ² = (G0/2)·(C·P·Cᵀ), P solving its Lyapunov equation (docs/methods.md "Road roughness"). For a
  * zero-mean Gaussian, E|x| = √(2/π)·σ, and IRI = E|zs' − zu'| / v × 1000.
  *
  * @returns K ≈ 554.7 [(m/km)/√m³]

@@ -2,7 +2,7 @@
  * ISO 8608 road roughness: classes A–H by displacement PSD `Gd(n0)`, classification of a
  * measured `Gd(n0)`, and seeded synthesis of random road profiles.
  *
- * PSD model: `Gd(n) = Gd(n0)·(n/n0)^−w`, `n0 = 0.1 cycles/m`, `w = 2` (ISO 8608; physics.md §2).
+ * PSD model: `Gd(n) = Gd(n0)·(n/n0)^−w`, `n0 = 0.1 cycles/m`, `w = 2` (ISO 8608; docs/methods.md "Road roughness").
  *
  * @module
  */
@@ -29,7 +29,7 @@ export interface IsoClassBounds {
 
 /**
  * ISO 8608 class table of `Gd(n0)` [m³]: lower / geometric mean / upper, 10⁻⁶ m³ values
- * 16·4^k (A mean 16, B 64, …, H 262 144). Source: ISO 8608 (physics.md §2 table).
+ * 16·4^k (A mean 16, B 64, …, H 262 144). Source: ISO 8608 (docs/methods.md "Road roughness" table).
  */
 export const ISO8608_CLASSES: readonly IsoClassBounds[] = Object.freeze(
   (['A', 'B', 'C', 'D', 'E', 'F', 'G', 'H'] as IsoClass[]).map((cls, k) => {
@@ -41,7 +41,7 @@ export const ISO8608_CLASSES: readonly IsoClassBounds[] = Object.freeze(
 /**
  * Geometric-mean `Gd(n0)` of an ISO 8608 class.
  *
- * Source: ISO 8608 class table (physics.md §2). Note: some public code uses the upper bound
+ * Source: ISO 8608 class table (docs/methods.md "Road roughness"). Note: some public code uses the upper bound
  * as the class value; we use the geometric mean.
  *
  * @param cls class letter A–H (case-insensitive)
@@ -72,7 +72,7 @@ export function classBounds(cls: IsoClass | string): IsoClassBounds {
  * ISO 8608 class of a measured `Gd(n0)`: the class whose [lower, upper) interval contains it
  * (a value exactly on a bound belongs to the rougher class).
  *
- * Source: ISO 8608 class bounds (physics.md §2).
+ * Source: ISO 8608 class bounds (docs/methods.md "Road roughness").
  *
  * @param gdN0 displacement PSD at n0 = 0.1 cycles/m [m³], > 0
  * @returns class letter

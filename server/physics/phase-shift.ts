@@ -3,7 +3,7 @@
  * and tyre contact force over the sweep, its minimum between body and wheel-hop resonance, the
  * commonly cited pass/fail line, and the inverse (present damping from a measured minimum).
  *
- * Method (physics.md §4; Tsymberov, SAE 960735, 1996): the plate moves `a·sin(2πft)`; the
+ * Method (docs/methods.md "Test-lane checks"; Tsymberov, SAE 960735, 1996): the plate moves `a·sin(2πft)`; the
  * dynamic contact force is `kt·(zr − zu)`, from the two-mass model's transfer function
  * ({@link cornerTransfer}); φ(f) = |arg(force / plate displacement)| in degrees, 180° at low
  * frequency (the masses' inertia pushes back in antiphase) falling to 0° above wheel hop. With no
@@ -17,7 +17,7 @@
 import { cornerTransfer, modes } from './quarter-car';
 import { requireInRange, validateCorner, type CornerParams } from './types';
 
-/** Commonly cited fail line of the phase-shift method: φmin below 35° (common practice, physics.md §4). */
+/** Commonly cited fail line of the phase-shift method: φmin below 35° (common practice, docs/methods.md "Test-lane checks"). */
 export const PHASE_FAIL_BELOW_DEG = 35;
 
 /** Result of a predicted phase-shift run. */

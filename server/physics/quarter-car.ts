@@ -2,7 +2,7 @@
  * The two-mass (quarter-car) model of one vehicle corner: state-space matrices, modes and
  * frequency response to road input.
  *
- * Model (physics.md §1): `ms·zs'' = −ks(zs − zu) − cs(zs' − zu')`,
+ * Model (docs/methods.md "The corner model"): `ms·zs'' = −ks(zs − zu) − cs(zs' − zu')`,
  * `mu·zu'' = ks(zs − zu) + cs(zs' − zu') − kt(zu − zr)`; state `x = [zs − zu, zs', zu − zr, zu']`,
  * input road velocity `u = zr'`.
  *
@@ -40,7 +40,7 @@ export interface QuarterCarStateSpace {
 /**
  * State-space matrices of a corner with road velocity as input.
  *
- * Source: physics.md §1 (standard two-mass model, e.g. Cebon 1999, Handbook of Vehicle–Road
+ * Source: docs/methods.md "The corner model" (standard two-mass model, e.g. Cebon 1999, Handbook of Vehicle–Road
  * Interaction).
  *
  * @param c corner parameters [kg, N/m, N·s/m]
@@ -129,7 +129,7 @@ export interface CornerTransfer {
 /**
  * Complex transfer functions of a corner from road displacement, at one frequency.
  *
- * Closed-form rational functions of s = j·2πf (derived from the equations of physics.md §1):
+ * Closed-form rational functions of s = j·2πf (derived from the equations of docs/methods.md "The corner model"):
  * `Δ = ms·mu·s⁴ + cs(ms+mu)s³ + (ms(ks+kt) + mu·ks)s² + cs·kt·s + ks·kt`,
  * `Zs/Zr = kt(cs·s + ks)/Δ`, `(Zs−Zu)/Zr = −kt·ms·s²/Δ`, `Zu/Zr = kt(ms·s² + cs·s + ks)/Δ`.
  * Independent of {@link stateSpace}, so tests can compare the two.

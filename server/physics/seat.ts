@@ -1,6 +1,6 @@
 /**
  * From the modelled floor to the driver's seat: the factors that turn one front corner's
- * `Wk`-weighted body acceleration into a screening estimate of the seat `a_w` (physics.md §5;
+ * `Wk`-weighted body acceleration into a screening estimate of the seat `a_w` (docs/methods.md "Whole-body vibration";
  * docs/methods.md "Exposure at the seat").
  *
  * @module
@@ -10,7 +10,7 @@ import { requireInRange } from './types';
 /**
  * Default floor-to-seat factor (SEAT value, seat effective amplitude transmissibility) by vehicle
  * class: the middle of the ranges in Griffin, Handbook of Human Vibration, 1990 (from memory,
- * physics.md §5): conventional car and van seats 0.8–1.1, suspension seats of trucks and buses
+ * docs/methods.md "Whole-body vibration"): conventional car and van seats 0.8–1.1, suspension seats of trucks and buses
  * 0.6–0.9. Editable per spec.
  */
 export const SEAT_DEFAULTS: Readonly<Record<string, { seat: number; source: string }>> = Object.freeze({

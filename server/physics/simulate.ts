@@ -37,7 +37,7 @@ export interface PreparedSimulation {
 /**
  * Discretise a corner for simulation at a given sample spacing and speed.
  *
- * Method: exact zero-order-hold discretisation (physics.md §1; {@link discretizeZoh}).
+ * Method: exact zero-order-hold discretisation (docs/methods.md "The corner model"; {@link discretizeZoh}).
  *
  * @param c corner parameters [kg, N/m, N·s/m]
  * @param dxM profile sample spacing [m], 1 mm – 10 m
@@ -289,7 +289,7 @@ function loopGeneral(p: PreparedSimulation, e: Float64Array, firstCounted: numbe
  * Simulate a corner over an evenly spaced road profile at constant speed.
  *
  * Method: exact discrete (ZOH) recurrence of the two-mass model, road elevation linear
- * between samples (physics.md §1). Convenience wrapper of {@link prepareSimulation} +
+ * between samples (docs/methods.md "The corner model"). Convenience wrapper of {@link prepareSimulation} +
  * {@link runSimulation}.
  *
  * @param c corner parameters [kg, N/m, N·s/m]

@@ -13,7 +13,7 @@ export const STANDARD_GRAVITY = 9.80665;
 /**
  * Parameters of one vehicle corner for the two-mass (quarter-car) model.
  *
- * Source of the model: physics.md §1 (textbook two-mass model, e.g. Gillespie 1992; Wong;
+ * Source of the model: docs/methods.md "The corner model" (textbook two-mass model, e.g. Gillespie 1992; Wong;
  * Cebon 1999).
  *
  * @example
@@ -115,7 +115,7 @@ export function requireInRange(
 
 /**
  * Validate a corner's parameters: finite, positive, within sensible ranges for road vehicles
- * (passenger car to heavy truck, physics.md §6 with generous margins), and unsprung mass
+ * (passenger car to heavy truck, docs/methods.md "Typical parameters" with generous margins), and unsprung mass
  * smaller than sprung mass. Throws {@link PhysicsInputError} naming the parameter and unit.
  *
  * Ranges (common practice, wide on purpose): sprung 1–20 000 kg, unsprung 0.5–5 000 kg,

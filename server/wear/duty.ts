@@ -4,7 +4,7 @@
  * unprocessed trips and the segments (roughness, speed, measured profile) of the routes they
  * drove. Output: one duty record per trip × corner and the wear added to each damper.
  *
- * Methods (physics.md §2–3):
+ * Methods (docs/methods.md "Road roughness"):
  * - Classified segments (a current Gd(n0), no measured profile): closed form, one Lyapunov
  *   solve per (corner, payload-adjusted sprung mass band, speed band), cached for the run;
  *   spring fatigue by Dirlik's spectral method from the travel PSD (moments per unit Gd(n0)

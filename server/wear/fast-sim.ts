@@ -25,7 +25,7 @@ export interface TravelSums {
  * must hold `e.length − 1 − firstCounted` values).
  *
  * Method: the exact discrete recurrence `x[k+1] = Ad·x[k] + Bd·u[k]`, u = road velocity over
- * the step (physics.md §1), as `runSimulation`.
+ * the step (docs/methods.md "The corner model"), as `runSimulation`.
  *
  * @param p prepared simulation with n = 4
  * @param e elevations [m]

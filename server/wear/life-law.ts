@@ -3,7 +3,7 @@
  *
  * Seal, rod-guide and bush wear follow the rod's sliding distance; on a Gaussian response the
  * mean absolute relative velocity is √(2/π)·σ_rel, so the sliding distance per km is
- * √(2/π)·σ_rel / v — on a `w = 2` road ∝ √(Gd(n0)/v), twice per ISO 8608 class step (physics.md
+ * √(2/π)·σ_rel / v — on a `w = 2` road ∝ √(Gd(n0)/v), twice per ISO 8608 class step (docs/methods.md
  * §7). Oil and valve ageing speed up with heat, and heat matters only above the mean power a
  * damper sheds easily: above {@link HEAT_SHED_FACTOR} × its reference power, each further such
  * step of mean power is taken to double the wear rate (ASSUMPTION: the oil runs about 10 K

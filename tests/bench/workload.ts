@@ -2,7 +2,7 @@
 import { synthesizeProfile } from '../../server/physics/iso8608';
 import type { CornerParams } from '../../server/physics/types';
 
-/** Passenger-car corner (demo values in physics.md §6 ranges). */
+/** Passenger-car corner (demo values in docs/methods.md "Typical parameters" ranges). */
 export const BENCH_CORNER: CornerParams = {
   sprungMassKg: 400,
   unsprungMassKg: 45,

@@ -48,7 +48,7 @@ describe('roads, surveys and imports in the browser', () => {
     await api.login(DEMO.manager);
     const routes = await api.get<{ items: { id: number; name: string; lengthKm: number }[] }>('/api/routes?q=Northgate');
     const route = routes.body.items[0];
-    // ISO 8608 class F geometric mean Gd(n0) = 16 384 × 10⁻⁶ m³ (physics.md §2)
+    // ISO 8608 class F geometric mean Gd(n0) = 16 384 × 10⁻⁶ m³ (docs/methods.md "Road roughness")
     const profile = synthesizeProfile({ gdN0: 16384e-6, lengthM: Math.floor(route.lengthKm * 1000), dxM: 0.25, seed: 5 });
     const csv = formatProfileCsv({ dxM: 0.25, startM: 0, elevationsM: profile });
 

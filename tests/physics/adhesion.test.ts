@@ -4,7 +4,7 @@ import { modes } from '../../server/physics/quarter-car';
 import { checkClose, checkRange, checkThat, CAR, DEMO_CORNERS } from './check';
 
 describe('adhesionPct (EUSAMA-style sweep)', () => {
-  it('when damping falls toward zero, then predicted adhesion falls, reaching 0 % (property, physics.md §4)', () => {
+  it('when damping falls toward zero, then predicted adhesion falls, reaching 0 % (property, docs/methods.md "Test-lane checks")', () => {
     const dampings = [1800, 1500, 1200, 900, 600, 300, 50];
     const values = dampings.map((cs) => adhesionPct({ ...CAR, dampingNsPerM: cs }).adhesionPct);
     for (let i = 1; i < values.length; i++) {
@@ -14,10 +14,10 @@ describe('adhesionPct (EUSAMA-style sweep)', () => {
     checkClose(values[values.length - 1], 0, { abs: 0 }, 'property: undamped wheel hop lifts the wheel (clipped at 0)', { cs: 50 });
   });
 
-  it('when the minimum is found, then it lies near the wheel-hop frequency (physics.md §4)', () => {
+  it('when the minimum is found, then it lies near the wheel-hop frequency (docs/methods.md "Test-lane checks")', () => {
     const r = adhesionPct(CAR);
     const hop = modes(CAR).wheelHz;
-    checkRange(r.atHz, 0.9 * hop, 1.2 * hop, 'physics.md §4: the minimum is at wheel hop', { wheelHz: hop, atHz: r.atHz });
+    checkRange(r.atHz, 0.9 * hop, 1.2 * hop, 'docs/methods.md "Test-lane checks": the minimum is at wheel hop', { wheelHz: hop, atHz: r.atHz });
   });
 
   it('when the plate amplitude halves, then the loss (100 − adhesion) halves (property: linear model)', () => {
@@ -26,15 +26,15 @@ describe('adhesionPct (EUSAMA-style sweep)', () => {
     checkClose(100 - a3, (100 - a6) / 2, { rel: 1e-9 }, 'property: linearity', { a6, a3 });
   });
 
-  it('when no amplitude is given, then the default is 3 mm, half the 6 mm peak-to-peak stroke (from memory, physics.md §4)', () => {
-    checkClose(DEFAULT_PLATE_AMPLITUDE_M, 0.003, { abs: 0 }, 'physics.md §4 (from memory)', {});
+  it('when no amplitude is given, then the default is 3 mm, half the 6 mm peak-to-peak stroke (from memory, docs/methods.md "Test-lane checks")', () => {
+    checkClose(DEFAULT_PLATE_AMPLITUDE_M, 0.003, { abs: 0 }, 'docs/methods.md "Test-lane checks" (from memory)', {});
     checkClose(adhesionPct(CAR).adhesionPct, adhesionPct(CAR, { amplitudeM: 0.003 }).adhesionPct, { abs: 0 }, 'definition', {});
   });
 
-  it('when new dampers on the demo specs are read at the 3 mm default, then they read good (≥ 60 %), and worn to half their damping they read lower (common practice, physics.md §4)', () => {
+  it('when new dampers on the demo specs are read at the 3 mm default, then they read good (≥ 60 %), and worn to half their damping they read lower (common practice, docs/methods.md "Test-lane checks")', () => {
     for (const [name, c] of Object.entries(DEMO_CORNERS)) {
       const fresh = adhesionPct(c).adhesionPct;
-      checkRange(fresh, 60, 80, 'physics.md §4: new dampers commonly read 60–80 % (common practice)', { name, fresh });
+      checkRange(fresh, 60, 80, 'docs/methods.md "Test-lane checks": new dampers commonly read 60–80 % (common practice)', { name, fresh });
       const worn = adhesionPct({ ...c, dampingNsPerM: c.dampingNsPerM / 2 }).adhesionPct;
       checkThat(worn < fresh - 8, 'computed: a damper at half its damping reads clearly lower', `${name}: new ${fresh} %, half damping ${worn} %`);
       // read as a 6 mm amplitude the same new damper loses twice as much (linear model): the reading the default used to make
@@ -52,9 +52,9 @@ describe('adhesionPct (EUSAMA-style sweep)', () => {
     checkThat(msg.includes('amplitudeM') && msg.includes('[m]'), 'house rule', `message "${msg}"`);
   });
 
-  it('when bands are read, then ≥ 60 good, 40–59 fair, 20–39 weak, < 20 poor (common practice, physics.md §4)', () => {
+  it('when bands are read, then ≥ 60 good, 40–59 fair, 20–39 weak, < 20 poor (common practice, docs/methods.md "Test-lane checks")', () => {
     const cases: [number, string][] = [[75, 'good'], [60, 'good'], [59.9, 'fair'], [40, 'fair'], [25, 'weak'], [19, 'poor']];
-    for (const [p, b] of cases) checkThat(adhesionBand(p) === b, 'physics.md §4 common practice', `${p} → ${adhesionBand(p)}, expected ${b}`);
+    for (const [p, b] of cases) checkThat(adhesionBand(p) === b, 'docs/methods.md "Test-lane checks" common practice', `${p} → ${adhesionBand(p)}, expected ${b}`);
   });
 });
 

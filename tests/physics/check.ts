@@ -61,7 +61,7 @@ export function checkThat(ok: boolean, source: Source, message: string): void {
   expect(ok, `[${source}] ${message}`).toBe(true);
 }
 
-/** A typical passenger-car corner (demo values in the physics.md §6 ranges). */
+/** A typical passenger-car corner (demo values in the docs/methods.md "Typical parameters" ranges). */
 export const CAR = Object.freeze({
   sprungMassKg: 400,
   unsprungMassKg: 45,

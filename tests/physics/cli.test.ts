@@ -56,12 +56,12 @@ describe('cli', () => {
     }
   });
 
-  it('when iri reads a 5 mm, 5 m sinusoid in elevation_mm, then IRI ≈ 4.65 m/km and 100 m segments start at the first distance (computed, physics.md §2)', () => {
+  it('when iri reads a 5 mm, 5 m sinusoid in elevation_mm, then IRI ≈ 4.65 m/km and 100 m segments start at the first distance (computed, docs/methods.md "Road roughness")', () => {
     const lines = ['distance_m,elevation_mm'];
     for (let i = 0; i <= 4000; i++) lines.push(`${(500 + i * 0.25).toFixed(2)},${(5 * Math.sin((2 * Math.PI * i * 0.25) / 5)).toFixed(6)}`);
     const r = cli('iri', file('sine.csv', lines.join('\n')), '--segment-m', '100');
     checkThat(r.code === 0, 'cli contract', `exit ${r.code}, stderr "${r.stderr}"`);
-    checkClose(r.json?.iri as number, 4.65, { abs: 0.01 }, 'computed (physics.md §2)', { wavelengthM: 5, amplitudeMm: 5 });
+    checkClose(r.json?.iri as number, 4.65, { abs: 0.01 }, 'computed (docs/methods.md "Road roughness")', { wavelengthM: 5, amplitudeMm: 5 });
     const segs = r.json?.segments as { startM: number; endM: number; iri: number }[];
     checkClose(segs.length, 10, { abs: 0 }, 'definition: 1000 m / 100 m', {});
     checkClose(segs[0].startM, 500, { abs: 1e-9 }, 'definition', {});
@@ -129,7 +129,7 @@ describe('cli', () => {
     checkThat(miss.code === 2 && miss.stderr.includes('--phase-deg'), 'cli contract', miss.stderr);
   });
 
-  it('when roughness converts an IRI or a Gd(n0), then it prints iri, gdN0 and class consistent with the golden car (computed, physics.md §2) and refuses both or neither', () => {
+  it('when roughness converts an IRI or a Gd(n0), then it prints iri, gdN0 and class consistent with the golden car (computed, docs/methods.md "Road roughness") and refuses both or neither', () => {
     const a = cli('roughness', '--gd', '256e-6');
     checkThat(a.code === 0, 'cli contract', `exit ${a.code}, stderr "${a.stderr}"`);
     checkClose(a.json?.iri as number, iriFromGd(256e-6), { rel: 1e-12 }, 'computed', {});

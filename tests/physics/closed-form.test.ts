@@ -112,7 +112,7 @@ describe('closed-form duty (Lyapunov)', () => {
     }
   });
 
-  it('when Gd(n0) is multiplied by 4, then variances (and power) scale by 4 and RMS by 2 (property, physics.md §2)', () => {
+  it('when Gd(n0) is multiplied by 4, then variances (and power) scale by 4 and RMS by 2 (property, docs/methods.md "Road roughness")', () => {
     const p = prepareDuty(CAR, 70 / 3.6);
     const a = dutyOnRoad(p, 64e-6);
     const b = dutyOnRoad(p, 256e-6);
@@ -122,7 +122,7 @@ describe('closed-form duty (Lyapunov)', () => {
     }
   });
 
-  it('when speed doubles on a w = 2 road, then variances double (property, physics.md §2: linear in Gd(n0)·v)', () => {
+  it('when speed doubles on a w = 2 road, then variances double (property, docs/methods.md "Road roughness": linear in Gd(n0)·v)', () => {
     const a = dutyOnRoad(prepareDuty(CAR, 10, { maxCyclesPerM: 'unlimited' }), 100e-6);
     const b = dutyOnRoad(prepareDuty(CAR, 20, { maxCyclesPerM: 'unlimited' }), 100e-6);
     checkClose(b.rmsSuspensionTravel, Math.SQRT2 * a.rmsSuspensionTravel, { rel: 1e-9 }, 'property', {});

@@ -10,7 +10,7 @@ describe('ISO 2631-1 Wk weighting', () => {
     const table: [number, number][] = [
       [0.5, 418], [1, 482], [2, 531], [4, 967], [5, 1039], [6.3, 1054], [8, 1036], [10, 988], [16, 768], [20, 636], [31.5, 405],
     ];
-    // table values are rounded to the last digit; our filter parameters are from memory (physics.md §5):
+    // table values are rounded to the last digit; our filter parameters are from memory (docs/methods.md "Whole-body vibration"):
     // allow 1 unit of the last digit (16 Hz computes 768.7)
     for (const [f, w] of table) checkClose(wkWeight(f) * 1000, w, { abs: 1.0 }, 'ISO 2631-1:1997 Table 3', { fHz: f });
   });
@@ -57,7 +57,7 @@ describe('Directive 2002/44/EC exposure', () => {
     checkClose(EXPOSURE_LIMIT_VALUE, 1.15, { abs: 0 }, 'Directive 2002/44/EC Art. 3(2)(a)', {});
   });
 
-  it('when several trips are combined, then A(8) = √(Σ a²T / 8 h) (Directive 2002/44/EC Annex B, physics.md §5)', () => {
+  it('when several trips are combined, then A(8) = √(Σ a²T / 8 h) (Directive 2002/44/EC Annex B, docs/methods.md "Whole-body vibration")', () => {
     checkClose(dailyA8([{ weightedAccel: 0.8, hours: 8 }]), 0.8, { rel: 1e-15 }, 'Directive 2002/44/EC Annex B', {});
     checkClose(dailyA8([{ weightedAccel: 1.0, hours: 2 }]), 0.5, { rel: 1e-15 }, 'Directive 2002/44/EC Annex B: √(2/8)', {});
     const trips = [{ weightedAccel: 0.6, hours: 2 }, { weightedAccel: 0.4, hours: 4 }];

@@ -89,7 +89,7 @@ describe('spectral fatigue (Dirlik, narrow band)', () => {
     checkClose(m.m2, (1e-4 * (11 ** 3 - 9 ** 3)) / 3, { rel: 1e-6 }, 'analytic', {});
   });
 
-  it('when the Dirlik density of a broad two-peak spectrum is integrated, then it integrates to 1 and its k-th moment matches the closed form (computed, physics.md §3)', () => {
+  it('when the Dirlik density of a broad two-peak spectrum is integrated, then it integrates to 1 and its k-th moment matches the closed form (computed, docs/methods.md "Duty, cycles and fatigue")', () => {
     const f: number[] = [];
     const g: number[] = [];
     for (let i = 0; i <= 4000; i++) {
@@ -114,19 +114,19 @@ describe('spectral fatigue (Dirlik, narrow band)', () => {
     }
     area *= h / 3;
     mom *= h / 3;
-    checkClose(area, 1, { abs: 1e-6 }, 'Dirlik 1985: density integrates to 1 (physics.md §3)', { gamma: p.gamma });
+    checkClose(area, 1, { abs: 1e-6 }, 'Dirlik 1985: density integrates to 1 (docs/methods.md "Duty, cycles and fatigue")', { gamma: p.gamma });
     const damage = dirlikDamage(m, { k: 3, C: 1, durationS: 1 });
     checkClose(damage, p.peakRateHz * mom, { rel: 1e-6 }, 'computed: closed-form moment vs numerical', { k: 3 });
   });
 
-  it('when the spectrum is narrow, then Dirlik damage tends to the narrow-band (Rayleigh) result (physics.md §3)', () => {
+  it('when the spectrum is narrow, then Dirlik damage tends to the narrow-band (Rayleigh) result (docs/methods.md "Duty, cycles and fatigue")', () => {
     let prevGap = Infinity;
     for (const width of [2, 0.5, 0.1]) {
       const { f, g } = bandSpectrum(10, width);
       const m = spectralMoments(f, g);
       for (const k of [3, 5]) {
         const ratio = dirlikDamage(m, { k, C: 1, durationS: 100 }) / narrowBandDamage(m, { k, C: 1, durationS: 100 });
-        checkClose(ratio, 1, { abs: 0.01 }, 'Dirlik → narrow band (physics.md §3)', { width, k });
+        checkClose(ratio, 1, { abs: 0.01 }, 'Dirlik → narrow band (docs/methods.md "Duty, cycles and fatigue")', { width, k });
       }
       const gap = Math.abs(dirlikDamage(m, { k: 3, C: 1, durationS: 1 }) / narrowBandDamage(m, { k: 3, C: 1, durationS: 1 }) - 1);
       checkThat(gap < prevGap, 'property: converges as the band narrows', `gap ${gap} not below ${prevGap} at width ${width}`);
@@ -134,7 +134,7 @@ describe('spectral fatigue (Dirlik, narrow band)', () => {
     }
   });
 
-  it('when a corner runs a synthesised road, then Dirlik damage of the travel PSD matches time-domain rainflow within 10 % (computed, physics.md §3)', () => {
+  it('when a corner runs a synthesised road, then Dirlik damage of the travel PSD matches time-domain rainflow within 10 % (computed, docs/methods.md "Duty, cycles and fatigue")', () => {
     const v = 60 / 3.6;
     const gd = 256e-6;
     const dx = 0.05;

@@ -7,7 +7,7 @@ const sine = (amplitudeM: number, wavelengthM: number, lengthM: number, dxM: num
   Float64Array.from({ length: Math.round(lengthM / dxM) + 1 }, (_, i) => amplitudeM * Math.sin((2 * Math.PI * i * dxM) / wavelengthM));
 
 describe('golden car coefficients', () => {
-  it('when computed for 0.25 m, then ST and PR reproduce Sayers\' published values to 6 digits, PR(1) to 4 (World Bank TP 46 / Sayers 1995, physics.md §2)', () => {
+  it('when computed for 0.25 m, then ST and PR reproduce Sayers\' published values to 6 digits, PR(1) to 4 (World Bank TP 46 / Sayers 1995, docs/methods.md "Road roughness")', () => {
     const ST = [
       [0.9966071, 0.01091514, -0.002083274, 0.0003190145],
       [-0.5563044, 0.9438768, -0.8324718, 0.05064701],
@@ -20,22 +20,22 @@ describe('golden car coefficients', () => {
       for (let j = 0; j < 4; j++) {
         checkClose(c.ST[i * 4 + j], ST[i][j], { rel: 5e-6 }, 'Sayers golden-car ST (World Bank TP 46), 6 significant digits', { dxM: 0.25, i: i + 1, j: j + 1 });
       }
-      // PR(1) carries a single-precision artefact in the published program (physics.md §2)
+      // PR(1) carries a single-precision artefact in the published program (docs/methods.md "Road roughness")
       checkClose(c.PR[i], PR[i], { rel: i === 0 ? 5e-4 : 5e-6 }, `Sayers golden-car PR (World Bank TP 46), ${i === 0 ? 4 : 6} digits`, { dxM: 0.25, i: i + 1 });
     }
   });
 });
 
 describe('iri', () => {
-  it('when the profile is a 5 mm sinusoid at 0.25 m, then IRI is 2.03 / 4.65 / 13.4 m/km at 15 / 5 / 2.4 m wavelength (computed, physics.md §2)', () => {
+  it('when the profile is a 5 mm sinusoid at 0.25 m, then IRI is 2.03 / 4.65 / 13.4 m/km at 15 / 5 / 2.4 m wavelength (computed, docs/methods.md "Road roughness")', () => {
     const cases: [number, number, number][] = [[15, 2.03, 0.005], [5, 4.65, 0.005], [2.4, 13.4, 0.05]];
     for (const [lambda, exp, tol] of cases) {
       const v = iri(sine(0.005, lambda, 2000, 0.25), 0.25);
-      checkClose(v, exp, { abs: tol }, 'computed (physics.md §2, not published)', { amplitudeM: 0.005, wavelengthM: lambda, lengthM: 2000, dxM: 0.25 });
+      checkClose(v, exp, { abs: tol }, 'computed (docs/methods.md "Road roughness", not published)', { amplitudeM: 0.005, wavelengthM: lambda, lengthM: 2000, dxM: 0.25 });
     }
   });
 
-  it('when the profile is an inclined plane, then IRI is 0 (computed, physics.md §2)', () => {
+  it('when the profile is an inclined plane, then IRI is 0 (computed, docs/methods.md "Road roughness")', () => {
     for (const dx of [0.25, 0.05]) {
       const z = Float64Array.from({ length: Math.round(300 / dx) + 1 }, (_, i) => 0.02 * i * dx + 3);
       checkClose(iri(z, dx), 0, { abs: 1e-9 }, 'computed: inclined plane', { slope: 0.02, dxM: dx });
@@ -90,7 +90,7 @@ describe('IRI ↔ Gd(n0) for w = 2 roads', () => {
     for (const gd of [16e-6, 64e-6, 1024e-6]) checkClose(gdFromIri(iriFromGd(gd)), gd, { rel: 1e-12 }, 'property: inverse', { gd });
   });
 
-  it('when long seeded w = 2 roads of known Gd(n0) are measured by the golden car, then IRI/√Gd matches K for their interval within 1 % (computed, physics.md §2: K ≈ 542 ± 2 at 50 mm with the moving average)', () => {
+  it('when long seeded w = 2 roads of known Gd(n0) are measured by the golden car, then IRI/√Gd matches K for their interval within 1 % (computed, docs/methods.md "Road roughness": K ≈ 542 ± 2 at 50 mm with the moving average)', () => {
     for (const dx of [0.05, 0.25, 0.3]) {
       const k = iriPerSqrtGdForInterval(dx);
       let sum = 0;
@@ -101,10 +101,10 @@ describe('IRI ↔ Gd(n0) for w = 2 roads', () => {
       }
       checkClose(sum / seeds.length, k, { rel: 0.01 }, 'computed: golden-car runs vs frequency-domain K of the same discrete golden car', { dx, k });
     }
-    // physics.md §2: golden-car runs over seeded w = 2 profiles at 0.05 m + moving average give K ≈ 542 ± 2
-    checkClose(iriPerSqrtGdConstant(), 542, { abs: 2 }, 'computed, physics.md §2', {});
+    // docs/methods.md "Road roughness": golden-car runs over seeded w = 2 profiles at 0.05 m + moving average give K ≈ 542 ± 2
+    checkClose(iriPerSqrtGdConstant(), 542, { abs: 2 }, 'computed, docs/methods.md "Road roughness"', {});
     // the continuous closed form (no moving average, white slope) is the ≈ 555 the app used before
-    checkClose(iriPerSqrtGdContinuous(), 554.7, { abs: 0.1 }, 'computed, physics.md §2', {});
+    checkClose(iriPerSqrtGdContinuous(), 554.7, { abs: 0.1 }, 'computed, docs/methods.md "Road roughness"', {});
   });
 
   it('when a road of known Gd(n0) is synthesised and measured, then converting its IRI back gives that Gd(n0) within 3 % (computed)', () => {

@@ -3,12 +3,12 @@ import { ISO8608_CLASSES, gdForClass, classifyGd, synthesizeProfile, classBounds
 import { checkClose, checkThat } from './check';
 
 describe('ISO 8608 classes', () => {
-  // ISO 8608 class table, Gd(n0) in 1e-6 m³ (physics.md §2)
+  // ISO 8608 class table, Gd(n0) in 1e-6 m³ (docs/methods.md "Road roughness")
   const table: [string, number | null, number, number | null][] = [
     ['A', null, 16, 32], ['B', 32, 64, 128], ['C', 128, 256, 512], ['D', 512, 1024, 2048],
     ['E', 2048, 4096, 8192], ['F', 8192, 16384, 32768], ['G', 32768, 65536, 131072], ['H', 131072, 262144, null],
   ];
-  it('when the class table is read, then lower/mean/upper match ISO 8608 (physics.md §2)', () => {
+  it('when the class table is read, then lower/mean/upper match ISO 8608 (docs/methods.md "Road roughness")', () => {
     checkClose(ISO8608_CLASSES.length, 8, { abs: 0 }, 'ISO 8608', {});
     for (const [cls, lo, mean, hi] of table) {
       checkClose(gdForClass(cls), mean * 1e-6, { rel: 1e-15 }, 'ISO 8608 class table', { cls });

@@ -59,12 +59,12 @@ describe('phase-shift method', () => {
       const d = directDip(c);
       checkClose(r.minPhaseDeg, d.deg, { abs: 0.01 }, 'computed: direct (jωI − A)⁻¹ solve', { c });
       checkClose(r.atHz, d.hz, { abs: 0.02 }, 'computed: direct (jωI − A)⁻¹ solve', { c });
-      checkRange(r.atHz, modes(c).bodyHz, modes(c).wheelHz, 'physics.md §4: between the two resonances', { c });
+      checkRange(r.atHz, modes(c).bodyHz, modes(c).wheelHz, 'docs/methods.md "Test-lane checks": between the two resonances', { c });
     }
   });
 
-  it('when damping falls, then the minimum phase falls toward 0°, new demo dampers pass and a damper at a third of its damping fails the commonly cited 35° line (physics.md §4, common practice)', () => {
-    checkThat(PHASE_FAIL_BELOW_DEG === 35, 'physics.md §4 (common practice)', String(PHASE_FAIL_BELOW_DEG));
+  it('when damping falls, then the minimum phase falls toward 0°, new demo dampers pass and a damper at a third of its damping fails the commonly cited 35° line (docs/methods.md "Test-lane checks", common practice)', () => {
+    checkThat(PHASE_FAIL_BELOW_DEG === 35, 'docs/methods.md "Test-lane checks" (common practice)', String(PHASE_FAIL_BELOW_DEG));
     for (const [name, c] of Object.entries(DEMO_CORNERS)) {
       const values = [1, 0.75, 0.5, 0.3, 0.1].map((x) => phaseShift({ ...c, dampingNsPerM: c.dampingNsPerM * x }).minPhaseDeg);
       for (let i = 1; i < values.length; i++) checkThat(values[i] < values[i - 1], 'property: φmin rises with damping', `${name}: ${values.join(', ')}`);
@@ -74,12 +74,12 @@ describe('phase-shift method', () => {
     }
   });
 
-  it('when the tyre is 30 % stiffer, then the minimum phase moves less than adhesion does (physics.md §4: phase depends on damping far more than on tyre stiffness)', () => {
+  it('when the tyre is 30 % stiffer, then the minimum phase moves less than adhesion does (docs/methods.md "Test-lane checks": phase depends on damping far more than on tyre stiffness)', () => {
     const c = DEMO_CORNERS.courierVanFront;
     const stiff = { ...c, tireRateNPerM: c.tireRateNPerM * 1.3 };
     const dPhase = Math.abs(phaseShift(stiff).minPhaseDeg / phaseShift(c).minPhaseDeg - 1);
     const dAdh = Math.abs(adhesionPct(stiff).adhesionPct / adhesionPct(c).adhesionPct - 1);
-    checkThat(dPhase < dAdh, 'physics.md §4', `phase ${dPhase}, adhesion ${dAdh}`);
+    checkThat(dPhase < dAdh, 'docs/methods.md "Test-lane checks"', `phase ${dPhase}, adhesion ${dAdh}`);
   });
 
   it('when a minimum phase is simulated for a known damping, then the inverse recovers it; above the highest reachable value it says so (computed)', () => {

@@ -5,11 +5,11 @@ import { PhysicsInputError, validateCorner, type CornerParams } from '../../serv
 import { checkClose, checkRange, checkThat, CAR } from './check';
 
 describe('modes', () => {
-  it('when a typical car corner is analysed, then its modes lie in the textbook ranges (physics.md §6, from memory: Gillespie 1992, Wong, Cebon 1999)', () => {
+  it('when a typical car corner is analysed, then its modes lie in the textbook ranges (docs/methods.md "Typical parameters", from memory: Gillespie 1992, Wong, Cebon 1999)', () => {
     const m = modes(CAR);
-    checkRange(m.bodyHz, 1.0, 1.5, 'physics.md §6 body bounce 1.0–1.5 Hz (from memory)', CAR);
-    checkRange(m.wheelHz, 10, 15, 'physics.md §6 wheel hop 10–15 Hz (from memory)', CAR);
-    checkRange(m.bodyDampingRatio, 0.2, 0.4, 'physics.md §6 damping ratio 0.2–0.4 (from memory)', CAR);
+    checkRange(m.bodyHz, 1.0, 1.5, 'docs/methods.md "Typical parameters" body bounce 1.0–1.5 Hz (from memory)', CAR);
+    checkRange(m.wheelHz, 10, 15, 'docs/methods.md "Typical parameters" wheel hop 10–15 Hz (from memory)', CAR);
+    checkRange(m.bodyDampingRatio, 0.2, 0.4, 'docs/methods.md "Typical parameters" damping ratio 0.2–0.4 (from memory)', CAR);
   });
 
   it('when the wheel is rigidly held (kt → large) and damping tiny, then body frequency → √(ks/ms)/2π (analytic limit)', () => {
@@ -20,12 +20,12 @@ describe('modes', () => {
     checkClose(m.bodyDampingRatio, 1 / (2 * Math.sqrt(c.springRateNPerM * c.sprungMassKg)), { rel: 1e-2 }, 'analytic: ζ = cs/(2√(ks·ms))', c);
   });
 
-  it('when the corner is the published Hindawi ISRN 2015 (974020, Table 2) front corner with 350 kg body share, then modes are in range (physics.md §6)', () => {
-    // ks, cs, kt, mu from the cited table; the sprung mass is our assumption (not in physics.md)
+  it('when the corner is the published Hindawi ISRN 2015 (974020, Table 2) front corner with 350 kg body share, then modes are in range (docs/methods.md "Typical parameters")', () => {
+    // ks, cs, kt, mu from the cited table; the sprung mass is our assumption (not in docs/methods.md)
     const c: CornerParams = { sprungMassKg: 350, unsprungMassKg: 40, springRateNPerM: 19960, dampingNsPerM: 1290, tireRateNPerM: 175500 };
     const m = modes(c);
-    checkRange(m.bodyHz, 1.0, 1.5, 'physics.md §6 body bounce range (from memory)', c);
-    checkRange(m.wheelHz, 10, 15, 'physics.md §6 wheel hop range (from memory)', c);
+    checkRange(m.bodyHz, 1.0, 1.5, 'docs/methods.md "Typical parameters" body bounce range (from memory)', c);
+    checkRange(m.wheelHz, 10, 15, 'docs/methods.md "Typical parameters" wheel hop range (from memory)', c);
   });
 });
 

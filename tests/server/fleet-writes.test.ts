@@ -25,7 +25,7 @@ const carAxle = { label: 'front', sprungMassKg: 350, unsprungMassKg: 40, springR
 type Err = { error: { fields: Record<string, string>; message: string } };
 
 describe('spec presets and checks', () => {
-  it('when presets are checked, then every preset passes the physical-sense checks and sits in its class ranges (physics.md §6)', () => {
+  it('when presets are checked, then every preset passes the physical-sense checks and sits in its class ranges (docs/methods.md "Typical parameters")', () => {
     for (const p of PRESETS) {
       for (const [i, a] of p.axles.entries()) {
         expect(checkCorner(a, `axles.${i}`), p.name).toEqual({});

@@ -40,14 +40,14 @@ describe('demo fleet', () => {
     expect(new Set(routes.body.items.map((r) => r.worstClass)).size).toBeGreaterThanOrEqual(3);
   });
 
-  it('when seeded, then every spec corner has body bounce and wheel hop in the typical ranges (physics.md §6)', async () => {
+  it('when seeded, then every spec corner has body bounce and wheel hop in the typical ranges (docs/methods.md "Typical parameters")', async () => {
     const specs = await manager.get<List<{ name: string; vehicleClass: string; axles: { corner: Parameters<typeof modes>[0] }[] }>>('/api/specs');
     for (const s of specs.body.items) {
       for (const a of s.axles) {
         const m = modes(a.corner);
         const heavy = s.vehicleClass === 'heavy goods';
         const ctx = `${s.name}: ${JSON.stringify(m)}`;
-        // physics.md §6 (textbook ranges, from memory): cars/vans body 1.0–1.5 Hz, trucks 1–4 Hz; wheel hop ~10–15 Hz
+        // docs/methods.md "Typical parameters" (textbook ranges, from memory): cars/vans body 1.0–1.5 Hz, trucks 1–4 Hz; wheel hop ~10–15 Hz
         expect(m.bodyHz, ctx).toBeGreaterThanOrEqual(1.0);
         expect(m.bodyHz, ctx).toBeLessThanOrEqual(heavy ? 4 : 1.6);
         expect(m.wheelHz, ctx).toBeGreaterThanOrEqual(heavy ? 7 : 9);

@@ -66,7 +66,7 @@ describe('demo surveys', () => {
     expect(seg.iri!).toBeCloseTo(bins[5].iri, 2);
   });
 
-  it('when seeded, then no demo segment is rougher than the roughest unpaved roads (IRI under 35 m/km, physics.md §2), and rough stretches exist', async () => {
+  it('when seeded, then no demo segment is rougher than the roughest unpaved roads (IRI under 35 m/km, docs/methods.md "Road roughness"), and rough stretches exist', async () => {
     const [row] = await srv.db.sequelize.query<{ maxGd: number; maxIri: number | null; rough: number }>(
       `SELECT MAX(gd_n0) AS maxGd, MAX(iri) AS maxIri, SUM(CASE WHEN iso_class = 'D' THEN 1 ELSE 0 END) AS rough FROM route_segments`,
       { type: 'SELECT' as never },

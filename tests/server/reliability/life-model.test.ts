@@ -1,7 +1,7 @@
 /**
  * Checks of the damper life model (server/reliability/life-model.ts). The synthetic fleets
  * draw lives from a known true law that differs from the prior in road sensitivity, scale
- * and shape (computed checks, physics.md §7: the fit should recover the median per road class
+ * and shape (computed checks, docs/methods.md "Damper life model": the fit should recover the median per road class
  * within about 10–25 % from a few hundred censored dampers).
  */
 import { describe, expect, it } from 'vitest';

@@ -41,7 +41,7 @@ describe('road severity (the damper duty measure)', () => {
     expect(roadSeverity(front, gdForClass('B'), 80)).toBeCloseTo(1, 9);
   });
 
-  it('doubles per ISO class step at the same speed: rod sliding per km ∝ √Gd(n0) (physics.md §7, computed)', () => {
+  it('doubles per ISO class step at the same speed: rod sliding per km ∝ √Gd(n0) (docs/methods.md "Damper life model", computed)', () => {
     expect(roadSeverity(front, gdForClass('C'), 80)).toBeCloseTo(2, 6);
     expect(roadSeverity(front, gdForClass('D'), 80)).toBeCloseTo(4, 6);
   });
