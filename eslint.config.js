@@ -18,6 +18,7 @@ const up = (regex, message) => ({ regex, message });
 const features = fs.readdirSync('web/src/features', { withFileTypes: true }).filter((d) => d.isDirectory()).map((d) => d.name);
 const layerRules = [
   rule(['server/**/*.ts', 'jobs/**/*.ts'], noClient),
+  rule(['server/*/**/*.ts'], noClient, up('^(\\.\\./){2,}jobs/', 'An area does not import the jobs (they import the areas); take what it needs as a dependency from server/main.ts.')),
   rule(['server/lib/**/*.ts'], noClient, up('^\\.\\./', 'server/lib is the bottom layer: it imports only packages and node built-ins.')),
   rule(['server/physics/**/*.ts'], noClient, up('^\\.\\./(?!lib/)', 'server/physics is pure numerics: it imports only server/lib.')),
   rule(['server/reliability/**/*.ts'], noClient, up('^\\.\\./(?!lib/|physics/)', 'server/reliability imports only server/lib and server/physics.')),

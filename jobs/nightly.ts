@@ -24,9 +24,11 @@ import { localDay, startOfLocalDay } from '../server/wear/repository';
 import { predictAll, processTrips, recomputeWear, RunAborted, type ItemError, type PhaseContext } from '../server/wear/service';
 import { plusDays, type LifeResolver } from '../server/wear/wear';
 import { refitAndResolveLife } from '../server/workshop/nightly-life';
-// Drivers' daily exposure step; importing ride-mail registers the severe-reports digest section
 import { refreshExposure } from '../server/drivers/exposure';
-import '../server/drivers/ride-mail';
+import { registerRideReportDigest } from '../server/drivers/ride-mail';
+
+// The manager digest's sections beyond the inspections: severe ride reports.
+registerRideReportDigest();
 
 export const name = 'nightly';
 

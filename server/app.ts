@@ -28,8 +28,10 @@ import { registerRideReportRoutes } from './drivers/ride-reports-routes';
 import { registerExposureRoutes } from './drivers/exposure-routes';
 import { registerSpeedAdviceRoutes } from './drivers/speed-advice-routes';
 import type { Mailer } from './mail/mailer';
+import { registerRideReportDigest } from './drivers/ride-mail';
 import { registerMailRoutes } from './mail/routes';
 import { registerJobRoutes } from './jobs/routes';
+import type { StartNightly } from './jobs/service';
 import { registerInspectionRoutes } from './inspections/routes';
 import { registerWearRoutes } from './wear/routes';
 
@@ -44,6 +46,8 @@ export interface AppDeps {
   webDir?: string;
   /** Outgoing mail (server/mail/mailer.ts `createMailer`); without it, jobs cannot be run from the app. */
   mailer?: Mailer | null;
+  /** Starts a nightly run for `POST /api/jobs/nightly/run` (jobs/nightly.ts); without it that answers 503. */
+  startNightly?: StartNightly | null;
 }
 
 export interface BuiltApp {
@@ -69,6 +73,8 @@ function originOf(template: string): string | null {
 /** Builds the Express app without listening, so tests and `main.ts` share it. */
 export function createApp(deps: AppDeps): BuiltApp {
   const { config, db, log } = deps;
+  // the manager digest's sections beyond the inspections (the digest is queued by the nightly job)
+  registerRideReportDigest();
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy);
@@ -180,7 +186,7 @@ export function createApp(deps: AppDeps): BuiltApp {
   registerRideReportRoutes(api, { now: deps.now ?? (() => new Date()), dataDir: config.dataDir, publicUrl: config.publicUrl, log, mailer: deps.mailer ?? null });
   registerExposureRoutes(api, { now: deps.now ?? (() => new Date()), timeZone: config.timeZone });
   registerSpeedAdviceRoutes(api);
-  registerJobRoutes(api, { config, db, log, mailer: deps.mailer ?? null, now: deps.now ?? (() => new Date()) });
+  registerJobRoutes(api, { config, db, log, mailer: deps.mailer ?? null, now: deps.now ?? (() => new Date()), startNightly: deps.startNightly ?? null });
   registerInspectionRoutes(api, { sequelize: db.sequelize, config, now: deps.now ?? (() => new Date()) });
   registerWearRoutes(api, { sequelize: db.sequelize, config });
   registerMailRoutes(api, { mailer: deps.mailer ?? null });

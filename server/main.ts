@@ -23,7 +23,7 @@ async function main() {
   let seeded = false;
   const db = await prepareDatabase(config, log, new Date(), { onSeeded: () => (seeded = true) });
   const { mailer } = await createMailer(config, log);
-  const built = createApp({ config, db, log, webDir: defaultWebDir, mailer });
+  const built = createApp({ config, db, log, webDir: defaultWebDir, mailer, startNightly });
   const scheduler = startScheduler({ config, db, log, mailer });
   const server: Server = built.app.listen(config.port, config.host, () => {
     log.info(`Reboundry is running at ${config.publicUrl} (data in ${config.dataDir})`);

@@ -79,8 +79,7 @@ export const severeReportsSection: DigestSectionProvider = {
   },
 };
 
-/** Registers the severe-reports section with the manager digest (idempotent). */
+/** Registers the severe-reports section with the manager digest (idempotent); the app and the nightly job call it at start. */
 export function registerRideReportDigest() {
   registerDigestSection(severeReportsSection);
 }
-registerRideReportDigest();

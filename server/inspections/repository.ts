@@ -3,7 +3,7 @@
  */
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { sqlDate } from '../wear/repository';
-import type { CornerForecast, FollowUp } from '../wear/schedule';
+import type { CornerForecast, FollowUp } from './schedule';
 
 export interface OpenInspection {
   id: number;

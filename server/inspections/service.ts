@@ -1,11 +1,11 @@
 /**
- * The scheduling phase of the nightly run and the due list. Rules: server/wear/schedule.ts.
+ * The scheduling phase of the nightly run and the due list. Rules: server/inspections/schedule.ts.
  *
  * Assignment (stated rule): a new inspection goes to the active mechanic of the vehicle's depot
  * with the fewest open inspections (lowest id on a tie); none when the depot has no mechanic.
  */
 import type { Sequelize } from 'sequelize';
-import { decide, openStatus, type ScheduleRules } from '../wear/schedule';
+import { decide, openStatus, type ScheduleRules } from './schedule';
 import { plusDays } from '../wear/wear';
 import { localDay, startOfLocalDay } from '../wear/repository';
 import { inspectionRepository } from './repository';

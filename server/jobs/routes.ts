@@ -7,7 +7,7 @@ import type { Mailer } from '../mail/mailer';
 import { AppError } from '../errors';
 import { allow, currentUser } from '../http/access';
 import { idParam, isoDay, listQuery, notAfter, paging, parse } from '../http/validate';
-import { jobService } from './service';
+import { jobService, type StartNightly } from './service';
 import { localDay } from '../wear/repository';
 
 const runBody = z
@@ -18,7 +18,7 @@ const runBody = z
 
 const runList = listQuery(['id'], '-id', {});
 
-export function registerJobRoutes(r: Router, deps: { config: Config; db: Db; log: Logger; mailer: Mailer | null; now: () => Date }) {
+export function registerJobRoutes(r: Router, deps: { config: Config; db: Db; log: Logger; mailer: Mailer | null; now: () => Date; startNightly: StartNightly | null }) {
   const jobs = jobService(deps);
 
   r.post('/jobs/nightly/run', allow('manager'), async (req, res) => {

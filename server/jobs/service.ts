@@ -3,15 +3,21 @@ import type { Db } from '../db';
 import type { Logger } from '../logger';
 import type { Mailer } from '../mail/mailer';
 import { AppError } from '../errors';
-import { startNightly } from '../../jobs/nightly';
 import { jobRepository, LockBusyError } from './repository';
 
-export function jobService(deps: { config: Config; db: Db; log: Logger; mailer: Mailer | null; now: () => Date }) {
+/**
+ * Starts a nightly run (jobs/nightly.ts `startNightly`), handed in by the process that composes
+ * the app (server/main.ts, the test server), so this area does not import the job that imports it.
+ */
+export type StartNightly = (opts: { now: Date; asOf?: string; log: Logger; db: Db; config: Config; mailer: Mailer; trigger: 'manual'; requestedById: number }) => Promise<{ runId: number; done: Promise<unknown> }>;
+
+export function jobService(deps: { config: Config; db: Db; log: Logger; mailer: Mailer | null; now: () => Date; startNightly: StartNightly | null }) {
   return {
     /** Starts the nightly job in the background; resolves with the run id once it holds the lock. */
     async startNightly(input: { asOf?: string; requestedById: number }) {
+      if (!deps.startNightly) throw new AppError(503, 'job_unavailable', 'This app instance cannot start the nightly job.');
       try {
-        const { runId, done } = await startNightly({
+        const { runId, done } = await deps.startNightly({
           now: deps.now(),
           asOf: input.asOf,
           log: deps.log,

@@ -11,6 +11,7 @@ import type { Db } from '../../server/db';
 import type { Config } from '../../server/config';
 import type { Logger } from '../../server/logger';
 import { createMailer, type Mailer } from '../../server/mail/mailer';
+import { startNightly } from '../../jobs/nightly';
 
 export interface TestServer {
   url: string;
@@ -83,7 +84,7 @@ export async function startTestServer(opts: { seed?: boolean; auth?: AppDeps['au
   const log = createLogger(config.logLevel);
   const db = await prepareDatabase(config, log, TEST_NOW);
   const { mailer } = await createMailer(config, log);
-  const built = createApp({ config, db, log, now: () => TEST_NOW, auth: opts.auth, webDir: opts.webDir ?? defaultWebDir, mailer });
+  const built = createApp({ config, db, log, now: () => TEST_NOW, auth: opts.auth, webDir: opts.webDir ?? defaultWebDir, mailer, startNightly });
   const server = await new Promise<import('node:http').Server>((resolve) => {
     const s = built.app.listen(0, '127.0.0.1', () => resolve(s));
   });

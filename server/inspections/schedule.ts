@@ -24,7 +24,8 @@
  */
 import { addMonths, parseISO } from 'date-fns';
 import type { InspectionTrigger } from '../db/nightly-models';
-import { daysBetween, formatKm, plusDays } from './wear';
+import { daysBetween, plusDays } from '../lib/days';
+import { formatKm } from '../wear/wear';
 
 export interface ScheduleRules {
   /** Inspection threshold as a fraction of life [1]. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { decide, openStatus, type ScheduleRules, type VehicleScheduleInput } from '../../../server/wear/schedule';
+import { decide, openStatus, type ScheduleRules, type VehicleScheduleInput } from '../../../server/inspections/schedule';
 
 const rules: ScheduleRules = { threshold: 0.8, leadDays: 14, intervalKm: 50000, intervalMonths: 12, dueSoonDays: 7, horizonDays: 90 };
 
