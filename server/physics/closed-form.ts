@@ -11,7 +11,8 @@
  * @module
  */
 import { lyapunov } from './linalg';
-import { stateSpace } from './quarter-car';
+import { cornerTransfer, stateSpace } from './quarter-car';
+import type { SpectralMoments } from './fatigue';
 import { appendWk, wkWeight } from './exposure';
 import { ISO8608_N0, gdForClass } from './iso8608';
 import { STANDARD_GRAVITY, requireInRange, validateCorner, validateSpeed, type CornerParams } from './types';
@@ -250,4 +251,38 @@ export function ratedLifeEnergyJ(c: CornerParams, opts: RatedLifeOptions = {}): 
   const gd = requireInRange('gdN0', opts.gdN0 ?? gdForClass('B'), 'm³', 0, 1, true);
   const v = opts.speedMps ?? 80 / 3.6;
   return dutyOnRoad(prepareDuty(c, v), gd).damperEnergyJPerKm * km;
+}
+
+/**
+ * Spectral moments of suspension travel on a `w = 2` road of `gdN0` at speed v, from the
+ * closed-form transfer function and the road's temporal PSD `G(f) = Gd(n0)·n0²·v / f²`,
+ * trapezoid rule on a log grid from 0.01 Hz to the road band's top `ROAD_BAND·v` (600 points; m0
+ * within 1 % of the closed form's travel variance, tested).
+ *
+ * @param c corner [kg, N/m, N·s/m]
+ * @param speedMps speed [m/s]
+ * @param gdN0 road Gd(n0) [m³]
+ * @returns m0 [m²], m1 [m²·Hz], m2 [m²·Hz²], m4 [m²·Hz⁴]
+ */
+export function travelMoments(c: CornerParams, speedMps: number, gdN0: number): SpectralMoments {
+  const n = 600;
+  const f0 = 0.01, f1 = ROAD_BAND.maxCyclesPerM * speedMps;
+  const r = Math.pow(f1 / f0, 1 / (n - 1));
+  let m0 = 0, m1 = 0, m2 = 0, m4 = 0;
+  let fp = 0, gp = 0;
+  for (let i = 0; i < n; i++) {
+    const f = f0 * Math.pow(r, i);
+    const [re, im] = cornerTransfer(c, f).suspensionTravel;
+    const g = (re * re + im * im) * ((gdN0 * ISO8608_N0 * ISO8608_N0 * speedMps) / (f * f));
+    if (i > 0) {
+      const df = f - fp;
+      m0 += 0.5 * df * (gp + g);
+      m1 += 0.5 * df * (fp * gp + f * g);
+      m2 += 0.5 * df * (fp * fp * gp + f * f * g);
+      m4 += 0.5 * df * (fp ** 4 * gp + f ** 4 * g);
+    }
+    fp = f;
+    gp = g;
+  }
+  return { m0, m1, m2, m4 };
 }

@@ -311,3 +311,79 @@ export function narrowBandDamage(m: SpectralMoments, opts: SpectralDamageOptions
   const nu0 = Math.sqrt(m.m2 / m.m0);
   return (nu0 * opts.durationS * (2 * Math.sqrt(2 * m.m0)) ** opts.k * gamma(1 + opts.k / 2)) / opts.C;
 }
+
+let stack = new Float64Array(1024);
+
+/**
+ * Miner damage `Σ n·Sᵏ / C` of the rainflow cycles of `x[0..len)`, counted as ASTM E1049-85
+ * §5.4.4 (three-point method with half cycles, as {@link rainflow} with {@link minerDamage}),
+ * without building the cycle list: the nightly job's form, run on every profiled segment.
+ *
+ * @param x series [m]
+ * @param len samples to use
+ * @param k Basquin exponent [1]
+ * @param C Basquin constant [mᵏ]
+ * @returns damage [1]
+ */
+export function rainflowDamage(x: Float64Array, len: number, k: number, C: number): number {
+  if (len === 0) return 0;
+  if (stack.length < len + 2) stack = new Float64Array(len + 2);
+  const st = stack;
+  let n = 0;
+  let d = 0;
+  let prevDir = 0;
+  let last = x[0];
+  let pending = false;
+  let i = 1;
+  // Reversals on the fly (keep the first point, extend monotone runs, push turning points and
+  // the last point); each pushed point runs the three-point rule.
+  let v = last;
+  let flush = true; // push x[0] first
+  for (;;) {
+    if (flush) {
+      st[n++] = v;
+      while (n >= 3) {
+        const X = Math.abs(st[n - 1] - st[n - 2]);
+        const Y = Math.abs(st[n - 2] - st[n - 3]);
+        if (X < Y) break;
+        if (n === 3) {
+          d += 0.5 * Y ** k;
+          st[0] = st[1];
+          st[1] = st[2];
+          n = 2;
+        } else {
+          d += Y ** k;
+          st[n - 3] = st[n - 1];
+          n -= 2;
+        }
+      }
+      flush = false;
+    }
+    if (i >= len) {
+      if (pending) {
+        v = last;
+        pending = false;
+        flush = true;
+        continue;
+      }
+      break;
+    }
+    const xi = x[i++];
+    if (xi === last) continue;
+    const dir = xi > last ? 1 : -1;
+    if (pending && dir === prevDir) {
+      last = xi;
+    } else if (pending) {
+      v = last;
+      flush = true;
+      last = xi;
+      prevDir = dir;
+    } else {
+      last = xi;
+      pending = true;
+      prevDir = dir;
+    }
+  }
+  for (let j = 0; j + 1 < n; j++) d += 0.5 * Math.abs(st[j + 1] - st[j]) ** k;
+  return d / C;
+}

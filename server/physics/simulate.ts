@@ -163,7 +163,13 @@ export function runSimulation(p: PreparedSimulation, elevationsM: Float64Array, 
         ...(p.rows.weightedAccel ? { weightedAccel: new Float64Array(len) } : {}),
       }
     : undefined;
-  const sums = p.n === 4 && !series ? loop4(p, elevationsM, firstCounted) : loopGeneral(p, elevationsM, firstCounted, series);
+  // the nightly job's buffer loops are the core; the general loop only for series or other orders
+  const sums =
+    p.n === 4 && !series
+      ? sumsOf(simulateTravel(p, elevationsM, firstCounted, null))
+      : p.n === 12 && p.rows.weightedAccel && !series
+        ? sumsOf(simulateWeighted(p, elevationsM, firstCounted, steps, null))
+        : loopGeneral(p, elevationsM, firstCounted, series);
   const counted = steps - firstCounted;
   for (let i = 0; i < sums.length; i++) {
     if (!Number.isFinite(sums[i])) throw new PhysicsNumericError('state during simulation');
@@ -188,51 +194,10 @@ export function runSimulation(p: PreparedSimulation, elevationsM: Float64Array, 
   };
 }
 
-/** Sums of squares [accel, travel, relvel, tyre load, weighted] — 4-state unrolled loop. */
-function loop4(p: PreparedSimulation, e: Float64Array, firstCounted: number): Float64Array {
-  const a = p.Ad;
-  const b = p.Bd;
-  const a00 = a[0], a01 = a[1], a02 = a[2], a03 = a[3];
-  const a10 = a[4], a11 = a[5], a12 = a[6], a13 = a[7];
-  const a20 = a[8], a21 = a[9], a22 = a[10], a23 = a[11];
-  const a30 = a[12], a31 = a[13], a32 = a[14], a33 = a[15];
-  const b0 = b[0], b1 = b[1], b2 = b[2], b3 = b[3];
-  const ra = p.rows.bodyAccel;
-  const c0 = ra[0], c1 = ra[1], c2 = ra[2], c3 = ra[3];
-  const kt = -p.rows.tireLoad[2];
-  const invDt = 1 / p.dtS;
-  const steps = e.length - 1;
-  let x0 = 0, x1 = 0, x2 = 0, x3 = 0;
-  let prev = e[0];
-  let k = 0;
-  for (; k < firstCounted; k++) {
-    const cur = e[k + 1];
-    const u = (cur - prev) * invDt;
-    prev = cur;
-    const n0 = a00 * x0 + a01 * x1 + a02 * x2 + a03 * x3 + b0 * u;
-    const n1 = a10 * x0 + a11 * x1 + a12 * x2 + a13 * x3 + b1 * u;
-    const n2 = a20 * x0 + a21 * x1 + a22 * x2 + a23 * x3 + b2 * u;
-    const n3 = a30 * x0 + a31 * x1 + a32 * x2 + a33 * x3 + b3 * u;
-    x0 = n0; x1 = n1; x2 = n2; x3 = n3;
-  }
-  let sa = 0, st = 0, sv = 0, sf = 0;
-  for (; k < steps; k++) {
-    const cur = e[k + 1];
-    const u = (cur - prev) * invDt;
-    prev = cur;
-    const n0 = a00 * x0 + a01 * x1 + a02 * x2 + a03 * x3 + b0 * u;
-    const n1 = a10 * x0 + a11 * x1 + a12 * x2 + a13 * x3 + b1 * u;
-    const n2 = a20 * x0 + a21 * x1 + a22 * x2 + a23 * x3 + b2 * u;
-    const n3 = a30 * x0 + a31 * x1 + a32 * x2 + a33 * x3 + b3 * u;
-    x0 = n0; x1 = n1; x2 = n2; x3 = n3;
-    const acc = c0 * x0 + c1 * x1 + c2 * x2 + c3 * x3;
-    const rv = x1 - x3;
-    sa += acc * acc;
-    st += x0 * x0;
-    sv += rv * rv;
-    sf += x2 * x2;
-  }
-  return new Float64Array([sa, st, sv, sf * kt * kt, 0]);
+/** Sums of squares [accel, travel, relvel, tyre load, weighted] back from the mean squares of the buffer loops. */
+function sumsOf(m: TravelSums & { msWeightedAccel?: number }): Float64Array {
+  const c = m.counted;
+  return new Float64Array([m.msBodyAccel * c, m.msTravel * c, m.msRelVel * c, m.msTireLoad * c, (m.msWeightedAccel ?? 0) * c]);
 }
 
 /** General-order loop (weighted and/or series). */
@@ -309,4 +274,146 @@ export function simulateProfile(
   opts: SimulationOptions & { weighted?: boolean } = {},
 ): SimulationResult {
   return runSimulation(prepareSimulation(c, dxM, speedMps, { weighted: opts.weighted }), elevationsM, opts);
+}
+
+export interface TravelSums {
+  /** Mean squares over the counted steps. */
+  msBodyAccel: number;
+  msTravel: number;
+  msRelVel: number;
+  msTireLoad: number;
+  /** Counted steps. */
+  counted: number;
+}
+
+/**
+ * Runs a prepared 4-state corner over `e` from rest, counting statistics from step
+ * `firstCounted` on, and writes the travel after each counted step into `travelOut` (which
+ * must hold `e.length − 1 − firstCounted` values).
+ *
+ * Method: the exact discrete recurrence `x[k+1] = Ad·x[k] + Bd·u[k]`, u = road velocity over
+ * the step (docs/methods.md "The corner model"). `runSimulation` runs on it; the nightly job calls it
+ * directly, hundreds of thousands of times a night, with a reused travel buffer for rainflow.
+ *
+ * @param p prepared simulation with n = 4
+ * @param e elevations [m]
+ * @param firstCounted first step index whose end state is counted
+ * @param travelOut output buffer for travel [m], or null when only the statistics are wanted
+ * @returns mean squares [SI units²]
+ */
+export function simulateTravel(p: PreparedSimulation, e: Float64Array, firstCounted: number, travelOut: Float64Array | null): TravelSums {
+  if (p.n !== 4) throw new Error('simulateTravel: needs the 4-state model');
+  const a = p.Ad;
+  const b = p.Bd;
+  const a00 = a[0], a01 = a[1], a02 = a[2], a03 = a[3];
+  const a10 = a[4], a11 = a[5], a12 = a[6], a13 = a[7];
+  const a20 = a[8], a21 = a[9], a22 = a[10], a23 = a[11];
+  const a30 = a[12], a31 = a[13], a32 = a[14], a33 = a[15];
+  const b0 = b[0], b1 = b[1], b2 = b[2], b3 = b[3];
+  const ra = p.rows.bodyAccel;
+  const c0 = ra[0], c1 = ra[1], c2 = ra[2], c3 = ra[3];
+  const kt = -p.rows.tireLoad[2];
+  const invDt = 1 / p.dtS;
+  const steps = e.length - 1;
+  let x0 = 0, x1 = 0, x2 = 0, x3 = 0;
+  let sa = 0, st = 0, sv = 0, sf = 0;
+  let j = 0;
+  for (let k = 0; k < steps; k++) {
+    const u = (e[k + 1] - e[k]) * invDt;
+    const n0 = a00 * x0 + a01 * x1 + a02 * x2 + a03 * x3 + b0 * u;
+    const n1 = a10 * x0 + a11 * x1 + a12 * x2 + a13 * x3 + b1 * u;
+    const n2 = a20 * x0 + a21 * x1 + a22 * x2 + a23 * x3 + b2 * u;
+    const n3 = a30 * x0 + a31 * x1 + a32 * x2 + a33 * x3 + b3 * u;
+    x0 = n0; x1 = n1; x2 = n2; x3 = n3;
+    if (k >= firstCounted) {
+      const acc = c0 * x0 + c1 * x1 + c2 * x2 + c3 * x3;
+      const rv = x1 - x3;
+      sa += acc * acc;
+      st += x0 * x0;
+      sv += rv * rv;
+      sf += x2 * x2;
+      if (travelOut) travelOut[j] = x0;
+      j++;
+    }
+  }
+  if (!Number.isFinite(sa + st + sv + sf)) throw new Error('physics: non-finite state during simulation');
+  const inv = j > 0 ? 1 / j : 0;
+  return { msBodyAccel: sa * inv, msTravel: st * inv, msRelVel: sv * inv, msTireLoad: sf * kt * kt * inv, counted: j };
+}
+
+/** Mean squares of {@link simulateWeighted}, with the `Wk`-weighted body acceleration. */
+export interface WeightedSums extends TravelSums {
+  msWeightedAccel: number;
+}
+
+/**
+ * As {@link simulateTravel} for the 12-state corner with the ISO 2631-1 `Wk` filter appended
+ * (`prepareSimulation(…, { weighted: true })`), counting steps `firstCounted ≤ k < endCounted`,
+ * so every output of a profiled segment, the weighted acceleration included, comes from the one
+ * simulation (docs/methods.md "One road model for both methods"). The quarter car does not see
+ * the filter's states (the augmented matrix is block lower-triangular), so its 4×4 block is
+ * unrolled and only the filter rows run the full length.
+ *
+ * @param p prepared simulation with n = 12
+ * @param e elevations [m]
+ * @param firstCounted first step index whose end state is counted
+ * @param endCounted step index after the last counted one
+ * @param travelOut output buffer for travel [m] (at least endCounted − firstCounted values), or null
+ * @returns mean squares [SI units²]
+ */
+export function simulateWeighted(p: PreparedSimulation, e: Float64Array, firstCounted: number, endCounted: number, travelOut: Float64Array | null): WeightedSums {
+  const n = p.n;
+  if (n !== 12 || !p.rows.weightedAccel) throw new Error('simulateWeighted: needs the 12-state weighted model');
+  const a = p.Ad;
+  const b = p.Bd;
+  const a00 = a[0], a01 = a[1], a02 = a[2], a03 = a[3];
+  const a10 = a[n], a11 = a[n + 1], a12 = a[n + 2], a13 = a[n + 3];
+  const a20 = a[2 * n], a21 = a[2 * n + 1], a22 = a[2 * n + 2], a23 = a[2 * n + 3];
+  const a30 = a[3 * n], a31 = a[3 * n + 1], a32 = a[3 * n + 2], a33 = a[3 * n + 3];
+  const b0 = b[0], b1 = b[1], b2 = b[2], b3 = b[3];
+  const ra = p.rows.bodyAccel;
+  const c0 = ra[0], c1 = ra[1], c2 = ra[2], c3 = ra[3];
+  const rw = p.rows.weightedAccel;
+  const kt = -p.rows.tireLoad[2];
+  const invDt = 1 / p.dtS;
+  const steps = Math.min(e.length - 1, endCounted);
+  let x0 = 0, x1 = 0, x2 = 0, x3 = 0;
+  const w = new Float64Array(8);
+  const nw = new Float64Array(8);
+  let sa = 0, st = 0, sv = 0, sf = 0, sw = 0;
+  let j = 0;
+  for (let k = 0; k < steps; k++) {
+    const u = (e[k + 1] - e[k]) * invDt;
+    // filter rows (4…11) from the old state; the Wk sections are in series, so filter row i
+    // reads only the states of its own and the earlier sections (lower block-triangular)
+    for (let i = 0; i < 8; i++) {
+      const off = (i + 4) * n;
+      let s = a[off] * x0 + a[off + 1] * x1 + a[off + 2] * x2 + a[off + 3] * x3 + b[i + 4] * u;
+      const lim = ((i >> 1) + 1) * 2;
+      for (let m = 0; m < lim; m++) s += a[off + 4 + m] * w[m];
+      nw[i] = s;
+    }
+    const n0 = a00 * x0 + a01 * x1 + a02 * x2 + a03 * x3 + b0 * u;
+    const n1 = a10 * x0 + a11 * x1 + a12 * x2 + a13 * x3 + b1 * u;
+    const n2 = a20 * x0 + a21 * x1 + a22 * x2 + a23 * x3 + b2 * u;
+    const n3 = a30 * x0 + a31 * x1 + a32 * x2 + a33 * x3 + b3 * u;
+    x0 = n0; x1 = n1; x2 = n2; x3 = n3;
+    w.set(nw);
+    if (k >= firstCounted) {
+      const acc = c0 * x0 + c1 * x1 + c2 * x2 + c3 * x3;
+      let yw = rw[0] * x0 + rw[1] * x1 + rw[2] * x2 + rw[3] * x3;
+      for (let m = 0; m < 8; m++) yw += rw[4 + m] * w[m];
+      const rv = x1 - x3;
+      sa += acc * acc;
+      st += x0 * x0;
+      sv += rv * rv;
+      sf += x2 * x2;
+      sw += yw * yw;
+      if (travelOut) travelOut[j] = x0;
+      j++;
+    }
+  }
+  if (!Number.isFinite(sa + st + sv + sf + sw)) throw new Error('physics: non-finite state during simulation');
+  const inv = j > 0 ? 1 / j : 0;
+  return { msBodyAccel: sa * inv, msTravel: st * inv, msRelVel: sv * inv, msTireLoad: sf * kt * kt * inv, msWeightedAccel: sw * inv, counted: j };
 }

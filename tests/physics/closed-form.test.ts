@@ -6,7 +6,7 @@ import { synthesizeProfile, gdForClass, ISO8608_N0 } from '../../server/physics/
 import { prepareSimulation, simulateProfile } from '../../server/physics/simulate';
 import { checkClose, CAR, DEMO_CORNERS } from './check';
 import { bandLimitProfile } from '../../server/physics/profile-band';
-import { simulateWeighted } from '../../server/wear/fast-sim';
+import { simulateWeighted } from '../../server/physics/simulate';
 import type { CornerParams } from '../../server/physics/types';
 
 const VAN: CornerParams = { sprungMassKg: 700, unsprungMassKg: 65, springRateNPerM: 55000, dampingNsPerM: 3500, tireRateNPerM: 300000 };

@@ -12,7 +12,8 @@ import {
   type SegmentInput,
   type VehicleWork,
 } from '../../../server/wear/duty';
-import { rainflowDamage, simulateTravel, simulateWeighted } from '../../../server/wear/fast-sim';
+import { simulateTravel, simulateWeighted } from '../../../server/physics/simulate';
+import { rainflowDamage } from '../../../server/physics/fatigue';
 import { createDutyRunner, inProcessDutyRunner, splitByTrips } from '../../../server/wear/duty-pool';
 import { prepareDuty } from '../../../server/physics/closed-form';
 import { prepareSimulation, runSimulation } from '../../../server/physics/simulate';
