@@ -4,7 +4,7 @@ import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, newContext, type ViewportName } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
 import { axeViolations } from '../support/axe';
-import { DEMO, goViaMenu, signIn } from './helpers';
+import { DEMO, goViaMenu, settled, signIn } from './helpers';
 import { menuFor } from '../../web/src/app/navigation';
 import type { Role } from '../../web/src/lib/roles';
 
@@ -25,7 +25,7 @@ async function check(page: Page, path: string): Promise<string[]> {
   await page.goto(`${server.url}${path}`);
   await page.getByRole('heading', { level: 1 }).first().waitFor();
   await page.waitForLoadState('networkidle');
-  await page.waitForTimeout(300);
+  await settled(page);
   return (await axeViolations(page)).map((v) => `${path}: ${v}`);
 }
 

@@ -80,3 +80,15 @@ export async function expectPath(page: Page, pathname: string) {
   await page.waitForURL((url) => url.pathname === pathname, { timeout: 10_000 }).catch(() => undefined);
   expect(new URL(page.url()).pathname, `on ${page.url()}`).toBe(pathname);
 }
+
+/**
+ * Waits until the page has stopped moving: web fonts loaded, every CSS transition and animation
+ * finished, and two frames painted after that (charts and maps draw on the next frame).
+ */
+export async function settled(page: Page) {
+  await page.evaluate(async () => {
+    await document.fonts.ready;
+    await Promise.all(document.getAnimations().map((a) => a.finished.catch(() => undefined)));
+    await new Promise<void>((resolve) => requestAnimationFrame(() => requestAnimationFrame(() => resolve())));
+  });
+}

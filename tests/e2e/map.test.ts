@@ -3,7 +3,7 @@ import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
 import { ApiClient } from '../support/client';
-import { DEMO, expectHeading, signIn } from './helpers';
+import { DEMO, expectHeading, settled, signIn } from './helpers';
 import { ROUGHNESS_CLASSES, roughnessColours } from '../../web/src/lib/roughness';
 
 let server: TestServer;
@@ -71,7 +71,9 @@ describe('the road map in the browser', () => {
     await expectHeading(page, 'Road map');
     await page.locator('[data-testid=fleet-map] canvas').first().waitFor();
     await page.waitForLoadState('networkidle');
-    await page.waitForTimeout(500);
+    // the roads are drawn on the canvas once their data has arrived
+    await expect.poll(() => pointOnASegment(page, '[data-testid=fleet-map]'), { message: 'a segment drawn on the map' }).not.toBeNull();
+    await settled(page);
     const point = await pointOnASegment(page, '[data-testid=fleet-map]');
     expect(point, 'a segment drawn on the map').not.toBeNull();
     await page.mouse.click(point!.x, point!.y);

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, signIn } from './helpers';
+import { DEMO, expectHeading, expectPath, settled, signIn } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -56,7 +56,8 @@ describe('nightly damper-duty run in the browser', () => {
     await page.getByRole('button', { name: 'Map' }).click();
     await page.getByRole('region', { name: /Map of depots/ }).waitFor();
     await page.getByText(/Brackenford North Yard: \d+ vehicles? \(/).waitFor();
-    await page.waitForTimeout(500);
+    await page.waitForLoadState('networkidle');
+    await settled(page);
     await page.screenshot({ path: screenshotPath('manager-desktop-due-map'), fullPage: true });
     await page.getByRole('button', { name: 'List' }).click();
 

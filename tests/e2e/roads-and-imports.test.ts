@@ -3,7 +3,7 @@ import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
 import { ApiClient } from '../support/client';
-import { DEMO, expectHeading, signIn, goViaMenu } from './helpers';
+import { DEMO, expectHeading, settled, signIn, goViaMenu } from './helpers';
 import { synthesizeProfile } from '../../server/physics/iso8608';
 import { formatProfileCsv } from '../../server/roads/profile-store';
 import { roughnessColours } from '../../web/src/lib/roughness';
@@ -58,7 +58,8 @@ describe('roads, surveys and imports in the browser', () => {
     await page.goto(`${server.url}/map`);
     await expectHeading(page, 'Road map');
     await page.locator('[data-testid=fleet-map] canvas').first().waitFor();
-    await page.waitForTimeout(800);
+    await page.waitForLoadState('networkidle');
+    await settled(page);
     const before = await pixelsOf(page, '[data-testid=fleet-map]', CLASS_F);
     await page.screenshot({ path: screenshotPath('manager-desktop-map') });
 
@@ -70,15 +71,12 @@ describe('roads, surveys and imports in the browser', () => {
     await page.screenshot({ path: screenshotPath('manager-desktop-survey-preview'), fullPage: true });
     await page.getByRole('button', { name: 'Save survey' }).click();
     await page.getByText(/Survey saved/).waitFor();
-    await page.waitForTimeout(800);
-    expect(await pixelsOf(page, '[data-testid=route-map]', CLASS_F)).toBeGreaterThan(200);
+    await expect.poll(() => pixelsOf(page, '[data-testid=route-map]', CLASS_F)).toBeGreaterThan(200);
     await page.screenshot({ path: screenshotPath('manager-desktop-route'), fullPage: true });
 
     await page.goto(`${server.url}/map`);
     await page.locator('[data-testid=fleet-map] canvas').first().waitFor();
-    await page.waitForTimeout(800);
-    const after = await pixelsOf(page, '[data-testid=fleet-map]', CLASS_F);
-    expect(after).toBeGreaterThan(before + 100);
+    await expect.poll(() => pixelsOf(page, '[data-testid=fleet-map]', CLASS_F)).toBeGreaterThan(before + 100);
     await page.screenshot({ path: screenshotPath('manager-desktop-map-after-survey') });
     await context.close();
   });

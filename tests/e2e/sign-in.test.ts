@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, DEMO_PASSWORD, expectHeading, expectPath, signIn, goViaMenu } from './helpers';
+import { DEMO, DEMO_PASSWORD, expectHeading, expectPath, settled, signIn, goViaMenu } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -74,7 +74,7 @@ describe('sign-in', () => {
     await page.keyboard.type(DEMO_PASSWORD);
     await page.keyboard.press('Tab');
     // Let any colour transition finish before reading the ring's colour.
-    await page.waitForTimeout(300);
+    await settled(page);
     const ring = await page.evaluate(() => {
       const el = document.activeElement as HTMLElement;
       const s = getComputedStyle(el);

@@ -77,7 +77,8 @@ describe('workshop', () => {
 
     // A half-filled form survives a reload.
     await mec.getByLabel('Adhesion FL [%]').fill('18');
-    await mec.waitForTimeout(300);
+    // the draft is kept in the browser's storage a moment after typing
+    await expect.poll(() => mec.evaluate(() => Object.keys(localStorage).some((k) => k.endsWith(':results') && (localStorage.getItem(k) ?? '').includes('"18"')))).toBe(true);
     await mec.reload();
     await mec.getByText('Draft restored').first().waitFor();
     expect(await mec.getByLabel('Adhesion FL [%]').inputValue()).toBe('18');
