@@ -46,7 +46,8 @@ export default defineConfig({
           hookTimeout: 120_000,
           // A browser on a busy two-core host can take more than expect.poll's default second.
           expect: { poll: { timeout: 10_000 } },
-          fileParallelism: false,
+          // each file boots its own app and browser; two at a time use the time one spends waiting
+          fileParallelism: true,
         },
       },
     ],
