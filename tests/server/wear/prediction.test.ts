@@ -1,0 +1,55 @@
+// Day arithmetic of the wear prediction (computed by hand from the rules in docs/methods.md,
+// "Damper wear and prediction"): a level is predicted on the first whole day the projected wear
+// reaches it, and the rate comes from a trailing window that starts no earlier than the fitting day.
+import { describe, expect, it } from 'vitest';
+import { DUTY_WINDOW_DAYS, levelsOf, predictFromSummary, predictionWindow, summarizeWear, type PredictOptions, type WearSummary } from '../../../server/wear/wear';
+
+const life = { b: 1, medianWearKm: 100_000, p10WearKm: 60_000, p90WearKm: 140_000, source: 'prior', note: 'test basis' };
+const opts = (over: Partial<PredictOptions> = {}): PredictOptions => ({
+  asOf: '2026-11-30',
+  installedAt: '2025-11-30',
+  life,
+  thresholdFraction: 0.8,
+  nominalDampingNsPerM: 3000,
+  untrackedKm: 0,
+  ...over,
+});
+
+describe('the day a level is predicted', () => {
+  it('when the wear needs 50.5 more days at the recent rate, then the threshold falls on day 51, not day 50', () => {
+    const o = opts();
+    const [threshold] = levelsOf(o, 0);
+    const perDay = 100; // wear km a day over the window
+    const s: WearSummary = {
+      windowWearKm: perDay * DUTY_WINDOW_DAYS,
+      windowKm: perDay * DUTY_WINDOW_DAYS,
+      windowSpringDamage: 0,
+      cumKm: threshold - 50.5 * perDay,
+      cumWearKm: threshold - 50.5 * perDay,
+      springDamage: 0,
+      levelDays: [null, null, null, null],
+      springThresholdDay: null,
+    };
+    const p = predictFromSummary(s, o);
+    expect(p.wearKmPerDay).toBe(perDay);
+    // 2026-11-30 + 51 days = 2027-01-20 (30 days to 12-30, 21 more into January)
+    expect(p.thresholdDate).toBe('2027-01-20');
+  });
+});
+
+describe('the prediction window', () => {
+  it('when a damper was fitted 10 days before the as-of day, then the window is the 11 days since fitting, both ends counted', () => {
+    expect(predictionWindow({ asOf: '2026-11-30', installedAt: '2026-11-20' })).toEqual({ windowDays: 11, windowStart: '2026-11-20' });
+    expect(predictionWindow({ asOf: '2026-11-30', installedAt: '2026-11-30' })).toEqual({ windowDays: 1, windowStart: '2026-11-30' });
+    expect(predictionWindow({ asOf: '2026-11-30', installedAt: '2026-10-01' })).toEqual({ windowDays: DUTY_WINDOW_DAYS, windowStart: '2026-11-01' });
+  });
+
+  it('when a damper fitted 10 days ago drove on its first day, then that day is in the window and the rate is over 11 days', () => {
+    const o = opts({ installedAt: '2026-11-20' });
+    const day = (d: string, km: number, cum: number) => ({ day: d, distanceKm: km, wearKm: km, energyJ: 0, springDamage: 0, cumKm: cum, cumWearKm: cum, cumEnergyJ: 0, cumSpringDamage: 0, lifeWearKm: 100_000, lifeUsedFraction: cum / 100_000, dampingNsPerM: 3000 });
+    const history = [day('2026-11-20', 110, 110), day('2026-11-25', 0, 110), day('2026-11-30', 0, 110)];
+    const s = summarizeWear(history as never, o, 0);
+    expect(s.windowWearKm).toBe(110);
+    expect(predictFromSummary(s, o).wearKmPerDay).toBeCloseTo(10, 12);
+  });
+});
