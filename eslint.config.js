@@ -34,7 +34,7 @@ const layerRules = [
 ];
 
 export default tseslint.config(
-  { ignores: ['dist/', 'data/', 'node_modules/', 'coverage/'] },
+  { ignores: ['dist/', 'data/', 'node_modules/', 'coverage/', 'reports/', '.stryker-tmp/'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
