@@ -148,7 +148,7 @@ export async function queueAssignmentNotes(ctx: MailContext, inspectionIds?: num
         name: first.name,
         settingsUrl: `${ctx.publicUrl}/account`,
         listUrl: `${ctx.publicUrl}/workshop`,
-        items: items.map((r) => ({ fleetNumber: r.fleet_number, plate: r.plate, depotName: r.depot_name, dueDate: r.due_date, status: r.status, reason: r.reason, vehicleUrl: `${ctx.publicUrl}/vehicles/${r.vehicle_id}` })),
+        items: items.map((r) => ({ fleetNumber: r.fleet_number, plate: r.plate, depotName: r.depot_name, dueDate: r.due_date, status: r.status, reason: r.reason, inspectionUrl: `${ctx.publicUrl}/inspections/${r.id}`, vehicleUrl: `${ctx.publicUrl}/vehicles/${r.vehicle_id}` })),
       });
       const key = items.length === 1 ? `assignment:${first.id}:${userId}` : `assignments:${userId}:${hash(items.map((r) => String(r.id)))}`;
       mails.push({ dedupeKey: key, kind: 'assignment', userId, toAddress: first.email, subject: body.subject, textBody: body.text, htmlBody: body.html, jobRunId: ctx.runId });

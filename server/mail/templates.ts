@@ -63,8 +63,14 @@ export interface AssignedItem {
   dueDate: string;
   status: string;
   reason: string;
+  /** The inspection itself in the app, where the mechanic records it. */
+  inspectionUrl: string;
   vehicleUrl: string;
 }
+
+/** The app's words for an inspection's status (the same as on every page that shows one). */
+const STATUS_WORDS: Record<string, string> = { scheduled: 'scheduled', due: 'due', overdue: 'overdue', done: 'done', cancelled: 'cancelled' };
+const statusWord = (s: string) => STATUS_WORDS[s] ?? s;
 
 /** A note to a mechanic listing the inspections newly assigned to them (one or several). */
 export function assignmentMail(input: { name: string; items: AssignedItem[]; settingsUrl: string; listUrl: string }) {
@@ -81,7 +87,7 @@ export function assignmentMail(input: { name: string; items: AssignedItem[]; set
     '',
     one ? `The damper and spring inspection of ${one.fleetNumber} is assigned to you.` : `${all.length} damper and spring inspections are assigned to you${more > 0 ? `; the ${items.length} due first` : ''}:`,
     '',
-    ...items.flatMap((i) => [`- ${i.fleetNumber} (${i.plate}, ${i.depotName}): due ${i.dueDate} (${i.status})`, `  Why: ${i.reason}`, `  ${i.vehicleUrl}`, '']),
+    ...items.flatMap((i) => [`- ${i.fleetNumber} (${i.plate}, ${i.depotName}): due ${i.dueDate} (${statusWord(i.status)})`, `  Why: ${i.reason}`, `  Open the inspection: ${i.inspectionUrl}`, `  The vehicle: ${i.vehicleUrl}`, '']),
     ...(more > 0 ? [`…and ${more} more, all in My inspections: ${input.listUrl}`, ''] : []),
     CAUTION_TEXT,
     '',
@@ -93,7 +99,7 @@ export function assignmentMail(input: { name: string; items: AssignedItem[]; set
       items
         .map(
           (i) =>
-            `<li style="margin-bottom:10px"><a href="${esc(i.vehicleUrl)}" style="color:#1E2A32;font-weight:600">${esc(i.fleetNumber)}</a> (${esc(i.plate)}, ${esc(i.depotName)}): due ${esc(i.dueDate)} (${esc(i.status)})<br><span>Why: ${esc(i.reason)}</span></li>`,
+            `<li style="margin-bottom:10px"><a href="${esc(i.inspectionUrl)}" style="color:#1E2A32;font-weight:600">Inspection of ${esc(i.fleetNumber)}</a> (${esc(i.plate)}, ${esc(i.depotName)}): due ${esc(i.dueDate)} (${esc(statusWord(i.status))})<br><span>Why: ${esc(i.reason)}</span><br><a href="${esc(i.vehicleUrl)}" style="color:#5B6B73">The vehicle</a></li>`,
         )
         .join('') +
       `</ul>${more > 0 ? `<p>…and ${more} more, all in <a href="${esc(input.listUrl)}" style="color:#D9622B">My inspections</a>.</p>` : ''}<p style="font-size:13px;color:#5B6B73">Turn these notes off in your <a href="${esc(input.settingsUrl)}">account settings</a>.</p>`,

@@ -8,6 +8,7 @@ const item = (k: number) => ({
   dueDate: `2026-12-${String(1 + (k % 28)).padStart(2, '0')}`,
   status: 'scheduled',
   reason: `reason ${k}`,
+  inspectionUrl: `http://app.test/inspections/${500 + k}`,
   vehicleUrl: `http://app.test/vehicles/${k}`,
 });
 
@@ -30,6 +31,13 @@ describe('e-mail bodies', () => {
     const m = assignmentMail({ name: 'Ines', items: [item(1), item(2)], settingsUrl: 'http://app.test/account', listUrl: 'http://app.test/workshop' });
     expect(m.text.match(/^- CV-/gm)).toHaveLength(2);
     expect(m.text).not.toMatch(/more, all in/);
+  });
+
+  it('when a mechanic is assigned an inspection, then the note links to that inspection itself, not only to the vehicle', () => {
+    const m = assignmentMail({ name: 'Ines', items: [item(3)], settingsUrl: 'http://app.test/account', listUrl: 'http://app.test/workshop' });
+    expect(m.text).toContain('Open the inspection: http://app.test/inspections/503');
+    expect(m.html).toContain('href="http://app.test/inspections/503"');
+    expect(m.html.indexOf('inspections/503')).toBeLessThan(m.html.indexOf('vehicles/3'));
   });
 
   it('when a digest section is long, then it lists the first entries and counts the rest with a link to the app', () => {

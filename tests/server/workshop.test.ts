@@ -72,8 +72,10 @@ describe('inspections for the mechanic', () => {
       expect(c.lifeUsedFraction).toBeGreaterThanOrEqual(0);
       expect(c.dampingNsPerM).toBeGreaterThan(0);
     }
-    const [mail] = await srv.db.sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM mail_messages WHERE kind = 'assignment' AND dedupe_key LIKE ?`, { replacements: [`assignment:${inspection.id}:%`], type: 'SELECT' as never });
-    expect(Number(mail.n)).toBe(1);
+    const mails = await srv.db.sequelize.query<{ text_body: string }>(`SELECT text_body FROM mail_messages WHERE kind = 'assignment' AND dedupe_key LIKE ?`, { replacements: [`assignment:${inspection.id}:%`], type: 'SELECT' as never });
+    expect(mails).toHaveLength(1);
+    // the note opens the inspection itself, at the configured public address
+    expect(mails[0].text_body).toMatch(new RegExp(`Open the inspection: https?://[^\\s]+/inspections/${inspection.id}\\b`));
   });
 
   it('when a driver or an unknown filter asks, then access is refused or the field is named', async () => {
