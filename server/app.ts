@@ -19,6 +19,7 @@ import { configurePassport, defaultAuthOptions, registerAuthRoutes, type AuthOpt
 import { registerUserRoutes } from './users/routes';
 import { registerFleetRoutes } from './fleet/routes';
 import { open } from './http/access';
+import { throttleTouch, TOUCH_EVERY_MS } from './http/session-touch';
 import { registerFleetWriteRoutes } from './fleet/write-routes';
 import { registerRoadRoutes } from './roads/routes';
 import { registerTripRoutes } from './trips/routes';
@@ -86,6 +87,7 @@ export function createApp(deps: AppDeps): BuiltApp {
     checkExpirationInterval: 15 * 60 * 1000,
     expiration: 7 * 24 * 60 * 60 * 1000,
   });
+  throttleTouch(store, TOUCH_EVERY_MS);
   // expired sessions go at start as well as every checkExpirationInterval
   const prune = () => (store as unknown as { clearExpiredSessions(): Promise<unknown> }).clearExpiredSessions().then(() => undefined);
   void prune();

@@ -23,6 +23,7 @@ export function tripFile(n: number, fleet: string[]) {
 }
 
 export const serverSection: BenchSection = {
+  key: 'server',
   name: `Server on the demo fleet (loopback, ${SECONDS} s per load step)`,
   async run() {
     const { url, child } = await startChild();

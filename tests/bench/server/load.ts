@@ -10,7 +10,7 @@ import { ApiClient, DEMO } from '../../support/client';
 const here = import.meta.dirname;
 
 export async function startChild(): Promise<{ url: string; child: ChildProcess }> {
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join(here, 'child.ts')], { stdio: ['pipe', 'pipe', 'inherit'] });
+  const child = spawn(process.execPath, [...(process.env.BENCH_CHILD_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CHILD_CPU_PROF}`] : []), '--import', 'tsx', path.join(here, 'child.ts')], { stdio: ['pipe', 'pipe', 'inherit'] });
   const url = await new Promise<string>((resolve, reject) => {
     let buf = '';
     child.stdout!.on('data', (d: Buffer) => {
