@@ -94,9 +94,12 @@ async function send<T>(
   signal: AbortSignal | undefined,
   withCsrf: boolean,
   retried = false,
+  networkMessage = 'Cannot reach the Reboundry server. Check your connection and try again.',
 ): Promise<T> {
+  // a form (file uploads) goes as multipart/form-data, its boundary set by the browser
+  const isForm = body instanceof FormData;
   const headers: Record<string, string> = { accept: 'application/json' };
-  if (body !== undefined) headers['content-type'] = 'application/json';
+  if (body !== undefined && !isForm) headers['content-type'] = 'application/json';
   if (withCsrf) headers['x-csrf-token'] = await csrf();
 
   let res: Response;
@@ -104,20 +107,20 @@ async function send<T>(
     res = await fetch(path, {
       method,
       headers,
-      body: body === undefined ? undefined : JSON.stringify(body),
+      body: body === undefined ? undefined : isForm ? body : JSON.stringify(body),
       credentials: 'same-origin',
       signal,
     });
   } catch (err) {
     if (err instanceof DOMException && err.name === 'AbortError') throw err;
-    throw new ApiError(0, 'network', 'Cannot reach the Reboundry server. Check your connection and try again.', {}, path);
+    throw new ApiError(0, 'network', networkMessage, {}, path);
   }
 
   if (!res.ok) {
     const error = await readError(res, path);
     if (withCsrf && !retried && error.status === 403 && error.code === 'csrf_invalid') {
       resetCsrfToken();
-      return send<T>(method, path, body, signal, withCsrf, true);
+      return send<T>(method, path, body, signal, withCsrf, true, networkMessage);
     }
     throw error;
   }
@@ -142,7 +145,22 @@ export const api = {
   delete<T>(path: string) {
     return send<T>('DELETE', path, undefined, undefined, true);
   },
+  /** A multipart/form-data POST (files and fields), with the same CSRF token and errors as the rest. */
+  postForm<T>(path: string, form: FormData, opts: { networkMessage?: string } = {}) {
+    return send<T>('POST', path, form, undefined, true, false, opts.networkMessage);
+  },
 };
+
+/**
+ * Sends one file (field `file`) and optional text fields, for the upload endpoints (surveys,
+ * trip imports, inspection photos).
+ */
+export function uploadFile<T>(path: string, file: File, fields: Record<string, string | undefined> = {}): Promise<T> {
+  const form = new FormData();
+  form.set('file', file, file.name);
+  for (const [k, v] of Object.entries(fields)) if (v !== undefined && v !== '') form.set(k, v);
+  return api.postForm<T>(path, form);
+}
 
 /** Shape of every list endpoint. */
 export interface ListResponse<T> {

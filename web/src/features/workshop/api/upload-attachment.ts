@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { uploadFile } from '@/lib/api-upload';
+import { uploadFile } from '@/lib/api-client';
 import { workshopKeys } from './types';
 
 export function useUploadAttachment(id: number) {
