@@ -52,4 +52,27 @@ export default tseslint.config(
       'react-hooks/exhaustive-deps': 'warn',
     },
   },
+  {
+    // every query key starts from a root in web/src/lib/query-keys.ts, so one feature can make
+    // another's data stale without importing it or spelling its key
+    files: ['web/src/**/*.{ts,tsx}'],
+    ignores: ['web/src/lib/query-keys.ts'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        {
+          selector: "Property[key.name=/^(queryKey|all)$/] > ArrayExpression > Literal:first-child",
+          message: 'Start query keys from queryRoots (web/src/lib/query-keys.ts), not a literal.',
+        },
+        {
+          selector: "Property[key.name=/^(queryKey|all)$/] > TSAsExpression > ArrayExpression > Literal:first-child",
+          message: 'Start query keys from queryRoots (web/src/lib/query-keys.ts), not a literal.',
+        },
+        {
+          selector: "ArrowFunctionExpression > TSAsExpression > ArrayExpression > Literal:first-child",
+          message: 'Start query keys from queryRoots (web/src/lib/query-keys.ts), not a literal.',
+        },
+      ],
+    },
+  },
 );

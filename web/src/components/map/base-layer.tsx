@@ -3,6 +3,7 @@ import './map.css';
 import { useQuery } from '@tanstack/react-query';
 import { TileLayer } from 'react-leaflet';
 import { api } from '@/lib/api-client';
+import { queryRoots } from '@/lib/query-keys';
 
 interface MapConfig {
   tileUrl: string;
@@ -12,7 +13,7 @@ interface MapConfig {
 
 /** The base layer from /api/map-config: the app's own offline tiles unless MAP_TILE_URL is set. */
 export function BaseLayer() {
-  const cfg = useQuery({ queryKey: ['map', 'config'], queryFn: ({ signal }) => api.get<MapConfig>('/api/map-config', { signal }), staleTime: Infinity });
+  const cfg = useQuery({ queryKey: [...queryRoots.map, 'config'], queryFn: ({ signal }) => api.get<MapConfig>('/api/map-config', { signal }), staleTime: Infinity });
   if (!cfg.data) return null;
   return <TileLayer url={cfg.data.tileUrl} attribution={cfg.data.attribution} />;
 }

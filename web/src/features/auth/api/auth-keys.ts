@@ -1,4 +1,6 @@
+import { queryRoots } from '@/lib/query-keys';
+
 export const authKeys = {
-  all: ['auth'] as const,
+  all: queryRoots.auth,
   me: () => [...authKeys.all, 'me'] as const,
 };

@@ -1,4 +1,6 @@
+import { queryRoots } from '@/lib/query-keys';
+
 export const depotKeys = {
-  all: ['depots'] as const,
+  all: queryRoots.depots,
   list: () => [...depotKeys.all, 'list'] as const,
 };

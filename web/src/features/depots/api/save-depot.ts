@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { Depot } from './get-depots';
 import { depotKeys } from './depot-keys';
+import { queryRoots } from '@/lib/query-keys';
 
 export interface DepotInput {
   name: string;
@@ -25,7 +26,7 @@ export function useSaveDepot(id: number | undefined) {
     mutationFn: (body: DepotInput) => (id === undefined ? createDepot(body) : updateDepot(id, body)),
     onSuccess: () => {
       void queryClient.invalidateQueries({ queryKey: depotKeys.all });
-      void queryClient.invalidateQueries({ queryKey: ['map'] });
+      void queryClient.invalidateQueries({ queryKey: queryRoots.map });
     },
   });
 }

@@ -1,10 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { queryRoots } from '@/lib/query-keys';
 
 export const exposureKeys = {
-  all: ['exposure'] as const,
-  driver: (q: { driverId?: number; from?: string; to?: string }) => ['exposure', 'driver', q] as const,
-  overview: (q: { from?: string; to?: string }) => ['exposure', 'overview', q] as const,
+  all: queryRoots.exposure,
+  driver: (q: { driverId?: number; from?: string; to?: string }) => [...queryRoots.exposure, 'driver', q] as const,
+  overview: (q: { from?: string; to?: string }) => [...queryRoots.exposure, 'overview', q] as const,
 };
 
 export interface ExposureDays {

@@ -1,5 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { queryRoots } from '@/lib/query-keys';
 
 export type OpenInspectionStatus = 'scheduled' | 'due' | 'overdue';
 
@@ -41,7 +42,7 @@ export interface DueInspections {
 }
 
 export const inspectionKeys = {
-  all: ['inspections'] as const,
+  all: queryRoots.inspections,
   due: (depotId: number | null, sort: DueSort = 'due') => [...inspectionKeys.all, 'due', { depotId, sort }] as const,
 };
 

@@ -1,5 +1,7 @@
+import { queryRoots } from '@/lib/query-keys';
+
 export const jobKeys = {
-  all: ['jobs'] as const,
+  all: queryRoots.jobs,
   runs: (page: number) => [...jobKeys.all, 'runs', { page }] as const,
   run: (id: number) => [...jobKeys.all, 'run', id] as const,
 };

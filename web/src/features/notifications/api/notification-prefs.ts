@@ -1,6 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
+import { queryRoots } from '@/lib/query-keys';
 
 export interface NotificationPrefs {
   inspectionDigest: boolean;
@@ -8,7 +9,7 @@ export interface NotificationPrefs {
   assignments: boolean;
 }
 
-export const notificationKeys = { prefs: () => ['account', 'notifications'] as const };
+export const notificationKeys = { prefs: () => [...queryRoots.account, 'notifications'] as const };
 
 export const notificationPrefsQueryOptions = () =>
   queryOptions({

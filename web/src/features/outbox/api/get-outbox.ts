@@ -1,5 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, type ListResponse } from '@/lib/api-client';
+import { queryRoots } from '@/lib/query-keys';
 
 export interface CaughtMailItem {
   id: number;
@@ -25,7 +26,7 @@ export interface Outbox extends ListResponse<CaughtMailItem> {
 }
 
 export const outboxKeys = {
-  all: ['outbox'] as const,
+  all: queryRoots.outbox,
   list: (page: number, q: string) => [...outboxKeys.all, 'list', { page, q }] as const,
   message: (id: number) => [...outboxKeys.all, 'message', id] as const,
 };

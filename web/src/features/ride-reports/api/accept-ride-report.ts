@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
 import { rideReportKeys, type RideReport } from './ride-report-keys';
+import { invalidateRoots, staleAfter } from '@/lib/query-keys';
 
 export const acceptSchema = z.object({ note: z.string().max(200).nullable(), confirm: z.literal(true) });
 
@@ -20,10 +21,8 @@ export function useAcceptRideReport() {
     mutationFn: ({ id, note }: { id: number; note: string | null }) => acceptRideReport(id, { note, confirm: true }),
     onSuccess: () => {
       void qc.invalidateQueries({ queryKey: rideReportKeys.all });
-      // the segment's roughness changed: the map and route pages re-read it
-      void qc.invalidateQueries({ queryKey: ['map'] });
-      void qc.invalidateQueries({ queryKey: ['routes'] });
-      void qc.invalidateQueries({ queryKey: ['speed-advice'] });
+      // the segment's roughness changed: the map, route pages and speed advice re-read it
+      void invalidateRoots(qc, staleAfter.roadData);
     },
   });
 }

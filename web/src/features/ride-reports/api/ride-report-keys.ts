@@ -1,11 +1,13 @@
+import { queryRoots } from '@/lib/query-keys';
+
 export const rideReportKeys = {
-  all: ['ride-reports'] as const,
-  scale: () => ['ride-reports', 'scale'] as const,
-  lists: () => ['ride-reports', 'list'] as const,
-  list: (params: Record<string, string | number | undefined>) => ['ride-reports', 'list', params] as const,
-  groups: (status: string) => ['ride-reports', 'groups', status] as const,
-  detail: (id: number) => ['ride-reports', 'detail', id] as const,
-  lines: () => ['ride-reports', 'lines'] as const,
+  all: queryRoots.rideReports,
+  scale: () => [...queryRoots.rideReports, 'scale'] as const,
+  lists: () => [...queryRoots.rideReports, 'list'] as const,
+  list: (params: Record<string, string | number | undefined>) => [...queryRoots.rideReports, 'list', params] as const,
+  groups: (status: string) => [...queryRoots.rideReports, 'groups', status] as const,
+  detail: (id: number) => [...queryRoots.rideReports, 'detail', id] as const,
+  lines: () => [...queryRoots.rideReports, 'lines'] as const,
 };
 
 export interface RideReport {

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { RouteDetail } from './get-route';
+import { invalidateRoots, staleAfter } from '@/lib/query-keys';
 
 export type LineInput = { format: 'coordinates'; coordinates: [number, number][] } | { format: 'geojson'; text: string } | { format: 'csv'; text: string };
 
@@ -27,8 +28,7 @@ export function useCreateRoute() {
       v.preview ? api.post<RoutePreview>('/api/routes?preview=true', v.body) : api.post<RouteDetail>('/api/routes', v.body),
     onSuccess: (_d, v) => {
       if (!v.preview) {
-        void qc.invalidateQueries({ queryKey: ['routes'] });
-        void qc.invalidateQueries({ queryKey: ['map'] });
+        void invalidateRoots(qc, staleAfter.roadData);
       }
     },
   });

@@ -1,5 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { queryRoots } from '@/lib/query-keys';
 
 export interface RouteSegment {
   id: number;
@@ -24,7 +25,7 @@ export interface RouteDetail {
   currentRule: string;
 }
 
-export const routeDetailKey = (id: number) => ['routes', 'detail', id] as const;
+export const routeDetailKey = (id: number) => [...queryRoots.routes, 'detail', id] as const;
 
 export const routeQueryOptions = (id: number) => queryOptions({ queryKey: routeDetailKey(id), queryFn: ({ signal }) => api.get<RouteDetail>(`/api/routes/${id}`, { signal }) });
 

@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, type ListParams, type ListResponse } from '@/lib/api-client';
 import type { RoughnessClass } from '@/lib/roughness';
+import { queryRoots } from '@/lib/query-keys';
 
 export const SEGMENT_SORTS = ['routeName', 'seq', 'iri', 'isoClass', 'roughnessDate', 'speedKmh'] as const;
 export const ROUGHNESS_SOURCES = ['survey', 'stated', 'driver_report'] as const;
@@ -36,7 +37,7 @@ export function getSegments(params: SegmentListParams, signal?: AbortSignal) {
 
 export const segmentsQueryOptions = (params: SegmentListParams) =>
   queryOptions({
-    queryKey: ['segments', 'list', params] as const,
+    queryKey: [...queryRoots.segments, 'list', params] as const,
     queryFn: ({ signal }) => getSegments(params, signal),
     placeholderData: keepPreviousData,
   });

@@ -1,7 +1,8 @@
 import type { RouteListParams } from './get-routes';
+import { queryRoots } from '@/lib/query-keys';
 
 export const routeKeys = {
-  all: ['routes'] as const,
+  all: queryRoots.routes,
   lists: () => [...routeKeys.all, 'list'] as const,
   list: (params: RouteListParams) => [...routeKeys.lists(), params] as const,
 };

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { routeDetailKey } from './get-route';
+import { invalidateRoots, staleAfter } from '@/lib/query-keys';
 
 export interface SpeedEdit {
   seq: number;
@@ -18,9 +18,7 @@ export function useSetSpeeds(routeId: number) {
   return useMutation({
     mutationFn: (segments: SpeedEdit[]) => setSpeeds(routeId, segments),
     onSuccess: () => {
-      void qc.invalidateQueries({ queryKey: routeDetailKey(routeId) });
-      void qc.invalidateQueries({ queryKey: ['segments'] });
-      void qc.invalidateQueries({ queryKey: ['map'] });
+      void invalidateRoots(qc, staleAfter.roadData);
     },
   });
 }

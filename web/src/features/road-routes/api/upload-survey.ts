@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { uploadFile } from '@/lib/api-client';
+import { invalidateRoots, staleAfter } from '@/lib/query-keys';
 
 export interface SurveyResult {
   surveyId?: number;
@@ -17,8 +18,7 @@ export function useUploadSurvey(routeId: number) {
     mutationFn: (v: { file: File; preview: boolean; surveyedOn?: string; note?: string }) => uploadSurvey(routeId, v.file, v),
     onSuccess: (_d, v) => {
       if (!v.preview) {
-        void qc.invalidateQueries({ queryKey: ['routes'] });
-        void qc.invalidateQueries({ queryKey: ['map'] });
+        void invalidateRoots(qc, staleAfter.roadData);
       }
     },
   });

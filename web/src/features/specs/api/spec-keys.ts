@@ -1,4 +1,6 @@
+import { queryRoots } from '@/lib/query-keys';
+
 export const specKeys = {
-  all: ['specs'] as const,
+  all: queryRoots.specs,
   list: () => [...specKeys.all, 'list'] as const,
 };

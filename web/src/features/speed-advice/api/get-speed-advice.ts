@@ -1,5 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { queryRoots } from '@/lib/query-keys';
 
 export interface SpeedAdviceParams {
   specId?: number;
@@ -52,7 +53,7 @@ export interface SpeedAdvice {
   method: string;
 }
 
-export const speedAdviceKeys = { all: ['speed-advice'] as const, route: (routeId: number, p: SpeedAdviceParams) => ['speed-advice', routeId, p] as const };
+export const speedAdviceKeys = { all: queryRoots.speedAdvice, route: (routeId: number, p: SpeedAdviceParams) => [...queryRoots.speedAdvice, routeId, p] as const };
 
 export const speedAdviceQueryOptions = (routeId: number, p: SpeedAdviceParams) =>
   queryOptions({

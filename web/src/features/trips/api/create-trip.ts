@@ -1,6 +1,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api, type ListResponse } from '@/lib/api-client';
 import { tripKeys } from './get-trips';
+import { queryRoots } from '@/lib/query-keys';
 
 export interface TripBody {
   vehicleId: number;
@@ -17,7 +18,7 @@ export function useCreateTrip() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (b: TripBody) => api.post<{ id: number }>('/api/trips', b),
-    onSuccess: () => void qc.invalidateQueries({ queryKey: ['trips'] }),
+    onSuccess: () => void qc.invalidateQueries({ queryKey: queryRoots.trips }),
   });
 }
 

@@ -1,5 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, type ListParams, type ListResponse } from '@/lib/api-client';
+import { queryRoots } from '@/lib/query-keys';
 
 export interface TripItem {
   id: number;
@@ -26,7 +27,7 @@ export interface TripListParams extends ListParams {
   to?: string;
 }
 
-export const tripKeys = { all: ['trips'] as const, list: (p: TripListParams) => ['trips', 'list', p] as const, options: () => ['trips', 'options'] as const };
+export const tripKeys = { all: queryRoots.trips, list: (p: TripListParams) => [...queryRoots.trips, 'list', p] as const, options: () => [...queryRoots.trips, 'options'] as const };
 
 export const tripsQueryOptions = (p: TripListParams) =>
   queryOptions({ queryKey: tripKeys.list(p), queryFn: ({ signal }) => api.get<ListResponse<TripItem>>('/api/trips', { query: { ...p }, signal }), placeholderData: keepPreviousData });

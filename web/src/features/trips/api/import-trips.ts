@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { uploadFile } from '@/lib/api-client';
+import { queryRoots } from '@/lib/query-keys';
 
 export interface ImportReport {
   columns: string[];
@@ -15,7 +16,7 @@ export function useImportTrips() {
     mutationFn: (v: { file: File; preview: boolean }): Promise<ImportReport | { importId: number; imported: number }> =>
       v.preview ? uploadFile<ImportReport>('/api/trips/import?preview=true', v.file) : uploadFile<{ importId: number; imported: number }>('/api/trips/import', v.file),
     onSuccess: (_d, v) => {
-      if (!v.preview) void qc.invalidateQueries({ queryKey: ['trips'] });
+      if (!v.preview) void qc.invalidateQueries({ queryKey: queryRoots.trips });
     },
   });
 }

@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { VehicleListItem, VehicleStatus } from './get-vehicles';
 import { vehicleKeys } from './vehicle-keys';
+import { queryRoots } from '@/lib/query-keys';
 
 export interface VehicleInput {
   fleetNumber: string;
@@ -29,7 +30,7 @@ export function useSaveVehicle(id: number | undefined) {
     mutationFn: (body: VehicleInput | VehiclePatch) => (id === undefined ? createVehicle(body as VehicleInput) : updateVehicle(id, body)),
     onSuccess: () => {
       void queryClient.invalidateQueries({ queryKey: vehicleKeys.all });
-      void queryClient.invalidateQueries({ queryKey: ['depots'] });
+      void queryClient.invalidateQueries({ queryKey: queryRoots.depots });
     },
   });
 }

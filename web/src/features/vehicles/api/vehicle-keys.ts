@@ -1,7 +1,8 @@
 import type { VehicleListParams } from './get-vehicles';
+import { queryRoots } from '@/lib/query-keys';
 
 export const vehicleKeys = {
-  all: ['vehicles'] as const,
+  all: queryRoots.vehicles,
   lists: () => [...vehicleKeys.all, 'list'] as const,
   list: (params: VehicleListParams) => [...vehicleKeys.lists(), params] as const,
   details: () => [...vehicleKeys.all, 'detail'] as const,

@@ -1,5 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { queryRoots } from '@/lib/query-keys';
 
 export interface WearDay {
   day: string;
@@ -93,7 +94,7 @@ export interface VehicleWear {
 }
 
 export const wearKeys = {
-  all: ['wear'] as const,
+  all: queryRoots.wear,
   vehicle: (id: number) => [...wearKeys.all, 'vehicle', id] as const,
 };
 

@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
 import { workshopKeys, type InspectionDetail } from './types';
+import { invalidateRoots, staleAfter } from '@/lib/query-keys';
 
 export const resultsSchema = z.object({
   odometerKm: z.number().min(0),
@@ -20,7 +21,8 @@ export function useRecordResults(id: number) {
     mutationFn: (body: ResultsInput) => api.post<InspectionDetail>(`/api/inspections/${id}/results`, resultsSchema.parse(body)),
     onSuccess: (d) => {
       qc.setQueryData(workshopKeys.inspection(id), d);
-      void qc.invalidateQueries({ queryKey: workshopKeys.all });
+      // the lane readings revise the corners' damping: wear, predictions and the due list with it
+      void invalidateRoots(qc, staleAfter.workshop);
     },
   });
 }

@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
 import type { WorkRecord } from './types';
+import { invalidateRoots, staleAfter } from '@/lib/query-keys';
 
 export const workSchema = z.object({
   vehicleId: z.number().int().positive(),
@@ -19,6 +20,6 @@ export function useRecordWork() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (body: WorkInput) => api.post<WorkRecord>('/api/work-records', workSchema.parse(body)),
-    onSuccess: () => void qc.invalidateQueries(),
+    onSuccess: () => void invalidateRoots(qc, staleAfter.workshop),
   });
 }

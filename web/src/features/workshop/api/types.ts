@@ -1,3 +1,5 @@
+import { queryRoots } from '@/lib/query-keys';
+
 export interface CornerState {
   damperId: number;
   position: string;
@@ -113,7 +115,7 @@ export interface WorkshopOptions {
 }
 
 export const workshopKeys = {
-  all: ['workshop'] as const,
+  all: queryRoots.workshop,
   inspections: (q: Record<string, unknown>) => [...workshopKeys.all, 'inspections', q] as const,
   inspection: (id: number) => [...workshopKeys.all, 'inspection', id] as const,
   options: () => [...workshopKeys.all, 'options'] as const,
