@@ -175,4 +175,124 @@ export const workshopRepository = {
       'SELECT d.id, v.spec_id, d.axle_index FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE d.removed_at IS NULL',
     );
   },
+
+  async specName(id: number) {
+    const [s] = await q<{ id: number; name: string }>('SELECT id, name FROM suspension_specs WHERE id = ?', [id]);
+    return s ?? null;
+  },
+
+  async specClass(id: number) {
+    const [s] = await q<{ vehicle_class: string }>('SELECT vehicle_class FROM suspension_specs WHERE id = ?', [id]);
+    return s?.vehicle_class ?? null;
+  },
+
+  async depot(id: number) {
+    const [d] = await q<{ id: number; name: string }>('SELECT id, name FROM depots WHERE id = ?', [id]);
+    return d ?? null;
+  },
+
+  /** One page of inspections under the given conditions (SQL over `i` inspections, `v` vehicles), with the total. */
+  async inspectionPage(where: { cond: string[]; args: unknown[] }, order: { column: string; dir: 'ASC' | 'DESC' }, page: { limit: number; offset: number }) {
+    const w = where.cond.length ? `WHERE ${where.cond.join(' AND ')}` : '';
+    const from = `FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN depots d ON d.id = COALESCE(i.assigned_depot_id, v.depot_id) LEFT JOIN users u ON u.id = i.assignee_id`;
+    const [{ n }] = await q<{ n: number }>(`SELECT COUNT(*) AS n ${from} ${w}`, where.args);
+    const rows = await q<{
+      id: number; vehicle_id: number; fleet_number: string; plate: string; due_date: string; status: string; reason: string; trigger: string | null;
+      assignee_id: number | null; assignee_name: string | null; depot_id: number; depot_name: string; assigned_depot_id: number | null; results_at: string | null; completed_at: string | null;
+    }>(
+      `SELECT i.id, i.vehicle_id, v.fleet_number, v.plate, i.due_date, i.status, i.reason, i."trigger", i.assignee_id, u.name AS assignee_name, d.id AS depot_id, d.name AS depot_name,
+              i.assigned_depot_id, i.results_at, i.completed_at
+       ${from} ${w} ORDER BY ${order.column} ${order.dir}, v.fleet_number LIMIT ? OFFSET ?`,
+      [...where.args, page.limit, page.offset],
+    );
+    return { total: Number(n), rows };
+  },
+
+  /** The vehicle a work record is for, read inside the record's transaction. */
+  async vehicleForWork(id: number, transaction: Transaction) {
+    const [v] = await q<{ id: number; status: string; odometer_km: number; depot_id: number }>('SELECT id, status, odometer_km, depot_id FROM vehicles WHERE id = ?', [id], transaction);
+    return v ?? null;
+  },
+
+  async vehicleSpecId(id: number) {
+    const [v] = await q<{ id: number; spec_id: number }>('SELECT id, spec_id FROM vehicles WHERE id = ?', [id]);
+    return v ?? null;
+  },
+
+  /** The damper fitted at a corner now, read inside a work record's transaction. */
+  async fittedAt(vehicleId: number, position: string, transaction: Transaction) {
+    const [d] = await q<{ id: number; axle_index: number; installed_odometer_km: number; installed_at: string }>(
+      'SELECT id, axle_index, installed_odometer_km, installed_at FROM dampers WHERE vehicle_id = ? AND position = ? AND removed_at IS NULL',
+      [vehicleId, position],
+      transaction,
+    );
+    return d ?? null;
+  },
+
+  /** Mean damper part cost per spec from work record items. */
+  async damperPartCosts() {
+    return q<{ spec_id: number; cost: number; n: number }>(
+      `SELECT v.spec_id, AVG(i.cost) AS cost, COUNT(*) AS n FROM work_record_items i JOIN work_records w ON w.id = i.work_record_id JOIN vehicles v ON v.id = w.vehicle_id
+       WHERE i.component = 'damper' AND i.cost IS NOT NULL GROUP BY v.spec_id`,
+    );
+  },
+
+  /** Older work records without items: parts cost shared by the dampers they removed, per spec. */
+  async legacyDamperCosts() {
+    return q<{ spec_id: number; cost: number }>(
+      `SELECT v.spec_id, AVG(w.parts_cost / (SELECT COUNT(*) FROM dampers d WHERE d.removed_by_work_record_id = w.id)) AS cost
+       FROM work_records w JOIN vehicles v ON v.id = w.vehicle_id
+       WHERE w.parts_cost IS NOT NULL AND (SELECT COUNT(*) FROM dampers d WHERE d.removed_by_work_record_id = w.id) > 0 GROUP BY v.spec_id`,
+    );
+  },
+
+  async vehicleNames() {
+    return q<{ id: number; fleet_number: string; depot_id: number; depot_name: string; spec_name: string }>(
+      `SELECT v.id, v.fleet_number, v.depot_id, d.name AS depot_name, s.name AS spec_name FROM vehicles v JOIN depots d ON d.id = v.depot_id JOIN suspension_specs s ON s.id = v.spec_id`,
+    );
+  },
+
+  /** Every open inspection with the depot that does it (assigned, else the vehicle's). */
+  async openInspectionsByDepot() {
+    return q<{ depot_id: number; depot_name: string; due_date: string; status: string; assignee_id: number | null }>(
+      `SELECT d.id AS depot_id, d.name AS depot_name, i.due_date, i.status, i.assignee_id FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id
+       JOIN depots d ON d.id = COALESCE(i.assigned_depot_id, v.depot_id) WHERE i.status IN ('scheduled','due','overdue')`,
+    );
+  },
+
+  async depotsWithMechanics() {
+    return q<{ id: number; name: string; mechanics: number }>(
+      `SELECT d.id, d.name, (SELECT COUNT(*) FROM users u WHERE u.depot_id = d.id AND u.role = 'mechanic' AND u.active = 1) AS mechanics FROM depots d ORDER BY d.name`,
+    );
+  },
+
+  /** Predicted against measured damping of every corner that has both. */
+  async predictedAgainstMeasured() {
+    return q<{ inspection_id: number; position: string; predicted: number; measured: number; nominal: number; basis: string | null; fleet_number: string; vehicle_id: number; completed: string | null }>(
+      `SELECT c.inspection_id, c.position, c.predicted_damping_ns_per_m AS predicted, c.measured_damping_ns_per_m AS measured, c.nominal_damping_ns_per_m AS nominal, c.predicted_basis AS basis,
+              v.fleet_number, v.id AS vehicle_id, COALESCE(i.completed_at, i.results_at) AS completed
+       FROM inspection_corners c JOIN inspections i ON i.id = c.inspection_id JOIN vehicles v ON v.id = i.vehicle_id
+       WHERE c.measured_damping_ns_per_m IS NOT NULL AND c.predicted_damping_ns_per_m IS NOT NULL ORDER BY c.id`,
+    );
+  },
+
+  /** Corners with an adhesion reading that gave no damping estimate. */
+  async cornersWithoutEstimate() {
+    const [{ n }] = await q<{ n: number }>(`SELECT COUNT(*) AS n FROM inspection_corners WHERE adhesion_pct IS NOT NULL AND measured_damping_ns_per_m IS NULL`);
+    return Number(n);
+  },
+
+  /** A vehicle's lane results against the predictions, newest first. */
+  async vehicleComparisons(vehicleId: number) {
+    return q<{ inspection_id: number; position: string; adhesion_pct: number | null; predicted: number | null; measured: number | null; nominal: number; note: string | null; verdict: string; at: string | null; basis: string | null; amplitude: number | null; phase: number | null; method: string | null }>(
+      `SELECT c.inspection_id, c.position, c.adhesion_pct, c.predicted_damping_ns_per_m AS predicted, c.measured_damping_ns_per_m AS measured, c.nominal_damping_ns_per_m AS nominal,
+              c.estimate_note AS note, c.verdict, COALESCE(i.results_at, i.completed_at) AS at, c.predicted_basis AS basis, i.plate_amplitude_mm AS amplitude, c.phase_deg AS phase, c.estimate_method AS method
+       FROM inspection_corners c JOIN inspections i ON i.id = c.inspection_id WHERE i.vehicle_id = ? ORDER BY i.results_at DESC, c.axle_index, c.position`,
+      [vehicleId],
+    );
+  },
+
+  async openInspectionsOf(vehicleIds: number[]) {
+    return q<{ id: number; vehicle_id: number }>(`SELECT id, vehicle_id FROM inspections WHERE vehicle_id IN (${inList(vehicleIds)}) AND status IN ('scheduled','due','overdue')`);
+  },
 };

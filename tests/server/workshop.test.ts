@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestServer, type TestServer } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 import { adhesionPct } from '../../server/physics/adhesion';
-import { estimateDamping } from '../../server/workshop/service';
+import { estimateDamping } from '../../server/workshop/corners';
 import { phaseShift } from '../../server/physics/phase-shift';
 import { estimateFromLane } from '../../server/physics/lane-estimate';
 

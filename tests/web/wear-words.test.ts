@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { wearBands, wearRule, wearTone } from '../../web/src/lib/wear';
-import { cornerState } from '../../server/workshop/service';
+import { cornerState } from '../../server/workshop/corners';
 import type { FittedCornerRow } from '../../server/workshop/repository';
 
 describe('wear words on screen', () => {

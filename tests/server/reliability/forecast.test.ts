@@ -1,6 +1,6 @@
 /** The forecast's replacement chance (server/workshop/service.ts replacementChance); computed checks. */
 import { describe, expect, it } from 'vitest';
-import { replacementChance, type CornerState } from '../../../server/workshop/service';
+import { replacementChance, type CornerState } from '../../../server/workshop/corners';
 import type { FittedCornerRow } from '../../../server/workshop/repository';
 
 const z = (p: number) => Math.log(-Math.log(1 - p));
