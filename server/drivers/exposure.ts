@@ -11,12 +11,13 @@
  * seat measurement (docs/methods.md "Whole-body vibration").
  */
 import { createHash } from 'node:crypto';
-import { QueryTypes, type Sequelize } from 'sequelize';
+import type { Sequelize } from 'sequelize';
 import { EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE, dailyA8, exposureStatus } from '../physics/exposure';
 import { FRONT_TRACK_CORRELATION, floorToSeat } from '../physics/seat';
 import { mailRepository, type QueuedMail } from '../mail/repository';
 import { esc } from '../mail/templates';
 import { plusDays } from '../lib/days';
+import { exposureRepository } from './exposure-repository';
 
 export const EXPOSURE_CAUTION =
   'A screening estimate from a model of the vehicle floor above the front axle, carried to the seat by stated factors, not a measurement at the seat. Follow your local regulations and have a competent person assess drivers’ exposure before acting on it.';
@@ -116,15 +117,8 @@ export async function refreshExposure(ctx: { sequelize: Sequelize; now: Date; as
   const from = plusDays(ctx.asOf, -EXPOSURE_WINDOW_DAYS);
   const { sequelize } = ctx;
   return sequelize.transaction(async (transaction) => {
-    const rows = await sequelize.query<{ trip_id: number; driver_id: number; vehicle_id: number; route_id: number; trip_date: string; duration_s: number; rms_weighted_accel: number }>(
-      `SELECT trip_id, driver_id, vehicle_id, route_id, trip_date, duration_s, rms_weighted_accel FROM trip_duties
-       WHERE axle_index = 0 AND driver_id IS NOT NULL AND trip_date >= ? AND trip_date <= ?`,
-      { replacements: [from, ctx.asOf], type: QueryTypes.SELECT, transaction },
-    );
-    const specs = await sequelize.query<{ vehicle_id: number; vehicle_class: string; seat_factor: number | null; cab_factor: number | null }>(
-      `SELECT v.id AS vehicle_id, s.vehicle_class, s.seat_factor, s.cab_factor FROM vehicles v JOIN suspension_specs s ON s.id = v.spec_id`,
-      { type: QueryTypes.SELECT, transaction },
-    );
+    const rows = await exposureRepository.frontDuty(sequelize, from, ctx.asOf, transaction);
+    const specs = await exposureRepository.seatInputs(sequelize, transaction);
     const factor = new Map(specs.map((s) => [s.vehicle_id, floorToSeat({ vehicleClass: s.vehicle_class, seatFactor: s.seat_factor, cabFactor: s.cab_factor }).total]));
     const days = exposureDays(
       rows.map((r) => ({
@@ -132,36 +126,23 @@ export async function refreshExposure(ctx: { sequelize: Sequelize; now: Date; as
         floorToSeat: factor.get(r.vehicle_id) ?? 1,
       })),
     );
-    const existing = await sequelize.query<{ driver_id: number; day: string; notified_at: string | null }>(
-      `SELECT driver_id, day, notified_at FROM driver_exposure_days WHERE day >= ? AND day <= ?`,
-      { replacements: [from, ctx.asOf], type: QueryTypes.SELECT, transaction },
-    );
+    const existing = await exposureRepository.notifiedDays(sequelize, from, ctx.asOf, transaction);
     const notified = new Map(existing.map((e) => [`${e.driver_id}|${e.day}`, e.notified_at]));
-    await sequelize.query(`DELETE FROM driver_exposure_days WHERE day >= ? AND day <= ?`, { replacements: [from, ctx.asOf], transaction });
     const nowText = ctx.now.toISOString();
-    for (let i = 0; i < days.length; i += 200) {
-      const chunk = days.slice(i, i + 200);
-      await sequelize.query(
-        `INSERT INTO driver_exposure_days (driver_id, day, a8, hours, trips, max_weighted_accel, status, parts, computed_at, notified_at) VALUES ${chunk.map(() => '(?,?,?,?,?,?,?,?,?,?)').join(',')}`,
-        {
-          replacements: chunk.flatMap((d) => [d.driverId, d.day, d.a8, d.hours, d.trips, d.maxWeightedAccel, d.status, JSON.stringify(d.parts), nowText, notified.get(`${d.driverId}|${d.day}`) ?? null]),
-          transaction,
-        },
-      );
-    }
+    await exposureRepository.replaceDays(
+      sequelize,
+      from,
+      ctx.asOf,
+      days.map((d) => ({ driverId: d.driverId, day: d.day, a8: d.a8, hours: d.hours, trips: d.trips, maxWeightedAccel: d.maxWeightedAccel, status: d.status, parts: JSON.stringify(d.parts), notifiedAt: notified.get(`${d.driverId}|${d.day}`) ?? null })),
+      nowText,
+      transaction,
+    );
 
     // Mail managers about days newly above the action value.
-    const fresh = await sequelize.query<{ driver_id: number; day: string; a8: number; hours: number; name: string; depot_id: number | null }>(
-      `SELECT e.driver_id, e.day, e.a8, e.hours, u.name, u.depot_id FROM driver_exposure_days e JOIN users u ON u.id = e.driver_id
-       WHERE e.a8 > ? AND e.notified_at IS NULL ORDER BY e.day, u.name`,
-      { replacements: [EXPOSURE_ACTION_VALUE], type: QueryTypes.SELECT, transaction },
-    );
+    const fresh = await exposureRepository.unnotifiedAbove(sequelize, EXPOSURE_ACTION_VALUE, transaction);
     const mailFrom = plusDays(ctx.asOf, -EXPOSURE_MAIL_DAYS);
     const toMail = fresh.filter((f) => f.day > mailFrom);
-    const managers = await sequelize.query<{ id: number; name: string; email: string; depot_id: number | null }>(
-      `SELECT id, name, email, depot_id FROM users WHERE role = 'manager' AND active = 1 ORDER BY id`,
-      { type: QueryTypes.SELECT, transaction },
-    );
+    const managers = await exposureRepository.activeManagers(sequelize, transaction);
     const mails: QueuedMail[] = [];
     for (const m of managers) {
       const mine = toMail.filter((f) => m.depot_id === null || f.depot_id === null || f.depot_id === m.depot_id);
@@ -171,9 +152,7 @@ export async function refreshExposure(ctx: { sequelize: Sequelize; now: Date; as
       mails.push({ dedupeKey: `exposure:${m.id}:${createHash('sha256').update(keys).digest('hex').slice(0, 16)}`, kind: 'note', userId: m.id, toAddress: m.email, subject: body.subject, textBody: body.text, htmlBody: body.html, jobRunId: ctx.runId });
     }
     const queued = await mailRepository.queue(mails, ctx.now, transaction);
-    for (const f of fresh) {
-      await sequelize.query(`UPDATE driver_exposure_days SET notified_at = ? WHERE driver_id = ? AND day = ?`, { replacements: [nowText, f.driver_id, f.day], transaction });
-    }
+    await exposureRepository.markNotified(sequelize, fresh, nowText, transaction);
     return { exposureDays: days.length, exposureDaysAboveAction: days.filter((d) => d.a8 > EXPOSURE_ACTION_VALUE).length, exposureMailsQueued: queued };
   });
 }
