@@ -16,6 +16,7 @@ import type { Db } from './db';
 import { AppError, errorHandler } from './errors';
 import type { Logger } from './logger';
 import { configurePassport, defaultAuthOptions, registerAuthRoutes, type AuthOptions } from './auth/routes';
+import { passwordChangeGate } from './auth/password-change-gate';
 import { registerUserRoutes } from './users/routes';
 import { registerFleetRoutes } from './fleet/routes';
 import { open } from './http/access';
@@ -170,6 +171,8 @@ export function createApp(deps: AppDeps): BuiltApp {
   // API answers are per user and change often: never stored by a browser or proxy
   api.use(nocache());
   api.use(doubleCsrfProtection);
+  // a temporary password set by a manager must be replaced before anything else
+  api.use(passwordChangeGate);
   api.get('/health', open, (_req, res) => {
     res.json({ ok: true });
   });

@@ -40,7 +40,8 @@ export function configurePassport() {
   passport.serializeUser((user, done) => done(null, (user as SessionUser).id));
   passport.deserializeUser((id: number, done) => {
     userRepository.findById(id).then(
-      (u) => done(null, u && u.active ? { id: u.id, name: u.name, email: u.email, role: u.role, active: u.active } : false),
+      (u) =>
+        done(null, u && u.active ? { id: u.id, name: u.name, email: u.email, role: u.role, active: u.active, mustChangePassword: u.mustChangePassword } : false),
       (err) => done(err),
     );
   });

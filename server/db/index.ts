@@ -17,6 +17,7 @@ import * as m0012 from './migrations/0012-lane-plate-amplitude';
 import * as m0013 from './migrations/0013-lane-phase-shift';
 import * as m0014 from './migrations/0014-seat-factors';
 import * as m0017 from './migrations/0017-trip-import-file-hash';
+import * as m0018 from './migrations/0018-must-change-password';
 import { initNightlyModels } from './nightly-models';
 import { initDriverModels } from './driver-models';
 
@@ -42,6 +43,7 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
   { name: '0013-lane-phase-shift', up: m0013.up, down: m0013.down },
   { name: '0014-seat-factors', up: m0014.up, down: m0014.down },
   { name: '0017-trip-import-file-hash', up: m0017.up, down: m0017.down },
+  { name: '0018-must-change-password', up: m0018.up, down: m0018.down },
 ];
 
 /**

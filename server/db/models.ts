@@ -28,6 +28,8 @@ export class User extends Model<Attrs<User>, CAttrs<User>> {
   declare passwordHash: string;
   declare active: CreationOptional<boolean>;
   declare depotId: ForeignKey<number> | null;
+  /** Set when a fleet manager chose the password (a new account, a reset): the user must choose their own before anything else. */
+  declare mustChangePassword: CreationOptional<boolean>;
   /** E-mail preferences: managers' inspection digest, its ride-report section, mechanics' assignment notes. */
   declare notifyInspectionDigest: CreationOptional<boolean>;
   declare notifyRideReports: CreationOptional<boolean>;
@@ -276,6 +278,7 @@ export function initModels(sequelize: Sequelize) {
       passwordHash: { type: DataTypes.STRING(100), allowNull: false },
       active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
       depotId: { type: DataTypes.INTEGER, allowNull: true },
+      mustChangePassword: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       notifyInspectionDigest: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
       notifyRideReports: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
       notifyAssignments: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },

@@ -8,6 +8,8 @@ export interface SessionUser {
   email: string;
   role: Role;
   active: boolean;
+  /** A fleet manager set the password: until the user chooses their own, the API refuses the rest (server/auth/password-change-gate.ts). */
+  mustChangePassword: boolean;
 }
 
 declare global {

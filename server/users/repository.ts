@@ -13,6 +13,7 @@ const toRow = (u: User): UserRow => ({
   email: u.email,
   role: u.role,
   active: u.active,
+  mustChangePassword: u.mustChangePassword,
   depotId: u.depotId ?? null,
   createdAt: u.createdAt.toISOString(),
 });
@@ -52,11 +53,15 @@ export const userRepository = {
     });
     return { items: rows.map(toRow), total: count };
   },
-  async create(data: { name: string; email: string; role: Role; passwordHash: string; depotId?: number | null }) {
+  async create(data: { name: string; email: string; role: Role; passwordHash: string; depotId?: number | null; mustChangePassword?: boolean }) {
     const u = await User.create({ ...data, email: data.email.toLowerCase(), depotId: data.depotId ?? null });
     return toRow(u);
   },
-  async update(id: number, patch: Partial<{ name: string; role: Role; active: boolean; depotId: number | null; passwordHash: string }>, transaction?: Transaction) {
+  async update(
+    id: number,
+    patch: Partial<{ name: string; role: Role; active: boolean; depotId: number | null; passwordHash: string; mustChangePassword: boolean }>,
+    transaction?: Transaction,
+  ) {
     const u = await User.findByPk(id, { transaction });
     if (!u) return null;
     await u.update(patch, { transaction });

@@ -11,15 +11,18 @@ export const hashPassword = (plain: string) => bcrypt.hash(plain, BCRYPT_COST);
 export const userService = {
   list: userRepository.list,
 
+  /** A new account. The manager chose its password and knows it, so it is temporary: the user picks their own at first sign-in. */
   async create(input: { name: string; email: string; role: Role; password: string; depotId?: number | null }) {
-    const passwordHash = await hashPassword(input.password);
-    return userRepository.create({ ...input, passwordHash });
+    const { password, ...fields } = input;
+    const passwordHash = await hashPassword(password);
+    return userRepository.create({ ...fields, passwordHash, mustChangePassword: true });
   },
 
   /**
    * A manager's change to an account. The last-active-manager check and the change run in one
    * IMMEDIATE transaction, so two concurrent changes cannot both pass the check and leave the
-   * fleet without an active manager. A new `password` (a manager's reset) ends the user's sessions.
+   * fleet without an active manager. A new `password` (a manager's reset) ends the user's sessions
+   * and, for someone else's account, is temporary: that user must choose their own at next sign-in.
    */
   async update(actorId: number, id: number, patch: { name?: string; role?: Role; active?: boolean; depotId?: number | null; password?: string }) {
     const { password, ...fields } = patch;
@@ -37,7 +40,11 @@ export const userService = {
       if (id === actorId && fields.active === false) {
         throw AppError.conflict('You cannot deactivate your own account.', { active: 'is your own account' });
       }
-      const row = await userRepository.update(id, passwordHash === undefined ? fields : { ...fields, passwordHash }, t);
+      const row = await userRepository.update(
+        id,
+        passwordHash === undefined ? fields : { ...fields, passwordHash, mustChangePassword: id !== actorId },
+        t,
+      );
       if (!row) throw AppError.notFound('User');
       return row;
     });
@@ -54,14 +61,22 @@ export const userService = {
     return user;
   },
 
-  /** Changes one's own password and ends one's other sessions (the one asking, `keepSid`, stays). */
+  /**
+   * Changes one's own password and ends one's other sessions (the one asking, `keepSid`, stays).
+   * The password is then one's own, so a temporary one set by a manager is done with. The new one
+   * must differ from the current one (compared with the stored hash, as sign-in would), or a
+   * temporary password could simply be kept.
+   */
   async changePassword(id: number, currentPassword: string, newPassword: string, keepSid: string) {
     const hash = await userRepository.findHash(id);
     if (!hash) throw AppError.notFound('User');
     if (!(await bcrypt.compare(currentPassword, hash))) {
       throw AppError.badRequest('The current password is not right.', { currentPassword: 'does not match' });
     }
-    await userRepository.update(id, { passwordHash: await hashPassword(newPassword) });
+    if (await bcrypt.compare(newPassword, hash)) {
+      throw AppError.badRequest('The new password is the same as the current one; choose another.', { newPassword: 'must differ from the current password' });
+    }
+    await userRepository.update(id, { passwordHash: await hashPassword(newPassword), mustChangePassword: false });
     await userRepository.endSessions(id, keepSid);
   },
 };

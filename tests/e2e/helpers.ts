@@ -92,3 +92,16 @@ export async function settled(page: Page) {
     await new Promise<void>((resolve) => requestAnimationFrame(() => requestAnimationFrame(() => resolve())));
   });
 }
+
+/**
+ * On the page that replaces a temporary password (one a fleet manager set): fills in the
+ * temporary password and the new one twice, and saves.
+ */
+export async function choosePassword(page: Page, temporary: string, chosen: string) {
+  await expectHeading(page, 'Choose a new password');
+  const form = page.getByRole('form', { name: 'Choose a new password' });
+  await form.getByLabel('Temporary password').fill(temporary);
+  await form.getByLabel('New password', { exact: true }).fill(chosen);
+  await form.getByLabel('New password again').fill(chosen);
+  await form.getByRole('button', { name: 'Save new password' }).click();
+}

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, newContext, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, menuItems, signIn, goViaMenu } from './helpers';
+import { DEMO, choosePassword, expectHeading, expectPath, menuItems, signIn, goViaMenu } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -61,10 +61,13 @@ describe('people (managers only)', () => {
     await page.getByText('Rosa Quintero is now a mechanic.').waitFor();
     await row(page, 'Rosa Quintero').getByRole('cell', { name: 'Mechanic' }).waitFor();
 
-    // The new person can sign in and lands where a mechanic does.
+    // The new person can sign in, chooses their own password (the manager's first one is
+    // temporary) and lands where a mechanic does.
     const theirs = await newContext(browser, 'tablet');
     const theirPage = await theirs.newPage();
     await signIn(theirPage, server.url, 'rosa.quintero@reboundry.test', 'quarry-lane-42');
+    await expectPath(theirPage, '/choose-password');
+    await choosePassword(theirPage, 'quarry-lane-42', 'rosa-own-password');
     await expectPath(theirPage, '/workshop');
     expect(await menuItems(theirPage)).toEqual(['Workshop', 'Roads', 'Vehicles', 'Damper life', 'Account']);
     await theirs.close();
@@ -81,7 +84,7 @@ describe('people (managers only)', () => {
     const againPage = await again.newPage();
     await againPage.goto(`${server.url}/sign-in`);
     await againPage.getByLabel('E-mail').fill('rosa.quintero@reboundry.test');
-    await againPage.getByLabel('Password').fill('quarry-lane-42');
+    await againPage.getByLabel('Password').fill('rosa-own-password');
     await againPage.getByRole('button', { name: 'Sign in' }).click();
     await againPage.getByRole('alert').getByText(/do not match an active account/).waitFor();
     await again.close();
@@ -93,6 +96,65 @@ describe('people (managers only)', () => {
     await context.close();
   });
 
+  it('when a manager sets a temporary password, then the person is signed out, signs in with it, must choose their own and then lands in the app', async () => {
+    // The driver is signed in on their phone.
+    const phone = await newContext(browser, 'phone');
+    const phonePage = await phone.newPage();
+    await signIn(phonePage, server.url, DEMO.driver);
+    await expectPath(phonePage, '/my-vehicle');
+
+    const context = await newContext(browser, 'desktop');
+    const page = await context.newPage();
+    await signIn(page, server.url, DEMO.manager);
+    await page.goto(`${server.url}/people?q=${encodeURIComponent(DEMO.driver)}`);
+    const action = page.getByRole('button', { name: /^Set temporary password for / });
+    await action.click();
+    const name = ((await action.getAttribute('aria-label')) ?? '').replace('Set temporary password for ', '');
+    const dialog = page.getByRole('dialog', { name: `Set temporary password for ${name}` });
+    await dialog.getByText('must then choose a password of their own').waitFor();
+    await dialog.getByText('Any sessions they have open now end.').waitFor();
+    await dialog.getByLabel('Temporary password').fill('short');
+    await dialog.getByRole('button', { name: 'Set password' }).click();
+    await dialog.getByText('Temporary password must be at least 10 characters.').waitFor();
+    expect(await dialog.getByLabel('Temporary password').evaluate((el) => el === document.activeElement)).toBe(true);
+    await dialog.getByLabel('Temporary password').fill('harbour-road-93');
+    await page.screenshot({ path: screenshotPath('manager-desktop-people-temporary-password') });
+    await dialog.getByRole('button', { name: 'Set password' }).click();
+    await page.getByText(`${name} has a temporary password and is signed out everywhere.`).waitFor();
+    await row(page, name).getByText('Temporary password', { exact: true }).waitFor();
+
+    // The manager signs out; the driver's phone session has ended.
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await expectPath(page, '/sign-in');
+    await phonePage.reload();
+    await expectPath(phonePage, '/sign-in');
+    await phone.close();
+
+    // The driver signs in with the temporary password and sees only the page to choose their own.
+    await signIn(page, server.url, DEMO.driver, 'harbour-road-93');
+    await expectPath(page, '/choose-password');
+    await expectHeading(page, 'Choose a new password');
+    expect(await page.evaluate(() => document.activeElement?.textContent)).toBe('Choose a new password');
+    expect(await page.getByRole('navigation', { name: 'Main' }).count()).toBe(0);
+    // the app's own pages lead back here until the password is chosen
+    await page.goto(`${server.url}/vehicles`);
+    await expectPath(page, '/choose-password');
+    // keeping the temporary password is refused
+    await choosePassword(page, 'harbour-road-93', 'harbour-road-93');
+    await page.getByText('New password must differ from the current password.').waitFor();
+    await page.screenshot({ path: screenshotPath('driver-desktop-choose-password') });
+    await choosePassword(page, 'harbour-road-93', 'quay-side-rebound');
+    await expectPath(page, '/my-vehicle');
+    expect(await menuItems(page)).toContain('My vehicle');
+
+    // The chosen password is the one that works from now on.
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await expectPath(page, '/sign-in');
+    await signIn(page, server.url, DEMO.driver, 'quay-side-rebound');
+    await expectPath(page, '/my-vehicle');
+    await context.close();
+  });
+
   it('when a manager looks at their own row, then they cannot deactivate themselves or change their own role', async () => {
     const context = await newContext(browser, 'desktop');
     const page = await context.newPage();
@@ -101,6 +163,7 @@ describe('people (managers only)', () => {
     await page.getByText('(you)').waitFor();
     expect(await page.getByRole('button', { name: /^Deactivate / }).isDisabled()).toBe(true);
     expect(await page.getByRole('button', { name: /^Change role for / }).isDisabled()).toBe(true);
+    expect(await page.getByRole('button', { name: /^Set temporary password for / }).isDisabled()).toBe(true);
     await context.close();
   });
 });

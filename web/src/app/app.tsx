@@ -1,9 +1,11 @@
 import { QueryClientProvider } from '@tanstack/react-query';
 import { RouterProvider } from 'react-router';
 import { authKeys } from '@/features/auth/api/auth-keys';
+import type { SignedInUser } from '@/lib/roles';
 import { createQueryClient } from './query-client';
 import { createAppRouter } from './router';
 import { signInPath } from './guards';
+import { choosePasswordPath } from './navigation';
 
 let redirecting = false;
 
@@ -23,7 +25,17 @@ function onUnauthorized() {
     });
 }
 
-const queryClient = createQueryClient({ onUnauthorized });
+/**
+ * Shows the page to choose a new password when the server refuses a request until the temporary
+ * one is replaced (a fleet manager set it while this page was open, or the cached account is old).
+ */
+function onPasswordChangeRequired() {
+  if (window.location.pathname === choosePasswordPath) return;
+  queryClient.setQueryData<SignedInUser | null>(authKeys.me(), (u) => (u ? { ...u, mustChangePassword: true } : u));
+  void router.navigate(choosePasswordPath, { replace: true });
+}
+
+const queryClient = createQueryClient({ onUnauthorized, onPasswordChangeRequired });
 const router = createAppRouter(queryClient);
 
 export function App() {

@@ -127,6 +127,9 @@ export const vehiclePath = (id: number) => `/vehicles/${id}`;
 export const inspectionPath = (id: number) => `/inspections/${id}`;
 export const workRecordPath = (id: number) => `/work-records/${id}`;
 
+/** The page someone with a temporary password (set by a fleet manager) sees instead of the app. */
+export const choosePasswordPath = '/choose-password';
+
 /** A `next` address from the query string, if it is a safe path inside this app. */
 export function safeNext(next: string | null): string | null {
   if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/sign-in')) return null;

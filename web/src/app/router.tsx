@@ -4,8 +4,8 @@ import type { QueryClient } from '@tanstack/react-query';
 import { meQueryOptions } from '@/features/auth/api/get-me';
 import { AppShell } from './app-shell';
 import { AppLoading } from './routes/app-loading';
-import { landingRedirect, requireRole, requireUser } from './guards';
-import { landingPaths, pages, safeNext } from './navigation';
+import { landingRedirect, requireRole, requireTemporaryPassword, requireUser } from './guards';
+import { choosePasswordPath, landingPaths, pages, safeNext } from './navigation';
 import { NotFound, RouteError } from './routes/route-error';
 import { SignInRoute } from './routes/sign-in-route';
 
@@ -48,6 +48,15 @@ export function createAppRouter(queryClient: QueryClient) {
         return null;
       },
       element: <SignInRoute />,
+      hydrateFallbackElement: <AppLoading />,
+      errorElement: <RouteError />,
+    },
+    {
+      // instead of the app while the password is one a fleet manager set (its own chunk: the
+      // password form brings the whole of zod, which the sign-in page leaves out)
+      path: choosePasswordPath,
+      loader: requireTemporaryPassword(queryClient),
+      lazy: page(() => import('./routes/choose-password-route'), 'ChoosePasswordRoute'),
       hydrateFallbackElement: <AppLoading />,
       errorElement: <RouteError />,
     },

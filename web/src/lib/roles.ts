@@ -14,4 +14,6 @@ export interface SignedInUser {
   email: string;
   role: Role;
   active: boolean;
+  /** A fleet manager set this person's password: they choose their own before using the app. */
+  mustChangePassword: boolean;
 }

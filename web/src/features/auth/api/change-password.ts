@@ -1,6 +1,8 @@
-import { useMutation } from '@tanstack/react-query';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
+import type { SignedInUser } from '@/lib/roles';
+import { authKeys } from './auth-keys';
 
 export const MIN_PASSWORD_LENGTH = 10;
 
@@ -19,5 +21,10 @@ export function changePassword({ currentPassword, newPassword }: ChangePasswordI
 }
 
 export function useChangePassword() {
-  return useMutation({ mutationFn: changePassword });
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: changePassword,
+    // the password is now the person's own, so a temporary one no longer holds them back
+    onSuccess: () => queryClient.setQueryData<SignedInUser | null>(authKeys.me(), (u) => (u ? { ...u, mustChangePassword: false } : u)),
+  });
 }

@@ -6,9 +6,27 @@ import { isApiError } from '@/lib/api-client';
 import { focusFirstError, serverFieldErrors, zodFieldErrors, type FieldErrors } from '@/lib/form-errors';
 import { changePasswordSchema, MIN_PASSWORD_LENGTH, useChangePassword } from '../api/change-password';
 
-const labels = { currentPassword: 'Current password', newPassword: 'New password', confirmPassword: 'New password again' };
+const defaultLabels = { currentPassword: 'Current password', newPassword: 'New password', confirmPassword: 'New password again' };
 
-export function ChangePasswordForm() {
+/**
+ * Current password, new, and new again. On the Account page it says when it saved; on the page
+ * that replaces a temporary password, `onChanged` takes the person on instead.
+ */
+export function ChangePasswordForm({
+  name = 'Change password',
+  currentLabel = defaultLabels.currentPassword,
+  currentHint,
+  submitLabel = 'Change password',
+  onChanged,
+}: {
+  /** The form's accessible name. */
+  name?: string;
+  currentLabel?: string;
+  currentHint?: string;
+  submitLabel?: string;
+  onChanged?: () => void;
+} = {}) {
+  const labels = { ...defaultLabels, currentPassword: currentLabel };
   const formRef = useRef<HTMLFormElement>(null);
   const [errors, setErrors] = useState<FieldErrors>({});
   const [done, setDone] = useState(false);
@@ -34,7 +52,8 @@ export function ChangePasswordForm() {
     change.mutate(parsed.data, {
       onSuccess: () => {
         form.reset();
-        setDone(true);
+        if (onChanged) onChanged();
+        else setDone(true);
       },
       onError: (err) => {
         const next = serverFieldErrors(err, labels);
@@ -47,14 +66,21 @@ export function ChangePasswordForm() {
   const otherProblem = change.isError && !(isApiError(change.error) && Object.keys(change.error.fields).length > 0);
 
   return (
-    <form ref={formRef} onSubmit={onSubmit} noValidate aria-label="Change password" className="flex max-w-md flex-col gap-4">
+    <form ref={formRef} onSubmit={onSubmit} noValidate aria-label={name} className="flex max-w-md flex-col gap-4">
       {done ? <Notice tone="ok" title="Password changed">Use the new password the next time you sign in.</Notice> : null}
       {otherProblem ? (
         <Notice tone="error" title="Password not changed">
           {isApiError(change.error) ? change.error.message : 'Something unexpected went wrong. Try again.'}
         </Notice>
       ) : null}
-      <TextField label={labels.currentPassword} name="currentPassword" type="password" autoComplete="current-password" error={errors.currentPassword} />
+      <TextField
+        label={labels.currentPassword}
+        name="currentPassword"
+        type="password"
+        autoComplete="current-password"
+        hint={currentHint}
+        error={errors.currentPassword}
+      />
       <TextField
         label={labels.newPassword}
         name="newPassword"
@@ -66,7 +92,7 @@ export function ChangePasswordForm() {
       <TextField label={labels.confirmPassword} name="confirmPassword" type="password" autoComplete="new-password" error={errors.confirmPassword} />
       <div>
         <Button type="submit" variant="primary" busy={change.isPending}>
-          Change password
+          {submitLabel}
         </Button>
       </div>
     </form>

@@ -11,6 +11,8 @@ export interface UserListItem {
   email: string;
   role: Role;
   active: boolean;
+  /** Their password is one a manager set; they choose their own at next sign-in. */
+  mustChangePassword: boolean;
   createdAt: string;
 }
 

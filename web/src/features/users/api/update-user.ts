@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
 import { ROLES } from '@/lib/roles';
+import { createUserSchema } from './create-user';
 import type { UserListItem } from './get-users';
 import { userKeys } from './user-keys';
 
@@ -10,6 +11,8 @@ export const updateUserSchema = z
     name: z.string().trim().min(1, 'is required').max(120).optional(),
     role: z.enum(ROLES, 'must be chosen').optional(),
     active: z.boolean().optional(),
+    /** A temporary password: the person's sessions end and they choose their own at next sign-in. */
+    password: createUserSchema.shape.password.optional(),
   })
   .refine((p) => Object.keys(p).length > 0, 'Change at least one thing.');
 export type UpdateUserInput = z.infer<typeof updateUserSchema>;

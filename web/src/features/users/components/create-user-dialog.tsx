@@ -71,7 +71,7 @@ export function CreateUserDialog({ open, onClose, onCreated }: { open: boolean; 
           name="password"
           type="password"
           autoComplete="new-password"
-          hint="At least 10 characters. Give it to them in person; they can change it on their Account page."
+          hint="At least 10 characters. Give it to them in person; they choose their own password when they first sign in."
           error={errors.password}
         />
         <div className="mt-1 flex justify-end gap-2">

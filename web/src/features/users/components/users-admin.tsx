@@ -15,6 +15,7 @@ import { USER_SORTS, useUsers, type UserListItem } from '../api/get-users';
 import { ChangeRoleDialog } from './change-role-dialog';
 import { CreateUserDialog } from './create-user-dialog';
 import { SetActiveDialog } from './set-active-dialog';
+import { SetPasswordDialog } from './set-password-dialog';
 
 const col = createColumnHelper<UserListItem>();
 
@@ -27,13 +28,14 @@ function readFilters(search: URLSearchParams) {
   };
 }
 
-/** The people who use Reboundry: find, add, change role, deactivate and reactivate. */
+/** The people who use Reboundry: find, add, change role, set a temporary password, deactivate and reactivate. */
 export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
   const [params, update] = useListSearchParams({ sorts: USER_SORTS, defaultSort: 'name', readFilters });
   const query = useUsers(params);
   const [creating, setCreating] = useState(false);
   const [roleFor, setRoleFor] = useState<UserListItem | null>(null);
   const [activeFor, setActiveFor] = useState<UserListItem | null>(null);
+  const [passwordFor, setPasswordFor] = useState<UserListItem | null>(null);
   const [message, setMessage] = useState<string | null>(null);
 
   const columns = useMemo(
@@ -52,8 +54,18 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
       col.accessor('active', {
         header: 'Sign-in',
         enableSorting: false,
-        meta: { csv: (r) => (r.active ? 'Active' : 'Deactivated') },
-        cell: (c) => (c.getValue() ? <StatusBadge tone="ok">Active</StatusBadge> : <StatusBadge tone="neutral">Deactivated</StatusBadge>),
+        meta: { csv: (r) => (r.active ? (r.mustChangePassword ? 'Active, temporary password' : 'Active') : 'Deactivated') },
+        cell: (c) =>
+          !c.getValue() ? (
+            <StatusBadge tone="neutral">Deactivated</StatusBadge>
+          ) : c.row.original.mustChangePassword ? (
+            <span className="flex flex-wrap gap-1.5">
+              <StatusBadge tone="ok">Active</StatusBadge>
+              <StatusBadge tone="watch">Temporary password</StatusBadge>
+            </span>
+          ) : (
+            <StatusBadge tone="ok">Active</StatusBadge>
+          ),
       }),
       col.accessor('createdAt', {
         header: 'Added',
@@ -71,6 +83,16 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
             <div className="flex justify-end gap-1.5">
               <Button size="sm" variant="quiet" onClick={() => setRoleFor(u)} aria-label={`Change role for ${u.name}`} disabled={self} title={self ? 'Another manager can change your role.' : undefined}>
                 Change role
+              </Button>
+              <Button
+                size="sm"
+                variant="quiet"
+                onClick={() => setPasswordFor(u)}
+                aria-label={`Set temporary password for ${u.name}`}
+                disabled={self}
+                title={self ? 'Change your own password on your Account page.' : undefined}
+              >
+                Set temporary password
               </Button>
               <Button
                 size="sm"
@@ -158,9 +180,10 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
       <CreateUserDialog
         open={creating}
         onClose={() => setCreating(false)}
-        onCreated={(u) => setMessage(`${u.name} is added as a ${roleLabels[u.role].toLowerCase()} and can sign in now. Ask them to change their password on their Account page.`)}
+        onCreated={(u) => setMessage(`${u.name} is added as a ${roleLabels[u.role].toLowerCase()} and can sign in now. They choose their own password when they first sign in.`)}
       />
       <ChangeRoleDialog user={roleFor} onClose={() => setRoleFor(null)} onDone={setMessage} />
+      <SetPasswordDialog user={passwordFor} onClose={() => setPasswordFor(null)} onDone={setMessage} />
       <SetActiveDialog user={activeFor} onClose={() => setActiveFor(null)} onDone={setMessage} />
     </>
   );
