@@ -2,7 +2,10 @@
 // condition or constant at a time in the code below and runs the unit and API tests that cover
 // it; a change no test notices is a gap. The report is written to reports/mutation/.
 // Narrow a run: `npm run mutation -- --mutate server/physics/fatigue.ts` with
-// MUTATION_TESTS=tests/physics/fatigue.test.ts.
+// MUTATION_TESTS=tests/physics/fatigue.test.ts; MUTATION_REPORT names the report files (default
+// reports/mutation/mutation, written as .json and .html).
+const report = (process.env.MUTATION_REPORT ?? 'reports/mutation/mutation').replace(/\.json$/, '');
+
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',
@@ -22,8 +25,8 @@ export default {
   ignoreStatic: true,
   timeoutMS: 60_000,
   reporters: ['clear-text', 'progress', 'html', 'json'],
-  htmlReporter: { fileName: 'reports/mutation/index.html' },
-  jsonReporter: { fileName: 'reports/mutation/mutation.json' },
+  htmlReporter: { fileName: `${report}.html` },
+  jsonReporter: { fileName: `${report}.json` },
   tempDirName: '.stryker-tmp',
   cleanTempDir: 'always',
 };
