@@ -1,5 +1,5 @@
 /** E-mail about ride reports: the driver's note when their report is decided, the digest section of severe reports. */
-import { QueryTypes } from 'sequelize';
+import { rideReportsRepository } from './ride-reports-repository';
 import { esc, type DigestEntry } from '../mail/templates';
 import { registerDigestSection, type DigestSectionProvider } from '../mail/service';
 import { SEVERE_LEVEL, feltLabel, severityOf } from './ride-scale';
@@ -56,12 +56,7 @@ export const severeReportsSection: DigestSectionProvider = {
   heading: 'Severe ride reports from drivers',
   pref: 'notifyRideReports',
   async collect({ sequelize, publicUrl, transaction }) {
-    const rows = await sequelize.query<{ id: number; reported_at: string; severity: number; felt: string; note: string | null; seq: number; start_m: number; end_m: number; route_name: string; depot_id: number | null; driver_name: string; snap_distance_m: number }>(
-      `SELECT rr.id, rr.reported_at, rr.severity, rr.felt, rr.note, s.seq, s.start_m, s.end_m, r.name AS route_name, r.depot_id, u.name AS driver_name, rr.snap_distance_m
-       FROM ride_reports rr JOIN route_segments s ON s.id = rr.segment_id JOIN routes r ON r.id = rr.route_id JOIN users u ON u.id = rr.driver_id
-       WHERE rr.status = 'new' AND rr.severity >= ? AND rr.digest_notified_at IS NULL ORDER BY rr.reported_at`,
-      { replacements: [SEVERE_LEVEL], type: QueryTypes.SELECT, transaction },
-    );
+    const rows = await rideReportsRepository.undigestedSevere(sequelize, SEVERE_LEVEL, transaction);
     return rows.map((r): DigestEntry & { depotId: number | null } => {
       const felt = (JSON.parse(r.felt) as string[]).map(feltLabel).join(', ');
       return {
@@ -74,8 +69,7 @@ export const severeReportsSection: DigestSectionProvider = {
     });
   },
   async markNotified({ sequelize, transaction }, keys) {
-    if (!keys.length) return;
-    await sequelize.query(`UPDATE ride_reports SET digest_notified_at = CURRENT_TIMESTAMP WHERE id IN (${keys.map(() => '?').join(',')})`, { replacements: keys.map(Number), transaction });
+    await rideReportsRepository.markDigested(sequelize, keys.map(Number), transaction);
   },
 };
 

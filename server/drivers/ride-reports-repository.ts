@@ -1,5 +1,5 @@
 /** Ride reports data access. Returns plain objects. */
-import { Op, QueryTypes, type Order, type Transaction, type WhereOptions } from 'sequelize';
+import { Op, QueryTypes, type Order, type Sequelize, type Transaction, type WhereOptions } from 'sequelize';
 import { RideReport, type RideReportStatus } from '../db/driver-models';
 import { Route, RouteSegment, User, Vehicle } from '../db/models';
 import type { LonLat } from '../roads/geometry';
@@ -169,5 +169,21 @@ export const rideReportsRepository = {
 
   transaction<T>(fn: (t: Transaction) => Promise<T>) {
     return RideReport.sequelize!.transaction(fn);
+  },
+
+  /** Reports at or above `minSeverity`, still new and not yet in a digest, oldest first, with their segment, route and driver. */
+  undigestedSevere(sq: Sequelize, minSeverity: number, transaction: Transaction) {
+    return sq.query<{ id: number; reported_at: string; severity: number; felt: string; note: string | null; seq: number; start_m: number; end_m: number; route_name: string; depot_id: number | null; driver_name: string; snap_distance_m: number }>(
+      `SELECT rr.id, rr.reported_at, rr.severity, rr.felt, rr.note, s.seq, s.start_m, s.end_m, r.name AS route_name, r.depot_id, u.name AS driver_name, rr.snap_distance_m
+       FROM ride_reports rr JOIN route_segments s ON s.id = rr.segment_id JOIN routes r ON r.id = rr.route_id JOIN users u ON u.id = rr.driver_id
+       WHERE rr.status = 'new' AND rr.severity >= ? AND rr.digest_notified_at IS NULL ORDER BY rr.reported_at`,
+      { replacements: [minSeverity], type: QueryTypes.SELECT, transaction },
+    );
+  },
+
+  /** Records that these reports went into a digest. */
+  async markDigested(sq: Sequelize, ids: number[], transaction: Transaction) {
+    if (!ids.length) return;
+    await sq.query(`UPDATE ride_reports SET digest_notified_at = CURRENT_TIMESTAMP WHERE id IN (${ids.map(() => '?').join(',')})`, { replacements: ids, transaction });
   },
 };

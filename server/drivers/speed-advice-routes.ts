@@ -1,14 +1,14 @@
 /** `GET /api/routes/:id/speed-advice`. */
 import type { Router } from 'express';
-import { QueryTypes } from 'sequelize';
 import { z } from 'zod';
 import { allow, currentUser } from '../http/access';
 import { idParam, parse } from '../http/validate';
 import { AppError } from '../errors';
-import { SpecAxle, SuspensionSpec, Vehicle } from '../db/models';
+import { fleetRepository } from '../fleet/repository';
+import { tripsRepository } from '../trips/repository';
 import { roadsRepository } from '../roads/repository';
 import { EXPOSURE_ACTION_VALUE } from '../physics/exposure';
-import { FRONT_TRACK_CORRELATION, floorToSeat } from '../physics/seat';
+import { FRONT_TRACK_CORRELATION } from '../physics/seat';
 import { FRONT_AXLE_PAYLOAD_SHARE } from '../wear/duty';
 import {
   COMFORT_BANDS,
@@ -55,12 +55,8 @@ const PAYLOAD_SAMPLE = 500;
 
 /** The median payload [kg] of a spec's most recent trips with a payload on record, or null when none. */
 async function typicalPayloadKg(specId: number): Promise<{ kg: number; trips: number } | null> {
-  const rows = await SuspensionSpec.sequelize!.query<{ payload_kg: number }>(
-    `SELECT t.payload_kg FROM trips t JOIN vehicles v ON v.id = t.vehicle_id WHERE v.spec_id = ? AND t.payload_kg > 0 ORDER BY t.started_at DESC LIMIT ${PAYLOAD_SAMPLE}`,
-    { replacements: [specId], type: QueryTypes.SELECT },
-  );
-  if (!rows.length) return null;
-  const kg = rows.map((r) => r.payload_kg).sort((a, b) => a - b);
+  const kg = (await tripsRepository.recentPayloadsKg(specId, PAYLOAD_SAMPLE)).sort((a, b) => a - b);
+  if (!kg.length) return null;
   const mid = kg.length >> 1;
   return { kg: Math.round(kg.length % 2 ? kg[mid] : (kg[mid - 1] + kg[mid]) / 2), trips: kg.length };
 }
@@ -75,14 +71,14 @@ export function registerSpeedAdviceRoutes(api: Router) {
     if (!route) throw AppError.notFound('Route');
     let specId = q.specId;
     const user = currentUser(req);
-    if (!specId && user.role === 'driver') specId = (await Vehicle.findOne({ where: { driverId: user.id }, attributes: ['specId'], order: [['id', 'ASC']] }))?.specId;
-    const spec = specId ? await SuspensionSpec.findByPk(specId) : await SuspensionSpec.findOne({ order: [['id', 'ASC']] });
+    if (!specId && user.role === 'driver') specId = (await fleetRepository.driverSpecId(user.id)) ?? undefined;
+    const spec = await fleetRepository.findSpec(specId ?? (await fleetRepository.firstSpecId()) ?? 0);
     if (!spec) throw AppError.badRequest('Some values in the query are not valid.', { specId: `no suspension spec with id ${specId}` });
-    const axles = await SpecAxle.findAll({ where: { specId: spec.id }, order: [['axleIndex', 'ASC']] });
+    const axles = spec.axles;
     if (!axles.length) throw AppError.badRequest('This suspension spec has no axles.', { specId: 'has no axles' });
     if (q.segmentId && !(await roadsRepository.segmentsOf(id)).some((s) => s.id === q.segmentId)) throw AppError.badRequest('Some values in the query are not valid.', { segmentId: 'is not a segment of this route' });
 
-    const seat = floorToSeat({ vehicleClass: spec.vehicleClass, seatFactor: spec.seatFactor ?? null, cabFactor: spec.cabFactor ?? null });
+    const seat = spec.seat.used;
     // Laden: the payload asked for, else the spec's typical (median) recorded payload.
     const typical = q.load === 'laden' && q.payloadKg === undefined ? await typicalPayloadKg(spec.id) : null;
     const payloadKg = q.load === 'unladen' ? 0 : (q.payloadKg ?? typical?.kg ?? 0);
@@ -97,7 +93,7 @@ export function registerSpeedAdviceRoutes(api: Router) {
     const loadNote = payloadKg > 0 && axles.length > 1 ? `; ${Math.round(FRONT_AXLE_PAYLOAD_SHARE * 100)} % of it on the front axle, the rest shared by the others, half per corner` : '';
 
     const prepared = prepareSpec(
-      axles.map((a) => ({ axleIndex: a.axleIndex, label: a.label, corner: { sprungMassKg: a.sprungMassKg, unsprungMassKg: a.unsprungMassKg, springRateNPerM: a.springRateNPerM, dampingNsPerM: a.dampingNsPerM, tireRateNPerM: a.tireRateNPerM } })),
+      axles.map((a) => ({ axleIndex: a.axleIndex, label: a.label, corner: a.corner })),
       { seatFactor: seat.total, payloadKg },
     );
     const isDaily = q.comfort === DAILY_EXPOSURE_KEY;

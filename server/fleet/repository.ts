@@ -144,6 +144,15 @@ export const fleetRepository = {
     }));
   },
 
+  /** The spec of the driver's vehicle (the first by id when they have several), or null. */
+  async driverSpecId(driverId: number): Promise<number | null> {
+    return (await Vehicle.findOne({ where: { driverId }, attributes: ['specId'], order: [['id', 'ASC']] }))?.specId ?? null;
+  },
+
+  async firstSpecId(): Promise<number | null> {
+    return (await SuspensionSpec.findOne({ attributes: ['id'], order: [['id', 'ASC']] }))?.id ?? null;
+  },
+
   async findSpec(id: number): Promise<SpecRow | null> {
     const s = await SuspensionSpec.findByPk(id, {
       include: [{ model: SpecAxle, as: 'axles' }],

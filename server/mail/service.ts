@@ -13,9 +13,10 @@
  *   {@link queueAssignmentNotes} with the inspection id, then {@link sendPending}.
  */
 import { createHash } from 'node:crypto';
-import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { Sequelize, Transaction } from 'sequelize';
 import type { Logger } from '../logger';
 import type { Mailer } from './mailer';
+import { noticeRepository } from './notice-repository';
 import { mailRepository, type QueuedMail } from './repository';
 import { assignmentMail, digestMail, type DigestEntry } from './templates';
 
@@ -45,13 +46,7 @@ const inspectionSection: DigestSectionProvider = {
   heading: 'Inspections now due or overdue',
   pref: 'notifyInspectionDigest',
   async collect({ sequelize, publicUrl, asOf, transaction }) {
-    const rows = await sequelize.query<{ id: number; status: string; due_date: string; reason: string; vehicle_id: number; fleet_number: string; plate: string; depot_id: number; depot_name: string }>(
-      `SELECT i.id, i.status, i.due_date, i.reason, v.id AS vehicle_id, v.fleet_number, v.plate, v.depot_id, d.name AS depot_name
-       FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN depots d ON d.id = v.depot_id
-       WHERE i.status IN ('due', 'overdue') AND (i.notified_status IS NULL OR i.notified_status != i.status)
-       ORDER BY i.due_date, v.fleet_number`,
-      { type: QueryTypes.SELECT, transaction },
-    );
+    const rows = await noticeRepository.untoldDueInspections(sequelize, transaction);
     const t = Date.parse(`${asOf}T00:00:00Z`);
     return rows.map((r) => {
       const days = Math.round((Date.parse(`${r.due_date}T00:00:00Z`) - t) / 86_400_000);
@@ -71,11 +66,7 @@ const inspectionSection: DigestSectionProvider = {
       const [id, status] = k.split(':');
       byStatus.set(status, [...(byStatus.get(status) ?? []), Number(id)]);
     }
-    for (const [status, ids] of byStatus) {
-      for (let i = 0; i < ids.length; i += 5000) {
-        await sequelize.query(`UPDATE inspections SET notified_status = ? WHERE id IN (${ids.slice(i, i + 5000).join(',')})`, { replacements: [status], transaction });
-      }
-    }
+    for (const [status, ids] of byStatus) await noticeRepository.markStatusTold(sequelize, ids, status, transaction);
   },
 };
 
@@ -99,10 +90,7 @@ export interface MailContext {
 /** Queues each manager's digest of new items and marks the items told. Returns messages queued. */
 export async function queueDigests(ctx: MailContext): Promise<number> {
   return ctx.sequelize.transaction(async (transaction) => {
-    const managers = await ctx.sequelize.query<{ id: number; name: string; email: string; depot_id: number | null; notify_inspection_digest: number; notify_ride_reports: number }>(
-      `SELECT id, name, email, depot_id, notify_inspection_digest, notify_ride_reports FROM users WHERE role = 'manager' AND active = 1 ORDER BY id`,
-      { type: QueryTypes.SELECT, transaction },
-    );
+    const managers = await noticeRepository.digestRecipients(ctx.sequelize, transaction);
     const collected = [];
     for (const s of sections) collected.push({ s, items: await s.collect({ sequelize: ctx.sequelize, publicUrl: ctx.publicUrl, asOf: ctx.asOf, transaction }) });
     const mails: QueuedMail[] = [];
@@ -126,13 +114,7 @@ export async function queueDigests(ctx: MailContext): Promise<number> {
 /** Queues a note to each assignee not yet told (all open inspections, or the given ones). */
 export async function queueAssignmentNotes(ctx: MailContext, inspectionIds?: number[]): Promise<number> {
   return ctx.sequelize.transaction(async (transaction) => {
-    const rows = await ctx.sequelize.query<{ id: number; due_date: string; status: string; reason: string; vehicle_id: number; fleet_number: string; plate: string; depot_name: string; user_id: number; name: string; email: string; notify: number; active: number }>(
-      `SELECT i.id, i.due_date, i.status, i.reason, v.id AS vehicle_id, v.fleet_number, v.plate, d.name AS depot_name, u.id AS user_id, u.name, u.email, u.notify_assignments AS notify, u.active
-       FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN depots d ON d.id = v.depot_id JOIN users u ON u.id = i.assignee_id
-       WHERE i.status IN ('scheduled', 'due', 'overdue') AND (i.assignee_notified_id IS NULL OR i.assignee_notified_id != i.assignee_id)
-       ${inspectionIds ? `AND i.id IN (${inspectionIds.map(Number).join(',') || 'NULL'})` : ''} ORDER BY i.id`,
-      { type: QueryTypes.SELECT, transaction },
-    );
+    const rows = await noticeRepository.untoldAssignments(ctx.sequelize, inspectionIds, transaction);
     // one note per mechanic per run, listing every inspection newly assigned to them
     const mails: QueuedMail[] = [];
     const byUser = new Map<number, typeof rows>();
@@ -153,10 +135,7 @@ export async function queueAssignmentNotes(ctx: MailContext, inspectionIds?: num
       const key = items.length === 1 ? `assignment:${first.id}:${userId}` : `assignments:${userId}:${hash(items.map((r) => String(r.id)))}`;
       mails.push({ dedupeKey: key, kind: 'assignment', userId, toAddress: first.email, subject: body.subject, textBody: body.text, htmlBody: body.html, jobRunId: ctx.runId });
     }
-    for (let i = 0; i < rows.length; i += 5000) {
-      const ids = rows.slice(i, i + 5000).map((r) => Number(r.id));
-      await ctx.sequelize.query(`UPDATE inspections SET assignee_notified_id = assignee_id WHERE id IN (${ids.join(',')})`, { transaction });
-    }
+    await noticeRepository.markAssigneeTold(ctx.sequelize, rows.map((r) => Number(r.id)), transaction);
     return mailRepository.queue(mails, ctx.now, transaction);
   });
 }

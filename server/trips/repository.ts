@@ -134,4 +134,17 @@ export const tripsRepository = {
       total: count,
     };
   },
+
+  /** Payloads [kg] of the most recent trips of a spec's vehicles that carried one, newest first. */
+  async recentPayloadsKg(specId: number, limit: number): Promise<number[]> {
+    const rows = await Trip.findAll({
+      attributes: ['payloadKg'],
+      where: { payloadKg: { [Op.gt]: 0 } },
+      include: [{ model: Vehicle, as: 'vehicle', attributes: [], where: { specId }, required: true }],
+      order: [['startedAt', 'DESC']],
+      limit,
+      raw: true,
+    });
+    return rows.map((r) => Number(r.payloadKg));
+  },
 };

@@ -32,7 +32,8 @@ import {
   type LifeUnit,
 } from '../reliability/life-model';
 import { fitWeibull, weibullPlotPoints, type LifeObservation, type WeibullFit } from '../reliability/weibull';
-import { exec, q, stamp, workshopRepository } from './repository';
+import { lifeRepository } from './life-repository';
+import { workshopRepository } from './repository';
 
 /** Removal reasons that are not wear: such units count as suspensions (right-censored). */
 export const CENSORED_REASONS = ['fitted as a pair', 'accident damage', 'fitted with other work', 'vehicle retired'];
@@ -68,27 +69,7 @@ const BIN = 8; // severity bins of ln(s)/8 wide: about 13 % apart
 
 /** Every damper of a spec with its life and road mix (see module doc). */
 export async function damperLives(specId: number): Promise<DamperLife[]> {
-  const [dampers, own, mix] = await Promise.all([
-    q<{ id: number; vehicle_id: number; position: string; axle_index: number; installed_at: string; removed_at: string | null; installed_odometer_km: number; end_km: number; removal_reason: string | null; rated: number }>(
-      `SELECT d.id, d.vehicle_id, d.position, d.axle_index, d.installed_at, d.removed_at, d.installed_odometer_km, COALESCE(d.removed_odometer_km, v.odometer_km) AS end_km,
-              d.removal_reason, a.rated_damper_life_km AS rated
-       FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
-       WHERE v.spec_id = ? ORDER BY d.id`,
-      [specId],
-    ),
-    q<{ damper_id: number; km: number; lns: number }>(
-      `SELECT td.damper_id, SUM(td.distance_km) AS km, SUM(td.distance_km * ln(td.severity)) AS lns FROM trip_duties td
-       WHERE td.damper_id IN (SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE v.spec_id = ?) AND td.severity > 0
-       GROUP BY td.damper_id, CAST(ROUND(ln(td.severity) * ${BIN}) AS INTEGER)`,
-      [specId],
-    ),
-    q<{ vehicle_id: number; position: string; km: number; lns: number }>(
-      `SELECT td.vehicle_id, td.position, SUM(td.distance_km) AS km, SUM(td.distance_km * ln(td.severity)) AS lns FROM trip_duties td
-       WHERE td.vehicle_id IN (SELECT id FROM vehicles WHERE spec_id = ?) AND td.severity > 0
-       GROUP BY td.vehicle_id, td.position, CAST(ROUND(ln(td.severity) * ${BIN}) AS INTEGER)`,
-      [specId],
-    ),
-  ]);
+  const [dampers, own, mix] = await Promise.all([lifeRepository.specDampers(specId), lifeRepository.damperSeverityBands(specId, BIN), lifeRepository.cornerSeverityBands(specId, BIN)]);
   const ownOf = new Map<number, ExposureRow[]>();
   for (const r of own) {
     if (!(r.km > 0)) continue;
@@ -127,18 +108,14 @@ export async function refitLifeModels(settings: LifeSettings, now: Date): Promis
     const lives = await damperLives(s.id);
     const m = fitLifeModel(lives.filter((d) => d.lifeKm > 0).map(toUnit), settings.prior);
     out.set(s.id, m);
-    await exec(
-      `INSERT INTO life_models (spec_id, model, failures, suspensions, fitted_at) VALUES (?, ?, ?, ?, ?)
-       ON CONFLICT (spec_id) DO UPDATE SET model = excluded.model, failures = excluded.failures, suspensions = excluded.suspensions, fitted_at = excluded.fitted_at`,
-      [s.id, JSON.stringify(modelToJson(m)), m.failures, m.suspensions, stamp(now)],
-    );
+    await lifeRepository.storeModel(s.id, JSON.stringify(modelToJson(m)), m.failures, m.suspensions, now);
   }
   return out;
 }
 
 /** The stored model of every spec (the prior for a spec not fitted yet). */
 export async function storedLifeModels(prior: LifePrior = DEFAULT_PRIOR): Promise<Map<number, LifeModel>> {
-  const [specs, rows] = await Promise.all([workshopRepository.specs(), q<{ spec_id: number; model: string }>('SELECT spec_id, model FROM life_models')]);
+  const [specs, rows] = await Promise.all([workshopRepository.specs(), lifeRepository.storedModels()]);
   const stored = new Map(rows.map((r) => [r.spec_id, r.model]));
   const out = new Map<number, LifeModel>();
   for (const s of specs) {
@@ -251,7 +228,7 @@ export async function specLife(specId: number, specName: string, settings: LifeS
   const [lives, models, axles] = await Promise.all([
     damperLives(specId),
     storedLifeModels(settings.prior),
-    q<{ axle_index: number; rated_damper_life_km: number }>('SELECT axle_index, rated_damper_life_km FROM spec_axles WHERE spec_id = ? ORDER BY axle_index', [specId]),
+    lifeRepository.ratedLives(specId),
   ]);
   const m = models.get(specId)!;
   const p = priorModel(settings.prior);
