@@ -87,7 +87,8 @@ export async function sendCsv<T>(
       rows = await opts.fetch(offset, chunkRows);
     }
   } catch (err) {
-    res.destroy(err instanceof Error ? err : new Error(String(err)));
+    // the error handler logs it; the connection is cut so the browser does not keep half a file
+    res.destroy();
     throw err;
   }
   if (!closed) res.end();

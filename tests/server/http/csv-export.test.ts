@@ -123,4 +123,25 @@ describe('streaming a list as CSV', () => {
     expect(source.calls.length).toBe(after);
     await expect(Promise.race([done.then(() => 'returned'), wait(100).then(() => 'still running')])).resolves.toBe('returned');
   });
+
+  it('when reading a later chunk fails, then the download is cut short (the browser sees a failed download, not a shorter file)', async () => {
+    const source = numbered(Infinity);
+    const failing = {
+      calls: source.calls,
+      fetch: async (offset: number, limit: number) => {
+        if (offset > 0) throw new Error('database gone');
+        return source.fetch(offset, limit);
+      },
+    };
+    const { url, done } = await serve(failing, 5);
+    // the connection closes without the end of the answer (before or after its head reached the browser)
+    const read = fetch(url)
+      .then((res) => res.text())
+      .then(
+        () => 'whole',
+        () => 'cut short',
+      );
+    await expect(Promise.race([read, wait(2000).then(() => 'still open')])).resolves.toBe('cut short');
+    await expect(done).resolves.toMatchObject({ message: 'database gone' });
+  });
 });
