@@ -182,11 +182,11 @@ export function createApp(deps: AppDeps): BuiltApp {
       return generateCsrfToken(req, res);
     },
     options: { ...defaultAuthOptions, ...deps.auth } });
-  registerUserRoutes(api);
-  registerFleetRoutes(api, { inspectionThreshold: config.inspection.threshold });
+  registerUserRoutes(api, { now: deps.now ?? (() => new Date()), timeZone: config.timeZone });
+  registerFleetRoutes(api, { inspectionThreshold: config.inspection.threshold, now: deps.now ?? (() => new Date()), timeZone: config.timeZone });
   registerFleetWriteRoutes(api, deps.now ?? (() => new Date()));
   registerRoadRoutes(api, { config, now: deps.now ?? (() => new Date()) });
-  registerTripRoutes(api, { now: deps.now ?? (() => new Date()) });
+  registerTripRoutes(api, { now: deps.now ?? (() => new Date()), timeZone: config.timeZone });
   // Drivers
   registerRideReportRoutes(api, { now: deps.now ?? (() => new Date()), dataDir: config.dataDir, publicUrl: config.publicUrl, log, mailer: deps.mailer ?? null });
   registerExposureRoutes(api, { now: deps.now ?? (() => new Date()), timeZone: config.timeZone });

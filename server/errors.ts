@@ -84,6 +84,11 @@ export function errorHandler(log: Logger, production: boolean): ErrorRequestHand
     if (!appErr.operational) {
       log.error(`${req.method} ${req.originalUrl} failed`, err);
     }
+    // A streamed answer (a CSV download) that failed part-way: its status is sent, so cut it short.
+    if (res.headersSent) {
+      res.destroy();
+      return;
+    }
     const body: ErrorBody = { error: { code: appErr.code, message: appErr.message } };
     if (appErr.fields) body.error.fields = appErr.fields;
     if (!production && !appErr.operational && err instanceof Error) {

@@ -3,7 +3,9 @@ import { z } from 'zod';
 import { VEHICLE_STATUSES } from '../db/models';
 import { AppError } from '../errors';
 import { allow, currentUser } from '../http/access';
-import { idParam, listQuery, paging, parse } from '../http/validate';
+import { NO_PAGING, idParam, listQuery, paging, parse, sortOf } from '../http/validate';
+import { sendCsv, type CsvColumn } from '../http/csv-export';
+import { localDay } from '../lib/days';
 import type { VehicleSort } from './repository';
 import { fleetRepository } from './repository';
 import { modes } from '../physics/quarter-car';
@@ -20,6 +22,32 @@ const vehicleList = listQuery(['fleetNumber', 'plate', 'odometerKm', 'status', '
 
 const routeList = listQuery(['name', 'lengthM'], 'name', { q: z.string().trim().max(60).optional() });
 
+type VehicleItem = Awaited<ReturnType<typeof fleetRepository.listVehicles>>['items'][number];
+type RouteItem = Awaited<ReturnType<typeof fleetRepository.listRoutes>>['items'][number];
+
+/** Status words as the vehicles table shows them. */
+const VEHICLE_STATUS_WORDS: Record<VehicleItem['status'], string> = { in_service: 'In service', workshop: 'In workshop', retired: 'Retired' };
+
+/** The vehicles table's columns, in its order and words. */
+const VEHICLE_CSV: CsvColumn<VehicleItem>[] = [
+  { header: 'Fleet number', value: (v) => v.fleetNumber },
+  { header: 'Plate', value: (v) => v.plate },
+  { header: 'Status', value: (v) => VEHICLE_STATUS_WORDS[v.status] ?? v.status },
+  { header: 'Spec', value: (v) => v.specName },
+  { header: 'Depot', value: (v) => v.depotName },
+  { header: 'Driver', value: (v) => v.driverName },
+  { header: 'Odometer', unit: 'km', value: (v) => Math.round(v.odometerKm) },
+];
+
+/** The routes table's columns, in its order and words. */
+const ROUTE_CSV: CsvColumn<RouteItem>[] = [
+  { header: 'Route', value: (r) => r.name },
+  { header: 'Length', unit: 'km', value: (r) => Number(r.lengthKm.toFixed(2)) },
+  { header: 'Usual speed', unit: 'km/h', value: (r) => r.defaultSpeedKmh },
+  { header: 'Segments', value: (r) => r.segmentCount },
+  { header: 'Roughest ISO 8608 class', value: (r) => r.worstClass },
+];
+
 /**
  * Each axle with its corner's modes from the two-mass model, the same figures the spec editor's
  * preview shows, so the list and the editor never disagree.
@@ -28,8 +56,15 @@ function withModes<S extends { axles: { corner: CornerParams }[] }>(spec: S) {
   return { ...spec, axles: spec.axles.map((a) => ({ ...a, modes: modes(a.corner) })) };
 }
 
-/** `inspectionThreshold`: the configured fraction of life at which inspection is due (for the wear words on screen). */
-export function registerFleetRoutes(r: Router, opts: { inspectionThreshold: number } = { inspectionThreshold: 0.8 }) {
+/**
+ * `inspectionThreshold`: the configured fraction of life at which inspection is due (for the wear
+ * words on screen); `now` and `timeZone` date the CSV exports' file names.
+ */
+export function registerFleetRoutes(
+  r: Router,
+  opts: { inspectionThreshold: number; now?: () => Date; timeZone?: string } = { inspectionThreshold: 0.8 },
+) {
+  const today = () => localDay((opts.now ?? (() => new Date()))(), opts.timeZone ?? 'UTC');
   r.get('/depots', allow('manager', 'mechanic', 'driver'), async (_req, res) => {
     const items = await fleetRepository.listDepots();
     res.json({ items, total: items.length });
@@ -54,6 +89,19 @@ export function registerFleetRoutes(r: Router, opts: { inspectionThreshold: numb
     res.json(await fleetRepository.listVehicles(user.role === 'driver' ? { ...list, driverId: user.id } : list));
   });
 
+  // Before /vehicles/:id. The same roles and the same driver scope as the list.
+  r.get('/vehicles/export', allow('manager', 'mechanic', 'driver'), async (req, res) => {
+    const q = parse(vehicleList.omit(NO_PAGING), req.query, 'query');
+    const user = currentUser(req);
+    const list = { ...q, sort: sortOf<VehicleSort>(q), ...(user.role === 'driver' ? { driverId: user.id } : {}) };
+    await sendCsv(res, {
+      name: 'vehicles',
+      day: today(),
+      columns: VEHICLE_CSV,
+      fetch: async (offset, pageSize) => (await fleetRepository.listVehicles({ ...list, offset, pageSize })).items,
+    });
+  });
+
   r.get('/vehicles/:id', allow('manager', 'mechanic', 'driver'), async (req, res) => {
     const { id: vehicleId } = parse(idParam, req.params, 'address');
     const detail = await fleetRepository.vehicleDetail(vehicleId);
@@ -68,5 +116,17 @@ export function registerFleetRoutes(r: Router, opts: { inspectionThreshold: numb
   r.get('/routes', allow('manager', 'mechanic', 'driver'), async (req, res) => {
     const q = parse(routeList, req.query, 'query');
     res.json(await fleetRepository.listRoutes({ ...q, ...paging<'name' | 'lengthM'>(q) }));
+  });
+
+  // Before any /routes/:id (registered by the roads area).
+  r.get('/routes/export', allow('manager', 'mechanic', 'driver'), async (req, res) => {
+    const q = parse(routeList.omit(NO_PAGING), req.query, 'query');
+    const sort = sortOf<'name' | 'lengthM'>(q);
+    await sendCsv(res, {
+      name: 'routes',
+      day: today(),
+      columns: ROUTE_CSV,
+      fetch: async (offset, pageSize) => (await fleetRepository.listRoutes({ ...q, sort, offset, pageSize })).items,
+    });
   });
 }

@@ -33,6 +33,18 @@ export function listQuery<F extends z.ZodRawShape>(sortable: readonly string[], 
     .strict();
 }
 
+/**
+ * What a list's CSV export (`GET /api/<list>/export`) leaves out of its {@link listQuery}:
+ * `list.omit(NO_PAGING)` has the same sort and filters, no `page` or `pageSize` (the export holds
+ * every matching row), and still refuses unknown keys, paging among them.
+ */
+export const NO_PAGING = { page: true, pageSize: true } as const;
+
+/** The sort order of a parsed list or export query. */
+export function sortOf<S extends string>(q: { sort: string }): Paging<S>['sort'] {
+  return { field: q.sort.replace(/^-/, '') as S, dir: q.sort.startsWith('-') ? 'DESC' : 'ASC' };
+}
+
 export interface Paging<S extends string> {
   offset: number;
   pageSize: number;
@@ -41,12 +53,7 @@ export interface Paging<S extends string> {
 
 /** Offset and sort order from a parsed {@link listQuery}. */
 export function paging<S extends string>(q: { page: number; pageSize: number; sort: string }): Paging<S> {
-  const desc = q.sort.startsWith('-');
-  return {
-    offset: (q.page - 1) * q.pageSize,
-    pageSize: q.pageSize,
-    sort: { field: q.sort.replace(/^-/, '') as S, dir: desc ? 'DESC' : 'ASC' },
-  };
+  return { offset: (q.page - 1) * q.pageSize, pageSize: q.pageSize, sort: sortOf<S>(q) };
 }
 
 /** Boolean query values as people write them. */

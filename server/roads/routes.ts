@@ -7,7 +7,8 @@ import type { Config } from '../config';
 import { ROUGHNESS_SOURCES } from '../db/models';
 import { AppError } from '../errors';
 import { allow, currentUser } from '../http/access';
-import { idParam, isoDay, listQuery, noHiddenChars, paging, parse, queryBool } from '../http/validate';
+import { NO_PAGING, idParam, isoDay, listQuery, noHiddenChars, paging, parse, queryBool, sortOf } from '../http/validate';
+import { sendCsv, type CsvColumn } from '../http/csv-export';
 import { requireFile, singleFile, textOf } from '../http/upload';
 import { MAX_PROFILE_BYTES, surveyFilePath } from './profile-store';
 import { roadsRepository, type SegmentSort } from './repository';
@@ -93,6 +94,29 @@ const segmentList = listQuery(['seq', 'routeName', 'iri', 'isoClass', 'roughness
 });
 
 const ALL = ['manager', 'mechanic', 'driver'] as const;
+
+type SegmentItem = Awaited<ReturnType<typeof roadsRepository.listSegments>>['items'][number];
+
+/** Roughness sources as the segments table words them. */
+const SOURCE_WORDS: Record<string, string> = {
+  survey: 'Profile survey',
+  stated: 'Stated by hand',
+  driver_report: 'Drivers’ reports',
+} satisfies Record<(typeof ROUGHNESS_SOURCES)[number], string>;
+
+const km2 = (m: number) => (m / 1000).toFixed(2);
+
+/** The segments table's columns, in its order and words (segments numbered from 1, as on screen). */
+const SEGMENT_CSV: CsvColumn<SegmentItem>[] = [
+  { header: 'Route', value: (s) => s.routeName },
+  { header: 'Segment number', value: (s) => s.seq + 1 },
+  { header: 'From – to', unit: 'km', value: (s) => `${km2(s.startM)}–${km2(s.endM)}` },
+  { header: 'ISO 8608 class', value: (s) => s.isoClass },
+  { header: 'IRI', unit: 'm/km', value: (s) => (s.iri === null ? null : Number(s.iri.toFixed(2))) },
+  { header: 'Source', value: (s) => (s.roughnessSource ? (SOURCE_WORDS[s.roughnessSource] ?? s.roughnessSource) : null) },
+  { header: 'Observed', value: (s) => s.roughnessDate },
+  { header: 'Speed', unit: 'km/h', value: (s) => s.speedKmh },
+];
 
 /** The map's base layer: `MAP_TILE_URL` and its attribution when set, else the app's own offline tiles. */
 export function mapConfigOf(config: Pick<Config, 'mapTileUrl' | 'mapTileAttribution'>) {
@@ -194,6 +218,18 @@ export function registerRoadRoutes(r: Router, deps: { config: Config; now: () =>
   r.get('/segments', allow(...ALL), async (req, res) => {
     const q = parse(segmentList, req.query, 'query');
     res.json(await roadsRepository.listSegments({ ...q, ...paging<SegmentSort>(q) }));
+  });
+
+  // Before /segments/:id.
+  r.get('/segments/export', allow(...ALL), async (req, res) => {
+    const q = parse(segmentList.omit(NO_PAGING), req.query, 'query');
+    const sort = sortOf<SegmentSort>(q);
+    await sendCsv(res, {
+      name: 'segments',
+      day: today(),
+      columns: SEGMENT_CSV,
+      fetch: async (offset, pageSize) => (await roadsRepository.listSegments({ ...q, sort, offset, pageSize })).items,
+    });
   });
 
   r.get('/segments/:id', allow(...ALL), async (req, res) => {

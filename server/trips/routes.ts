@@ -1,7 +1,9 @@
 import type { Router } from 'express';
 import { z } from 'zod';
 import { allow, currentUser } from '../http/access';
-import { isoDay, listQuery, paging, parse, queryBool } from '../http/validate';
+import { NO_PAGING, isoDay, listQuery, paging, parse, queryBool, sortOf } from '../http/validate';
+import { sendCsv, type CsvColumn } from '../http/csv-export';
+import { localDay } from '../lib/days';
 import { requireFile, singleFile, textOf } from '../http/upload';
 import { tripsRepository, type TripSort } from './repository';
 import { MAX_TRIP_BYTES, TRIP_COLUMNS, tripsService } from './service';
@@ -16,6 +18,19 @@ const tripList = listQuery(['startedAt', 'distanceKm', 'meanSpeedKmh', 'fleetNum
   from: isoDate.optional(),
   to: isoDate.optional(),
 });
+
+type TripItem = Awaited<ReturnType<typeof tripsRepository.list>>['items'][number];
+
+/** The trips table's columns, in its order and words; the start as an ISO 8601 instant (UTC). */
+const TRIP_CSV: CsvColumn<TripItem>[] = [
+  { header: 'Started', value: (t) => t.startedAt },
+  { header: 'Vehicle', value: (t) => t.fleetNumber },
+  { header: 'Route', value: (t) => t.routeName },
+  { header: 'Driver', value: (t) => t.driverName },
+  { header: 'Distance', unit: 'km', value: (t) => t.distanceKm },
+  { header: 'Mean speed', unit: 'km/h', value: (t) => t.meanSpeedKmh },
+  { header: 'Payload', unit: 'kg', value: (t) => t.payloadKg },
+];
 
 const tripBody = z
   .object({
@@ -32,10 +47,22 @@ const tripBody = z
 
 const previewQuery = z.object({ preview: queryBool.optional() }).strict();
 
-export function registerTripRoutes(r: Router, deps: { now: () => Date }) {
+/** `timeZone` dates the CSV export's file name (default UTC). */
+export function registerTripRoutes(r: Router, deps: { now: () => Date; timeZone?: string }) {
   r.get('/trips', allow('manager'), async (req, res) => {
     const q = parse(tripList, req.query, 'query');
     res.json(await tripsRepository.list({ ...q, ...paging<TripSort>(q) }));
+  });
+
+  r.get('/trips/export', allow('manager'), async (req, res) => {
+    const q = parse(tripList.omit(NO_PAGING), req.query, 'query');
+    const sort = sortOf<TripSort>(q);
+    await sendCsv(res, {
+      name: 'trips',
+      day: localDay(deps.now(), deps.timeZone ?? 'UTC'),
+      columns: TRIP_CSV,
+      fetch: async (offset, pageSize) => (await tripsRepository.list({ ...q, sort, offset, pageSize })).items,
+    });
   });
 
   r.post('/trips', allow('manager'), async (req, res) => {

@@ -2,7 +2,9 @@ import type { Router } from 'express';
 import { z } from 'zod';
 import { ROLES } from '../db/models';
 import { allow, currentUser } from '../http/access';
-import { idParam, listQuery, noHiddenChars, paging, parse, queryBool } from '../http/validate';
+import { NO_PAGING, idParam, listQuery, noHiddenChars, paging, parse, queryBool, sortOf } from '../http/validate';
+import { sendCsv, type CsvColumn } from '../http/csv-export';
+import { localDay } from '../lib/days';
 import { userService } from './service';
 
 const listSchema = listQuery(['name', 'email', 'role', 'createdAt'], 'name', {
@@ -10,6 +12,21 @@ const listSchema = listQuery(['name', 'email', 'role', 'createdAt'], 'name', {
   role: z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` }).optional(),
   active: queryBool.optional(),
 });
+
+type UserSort = 'name' | 'email' | 'role' | 'createdAt';
+type UserItem = Awaited<ReturnType<typeof userService.list>>['items'][number];
+
+/** Role words as the people table shows them. */
+const ROLE_WORDS: Record<UserItem['role'], string> = { manager: 'Fleet manager', mechanic: 'Mechanic', driver: 'Driver' };
+
+/** The people table's columns, in its order and words; `Added` is the fleet's local day. */
+const userCsv = (timeZone: string): CsvColumn<UserItem>[] => [
+  { header: 'Name', value: (u) => u.name },
+  { header: 'E-mail', value: (u) => u.email },
+  { header: 'Role', value: (u) => ROLE_WORDS[u.role] ?? u.role },
+  { header: 'Sign-in', value: (u) => (u.active ? (u.mustChangePassword ? 'Active, temporary password' : 'Active') : 'Deactivated') },
+  { header: 'Added', value: (u) => localDay(new Date(u.createdAt), timeZone) },
+];
 
 /**
  * Password rules: at least 10 characters and at most 72 bytes in UTF-8 (bcrypt reads only the first
@@ -47,10 +64,23 @@ const patchSchema = z
   .strict()
   .refine((p) => Object.keys(p).length > 0, { message: 'give at least one of name, role, active, depotId, password' });
 
-export function registerUserRoutes(r: Router) {
+/** `now` and `timeZone` date the CSV export (its file name and the days people were added; default UTC). */
+export function registerUserRoutes(r: Router, deps: { now?: () => Date; timeZone?: string } = {}) {
+  const timeZone = deps.timeZone ?? 'UTC';
   r.get('/users', allow('manager'), async (req, res) => {
     const q = parse(listSchema, req.query, 'query');
-    res.json(await userService.list({ ...q, ...paging<'name' | 'email' | 'role' | 'createdAt'>(q) }));
+    res.json(await userService.list({ ...q, ...paging<UserSort>(q) }));
+  });
+
+  r.get('/users/export', allow('manager'), async (req, res) => {
+    const q = parse(listSchema.omit(NO_PAGING), req.query, 'query');
+    const sort = sortOf<UserSort>(q);
+    await sendCsv(res, {
+      name: 'people',
+      day: localDay((deps.now ?? (() => new Date()))(), timeZone),
+      columns: userCsv(timeZone),
+      fetch: async (offset, pageSize) => (await userService.list({ ...q, sort, offset, pageSize })).items,
+    });
   });
 
   r.post('/users', allow('manager'), async (req, res) => {

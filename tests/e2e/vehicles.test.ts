@@ -109,19 +109,24 @@ describe('vehicles table', () => {
     await context.close();
   });
 
-  it('when a manager downloads the CSV, then it holds the rows on screen with units in the header', async () => {
+  it('when a manager downloads the CSV, then it holds every matching row, not only the page on screen, with units in the header', async () => {
     const context = await newContext(browser, 'desktop');
     const page = await context.newPage();
     await signIn(page, server.url, DEMO.manager);
-    await page.goto(`${server.url}/vehicles?status=in_service&pageSize=50&sort=-odometerKm`);
+    await page.goto(`${server.url}/vehicles?status=in_service&pageSize=25&sort=-odometerKm`);
     const line = await range(page, /^1–\d+ of \d+ vehicles$/);
-    const shown = Number(/–(\d+)/.exec(line)![1]);
+    const [, shownText, totalText] = /–(\d+) of ([\d,]+)/.exec(line)!;
+    const [shown, total] = [shownText, totalText].map((x) => Number(x.replace(/,/g, '')));
+    expect(total).toBeGreaterThan(shown);
 
-    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: /Download CSV/ }).click()]);
+    const link = page.getByRole('link', { name: /^Download CSV/ });
+    expect(await link.innerText()).toBe(`Download CSV of all ${totalText} matching rows`);
+    const [download] = await Promise.all([page.waitForEvent('download'), link.click()]);
+    expect(download.suggestedFilename()).toMatch(/^reboundry-vehicles-\d{4}-\d{2}-\d{2}\.csv$/);
     const csv = fs.readFileSync((await download.path())!, 'utf8').replace(/^\ufeff/, '');
     const lines = csv.trim().split(/\r\n/);
     expect(lines[0]).toBe('Fleet number,Plate,Status,Spec,Depot,Driver,Odometer (km)');
-    expect(lines).toHaveLength(shown + 1);
+    expect(lines).toHaveLength(total + 1);
     const odo = lines.slice(1).map((l) => Number(l.split(',').at(-1)));
     expect(odo).toEqual([...odo].sort((a, b) => b - a));
     expect(lines.slice(1).every((l) => l.includes(',In service,'))).toBe(true);

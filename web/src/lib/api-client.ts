@@ -168,6 +168,16 @@ export interface ListResponse<T> {
   total: number;
 }
 
+/**
+ * The address of a list's CSV export (`/api/<list>/export`) with the list's filters and sort but
+ * not its paging: the file holds every matching row. A plain link downloads it (same origin, so
+ * the session cookie goes with it).
+ */
+export function exportUrl(path: string, params: ListParams & Query): string {
+  const { page: _page, pageSize: _pageSize, ...rest } = params;
+  return path + toSearch(rest);
+}
+
 /** Shared list parameters: 1-based page, page size (≤ 200), `field` or `-field` sort. */
 export interface ListParams {
   page: number;

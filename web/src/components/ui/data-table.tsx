@@ -8,10 +8,9 @@ import {
   type SortingState,
 } from '@tanstack/react-table';
 import { cx } from '@/lib/class-names';
-import { downloadCsv, toCsv, type CsvValue } from '@/lib/csv';
 import { formatNumber } from '@/lib/format';
 import { PAGE_SIZES } from '@/lib/use-list-search-params';
-import { Button } from './button';
+import { Button, buttonClasses } from './button';
 import { ErrorState } from './error-state';
 import { LoadingState } from './loading-state';
 
@@ -22,10 +21,8 @@ declare module '@tanstack/react-table' {
     numeric?: boolean;
     /** Unit shown in the header (never repeated in the cells), e.g. `km`. */
     unit?: string;
-    /** Plain text of the header for CSV and screen readers when `header` is not a string. */
+    /** Plain text of the header when `header` is not a string (the server's CSV export uses the same words). */
     label?: string;
-    /** The value written to CSV; defaults to the column's accessor value. `false` leaves the column out. */
-    csv?: ((row: TData) => CsvValue) | false;
     className?: string;
   }
 }
@@ -56,8 +53,11 @@ export interface DataTableProps<T> {
   empty: ReactNode;
   /** How to count rows: `['vehicle', 'vehicles']`. */
   noun: [string, string];
-  /** Offer a CSV download of the rows on screen under this file name. */
-  csvFileName?: string;
+  /**
+   * The list's CSV export with the current filters and sort (`exportUrl` in `@/lib/api-client`):
+   * offers a download of every matching row, not only the page on screen.
+   */
+  exportUrl?: string;
   /** Filters and other controls shown above the table. */
   toolbar?: ReactNode;
   /** Larger rows for touch screens regardless of pointer type. */
@@ -108,7 +108,7 @@ function toSorting(sort?: string): SortingState {
 /**
  * A table whose paging, sorting and filtering happen on the server. The parent holds the state
  * (usually in the URL) and fetches the page; this renders it, with accessible sort buttons,
- * numbers right-aligned with units in the headers, paging controls and CSV export of the shown rows.
+ * numbers right-aligned with units in the headers, paging controls and a CSV download of every matching row.
  */
 export function DataTable<T>(props: DataTableProps<T>) {
   const {
@@ -130,7 +130,7 @@ export function DataTable<T>(props: DataTableProps<T>) {
     onRetry,
     empty,
     noun,
-    csvFileName,
+    exportUrl,
     toolbar,
     roomy,
   } = props;
@@ -162,22 +162,6 @@ export function DataTable<T>(props: DataTableProps<T>) {
   const to = Math.min(count, (page - 1) * pageSize + (rows?.length ?? 0));
   const nounFor = (n: number) => (n === 1 ? noun[0] : noun[1]);
 
-  function exportCsv() {
-    const cols = table.getVisibleLeafColumns().filter((c) => c.columnDef.meta?.csv !== false);
-    const header = cols.map((c) => {
-      const meta = c.columnDef.meta;
-      const name = meta?.label ?? (typeof c.columnDef.header === 'string' ? c.columnDef.header : c.id);
-      return meta?.unit ? `${name} (${meta.unit})` : name;
-    });
-    const data = table.getRowModel().rows.map((r) =>
-      cols.map((c) => {
-        const meta = c.columnDef.meta;
-        return meta?.csv ? meta.csv(r.original) : (r.getValue(c.id) as CsvValue);
-      }),
-    );
-    downloadCsv(csvFileName ?? 'export.csv', toCsv(header, data));
-  }
-
   const cellPad = roomy ? 'px-3 py-3' : 'px-3 py-2 pointer-coarse:py-3';
 
   return (
@@ -195,11 +179,19 @@ export function DataTable<T>(props: DataTableProps<T>) {
                   ? `No ${noun[1]} match`
                   : `${formatNumber(from)}–${formatNumber(to)} of ${formatNumber(count)} ${nounFor(count)}`}
             </p>
-            {csvFileName ? (
-              <Button size="sm" variant="quiet" onClick={exportCsv} disabled={!rows?.length}>
-                <DownloadIcon />
-                Download CSV of these {formatNumber(rows?.length ?? 0)} rows
-              </Button>
+            {exportUrl ? (
+              count > 0 && !isPlaceholder && !(isLoading && !rows) ? (
+                // A link, so the browser downloads the server's streamed file as it comes.
+                <a href={exportUrl} download className={buttonClasses('quiet', 'sm')}>
+                  <DownloadIcon />
+                  {exportLabel(count)}
+                </a>
+              ) : (
+                <Button size="sm" variant="quiet" disabled>
+                  <DownloadIcon />
+                  {exportLabel(count)}
+                </Button>
+              )
             ) : null}
           </div>
 
@@ -311,6 +303,12 @@ export function DataTable<T>(props: DataTableProps<T>) {
       )}
     </div>
   );
+}
+
+/** The download's words: it holds every row matching the filters, not only the page on screen. */
+function exportLabel(count: number) {
+  if (count === 0) return 'Download CSV (no matching rows)';
+  return count === 1 ? 'Download CSV of the 1 matching row' : `Download CSV of all ${formatNumber(count)} matching rows`;
 }
 
 function SortIcon({ dir }: { dir: false | 'asc' | 'desc' }) {

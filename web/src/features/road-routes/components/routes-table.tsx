@@ -5,8 +5,9 @@ import { DataTable, pagedTableProps } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { RoughnessClassBadge, RoughnessLegend } from '@/components/ui/roughness';
 import { SearchField } from '@/components/ui/search-field';
-import { formatNumber, isoDate } from '@/lib/format';
+import { formatNumber } from '@/lib/format';
 import { useListSearchParams } from '@/lib/use-list-search-params';
+import { routesExportUrl } from '../api/export-routes';
 import { ROUTE_SORTS, useRoutes, type RouteListItem } from '../api/get-routes';
 
 const col = createColumnHelper<RouteListItem>();
@@ -37,7 +38,7 @@ export function RoutesTable() {
         // The server sorts by the stored length in metres.
         id: 'lengthM',
         header: 'Length',
-        meta: { numeric: true, unit: 'km', csv: (r) => Number(r.lengthKm.toFixed(2)) },
+        meta: { numeric: true, unit: 'km' },
         cell: (c) => formatNumber(c.getValue(), 1),
       }),
       col.accessor('defaultSpeedKmh', {
@@ -64,7 +65,7 @@ export function RoutesTable() {
       {...pagedTableProps(query, params, update)}
       getRowId={(r) => String(r.id)}
       noun={['route', 'routes']}
-      csvFileName={`reboundry-routes-${isoDate(new Date())}.csv`}
+      exportUrl={routesExportUrl(params)}
       toolbar={
         <div className="flex flex-wrap items-end justify-between gap-4">
           <div role="search" aria-label="Filter routes" className="w-full max-w-sm">

@@ -6,9 +6,10 @@ import { DataTable, pagedTableProps } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SelectField } from '@/components/ui/field';
 import { RoughnessClassBadge, RoughnessLegend } from '@/components/ui/roughness';
-import { formatDate, formatNumber, isoDate } from '@/lib/format';
+import { formatDate, formatNumber } from '@/lib/format';
 import { ROUGHNESS_CLASSES, roughnessWords, type RoughnessClass } from '@/lib/roughness';
 import { ROUGHNESS_SOURCES, useSegments, type RoughnessSource, type SegmentListItem, type SegmentListParams } from '../api/get-segments';
+import { segmentsExportUrl } from '../api/export-segments';
 import { useRoutes } from '../api/get-routes';
 
 export const sourceLabels: Record<RoughnessSource, string> = {
@@ -47,40 +48,39 @@ export function SegmentsTable({
       }),
       col.accessor('seq', {
         header: 'Segment',
-        meta: { numeric: true, label: 'Segment number', csv: (r) => r.seq + 1 },
+        meta: { numeric: true, label: 'Segment number' },
         cell: (c) => formatNumber(c.getValue() + 1),
       }),
       col.display({
         id: 'span',
         header: 'From – to',
-        meta: { numeric: true, unit: 'km', label: 'From – to', csv: (r) => `${(r.startM / 1000).toFixed(2)}–${(r.endM / 1000).toFixed(2)}` },
+        meta: { numeric: true, unit: 'km', label: 'From – to' },
         cell: (c) => `${formatNumber(c.row.original.startM / 1000, 2)}–${formatNumber(c.row.original.endM / 1000, 2)}`,
       }),
       col.accessor('isoClass', {
         header: 'Class',
-        meta: { label: 'ISO 8608 class', csv: (r) => r.isoClass ?? '' },
+        meta: { label: 'ISO 8608 class' },
         cell: (c) => <RoughnessClassBadge value={c.getValue()} />,
       }),
       col.accessor('iri', {
         header: 'IRI',
-        meta: { numeric: true, unit: 'm/km', csv: (r) => (r.iri === null ? '' : Number(r.iri.toFixed(2))) },
+        meta: { numeric: true, unit: 'm/km' },
         cell: (c) => (c.getValue() === null ? <span className="text-slate">—</span> : formatNumber(c.getValue(), 2)),
       }),
       col.accessor('roughnessSource', {
         header: 'Source',
         enableSorting: false,
-        meta: { csv: (r) => (r.roughnessSource ? sourceLabels[r.roughnessSource] : '') },
         cell: (c) => (c.getValue() ? sourceLabels[c.getValue()!] : <span className="text-slate">None yet</span>),
       }),
       col.accessor('roughnessDate', {
         id: 'roughnessDate',
         header: 'Observed',
-        meta: { numeric: true, csv: (r) => r.roughnessDate ?? '' },
+        meta: { numeric: true },
         cell: (c) => formatDate(c.getValue()),
       }),
       col.accessor('speedKmh', {
         header: 'Speed',
-        meta: { numeric: true, unit: 'km/h', csv: (r) => r.speedKmh ?? '' },
+        meta: { numeric: true, unit: 'km/h' },
         cell: (c) => (
           <span>
             {formatNumber(c.getValue())}
@@ -91,7 +91,6 @@ export function SegmentsTable({
       col.display({
         id: 'map',
         header: () => <span className="sr-only">Map</span>,
-        meta: { csv: false },
         cell: (c) => (
           <Link to={mapPath(c.row.original.id)} className="link text-sm whitespace-nowrap" aria-label={`Segment ${c.row.original.seq + 1} of ${c.row.original.routeName} on the map`}>
             On the map
@@ -138,7 +137,7 @@ export function SegmentsTable({
         {...pagedTableProps(query, params, onParamsChange)}
         getRowId={(r) => String(r.id)}
         noun={['segment', 'segments']}
-        csvFileName={`reboundry-segments-${isoDate(new Date())}.csv`}
+        exportUrl={segmentsExportUrl(params)}
         toolbar={toolbar}
         empty={
           filtered ? (

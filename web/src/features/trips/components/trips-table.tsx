@@ -6,6 +6,7 @@ import { EmptyState } from '@/components/ui/empty-state';
 import { TextField } from '@/components/ui/field';
 import { formatDateTime, formatNumber } from '@/lib/format';
 import { positiveInt, useListSearchParams } from '@/lib/use-list-search-params';
+import { tripsExportUrl } from '../api/export-trips';
 import { TRIP_SORTS, useTrips, type TripItem } from '../api/get-trips';
 
 const col = createColumnHelper<TripItem>();
@@ -20,7 +21,7 @@ export function TripsTable({ vehiclePath, routePath }: { vehiclePath: (id: numbe
   const q = useTrips(params);
   const columns = useMemo(
     () => [
-      col.accessor('startedAt', { header: 'Started', cell: (c) => formatDateTime(c.getValue()), meta: { csv: (r) => r.startedAt } }),
+      col.accessor('startedAt', { header: 'Started', cell: (c) => formatDateTime(c.getValue()) }),
       col.accessor('fleetNumber', { header: 'Vehicle', cell: (c) => <Link className="link" to={vehiclePath(c.row.original.vehicleId)}>{c.getValue()}</Link> }),
       col.accessor('routeName', { header: 'Route', cell: (c) => <Link className="link" to={routePath(c.row.original.routeId)}>{c.getValue()}</Link> }),
       col.accessor('driverName', { header: 'Driver', enableSorting: false, cell: (c) => c.getValue() ?? '—' }),
@@ -37,7 +38,7 @@ export function TripsTable({ vehiclePath, routePath }: { vehiclePath: (id: numbe
       {...pagedTableProps(q, params, update)}
       getRowId={(r) => String(r.id)}
       noun={['trip', 'trips']}
-      csvFileName="trips.csv"
+      exportUrl={tripsExportUrl(params)}
       empty={<EmptyState title="No trips match">Change the dates, or import a trip file.</EmptyState>}
       toolbar={
         <div className="flex flex-wrap gap-3">

@@ -8,9 +8,10 @@ import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page-header';
 import { SearchField } from '@/components/ui/search-field';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { formatDate, isoDate } from '@/lib/format';
+import { formatDate } from '@/lib/format';
 import { ROLES, roleLabels } from '@/lib/roles';
 import { oneOf, useListSearchParams } from '@/lib/use-list-search-params';
+import { usersExportUrl } from '../api/export-users';
 import { USER_SORTS, useUsers, type UserListItem } from '../api/get-users';
 import { ChangeRoleDialog } from './change-role-dialog';
 import { CreateUserDialog } from './create-user-dialog';
@@ -50,11 +51,10 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
         ),
       }),
       col.accessor('email', { header: 'E-mail', cell: (c) => <span className="break-all">{c.getValue()}</span> }),
-      col.accessor('role', { header: 'Role', meta: { csv: (r) => roleLabels[r.role] }, cell: (c) => roleLabels[c.getValue()] }),
+      col.accessor('role', { header: 'Role', cell: (c) => roleLabels[c.getValue()] }),
       col.accessor('active', {
         header: 'Sign-in',
         enableSorting: false,
-        meta: { csv: (r) => (r.active ? (r.mustChangePassword ? 'Active, temporary password' : 'Active') : 'Deactivated') },
         cell: (c) =>
           !c.getValue() ? (
             <StatusBadge tone="neutral">Deactivated</StatusBadge>
@@ -69,13 +69,12 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
       }),
       col.accessor('createdAt', {
         header: 'Added',
-        meta: { csv: (r) => isoDate(r.createdAt) },
         cell: (c) => <span className="tabular whitespace-nowrap">{formatDate(c.getValue())}</span>,
       }),
       col.display({
         id: 'actions',
         header: () => <span className="sr-only">Actions</span>,
-        meta: { label: 'Actions', csv: false, className: 'text-right whitespace-nowrap' },
+        meta: { label: 'Actions', className: 'text-right whitespace-nowrap' },
         cell: (c) => {
           const u = c.row.original;
           const self = u.id === currentUserId;
@@ -137,7 +136,7 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
         {...pagedTableProps(query, params, update)}
         getRowId={(r) => String(r.id)}
         noun={['person', 'people']}
-        csvFileName={`reboundry-people-${isoDate(new Date())}.csv`}
+        exportUrl={usersExportUrl(params)}
         toolbar={
           <div role="search" aria-label="Filter people" className="grid grid-cols-2 items-end gap-3 md:grid-cols-[minmax(12rem,1.5fr)_repeat(2,minmax(9rem,1fr))_auto]">
             <SearchField

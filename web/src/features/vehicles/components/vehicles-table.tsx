@@ -6,7 +6,8 @@ import { DataTable, pagedTableProps } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SelectField, type Option } from '@/components/ui/field';
 import { SearchField } from '@/components/ui/search-field';
-import { formatNumber, isoDate } from '@/lib/format';
+import { formatNumber } from '@/lib/format';
+import { vehiclesExportUrl } from '../api/export-vehicles';
 import { useVehicles, VEHICLE_STATUSES, type VehicleListItem, type VehicleListParams } from '../api/get-vehicles';
 import { VehicleStatusBadge, vehicleStatusLabels } from './vehicle-status-badge';
 
@@ -25,7 +26,7 @@ interface VehiclesTableProps {
   onEdit?: (vehicle: VehicleListItem) => void;
 }
 
-/** The fleet's vehicles with search, filters, server-side paging and sorting, and CSV export. */
+/** The fleet's vehicles with search, filters, server-side paging and sorting, and a CSV download of every match. */
 export function VehiclesTable({ params, onParamsChange, depotOptions, specOptions, vehiclePath, roomy, onEdit }: VehiclesTableProps) {
   const query = useVehicles(params);
 
@@ -46,7 +47,6 @@ export function VehiclesTable({ params, onParamsChange, depotOptions, specOption
       }),
       col.accessor('status', {
         header: 'Status',
-        meta: { csv: (r) => vehicleStatusLabels[r.status] ?? r.status },
         cell: (c) => <VehicleStatusBadge status={c.getValue()} />,
       }),
       col.accessor('specName', { header: 'Spec' }),
@@ -58,7 +58,7 @@ export function VehiclesTable({ params, onParamsChange, depotOptions, specOption
       }),
       col.accessor('odometerKm', {
         header: 'Odometer',
-        meta: { numeric: true, unit: 'km', csv: (r) => Math.round(r.odometerKm) },
+        meta: { numeric: true, unit: 'km' },
         cell: (c) => formatNumber(c.getValue()),
       }),
       ...(onEdit
@@ -66,7 +66,7 @@ export function VehiclesTable({ params, onParamsChange, depotOptions, specOption
             col.display({
               id: 'edit',
               header: () => <span className="sr-only">Actions</span>,
-              meta: { csv: false as const, className: 'w-px text-right' },
+              meta: { className: 'w-px text-right' },
               cell: (c) => (
                 <Button size="sm" variant="quiet" onClick={() => onEdit(c.row.original)} aria-label={`Edit ${c.row.original.fleetNumber}`}>
                   Edit
@@ -130,7 +130,7 @@ export function VehiclesTable({ params, onParamsChange, depotOptions, specOption
       {...pagedTableProps(query, params, onParamsChange)}
       getRowId={(r) => String(r.id)}
       noun={['vehicle', 'vehicles']}
-      csvFileName={`reboundry-vehicles-${isoDate(new Date())}.csv`}
+      exportUrl={vehiclesExportUrl(params)}
       toolbar={toolbar}
       roomy={roomy}
       empty={
