@@ -13,7 +13,7 @@
 import os from 'node:os';
 import type { Config } from '../server/config';
 import type { Db } from '../server/db';
-import type { JobRunStatus, JobTrigger } from '../server/db/nightly-models';
+import type { JobRunStatus, JobTrigger } from '../server/db/models';
 import type { Logger } from '../server/logger';
 import type { Mailer } from '../server/mail/mailer';
 import { queueAssignmentNotes, queueDigests, sendPending } from '../server/mail/service';

@@ -18,8 +18,6 @@ import * as m0013 from './migrations/0013-lane-phase-shift';
 import * as m0014 from './migrations/0014-seat-factors';
 import * as m0017 from './migrations/0017-trip-import-file-hash';
 import * as m0018 from './migrations/0018-must-change-password';
-import { initNightlyModels } from './nightly-models';
-import { initDriverModels } from './driver-models';
 
 export interface Db {
   sequelize: Sequelize;
@@ -80,8 +78,6 @@ export async function openDb(file: string, opts: { log?: (sql: string) => void }
   };
   await sequelize.query('PRAGMA journal_mode = WAL');
   initModels(sequelize);
-  initNightlyModels(sequelize);
-  initDriverModels(sequelize);
   return { sequelize, file, close: () => sequelize.close() };
 }
 

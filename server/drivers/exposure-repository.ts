@@ -3,7 +3,7 @@
  * driver-days, the stored days, and the names the overview shows. Plain rows out.
  */
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
-import { DriverExposureDay } from '../db/driver-models';
+import { DriverExposureDay } from '../db/models';
 
 const db = () => DriverExposureDay.sequelize!;
 const select = <T extends object>(sql: string, replacements: unknown[] = [], transaction?: Transaction, sq: Sequelize = db()) =>

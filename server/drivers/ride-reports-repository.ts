@@ -1,6 +1,6 @@
 /** Ride reports data access. Returns plain objects. */
 import { Op, QueryTypes, type Order, type Sequelize, type Transaction, type WhereOptions } from 'sequelize';
-import { RideReport, type RideReportStatus } from '../db/driver-models';
+import { RideReport, type RideReportStatus } from '../db/models';
 import { Route, RouteSegment, User, Vehicle } from '../db/models';
 import type { LonLat } from '../roads/geometry';
 

@@ -5,7 +5,7 @@ import { z } from 'zod';
 import { allow, currentUser } from '../http/access';
 import { idParam, isoDateTime, listQuery, paging, parse } from '../http/validate';
 import { AppError } from '../errors';
-import { RIDE_REPORT_STATUSES } from '../db/driver-models';
+import { RIDE_REPORT_STATUSES } from '../db/models';
 import { FELT, FELT_KEYS, SEVERITIES } from './ride-scale';
 import { MAX_PHOTO_BYTES, photoFile } from './photos';
 import { rideReportsService, type RideContext } from './ride-reports-service';

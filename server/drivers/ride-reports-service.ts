@@ -7,7 +7,7 @@ import { mailRepository } from '../mail/repository';
 import { sendPending } from '../mail/service';
 import { roadsService } from '../roads/service';
 import type { LonLat } from '../roads/geometry';
-import type { RideReportStatus } from '../db/driver-models';
+import type { RideReportStatus } from '../db/models';
 import { rideReportsRepository, type RideReportSort } from './ride-reports-repository';
 import { MAX_SNAP_M, snapToSegments } from './snap';
 import { ESTIMATE_RULE_TEXT, reportEstimate, severityOf } from './ride-scale';

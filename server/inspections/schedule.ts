@@ -23,7 +23,7 @@
  * @module
  */
 import { addMonths, parseISO } from 'date-fns';
-import type { InspectionTrigger } from '../db/nightly-models';
+import type { InspectionTrigger } from '../db/models';
 import { daysBetween, plusDays } from '../lib/days';
 import { formatKm } from '../wear/wear';
 

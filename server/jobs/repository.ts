@@ -6,7 +6,7 @@
  */
 import os from 'node:os';
 import { Op } from 'sequelize';
-import { JobLock, JobRun, type JobRunStatus, type JobTrigger } from '../db/nightly-models';
+import { JobLock, JobRun, type JobRunStatus, type JobTrigger } from '../db/models';
 import { User } from '../db/models';
 import type { Db } from '../db';
 

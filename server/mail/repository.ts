@@ -3,7 +3,7 @@
  * built-in catcher received (`caught_mail`) and users' notification preferences.
  */
 import { Op, type Transaction } from 'sequelize';
-import { CaughtMail, MailMessage, type MailKind } from '../db/nightly-models';
+import { CaughtMail, MailMessage, type MailKind } from '../db/models';
 import { User } from '../db/models';
 
 export interface QueuedMail {

@@ -1,14 +1,14 @@
-/**
- * Models of the drivers' area (migration 0005): drivers' ride reports and daily vibration exposure.
- * Registered by `openDb` after the core models.
- */
+/** Drivers' ride reports and daily vibration exposure. */
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import { RoughnessObservation, Route, RouteSegment, User, Vehicle } from './models';
+import { dbl } from './columns';
 
 export const RIDE_REPORT_STATUSES = ['new', 'accepted', 'dismissed'] as const;
 export type RideReportStatus = (typeof RIDE_REPORT_STATUSES)[number];
 
-export class RideReport extends Model<InferAttributes<RideReport>, InferCreationAttributes<RideReport>> {
+type Attrs<M extends Model> = InferAttributes<M>;
+type CAttrs<M extends Model> = InferCreationAttributes<M>;
+
+export class RideReport extends Model<Attrs<RideReport>, CAttrs<RideReport>> {
   declare id: CreationOptional<number>;
   declare driverId: ForeignKey<number>;
   declare vehicleId: ForeignKey<number> | null;
@@ -45,7 +45,7 @@ export class RideReport extends Model<InferAttributes<RideReport>, InferCreation
   declare updatedAt: CreationOptional<Date>;
 }
 
-export class DriverExposureDay extends Model<InferAttributes<DriverExposureDay>, InferCreationAttributes<DriverExposureDay>> {
+export class DriverExposureDay extends Model<Attrs<DriverExposureDay>, CAttrs<DriverExposureDay>> {
   declare driverId: number;
   declare day: string;
   declare a8: number;
@@ -59,9 +59,8 @@ export class DriverExposureDay extends Model<InferAttributes<DriverExposureDay>,
   declare notifiedAt: Date | null;
 }
 
-export function initDriverModels(sequelize: Sequelize) {
+export function initDriversModels(sequelize: Sequelize) {
   const common = { sequelize, underscored: true };
-  const dbl = (allowNull = false) => ({ type: DataTypes.DOUBLE, allowNull });
   RideReport.init(
     {
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
@@ -108,11 +107,4 @@ export function initDriverModels(sequelize: Sequelize) {
     },
     { ...common, tableName: 'driver_exposure_days', timestamps: false },
   );
-  RideReport.belongsTo(User, { as: 'driver', foreignKey: 'driverId' });
-  RideReport.belongsTo(User, { as: 'decidedBy', foreignKey: 'decidedById' });
-  RideReport.belongsTo(Vehicle, { as: 'vehicle', foreignKey: 'vehicleId' });
-  RideReport.belongsTo(Route, { as: 'route', foreignKey: 'routeId' });
-  RideReport.belongsTo(RouteSegment, { as: 'segment', foreignKey: 'segmentId' });
-  RideReport.belongsTo(RoughnessObservation, { as: 'observation', foreignKey: 'observationId' });
-  DriverExposureDay.belongsTo(User, { as: 'driver', foreignKey: 'driverId' });
 }
