@@ -1,17 +1,13 @@
 import { parse } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestServer, type TestServer } from '../support/server';
+import { startWithManager, type TestServer } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 
 /** The CSV exports of the five lists: every matching row, the list's filters, sort, roles and scope. */
 
 let srv: TestServer;
 let manager: ApiClient;
-beforeAll(async () => {
-  srv = await startTestServer();
-  manager = new ApiClient(srv.url);
-  await manager.login(DEMO.manager);
-});
+beforeAll(async () => ({ srv, manager } = await startWithManager()));
 afterAll(() => srv?.stop());
 
 async function exportOf(c: ApiClient, path: string) {

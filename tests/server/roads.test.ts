@@ -1,8 +1,8 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestServer, type TestServer } from '../support/server';
-import { ApiClient, DEMO } from '../support/client';
+import { startWithManager, type TestServer } from '../support/server';
+import { ApiClient } from '../support/client';
 import { iriSegments, gdFromIri, iriFromGd } from '../../server/physics/iri';
 import { classifyGd, synthesizeProfile } from '../../server/physics/iso8608';
 import { formatProfileCsv, loadSurveyProfile, parseProfileCsv } from '../../server/roads/profile-store';
@@ -12,11 +12,7 @@ import { loadConfig } from '../../server/config';
 
 let srv: TestServer;
 let manager: ApiClient;
-beforeAll(async () => {
-  srv = await startTestServer();
-  manager = new ApiClient(srv.url);
-  await manager.login(DEMO.manager);
-});
+beforeAll(async () => ({ srv, manager } = await startWithManager()));
 afterAll(() => srv?.stop());
 
 const TABLES = ['routes', 'route_segments', 'roughness_observations', 'road_surveys'];

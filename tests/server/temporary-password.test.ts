@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestServer, type TestServer } from '../support/server';
+import { startWithManager, type TestServer } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 
 /**
@@ -17,11 +17,7 @@ interface Me {
   user: { id: number; email: string; mustChangePassword: boolean };
 }
 
-beforeAll(async () => {
-  srv = await startTestServer({ auth: { loginLimitPerPair: 1000, loginLimitPerAddress: 1000 } });
-  manager = new ApiClient(srv.url);
-  await manager.login(DEMO.manager);
-});
+beforeAll(async () => ({ srv, manager } = await startWithManager({ auth: { loginLimitPerPair: 1000, loginLimitPerAddress: 1000 } })));
 afterAll(() => srv?.stop());
 
 /** A driver account whose temporary password is already replaced by `password`, as after a first sign-in. */

@@ -1,14 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestServer, type TestServer } from '../support/server';
-import { ApiClient, DEMO } from '../support/client';
+import { startWithManager, type TestServer } from '../support/server';
+import { ApiClient } from '../support/client';
 
 let srv: TestServer;
 let manager: ApiClient;
-beforeAll(async () => {
-  srv = await startTestServer();
-  manager = new ApiClient(srv.url);
-  await manager.login(DEMO.manager);
-});
+beforeAll(async () => ({ srv, manager } = await startWithManager()));
 afterAll(() => srv?.stop());
 
 async function tripCount() {

@@ -12,6 +12,7 @@ import type { Config } from '../../server/config';
 import type { Logger } from '../../server/logger';
 import { createMailer, type Mailer } from '../../server/mail/mailer';
 import { startNightly } from '../../jobs/nightly';
+import { ApiClient, DEMO } from './client';
 
 export interface TestServer {
   url: string;
@@ -107,4 +108,12 @@ export async function startTestServer(opts: { seed?: boolean; auth?: AppDeps['au
       fs.rmSync(dataDir, { recursive: true, force: true });
     },
   };
+}
+
+/** The demo app with a fleet manager signed in: the usual start of an API test file. */
+export async function startWithManager(opts: Parameters<typeof startTestServer>[0] = {}): Promise<{ srv: TestServer; manager: ApiClient }> {
+  const srv = await startTestServer(opts);
+  const manager = new ApiClient(srv.url);
+  await manager.login(DEMO.manager);
+  return { srv, manager };
 }
