@@ -11,6 +11,7 @@ import fs from 'node:fs';
  * features never import each other, and the client's shared lib and components import no feature.
  */
 const rule = (files, ...patterns) => ({ files, rules: { 'no-restricted-imports': ['error', { patterns }] } });
+const noServer = { group: ['**/server/**'], message: 'The client imports from the server only its contracts, as @contracts/*.' };
 const noClient = { group: ['**/web/src/*', '@/*'], message: 'The server never imports the client.' };
 // relative paths out of a folder, except into the layers it may use (ESLint's glob groups cannot match `../`);
 // a later block replaces the rule of an earlier one for the same file, so each block repeats `noClient`
@@ -22,14 +23,17 @@ const layerRules = [
   rule(['server/lib/**/*.ts'], noClient, up('^\\.\\./', 'server/lib is the bottom layer: it imports only packages and node built-ins.')),
   rule(['server/physics/**/*.ts'], noClient, up('^\\.\\./(?!lib/)', 'server/physics is pure numerics: it imports only server/lib.')),
   rule(['server/reliability/**/*.ts'], noClient, up('^\\.\\./(?!lib/|physics/)', 'server/reliability imports only server/lib and server/physics.')),
-  rule(['server/db/*.ts'], noClient, up('^\\.\\./(?!lib/|physics/|config$|logger$)', 'server/db imports no area (an area imports db, never the other way).')),
+  rule(['server/db/*.ts'], noClient, up('^\\.\\./(?!lib/|physics/|contracts/|config$|logger$)', 'server/db imports no area (an area imports db, never the other way).')),
+  rule(['server/db/models/*.ts'], noClient, up('^\\.\\./\\.\\./(?!contracts/)', 'The models import no area (an area imports db, never the other way).')),
+  rule(['server/contracts/**/*.ts'], noClient, up('^\\.\\./', 'server/contracts is shared with the client: it imports nothing but zod and its own files.')),
   rule(['server/db/migrations/*.ts'], noClient, up('^\\.\\./\\.\\./', 'A migration stands alone: it imports no application code, which may change after it ran.')),
-  rule(['web/src/lib/**/*.{ts,tsx}', 'web/src/components/**/*.{ts,tsx}'], { group: ['@/features/*', '**/features/*', '@/app/*', '**/app/*'], message: 'Shared client code imports no feature and not the app.' }),
+  rule(['web/src/**/*.{ts,tsx}'], noServer),
+  rule(['web/src/lib/**/*.{ts,tsx}', 'web/src/components/**/*.{ts,tsx}'], { group: ['@/features/*', '**/features/*', '@/app/*', '**/app/*'], message: 'Shared client code imports no feature and not the app.' }, noServer),
   ...features.map((f) =>
     rule([`web/src/features/${f}/**/*.{ts,tsx}`], {
       group: ['@/features/*', `!@/features/${f}`, `!@/features/${f}/**`, '@/app/*'],
       message: 'A feature imports no other feature and not the app: share through web/src/lib or components, or compose in web/src/app.',
-    }),
+    }, noServer),
   ),
 ];
 

@@ -6,6 +6,8 @@ import { fileURLToPath } from 'node:url';
 import os from 'node:os';
 
 const webSrc = fileURLToPath(new URL('./web/src', import.meta.url));
+/** Request and response rules shared with the server (server/contracts imports nothing but zod). */
+const contracts = fileURLToPath(new URL('./server/contracts', import.meta.url));
 
 export default defineConfig({
   root: 'web',
@@ -16,7 +18,7 @@ export default defineConfig({
     // as they are by the app (server/app.ts), so no request spends time compressing them.
     compression({ include: /\.(js|css|svg)$/, threshold: 1024, algorithms: [defineAlgorithm('brotliCompress'), defineAlgorithm('gzip', { level: 9 })] }),
   ],
-  resolve: { alias: { '@': webSrc } },
+  resolve: { alias: { '@contracts': contracts, '@': webSrc } },
   build: { outDir: '../dist/web', emptyOutDir: true },
   server: { proxy: { '/api': 'http://localhost:3000', '/tiles': 'http://localhost:3000' } },
   test: {

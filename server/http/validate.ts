@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { DAY_MAX, DAY_MIN, isRealDay } from '../contracts/common';
 import { AppError, zodFields } from '../errors';
 
 /** Parses `data` with `schema` or throws a 400 AppError naming every bad field. */
@@ -61,28 +62,7 @@ export const queryBool = z
   .enum(['true', 'false', '1', '0'], { message: 'must be true or false' })
   .transform((v) => v === 'true' || v === '1');
 
-/** Earliest and latest calendar day any date field accepts (no fleet record is older or later). */
-export const DAY_MIN = '2000-01-01';
-export const DAY_MAX = '2099-12-31';
-
-/** Whether `s` is YYYY-MM-DD naming a day that exists (2026-02-31 and 9999-99-99 do not). */
-export function isRealDay(s: string): boolean {
-  if (!/^\d{4}-\d{2}-\d{2}$/.test(s)) return false;
-  const [y, m, d] = s.split('-').map(Number);
-  const t = new Date(Date.UTC(y, m - 1, d));
-  return t.getUTCFullYear() === y && t.getUTCMonth() === m - 1 && t.getUTCDate() === d;
-}
-
-/**
- * The one date schema of the API: a calendar day YYYY-MM-DD that exists, from {@link DAY_MIN} to
- * {@link DAY_MAX}. Fields that cannot lie in the future also pass {@link notAfter} where the
- * app's clock is known.
- */
-export const isoDay = z
-  .string({ message: 'must be a date YYYY-MM-DD' })
-  .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date YYYY-MM-DD')
-  .refine(isRealDay, { message: 'must be a real calendar date (e.g. 2026-02-28, not 2026-02-31)', abort: true })
-  .refine((s) => s >= DAY_MIN && s <= DAY_MAX, { message: `must be between ${DAY_MIN} and ${DAY_MAX}` });
+export { DAY_MAX, DAY_MIN, isRealDay, isoDay } from '../contracts/common';
 
 /** Throws a 400 naming `field` when the day `value` is after `today`. */
 export function notAfter(value: string | null | undefined, today: string, field: string) {
@@ -119,14 +99,4 @@ export const isoDateTime = z
     return d;
   });
 
-/**
- * Control characters (C0, DEL, C1) and the invisible bidirectional marks and overrides (U+061C,
- * U+200E–U+200F, U+202A–U+202E, U+2066–U+2069): in a name they can hide or reorder what a reader
- * sees (a vehicle listed under a reversed plate, a NUL cutting a name short in a log).
- */
-// eslint-disable-next-line no-control-regex
-const HIDDEN = /[\u0000-\u001f\u007f-\u009f\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/;
-export const hasHiddenChars = (s: string) => HIDDEN.test(s);
-export const NO_HIDDEN_MESSAGE = 'must not contain control characters or invisible direction marks';
-/** Refinement for names and other one-line texts. */
-export const noHiddenChars = [(s: string) => !hasHiddenChars(s), { message: NO_HIDDEN_MESSAGE }] as const;
+export { NO_HIDDEN_MESSAGE, hasHiddenChars, noHiddenChars } from '../contracts/common';

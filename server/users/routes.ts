@@ -1,8 +1,8 @@
 import type { Router } from 'express';
 import { z } from 'zod';
-import { ROLES } from '../db/models';
+import { ROLES, createUserBody, updateUserBody } from '../contracts/users';
 import { allow, currentUser } from '../http/access';
-import { NO_PAGING, idParam, listQuery, noHiddenChars, paging, parse, queryBool, sortOf } from '../http/validate';
+import { NO_PAGING, idParam, listQuery, paging, parse, queryBool, sortOf } from '../http/validate';
 import { sendCsv, type CsvColumn } from '../http/csv-export';
 import { localDay } from '../lib/days';
 import { userService } from './service';
@@ -28,41 +28,7 @@ const userCsv = (timeZone: string): CsvColumn<UserItem>[] => [
   { header: 'Added', value: (u) => localDay(new Date(u.createdAt), timeZone) },
 ];
 
-/**
- * Password rules: at least 10 characters and at most 72 bytes in UTF-8 (bcrypt reads only the first
- * 72 bytes; a longer password would be cut silently, so it is refused). 72 bytes are 72 ASCII
- * characters, fewer with accented letters or other scripts.
- */
-export const PASSWORD_MIN_CHARS = 10;
-export const PASSWORD_MAX_BYTES = 72;
-export const passwordSchema = z
-  .string({ message: 'is required' })
-  .min(PASSWORD_MIN_CHARS, `must be at least ${PASSWORD_MIN_CHARS} characters`)
-  .refine((p) => Buffer.byteLength(p, 'utf8') <= PASSWORD_MAX_BYTES, {
-    message: `must be at most ${PASSWORD_MAX_BYTES} bytes (72 plain letters or digits; accented letters and other scripts take 2–4 bytes each)`,
-  });
-
-const createSchema = z
-  .object({
-    name: z.string().trim().min(1, 'is required').max(120).refine(...noHiddenChars),
-    email: z.email({ message: 'must be an e-mail address' }).max(254),
-    role: z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` }),
-    password: passwordSchema,
-    depotId: z.number().int().positive().nullable().optional(),
-  })
-  .strict();
-
-const patchSchema = z
-  .object({
-    name: z.string().trim().min(1, 'is required').max(120).refine(...noHiddenChars).optional(),
-    role: z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` }).optional(),
-    active: z.boolean({ message: 'must be true or false' }).optional(),
-    depotId: z.number().int().positive().nullable().optional(),
-    /** A manager's password reset; ends the user's sessions. */
-    password: passwordSchema.optional(),
-  })
-  .strict()
-  .refine((p) => Object.keys(p).length > 0, { message: 'give at least one of name, role, active, depotId, password' });
+export { PASSWORD_MAX_BYTES, PASSWORD_MIN_CHARS, passwordSchema } from '../contracts/users';
 
 /** `now` and `timeZone` date the CSV export (its file name and the days people were added; default UTC). */
 export function registerUserRoutes(r: Router, deps: { now?: () => Date; timeZone?: string } = {}) {
@@ -84,13 +50,13 @@ export function registerUserRoutes(r: Router, deps: { now?: () => Date; timeZone
   });
 
   r.post('/users', allow('manager'), async (req, res) => {
-    const body = parse(createSchema, req.body, 'body');
+    const body = parse(createUserBody, req.body, 'body');
     res.status(201).json({ user: await userService.create(body) });
   });
 
   r.patch('/users/:id', allow('manager'), async (req, res) => {
     const { id } = parse(idParam, req.params, 'address');
-    const body = parse(patchSchema, req.body, 'body');
+    const body = parse(updateUserBody, req.body, 'body');
     res.json({ user: await userService.update(currentUser(req).id, id, body) });
   });
 }

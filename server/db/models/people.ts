@@ -1,9 +1,9 @@
 /** People who sign in: fleet managers, mechanics and drivers, with their notification preferences. */
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import type { Role } from '../../contracts/users';
 import { pk, ts } from './columns';
 
-export const ROLES = ['manager', 'mechanic', 'driver'] as const;
-export type Role = (typeof ROLES)[number];
+export { ROLES, type Role } from '../../contracts/users';
 
 type Attrs<M extends Model> = InferAttributes<M>;
 type CAttrs<M extends Model> = InferCreationAttributes<M>;

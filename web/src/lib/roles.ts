@@ -1,6 +1,7 @@
 /** The three roles of Reboundry and how we name them on screen. */
-export const ROLES = ['manager', 'mechanic', 'driver'] as const;
-export type Role = (typeof ROLES)[number];
+import type { Role } from '@contracts/users';
+
+export { ROLES, type Role } from '@contracts/users';
 
 export const roleLabels: Record<Role, string> = {
   manager: 'Fleet manager',

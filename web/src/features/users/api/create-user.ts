@@ -1,16 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { z } from 'zod';
+import type { z } from 'zod';
 import { api } from '@/lib/api-client';
-import { ROLES } from '@/lib/roles';
+import { createUserBody } from '@contracts/users';
 import type { UserListItem } from './get-users';
 import { userKeys } from './user-keys';
 
-export const createUserSchema = z.object({
-  name: z.string().trim().min(1, 'is required').max(120, 'must be at most 120 characters'),
-  email: z.string().trim().min(1, 'is required').pipe(z.email('does not look like an e-mail address')),
-  role: z.enum(ROLES, 'must be chosen'),
-  password: z.string().min(10, 'must be at least 10 characters').refine((p) => new TextEncoder().encode(p).length <= 72, 'must be at most 72 bytes (72 plain letters or digits; accented letters take more)'),
-});
+/** The server's own rules for a new person (server/contracts/users.ts), without the depot (not asked here). */
+export const createUserSchema = createUserBody.omit({ depotId: true });
 export type CreateUserInput = z.infer<typeof createUserSchema>;
 
 export async function createUser(input: CreateUserInput): Promise<UserListItem> {

@@ -1,0 +1,32 @@
+import { useForm, type DefaultValues, type FieldValues, type Path } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { isApiError } from './api-client';
+import { sentence } from './form-errors';
+
+/**
+ * A form checked by the same zod schema the server parses the request with (server/contracts,
+ * through React Hook Form's zod resolver): each field's message reads as one sentence with its
+ * label ("Temporary password must be at least 10 characters."), focus goes to the first field in
+ * error, and {@link SchemaForm.showServerErrors} puts the server's field messages on the same
+ * fields when a request is refused.
+ */
+export function useSchemaForm<S extends z.ZodType<FieldValues, FieldValues>>(schema: S, labels: Partial<Record<keyof z.input<S> & string, string>>, defaultValues?: DefaultValues<z.input<S>>) {
+  const form = useForm<z.input<S>, unknown, z.output<S>>({ resolver: zodResolver(schema as never) as never, defaultValues, shouldFocusError: true });
+  const labelOf = (name: string) => (labels as Record<string, string | undefined>)[name];
+  /** The field's error as a sentence, or undefined. */
+  const errorOf = (name: keyof z.input<S> & string): string | undefined => {
+    const message = form.formState.errors[name]?.message;
+    return typeof message === 'string' ? sentence(labelOf(name), message) : undefined;
+  };
+  /** Shows the server's field errors on their fields; true when there were any. */
+  const showServerErrors = (err: unknown): boolean => {
+    if (!isApiError(err)) return false;
+    const fields = Object.entries(err.fields).map(([path, message]) => [path.split('.')[0], message] as const).filter(([name]) => labelOf(name) !== undefined);
+    fields.forEach(([name, message], k) => form.setError(name as Path<z.input<S>>, { type: 'server', message }, { shouldFocus: k === 0 }));
+    return fields.length > 0;
+  };
+  return { ...form, errorOf, showServerErrors };
+}
+
+export type SchemaForm = ReturnType<typeof useSchemaForm>;
