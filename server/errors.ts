@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
 import type { Logger } from './logger';
+import { issueFields } from './contracts/common';
 
 export interface ErrorBody {
   error: { code: string; message: string; fields?: Record<string, string> };
@@ -41,14 +42,7 @@ export class AppError extends Error {
 }
 
 /** Turns zod issues into `{ field: message }`, using dotted paths (`axles.0.sprungMassKg`). */
-export function zodFields(err: ZodError): Record<string, string> {
-  const fields: Record<string, string> = {};
-  for (const issue of err.issues) {
-    const key = issue.path.length ? issue.path.join('.') : '_';
-    if (!fields[key]) fields[key] = issue.message;
-  }
-  return fields;
-}
+export const zodFields = (err: ZodError) => issueFields(err);
 
 export function toAppError(err: unknown): AppError {
   if (err instanceof AppError) return err;

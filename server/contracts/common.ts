@@ -41,3 +41,13 @@ export const noHiddenChars = [(s: string) => !hasHiddenChars(s), { message: NO_H
 
 /** Bytes of a text in UTF-8 (the same in Node and the browser). */
 export const utf8Bytes = (s: string) => new TextEncoder().encode(s).length;
+
+/** A refused body's issues as `{ field: message }`, by dotted path (`corners.0.adhesionPct`; `_` for the whole body). */
+export function issueFields(err: z.ZodError): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const issue of err.issues) {
+    const key = issue.path.length ? issue.path.join('.') : '_';
+    if (!fields[key]) fields[key] = issue.message;
+  }
+  return fields;
+}

@@ -9,8 +9,7 @@ import { estimatedDamping } from '../wear/wear';
 import { lifeKmAt, type LifeModel } from '../reliability/life-model';
 import type { FittedCornerRow } from './repository';
 
-export const FINDINGS = ['oil_leak', 'mount_loose_or_cracked', 'bush_worn', 'bump_stop_damaged', 'spring_cracked_or_sagging', 'tyre_uneven_wear'] as const;
-export const VERDICTS = ['ok', 'monitor', 'replace'] as const;
+export { FINDINGS, VERDICTS } from '../contracts/workshop';
 /** The verdict "keep, check again soon": it sets the inspection's follow-up date. */
 export const CHECK_AGAIN = 'monitor';
 /** Days from the inspection to the follow-up when the mechanic gives no date (stated default). */

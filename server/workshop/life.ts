@@ -35,10 +35,9 @@ import { fitWeibull, weibullPlotPoints, type LifeObservation, type WeibullFit } 
 import { lifeRepository } from './life-repository';
 import { workshopRepository } from './repository';
 
-/** Removal reasons that are not wear: such units count as suspensions (right-censored). */
-export const CENSORED_REASONS = ['fitted as a pair', 'accident damage', 'fitted with other work', 'vehicle retired'];
-export const WEAR_REASONS = ['worn: low adhesion', 'leaking', 'mount or bush damage', 'noise or knocking'];
-export const REMOVAL_REASONS = [...WEAR_REASONS, ...CENSORED_REASONS] as const;
+import { CENSORED_REASONS, WEAR_REASONS } from '../contracts/workshop';
+
+export { CENSORED_REASONS, REMOVAL_REASONS, WEAR_REASONS } from '../contracts/workshop';
 
 /** Factor by which the model's and the fleet's mean lives may differ before the page warns. */
 export const DISAGREEMENT_FACTOR = 1.5;

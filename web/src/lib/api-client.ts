@@ -4,6 +4,9 @@
  * and turns every failure into an `ApiError` with a message a person can act on.
  */
 
+import type { z } from 'zod';
+import { issueFields } from '@contracts/common';
+
 export interface ApiErrorBody {
   error: { code: string; message: string; fields?: Record<string, string> };
 }
@@ -160,6 +163,17 @@ export function uploadFile<T>(path: string, file: File, fields: Record<string, s
   form.set('file', file, file.name);
   for (const [k, v] of Object.entries(fields)) if (v !== undefined && v !== '') form.set(k, v);
   return api.postForm<T>(path, form);
+}
+
+/**
+ * `body` parsed by the server's own rules for the request (a schema from @contracts), or an
+ * `ApiError` 400 with the same field messages the server would answer, so a form shows them on
+ * its fields without a round trip.
+ */
+export function checked<S extends z.ZodType>(schema: S, body: unknown, path: string): z.output<S> {
+  const r = schema.safeParse(body);
+  if (r.success) return r.data;
+  throw new ApiError(400, 'validation', fallbackMessages[400], issueFields(r.error), path);
 }
 
 /** Shape of every list endpoint. */

@@ -23,6 +23,7 @@ interface PartDraft { position: string; damper: boolean; spring: boolean; partDe
 
 /** The verdict "keep, check again soon": it asks for a follow-up inspection. */
 const CHECK_AGAIN = 'monitor';
+type Corner = ResultsInput['corners'][number];
 const dayAfter = (day: string, f: (d: Date) => Date) => format(f(parseISO(day)), 'yyyy-MM-dd');
 /** Millimetres without a trailing .0 for whole values. */
 const mm = (v: number) => formatNumber(v, Number.isInteger(v) ? 0 : 1);
@@ -113,7 +114,8 @@ export function InspectionRecord({ inspection, options, today, onWorkSaved }: { 
       complete,
       followUpOn: checkAgain ? results.value.followUp || null : null,
       plateAmplitudeMm: num(results.value.amplitude ?? '') ?? undefined,
-      corners: results.value.corners.map((c) => ({ position: c.position, adhesionPct: num(c.adhesion), phaseDeg: num(c.phase ?? ''), findings: c.findings, verdict: c.verdict })),
+      // the draft holds what was picked as text; the contract's rules check it before it is sent
+      corners: results.value.corners.map((c) => ({ position: c.position, adhesionPct: num(c.adhesion), phaseDeg: num(c.phase ?? ''), findings: c.findings as Corner['findings'], verdict: c.verdict as Corner['verdict'] })),
     };
     const corners = results.value.corners;
     save.mutate(body, {
