@@ -1,5 +1,6 @@
 import { Op, fn, col, literal, type Order, type WhereOptions } from 'sequelize';
 import { floorToSeat, type FloorToSeat } from '../physics/seat';
+import type { VehicleListItem } from '../contracts/fleet';
 import {
   Damper,
   Depot,
@@ -45,20 +46,8 @@ export interface SpecRow {
   vehicleCount: number;
 }
 
-export interface VehicleRow {
-  id: number;
-  fleetNumber: string;
-  plate: string;
-  status: VehicleStatus;
-  odometerKm: number;
-  specId: number;
-  specName: string;
-  depotId: number;
-  depotName: string;
-  driverId: number | null;
-  driverName: string | null;
-  commissionedAt: string | null;
-}
+/** A vehicle as the list and the vehicle page answer it (server/contracts/fleet.ts). */
+export type VehicleRow = VehicleListItem;
 
 const axleRow = (a: SpecAxle): AxleRow => ({
   axleIndex: a.axleIndex,

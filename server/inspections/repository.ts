@@ -4,6 +4,7 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { sqlDate } from '../wear/repository';
 import type { CornerForecast, FollowUp } from './schedule';
+import type { DueInspection, OpenInspectionStatus } from '../contracts/inspections';
 
 export interface OpenInspection {
   id: number;
@@ -16,29 +17,8 @@ export interface OpenInspection {
   basis: Record<string, unknown> | null;
 }
 
-export interface DueItem {
-  id: number;
-  vehicleId: number;
-  fleetNumber: string;
-  plate: string;
-  vehicleStatus: string;
-  depotId: number;
-  depotName: string;
-  depotLat: number;
-  depotLon: number;
-  dueDate: string;
-  status: string;
-  trigger: string | null;
-  reason: string;
-  basis: Record<string, unknown> | null;
-  assignee: { id: number; name: string } | null;
-  daysLeft: number;
-  /** Highest consumed life among the vehicle's fitted dampers [1]. */
-  maxLifeUsed: number | null;
-  firstThresholdDate: string | null;
-  /** Routes the vehicle drove in the 90 days before today (for the due map). */
-  routeIds: number[];
-}
+/** An open inspection as the due list answers it (server/contracts/inspections.ts). */
+export type DueItem = DueInspection;
 
 /** Orders of the due list: by due date (then fleet number), or most-worn damper first (then due date). */
 export const DUE_SORTS = ['due', 'lifeUsed'] as const;
@@ -188,7 +168,8 @@ export function inspectionRepository(sequelize: Sequelize) {
       const args: unknown[] = [...(opts.depotId ? [opts.depotId] : []), ...(opts.scope?.args ?? [])];
       const rows = await q<{
         id: number; vehicle_id: number; fleet_number: string; plate: string; vehicle_status: string; depot_id: number; depot_name: string; lat: number; lon: number;
-        due_date: string; status: string; trigger: string | null; reason: string; basis: string | null; assignee_id: number | null; assignee_name: string | null;
+        // the query reads open inspections only
+        due_date: string; status: OpenInspectionStatus; trigger: string | null; reason: string; basis: string | null; assignee_id: number | null; assignee_name: string | null;
         max_life: number | null; first_threshold: string | null; route_ids: string | null;
       }>(
         `SELECT i.id, i.vehicle_id, v.fleet_number, v.plate, v.status AS vehicle_status, d.id AS depot_id, d.name AS depot_name, d.lat, d.lon,

@@ -9,25 +9,10 @@ import { Op } from 'sequelize';
 import { JobLock, JobRun, type JobRunStatus, type JobTrigger } from '../db/models';
 import { User } from '../db/models';
 import type { Db } from '../db';
+import type { JobRunView } from '../contracts/jobs';
 
-export interface JobRunRow {
-  id: number;
-  job: string;
-  status: JobRunStatus;
-  trigger: JobTrigger;
-  asOf: string;
-  requestedBy: { id: number; name: string } | null;
-  startedAt: string;
-  endedAt: string | null;
-  durationS: number | null;
-  phase: string | null;
-  progressDone: number;
-  progressTotal: number;
-  counts: Record<string, number>;
-  errors: { item: string; message: string }[];
-  errorCount: number;
-  message: string | null;
-}
+/** A run as the API answers it (server/contracts/jobs.ts). */
+export type JobRunRow = JobRunView;
 
 const toRow = (r: JobRun & { requestedBy?: User | null }, withErrors = true): JobRunRow => {
   const errors = JSON.parse(r.errors || '[]') as { item: string; message: string }[];

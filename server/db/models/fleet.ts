@@ -1,9 +1,9 @@
 /** The fleet: depots, suspension specs and their axles, vehicles and the dampers fitted to them. */
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import type { VehicleStatus } from '../../contracts/fleet';
 import { pk, ts } from './columns';
 
-export const VEHICLE_STATUSES = ['in_service', 'workshop', 'retired'] as const;
-export type VehicleStatus = (typeof VEHICLE_STATUSES)[number];
+export { VEHICLE_STATUSES, type VehicleStatus } from '../../contracts/fleet';
 
 type Attrs<M extends Model> = InferAttributes<M>;
 type CAttrs<M extends Model> = InferCreationAttributes<M>;

@@ -1,11 +1,9 @@
 /** Scheduled job runs and the lock that keeps one run at a time. */
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 import { pk, ts } from './columns';
+import type { JobRunStatus, JobTrigger } from '../../contracts/jobs';
 
-export const JOB_RUN_STATUSES = ['running', 'succeeded', 'completed_with_errors', 'failed', 'cancelled'] as const;
-export type JobRunStatus = (typeof JOB_RUN_STATUSES)[number];
-export const JOB_TRIGGERS = ['schedule', 'cli', 'manual', 'test', 'seed'] as const;
-export type JobTrigger = (typeof JOB_TRIGGERS)[number];
+export { JOB_RUN_STATUSES, JOB_TRIGGERS, type JobRunStatus, type JobTrigger } from '../../contracts/jobs';
 
 type Attrs<M extends Model> = InferAttributes<M>;
 type CAttrs<M extends Model> = InferCreationAttributes<M>;

@@ -1,33 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { queryRoots } from '@/lib/query-keys';
+import type { DueInspection } from '@contracts/inspections';
 
-export type OpenInspectionStatus = 'scheduled' | 'due' | 'overdue';
-
-export interface DueInspection {
-  id: number;
-  vehicleId: number;
-  fleetNumber: string;
-  plate: string;
-  vehicleStatus: string;
-  depotId: number;
-  depotName: string;
-  depotLat: number;
-  depotLon: number;
-  dueDate: string;
-  status: OpenInspectionStatus;
-  /** prediction | interval_km | interval_months | manual | follow_up, null for ones entered before the nightly job. */
-  trigger: string | null;
-  reason: string;
-  basis: Record<string, unknown> | null;
-  assignee: { id: number; name: string } | null;
-  /** Days from today to the due date (negative when overdue) [days]. */
-  daysLeft: number;
-  maxLifeUsed: number | null;
-  firstThresholdDate: string | null;
-  /** Routes the vehicle drove in the 90 days before today. */
-  routeIds: number[];
-}
+export type { DueInspection, OpenInspectionStatus } from '@contracts/inspections';
 
 /** Order of the due list: by due date, or most-worn damper first. */
 export type DueSort = 'due' | 'lifeUsed';

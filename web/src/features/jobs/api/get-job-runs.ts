@@ -1,28 +1,11 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, type ListResponse } from '@/lib/api-client';
+import type { JobRunView } from '@contracts/jobs';
 import { jobKeys } from './job-keys';
 
-export type JobRunStatus = 'running' | 'succeeded' | 'completed_with_errors' | 'failed' | 'cancelled';
-
-export interface JobRun {
-  id: number;
-  job: string;
-  status: JobRunStatus;
-  trigger: 'schedule' | 'cli' | 'manual' | 'test' | 'seed';
-  asOf: string;
-  requestedBy: { id: number; name: string } | null;
-  startedAt: string;
-  endedAt: string | null;
-  /** Wall-clock duration [s]. */
-  durationS: number | null;
-  phase: string | null;
-  progressDone: number;
-  progressTotal: number;
-  counts: Record<string, number>;
-  errors: { item: string; message: string }[];
-  errorCount: number;
-  message: string | null;
-}
+/** A run as the server answers it (server/contracts/jobs.ts). */
+export type JobRun = JobRunView;
+export type { JobRunStatus } from '@contracts/jobs';
 
 export const jobRunsQueryOptions = (page: number, pageSize = 25) =>
   queryOptions({

@@ -1,26 +1,13 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, type ListParams, type ListResponse } from '@/lib/api-client';
+import type { VehicleListItem, VehicleStatus } from '@contracts/fleet';
 import { vehicleKeys } from './vehicle-keys';
 
-export const VEHICLE_STATUSES = ['in_service', 'workshop', 'retired'] as const;
-export type VehicleStatus = (typeof VEHICLE_STATUSES)[number];
+export { VEHICLE_STATUSES, type VehicleListItem, type VehicleStatus } from '@contracts/fleet';
 
 export const VEHICLE_SORTS = ['fleetNumber', 'plate', 'odometerKm', 'status', 'depotName', 'specName'] as const;
 export type VehicleSortField = (typeof VEHICLE_SORTS)[number];
 
-export interface VehicleListItem {
-  id: number;
-  fleetNumber: string;
-  plate: string;
-  status: VehicleStatus;
-  odometerKm: number;
-  specId: number;
-  specName: string;
-  depotId: number;
-  depotName: string;
-  driverId: number | null;
-  driverName: string | null;
-}
 
 export interface VehicleListParams extends ListParams {
   /** Fleet number or plate, partial. */
