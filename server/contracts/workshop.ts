@@ -108,3 +108,33 @@ export const workBody = z
 
 export type ResultsBody = z.input<ReturnType<typeof resultsBody>>;
 export type WorkBody = z.input<typeof workBody>;
+
+/** Where a damper's life comes from: the trade's prior, the fit to the fleet's removals, or a test-lane result on it. */
+export type LifeSource = 'prior' | 'fleet' | 'test-lane';
+
+/** A fitted damper's predicted state, as the workshop pages and the vehicle page show it. */
+export interface CornerState {
+  damperId: number;
+  position: string;
+  axleIndex: number;
+  partNumber: string | null;
+  installedAt: string;
+  kmSinceFitted: number;
+  lifeUsedFraction: number;
+  /** Predicted present damping [N·s/m]. */
+  dampingNsPerM: number;
+  nominalNsPerM: number;
+  /** 'wear model' (nightly job) or 'km estimate' (no duty computed yet). */
+  basis: string;
+  state: 'ok' | 'watch' | 'due' | 'past_life';
+  thresholdDate: string | null;
+  endOfLifeDate: string | null;
+  /** P10–P90 range of the end-of-life date from the fitted scatter. */
+  endOfLifeP10Date: string | null;
+  endOfLifeP90Date: string | null;
+  /** Share of life used before the trips on record (opening wear), null before the nightly job. */
+  openingShare: number | null;
+  /** Median life [km] at the damper's own recent wear rate (or on the rated road before the nightly job). */
+  lifeKm: number;
+  lifeSource: LifeSource;
+}

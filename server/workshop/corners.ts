@@ -7,6 +7,7 @@ import { estimateFromLane } from '../physics/lane-estimate';
 import type { CornerParams } from '../physics/types';
 import { estimatedDamping } from '../wear/wear';
 import { lifeKmAt, type LifeModel } from '../reliability/life-model';
+import type { CornerState, LifeSource } from '../contracts/workshop';
 import type { FittedCornerRow } from './repository';
 
 export { FINDINGS, VERDICTS } from '../contracts/workshop';
@@ -16,31 +17,7 @@ export const CHECK_AGAIN = 'monitor';
 export const FOLLOW_UP_DEFAULT_DAYS = 30;
 export const OPEN = ['scheduled', 'due', 'overdue'];
 
-export interface CornerState {
-  damperId: number;
-  position: string;
-  axleIndex: number;
-  partNumber: string | null;
-  installedAt: string;
-  kmSinceFitted: number;
-  lifeUsedFraction: number;
-  /** Predicted present damping [N·s/m]. */
-  dampingNsPerM: number;
-  nominalNsPerM: number;
-  /** 'wear model' (nightly job) or 'km estimate' (no duty computed yet). */
-  basis: string;
-  state: 'ok' | 'watch' | 'due' | 'past_life';
-  thresholdDate: string | null;
-  endOfLifeDate: string | null;
-  /** P10–P90 range of the end-of-life date from the fitted scatter. */
-  endOfLifeP10Date: string | null;
-  endOfLifeP90Date: string | null;
-  /** Share of life used before the trips on record (opening wear), null before the nightly job. */
-  openingShare: number | null;
-  /** Median life [km] at the damper's own recent wear rate (or on the rated road before the nightly job). */
-  lifeKm: number;
-  lifeSource: string;
-}
+export type { CornerState, LifeSource } from '../contracts/workshop';
 
 /** The corner's word: the same bands as the vehicle page (watch from ¾ of the inspection threshold, inspect from it). */
 const stateOf = (u: number, threshold: number): CornerState['state'] => (u >= 1 ? 'past_life' : u >= threshold ? 'due' : u >= threshold * 0.75 - 1e-9 ? 'watch' : 'ok');
@@ -73,7 +50,8 @@ export function cornerState(r: FittedCornerRow, models: Map<number, LifeModel>, 
     endOfLifeP90Date: r.p_end_p90,
     openingShare: r.p_opening_share,
     lifeKm,
-    lifeSource: r.p_source ?? model?.source ?? 'prior',
+    // the stored source is one of the contract's words (the nightly job writes it)
+    lifeSource: (r.p_source ?? model?.source ?? 'prior') as LifeSource,
   };
 }
 

@@ -1,31 +1,7 @@
 import { queryRoots } from '@/lib/query-keys';
+import type { CornerState, LifeSource } from '@contracts/workshop';
 
-export interface CornerState {
-  damperId: number;
-  position: string;
-  axleIndex: number;
-  partNumber: string | null;
-  installedAt: string;
-  kmSinceFitted: number;
-  lifeUsedFraction: number;
-  dampingNsPerM: number;
-  nominalNsPerM: number;
-  basis: string;
-  state: 'ok' | 'watch' | 'due' | 'past_life';
-  thresholdDate: string | null;
-  endOfLifeDate: string | null;
-  /** P10–P90 range of the end-of-life date from the fitted scatter. */
-  endOfLifeP10Date: string | null;
-  endOfLifeP90Date: string | null;
-  /** Share of life used before the trips on record (opening wear); null before the nightly job. */
-  openingShare: number | null;
-  /** Median life [km] at the damper's own recent road mix (on the rated road before the nightly job). */
-  lifeKm: number;
-  lifeSource: LifeSource;
-}
-
-/** Where a damper's life comes from: the trade's prior, the fit to the fleet's removals, or a test-lane result on it. */
-export type LifeSource = 'prior' | 'fleet' | 'test-lane';
+export type { CornerState, LifeSource } from '@contracts/workshop';
 
 export const LIFE_SOURCE_WORDS: Record<LifeSource, string> = {
   prior: "trade's prior",
