@@ -6,6 +6,7 @@
  */
 import { modes, frequencyResponse, type CornerModes } from '../physics/quarter-car';
 import type { CornerParams } from '../physics/types';
+import type { AxleBody, VehicleClass } from '../contracts/specs';
 
 export type CornerField = keyof CornerParams | 'ratedDamperLifeKm';
 
@@ -32,8 +33,8 @@ export const MODE_LIMITS = {
   bodyDampingRatio: { min: 0.05, max: 1.5 },
 };
 
-export const VEHICLE_CLASSES = ['passenger car', 'light commercial', 'heavy goods'] as const;
-export type VehicleClass = (typeof VEHICLE_CLASSES)[number];
+export { VEHICLE_CLASSES } from '../contracts/specs';
+export type { VehicleClass } from '../contracts/specs';
 
 type Range = [number, number];
 export interface TypicalRanges {
@@ -84,15 +85,8 @@ export const TYPICAL: Record<VehicleClass, TypicalRanges> = {
 // Shown to users: typical textbook values (Gillespie 1992, Wong, Cebon 1999; quoted from memory, docs/methods.md "Typical parameters").
 export const TYPICAL_SOURCE = 'typical textbook values for the vehicle class (Gillespie 1992; Wong; Cebon 1999)';
 
-export interface PresetAxle {
-  label: string;
-  sprungMassKg: number;
-  unsprungMassKg: number;
-  springRateNPerM: number;
-  dampingNsPerM: number;
-  tireRateNPerM: number;
-  ratedDamperLifeKm: number;
-}
+/** A preset's axle: the same fields as an axle in a spec body (server/contracts/specs.ts). */
+export type PresetAxle = AxleBody;
 export interface Preset {
   key: string;
   name: string;

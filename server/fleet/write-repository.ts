@@ -1,24 +1,11 @@
 /** Writes to specs, vehicles and depots (the only place these writes touch Sequelize). */
 import { Op } from 'sequelize';
+import type { AxleBody, SpecBody } from '../contracts/specs';
 import { Damper, Depot, SpecAxle, SuspensionSpec, User, Vehicle, type VehicleStatus } from '../db/models';
 
-export interface AxleInput {
-  label: string;
-  sprungMassKg: number;
-  unsprungMassKg: number;
-  springRateNPerM: number;
-  dampingNsPerM: number;
-  tireRateNPerM: number;
-  ratedDamperLifeKm: number;
-}
-export interface SpecInput {
-  name: string;
-  vehicleClass: string;
-  description?: string | null;
-  seatFactor?: number | null;
-  cabFactor?: number | null;
-  axles: AxleInput[];
-}
+/** A spec as written: the body the spec endpoints parse (server/contracts/specs.ts). */
+export type AxleInput = AxleBody;
+export type SpecInput = SpecBody;
 
 export interface VehicleInput {
   fleetNumber: string;

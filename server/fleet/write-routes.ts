@@ -7,33 +7,7 @@ import { idParam, isoDay, noHiddenChars, parse } from '../http/validate';
 import { fleetRepository } from './repository';
 import { fleetWriteService } from './write-service';
 import { HARD_LIMITS, MODE_LIMITS, PRESETS, TYPICAL, TYPICAL_SOURCE, VEHICLE_CLASSES } from './spec-checks';
-
-const num = (unit: string) => z.number({ message: `must be a number in ${unit}` }).finite(`must be a finite number in ${unit}`);
-
-const axle = z.object({
-  label: z.string({ message: 'is required' }).trim().min(1, 'is required').max(40, 'must be 40 characters or fewer'),
-  sprungMassKg: num('kg'),
-  unsprungMassKg: num('kg'),
-  springRateNPerM: num('N/m'),
-  dampingNsPerM: num('N·s/m'),
-  tireRateNPerM: num('N/m'),
-  ratedDamperLifeKm: num('km').default(90_000),
-});
-
-const vehicleClass = z.enum(VEHICLE_CLASSES, { message: `must be one of ${VEHICLE_CLASSES.join(', ')}` });
-
-const specBody = z
-  .object({
-    name: z.string({ message: 'is required' }).trim().min(2, 'must be at least 2 characters').max(120).refine(...noHiddenChars),
-    vehicleClass,
-    description: z.string().trim().max(2000).nullish(),
-    seatFactor: z.number({ message: 'must be a number' }).min(0.2, 'must be 0.2–2 (SEAT value)').max(2, 'must be 0.2–2 (SEAT value)').nullish(),
-    cabFactor: z.number({ message: 'must be a number' }).min(0.2, 'must be 0.2–1.5').max(1.5, 'must be 0.2–1.5').nullish(),
-    axles: z.array(axle, { message: 'must be a list of axles' }).min(1, 'needs at least one axle').max(6, 'at most 6 axles'),
-  })
-  .strict();
-
-const previewBody = z.object({ vehicleClass, axles: z.array(axle).min(1, 'needs at least one axle').max(6, 'at most 6 axles') }).strict();
+import { specBody, specPreviewBody } from '../contracts/specs';
 
 const lat = z.number({ message: 'must be a number in degrees' }).min(-90, 'must be between −90° and 90°').max(90, 'must be between −90° and 90°');
 const lon = z.number({ message: 'must be a number in degrees' }).min(-180, 'must be between −180° and 180°').max(180, 'must be between −180° and 180°');
@@ -76,7 +50,7 @@ export function registerFleetWriteRoutes(r: Router, now: () => Date) {
   });
 
   r.post('/specs/preview', allow('manager', 'mechanic'), (req, res) => {
-    const body = parse(previewBody, req.body, 'spec');
+    const body = parse(specPreviewBody, req.body, 'spec');
     res.json(fleetWriteService.previewSpec(body));
   });
 

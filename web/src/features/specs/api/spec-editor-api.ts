@@ -1,17 +1,11 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { SuspensionSpec } from '@/lib/suspension';
+import type { AxleBody } from '@contracts/specs';
 import { specKeys } from './spec-keys';
 
-export interface AxleForm {
-  label: string;
-  sprungMassKg: number;
-  unsprungMassKg: number;
-  springRateNPerM: number;
-  dampingNsPerM: number;
-  tireRateNPerM: number;
-  ratedDamperLifeKm: number;
-}
+/** An axle as the spec endpoints take it (server/contracts/specs.ts). */
+export type AxleForm = AxleBody;
 
 export interface SpecPresets {
   presets: { key: string; name: string; vehicleClass: string; source: string; axles: AxleForm[] }[];
