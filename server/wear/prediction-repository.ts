@@ -1,0 +1,126 @@
+/** The predictions' storage: the fitted dampers to predict, their wear summaries and recorded totals, and the prediction rows. */
+import type { Sequelize } from 'sequelize';
+import { JSON_ROWS, fromJsonRows, inList, insertRows, jsonRows, runSql } from '../db/raw';
+import { type Prediction, type WearSummary } from './wear';
+import type { WearRepoShared } from './repository';
+
+export function predictionRepository(sequelize: Sequelize, shared: WearRepoShared) {
+  const { q } = shared;
+  return {
+    /** Fitted dampers of vehicles in service, by id after `afterId`; only those of `vehicleIds` when given. */
+    async installedDamperIds(afterId: number, limit: number, vehicleIds?: number[]): Promise<number[]> {
+      const only = vehicleIds ? `AND d.vehicle_id IN (${vehicleIds.map(() => '?').join(', ') || 'NULL'})` : '';
+      const rows = await q<{ id: number }>(
+        `SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE d.removed_at IS NULL AND v.status != 'retired' AND d.id > ? ${only} ORDER BY d.id LIMIT ?`,
+        [afterId, ...(vehicleIds ?? []), limit],
+      );
+      return rows.map((r) => r.id);
+    },
+
+    /**
+     * Per damper, what its prediction rests on ({@link WearSummary}), from its wear days up to
+     * `asOf`: window sums from the damper's own window start, the cumulative recorded wear on
+     * its last day, and the first days its recorded wear km reached each of its four levels
+     * (and its spring damage reached `springLevel`). One query per call that reads each damper's
+     * window and last day through the (damper, day) key; the first days are looked up only for
+     * dampers whose last day has reached the level (cumulative wear never falls), so the
+     * nightly cost does not grow with the length of the history.
+     */
+    async wearSummaries(targets: { damperId: number; windowStart: string; levels: number[] }[], springLevel: number, asOf: string) {
+      const out = new Map<number, WearSummary>();
+      if (!targets.length) return out;
+      const rows = await q<{
+        damper_id: number; ww: number; wkm: number; wd: number; d0: string | null; d1: string | null; d2: string | null; d3: string | null; sp_day: string | null;
+        cum_km: number; cum_wear_km: number; cum_spring_damage: number;
+      }>(
+        `WITH t AS (${fromJsonRows(['id', 'ws', 'l0', 'l1', 'l2', 'l3'], [], '?1')}),
+         l AS (
+           SELECT t.*, w.cum_km, w.cum_wear_km, w.cum_spring_damage
+           FROM t JOIN damper_wear_days w ON w.damper_id = t.id
+             AND w.day = (SELECT MAX(x.day) FROM damper_wear_days x WHERE x.damper_id = t.id AND x.day <= ?2)),
+         s AS (
+           SELECT w.damper_id, SUM(w.wear_km) AS ww, SUM(w.distance_km) AS wkm, SUM(w.spring_damage) AS wd
+           FROM t JOIN damper_wear_days w ON w.damper_id = t.id AND w.day >= t.ws AND w.day <= ?2
+           GROUP BY w.damper_id)
+         SELECT l.id AS damper_id, COALESCE(s.ww, 0) AS ww, COALESCE(s.wkm, 0) AS wkm, COALESCE(s.wd, 0) AS wd,
+                ${[0, 1, 2, 3]
+                  .map(
+                    (k) => `CASE WHEN l.cum_wear_km >= l.l${k}
+                  THEN (SELECT MIN(x.day) FROM damper_wear_days x WHERE x.damper_id = l.id AND x.day <= ?2 AND x.cum_wear_km >= l.l${k}) END AS d${k},`,
+                  )
+                  .join('\n')}
+                CASE WHEN l.cum_spring_damage >= ?3
+                  THEN (SELECT MIN(x.day) FROM damper_wear_days x WHERE x.damper_id = l.id AND x.day <= ?2 AND x.cum_spring_damage >= ?3) END AS sp_day,
+                l.cum_km, l.cum_wear_km, l.cum_spring_damage
+         FROM l LEFT JOIN s ON s.damper_id = l.id`,
+        [jsonRows(targets.map((t) => [t.damperId, t.windowStart, ...t.levels])), asOf, springLevel],
+      );
+      for (const r of rows) {
+        out.set(r.damper_id, {
+          windowWearKm: r.ww,
+          windowKm: r.wkm,
+          windowSpringDamage: r.wd,
+          cumKm: r.cum_km,
+          cumWearKm: r.cum_wear_km,
+          springDamage: r.cum_spring_damage,
+          levelDays: [r.d0, r.d1, r.d2, r.d3],
+          springThresholdDay: r.sp_day,
+        });
+      }
+      return out;
+    },
+
+    /** Per damper, its recorded distance and wear km up to `asOf` (the last wear day's sums). */
+    async recordedTotals(ids: number[], asOf: string) {
+      if (!ids.length) return new Map<number, { cumKm: number; cumWearKm: number }>();
+      const rows = await q<{ damper_id: number; cum_km: number; cum_wear_km: number }>(
+        `SELECT w.damper_id, w.cum_km, w.cum_wear_km FROM damper_wear_days w
+         WHERE w.damper_id IN (${inList(ids)}) AND w.day = (SELECT MAX(x.day) FROM damper_wear_days x WHERE x.damper_id = w.damper_id AND x.day <= ?)`,
+        [asOf],
+      );
+      return new Map(rows.map((r) => [r.damper_id, { cumKm: r.cum_km, cumWearKm: r.cum_wear_km }]));
+    },
+
+    async storePredictions(rows: (Prediction & { damperId: number; vehicleId: number })[]) {
+      await sequelize.transaction(async (t) => {
+        await insertRows(
+          sequelize,
+          'damper_predictions',
+          [
+            'damper_id', 'vehicle_id', 'as_of', 'window_days', 'window_km', 'window_wear_km', 'wear_km_per_day', 'km_per_day', 'life_wear_km', 'life_p10_wear_km',
+            'life_p90_wear_km', 'road_sensitivity', 'life_source', 'wear_km', 'life_used_fraction', 'distance_life_used', 'calendar_life_used', 'opening_km',
+            'opening_share', 'opening_share_low', 'opening_share_high', 'damping_ns_per_m', 'threshold_fraction', 'schedule_quantile', 'threshold_date',
+            'end_of_life_date', 'end_of_life_p10_date', 'end_of_life_p90_date', 'governed_by', 'spring_damage', 'spring_rate_per_day', 'spring_threshold_date', 'basis',
+          ],
+          rows.map((p) => [
+            p.damperId, p.vehicleId, p.asOf, p.windowDays, p.windowKm, p.windowWearKm, p.wearKmPerDay, p.kmPerDay, p.life.medianWearKm, p.life.p10WearKm,
+            p.life.p90WearKm, p.life.b, p.life.source, p.wearKm, p.lifeUsedFraction, p.distanceLifeUsed, p.calendarLifeUsed, p.opening.km,
+            p.openingShare, p.openingShareLow, p.openingShareHigh, p.dampingNsPerM, p.thresholdFraction, p.scheduleQuantile, p.thresholdDate,
+            p.endOfLifeDate, p.endOfLifeP10Date, p.endOfLifeP90Date, p.governedBy, p.springDamage, p.springRatePerDay, p.springThresholdDate, JSON.stringify(p.basis),
+          ]),
+          t,
+          { orReplace: true },
+        );
+        // the damper's own totals follow its prediction
+        for (let i = 0; i < rows.length; i += JSON_ROWS) {
+          const part = rows.slice(i, i + JSON_ROWS);
+          await runSql(
+            sequelize,
+            `WITH p AS (${fromJsonRows(['id', 'w', 'u', 'c', 'b'])})
+             UPDATE dampers SET wear_km = p.w, life_used_fraction = p.u, damping_ns_per_m = p.c, opening_basis = p.b FROM p WHERE dampers.id = p.id`,
+            [jsonRows(part.map((p) => [p.damperId, p.wearKm, p.lifeUsedFraction, p.dampingNsPerM, p.opening.basis]))],
+            t,
+          );
+        }
+      });
+    },
+
+    /** Removes predictions of dampers no longer fitted (or on retired vehicles). */
+    async dropStalePredictions() {
+      await runSql(
+        sequelize,
+        `DELETE FROM damper_predictions WHERE damper_id IN (SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE d.removed_at IS NOT NULL OR v.status = 'retired')`,
+      );
+    },
+  };
+}
