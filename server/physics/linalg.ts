@@ -3,6 +3,10 @@
  * matrices of order n (n ≤ ~20), matrix exponential, linear solve, eigenvalues and the
  * continuous Lyapunov equation.
  *
+ * One file of about 400 lines on purpose: the routines share one storage convention and build on
+ * each other (the Lyapunov solve and the zero-order hold use the elimination and the matrix
+ * exponential; the eigenvalues use the characteristic polynomial and its roots), and each is short.
+ *
  * @module
  */
 import { PhysicsNumericError } from './types';
