@@ -189,7 +189,8 @@ export function DataTable<T>(props: DataTableProps<T>) {
               ) : (
                 <Button size="sm" variant="quiet" disabled>
                   <DownloadIcon />
-                  {exportLabel(count)}
+                  {/* while the count is loading it is not known yet: say nothing of it */}
+                  {isPlaceholder || (isLoading && !rows) ? 'Download CSV' : exportLabel(count)}
                 </Button>
               )
             ) : null}
