@@ -92,7 +92,14 @@ describe('vehicle and depot forms', () => {
     const dialog = page.getByRole('dialog', { name: 'Add a depot' });
     await dialog.getByLabel('Name').fill('Testbridge yard');
     await dialog.getByLabel('Address').fill('1 Test Lane');
+    // the server's own rules, checked in the form: a position that is not a number is named on its field
+    await dialog.getByLabel('Latitude [°]').fill('abc');
+    await dialog.getByRole('button', { name: 'Add depot' }).click();
+    await dialog.getByText('Latitude must be a number in degrees.').waitFor();
+    await dialog.getByText('Longitude must be a number in degrees.').waitFor();
+    expect(await page.evaluate(() => (document.activeElement as HTMLInputElement | null)?.value)).toBe('abc');
     await dialog.getByTestId('depot-map').click({ position: { x: 120, y: 90 } });
+    await expect.poll(() => dialog.getByText('Latitude must be a number in degrees.').count()).toBe(0);
     const lat = Number(await dialog.getByLabel('Latitude [°]').inputValue());
     const lon = Number(await dialog.getByLabel('Longitude [°]').inputValue());
     expect(Math.abs(lat)).toBeGreaterThan(1);

@@ -1,6 +1,6 @@
 import { useForm, type DefaultValues, type FieldValues, type Path } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import type { z } from 'zod';
+import { z, preprocess as zPreprocess } from 'zod';
 import { isApiError } from './api-client';
 import { sentence } from './form-errors';
 
@@ -30,3 +30,11 @@ export function useSchemaForm<S extends z.ZodType<FieldValues, FieldValues>>(sch
 }
 
 export type SchemaForm = ReturnType<typeof useSchemaForm>;
+
+/**
+ * A number field typed as text: blank is "not given" (the schema's own message then says what is
+ * wanted), a decimal comma is read as a point, anything else is passed to the schema as it is.
+ */
+export function fromText<S extends z.ZodType>(schema: S) {
+  return zPreprocess((v) => (typeof v === 'string' ? (v.trim() === '' ? undefined : Number(v.trim().replace(',', '.'))) : v), schema);
+}

@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState, type FormEvent } from 'react';
+import { useEffect } from 'react';
 import { CircleMarker, MapContainer, Tooltip, useMap, useMapEvents } from 'react-leaflet';
 import { BaseLayer } from '@/components/map/base-layer';
 import { Button } from '@/components/ui/button';
@@ -6,11 +6,12 @@ import { Dialog } from '@/components/ui/dialog';
 import { TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
-import { focusFirstError, serverFieldErrors, type FieldErrors } from '@/lib/form-errors';
+import { fromText, useSchemaForm } from '@/lib/use-schema-form';
+import { depotBody } from '@contracts/fleet';
 import type { Depot } from '../api/get-depots';
 import { useSaveDepot } from '../api/save-depot';
 
-const labels: Record<string, string> = { name: 'Name', address: 'Address', lat: 'Latitude', lon: 'Longitude' };
+const labels = { name: 'Name', address: 'Address', lat: 'Latitude', lon: 'Longitude' };
 
 function ClickToPlace({ onPick }: { onPick: (lat: number, lon: number) => void }) {
   useMapEvents({ click: (e) => onPick(e.latlng.lat, e.latlng.lng) });
@@ -38,53 +39,33 @@ export function DepotFormDialog({ open, onClose, depot, near, others = [] }: { o
   );
 }
 
+/** The server's depot rules (server/contracts/fleet.ts), with the position typed as text. */
+const depotForm = depotBody.extend({ lat: fromText(depotBody.shape.lat), lon: fromText(depotBody.shape.lon) });
+
 function DepotForm({ depot, near, others, onDone }: { depot?: Depot; near: [number, number]; others: Depot[]; onDone: () => void }) {
-  const [name, setName] = useState(depot?.name ?? '');
-  const [address, setAddress] = useState(depot?.address ?? '');
-  const [lat, setLat] = useState(depot ? String(depot.lat) : '');
-  const [lon, setLon] = useState(depot ? String(depot.lon) : '');
-  const [errors, setErrors] = useState<FieldErrors>({});
-  const formRef = useRef<HTMLFormElement>(null);
+  const form = useSchemaForm(depotForm, labels, { name: depot?.name ?? '', address: depot?.address ?? '', lat: depot ? String(depot.lat) : '', lon: depot ? String(depot.lon) : '' } as never);
   const save = useSaveDepot(depot?.id);
+  const lat = String(form.watch('lat') ?? '');
+  const lon = String(form.watch('lon') ?? '');
 
   const latN = Number(lat.replace(',', '.'));
   const lonN = Number(lon.replace(',', '.'));
   const placed = lat.trim() !== '' && lon.trim() !== '' && Number.isFinite(latN) && Number.isFinite(lonN) && Math.abs(latN) <= 90 && Math.abs(lonN) <= 180;
   const center: [number, number] = depot ? [depot.lat, depot.lon] : near;
 
-  function onSubmit(e: FormEvent) {
-    e.preventDefault();
-    const found: FieldErrors = {};
-    if (name.trim().length < 2) found.name = 'Name must be at least 2 characters.';
-    if (lat.trim() === '' || !Number.isFinite(latN) || Math.abs(latN) > 90) found.lat = 'Latitude must be a number of degrees between −90 and 90.';
-    if (lon.trim() === '' || !Number.isFinite(lonN) || Math.abs(lonN) > 180) found.lon = 'Longitude must be a number of degrees between −180 and 180.';
-    if (Object.keys(found).length) {
-      setErrors(found);
-      focusFirstError(formRef.current, found);
-      return;
-    }
-    save.mutate(
-      { name: name.trim(), address: address.trim() || null, lat: latN, lon: lonN },
-      {
-        onSuccess: onDone,
-        onError: (err) => {
-          const f = serverFieldErrors(err, labels);
-          setErrors(f);
-          focusFirstError(formRef.current, f);
-        },
-      },
-    );
-  }
+  const onSubmit = form.handleSubmit((v) =>
+    save.mutate({ name: v.name, address: v.address?.trim() || null, lat: v.lat, lon: v.lon }, { onSuccess: onDone, onError: (err) => form.showServerErrors(err) }),
+  );
 
   const serverMessage = save.error && (!isApiError(save.error) || Object.keys(save.error.fields).length === 0) ? save.error.message : null;
 
   return (
-    <form ref={formRef} onSubmit={onSubmit} noValidate className="flex flex-col gap-3">
-      <TextField name="name" label="Name" value={name} onChange={(e) => setName(e.target.value)} error={errors.name} maxLength={120} />
-      <TextField name="address" label="Address" aside="(optional)" value={address} onChange={(e) => setAddress(e.target.value)} error={errors.address} maxLength={240} />
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3">
+      <TextField label="Name" {...form.register('name')} error={form.errorOf('name')} maxLength={120} />
+      <TextField label="Address" aside="(optional)" {...form.register('address')} error={form.errorOf('address')} maxLength={240} />
       <div className="grid grid-cols-2 gap-3">
-        <TextField name="lat" label="Latitude [°]" inputMode="decimal" value={lat} onChange={(e) => setLat(e.target.value)} error={errors.lat} placeholder="e.g. 52.56" />
-        <TextField name="lon" label="Longitude [°]" inputMode="decimal" value={lon} onChange={(e) => setLon(e.target.value)} error={errors.lon} placeholder="e.g. −1.40" />
+        <TextField label="Latitude [°]" inputMode="decimal" {...form.register('lat')} error={form.errorOf('lat')} placeholder="e.g. 52.56" />
+        <TextField label="Longitude [°]" inputMode="decimal" {...form.register('lon')} error={form.errorOf('lon')} placeholder="e.g. −1.40" />
       </div>
       <div className="h-52 overflow-hidden rounded-md border border-line" data-testid="depot-map">
         <MapContainer center={center} zoom={11} className="h-full w-full cursor-crosshair">
@@ -92,9 +73,8 @@ function DepotForm({ depot, near, others, onDone }: { depot?: Depot; near: [numb
           <FixSize />
           <ClickToPlace
             onPick={(a, b) => {
-              setLat(round(a));
-              setLon(round(b));
-              setErrors((er) => ({ ...er, lat: '', lon: '' }));
+              form.setValue('lat', round(a) as never, { shouldValidate: form.formState.isSubmitted });
+              form.setValue('lon', round(b) as never, { shouldValidate: form.formState.isSubmitted });
             }}
           />
           {others.map((o) => (

@@ -1,0 +1,21 @@
+import { startTestServer } from '../../support/server';
+import { launchBrowser, newContext } from '../../support/browser';
+import { signIn, settled, DEMO } from '../../e2e/helpers';
+void (async () => {
+  const srv = await startTestServer({ auth: { loginLimitPerPair: 1e6, loginLimitPerAddress: 1e6 } });
+  const browser = await launchBrowser();
+  const shot = async (page: import('playwright-core').Page, name: string) => { await page.waitForFunction(() => !document.body.innerText.includes('Loading'), null, { timeout: 15000 }).catch(() => undefined); await settled(page); await page.screenshot({ path: `/tmp/look-${name}.png`, fullPage: false }); };
+  const ctx = await newContext(browser, 'desktop', srv.url);
+  const page = await ctx.newPage();
+  await signIn(page, srv.url, DEMO.manager);
+  await page.goto(srv.url + '/people'); await shot(page, 'people');
+  await page.getByRole('button', { name: /Set temporary password/ }).first().click(); await page.waitForTimeout(300); await shot(page, 'temp-dialog');
+  await page.keyboard.press('Escape');
+  await page.goto(srv.url + '/fleet'); await shot(page, 'fleet');
+  await page.goto(srv.url + '/due'); await shot(page, 'due');
+  const mctx = await newContext(browser, 'phone', srv.url);
+  const m = await mctx.newPage();
+  await signIn(m, srv.url, DEMO.mechanic);
+  await m.goto(srv.url + '/workshop'); await shot(m, 'mech-workshop');
+  await browser.close(); await srv.stop(); process.exit(0);
+})().catch((e) => { console.error(e); process.exit(1); });
