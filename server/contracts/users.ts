@@ -5,6 +5,22 @@ import { noHiddenChars, utf8Bytes } from './common';
 export const ROLES = ['manager', 'mechanic', 'driver'] as const;
 export type Role = (typeof ROLES)[number];
 
+/** The signed-in person, as the session holds them and `GET /api/auth/me` answers. */
+export interface SessionUser {
+  id: number;
+  name: string;
+  email: string;
+  role: Role;
+  active: boolean;
+  /** A fleet manager set the password: until the user chooses their own, the API refuses the rest. */
+  mustChangePassword: boolean;
+}
+
+/** A person in `GET /api/users`. */
+export interface UserListItem extends SessionUser {
+  createdAt: string;
+}
+
 /**
  * Password rules: at least 10 characters and at most 72 bytes in UTF-8 (bcrypt reads only the first
  * 72 bytes; a longer password would be cut silently, so it is refused). 72 bytes are 72 ASCII

@@ -1,16 +1,8 @@
 import type { RequestHandler, Request } from 'express';
 import { AppError } from '../errors';
-import type { Role } from '../db/models';
+import type { Role, SessionUser } from '../contracts/users';
 
-export interface SessionUser {
-  id: number;
-  name: string;
-  email: string;
-  role: Role;
-  active: boolean;
-  /** A fleet manager set the password: until the user chooses their own, the API refuses the rest (server/auth/password-change-gate.ts). */
-  mustChangePassword: boolean;
-}
+export type { SessionUser } from '../contracts/users';
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace

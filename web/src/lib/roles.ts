@@ -1,5 +1,5 @@
 /** The three roles of Reboundry and how we name them on screen. */
-import type { Role } from '@contracts/users';
+import type { Role, SessionUser } from '@contracts/users';
 
 export { ROLES, type Role } from '@contracts/users';
 
@@ -9,12 +9,5 @@ export const roleLabels: Record<Role, string> = {
   driver: 'Driver',
 };
 
-export interface SignedInUser {
-  id: number;
-  name: string;
-  email: string;
-  role: Role;
-  active: boolean;
-  /** A fleet manager set this person's password: they choose their own before using the app. */
-  mustChangePassword: boolean;
-}
+/** The signed-in person as the server answers them (server/contracts/users.ts). */
+export type SignedInUser = SessionUser;

@@ -2,19 +2,11 @@ import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query'
 import { api, type ListParams, type ListResponse } from '@/lib/api-client';
 import type { Role } from '@/lib/roles';
 import { userKeys } from './user-keys';
+import type { UserListItem } from '@contracts/users';
 
 export const USER_SORTS = ['name', 'email', 'role', 'createdAt'] as const;
 
-export interface UserListItem {
-  id: number;
-  name: string;
-  email: string;
-  role: Role;
-  active: boolean;
-  /** Their password is one a manager set; they choose their own at next sign-in. */
-  mustChangePassword: boolean;
-  createdAt: string;
-}
+export type { UserListItem } from '@contracts/users';
 
 export interface UserListParams extends ListParams {
   /** Name or e-mail, partial. */
