@@ -315,7 +315,8 @@ export function predictFromSummary(s: WearSummary, opts: PredictOptions): Predic
   const ageDays = Math.max(0, daysBetween(opts.installedAt, opts.asOf));
   // wear before the records (opening, and a test-lane offset): a level it alone reaches was
   // passed before the first trip on record; that day is estimated as if the damper's wear had
-  // grown evenly from its fitting to today (stated in the basis)
+  // grown evenly from its fitting to today (stated in the basis), and is never later than the
+  // first day on record (`firstDay`: for such a level, the first recorded day reaches it)
   const before = opening.wearKm + (opts.life.offsetWearKm ?? 0);
   let estimatedBefore = false;
   const reached = (level: number, cum: number, r: number, firstDay: string | null): string | null => {
@@ -329,7 +330,8 @@ export function predictFromSummary(s: WearSummary, opts: PredictOptions): Predic
   const reachedWear = (level: number, firstDay: string | null): string | null => {
     if (W >= level && level <= before && W > 0 && ageDays > 0) {
       estimatedBefore = true;
-      return plusDays(opts.installedAt, Math.max(0, Math.floor((level / W) * ageDays)));
+      const even = plusDays(opts.installedAt, Math.max(0, Math.floor((level / W) * ageDays)));
+      return firstDay !== null && firstDay < even ? firstDay : even;
     }
     return reached(level, W, rate, firstDay);
   };

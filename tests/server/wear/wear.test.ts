@@ -332,6 +332,14 @@ describe('the prediction from a summary', () => {
     expect(p.basis.opening).toBe('none: the trips on record cover the distance since fitting');
   });
 
+  it('when a level passed before the records would be dated by even growth after the first day on record, then it is dated on that first day (a level passed before the records cannot be passed later)', () => {
+    // as in the case above, P10 40 000 is passed by the 50 000 offset alone; even growth gives
+    // 2026-05-29, but the records start on 2026-03-01 (the first recorded day reaches it)
+    const s = summary({ cumWearKm: 40_000, levelDays: ['2026-11-20', null, '2026-03-01', null] });
+    const p10 = predictFromSummary(s, opts({ life: { ...life, p10WearKm: 40_000, offsetWearKm: 50_000 } }));
+    expect(p10.endOfLifeP10Date).toBe('2026-03-01');
+  });
+
   it('when the test-lane offset alone reaches the threshold exactly, then the threshold is dated by even growth, not on the record (computed: 80 000/90 000 × 333 days = day 296)', () => {
     const s = summary({ cumWearKm: 10_000, levelDays: ['2026-11-03', null, null, null] });
     const p = predictFromSummary(s, opts({ life: { ...life, offsetWearKm: 80_000 } }));
