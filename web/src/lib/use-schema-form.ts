@@ -32,9 +32,17 @@ export function useSchemaForm<S extends z.ZodType<FieldValues, FieldValues>>(sch
 export type SchemaForm = ReturnType<typeof useSchemaForm>;
 
 /**
- * A number field typed as text: blank is "not given" (the schema's own message then says what is
- * wanted), a decimal comma is read as a point, anything else is passed to the schema as it is.
+ * A number field typed as text (or a choice whose value is an id): blank is "not given" (the
+ * schema's own message then says what is wanted, or `blank` when given, e.g. "Choose a depot."), a
+ * decimal comma is read as a point, anything else is passed to the schema as it is.
  */
-export function fromText<S extends z.ZodType>(schema: S) {
-  return zPreprocess((v) => (typeof v === 'string' ? (v.trim() === '' ? undefined : Number(v.trim().replace(',', '.'))) : v), schema);
+export function fromText<S extends z.ZodType>(schema: S, blank?: string) {
+  return zPreprocess((v, ctx) => {
+    if (typeof v !== 'string') return v;
+    if (v.trim() === '') {
+      if (blank) ctx.addIssue({ code: 'custom', message: blank });
+      return undefined;
+    }
+    return Number(v.trim().replace(',', '.'));
+  }, schema);
 }
