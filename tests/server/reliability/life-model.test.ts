@@ -84,26 +84,31 @@ describe('life model prior', () => {
 describe('life model fit on a synthetic fleet with a known true law (computed)', () => {
   const truth = { bTrue: 1.0, cTrue: 1.3, kTrue: 3.5 };
   const units = syntheticFleet(400, 11, truth);
-  const m = fitLifeModel(units);
+  // fitted inside each test: a mutant under test is active only while a test runs, not while the suite is collected
+  const fitted = () => fitLifeModel(units);
 
   it('counts failures and suspensions', () => {
+    const m = fitted();
     expect(m.source).toBe('fleet');
     expect(m.failures + m.suspensions).toBe(400);
     expect(m.failures).toBeGreaterThan(100);
   });
 
   it.each(Object.entries(CLASS_SEVERITY))('recovers the median life on class %s within 25 %', (_cls, s) => {
+    const m = fitted();
     const trueMedian = (RATED * truth.cTrue * Math.pow(Math.log(2), 1 / truth.kTrue)) / Math.pow(s, truth.bTrue);
-    const fitted = lifeKmAt(m, RATED, s, 0.5);
-    expect(Math.abs(fitted / trueMedian - 1)).toBeLessThan(0.25);
+    const median = lifeKmAt(m, RATED, s, 0.5);
+    expect(Math.abs(median / trueMedian - 1)).toBeLessThan(0.25);
   });
 
   it('moves the road sensitivity from the prior toward the truth', () => {
+    const m = fitted();
     const p = priorModel();
     expect(Math.abs(m.b - truth.bTrue)).toBeLessThan(Math.abs(p.b - truth.bTrue));
   });
 
   it('is the posterior mode: no point of a grid around it scores higher (independent search)', () => {
+    const m = fitted();
     const best = logPosterior(units, [m.beta0, m.b, Math.log(1 / m.shape)]);
     for (const d0 of [-0.02, 0, 0.02]) {
       for (const d1 of [-0.02, 0, 0.02]) {
@@ -116,17 +121,20 @@ describe('life model fit on a synthetic fleet with a known true law (computed)',
   });
 
   it('moves more toward the data with more removals: 40 dampers stay nearer the prior than 400', () => {
+    const m = fitted();
     const small = fitLifeModel(syntheticFleet(40, 5, truth));
     const p = priorModel();
     expect(Math.abs(small.b - p.b)).toBeLessThan(Math.abs(m.b - p.b) + 0.05);
   });
 
   it('mean life is scale·Γ(1 + 1/k) (Weibull mean, published identity)', () => {
+    const m = fitted();
     const scale = RATED * Math.exp(m.beta0);
     expect(meanLifeKmAt(m, RATED, 1)).toBeCloseTo(scale * gammaFn(1 + 1 / m.shape), 6);
   });
 
   it('round-trips through JSON', () => {
+    const m = fitted();
     const back = modelFromJson(JSON.parse(JSON.stringify(modelToJson(m))));
     expect(back.beta0).toBe(m.beta0);
     expect(back.b).toBe(m.b);
@@ -274,11 +282,15 @@ describe('life model fit: the posterior mode, against true laws unlike the prior
   // true law: shape 3.5 (prior 2.5), scale 1.3 × rated at severity 1 (prior ≈ 1.16), b = 1 (prior 0.585)
   const truth = { bTrue: 1.0, cTrue: 1.3, kTrue: 3.5 };
   const big = syntheticFleet(2000, 21, truth);
-  const m = fitLifeModel(big);
-  const theta = [m.beta0, m.b, Math.log(1 / m.shape)];
-  const { grad, info } = curvature(big, theta);
+  // fitted inside each test: a mutant under test is active only while a test runs, not while the suite is collected
+  const fitBig = () => {
+    const m = fitLifeModel(big);
+    const theta = [m.beta0, m.b, Math.log(1 / m.shape)];
+    return { m, theta, ...curvature(big, theta) };
+  };
 
   it('when fitted to 2000 dampers, then the log posterior is flat at the result (its gradient, by central differences, vanishes)', () => {
+    const { theta, grad } = fitBig();
     // Hessian entries are ~10³–10⁵ here; a point off the mode by 1e-6 in any coordinate would show a gradient ≳ 1e-3
     for (const g of grad) expect(Math.abs(g)).toBeLessThan(2e-3);
     for (const d of [-1e-3, 1e-3]) {
@@ -287,6 +299,7 @@ describe('life model fit: the posterior mode, against true laws unlike the prior
   });
 
   it('when fitted to 2000 dampers, then β0, b and the shape recover the true law within 3.5 standard errors of the posterior (errors from its curvature, ~1/√failures)', () => {
+    const { m, theta, info } = fitBig();
     const se = standardErrors(info);
     const trueTheta = [Math.log(truth.cTrue), truth.bTrue, Math.log(1 / truth.kTrue)];
     trueTheta.forEach((t, i) => expect(Math.abs(theta[i] - t), `θ${i}: fit ${theta[i]}, true ${t}, se ${se[i]}`).toBeLessThan(3.5 * se[i]));

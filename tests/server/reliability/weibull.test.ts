@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 // censored Weibull log-likelihood written out again below.
 // @ts-expect-error numeric ships no type declarations
 import numeric from 'numeric';
-import { fitWeibull, gamma, parseLifeCsv, weibullLogLikelihood, weibullPlotPoints, weibullSurvival, type LifeObservation } from '../../../server/reliability/weibull';
+import { fitWeibull, gamma, parseLifeCsv, weibullLogLikelihood, weibullPlotPoints, weibullSurvival, WeibullInputError, type LifeObservation } from '../../../server/reliability/weibull';
 import { weibullCommand } from '../../../server/cli/weibull';
 
 /** Independent log-likelihood (written from the density and survival function, not shared code). */
@@ -254,6 +254,18 @@ describe('Weibull fit checked against published, closed-form and general results
     for (const bad of [0, -5, Number.NaN, Number.POSITIVE_INFINITY]) {
       expect(() => fitWeibull([{ life: 10, failed: true }, { life: bad, failed: false }, { life: 30, failed: true }])).toThrow(/^weibull: row 2: life must be a positive number/);
     }
+  });
+
+  it('when the input is refused, then the error is a WeibullInputError by name and class', () => {
+    let err: unknown;
+    try {
+      fitWeibull([]);
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(WeibullInputError);
+    expect((err as Error).name).toBe('WeibullInputError');
+    expect((err as Error).message).toBe('weibull: needs at least 2 failures to fit (got 0)');
   });
 
   it('when the failures all lie at one life, then the fit refuses (no shape can be estimated)', () => {
