@@ -152,6 +152,16 @@ describe('synthesizeProfile', () => {
     }
   });
 
+  it('when a band of many harmonics is synthesised, then the elevations are Gaussian: 68.3 % within ±σ and 95.4 % within ±2σ (central limit theorem over independent random phases)', () => {
+    const dx = 0.05;
+    const size = 8192;
+    const z = synthesizeProfile({ gdN0: 256e-6, lengthM: (size - 1) * dx, dxM: dx, seed: 13, nMinCyclesPerM: 0.5, nMaxCyclesPerM: 3 });
+    const sigma = Math.sqrt(z.reduce((t, v) => t + v * v, 0) / size);
+    const within = (m: number): number => z.filter((v) => Math.abs(v) < m * sigma).length / size;
+    checkClose(within(1), 0.6827, { abs: 0.02 }, 'normal law: P(|Z| < 1)', { harmonics: Math.round((3 - 0.5) * size * dx) });
+    checkClose(within(2), 0.9545, { abs: 0.01 }, 'normal law: P(|Z| < 2)', {});
+  });
+
   it('when the band is limited to [10·Δn, 100·Δn], then both edge harmonics are kept (computed, Parseval)', () => {
     const dx = 0.25;
     const size = 1024;
