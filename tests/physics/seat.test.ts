@@ -51,5 +51,9 @@ describe('floor-to-seat factors', () => {
     for (const v of [0.1, 2.1]) checkThat(errorOf(() => floorToSeat({ vehicleClass: 'passenger car', seatFactor: v, cabFactor: null })).startsWith('physics: seatFactor'), 'house rule', `seat ${v}`);
     for (const v of [0.1, 1.6]) checkThat(errorOf(() => floorToSeat({ vehicleClass: 'passenger car', seatFactor: null, cabFactor: v })).startsWith('physics: cabFactor'), 'house rule', `cab ${v}`);
     checkClose(floorToSeat({ vehicleClass: 'passenger car', seatFactor: 0.2, cabFactor: 1.5 }).total, 0.2 * 1.5 * Math.sqrt(0.75), { rel: 1e-15 }, 'computed: bounds accepted', {});
+    checkClose(floorToSeat({ vehicleClass: 'passenger car', seatFactor: 2, cabFactor: 0.2 }).total, 2 * 0.2 * Math.sqrt(0.75), { rel: 1e-15 }, 'computed: bounds accepted', {});
+    for (const [seatFactor, cabFactor] of [[3, null], [null, 3]]) {
+      checkThat(errorOf(() => floorToSeat({ vehicleClass: 'passenger car', seatFactor, cabFactor })).includes('[1]'), 'house rule: the error gives the unit, 1 for a ratio', errorOf(() => floorToSeat({ vehicleClass: 'passenger car', seatFactor, cabFactor })));
+    }
   });
 });
