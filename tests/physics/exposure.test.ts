@@ -154,6 +154,21 @@ describe('Directive 2002/44/EC exposure', () => {
     }
   });
 
+  it('when a value is refused, then the error gives its name and unit; zero exposure, zero a_w and 10 Hz sampling are accepted (house rule; bounds of the inputs)', () => {
+    const cases: [() => unknown, string][] = [
+      [() => wkWeight(-1), 'physics: fHz [Hz]'],
+      [() => weightedRms([0, 0, 0], 9, 0), 'physics: sampleRateHz [Hz]'],
+      [() => weightedRms([0, 0, 0], 100, -1), 'physics: settleS [s]'],
+      [() => weightedRms([1], 100), 'physics: series [m/s²] needs at least 2 samples'],
+      [() => dailyA8(null as unknown as []), 'physics: trips [-] must be an array'],
+      [() => dailyA8([{ weightedAccel: -1, hours: 1 }]), 'physics: trips[0].weightedAccel [m/s²]'],
+      [() => exposureStatus(-1), 'physics: a8 [m/s²]'],
+    ];
+    for (const [f, start] of cases) checkThat(errorOf(f).startsWith(start), 'house rule', `"${errorOf(f)}" should start with "${start}"`);
+    checkClose(dailyA8([{ weightedAccel: 0, hours: 0 }, { weightedAccel: 0.5, hours: 8 }]), 0.5, { rel: 1e-15 }, 'property: a zero trip adds nothing', {});
+    checkClose(weightedRms(new Float64Array(40), 10, 0), 0, { abs: 0 }, 'definition: no input, no output; 10 Hz is the lowest rate', {});
+  });
+
   it('when the trips are not an array or a value is out of range, then the error names it', () => {
     checkThat(errorOf(() => dailyA8(null as unknown as [])).startsWith('physics: trips'), 'house rule', '');
     checkThat(errorOf(() => dailyA8([{ weightedAccel: 101, hours: 1 }])).startsWith('physics: trips[0].weightedAccel'), 'house rule', '');
