@@ -184,6 +184,40 @@ describe('synthesizeProfile', () => {
     checkThat(low.some((v) => v !== 0) && high.some((v) => v !== 0), 'property', 'both bands carry harmonics');
   });
 
+  it('when the band holds one harmonic k, then the profile is amp·cos(2π·k·i/M + 2π·u_k) with amp = √(2·Gd(n_k)·Δn) and u_k the k-th draw of the seeded generator (definition of the random-phase method, docs of synthesizeProfile)', () => {
+    const dx = 0.25;
+    const size = 256;
+    const dn = 1 / (size * dx);
+    for (const [k, seed] of [[5, 3], [17, 8]]) {
+      const gd = 64e-6;
+      const z = synthesizeProfile({ gdN0: gd, lengthM: (size - 1) * dx, dxM: dx, seed, nMinCyclesPerM: (k - 0.5) * dn, nMaxCyclesPerM: (k + 0.5) * dn });
+      const r = seededRandom(seed);
+      let u = 0;
+      for (let j = 1; j <= k; j++) u = r();
+      const amp = Math.sqrt(2 * gd * ((k * dn) / 0.1) ** -2 * dn); // n0 = 0.1 cycles/m (ISO 8608)
+      z.forEach((v, i) => checkClose(v, amp * Math.cos((2 * Math.PI * k * i) / size + 2 * Math.PI * u), { abs: 1e-12 * amp }, 'definition: one harmonic with its seeded phase', { k, seed, i }));
+    }
+  });
+
+  it('when an option is refused, then the error gives its name and unit; Gd(n0) = 0, the lowest seed and waviness 0.5 are accepted (house rule; bounds of the inputs)', () => {
+    const ok = { gdN0: 64e-6, lengthM: 10, dxM: 0.25, seed: 1 };
+    const cases: [() => unknown, string][] = [
+      [() => synthesizeProfile({ ...ok, gdN0: -1e-6 }), 'physics: gdN0 [m³]'],
+      [() => synthesizeProfile({ ...ok, lengthM: 0 }), 'physics: lengthM [m] must be > 0'],
+      [() => synthesizeProfile({ ...ok, lengthM: 0.1 }), 'physics: lengthM [m] must cover'],
+      [() => synthesizeProfile({ ...ok, lengthM: 1e6, dxM: 0.001 }), 'physics: lengthM [m] gives'],
+      [() => synthesizeProfile({ ...ok, dxM: 0.0005 }), 'physics: dxM [m]'],
+      [() => synthesizeProfile({ ...ok, seed: 2 ** 54 }), 'physics: seed [1]'],
+      [() => synthesizeProfile({ ...ok, waviness: 4.5 }), 'physics: waviness [1]'],
+      [() => classifyGd(0), 'physics: gdN0 [m³]'],
+      [() => gdForClass('Z'), 'physics: cls [ISO 8608 class] must be one of A–H'],
+    ];
+    for (const [f, start] of cases) checkThat(errorOf(f).startsWith(start), 'house rule', `"${errorOf(f)}" should start with "${start}"`);
+    checkThat(synthesizeProfile({ ...ok, gdN0: 0 }).every((v) => v === 0), 'definition: a perfectly smooth road', '');
+    checkClose(synthesizeProfile({ ...ok, seed: -(2 ** 53) }).length, 41, { abs: 0 }, 'definition: lowest seed accepted', {});
+    checkClose(synthesizeProfile({ ...ok, waviness: 0.5 }).length, 41, { abs: 0 }, 'definition: waviness 0.5 accepted', {});
+  });
+
   it('when the profile is one sample interval or less, or more than 2^26 samples, then the error names lengthM', () => {
     checkThat(errorOf(() => synthesizeProfile({ gdN0: 64e-6, lengthM: 0.1, dxM: 0.25, seed: 1 })).startsWith('physics: lengthM'), 'house rule', '');
     checkThat(errorOf(() => synthesizeProfile({ gdN0: 64e-6, lengthM: 1e6, dxM: 0.001, seed: 1 })).startsWith('physics: lengthM'), 'house rule: 10⁹ samples', '');
