@@ -106,6 +106,15 @@ describe('rainflowDamage (the nightly job\'s form)', () => {
     }
   });
 
+  it('when a converging series of 3000 reversals is counted, then every range stays on the stack and ends as a half cycle: D = ½·Σ (5999 − 2i)ᵏ / C (ASTM E1049-85 §5.4.4 residue, computed)', () => {
+    const len = 3000;
+    const x = Float64Array.from({ length: len }, (_, i) => (i % 2 ? -1 : 1) * (len - i));
+    let exp = 0;
+    for (let i = 0; i + 1 < len; i++) exp += 0.5 * (5999 - 2 * i) ** 2;
+    checkClose(rainflowDamage(x, len, 2, 10), exp / 10, { rel: 1e-12 }, 'computed: ranges 5999, 5997, … 3 as half cycles', { len });
+    checkClose(minerDamage(rainflow(x), { k: 2, C: 10 }), exp / 10, { rel: 1e-12 }, 'computed: the same with the cycle list', { len });
+  });
+
   it('when only the first len samples are to be used, then the samples after them are ignored (definition)', () => {
     const x = Float64Array.from([...ASTM, 100, -100, 100]);
     checkClose(rainflowDamage(x, ASTM.length, 1, 1), 23, { rel: 1e-15 }, 'ASTM E1049-85 §5.4.4: Σ n·S = 23', {});
@@ -139,8 +148,17 @@ describe('Miner and Basquin', () => {
   it('when the damage sum overflows or C is not positive, then the error says so', () => {
     checkThat(/damage sum/.test(errorOf(() => minerDamage([{ range: 1e200, count: 1 }], { k: 3, C: 1 }))), 'house rule', '');
     checkThat(errorOf(() => minerDamage([], { k: 3, C: 0 })).startsWith('physics: C'), 'house rule', '');
-    checkThat(errorOf(() => minerDamage([], { k: 51, C: 1 })).startsWith('physics: k'), 'house rule: k ≤ 50', '');
+    checkThat(errorOf(() => minerDamage([], { k: 51, C: 1 })).startsWith('physics: k [1]'), 'house rule: k ≤ 50', '');
+    checkThat(errorOf(() => minerDamage([], { k: 3, C: -1 })).startsWith('physics: C [unit^k]'), 'house rule', '');
+    checkThat(errorOf(() => minerDamage([], undefined as unknown as { k: number; C: number })).startsWith('physics: k [1]'), 'house rule: no curve', '');
+    checkThat(errorOf(() => minerDamage([], { k: 3 } as unknown as { k: number; C: number })).startsWith('physics: C [unit^k]'), 'house rule: no constant', '');
     checkClose(minerDamage([], { k: 3, C: 1 }), 0, { abs: 0 }, 'definition: no cycles', {});
+  });
+
+  it('when Γ is evaluated at 10⁻⁶, then it follows Γ(ε) = 1/ε − γ + (γ²/2 + π²/12)·ε (Laurent series about 0, computed)', () => {
+    const eps = 1e-6;
+    const euler = 0.5772156649015329;
+    checkClose(gamma(eps), 1 / eps - euler + (euler ** 2 / 2 + Math.PI ** 2 / 12) * eps, { rel: 1e-14 }, 'Laurent series of Γ about 0; Euler–Mascheroni γ', { eps });
   });
 
   it('when Γ is evaluated below ½, then Γ(0.25) = 3.6256099082 and Γ(0.1) = 9.5135076987, and Γ(x + 1) = x·Γ(x) holds across ½ (from memory; property)', () => {
@@ -181,10 +199,11 @@ describe('spectral fatigue (Dirlik, narrow band)', () => {
   });
 
   it('when the grid is short, mismatched or not increasing, or a PSD value is negative, then the error names it', () => {
-    checkThat(errorOf(() => spectralMoments([1], [1])).startsWith('physics: psd'), 'house rule', '');
-    checkThat(errorOf(() => spectralMoments([1, 2, 3], [1, 1])).startsWith('physics: psd'), 'house rule', '');
-    checkThat(errorOf(() => spectralMoments([1, 2, 2], [1, 1, 1])).startsWith('physics: freqsHz[2]'), 'house rule', '');
-    checkThat(errorOf(() => spectralMoments([1, 2], [1, -1])).startsWith('physics: psd[1]'), 'house rule', '');
+    checkThat(errorOf(() => spectralMoments([1], [1])).startsWith('physics: psd [unit²/Hz] needs the same length'), 'house rule', '');
+    checkThat(errorOf(() => spectralMoments([1, 2, 3], [1, 1])).startsWith('physics: psd [unit²/Hz] needs the same length'), 'house rule', errorOf(() => spectralMoments([1, 2, 3], [1, 1])));
+    checkThat(errorOf(() => spectralMoments([1, 2, 2], [1, 1, 1])).startsWith('physics: freqsHz[2] [Hz] must be strictly increasing'), 'house rule', '');
+    checkThat(errorOf(() => spectralMoments([1, -2], [1, 1])).startsWith('physics: freqsHz[1] [Hz]'), 'house rule', '');
+    checkThat(errorOf(() => spectralMoments([1, 2], [1, -1])).startsWith('physics: psd[1] [unit²/Hz]'), 'house rule', '');
     checkClose(spectralMoments([0, 1], [0, 2]).m0, 1, { rel: 1e-15 }, 'computed: 0 Hz and a zero PSD value are allowed', {});
   });
 
@@ -243,17 +262,19 @@ describe('spectral fatigue (Dirlik, narrow band)', () => {
 
   it('when a moment is zero, a duration negative, a range negative or the spectrum a pure tone, then the error names it', () => {
     const m = { m0: 1, m1: 10, m2: 100, m4: 10000 };
-    checkThat(errorOf(() => narrowBandDamage({ ...m, m0: 0 }, { k: 2, C: 1, durationS: 1 })).startsWith('physics: m0'), 'house rule', '');
-    checkThat(errorOf(() => narrowBandDamage({ ...m, m2: 0 }, { k: 2, C: 1, durationS: 1 })).startsWith('physics: m2'), 'house rule', '');
-    checkThat(errorOf(() => narrowBandDamage(m, { k: 2, C: 1, durationS: -1 })).startsWith('physics: durationS'), 'house rule', '');
-    checkThat(errorOf(() => dirlikDamage(m, { k: 2, C: 1, durationS: -1 })).startsWith('physics: durationS'), 'house rule', '');
+    checkThat(errorOf(() => narrowBandDamage({ ...m, m0: 0 }, { k: 2, C: 1, durationS: 1 })).startsWith('physics: m0 [unit²]'), 'house rule', '');
+    checkThat(errorOf(() => narrowBandDamage({ ...m, m2: 0 }, { k: 2, C: 1, durationS: 1 })).startsWith('physics: m2 [unit²·Hz²]'), 'house rule', '');
+    checkThat(errorOf(() => narrowBandDamage(m, { k: 2, C: 1, durationS: -1 })).startsWith('physics: durationS [s]'), 'house rule', '');
+    checkThat(errorOf(() => dirlikDamage(m, { k: 2, C: 1, durationS: -1 })).startsWith('physics: durationS [s]'), 'house rule', '');
     checkThat(errorOf(() => dirlikDamage(m, { k: 0, C: 1, durationS: 1 })).startsWith('physics: k'), 'house rule', '');
-    checkThat(errorOf(() => dirlikParams({ ...m, m4: 0 })).startsWith('physics: m4'), 'house rule', '');
+    checkThat(errorOf(() => dirlikParams({ ...m, m4: 0 })).startsWith('physics: m4 [unit²·Hzⁱ]'), 'house rule', '');
+    checkClose(narrowBandDamage(m, { k: 2, C: 1, durationS: 0 }), 0, { abs: 0 }, 'definition: no time, no damage', {});
     // a pure tone at 10 Hz: γ = 1, Dirlik's R is 0/0
     checkThat(/Dirlik parameter/.test(errorOf(() => dirlikParams(m))), 'Dirlik 1985: degenerate for γ = 1', errorOf(() => dirlikParams(m)));
     const { f, g } = bandSpectrum(10, 2, 11);
     const broad = spectralMoments(f, g);
-    checkThat(errorOf(() => dirlikDensity(broad, -1)).startsWith('physics: rangeS'), 'house rule', '');
+    checkThat(errorOf(() => dirlikDensity(broad, -1)).startsWith('physics: rangeS [unit]'), 'house rule', '');
+    checkClose(dirlikDamage(broad, { k: 2, C: 1, durationS: 0 }), 0, { abs: 0 }, 'definition: no time, no damage', {});
   });
 
   it('when a flat band is integrated, then the moments are analytic (computed)', () => {
