@@ -121,7 +121,9 @@ describe('iri', () => {
     const z = new Float64Array(200);
     z[7] = Infinity;
     checkThat(errorOf(() => iri(z, 0.25)).includes('profileM[7]'), 'house rule', errorOf(() => iri(z, 0.25)));
-    checkThat(errorOf(() => iri(new Float64Array(5000), 1.5)).startsWith('physics: dxM'), 'house rule: 1 mm – 1 m', '');
+    checkThat(errorOf(() => iri(new Float64Array(5000), 1.5)).startsWith('physics: dxM [m]'), 'house rule: 1 mm – 1 m', '');
+    checkThat(errorOf(() => goldenCarST_PR(0.0005)).startsWith('physics: dxM [m]'), 'house rule: 1 mm – 1 m', '');
+    checkClose(goldenCarST_PR(1).ST.length, 16, { abs: 0 }, 'definition: 1 m is the coarsest interval accepted', {});
   });
 
   it('when the profile is shorter than 11 m, then the error names profileM', () => {
@@ -184,7 +186,9 @@ describe('iriSegments bounds', () => {
     const segs = iriSegments(z, 0.05, 100);
     checkClose(segs.length, 2, { abs: 0 }, 'definition', {});
     checkThat(segs.every((x) => Number.isFinite(x.iri)), 'definition', JSON.stringify(segs));
-    checkThat(errorOf(() => iriSegments(z, 0.05, 0.5)).startsWith('physics: segmentM'), 'house rule: ≥ 1 m', '');
+    checkThat(errorOf(() => iriSegments(z, 0.05, 0.5)).startsWith('physics: segmentM [m]'), 'house rule: ≥ 1 m', '');
+    checkThat(errorOf(() => iriSegments(z, 0.05, 100, { startM: 2e9 })).startsWith('physics: startM [m]'), 'house rule', '');
+    checkClose(iriSegments(z, 0.05, 100, { startM: -250 })[1].startM, -150, { abs: 1e-9 }, 'definition: bounds offset by startM', {});
   });
 });
 
@@ -203,8 +207,9 @@ describe('IRI ↔ Gd(n0) for w = 2 roads', () => {
     checkClose(gdFromIri(3 * iriFromGd(64e-6)), 9 * 64e-6, { rel: 1e-12 }, 'property', {});
     checkThat(iriFromGd(64e-6) === iriFromGd(64e-6, 0.05) && gdFromIri(4) === gdFromIri(4, 0.05), 'docs/methods.md "Road roughness": reference interval 0.05 m', '');
     checkClose(iriFromGd(0), 0, { abs: 0 }, 'definition', {});
-    checkThat(errorOf(() => iriFromGd(1.5)).startsWith('physics: gdN0') && errorOf(() => gdFromIri(-1)).startsWith('physics: iri'), 'house rule', '');
-    checkThat(errorOf(() => iriPerSqrtGdForInterval(0.31)).startsWith('physics: dxM'), 'house rule: 1 mm – 0.3 m', '');
+    checkClose(gdFromIri(0), 0, { abs: 0 }, 'definition', {});
+    checkThat(errorOf(() => iriFromGd(1.5)).startsWith('physics: gdN0 [m³]') && errorOf(() => gdFromIri(-1)).startsWith('physics: iri [m/km]'), 'house rule', '');
+    checkThat(errorOf(() => iriPerSqrtGdForInterval(0.31)).startsWith('physics: dxM [m]'), 'house rule: 1 mm – 0.3 m', '');
   });
 
   it('when converted there and back, then Gd(n0) is recovered (property)', () => {
