@@ -22,7 +22,7 @@ function linInterp(z: number[], dx: number, x: number): number {
 describe('bandLimitProfile', () => {
   it('when a smooth long-wave bump on a slope is resampled 4× finer, then every fine sample lies on the true curve (computed: the bump has no content near the band edge)', () => {
     const dx = 0.25;
-    const n = 64;
+    const n = 50; // padded with zeros to 64 for the FFT
     const len = (n - 1) * dx;
     // true law: a sin² bump (zero value and slope at both ends) plus a straight line and an offset
     const truth = (x: number): number => 0.012 * Math.sin((Math.PI * x) / len) ** 2 + 0.004 * x - 0.03;
@@ -72,6 +72,20 @@ describe('bandLimitProfile', () => {
     const xs = Math.PI * (3 / (size * dx)) * dx;
     const gain = 1 / (Math.sin(xs) / xs) ** 2;
     for (let i = 0; i < size; i++) checkClose(r.elevationsM[i], gain * low(i), { abs: 1e-12 }, 'computed: ideal low-pass at 3 cycles/m', { i });
+    // a wave exactly at the band limit is kept (the band includes its limit)
+    const atLimit = bandLimitProfile(z, dx, { maxCyclesPerM: 3 / (size * dx) });
+    for (let i = 0; i < size; i++) checkClose(atLimit.elevationsM[i], gain * low(i), { abs: 1e-12 }, 'definition: band limit inclusive', { i });
+  });
+
+  it('when the band reaches past the Nyquist frequency of the input, then every resolvable wave is kept and nothing is invented above them (computed)', () => {
+    const size = 64;
+    const dx = 0.25;
+    const w = binCos(size, 20, 0.01);
+    const r = bandLimitProfile(Array.from({ length: size }, (_, i) => w(i)), dx, { maxCyclesPerM: 1000 });
+    const nu = 20 / (size * dx);
+    const xs = Math.PI * nu * r.dxM;
+    const gain = 1 / (Math.sin(xs) / xs) ** 2;
+    for (let j = 0; j < r.elevationsM.length; j++) checkClose(r.elevationsM[j], gain * 0.01 * Math.cos(2 * Math.PI * nu * (j * r.dxM + dx / 2)), { abs: 1e-12 }, 'computed: the one input wave, pre-compensated', { j });
   });
 
   it('when the spacing is an exact power of two above the target, then the factor is that power; a coarser target keeps the spacing (computed: 0.16 m / 0.08 m = 2, 0.3 m / 0.08 m → 4)', () => {

@@ -175,8 +175,11 @@ describe('modes against closed forms', () => {
   });
 
   it('when the modes are multiplied back into a polynomial, then it is the characteristic polynomial of the equations of motion, for light, usual, heavy and over-damped corners (computed: Vieta)', () => {
-    for (const cs of [5, 1800, 5000, 9000, 30000, 200000]) {
-      const c = { ...CAR, dampingNsPerM: cs };
+    // the last corner: a light body on a soft spring, over-damped, below a lightly damped wheel hop
+    const corners = [5, 1800, 5000, 9000, 30000, 200000].map((cs) => ({ ...CAR, dampingNsPerM: cs }));
+    corners.push({ sprungMassKg: 100, unsprungMassKg: 45, springRateNPerM: 35500, dampingNsPerM: 5000, tireRateNPerM: 400000 });
+    for (const c of corners) {
+      const cs = c.dampingNsPerM;
       const want = charPoly(c);
       const got = polyFromModes(c);
       for (let k = 0; k < 4; k++) checkClose(got[k], want[k], { rel: 1e-7 }, 'computed: characteristic polynomial', { cs, k });
@@ -210,6 +213,39 @@ describe('modes against closed forms', () => {
 });
 
 describe('cornerTransfer against closed forms', () => {
+  it('when a damped corner is solved directly as a 2×2 complex system, then all four complex transfer values agree, real and imaginary parts (computed: Cramer\'s rule on the equations of motion)', () => {
+    const { sprungMassKg: ms, unsprungMassKg: mu, springRateNPerM: ks, dampingNsPerM: cs, tireRateNPerM: kt } = CAR;
+    type Cx = [number, number];
+    const mul = (a: Cx, b: Cx): Cx => [a[0] * b[0] - a[1] * b[1], a[0] * b[1] + a[1] * b[0]];
+    const div = (a: Cx, b: Cx): Cx => {
+      const d = b[0] * b[0] + b[1] * b[1];
+      return [(a[0] * b[0] + a[1] * b[1]) / d, (a[1] * b[0] - a[0] * b[1]) / d];
+    };
+    for (const f of [0.7, 1.2, 4, 11, 30]) {
+      const w = 2 * Math.PI * f;
+      const k: Cx = [ks, w * cs];
+      const a11: Cx = [ks - ms * w * w, w * cs];
+      const a22: Cx = [ks + kt - mu * w * w, w * cs];
+      const det = mul(a11, a22);
+      const kk = mul(k, k);
+      const d: Cx = [det[0] - kk[0], det[1] - kk[1]];
+      const zs = div(mul(k, [kt, 0]), d);
+      const zu = div(mul(a11, [kt, 0]), d);
+      const travel: Cx = [zs[0] - zu[0], zs[1] - zu[1]];
+      const want: Record<string, Cx> = {
+        bodyAccel: [-w * w * zs[0], -w * w * zs[1]],
+        suspensionTravel: travel,
+        relativeVelocity: [-w * travel[1], w * travel[0]],
+        tireLoad: [kt * (1 - zu[0]), -kt * zu[1]],
+      };
+      const t = cornerTransfer(CAR, f);
+      for (const name of Object.keys(want) as (keyof typeof t)[]) {
+        const scale = Math.hypot(...want[name]);
+        for (const part of [0, 1]) checkClose(t[name][part], want[name][part], { abs: 1e-9 * scale }, 'computed: Cramer\'s rule', { f, name, part });
+      }
+    }
+  });
+
   it('when the corner is undamped, then Zs/Zr = kt·ks/Δ and the tyre load is −kt(Zu/Zr − 1) with Δ real (computed from docs/methods.md "The corner model")', () => {
     const c: CornerParams = { ...CAR, dampingNsPerM: 1 };
     const { sprungMassKg: ms, unsprungMassKg: mu, springRateNPerM: ks, tireRateNPerM: kt } = c;
