@@ -176,7 +176,7 @@ describe('modes against closed forms', () => {
 
   it('when the modes are multiplied back into a polynomial, then it is the characteristic polynomial of the equations of motion, for light, usual, heavy and over-damped corners (computed: Vieta)', () => {
     // the last corner: a light body on a soft spring, over-damped, below a lightly damped wheel hop
-    const corners = [5, 1800, 5000, 9000, 30000, 200000].map((cs) => ({ ...CAR, dampingNsPerM: cs }));
+    const corners: CornerParams[] = [5, 1800, 5000, 9000, 30000, 200000].map((cs) => ({ ...CAR, dampingNsPerM: cs }));
     corners.push({ sprungMassKg: 100, unsprungMassKg: 45, springRateNPerM: 35500, dampingNsPerM: 5000, tireRateNPerM: 400000 });
     for (const c of corners) {
       const cs = c.dampingNsPerM;
