@@ -222,8 +222,10 @@ export function dampingFromAdhesion(
   }
   const aMin = at(csMin);
   if (measuredPct <= aMin) {
-    if (measuredPct === 0 || aMin === 0) {
-      // find the threshold below which adhesion is 0 % for the message
+    if (aMin === 0) {
+      // 0 % measured where the lowest damping searched also gives 0 %: find the threshold below
+      // which adhesion is 0 % for the message (when the lowest damping searched gives more than
+      // 0 %, every damping searched is above that threshold and the message below says so)
       let l = Math.log(csMin);
       let h = Math.log(upper);
       for (let i = 0; i < 60; i++) {

@@ -88,7 +88,7 @@ export interface CornerModes {
  * The two modes of a corner (body bounce, wheel hop) from the eigenvalues of A.
  *
  * Each mode is a pair of eigenvalues λ; natural frequency |λ|/2π, damping ratio −Re λ/|λ|.
- * The two smallest-magnitude eigenvalues form body bounce. An over-damped mode (two real
+ * The mode of lower natural frequency is body bounce. An over-damped mode (two real
  * eigenvalues) is reported as ωn = √(λ₁λ₂), ζ = −(λ₁+λ₂)/(2ωn).
  *
  * @param c corner parameters [kg, N/m, N·s/m]
@@ -101,16 +101,23 @@ export function modes(c: CornerParams): CornerModes {
   const { A } = stateSpace(c);
   const { re, im } = eigenvalues(A, 4);
   const order = [0, 1, 2, 3].sort((i, j) => Math.hypot(re[i], im[i]) - Math.hypot(re[j], im[j]));
+  const complex = (i: number): boolean => Math.abs(im[i]) > 1e-9 * Math.hypot(re[i], im[i]);
+  // A mode is a conjugate pair or two real eigenvalues. With a very stiff damper one mode is
+  // over-damped and its two real eigenvalues lie on either side of the other mode's pair in
+  // magnitude, so the pairs are formed first (conjugates are adjacent in magnitude order, and so
+  // are the remaining reals) and then ordered by natural frequency.
+  const cx = order.filter(complex);
+  const rl = order.filter((i) => !complex(i));
   const pair = (i: number, j: number): [number, number] => {
-    if (Math.abs(im[i]) > 1e-9 * Math.hypot(re[i], im[i])) {
+    if (complex(i)) {
       const wn = Math.hypot(re[i], im[i]);
       return [wn / (2 * Math.PI), -re[i] / wn];
     }
     const wn = Math.sqrt(re[i] * re[j]);
     return [wn / (2 * Math.PI), -(re[i] + re[j]) / (2 * wn)];
   };
-  const [bodyHz, bodyDampingRatio] = pair(order[0], order[1]);
-  const [wheelHz, wheelDampingRatio] = pair(order[2], order[3]);
+  const pairs = [...cx, ...rl];
+  const [[bodyHz, bodyDampingRatio], [wheelHz, wheelDampingRatio]] = [pair(pairs[0], pairs[1]), pair(pairs[2], pairs[3])].sort((p, q) => p[0] - q[0]);
   return { bodyHz, bodyDampingRatio, wheelHz, wheelDampingRatio };
 }
 

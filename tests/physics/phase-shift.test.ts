@@ -1,10 +1,10 @@
 import { describe, it } from 'vitest';
-import { phaseShift, dampingFromPhase, NoDampingForPhaseError, PHASE_FAIL_BELOW_DEG } from '../../server/physics/phase-shift';
+import { phaseShift, phaseDeg, dampingFromPhase, NoDampingForPhaseError, PHASE_FAIL_BELOW_DEG } from '../../server/physics/phase-shift';
 import { estimateFromLane } from '../../server/physics/lane-estimate';
 import { adhesionPct } from '../../server/physics/adhesion';
 import { stateSpace, modes } from '../../server/physics/quarter-car';
 import { solveLinear } from '../../server/physics/linalg';
-import type { CornerParams } from '../../server/physics/types';
+import { PhysicsInputError, type CornerParams } from '../../server/physics/types';
 import { checkClose, checkRange, checkThat, CAR, DEMO_CORNERS } from './check';
 
 /**
@@ -118,5 +118,132 @@ describe('phase-shift method', () => {
     checkThat(onlyA.method === 'adhesion' && onlyA.inversions.length === 1, 'definition', JSON.stringify(onlyA));
     const none = estimateFromLane(c, { adhesionPct: 99, phaseDeg: null, amplitudeM: 0.003 });
     checkThat(none.dampingNsPerM === null && (none.note ?? '').includes('no damping value explains 99 %'), 'definition', JSON.stringify(none));
+  });
+});
+
+/**
+ * Phase of tyre force against plate displacement from the two equations of motion solved as a
+ * 2×2 complex system by Cramer's rule (independent of the engine's closed-form denominator):
+ * force = kt·(1 − Zu), Zu = kt·(ks + jωcs − ms·ω²) / det.
+ */
+function cramerPhaseDeg(c: CornerParams, f: number): number {
+  const w = 2 * Math.PI * f;
+  const { sprungMassKg: ms, unsprungMassKg: mu, springRateNPerM: ks, dampingNsPerM: cs, tireRateNPerM: kt } = c;
+  const [a, b] = [ks - ms * w * w, w * cs]; // a11
+  const [p, q] = [ks + kt - mu * w * w, w * cs]; // a22
+  const [dr, di] = [a * p - b * q - (ks * ks - w * w * cs * cs), a * q + b * p - 2 * ks * w * cs];
+  const d2 = dr * dr + di * di;
+  const [nr, ni] = [kt * a, kt * b];
+  const zu = [(nr * dr + ni * di) / d2, (ni * dr - nr * di) / d2];
+  return (Math.abs(Math.atan2(-kt * zu[1], kt * (1 - zu[0]))) * 180) / Math.PI;
+}
+
+/** Lowest interior local minimum of cramerPhaseDeg between the resonances: 4000-point log scan, then ternary search. */
+function cramerDip(c: CornerParams): { deg: number; hz: number } | null {
+  const md = modes(c);
+  const n = 4000;
+  const fs = Array.from({ length: n }, (_, i) => md.bodyHz * Math.pow(md.wheelHz / md.bodyHz, i / (n - 1)));
+  const ps = fs.map((f) => cramerPhaseDeg(c, f));
+  let best = -1;
+  for (let i = 1; i < n - 1; i++) if (ps[i] <= ps[i - 1] && ps[i] <= ps[i + 1] && (best < 0 || ps[i] < ps[best])) best = i;
+  if (best < 0) return null;
+  let a = fs[best - 1];
+  let b = fs[best + 1];
+  for (let i = 0; i < 100; i++) {
+    const m1 = a + (b - a) / 3;
+    const m2 = b - (b - a) / 3;
+    if (cramerPhaseDeg(c, m1) > cramerPhaseDeg(c, m2)) a = m1;
+    else b = m2;
+  }
+  return { deg: cramerPhaseDeg(c, (a + b) / 2), hz: (a + b) / 2 };
+}
+
+const errorOf = (f: () => unknown): unknown => {
+  try {
+    f();
+  } catch (e) {
+    return e;
+  }
+  return null;
+};
+
+describe('phase-shift method against an independent solve', () => {
+  it('when φ(f) is computed, then it equals the phase of a direct 2×2 solve of the equations of motion and lies within 0–180°, near 180° far below body bounce and near 0° far above wheel hop (computed; property)', () => {
+    for (const c of [CAR, DEMO_CORNERS.truckFront, { ...CAR, dampingNsPerM: 300 }]) {
+      for (const f of [0.3, 1, 2.2, 5, 9, 14, 40]) {
+        const v = phaseDeg(c, f);
+        checkClose(v, cramerPhaseDeg(c, f), { abs: 1e-9 }, 'computed: direct 2×2 solve', { c, f });
+        checkRange(v, 0, 180, 'property: |arg| of a complex number', { f });
+      }
+      checkRange(phaseDeg(c, 0.01), 179, 180, 'docs/methods.md "Phase-shift method": 180° at low frequency', {});
+      checkRange(phaseDeg(c, 500), 0, 1, 'docs/methods.md "Phase-shift method": 0° above wheel hop', {});
+    }
+  });
+
+  it('when the dip is open, then the minimum and its frequency match a fine scan and ternary search of the direct solve to 1e-7° and 1e-4 Hz (computed)', () => {
+    for (const c of [CAR, DEMO_CORNERS.courierVanFront, { ...DEMO_CORNERS.truckRear, dampingNsPerM: 9000 }]) {
+      const ref = cramerDip(c)!;
+      const r = phaseShift(c);
+      checkClose(r.minPhaseDeg, ref.deg, { abs: 1e-7 }, 'computed: direct 2×2 solve, fine scan', { c });
+      checkClose(r.atHz, ref.hz, { abs: 1e-4 }, 'computed: direct 2×2 solve, fine scan', { c });
+    }
+  });
+
+  it('when the damper is so stiff that the dip has closed, then the reading is the curve\'s value at its flattest point in the band (computed: direct solve, least |dφ/d ln f|)', () => {
+    const c = { ...DEMO_CORNERS.courierVanFront, dampingNsPerM: 5 * DEMO_CORNERS.courierVanFront.dampingNsPerM };
+    checkThat(cramerDip(c) === null, 'computed: no interior minimum', '');
+    const md = modes(c);
+    const lo = md.bodyHz;
+    const hi = Math.max(1.5 * lo, md.wheelHz);
+    const r = phaseShift(c);
+    checkClose(r.minPhaseDeg, cramerPhaseDeg(c, r.atHz), { abs: 1e-9 }, 'computed: a point of the curve', {});
+    const n = 2000;
+    const h = Math.log(hi / lo) / (n - 1);
+    let flat = { slope: Infinity, f: NaN };
+    for (let i = 1; i < n - 1; i++) {
+      const f = lo * Math.exp(h * i);
+      const slope = Math.abs(cramerPhaseDeg(c, f * Math.exp(h)) - cramerPhaseDeg(c, f / Math.exp(h)));
+      if (slope < flat.slope) flat = { slope, f };
+    }
+    checkClose(r.atHz, flat.f, { rel: 2e-3 }, 'computed: least |dφ/d ln f| of the direct solve', { lo, hi });
+  });
+});
+
+describe('dampingFromPhase bounds and errors', () => {
+  /** First maximum of φmin going up in damping from 1 % of nominal, brute force on a 400-point log grid. */
+  function firstMax(c: CornerParams): number {
+    let prev = -1;
+    for (let i = 0; i <= 400; i++) {
+      const v = phaseShift({ ...c, dampingNsPerM: c.dampingNsPerM * 0.01 * Math.pow(500, i / 400) }).minPhaseDeg;
+      if (v < prev) return prev;
+      prev = v;
+    }
+    return prev;
+  }
+
+  it('when the reading is above the first maximum, then the error carries that maximum as found by brute force; just below it is explained (computed; property: inverse of the forward map)', () => {
+    const c = DEMO_CORNERS.courierVanRear;
+    const top = firstMax(c);
+    const e = errorOf(() => dampingFromPhase(c, top + 0.2)) as NoDampingForPhaseError;
+    checkThat(e instanceof NoDampingForPhaseError && e.name === 'NoDampingForPhaseError', 'definition', String(e));
+    checkClose(e.measuredDeg, top + 0.2, { abs: 0 }, 'definition', {});
+    checkClose(e.maxDeg, top, { abs: 0.01 }, 'computed: brute-force first maximum', {});
+    checkThat(e.message.includes(`highest minimum phase for this corner is ${e.maxDeg.toFixed(1)}°`), 'definition', e.message);
+    const cs = dampingFromPhase(c, top - 0.05).dampingNsPerM;
+    checkClose(phaseShift({ ...c, dampingNsPerM: cs }).minPhaseDeg, top - 0.05, { abs: 1e-6 }, 'property: forward map of the inverse', { cs });
+  });
+
+  it('when the reading is 0°, below what 1 % of nominal damping gives, or outside 0–180°, then it is refused with the reason (definition; house rule)', () => {
+    const zero = errorOf(() => dampingFromPhase(CAR, 0));
+    checkThat(zero instanceof NoDampingForPhaseError && zero.message.includes('only an undamped corner reads 0°'), 'definition', String(zero));
+    const floor = phaseShift({ ...CAR, dampingNsPerM: 18 }).minPhaseDeg;
+    const low = errorOf(() => dampingFromPhase(CAR, floor / 2));
+    checkThat(low instanceof NoDampingForPhaseError && low.message.includes(`below the model's ${floor.toFixed(1)}° at the lowest damping searched (18 N·s/m)`), 'definition', String(low));
+    checkClose(dampingFromPhase(CAR, floor * 1.5).dampingNsPerM, 18 * 1.5, { rel: 0.2 }, 'property: φmin nearly proportional to light damping', { floor });
+    for (const v of [-0.1, 180.1]) {
+      const e = errorOf(() => dampingFromPhase(CAR, v));
+      checkThat(e instanceof PhysicsInputError && e.message.includes('measuredDeg [°]'), 'house rule', String(e));
+    }
+    checkThat(errorOf(() => dampingFromPhase(CAR, 180)) instanceof NoDampingForPhaseError, 'house rule: 180° is a valid reading no damping explains', '');
   });
 });
