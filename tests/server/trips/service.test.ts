@@ -326,6 +326,15 @@ describe('the report of a trip file', () => {
     });
   });
 
+  it("when a row's driver drove another vehicle at the time and no other row names that vehicle, then the stored trip is still found by the driver", async () => {
+    const [other] = await sq.query<{ id: number; started_at: string; ended_at: string }>(
+      "SELECT id, started_at, ended_at FROM trips WHERE driver_id = 4 AND vehicle_id != 18 AND started_at LIKE '2026-10-01 14%'",
+      { type: QueryTypes.SELECT },
+    );
+    const p = await problemsOf(file(row({ vehicle: 'CV-118', driver: 'driver@reboundry.test', start: '2026-10-01T15:00:00Z', end: '2026-10-01T16:00:00Z', km: '10', kmh: '25' })));
+    expect(p).toEqual({ 2: [`overlaps trip #${other.id} of the same driver (${other.started_at.slice(0, 16)}–${other.ended_at.slice(0, 16)} UTC)`] });
+  });
+
   it('when the file is not CSV, then it is refused naming the line', async () => {
     const e = await refusal(tripsService.checkCsv(file(row(), 'CV-118,"Tanner Way,,,,,,'), TEST_NOW));
     expect([e.status, e.message]).toEqual([400, 'The trip file is not valid CSV.']);
