@@ -5,6 +5,9 @@ import { isoDay, noHiddenChars } from './common';
 export const VEHICLE_STATUSES = ['in_service', 'workshop', 'retired'] as const;
 export type VehicleStatus = (typeof VEHICLE_STATUSES)[number];
 
+/** A vehicle's status in the app's words. */
+export const VEHICLE_STATUS_WORDS: Record<VehicleStatus, string> = { in_service: 'In service', workshop: 'In workshop', retired: 'Retired' };
+
 /** A vehicle in `GET /api/vehicles` (and the body of a saved vehicle). */
 export interface VehicleListItem {
   id: number;

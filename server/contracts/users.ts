@@ -5,6 +5,9 @@ import { noHiddenChars, utf8Bytes } from './common';
 export const ROLES = ['manager', 'mechanic', 'driver'] as const;
 export type Role = (typeof ROLES)[number];
 
+/** The roles in the app's words. */
+export const ROLE_WORDS: Record<Role, string> = { manager: 'Fleet manager', mechanic: 'Mechanic', driver: 'Driver' };
+
 /** The signed-in person, as the session holds them and `GET /api/auth/me` answers. */
 export interface SessionUser {
   id: number;

@@ -2,12 +2,12 @@
  * Drivers' exposure data access: the front-axle duty of trips the nightly job turns into
  * driver-days, the stored days, and the names the overview shows. Plain rows out.
  */
-import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { Sequelize, Transaction } from 'sequelize';
+import { selectRows } from '../db/raw';
 import { DriverExposureDay } from '../db/models';
 
 const db = () => DriverExposureDay.sequelize!;
-const select = <T extends object>(sql: string, replacements: unknown[] = [], transaction?: Transaction, sq: Sequelize = db()) =>
-  sq.query<T>(sql, { replacements: replacements as never, type: QueryTypes.SELECT, transaction });
+const select = <T extends object>(sql: string, replacements: unknown[] = [], transaction?: Transaction, sq: Sequelize = db()) => selectRows<T>(sq, sql, replacements, transaction);
 
 export interface StoredExposureDay {
   driverId: number;

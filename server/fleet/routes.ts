@@ -10,6 +10,7 @@ import type { VehicleSort } from './repository';
 import { fleetRepository } from './repository';
 import { modes } from '../physics/quarter-car';
 import type { CornerParams } from '../physics/types';
+import { VEHICLE_STATUS_WORDS } from '../contracts/fleet';
 
 const id = z.coerce.number({ message: 'must be a number' }).int().positive('must be a positive id');
 
@@ -25,8 +26,6 @@ const routeList = listQuery(['name', 'lengthM'], 'name', { q: z.string().trim().
 type VehicleItem = Awaited<ReturnType<typeof fleetRepository.listVehicles>>['items'][number];
 type RouteItem = Awaited<ReturnType<typeof fleetRepository.listRoutes>>['items'][number];
 
-/** Status words as the vehicles table shows them. */
-const VEHICLE_STATUS_WORDS: Record<VehicleItem['status'], string> = { in_service: 'In service', workshop: 'In workshop', retired: 'Retired' };
 
 /** The vehicles table's columns, in its order and words. */
 const VEHICLE_CSV: CsvColumn<VehicleItem>[] = [

@@ -13,6 +13,7 @@ import { requireFile, singleFile, textOf } from '../http/upload';
 import { MAX_PROFILE_BYTES, surveyFilePath } from './profile-store';
 import { roadsRepository, type SegmentSort } from './repository';
 import { roadsService } from './service';
+import { ROUGHNESS_SOURCE_WORDS, type RoughnessSource } from '../contracts/roads';
 
 const CLASSES = ['A', 'B', 'C', 'D', 'E', 'F', 'G', 'H'] as const;
 const isoClass = z.enum(CLASSES, { message: 'must be an ISO 8608 class A–H' });
@@ -97,12 +98,6 @@ const ALL = ['manager', 'mechanic', 'driver'] as const;
 
 type SegmentItem = Awaited<ReturnType<typeof roadsRepository.listSegments>>['items'][number];
 
-/** Roughness sources as the segments table words them. */
-const SOURCE_WORDS: Record<string, string> = {
-  survey: 'Profile survey',
-  stated: 'Stated by hand',
-  driver_report: 'Drivers’ reports',
-} satisfies Record<(typeof ROUGHNESS_SOURCES)[number], string>;
 
 const km2 = (m: number) => (m / 1000).toFixed(2);
 
@@ -113,7 +108,7 @@ const SEGMENT_CSV: CsvColumn<SegmentItem>[] = [
   { header: 'From – to', unit: 'km', value: (s) => `${km2(s.startM)}–${km2(s.endM)}` },
   { header: 'ISO 8608 class', value: (s) => s.isoClass },
   { header: 'IRI', unit: 'm/km', value: (s) => (s.iri === null ? null : Number(s.iri.toFixed(2))) },
-  { header: 'Source', value: (s) => (s.roughnessSource ? (SOURCE_WORDS[s.roughnessSource] ?? s.roughnessSource) : null) },
+  { header: 'Source', value: (s) => (s.roughnessSource ? (ROUGHNESS_SOURCE_WORDS[s.roughnessSource as RoughnessSource] ?? s.roughnessSource) : null) },
   { header: 'Observed', value: (s) => s.roughnessDate },
   { header: 'Speed', unit: 'km/h', value: (s) => s.speedKmh },
 ];

@@ -1,6 +1,6 @@
 import type { Router } from 'express';
 import { z } from 'zod';
-import { ROLES, createUserBody, updateUserBody } from '../contracts/users';
+import { ROLES, ROLE_WORDS, createUserBody, updateUserBody } from '../contracts/users';
 import { allow, currentUser } from '../http/access';
 import { NO_PAGING, idParam, listQuery, paging, parse, queryBool, sortOf } from '../http/validate';
 import { sendCsv, type CsvColumn } from '../http/csv-export';
@@ -15,9 +15,6 @@ const listSchema = listQuery(['name', 'email', 'role', 'createdAt'], 'name', {
 
 type UserSort = 'name' | 'email' | 'role' | 'createdAt';
 type UserItem = Awaited<ReturnType<typeof userService.list>>['items'][number];
-
-/** Role words as the people table shows them. */
-const ROLE_WORDS: Record<UserItem['role'], string> = { manager: 'Fleet manager', mechanic: 'Mechanic', driver: 'Driver' };
 
 /** The people table's columns, in its order and words; `Added` is the fleet's local day. */
 const userCsv = (timeZone: string): CsvColumn<UserItem>[] => [

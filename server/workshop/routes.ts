@@ -10,6 +10,7 @@ import { requireFile, singleFile } from '../http/upload';
 import { ATTACHMENT_KINDS } from './attachments';
 import { workshopService } from './service';
 import { FINDINGS, REMOVAL_REASONS, VERDICTS, assignBody, resultsBody, workBody } from '../contracts/workshop';
+import { csvCell } from '../http/csv-export';
 
 const inspectionList = listQuery(['dueDate', 'fleetNumber', 'status'], 'dueDate', {
   status: z.enum(['open', 'all', 'scheduled', 'due', 'overdue', 'done', 'cancelled'], { message: 'must be open, all, scheduled, due, overdue, done or cancelled' }).optional(),
@@ -29,12 +30,6 @@ const forecastQuery = z
   .strict();
 const workloadQuery = z.object({ weeks: z.coerce.number({ message: 'must be a number' }).int().min(1).max(26).default(8) }).strict();
 
-const csvCell = (v: unknown) => {
-  const s = v === null || v === undefined ? '' : String(v);
-  // quote, and neutralise formula-looking cells for spreadsheets
-  const safe = /^[=+\-@]/.test(s) ? `'${s}` : s;
-  return /[",\n]/.test(safe) || safe !== s ? `"${safe.replace(/"/g, '""')}"` : safe;
-};
 
 export function registerWorkshopRoutes(r: Router, deps: { config: Config; now: () => Date }) {
   const cfg = deps.config.workshop;

@@ -2,8 +2,8 @@
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 import { pk, ts } from './columns';
 
-export const ROUGHNESS_SOURCES = ['survey', 'stated', 'driver_report'] as const;
-export type RoughnessSource = (typeof ROUGHNESS_SOURCES)[number];
+export { ROUGHNESS_SOURCES, type RoughnessSource } from '../../contracts/roads';
+import type { RoughnessSource } from '../../contracts/roads';
 
 type Attrs<M extends Model> = InferAttributes<M>;
 type CAttrs<M extends Model> = InferCreationAttributes<M>;

@@ -1,13 +1,10 @@
 /** The three roles of Reboundry and how we name them on screen. */
-import type { Role, SessionUser } from '@contracts/users';
+import { ROLE_WORDS, type SessionUser } from '@contracts/users';
 
 export { ROLES, type Role } from '@contracts/users';
 
-export const roleLabels: Record<Role, string> = {
-  manager: 'Fleet manager',
-  mechanic: 'Mechanic',
-  driver: 'Driver',
-};
+/** The roles in the app's words (server/contracts/users.ts). */
+export const roleLabels = ROLE_WORDS;
 
 /** The signed-in person as the server answers them (server/contracts/users.ts). */
 export type SignedInUser = SessionUser;

@@ -4,8 +4,8 @@ import type { RoughnessClass } from '@/lib/roughness';
 import { queryRoots } from '@/lib/query-keys';
 
 export const SEGMENT_SORTS = ['routeName', 'seq', 'iri', 'isoClass', 'roughnessDate', 'speedKmh'] as const;
-export const ROUGHNESS_SOURCES = ['survey', 'stated', 'driver_report'] as const;
-export type RoughnessSource = (typeof ROUGHNESS_SOURCES)[number];
+export { ROUGHNESS_SOURCES, type RoughnessSource } from '@contracts/roads';
+import type { RoughnessSource } from '@contracts/roads';
 
 export interface SegmentListItem {
   id: number;

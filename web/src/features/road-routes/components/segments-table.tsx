@@ -9,14 +9,12 @@ import { RoughnessClassBadge, RoughnessLegend } from '@/components/ui/roughness'
 import { formatDate, formatNumber } from '@/lib/format';
 import { ROUGHNESS_CLASSES, roughnessWords, type RoughnessClass } from '@/lib/roughness';
 import { ROUGHNESS_SOURCES, useSegments, type RoughnessSource, type SegmentListItem, type SegmentListParams } from '../api/get-segments';
+import { ROUGHNESS_SOURCE_WORDS } from '@contracts/roads';
 import { segmentsExportUrl } from '../api/export-segments';
 import { useRoutes } from '../api/get-routes';
 
-export const sourceLabels: Record<RoughnessSource, string> = {
-  survey: 'Profile survey',
-  stated: 'Stated by hand',
-  driver_report: 'Drivers’ reports',
-};
+/** How a segment's roughness was found, in the app's words (server/contracts/roads.ts). */
+export const sourceLabels = ROUGHNESS_SOURCE_WORDS;
 
 const col = createColumnHelper<SegmentListItem>();
 

@@ -1,11 +1,9 @@
 import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
+import { VEHICLE_STATUS_WORDS } from '@contracts/fleet';
 import type { VehicleStatus } from '../api/get-vehicles';
 
-export const vehicleStatusLabels: Record<VehicleStatus, string> = {
-  in_service: 'In service',
-  workshop: 'In workshop',
-  retired: 'Retired',
-};
+/** A vehicle's status in the app's words (server/contracts/fleet.ts). */
+export const vehicleStatusLabels = VEHICLE_STATUS_WORDS;
 
 export const vehicleStatusTones: Record<VehicleStatus, StatusTone> = {
   in_service: 'ok',
