@@ -113,6 +113,7 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     dataDir: config.dataDir,
     batchTrips: config.nightlyBatchTrips,
     dutyWorkers: config.nightlyWorkers,
+    queueUrl: config.queueUrl,
     warn: (m) => log.warn(`nightly: ${m}`),
     thresholdFraction: config.inspection.threshold,
     calendarYears: config.workshop.life.calendarYears,

@@ -41,6 +41,11 @@ const schema = z
     NIGHTLY_WORKERS: z
       .union([z.literal('auto'), z.coerce.number({ message: "must be a number or 'auto'" }).int('must be a whole number').min(0).max(64)])
       .default('auto'),
+    QUEUE_URL: z
+      .string()
+      .regex(/^rediss?:\/\/\S+$/, 'must be a Redis address such as redis://localhost:6379')
+      .optional(),
+    DUTY_WORKER_LOCK_SECONDS: z.coerce.number({ message: 'must be a number' }).min(1, 'must be at least 1').max(600, 'must be at most 600').default(30),
     JOB_LOCK_TIMEOUT_MINUTES: z.coerce.number({ message: 'must be a number' }).positive().max(24 * 60).default(30),
     DAMPER_CALENDAR_YEARS: z.coerce.number({ message: 'must be a number' }).min(1, 'must be at least 1').max(20, 'must be at most 20').default(6),
     INSPECTION_QUANTILE: z.coerce.number({ message: 'must be a number' }).gt(0, 'must be above 0').lt(1, 'must be below 1').default(0.5),
@@ -85,6 +90,10 @@ const schema = z
     nightlyBatchTrips: c.NIGHTLY_BATCH_TRIPS,
     /** Worker threads computing the nightly duty (0 = in the job's own thread). */
     nightlyWorkers: c.NIGHTLY_WORKERS === 'auto' ? Math.max(1, os.availableParallelism() - 1) : c.NIGHTLY_WORKERS,
+    /** Redis of the queue the nightly duty is spread over (server/wear/duty-queue.ts); absent = computed by the job itself. */
+    queueUrl: c.QUEUE_URL,
+    /** How long a queue worker's claim on a job lasts unrenewed: a killed worker's job is retried after it. */
+    dutyWorkerLockMs: c.DUTY_WORKER_LOCK_SECONDS * 1000,
     jobLockTimeoutMinutes: c.JOB_LOCK_TIMEOUT_MINUTES,
     workshop: {
       /** Damper life model (server/reliability/life-model.ts, docs/methods.md "Damper life model"). */

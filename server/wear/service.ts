@@ -7,7 +7,8 @@
 import type { Sequelize } from 'sequelize';
 import type { AxleInput, RouteInput, VehicleWork } from './duty';
 import { attachProfiles } from './roughness-as-of';
-import { createDutyRunner } from './duty-pool';
+import { createDutyRunner, type DutyRunner } from './duty-pool';
+import { createQueueDutyRunner } from './duty-queue';
 import { estimateOpening, levelsOf, predictFromSummary, predictionWindow, type LifeResolver, type PredictOptions, type WearSummary } from './wear';
 import { priorLifeResolver } from '../workshop/life';
 import { wearRepository, type WearStart } from './repository';
@@ -30,6 +31,8 @@ export interface PhaseContext {
   batchTrips: number;
   /** Worker threads for the duty computation (0 or absent = this thread). */
   dutyWorkers?: number;
+  /** Redis of the duty queue: when set and workers listen, `npm run worker` processes compute the duty. */
+  queueUrl?: string;
   /** Where a fallback (e.g. worker threads not available) is reported. */
   warn?: (message: string) => void;
   thresholdFraction: number;
@@ -128,7 +131,7 @@ export async function processTrips(ctx: PhaseContext) {
     return { works, tripCount };
   };
 
-  const { runner, fallback } = await createDutyRunner(routes as Map<number, RouteInput>, ctx.dutyWorkers ?? 0);
+  const { runner, fallback } = await dutyRunnerFor(ctx, routes as Map<number, RouteInput>);
   if (fallback) ctx.warn?.(fallback);
   let done = 0;
   let committed = 0;
@@ -189,6 +192,20 @@ export async function processTrips(ctx: PhaseContext) {
     add(ctx.counts, 'profileSimulations', st.simulations);
     await runner.close();
   }
+}
+
+/** The queue's workers when a queue is configured and any listen; else threads of this process. */
+async function dutyRunnerFor(ctx: PhaseContext, routes: Map<number, RouteInput>): Promise<{ runner: DutyRunner; fallback: string | null }> {
+  if (ctx.queueUrl) {
+    const { runner } = await createQueueDutyRunner(routes, ctx.queueUrl);
+    if (runner) {
+      ctx.counts.queueWorkers = runner.workers;
+      return { runner, fallback: null };
+    }
+    const local = await createDutyRunner(routes, ctx.dutyWorkers ?? 0);
+    return { runner: local.runner, fallback: `no duty worker is listening on the queue (start \`npm run worker\`); computing the duty in this process${local.fallback ? `; ${local.fallback}` : ''}` };
+  }
+  return createDutyRunner(routes, ctx.dutyWorkers ?? 0);
 }
 
 const WEAR_CHUNK = 2000;

@@ -1,0 +1,173 @@
+/**
+ * The nightly duty spread over worker processes on any number of machines, through a BullMQ
+ * queue on Redis (`QUEUE_URL`). The job's coordinating process stays what it is without a
+ * queue — it plans the batches, reads their inputs, writes every result and keeps the lock, the
+ * run row, progress and crash safety — and only hands the pure computation
+ * (`computeVehicleDuty`) to `npm run worker` processes (jobs/worker.ts), as the thread pool in
+ * duty-pool.ts hands it to threads. Each vehicle's duty depends only on its own inputs, so the
+ * tables end the same however the work was spread, retried or interrupted.
+ *
+ * Each batch of vehicles goes out as a few queue jobs of about equal trip counts; the run's
+ * routes (with the measured profiles behind them) go once, as one Redis value per run. Inputs
+ * and results travel in V8's structured-clone format (node:v8), which keeps every double to the
+ * bit and carries the profiles' Float64Arrays: a duty computed on a worker is byte for byte the
+ * duty computed here. Workers must therefore run the same version of the app.
+ *
+ * A worker killed in the middle of a job stops renewing the job's lock; another worker's stalled
+ * check puts the job back in the queue and it is computed again. A job whose computation throws
+ * is retried a few times, then fails the run (which the next run carries on from, as after any
+ * failure).
+ */
+import v8 from 'node:v8';
+import crypto from 'node:crypto';
+import { Queue, QueueEvents, Worker, type Job } from 'bullmq';
+import { Redis } from 'ioredis';
+import type { DutyRunner } from './duty-pool';
+import { splitByTrips } from './duty-pool';
+import { computeVehicleDuty, DutyCache, packDuty, type PackedDutyResult, type RouteInput, type VehicleWork } from './duty';
+
+/** The queue the coordinator fills and `npm run worker` empties. */
+export const DUTY_QUEUE = 'reboundry-duty';
+
+/** A Redis connection as BullMQ wants it (commands wait for a reconnect instead of failing). */
+export function redisConnection(url: string): Redis {
+  return new Redis(url, { maxRetriesPerRequest: null, enableReadyCheck: true });
+}
+
+/** Key of a run's routes; kept a day at most, deleted when the run's duty phase ends. */
+export const routesKey = (runKey: string) => `reboundry:duty-routes:${runKey}`;
+
+export interface DutyJobData {
+  runKey: string;
+  /** The vehicles' inputs, v8-serialised, base64. */
+  works: string;
+}
+
+export interface DutyJobResult {
+  /** The vehicles' packed duty in the order given, v8-serialised, base64. */
+  results: string;
+  solves: number;
+  simulations: number;
+}
+
+export const encode = (value: unknown) => v8.serialize(value).toString('base64');
+export const decode = <T>(text: string) => v8.deserialize(Buffer.from(text, 'base64')) as T;
+
+/** Jobs a batch is cut into per worker seen at the start: enough to even out unequal workers. */
+const JOBS_PER_WORKER = 2;
+/** Attempts of a job whose computation throws (a killed worker's job is put back separately). */
+const ATTEMPTS = 3;
+
+/**
+ * A {@link DutyRunner} on the queue at `url`. Resolves to null when no worker is listening
+ * (the caller computes here instead and says so), so a night never waits for workers that
+ * were never started.
+ */
+export async function createQueueDutyRunner(routes: Map<number, RouteInput>, url: string): Promise<{ runner: DutyRunner | null; workersSeen: number }> {
+  const connection = redisConnection(url);
+  const queue = new Queue<DutyJobData, DutyJobResult>(DUTY_QUEUE, { connection });
+  const events = new QueueEvents(DUTY_QUEUE, { connection: redisConnection(url) });
+  const shut = async () => {
+    await Promise.allSettled([queue.close(), events.close()]);
+    connection.disconnect();
+  };
+  try {
+    const workersSeen = await queue.getWorkersCount();
+    if (!workersSeen) {
+      await shut();
+      return { runner: null, workersSeen };
+    }
+    // Jobs of an earlier run that stopped before their results were taken: nobody waits for them.
+    await queue.drain(true);
+    await events.waitUntilReady();
+    const runKey = crypto.randomUUID();
+    await connection.set(routesKey(runKey), v8.serialize([...routes.values()]), 'EX', 24 * 3600);
+    let solves = 0;
+    let simulations = 0;
+    const parts = Math.max(1, workersSeen * JOBS_PER_WORKER);
+    return {
+      workersSeen,
+      runner: {
+        workers: workersSeen,
+        async compute(works: VehicleWork[]) {
+          const pieces = splitByTrips(works, parts).filter((p) => p.length);
+          const jobs: Job<DutyJobData, DutyJobResult>[] = await queue.addBulk(
+            pieces.map((p) => ({
+              name: 'duty',
+              data: { runKey, works: encode(p) },
+              opts: { attempts: ATTEMPTS, backoff: { type: 'fixed', delay: 500 }, removeOnComplete: true, removeOnFail: 100 },
+            })),
+          );
+          const done = await Promise.all(jobs.map((j) => j.waitUntilFinished(events) as Promise<DutyJobResult>));
+          const out: PackedDutyResult[] = [];
+          for (const d of done) {
+            solves += d.solves;
+            simulations += d.simulations;
+            for (const r of decode<PackedDutyResult[]>(d.results)) out.push(r);
+          }
+          return out;
+        },
+        stats: () => ({ solves, simulations }),
+        async close() {
+          await queue.drain(true).catch(() => undefined);
+          await connection.del(routesKey(runKey)).catch(() => undefined);
+          await shut();
+        },
+      },
+    };
+  } catch (err) {
+    await shut();
+    throw err;
+  }
+}
+
+/**
+ * The computation of one queue job, for `npm run worker` (jobs/worker.ts): the run's routes are
+ * read from Redis once per run and kept with their cache of solved and simulated segments, as a
+ * worker thread keeps them for the run it serves.
+ */
+export function dutyJobProcessor(connection: Redis) {
+  let current: { runKey: string; routes: Map<number, RouteInput>; cache: DutyCache } | null = null;
+  return async (job: Job<DutyJobData, DutyJobResult>): Promise<DutyJobResult> => {
+    const { runKey } = job.data;
+    if (current?.runKey !== runKey) {
+      const blob = await connection.getBuffer(routesKey(runKey));
+      if (!blob) throw new Error(`the routes of run ${runKey} are no longer in Redis (the run has ended)`);
+      const list = v8.deserialize(blob) as RouteInput[];
+      current = { runKey, routes: new Map(list.map((r) => [r.id, r])), cache: new DutyCache() };
+    }
+    const { routes, cache } = current;
+    const solves0 = cache.solves;
+    const sims0 = cache.simulations;
+    const results = decode<VehicleWork[]>(job.data.works).map((w) => packDuty(computeVehicleDuty(w, routes, cache)));
+    return { results: encode(results), solves: cache.solves - solves0, simulations: cache.simulations - sims0 };
+  };
+}
+
+export interface DutyWorkerOptions {
+  /** How long a job stays claimed without its lock being renewed [ms]: after it, a killed
+   * worker's job goes back to the queue. */
+  lockMs: number;
+  /** Jobs computed at once by this process (the computation is CPU-bound: one per process). */
+  concurrency?: number;
+}
+
+/** A worker taking duty jobs from the queue at `url` until closed. */
+export function startDutyWorker(url: string, opts: DutyWorkerOptions) {
+  const connection = redisConnection(url);
+  const worker = new Worker<DutyJobData, DutyJobResult>(DUTY_QUEUE, dutyJobProcessor(connection), {
+    connection: redisConnection(url),
+    concurrency: opts.concurrency ?? 1,
+    lockDuration: opts.lockMs,
+    stalledInterval: Math.max(1000, Math.round(opts.lockMs / 2)),
+    // a job put back after a worker died is tried again, up to this many deaths
+    maxStalledCount: 3,
+  });
+  return {
+    worker,
+    async close() {
+      await worker.close();
+      connection.disconnect();
+    },
+  };
+}
