@@ -109,6 +109,19 @@ describe('forms that speak plainly', () => {
     await page.getByLabel('Tyre rate [kN/m]').first().fill(col('Tyre rate (kN/m)').replace(/,/g, ''));
     await page.getByTestId('body-hz').first().waitFor();
     expect(await save.isDisabled()).toBe(false);
+
+    // the spec's own rules (the shared contract) are checked in the form: a SEAT value out of range is named on its field and nothing is sent
+    const seat = page.getByLabel(/^Seat SEAT value/);
+    await seat.fill('3');
+    const sent: string[] = [];
+    page.on('request', (r) => {
+      if (r.method() === 'PUT') sent.push(r.url());
+    });
+    await save.click();
+    await page.getByText('SEAT value must be 0.2–2 (SEAT value).').waitFor();
+    expect(await seat.getAttribute('aria-invalid')).toBe('true');
+    expect(await seat.evaluate((el) => el === document.activeElement)).toBe(true);
+    expect(sent).toEqual([]);
     await context.close();
   });
 
