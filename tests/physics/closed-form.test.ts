@@ -4,7 +4,7 @@ import { cornerTransfer } from '../../server/physics/quarter-car';
 import { wkWeight } from '../../server/physics/exposure';
 import { synthesizeProfile, gdForClass, ISO8608_N0 } from '../../server/physics/iso8608';
 import { prepareSimulation, simulateProfile } from '../../server/physics/simulate';
-import { checkClose, CAR, DEMO_CORNERS } from './check';
+import { checkClose, CAR, DEMO_CORNERS, errorOf } from './check';
 import { bandLimitProfile } from '../../server/physics/profile-band';
 import { simulateWeighted } from '../../server/physics/simulate';
 import type { CornerParams } from '../../server/physics/types';
@@ -145,12 +145,7 @@ describe('closed-form duty (Lyapunov)', () => {
   it('when Gd is negative or not a number, then the error names gdN0 and m³', () => {
     const p = prepareDuty(CAR, 20);
     for (const bad of [-1e-6, Number.NaN]) {
-      let msg = '';
-      try {
-        dutyOnRoad(p, bad);
-      } catch (e) {
-        msg = (e as Error).message;
-      }
+      const msg = errorOf(() => dutyOnRoad(p, bad));
       checkClose(msg.includes('gdN0') && msg.includes('[m³]') ? 1 : 0, 1, { abs: 0 }, 'house rule: error names parameter and unit', { bad, msg });
     }
   });

@@ -3,7 +3,7 @@ import { Matrix, solve, EigenvalueDecomposition } from 'ml-matrix';
 import { expm, solveLinear, eigenvalues, lyapunov, discretizeZoh, identity, matMul, charPoly, norm1 } from '../../server/physics/linalg';
 import { stateSpace } from '../../server/physics/quarter-car';
 import { appendWk } from '../../server/physics/exposure';
-import { checkClose, checkThat, CAR } from './check';
+import { checkClose, checkThat, CAR, errorOf } from './check';
 
 const toMl = (a: Float64Array, n: number): Matrix => {
   const rows: number[][] = [];
@@ -59,12 +59,7 @@ describe('solveLinear, eigenvalues', () => {
   });
 
   it('when a matrix is singular, then solveLinear throws a prefixed error', () => {
-    let msg = '';
-    try {
-      solveLinear(new Float64Array([1, 2, 2, 4]), new Float64Array([1, 1]), 2);
-    } catch (e) {
-      msg = (e as Error).message;
-    }
+    const msg = errorOf(() => solveLinear(new Float64Array([1, 2, 2, 4]), new Float64Array([1, 1]), 2));
     checkThat(msg.startsWith('physics: non-finite'), 'convention 13', `expected prefixed error, got "${msg}"`);
   });
 

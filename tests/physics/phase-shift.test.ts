@@ -5,7 +5,7 @@ import { adhesionPct } from '../../server/physics/adhesion';
 import { stateSpace, modes } from '../../server/physics/quarter-car';
 import { solveLinear } from '../../server/physics/linalg';
 import { PhysicsInputError, type CornerParams } from '../../server/physics/types';
-import { checkClose, checkRange, checkThat, CAR, DEMO_CORNERS } from './check';
+import { checkClose, checkRange, checkThat, CAR, DEMO_CORNERS, thrownBy } from './check';
 
 /**
  * Phase of contact force against plate displacement straight from the state-space matrices:
@@ -90,12 +90,7 @@ describe('phase-shift method', () => {
         checkClose(dampingFromPhase(c, deg).dampingNsPerM, cs, { rel: 1e-4 }, 'computed: round trip', { name, x, deg });
       }
     }
-    let err: unknown = null;
-    try {
-      dampingFromPhase(DEMO_CORNERS.courierVanFront, 120);
-    } catch (e) {
-      err = e;
-    }
+    const err = thrownBy(() => dampingFromPhase(DEMO_CORNERS.courierVanFront, 120));
     checkThat(err instanceof NoDampingForPhaseError && (err as Error).message.includes('no damping value explains a minimum phase of 120°'), 'definition', String(err));
   });
 
@@ -158,15 +153,6 @@ function cramerDip(c: CornerParams): { deg: number; hz: number } | null {
   return { deg: cramerPhaseDeg(c, (a + b) / 2), hz: (a + b) / 2 };
 }
 
-const errorOf = (f: () => unknown): unknown => {
-  try {
-    f();
-  } catch (e) {
-    return e;
-  }
-  return null;
-};
-
 describe('phase-shift method against an independent solve', () => {
   it('when φ(f) is computed, then it equals the phase of a direct 2×2 solve of the equations of motion and lies within 0–180°, near 180° far below body bounce and near 0° far above wheel hop (computed; property)', () => {
     for (const c of [CAR, DEMO_CORNERS.truckFront, { ...CAR, dampingNsPerM: 300 }]) {
@@ -224,7 +210,7 @@ describe('dampingFromPhase bounds and errors', () => {
   it('when the reading is above the first maximum, then the error carries that maximum as found by brute force; just below it is explained (computed; property: inverse of the forward map)', () => {
     const c = DEMO_CORNERS.courierVanRear;
     const top = firstMax(c);
-    const e = errorOf(() => dampingFromPhase(c, top + 0.2)) as NoDampingForPhaseError;
+    const e = thrownBy(() => dampingFromPhase(c, top + 0.2)) as NoDampingForPhaseError;
     checkThat(e instanceof NoDampingForPhaseError && e.name === 'NoDampingForPhaseError', 'definition', String(e));
     checkClose(e.measuredDeg, top + 0.2, { abs: 0 }, 'definition', {});
     checkClose(e.maxDeg, top, { abs: 0.01 }, 'computed: brute-force first maximum', {});
@@ -234,16 +220,16 @@ describe('dampingFromPhase bounds and errors', () => {
   });
 
   it('when the reading is 0°, below what 1 % of nominal damping gives, or outside 0–180°, then it is refused with the reason (definition; house rule)', () => {
-    const zero = errorOf(() => dampingFromPhase(CAR, 0));
+    const zero = thrownBy(() => dampingFromPhase(CAR, 0));
     checkThat(zero instanceof NoDampingForPhaseError && zero.message.includes('only an undamped corner reads 0°'), 'definition', String(zero));
     const floor = phaseShift({ ...CAR, dampingNsPerM: 18 }).minPhaseDeg;
-    const low = errorOf(() => dampingFromPhase(CAR, floor / 2));
+    const low = thrownBy(() => dampingFromPhase(CAR, floor / 2));
     checkThat(low instanceof NoDampingForPhaseError && low.message.includes(`below the model's ${floor.toFixed(1)}° at the lowest damping searched (18 N·s/m)`), 'definition', String(low));
     checkClose(dampingFromPhase(CAR, floor * 1.5).dampingNsPerM, 18 * 1.5, { rel: 0.2 }, 'property: φmin nearly proportional to light damping', { floor });
     for (const v of [-0.1, 180.1]) {
-      const e = errorOf(() => dampingFromPhase(CAR, v));
+      const e = thrownBy(() => dampingFromPhase(CAR, v));
       checkThat(e instanceof PhysicsInputError && e.message.includes('measuredDeg [°]'), 'house rule', String(e));
     }
-    checkThat(errorOf(() => dampingFromPhase(CAR, 180)) instanceof NoDampingForPhaseError, 'house rule: 180° is a valid reading no damping explains', '');
+    checkThat(thrownBy(() => dampingFromPhase(CAR, 180)) instanceof NoDampingForPhaseError, 'house rule: 180° is a valid reading no damping explains', '');
   });
 });

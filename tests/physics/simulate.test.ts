@@ -2,7 +2,7 @@ import { describe, it } from 'vitest';
 import { simulateProfile, prepareSimulation, runSimulation } from '../../server/physics/simulate';
 import { cornerTransfer } from '../../server/physics/quarter-car';
 import { synthesizeProfile } from '../../server/physics/iso8608';
-import { checkClose, checkThat, CAR } from './check';
+import { checkClose, checkThat, CAR, errorOf } from './check';
 
 const V = 60 / 3.6;
 
@@ -67,12 +67,7 @@ describe('simulateProfile', () => {
   it('when the profile holds a NaN, then a prefixed non-finite error names the sample', () => {
     const z = new Float64Array(10);
     z[4] = Number.NaN;
-    let msg = '';
-    try {
-      simulateProfile(CAR, z, 0.05, V);
-    } catch (e) {
-      msg = (e as Error).message;
-    }
+    const msg = errorOf(() => simulateProfile(CAR, z, 0.05, V));
     checkThat(msg.startsWith('physics: non-finite') && msg.includes('elevationsM[4]'), 'convention 13', `message "${msg}"`);
   });
 

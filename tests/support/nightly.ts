@@ -4,7 +4,6 @@
  * fleet after one clean nightly run on the default settings, computed once per version of the
  * code and shared by the test files (each file runs in its own worker, in parallel).
  */
-import crypto from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -12,6 +11,7 @@ import { QueryTypes } from 'sequelize';
 import type { Db } from '../../server/db';
 import { run } from '../../jobs/nightly';
 import { startTestServer, TEST_NOW } from './server';
+import { sourceHash } from './code-hash';
 
 /** Tables and columns that legitimately differ between two databases holding the same state. */
 const SKIP_TABLES = new Set(['sessions', 'job_runs', 'job_locks', 'caught_mail', 'schema_migrations', 'sqlite_sequence']);
@@ -49,18 +49,7 @@ export const count = async (db: Db, sql: string) => Number((await db.sequelize.q
 
 /** The server and job code, hashed: a reference computed by other code is never reused. */
 function codeHash(): string {
-  const h = crypto.createHash('sha256');
-  const walk = (dir: string) => {
-    for (const e of fs.readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
-      const p = path.join(dir, e.name);
-      if (e.isDirectory()) walk(p);
-      else if (/\.(ts|mjs|json)$/.test(e.name)) h.update(p).update(fs.readFileSync(p));
-    }
-  };
-  walk(path.resolve('server'));
-  walk(path.resolve('jobs'));
-  h.update(TEST_NOW.toISOString());
-  return h.digest('hex').slice(0, 16);
+  return sourceHash(['server', 'jobs'], TEST_NOW.toISOString());
 }
 
 export interface CleanRun {

@@ -1,4 +1,3 @@
-import crypto from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -13,6 +12,7 @@ import type { Logger } from '../../server/logger';
 import { createMailer, type Mailer } from '../../server/mail/mailer';
 import { startNightly } from '../../jobs/nightly';
 import { ApiClient, DEMO } from './client';
+import { sourceHash } from './code-hash';
 
 export interface TestServer {
   url: string;
@@ -33,17 +33,7 @@ export const TEST_NOW = new Date('2026-11-30T12:00:00Z');
 
 /** Every server source file, hashed: a template seeded by other code is never reused. */
 function serverCodeHash(): string {
-  const h = crypto.createHash('sha256');
-  const walk = (dir: string) => {
-    for (const e of fs.readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
-      const p = path.join(dir, e.name);
-      if (e.isDirectory()) walk(p);
-      else if (/\.(ts|mjs|json)$/.test(e.name)) h.update(p).update(fs.readFileSync(p));
-    }
-  };
-  walk(path.resolve('server'));
-  h.update(TEST_NOW.toISOString());
-  return h.digest('hex').slice(0, 16);
+  return sourceHash(['server'], TEST_NOW.toISOString());
 }
 
 let templateDir: Promise<string> | null = null;
