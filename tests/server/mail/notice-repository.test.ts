@@ -3,7 +3,7 @@
 // deactivated, so only the rows planted here count: who gets a digest, the inspections managers
 // have not been told about, the assignments not told to their mechanic, and the marking in chunks.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { QueryTypes, type Sequelize } from 'sequelize';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { noticeRepository } from '../../../server/mail/notice-repository';
 import { startTestServer, type TestServer } from '../../support/server';
 
@@ -69,7 +69,7 @@ beforeAll(async () => {
 });
 afterAll(() => srv?.stop());
 
-const inTransaction = <T>(fn: (t: Parameters<Parameters<Sequelize['transaction']>[0]>[0]) => Promise<T>) => sq.transaction(fn);
+const inTransaction = <T>(fn: (t: Transaction) => Promise<T>) => sq.transaction(fn);
 
 describe('digest recipients', () => {
   it('when managers are active or not, then the active ones are the recipients, by id, with their depot and preferences', async () => {

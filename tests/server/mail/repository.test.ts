@@ -170,9 +170,9 @@ describe('the mail catcher store', () => {
       receivedAt: '2026-11-30T12:05:00.000Z',
       preview: 'Body 5',
     });
-    expect(page.items[0].preview).toBe('');
+    expect(page.items[0]).toHaveProperty('preview', '');
     // runs of white space become one space; the subject was cut to 250 characters when stored
-    expect(page.items[1].preview).toBe(` first second third ${'w'.repeat(200)}`.slice(0, 160));
+    expect(page.items[1]).toHaveProperty('preview', ` first second third ${'w'.repeat(200)}`.slice(0, 160));
     expect(page.items[1].subject).toBe('s'.repeat(250));
     const next = await mailRepository.listCaught({ offset: 3, pageSize: 3 });
     expect(next.items.map((m) => m.key)).toEqual(['key4', 'key3', 'key2']);
