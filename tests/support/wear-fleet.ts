@@ -6,9 +6,11 @@
  * 25 000 km, the front-left one before it removed that day, the rear-right one fitted 12
  * November, odometer 30 000 km), vehicle 2 (spec 1, retired), vehicle 3 (spec 2).
  */
+import crypto from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import type { Sequelize } from 'sequelize';
 import { migrate, openDb, type Db } from '../../server/db';
 import type { AxleInput } from '../../server/wear/duty';
@@ -106,16 +108,37 @@ async function seed(sequelize: Sequelize) {
   );
 }
 
-/** A migrated database with the fleet, written once per test file; each test gets its own copy. */
-export async function wearFleetTemplate(): Promise<{ dir: string; fresh: () => Promise<{ db: Db; dir: string; done: () => Promise<void> }> }> {
-  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-wear-fleet-'));
-  const t = await openDb(path.join(dir, 'db.sqlite'));
-  await migrate(t);
-  await seed(t.sequelize);
-  await t.sequelize.query('PRAGMA wal_checkpoint(TRUNCATE)');
-  await t.close();
+/** The migrations and this file, hashed: a cached template written from other ones is never used. */
+function templateKey(): string {
+  const h = crypto.createHash('sha256');
+  const dir = path.resolve('server/db/migrations');
+  for (const f of fs.readdirSync(dir).sort()) h.update(f).update(fs.readFileSync(path.join(dir, f)));
+  h.update(fs.readFileSync(fileURLToPath(import.meta.url)));
+  return h.digest('hex').slice(0, 16);
+}
+
+/**
+ * A migrated database with the fleet, written once while the migrations and this file are
+ * unchanged (kept in the temp folder, so a mutation run does not migrate for every mutant);
+ * each test gets its own copy.
+ */
+export async function wearFleetTemplate(): Promise<{ fresh: () => Promise<{ db: Db; dir: string; done: () => Promise<void> }> }> {
+  const dir = path.join(os.tmpdir(), `reboundry-wear-fleet-${templateKey()}`);
+  if (!fs.existsSync(path.join(dir, 'db.sqlite'))) {
+    const work = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-wear-fleet-seeding-'));
+    const t = await openDb(path.join(work, 'db.sqlite'));
+    await migrate(t);
+    await seed(t.sequelize);
+    await t.sequelize.query('PRAGMA wal_checkpoint(TRUNCATE)');
+    await t.close();
+    try {
+      fs.renameSync(work, dir);
+    } catch {
+      // another worker put its template in place first
+      fs.rmSync(work, { recursive: true, force: true });
+    }
+  }
   return {
-    dir,
     fresh: async () => {
       const run = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-wear-fleet-run-'));
       fs.copyFileSync(path.join(dir, 'db.sqlite'), path.join(run, 'db.sqlite'));

@@ -4,10 +4,9 @@
  * mounted on a bare router with the signed-in user set by the test (no app booted), and every
  * figure it answers is worked out here from the stored rows.
  */
-import fs from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import express from 'express';
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import type { Db } from '../../../server/db';
 import { loadConfig } from '../../../server/config';
@@ -39,7 +38,6 @@ const as = (role: SessionUser['role'], id = 1) => {
 beforeAll(async () => {
   template = await wearFleetTemplate();
 }, 60_000);
-afterAll(() => fs.rmSync(template.dir, { recursive: true, force: true }));
 
 beforeEach(async () => {
   run = await template.fresh();

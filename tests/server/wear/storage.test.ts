@@ -5,8 +5,7 @@
  * wear.ts accumulateDays and predict), so the SQL and the reading of the rows are checked on
  * their own (fleet: tests/support/wear-fleet.ts). Everything a check rests on is computed inside its test.
  */
-import fs from 'node:fs';
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import type { Db } from '../../../server/db';
 import { AS_OF, AXLES, BEFORE, FRONT, insert, NOW, PROFILE, REAR, STAMP, TRIPS, TZ, wearFleetTemplate } from '../../support/wear-fleet';
@@ -29,7 +28,6 @@ const rows = <T extends object>(sql: string, replacements: unknown[] = []) => db
 beforeAll(async () => {
   template = await wearFleetTemplate();
 }, 60_000);
-afterAll(() => fs.rmSync(template.dir, { recursive: true, force: true }));
 
 beforeEach(async () => {
   run = await template.fresh();
