@@ -122,7 +122,7 @@ function templateKey(): string {
  * unchanged (kept in the temp folder, so a mutation run does not migrate for every mutant);
  * each test gets its own copy.
  */
-export async function wearFleetTemplate(): Promise<{ fresh: () => Promise<{ db: Db; dir: string; done: () => Promise<void> }> }> {
+export async function wearFleetTemplate(): Promise<{ fresh: (from?: string) => Promise<{ db: Db; dir: string; file: string; done: () => Promise<void> }> }> {
   const dir = path.join(os.tmpdir(), `reboundry-wear-fleet-${templateKey()}`);
   if (!fs.existsSync(path.join(dir, 'db.sqlite'))) {
     const work = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-wear-fleet-seeding-'));
@@ -139,11 +139,13 @@ export async function wearFleetTemplate(): Promise<{ fresh: () => Promise<{ db: 
     }
   }
   return {
-    fresh: async () => {
+    /** A copy of the template, or of `from` (a database file written from it). */
+    fresh: async (from = path.join(dir, 'db.sqlite')) => {
       const run = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-wear-fleet-run-'));
-      fs.copyFileSync(path.join(dir, 'db.sqlite'), path.join(run, 'db.sqlite'));
-      const db = await openDb(path.join(run, 'db.sqlite'));
-      return { db, dir: run, done: async () => { await db.close(); fs.rmSync(run, { recursive: true, force: true }); } };
+      const file = path.join(run, 'db.sqlite');
+      fs.copyFileSync(from, file);
+      const db = await openDb(file);
+      return { db, dir: run, file, done: async () => { await db.close(); fs.rmSync(run, { recursive: true, force: true }); } };
     },
   };
 }

@@ -4,9 +4,12 @@
  * mounted on a bare router with the signed-in user set by the test (no app booted), and every
  * figure it answers is worked out here from the stored rows.
  */
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import express from 'express';
-import { afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import type { Db } from '../../../server/db';
 import { loadConfig } from '../../../server/config';
@@ -35,14 +38,25 @@ const as = (role: SessionUser['role'], id = 1) => {
   user = { id, name: 'T', email: 't@test', role, active: true, mustChangePassword: false };
 };
 
+/** The fleet after one nightly run (duty, wear and predictions), written once per file run. */
+let afterNightly: string;
+
 beforeAll(async () => {
   template = await wearFleetTemplate();
+  const n = await template.fresh();
+  await nightlyOn(n.db, n.dir);
+  await n.db.sequelize.query('PRAGMA wal_checkpoint(TRUNCATE)');
+  await n.db.close();
+  afterNightly = path.join(os.tmpdir(), `reboundry-wear-routes-${process.pid}-${Date.now()}.sqlite`);
+  fs.copyFileSync(n.file, afterNightly);
+  fs.rmSync(n.dir, { recursive: true, force: true });
 }, 60_000);
+afterAll(() => fs.rmSync(afterNightly, { force: true }));
 
-beforeEach(async () => {
-  run = await template.fresh();
+/** Serves the wear route on a copy of the fleet as it stands before any run, or after one. */
+async function serve(state: 'fresh' | 'after nightly' = 'fresh') {
+  run = await template.fresh(state === 'fresh' ? undefined : afterNightly);
   db = run.db;
-  user = null;
   const app = express();
   app.use((req, _res, next) => {
     if (user) req.user = user;
@@ -55,6 +69,9 @@ beforeEach(async () => {
   server = app.listen(0);
   await new Promise<void>((res) => server.once('listening', () => res()));
   base = `http://127.0.0.1:${(server.address() as AddressInfo).port}/api`;
+}
+beforeEach(() => {
+  user = null;
 });
 afterEach(async () => {
   await new Promise<void>((res) => server.close(() => res()));
@@ -70,9 +87,9 @@ const get = async (p: string) => {
 const mixedLife: LifeResolver = (i) =>
   i.damperId === 101 || i.damperId === 103 ? { b: 1, medianWearKm: 6, p10WearKm: 3, p90WearKm: 30, source: 'short', note: '' } : priorLifeResolver()(i);
 
-async function nightly() {
+async function nightlyOn(target: Db, dataDir: string) {
   const ctx = (): PhaseContext => ({
-    sequelize: db.sequelize, now: NOW, asOf: AS_OF, before: BEFORE, timeZone: TZ, dataDir: run.dir, batchTrips: 10, thresholdFraction: 0.75,
+    sequelize: target.sequelize, now: NOW, asOf: AS_OF, before: BEFORE, timeZone: TZ, dataDir, batchTrips: 10, thresholdFraction: 0.75,
     lifeResolver: mixedLife, loadProfile: async (_d, id) => (id === 1 ? PROFILE : Promise.reject(new Error('gone'))), progress: () => {}, errors: [], counts: {},
   });
   await processTrips(ctx());
@@ -82,15 +99,21 @@ async function nightly() {
 
 describe('the vehicle wear view', () => {
   it('when a vehicle has no duty yet, then its fitted dampers are listed at nominal damping with no prediction, history or route duty', async () => {
+    await serve();
     as('manager');
     const r = await get('/vehicles/1/wear');
     expect(r.status).toBe(200);
     expect(r.body).toMatchObject({ vehicleId: 1, thresholdFraction: 0.75, windowDays: 30, caution: CAUTION_TEXT, dutyByRoute: [], nextInspection: await inspectionService(db.sequelize).nextForVehicle(1) });
-    const a = r.body.assumptions as string[];
-    expect(a).toHaveLength(7);
-    expect(a[2]).toBe('A damper is also at end of life 5 years after fitting, whatever its distance (common practice: 5–7 years).');
-    expect(a[3]).toBe('Present damping is estimated as a linear fade from the nominal value to 60 % at end of life (an assumption until a test-lane result is recorded).');
-    expect(a[4]).toBe("Dates are a straight-line projection of the last 30 days' wear.");
+    // the words of the view, with the settings filled in (calendar limit 5 years, window 30 days)
+    expect(r.body.assumptions).toEqual([
+      'Life used = wear km / median life in wear km. Wear km is each trip\'s distance weighted by its road severity (rod sliding distance per km, with a heat factor on very rough fast stretches) against the road the rated km is stated on (ISO 8608 class B at 80 km/h): severity 1 there, about 2 on class C, 4 on class D.',
+      "The median life comes from the spec's life model: fitted to the fleet's own removals, starting from the trade's prior (the rated km on class B; 1.5× shorter per ISO class step, as makers' severe-service schedules commonly halve intervals). End-of-life dates come with a P10–P90 range from the fitted scatter.",
+      'A damper is also at end of life 5 years after fitting, whatever its distance (common practice: 5–7 years).',
+      'Present damping is estimated as a linear fade from the nominal value to 60 % at end of life (an assumption until a test-lane result is recorded).',
+      "Dates are a straight-line projection of the last 30 days' wear.",
+      'Distance a damper ran before the trips on record is charged as opening wear at the rated road\'s rate, unless its own record is at least as long, then at its own recorded rate; the share is shown with its range and revised as the records grow.',
+      'Spring fatigue uses an assumed S–N curve (not the spring maker\'s).',
+    ]);
     expect(r.body.dampers.map((d) => [d.id, d.position, d.axleIndex])).toEqual([[101, 'FL', 0], [102, 'FR', 0], [103, 'RL', 1], [104, 'RR', 1]]);
     expect(r.body.dampers[0]).toEqual({
       id: 101, position: 'FL', axleIndex: 0, partNumber: null, installedAt: '2026-09-01', energyJ: 0, springDamage: 0, lifeUsedFraction: 0,
@@ -99,7 +122,7 @@ describe('the vehicle wear view', () => {
   });
 
   it('when the nightly phases have run, then each damper\'s prediction, path, history and opening and the duty per route follow from the stored rows (computed)', async () => {
-    await nightly();
+    await serve('after nightly');
     as('mechanic');
     const r = await get('/vehicles/1/wear');
     expect(r.status).toBe(200);
@@ -184,7 +207,41 @@ describe('the vehicle wear view', () => {
     expect(duty.filter((x) => x.axle_index === 1)).toHaveLength(6);
   });
 
+  it('when wear days are stored but no prediction yet, then the history has no life used and nominal damping; a prediction with no window distance has no severity and its life in km is the wear-km life', async () => {
+    await serve();
+    const ctx = (): PhaseContext => ({
+      sequelize: db.sequelize, now: NOW, asOf: AS_OF, before: BEFORE, timeZone: TZ, dataDir: run.dir, batchTrips: 10, thresholdFraction: 0.75,
+      loadProfile: async () => PROFILE, progress: () => {}, errors: [], counts: {},
+    });
+    await processTrips(ctx());
+    await recomputeWear(ctx());
+    as('manager');
+    const before = await get('/vehicles/1/wear');
+    const fl = before.body.dampers[0] as Record<string, never>;
+    expect(fl).toMatchObject({ prediction: null, path: [], opening: null, lastDutyDay: '2026-11-28', dampingNsPerM: 2800 });
+    expect((fl.history as Record<string, number>[]).map((h) => [h.lifeUsedFraction, h.dampingNsPerM])).toEqual([[0, 2800], [0, 2800], [0, 2800], [0, 2800]]);
+    await predictAll(ctx());
+    await db.sequelize.query(`UPDATE damper_predictions SET window_km = 0, basis = '' WHERE damper_id = 101`);
+    await db.sequelize.query(`UPDATE damper_wear_days SET distance_km = 0 WHERE damper_id = 101 AND day = '2026-11-10'`);
+    await db.sequelize.query(`UPDATE dampers SET opening_basis = NULL WHERE id = 101`);
+    const after = await get('/vehicles/1/wear');
+    const p = (after.body.dampers[0] as Record<string, Record<string, unknown>>).prediction;
+    const [row] = await rows<{ life_wear_km: number; opening_share: number; opening_share_low: number; opening_share_high: number; opening_km: number }>(`SELECT * FROM damper_predictions WHERE damper_id = 101`);
+    expect(p).toMatchObject({ severity: null, lifeKm: row.life_wear_km, basis: null });
+    expect((after.body.dampers[0] as Record<string, unknown>).opening).toEqual({ km: row.opening_km, share: row.opening_share, shareLow: row.opening_share_low, shareHigh: row.opening_share_high, basis: '' });
+    expect(((after.body.dampers[0] as Record<string, Record<string, unknown>[]>).history[0]).severity).toBeNull();
+  });
+
+  it('when the duty rows have no energy or distance, then the route shares and the energy per km are 0, not a division by zero', async () => {
+    await serve('after nightly');
+    await db.sequelize.query(`UPDATE trip_duties SET energy_j = 0, distance_km = 0`);
+    as('manager');
+    const r = await get('/vehicles/1/wear');
+    expect(r.body.dutyByRoute.map((x) => [x.km, x.energyJ, x.energyJPerKm, x.sharePct])).toEqual([[0, 0, 0, 0], [0, 0, 0, 0]]);
+  });
+
   it('when a driver asks, then only the vehicle assigned to them is shown; an unknown vehicle or a bad id is refused', async () => {
+    await serve();
     await insert(db.sequelize, 'users', ['id', 'name', 'email', 'role', 'password_hash', 'active', 'created_at', 'updated_at'], [[7, 'Dee', 'dee@test', 'driver', 'x', 1, STAMP, STAMP]]);
     await db.sequelize.query(`UPDATE vehicles SET driver_id = 7 WHERE id = 1`);
     as('driver', 7);
@@ -204,7 +261,7 @@ describe('the vehicle wear view', () => {
 
 describe('the wear reads for other areas', () => {
   it('when the front-axle duty of trips is asked, then each trip gives its front-left weighted acceleration, duration, driver and day; no trips, no rows', async () => {
-    await nightly();
+    await serve('after nightly');
     const repo = wearReadRepository(db.sequelize);
     const fl = await rows<{ trip_id: number; rms_weighted_accel: number; duration_s: number; driver_id: number | null; trip_date: string }>(`SELECT * FROM trip_duties WHERE position = 'FL' ORDER BY trip_id`);
     expect(fl.map((x) => x.trip_id)).toEqual([1, 2, 3, 4, 5]);
