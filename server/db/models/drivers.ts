@@ -2,8 +2,8 @@
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type Sequelize } from 'sequelize';
 import { Row, optional, required, rowColumns, type Attrs, type CAttrs } from './columns';
 
-export const RIDE_REPORT_STATUSES = ['new', 'accepted', 'dismissed'] as const;
-export type RideReportStatus = (typeof RIDE_REPORT_STATUSES)[number];
+export { RIDE_REPORT_STATUSES, type RideReportStatus } from '../../contracts/drivers';
+import type { RideReportStatus } from '../../contracts/drivers';
 
 export class RideReport extends Row<RideReport> {
   declare driverId: ForeignKey<number>;
