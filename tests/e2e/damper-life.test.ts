@@ -3,18 +3,15 @@ import type { Browser, Page } from 'playwright-core';
 import { QueryTypes } from 'sequelize';
 import { fullPageScreenshot, launchBrowser, screenshotPath, type ViewportName } from '../support/browser';
 import { axeViolations } from '../support/axe';
-import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
-import { run as runNightly } from '../../jobs/nightly';
+import { startTestServer, type TestServer } from '../support/server';
 import { DEMO, expectHeading, expectPath, signedInPage, openPage } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
 
 beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-  // the nightly run fits each spec's life model and predicts every damper's wear
-  const r = await runNightly({ db: server.db, config: server.config, log: server.log, mailer: server.mailer, now: TEST_NOW, trigger: 'test' });
-  expect(r.status).toBe('succeeded');
+  // the demo fleet after one nightly run, which fitted each spec's life model and predicted every damper's wear
+  [server, browser] = await Promise.all([startTestServer({ afterNightly: true }), launchBrowser()]);
 }, 240_000);
 afterAll(async () => {
   await browser?.close();
