@@ -1,5 +1,6 @@
 import { Op, type Transaction, type WhereOptions } from 'sequelize';
 import { User, type Role } from '../db/models';
+import { sqlFor } from '../db/dialect';
 import type { SessionUser } from '../http/access';
 
 export interface UserRow extends SessionUser {
@@ -80,7 +81,7 @@ export const userRepository = {
    */
   async endSessions(id: number, keepSid: string | null = null) {
     await User.sequelize!.query(
-      `DELETE FROM sessions WHERE json_valid(data) AND json_extract(data, '$.passport.user') = ? AND (? IS NULL OR sid != ?)`,
+      `DELETE FROM sessions WHERE ${sqlFor(User.sequelize!).jsonFieldIs('data', ['passport', 'user'])} AND (? IS NULL OR sid != ?)`,
       { replacements: [id, keepSid, keepSid] },
     );
   },
