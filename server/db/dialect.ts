@@ -4,7 +4,7 @@
  * difference is a function or a word here, picked by the Sequelize instance's dialect, so the
  * repositories hold one statement each rather than one per database.
  */
-import type { Sequelize } from 'sequelize';
+import { Op, type Sequelize } from 'sequelize';
 
 export type Dialect = 'sqlite' | 'postgres';
 
@@ -77,6 +77,12 @@ const postgres: SqlWords = {
   true: 'TRUE',
   false: 'FALSE',
 };
+
+/**
+ * Sequelize's operator for a search by part of a text that ignores letter case, as SQLite's LIKE
+ * does (PostgreSQL's LIKE heeds case; its ILIKE does not).
+ */
+export const likeOp = (sequelize: Sequelize): typeof Op.like | typeof Op.iLike => (isPostgres(sequelize) ? Op.iLike : Op.like);
 
 /** The SQL words of the database a Sequelize instance is open on. */
 export const sqlFor = (sequelize: Sequelize): SqlWords => (isPostgres(sequelize) ? postgres : sqlite);
