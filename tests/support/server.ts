@@ -3,6 +3,8 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
+import { inject } from 'vitest';
+import { Sequelize } from 'sequelize';
 import { loadConfig } from '../../server/config';
 import { createApp, type AppDeps } from '../../server/app';
 import { createLogger } from '../../server/logger';
@@ -73,15 +75,81 @@ function demoTemplate(): Promise<string> {
   return templateDir;
 }
 
+/** The private PostgreSQL server of the `pg` test project and its seeded template (postgres-global.ts). */
+export interface PostgresTarget {
+  baseUrl: string;
+  templateDb: string;
+  templateDataDir: string;
+}
+
+/** Migrates and seeds the demo fleet (as of {@link TEST_NOW}) into an empty PostgreSQL database. */
+export async function seedPostgresTemplate(url: string, dataDir: string) {
+  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, DATABASE_URL: url, SEED_DEMO: 'true', LOG_LEVEL: 'error' });
+  const db = await prepareDatabase(config, createLogger(config.logLevel), TEST_NOW);
+  await db.close();
+}
+
+/** The PostgreSQL server tests run against: set in the `pg` project only. */
+function postgresTarget(): PostgresTarget | undefined {
+  try {
+    return inject('reboundryPostgres');
+  } catch {
+    return undefined; // not inside a vitest worker (benchmarks)
+  }
+}
+
+/** Which database a test server runs on: PostgreSQL in the `pg` project, else SQLite; a test may ask for one. */
+export type TestDatabase = 'sqlite' | 'postgres';
+export const defaultTestDatabase = (): TestDatabase => (postgresTarget() ? 'postgres' : 'sqlite');
+
+let pgDatabases = 0;
+
+/** A new PostgreSQL database for one test server: a copy of the seeded template, or empty. */
+async function createPostgresDatabase(target: PostgresTarget, seeded: boolean): Promise<{ url: string; drop(): Promise<void> }> {
+  const name = `reboundry_test_${process.pid}_${++pgDatabases}_${crypto.randomBytes(3).toString('hex')}`;
+  const admin = new Sequelize(`${target.baseUrl}postgres`, { dialect: 'postgres', logging: false });
+  try {
+    for (let attempt = 0; ; attempt++) {
+      try {
+        await admin.query(`CREATE DATABASE ${name}${seeded ? ` TEMPLATE ${target.templateDb}` : ''}`);
+        break;
+      } catch (e) {
+        // two copies of one template at the same moment: the second waits for the first
+        if (attempt > 50 || !/being accessed by other users/.test(String(e))) throw e;
+        await new Promise((r) => setTimeout(r, 100));
+      }
+    }
+  } finally {
+    await admin.close();
+  }
+  return {
+    url: `${target.baseUrl}${name}`,
+    async drop() {
+      const a = new Sequelize(`${target.baseUrl}postgres`, { dialect: 'postgres', logging: false });
+      await a.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`).finally(() => a.close());
+    },
+  };
+}
+
 /**
  * Boots the real app on port 0 against a fresh SQLite file in a temp folder (with the demo
  * fleet unless `seed: false`), serving the built client from dist/web when present.
  */
-export async function startTestServer(opts: { seed?: boolean; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string } = {}): Promise<TestServer> {
+export async function startTestServer(
+  opts: { seed?: boolean; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string; database?: TestDatabase } = {},
+): Promise<TestServer> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-test-'));
+  // In the `pg` project (or when asked) the database is a copy of the private PostgreSQL server's template.
+  const target = (opts.database ?? defaultTestDatabase()) === 'postgres' ? postgresTarget() : undefined;
+  if (opts.database === 'postgres' && !target) throw new Error('no PostgreSQL server for the tests: run the `pg` project (vitest --project pg)');
+  const pg = target ? await createPostgresDatabase(target, opts.seed !== false) : null;
   // The demo fleet is seeded once per version of the server code and copied into each test's folder.
-  if (opts.seed !== false) fs.cpSync(await demoTemplate(), dataDir, { recursive: true });
-  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, SEED_DEMO: opts.seed === false ? 'false' : 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...opts.env });
+  if (opts.seed !== false) fs.cpSync(target ? target.templateDataDir : await demoTemplate(), dataDir, { recursive: true });
+  const config = loadConfig({
+    NODE_ENV: 'test', DATA_DIR: dataDir, SEED_DEMO: opts.seed === false ? 'false' : 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error',
+    ...(pg ? { DATABASE_URL: pg.url } : {}),
+    ...opts.env,
+  });
   const log = createLogger(config.logLevel);
   const db = await prepareDatabase(config, log, TEST_NOW);
   const { mailer } = await createMailer(config, log);
@@ -105,6 +173,7 @@ export async function startTestServer(opts: { seed?: boolean; auth?: AppDeps['au
       built.close();
       await mailer.close();
       await db.close();
+      await pg?.drop();
       fs.rmSync(dataDir, { recursive: true, force: true });
     },
   };
