@@ -21,8 +21,9 @@ const layerRules = [
   rule(['server/**/*.ts', 'jobs/**/*.ts'], noClient),
   rule(['server/*/**/*.ts'], noClient, up('^(\\.\\./){2,}jobs/', 'An area does not import the jobs (they import the areas); take what it needs as a dependency from server/main.ts.')),
   rule(['server/lib/**/*.ts'], noClient, up('^\\.\\./', 'server/lib is the bottom layer: it imports only packages and node built-ins.')),
-  rule(['server/physics/**/*.ts'], noClient, up('^\\.\\./(?!lib/)', 'server/physics is pure numerics: it imports only server/lib.')),
-  rule(['server/reliability/**/*.ts'], noClient, up('^\\.\\./(?!lib/|physics/)', 'server/reliability imports only server/lib and server/physics.')),
+  // contracts import nothing but zod, so the pure layers may take the shapes they share with the client from them
+  rule(['server/physics/**/*.ts'], noClient, up('^\\.\\./(?!lib/|contracts/)', 'server/physics is pure numerics: it imports only server/lib and the contracts.')),
+  rule(['server/reliability/**/*.ts'], noClient, up('^\\.\\./(?!lib/|physics/|contracts/)', 'server/reliability imports only server/lib, server/physics and the contracts.')),
   rule(['server/db/*.ts'], noClient, up('^\\.\\./(?!lib/|physics/|contracts/|config$|logger$)', 'server/db imports no area (an area imports db, never the other way).')),
   rule(['server/db/models/*.ts'], noClient, up('^\\.\\./\\.\\./(?!contracts/)', 'The models import no area (an area imports db, never the other way).')),
   rule(['server/contracts/**/*.ts'], noClient, up('^\\.\\./', 'server/contracts is shared with the client: it imports nothing but zod and its own files.')),

@@ -1,9 +1,33 @@
-/** Request bodies of the suspension spec endpoints, shared with the spec editor. */
+/** Request bodies of the suspension spec endpoints, shared with the spec editor, and a corner's parameters. */
 import { z } from 'zod';
 import { noHiddenChars } from './common';
 
 export const VEHICLE_CLASSES = ['passenger car', 'light commercial', 'heavy goods'] as const;
 export type VehicleClass = (typeof VEHICLE_CLASSES)[number];
+
+/**
+ * Parameters of one vehicle corner for the two-mass (quarter-car) model, SI units: what the physics
+ * engine computes with (server/physics) and what the spec pages show.
+ *
+ * Source of the model: docs/methods.md "The corner model" (textbook two-mass model, e.g. Gillespie 1992; Wong;
+ * Cebon 1999).
+ *
+ * @example
+ * const corner: CornerParams = { sprungMassKg: 400, unsprungMassKg: 45,
+ *   springRateNPerM: 22000, dampingNsPerM: 1800, tireRateNPerM: 200000 };
+ */
+export interface CornerParams {
+  /** Body share carried by this corner [kg]. */
+  sprungMassKg: number;
+  /** Wheel, hub, brake and axle share of this corner [kg]. */
+  unsprungMassKg: number;
+  /** Suspension spring rate at the wheel [N/m]. */
+  springRateNPerM: number;
+  /** Damper coefficient at the wheel (linear) [N·s/m]. */
+  dampingNsPerM: number;
+  /** Tyre vertical stiffness [N/m]. */
+  tireRateNPerM: number;
+}
 
 const num = (unit: string) => z.number({ message: `must be a number in ${unit}` }).finite(`must be a finite number in ${unit}`);
 

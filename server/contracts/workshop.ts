@@ -1,6 +1,7 @@
 /**
  * Request bodies of the workshop endpoints (assigning an inspection, recording lane results,
- * recording work), shared with the client, which checks a form with them before sending it.
+ * recording work), shared with the client, which checks a form with them before sending it, and
+ * the answers it reads: corner states, the life back-test, a Weibull fit.
  */
 import { z } from 'zod';
 import { isRealDay, isoDay, noHiddenChars } from './common';
@@ -137,4 +138,55 @@ export interface CornerState {
   /** Median life [km] at the damper's own recent wear rate (or on the rated road before the nightly job). */
   lifeKm: number;
   lifeSource: LifeSource;
+}
+
+/** One removal for wear in a back-test: what the life model, trained only on the data before it, predicted. */
+export interface BacktestPoint {
+  damperId: number;
+  vehicleId: number;
+  removedAt: string;
+  actualKm: number;
+  predictedMedianKm: number;
+  p10Km: number;
+  p90Km: number;
+  inside: boolean;
+  /** |predicted median − actual| / actual [%]. */
+  errorPct: number;
+  /** Removals for wear the model had learned from before this one. */
+  trainedOn: number;
+}
+
+/** A spec's back-test of the life model over its removals for wear. */
+export interface Backtest {
+  specId: number;
+  points: BacktestPoint[];
+  /** Median absolute percentage error of the median prediction [%], and share of removals inside P10–P90 (0–1). */
+  mdape: number | null;
+  insideShare: number | null;
+  /** The same under the prior alone, for comparison. */
+  prior: { mdape: number | null; insideShare: number | null };
+  method: string;
+}
+
+/** GET /api/life-backtest: the back-test with the spec's name. */
+export interface LifeBacktest extends Backtest {
+  specName: string;
+}
+
+/** A two-parameter Weibull fit to failures and right-censored units (server/reliability/weibull.ts), in the unit of the lives. */
+export interface WeibullFit {
+  /** Shape β [1]. */
+  shape: number;
+  /** Scale η [unit of the lives]: 63.2 % have failed by then. */
+  scale: number;
+  /** B10 life: 10 % have failed by then [unit of the lives]. */
+  b10: number;
+  /** Mean life η·Γ(1 + 1/β) [unit of the lives]. */
+  mean: number;
+  failures: number;
+  suspensions: number;
+  /** Log-likelihood at the optimum. */
+  logLikelihood: number;
+  /** Two-sided Fisher-matrix bounds at `level` (null when the information matrix is singular). */
+  bounds: { level: number; method: string; shape: [number, number]; scale: [number, number]; b10: [number, number] } | null;
 }

@@ -9,7 +9,8 @@ import { DriverExposureDay } from '../db/models';
 const db = () => DriverExposureDay.sequelize!;
 const select = <T extends object>(sql: string, replacements: unknown[] = [], transaction?: Transaction, sq: Sequelize = db()) => selectRows<T>(sq, sql, replacements, transaction);
 
-export interface StoredExposureDay {
+/** A driver-day's exposure figures, as the nightly step works them out and as they are stored. */
+export interface ExposureDayFigures {
   driverId: number;
   day: string;
   a8: number;
@@ -17,6 +18,9 @@ export interface StoredExposureDay {
   trips: number;
   maxWeightedAccel: number;
   status: string;
+}
+
+export interface StoredExposureDay extends ExposureDayFigures {
   /** JSON of the day's parts (trip, route, vehicle, a_w, hours, seat factor). */
   parts: string;
   notifiedAt: string | null;

@@ -17,7 +17,7 @@ import { FRONT_TRACK_CORRELATION, floorToSeat } from '../physics/seat';
 import { mailRepository, type QueuedMail } from '../mail/repository';
 import { esc } from '../mail/templates';
 import { plusDays } from '../lib/days';
-import { exposureRepository } from './exposure-repository';
+import { exposureRepository, type ExposureDayFigures } from './exposure-repository';
 
 export const EXPOSURE_CAUTION =
   'A screening estimate from a model of the vehicle floor above the front axle, carried to the seat by stated factors, not a measurement at the seat. Follow your local regulations and have a competent person assess drivers’ exposure before acting on it.';
@@ -44,14 +44,7 @@ export interface ExposurePart {
   hours: number;
 }
 
-export interface ExposureDayValue {
-  driverId: number;
-  day: string;
-  a8: number;
-  hours: number;
-  trips: number;
-  maxWeightedAccel: number;
-  status: string;
+export interface ExposureDayValue extends ExposureDayFigures {
   parts: ExposurePart[];
 }
 

@@ -3,12 +3,13 @@ import { Op, QueryTypes, type Order, type Sequelize, type Transaction, type Wher
 import { RideReport, type RideReportStatus } from '../db/models';
 import { Route, RouteSegment, User, Vehicle } from '../db/models';
 import type { LonLat } from '../roads/geometry';
+import type { RideReportFiled, RideReportView } from '../contracts/drivers';
 
 export type RideReportSort = 'reportedAt' | 'severity' | 'status' | 'snapDistanceM';
 
 type Joined = RideReport & { driver?: User | null; decidedBy?: User | null; vehicle?: Vehicle | null; route?: Route | null; segment?: RouteSegment | null };
 
-const row = (r: Joined) => ({
+const row = (r: Joined): RideReportView => ({
   id: r.id,
   driverId: r.driverId,
   driverName: r.driver?.name ?? null,
@@ -49,7 +50,6 @@ const row = (r: Joined) => ({
   gdN0After: r.gdN0After ?? null,
   observationId: r.observationId ?? null,
 });
-export type RideReportRow = ReturnType<typeof row>;
 
 const include = [
   { model: User, as: 'driver', attributes: ['id', 'name'] },
@@ -59,24 +59,9 @@ const include = [
   { model: RouteSegment, as: 'segment', attributes: ['id', 'seq', 'startM', 'endM', 'isoClass', 'gdN0', 'iri', 'roughnessSource'] },
 ];
 
-export interface NewRideReport {
-  driverId: number;
-  vehicleId: number | null;
-  routeId: number;
-  segmentId: number;
-  lat: number;
-  lon: number;
-  positionSource: 'gps' | 'map';
-  accuracyM: number | null;
-  snappedLat: number;
-  snappedLon: number;
-  snapDistanceM: number;
-  severity: number;
-  felt: string[];
-  note: string | null;
+/** A report as it is stored: what the driver filed, where its photo is kept and when it came. */
+export interface NewRideReport extends RideReportFiled {
   photoPath: string | null;
-  photoType: string | null;
-  photoBytes: number | null;
   reportedAt: Date;
 }
 

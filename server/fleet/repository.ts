@@ -1,6 +1,7 @@
 import { Op, fn, col, literal, type Order, type WhereOptions } from 'sequelize';
 import { floorToSeat, type FloorToSeat } from '../physics/seat';
 import type { VehicleListItem } from '../contracts/fleet';
+import type { CornerParams } from '../contracts/specs';
 import {
   Damper,
   Depot,
@@ -14,14 +15,6 @@ import {
   type VehicleStatus,
 } from '../db/models';
 import { likeOp } from '../db/dialect';
-
-export interface CornerParams {
-  sprungMassKg: number;
-  unsprungMassKg: number;
-  springRateNPerM: number;
-  dampingNsPerM: number;
-  tireRateNPerM: number;
-}
 
 export interface AxleRow {
   axleIndex: number;

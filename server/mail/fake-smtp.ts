@@ -37,7 +37,8 @@ export async function startFakeSmtp(port: number, log: Logger): Promise<FakeSmtp
             mailRepository.catch({
               messageId: m.messageId ?? null,
               dedupeKey: (m.headers.get('x-reboundry-key') as string | undefined) ?? null,
-              mailFrom: session.envelope.mailFrom ? session.envelope.mailFrom.address : null,
+              // the null sender (MAIL FROM:<>, as bounces use) has the empty address: stored as none
+              mailFrom: session.envelope.mailFrom ? session.envelope.mailFrom.address || null : null,
               rcptTo: session.envelope.rcptTo.map((r) => r.address).join(', '),
               subject: m.subject ?? '(no subject)',
               textBody: m.text ?? null,

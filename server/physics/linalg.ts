@@ -49,7 +49,7 @@ export function matMul(a: Float64Array, b: Float64Array, n: number, out = new Fl
  * Matrix 1-norm (largest absolute column sum).
  * @param a n×n matrix
  * @param n order
- * @returns ‖a‖₁
+ * @returns ‖a‖₁ (NaN when an entry is NaN)
  * @example
  * norm1(new Float64Array([1, -2, 3, 4]), 2); // → 6
  */
@@ -58,6 +58,8 @@ export function norm1(a: Float64Array, n: number): number {
   for (let j = 0; j < n; j++) {
     let s = 0;
     for (let i = 0; i < n; i++) s += Math.abs(a[i * n + j]);
+    // a NaN entry makes the norm NaN (a comparison alone would skip it), so the callers' finiteness checks see it
+    if (Number.isNaN(s)) return NaN;
     if (s > best) best = s;
   }
   return best;

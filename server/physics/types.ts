@@ -6,32 +6,13 @@
  *
  * @module
  */
+import type { CornerParams } from '../contracts/specs';
 
 /** Standard gravity [m/s²] (CGPM 1901, ISO 80000-3). */
 export const STANDARD_GRAVITY = 9.80665;
 
-/**
- * Parameters of one vehicle corner for the two-mass (quarter-car) model.
- *
- * Source of the model: docs/methods.md "The corner model" (textbook two-mass model, e.g. Gillespie 1992; Wong;
- * Cebon 1999).
- *
- * @example
- * const corner: CornerParams = { sprungMassKg: 400, unsprungMassKg: 45,
- *   springRateNPerM: 22000, dampingNsPerM: 1800, tireRateNPerM: 200000 };
- */
-export interface CornerParams {
-  /** Body share carried by this corner [kg]. */
-  sprungMassKg: number;
-  /** Wheel, hub, brake and axle share of this corner [kg]. */
-  unsprungMassKg: number;
-  /** Suspension spring rate at the wheel [N/m]. */
-  springRateNPerM: number;
-  /** Damper coefficient at the wheel (linear) [N·s/m]. */
-  dampingNsPerM: number;
-  /** Tyre vertical stiffness [N/m]. */
-  tireRateNPerM: number;
-}
+/** Parameters of one vehicle corner for the two-mass model, kept with the contracts: the spec pages show the same. */
+export type { CornerParams } from '../contracts/specs';
 
 /**
  * Error thrown when an input to the physics engine is missing, non-finite or out of its

@@ -18,6 +18,10 @@
  * @module
  */
 import { CsvSyntaxError, readCsv, type CsvRow } from '../lib/csv';
+import type { WeibullFit } from '../contracts/workshop';
+
+/** A fit's figures, kept with the contracts: the fleet life page shows them. */
+export type { WeibullFit } from '../contracts/workshop';
 
 /** One unit's life and whether it ended in a failure (true) or is censored (false). */
 export interface LifeObservation {
@@ -25,23 +29,6 @@ export interface LifeObservation {
   life: number;
   /** True for a failure (removal for wear), false for a suspension (right-censored). */
   failed: boolean;
-}
-
-export interface WeibullFit {
-  /** Shape β [1]. */
-  shape: number;
-  /** Scale η [unit of the lives]: 63.2 % have failed by then. */
-  scale: number;
-  /** B10 life: 10 % have failed by then [unit of the lives]. */
-  b10: number;
-  /** Mean life η·Γ(1 + 1/β) [unit of the lives]. */
-  mean: number;
-  failures: number;
-  suspensions: number;
-  /** Log-likelihood at the optimum. */
-  logLikelihood: number;
-  /** Two-sided Fisher-matrix bounds at `level` (null when the information matrix is singular). */
-  bounds: { level: number; method: string; shape: [number, number]; scale: [number, number]; b10: [number, number] } | null;
 }
 
 export class WeibullInputError extends Error {

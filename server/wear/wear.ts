@@ -19,6 +19,7 @@
  * @module
  */
 import { addMonths as addMonthsFns } from 'date-fns';
+import type { PredictionBasis, PredictionFigures } from '../contracts/wear';
 
 /** Fraction of nominal damping left at end of life (ASSUMPTION: linear fade to 60 %). */
 export const DAMPING_AT_END_OF_LIFE = 0.6;
@@ -256,47 +257,20 @@ export function summarizeWear(history: WearDayRow[], opts: PredictOptions, openi
   return s;
 }
 
-export interface Prediction {
-  asOf: string;
-  windowDays: number;
-  windowKm: number;
-  windowWearKm: number;
-  /** Wear km per calendar day and km per day over the window. */
-  wearKmPerDay: number;
-  kmPerDay: number;
+/** A damper's prediction as the nightly job works it out and stores it (damper_predictions). */
+export interface Prediction extends PredictionFigures {
   life: LifeBasis;
   /** Recorded plus opening wear km. */
   wearKm: number;
   lifeUsedFraction: number;
-  /** Life used by the distance alone and by the calendar alone. */
-  distanceLifeUsed: number;
-  calendarLifeUsed: number;
   opening: Opening;
   /** Opening wear as a share of life, with its range. */
   openingShare: number;
   openingShareLow: number;
   openingShareHigh: number;
   dampingNsPerM: number;
-  thresholdFraction: number;
-  scheduleQuantile: number;
-  thresholdDate: string | null;
-  /** End of life at the median of the fitted scatter, and its P10–P90 range. */
-  endOfLifeDate: string | null;
-  endOfLifeP10Date: string | null;
-  endOfLifeP90Date: string | null;
-  /** Which limit sets the end of life: 'distance' or 'calendar'. */
-  governedBy: 'distance' | 'calendar';
   springDamage: number;
-  springRatePerDay: number;
-  springThresholdDate: string | null;
-  basis: {
-    method: string;
-    life: string;
-    opening: string;
-    calendar: string;
-    damping: string;
-    window: string;
-  };
+  basis: PredictionBasis;
 }
 
 /** Predicts from a {@link WearSummary}. */

@@ -35,7 +35,7 @@ import { fitWeibull, weibullPlotPoints, type LifeObservation, type WeibullFit } 
 import { lifeRepository } from './life-repository';
 import { workshopRepository } from './repository';
 
-import { CENSORED_REASONS, WEAR_REASONS } from '../contracts/workshop';
+import { CENSORED_REASONS, WEAR_REASONS, type Backtest, type BacktestPoint } from '../contracts/workshop';
 
 export { CENSORED_REASONS, REMOVAL_REASONS, WEAR_REASONS } from '../contracts/workshop';
 
@@ -280,31 +280,6 @@ export async function specLife(specId: number, specName: string, settings: LifeS
       'A prediction is a planning aid, not a verdict on a damper: a qualified inspection, the maker\'s requirements and local regulations decide whether a damper stays in service.',
     ],
   };
-}
-
-export interface BacktestPoint {
-  damperId: number;
-  vehicleId: number;
-  removedAt: string;
-  actualKm: number;
-  predictedMedianKm: number;
-  p10Km: number;
-  p90Km: number;
-  inside: boolean;
-  errorPct: number;
-  /** Removals for wear the model had learned from before this one. */
-  trainedOn: number;
-}
-
-export interface Backtest {
-  specId: number;
-  points: BacktestPoint[];
-  /** Median absolute percentage error of the median prediction, and share of removals inside P10–P90. */
-  mdape: number | null;
-  insideShare: number | null;
-  /** The same under the prior alone, for comparison. */
-  prior: { mdape: number | null; insideShare: number | null };
-  method: string;
 }
 
 /**

@@ -4,6 +4,7 @@
  * check of predicted against measured damping.
  */
 import { addDays, startOfISOWeek } from 'date-fns';
+import type { LifeBacktest } from '../contracts/workshop';
 import { AppError } from '../errors';
 import { cornerState, FORECAST_MIN_CHANCE, replacementChance } from './corners';
 import { day, iso, type WorkshopContext } from './context';
@@ -19,7 +20,7 @@ export function workshopPlanning({ cfg, today }: WorkshopContext) {
     },
 
     /** What the model trained only on earlier data predicted for each removal, against what happened. */
-    async lifeBacktest(specId: number) {
+    async lifeBacktest(specId: number): Promise<LifeBacktest> {
       const s = await workshopRepository.specName(specId);
       if (!s) throw AppError.notFound('Suspension spec');
       return { specName: s.name, ...(await backtest(s.id, cfg.life, today())) };

@@ -1,10 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, newContext, type ViewportName } from '../support/browser';
+import { launchBrowser, type ViewportName } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
 import { axeViolations } from '../support/axe';
-import { DEMO, goViaMenu, settled, signIn } from './helpers';
+import { DEMO, goViaMenu, settled, signedInPage } from './helpers';
 import { menuFor } from '../../web/src/app/navigation';
 import type { Role } from '../../web/src/lib/roles';
 
@@ -43,9 +43,7 @@ const ROLES: { role: Role; email: string; size: ViewportName }[] = [
 describe('accessibility of every page, for each role (axe-core)', () => {
   for (const { role, email, size } of ROLES) {
     it(`when a ${role} opens each of their pages on a ${size}, then axe finds no violation`, async () => {
-      const context = await newContext(browser, size);
-      const page = await context.newPage();
-      await signIn(page, server.url, email);
+      const { context, page } = await signedInPage(browser, server.url, email, size);
       const paths = menuFor(role).map((p) => p.path);
       if (role !== 'driver') {
         const v = await one<{ id: number }>('SELECT id FROM vehicles ORDER BY id LIMIT 1');
@@ -72,9 +70,7 @@ describe('accessibility of every page, for each role (axe-core)', () => {
   }
 
   it('when a manager moves to another page through the menu, then focus lands on that page’s heading', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.getByRole('heading', { level: 1, name: 'Due inspections' }).waitFor();
     await goViaMenu(page, 'Vehicles');
     await page.getByRole('heading', { level: 1, name: 'Vehicles' }).waitFor();

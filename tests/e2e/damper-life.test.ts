@@ -1,20 +1,17 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { QueryTypes } from 'sequelize';
-import { fullPageScreenshot, launchBrowser, newContext, screenshotPath, type ViewportName } from '../support/browser';
+import { fullPageScreenshot, launchBrowser, screenshotPath, type ViewportName } from '../support/browser';
 import { axeViolations } from '../support/axe';
-import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
-import { run as runNightly } from '../../jobs/nightly';
-import { DEMO, expectHeading, expectPath, signIn } from './helpers';
+import { startTestServer, type TestServer } from '../support/server';
+import { DEMO, expectHeading, expectPath, signedInPage, openPage } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
 
 beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-  // the nightly run fits each spec's life model and predicts every damper's wear
-  const r = await runNightly({ db: server.db, config: server.config, log: server.log, mailer: server.mailer, now: TEST_NOW, trigger: 'test' });
-  expect(r.status).toBe('succeeded');
+  // the demo fleet after one nightly run, which fitted each spec's life model and predicted every damper's wear
+  [server, browser] = await Promise.all([startTestServer({ afterNightly: true }), launchBrowser()]);
 }, 240_000);
 afterAll(async () => {
   await browser?.close();
@@ -63,9 +60,7 @@ async function axisTitleClashes(page: Page): Promise<string[]> {
 describe('damper life in the browser', () => {
   for (const size of ['phone', 'tablet', 'desktop'] as ViewportName[]) {
     it(`when the wear, life and speed charts are drawn on a ${size}, then no axis title overlaps its tick labels or runs out of its chart`, async () => {
-      const context = await newContext(browser, size);
-      const page = await context.newPage();
-      await signIn(page, server.url, DEMO.manager);
+      const { context, page } = await signedInPage(browser, server.url, DEMO.manager, size);
       const list = await apiJson<{ items: { id: number }[] }>(page, '/api/vehicles?q=CV-106&page=1&pageSize=5');
       const [seg] = await server.db.sequelize.query<{ route_id: number }>(`SELECT route_id FROM route_segments WHERE iso_class IN ('D', 'E') ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT });
       const pages: [string, RegExp][] = [
@@ -88,12 +83,9 @@ describe('damper life in the browser', () => {
   }
 
   it('when a manager opens a vehicle, then each damper shows one life figure with its basis, and each section its own caution, with no figure said to be "from memory"', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     const list = await apiJson<{ items: { id: number }[] }>(page, '/api/vehicles?q=CV-106&page=1&pageSize=5');
-    await page.goto(`${server.url}/vehicles/${list.items[0]!.id}`);
-    await expectHeading(page, 'CV-106');
+    await openPage(page, `/vehicles/${list.items[0]!.id}`, 'CV-106');
     await page.getByRole('region', { name: 'Damper wear', exact: true }).getByRole('figure').first().waitFor();
     for (const corner of ['Front left', 'Front right', 'Rear left', 'Rear right']) {
       const card = page.getByRole('article', { name: `${corner} damper` });
@@ -118,16 +110,13 @@ describe('damper life in the browser', () => {
   }, 120_000);
 
   it('when a manager opens the damper-life page, then it shows the life per ISO class of the fitted model against the prior, and links to the back-test of the same spec', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     const specs = await apiJson<{ items: { id: number; name: string }[] }>(page, '/api/specs?pageSize=200');
     const truck = specs.items.find((s) => /truck/i.test(s.name));
     expect(truck, specs.items.map((s) => s.name).join(', ')).toBeDefined();
     if (!truck) return;
 
-    await page.goto(`${server.url}/damper-life`);
-    await expectHeading(page, 'Damper life from the fleet');
+    await openPage(page, '/damper-life', 'Damper life from the fleet');
     await page.getByLabel('Spec').selectOption({ label: truck.name });
     await page.waitForURL((u) => u.searchParams.get('specId') === String(truck.id));
     const life = await apiJson<{ lifeTable: LifeTableRow[]; comparison: { disagrees: boolean; ratio: number | null } }>(page, `/api/fleet-life?specId=${truck.id}`);
@@ -165,11 +154,8 @@ describe('damper life in the browser', () => {
   }, 120_000);
 
   it('when a mechanic opens the back-test, then it shows the median error and the share inside P10–P90 against the prior, one table row per removal, and the method', async () => {
-    const context = await newContext(browser, 'tablet');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.mechanic);
-    await page.goto(`${server.url}/damper-life/back-test`);
-    await expectHeading(page, 'How good are the life predictions?');
+    const { context, page } = await signedInPage(browser, server.url, DEMO.mechanic, 'tablet');
+    await openPage(page, '/damper-life/back-test', 'How good are the life predictions?');
     await page.getByText('Median error of the predicted life', { exact: true }).waitFor();
     const specId = Number(await page.getByLabel('Spec').inputValue());
     expect(specId).toBeGreaterThan(0);
@@ -203,18 +189,13 @@ describe('damper life in the browser', () => {
   }, 120_000);
 
   it('when a driver opens the back-test by its address, then it is not available to them', async () => {
-    const context = await newContext(browser, 'phone');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.driver);
-    await page.goto(`${server.url}/damper-life/back-test`);
-    await expectHeading(page, 'Not available for your role');
+    const { context, page } = await signedInPage(browser, server.url, DEMO.driver, 'phone');
+    await openPage(page, '/damper-life/back-test', 'Not available for your role');
     await context.close();
   }, 60_000);
 
   it("when a manager opens a vehicle's wear, then each damper reads in km, km/day, road severity and dates with a P10–P90 range, and nothing in energy", async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     const list = await apiJson<{ items: { id: number; fleetNumber: string }[] }>(page, '/api/vehicles?q=CV-106&page=1&pageSize=5');
     const v = list.items.find((x) => x.fleetNumber === 'CV-106');
     expect(v).toBeDefined();
@@ -225,8 +206,7 @@ describe('damper life in the browser', () => {
     const rl = wear.dampers.find((d) => d.position === 'RL');
     expect(rl?.prediction?.lifeKm).toBeGreaterThan(0);
 
-    await page.goto(`${server.url}/vehicles/${v.id}`);
-    await expectHeading(page, 'CV-106');
+    await openPage(page, `/vehicles/${v.id}`, 'CV-106');
     const region = page.getByRole('region', { name: 'Damper wear', exact: true });
     await region.getByRole('figure', { name: /Consumed life of the RL damper/ }).waitFor();
     const card = region.locator('div.rounded-md', { has: page.getByRole('heading', { name: 'RL damper' }) });

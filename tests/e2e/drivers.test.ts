@@ -1,10 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import type { Browser } from 'playwright-core';
-import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { launchBrowser, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
 import { axeViolations } from '../support/axe';
-import { DEMO, expectHeading, signIn } from './helpers';
+import { DEMO, signIn, signedInPage, openPage, freshPage } from './helpers';
 import { refreshExposure } from '../../server/drivers/exposure';
 
 let server: TestServer;
@@ -50,13 +50,11 @@ describe('drivers on a phone (390 × 844)', () => {
     const where = await beside(seg!.id);
 
     // --- the driver, on the road
-    const driverCtx = await newContext(browser, 'phone', server.url);
+    const { context: driverCtx, page } = await freshPage(browser, server.url, 'phone');
     await driverCtx.grantPermissions(['geolocation'], { origin: server.url });
     await driverCtx.setGeolocation({ ...where, accuracy: 12 });
-    const page = await driverCtx.newPage();
     await signIn(page, server.url, DEMO.driver);
-    await page.goto(`${server.url}/report`);
-    await expectHeading(page, 'Report a rough stretch');
+    await openPage(page, '/report', 'Report a rough stretch');
 
     // the draft survives a reload (a dropped connection)
     await page.getByRole('radio', { name: /Severe/ }).check();
@@ -116,11 +114,8 @@ describe('drivers on a phone (390 × 844)', () => {
     await page.screenshot({ path: screenshotPath('drivers-phone-my-reports-new'), fullPage: true });
 
     // --- the manager reviews (also on a phone)
-    const mgrCtx = await newContext(browser, 'phone', server.url);
-    const mp = await mgrCtx.newPage();
-    await signIn(mp, server.url, DEMO.manager);
-    await mp.goto(`${server.url}/ride-reports`);
-    await expectHeading(mp, 'Drivers’ ride reports');
+    const { context: mgrCtx, page: mp } = await signedInPage(browser, server.url, DEMO.manager, 'phone');
+    await openPage(mp, '/ride-reports', 'Drivers’ ride reports');
     await mp.getByRole('button', { name: new RegExp(seg!.route_name) }).first().click();
     const before = await mp.getByTestId('segment-roughness').innerText();
     expect(before).toContain(`class ${seg!.iso_class}`);
@@ -153,14 +148,12 @@ describe('drivers on a phone (390 × 844)', () => {
   });
 
   it('when a driver is far from every route, then the distance reads in km and the nearest route can be shown on the map and picked', async () => {
-    const ctx = await newContext(browser, 'phone', server.url);
+    const { context: ctx, page } = await freshPage(browser, server.url, 'phone');
     await ctx.grantPermissions(['geolocation'], { origin: server.url });
     // central London: over 100 km from the demo fleet's roads
     await ctx.setGeolocation({ latitude: 51.5, longitude: -0.12, accuracy: 10 });
-    const page = await ctx.newPage();
     await signIn(page, server.url, DEMO.driver);
-    await page.goto(`${server.url}/report`);
-    await expectHeading(page, 'Report a rough stretch');
+    await openPage(page, '/report', 'Report a rough stretch');
     await page.getByRole('button', { name: 'Use my position' }).click();
     const refused = page.getByText(/^That place is .* from the nearest route we know/);
     await refused.waitFor();
@@ -201,21 +194,15 @@ describe('drivers on a phone (390 × 844)', () => {
       }
     }
     await refreshExposure({ sequelize: server.db.sequelize, now: new Date('2026-11-30T12:00:00Z'), asOf: '2026-11-30', publicUrl: server.url, runId: null });
-    const ctx = await newContext(browser, 'phone', server.url);
-    const page = await ctx.newPage();
-    await signIn(page, server.url, DEMO.driver);
-    await page.goto(`${server.url}/exposure`);
-    await expectHeading(page, 'My vibration exposure');
+    const { context: ctx, page } = await signedInPage(browser, server.url, DEMO.driver, 'phone');
+    await openPage(page, '/exposure', 'My vibration exposure');
     await page.getByText(/not a measurement at the seat/).waitFor();
     await page.getByText(/action 0.5 m\/s²/).first().waitFor();
     await page.screenshot({ path: screenshotPath('drivers-phone-exposure'), fullPage: true });
     await ctx.close();
 
-    const mctx = await newContext(browser, 'desktop', server.url);
-    const mp = await mctx.newPage();
-    await signIn(mp, server.url, DEMO.manager);
-    await mp.goto(`${server.url}/exposure`);
-    await expectHeading(mp, 'Drivers’ vibration exposure');
+    const { context: mctx, page: mp } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
+    await openPage(mp, '/exposure', 'Drivers’ vibration exposure');
     await mp.getByRole('heading', { name: /Days above the action value/ }).waitFor();
     // the 15 highest days first, the rest on request
     const days = mp.getByRole('table', { name: 'Days above the action value' });
@@ -232,9 +219,7 @@ describe('drivers on a phone (390 × 844)', () => {
 
   it('when a manager opens a route and a segment on the map, then speed advice shows with its chart and caution', async () => {
     const [seg] = await q<{ id: number; route_id: number }>(`SELECT id, route_id FROM route_segments WHERE iso_class IN ('D', 'E') ORDER BY id LIMIT 1`);
-    const ctx = await newContext(browser, 'desktop', server.url);
-    const page = await ctx.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context: ctx, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.goto(`${server.url}/routes/${seg!.route_id}`);
     const section = page.getByRole('region', { name: 'Speed advice' });
     await section.getByRole('table', { name: 'Advised speed per segment' }).waitFor();

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { launchBrowser, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, signIn } from './helpers';
+import { DEMO, expectHeading, expectPath, signedInPage, openPage, openDialog, fillFields } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -18,25 +18,18 @@ afterAll(async () => {
 
 describe('vehicle and depot forms', () => {
   it('when a manager adds a vehicle and then updates its odometer, then the reading moves forward only and retiring asks first', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
-    await page.goto(`${server.url}/vehicles`);
-    await expectHeading(page, 'Vehicles');
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
+    await openPage(page, '/vehicles', 'Vehicles');
 
-    await page.getByRole('button', { name: 'Add a vehicle' }).click();
-    const dialog = page.getByRole('dialog', { name: 'Add a vehicle' });
-    await dialog.waitFor();
+    const dialog = await openDialog(page, 'Add a vehicle');
     // Nothing filled in: the form says what is missing and sends nothing.
     await dialog.getByRole('button', { name: 'Add vehicle' }).click();
     await dialog.getByText('Fleet number is required.').waitFor();
     await dialog.getByText('Choose a suspension spec.').waitFor();
 
-    await dialog.getByLabel('Fleet number').fill('TST-901');
-    await dialog.getByLabel('Plate').fill('BK26 TST');
+    await fillFields(dialog, { 'Fleet number': 'TST-901', Plate: 'BK26 TST', 'Odometer [km]': '1200' });
     await dialog.getByLabel('Suspension spec').selectOption({ index: 1 });
     await dialog.getByLabel('Depot').selectOption({ index: 1 });
-    await dialog.getByLabel('Odometer [km]').fill('1200');
     await page.screenshot({ path: screenshotPath('manager-desktop-vehicle-add') });
     await dialog.getByRole('button', { name: 'Add vehicle' }).click();
 
@@ -45,8 +38,7 @@ describe('vehicle and depot forms', () => {
     await page.getByText('1,200 km').first().waitFor();
 
     // A lower reading is refused in the form, naming the recorded one.
-    await page.getByRole('button', { name: 'Edit vehicle' }).click();
-    const edit = page.getByRole('dialog', { name: 'Edit TST-901' });
+    const edit = await openDialog(page, 'Edit vehicle', 'Edit TST-901');
     await edit.getByLabel('Odometer [km]').fill('900');
     await edit.getByRole('button', { name: 'Save changes' }).click();
     await edit.getByText(/cannot go backwards: the recorded reading is 1,200 km/).waitFor();
@@ -58,7 +50,7 @@ describe('vehicle and depot forms', () => {
     await page.getByText('1,850 km').first().waitFor();
 
     // Retiring needs a second press.
-    await page.getByRole('button', { name: 'Edit vehicle' }).click();
+    await openDialog(page, 'Edit vehicle', 'Edit TST-901');
     await edit.getByLabel('Status').selectOption('retired');
     await edit.getByRole('button', { name: 'Save changes' }).click();
     await edit.getByText('Retire TST-901?').waitFor();
@@ -74,8 +66,7 @@ describe('vehicle and depot forms', () => {
 
     // The same form opens from the vehicles table's row.
     await page.goto(`${server.url}/vehicles?q=TST-901`);
-    await page.getByRole('button', { name: 'Edit TST-901' }).click();
-    const fromTable = page.getByRole('dialog', { name: 'Edit TST-901' });
+    const fromTable = await openDialog(page, 'Edit TST-901');
     expect(await fromTable.getByLabel('Odometer [km]').inputValue()).toBe('1850');
     await fromTable.getByRole('button', { name: 'Cancel' }).click();
     await fromTable.waitFor({ state: 'hidden' });
@@ -83,13 +74,9 @@ describe('vehicle and depot forms', () => {
   });
 
   it('when a manager adds a depot by clicking the map, then the position is filled in and the depot is listed', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
-    await page.goto(`${server.url}/fleet`);
-    await expectHeading(page, 'Fleet');
-    await page.getByRole('button', { name: 'Add a depot' }).click();
-    const dialog = page.getByRole('dialog', { name: 'Add a depot' });
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
+    await openPage(page, '/fleet', 'Fleet');
+    const dialog = await openDialog(page, 'Add a depot');
     await dialog.getByLabel('Name').fill('Testbridge yard');
     await dialog.getByLabel('Address').fill('1 Test Lane');
     // the server's own rules, checked in the form: a position that is not a number is named on its field
@@ -109,8 +96,7 @@ describe('vehicle and depot forms', () => {
     await dialog.waitFor({ state: 'hidden' });
     await page.getByRole('table', { name: 'Depots' }).getByText('Testbridge yard').waitFor();
 
-    await page.getByRole('button', { name: 'Edit Testbridge yard' }).click();
-    const edit = page.getByRole('dialog', { name: 'Edit Testbridge yard' });
+    const edit = await openDialog(page, 'Edit Testbridge yard');
     await edit.getByLabel('Latitude [°]').fill('52.6');
     await edit.getByRole('button', { name: 'Save changes' }).click();
     await edit.waitFor({ state: 'hidden' });

@@ -1,9 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import type { Browser } from 'playwright-core';
-import { fullPageScreenshot, launchBrowser, newContext } from '../support/browser';
+import { fullPageScreenshot, launchBrowser } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, signIn } from './helpers';
+import { DEMO, signedInPage } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -30,9 +30,7 @@ describe('forms that speak plainly', () => {
     await sq.query(`UPDATE dampers SET life_used_fraction = 1.05, wear_updated_at = datetime('now') WHERE vehicle_id = ? AND position = 'FL' AND removed_at IS NULL`, { replacements: [insp.vehicle_id] });
     await sq.query(`UPDATE dampers SET life_used_fraction = 0.2, wear_updated_at = datetime('now') WHERE vehicle_id = ? AND position = 'FR' AND removed_at IS NULL`, { replacements: [insp.vehicle_id] });
 
-    const context = await newContext(browser, 'tablet');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.mechanic);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.mechanic, 'tablet');
     await page.goto(`${server.url}/inspections/${insp.id}`);
     const form = page.getByRole('form', { name: 'Test-lane results' });
     await form.waitFor();
@@ -74,9 +72,7 @@ describe('forms that speak plainly', () => {
   });
 
   it('when a manager types a wrong or blank figure in the spec editor, then the field says so, the modes go blank, Save says why it is off; the list shows the same units and modes', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.goto(`${server.url}/specs`);
     const table = page.getByRole('table', { name: 'Courier van 2.8 t: corner parameters per axle' });
     await table.waitFor();
@@ -113,6 +109,19 @@ describe('forms that speak plainly', () => {
     await page.getByLabel('Tyre rate [kN/m]').first().fill(col('Tyre rate (kN/m)').replace(/,/g, ''));
     await page.getByTestId('body-hz').first().waitFor();
     expect(await save.isDisabled()).toBe(false);
+
+    // the spec's own rules (the shared contract) are checked in the form: a SEAT value out of range is named on its field and nothing is sent
+    const seat = page.getByLabel(/^Seat SEAT value/);
+    await seat.fill('3');
+    const sent: string[] = [];
+    page.on('request', (r) => {
+      if (r.method() === 'PUT') sent.push(r.url());
+    });
+    await save.click();
+    await page.getByText('SEAT value must be 0.2–2 (SEAT value).').waitFor();
+    expect(await seat.getAttribute('aria-invalid')).toBe('true');
+    expect(await seat.evaluate((el) => el === document.activeElement)).toBe(true);
+    expect(sent).toEqual([]);
     await context.close();
   });
 
@@ -123,9 +132,7 @@ describe('forms that speak plainly', () => {
       { replacements: [DEMO.mechanic], type: QueryTypes.SELECT },
     );
     expect(insp).toBeDefined();
-    const context = await newContext(browser, 'tablet');
-    const page = await context.newPage();
-    await signIn(page, server.url, 'mechanic.millbrook@reboundry.test');
+    const { context, page } = await signedInPage(browser, server.url, 'mechanic.millbrook@reboundry.test', 'tablet');
     await page.goto(`${server.url}/inspections/${insp.id}`);
     await page.getByText('This inspection belongs to another depot.', { exact: false }).waitFor();
     expect(await page.getByText('Not available for your role').count()).toBe(0);
@@ -133,9 +140,7 @@ describe('forms that speak plainly', () => {
   });
 
   it('when a driver sends a report without saying where and then taps the map, then the "say where it was" message goes away', async () => {
-    const context = await newContext(browser, 'phone');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.driver);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.driver, 'phone');
     await page.goto(`${server.url}/report`);
     const picker = page.getByTestId('place-picker');
     await picker.locator('canvas').first().waitFor();

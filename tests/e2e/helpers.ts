@@ -1,5 +1,6 @@
 import { expect } from 'vitest';
-import type { Page } from 'playwright-core';
+import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
+import { newContext, type ViewportName } from '../support/browser';
 
 export const DEMO_PASSWORD = 'reboundry-demo';
 export const DEMO = {
@@ -8,13 +9,53 @@ export const DEMO = {
   driver: 'driver@reboundry.test',
 } as const;
 
-/** Signs in through the form, as a person would, and waits for the start page. */
-export async function signIn(page: Page, baseUrl: string, email: string, password = DEMO_PASSWORD) {
-  await page.goto(`${baseUrl}/sign-in`);
+/** Fills in the sign-in form on the page and presses Sign in (what follows is the caller's to check). */
+export async function submitSignIn(page: Page, email: string, password = DEMO_PASSWORD) {
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+/** Signs in through the form, as a person would, and waits for the start page. */
+export async function signIn(page: Page, baseUrl: string, email: string, password = DEMO_PASSWORD) {
+  await page.goto(`${baseUrl}/sign-in`);
+  await submitSignIn(page, email, password);
   await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
+}
+
+/**
+ * A page in a fresh browser context (its own cookies and storage) at one of our screen sizes,
+ * with the app's address as its base, so `page.goto('/vehicles')` works. Close the context at the end.
+ */
+export async function freshPage(browser: Browser, baseUrl: string, size: ViewportName = 'desktop'): Promise<{ context: BrowserContext; page: Page }> {
+  const context = await newContext(browser, size, baseUrl);
+  return { context, page: await context.newPage() };
+}
+
+/** A {@link freshPage} signed in as `email` through the form, on that person's start page. */
+export async function signedInPage(browser: Browser, baseUrl: string, email: string, size: ViewportName = 'desktop', password = DEMO_PASSWORD) {
+  const opened = await freshPage(browser, baseUrl, size);
+  await signIn(opened.page, baseUrl, email, password);
+  return opened;
+}
+
+/** Opens one of the app's pages by its address (below the context's base) and waits for its heading. */
+export async function openPage(page: Page, path: string, heading: string) {
+  await page.goto(path);
+  await expectHeading(page, heading);
+}
+
+/** Presses the button that opens a dialog and returns the dialog once it shows (named as the button unless told). */
+export async function openDialog(page: Page, button: string, dialog = button): Promise<Locator> {
+  await page.getByRole('button', { name: button, exact: true }).click();
+  const opened = page.getByRole('dialog', { name: dialog, exact: true });
+  await opened.waitFor();
+  return opened;
+}
+
+/** Types each value into the text field whose label reads exactly so, inside `scope` (a dialog, a form or the page). */
+export async function fillFields(scope: Page | Locator, values: Record<string, string>) {
+  for (const [label, value] of Object.entries(values)) await scope.getByLabel(label, { exact: true }).fill(value);
 }
 
 /** The names of the items in the visible main navigation, in order. */
@@ -100,8 +141,6 @@ export async function settled(page: Page) {
 export async function choosePassword(page: Page, temporary: string, chosen: string) {
   await expectHeading(page, 'Choose a new password');
   const form = page.getByRole('form', { name: 'Choose a new password' });
-  await form.getByLabel('Temporary password').fill(temporary);
-  await form.getByLabel('New password', { exact: true }).fill(chosen);
-  await form.getByLabel('New password again').fill(chosen);
+  await fillFields(form, { 'Temporary password': temporary, 'New password': chosen, 'New password again': chosen });
   await form.getByRole('button', { name: 'Save new password' }).click();
 }

@@ -1,9 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { launchBrowser, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
 import { ApiClient } from '../support/client';
-import { DEMO, expectHeading, settled, signIn } from './helpers';
+import { DEMO, expectHeading, settled, signedInPage, openPage } from './helpers';
 import { ROUGHNESS_CLASSES, roughnessColours } from '../../web/src/lib/roughness';
 
 let server: TestServer;
@@ -64,11 +64,8 @@ async function pointOnASegment(page: Page, container: string): Promise<{ x: numb
 
 describe('the road map in the browser', () => {
   it('when a manager clicks a road segment on a freshly loaded map, then that segment’s panel opens', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
-    await page.goto(`${server.url}/map`);
-    await expectHeading(page, 'Road map');
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
+    await openPage(page, '/map', 'Road map');
     await page.locator('[data-testid=fleet-map] canvas').first().waitFor();
     await page.waitForLoadState('networkidle');
     // the roads are drawn on the canvas once their data has arrived
@@ -89,9 +86,7 @@ describe('the road map in the browser', () => {
     const api = new ApiClient(server.url);
     await api.login(DEMO.manager);
     const data = await api.get<{ routes: { name: string }[]; depots: { name: string }[] }>('/api/map/segments');
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.goto(`${server.url}/map`);
     await page.locator('[data-testid=fleet-map] canvas').first().waitFor();
     const map = page.getByTestId('fleet-map');
@@ -106,9 +101,7 @@ describe('the road map in the browser', () => {
     await api.login(DEMO.manager);
     const due = await api.get<{ items: { depotName: string; status: string; routeIds: number[] }[] }>('/api/inspections/due');
     const roads = await api.get<{ routes: { id: number; name: string }[] }>('/api/map/segments');
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await expectHeading(page, 'Due inspections');
     await page.getByRole('button', { name: 'Map' }).click();
     const region = page.getByTestId('due-map');
@@ -137,11 +130,8 @@ describe('the road map in the browser', () => {
   });
 
   it('when the map is used on a phone, then the zoom buttons are at least 44 px square', async () => {
-    const context = await newContext(browser, 'phone');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.mechanic);
-    await page.goto(`${server.url}/map`);
-    await expectHeading(page, 'Road map');
+    const { context, page } = await signedInPage(browser, server.url, DEMO.mechanic, 'phone');
+    await openPage(page, '/map', 'Road map');
     for (const name of ['Zoom in', 'Zoom out']) {
       const box = (await page.getByRole('button', { name }).boundingBox())!;
       expect(box.width, name).toBeGreaterThanOrEqual(44);

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { launchBrowser, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, settled, signIn } from './helpers';
+import { DEMO, expectHeading, expectPath, settled, signIn, freshPage } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -18,8 +18,7 @@ afterAll(async () => {
 
 describe('nightly damper-duty run in the browser', () => {
   it('when a manager runs the job, then new due inspections, the vehicle wear and the outbox show its results', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
+    const { context, page } = await freshPage(browser, server.url, 'desktop');
     const renderErrors: string[] = [];
     page.on('console', (m) => {
       if (m.type() === 'error' && /TypeError|ReferenceError|caught the following error/.test(m.text())) renderErrors.push(m.text().slice(0, 300));

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { launchBrowser, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, choosePassword, expectHeading, expectPath, menuItems, signIn, goViaMenu } from './helpers';
+import { DEMO, choosePassword, expectHeading, expectPath, menuItems, signIn, goViaMenu, signedInPage, freshPage, submitSignIn, openDialog, fillFields } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -20,9 +20,7 @@ const row = (page: Page, name: string) => page.getByRole('table', { name: /^Peop
 
 describe('people (managers only)', () => {
   it('when a manager adds a person, changes their role and deactivates them, then the list shows each change and sign-in follows it', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await goViaMenu(page, 'People');
     await expectHeading(page, 'People');
     await page.getByText(/^1–\d+ of \d+ people$/).waitFor();
@@ -36,12 +34,9 @@ describe('people (managers only)', () => {
     await page.getByRole('button', { name: 'Clear filters' }).click();
 
     // Add a person: a short password is refused with a field message, then a good one works.
-    await page.getByRole('button', { name: 'Add a person' }).first().click();
-    const dialog = page.getByRole('dialog', { name: 'Add a person' });
-    await dialog.getByLabel('Name').fill('Rosa Quintero');
-    await dialog.getByLabel('E-mail').fill('rosa.quintero@reboundry.test');
+    const dialog = await openDialog(page, 'Add a person');
+    await fillFields(dialog, { Name: 'Rosa Quintero', 'E-mail': 'rosa.quintero@reboundry.test', 'First password': 'short' });
     await dialog.getByLabel('Role').selectOption('driver');
-    await dialog.getByLabel('First password').fill('short');
     await dialog.getByRole('button', { name: 'Add person' }).click();
     await dialog.getByText('First password must be at least 10 characters.').waitFor();
     expect(await dialog.getByLabel('First password').evaluate((el) => el === document.activeElement)).toBe(true);
@@ -54,8 +49,7 @@ describe('people (managers only)', () => {
     await page.getByLabel('Name or e-mail').fill('Quintero');
     await page.waitForFunction(() => new URL(location.href).searchParams.get('q') === 'Quintero');
     await row(page, 'Rosa Quintero').getByRole('cell', { name: 'Driver' }).waitFor();
-    await page.getByRole('button', { name: 'Change role for Rosa Quintero' }).click();
-    const roleDialog = page.getByRole('dialog', { name: 'Change role for Rosa Quintero' });
+    const roleDialog = await openDialog(page, 'Change role for Rosa Quintero');
     await roleDialog.getByLabel('Role').selectOption('mechanic');
     await roleDialog.getByRole('button', { name: 'Save role' }).click();
     await page.getByText('Rosa Quintero is now a mechanic.').waitFor();
@@ -63,9 +57,7 @@ describe('people (managers only)', () => {
 
     // The new person can sign in, chooses their own password (the manager's first one is
     // temporary) and lands where a mechanic does.
-    const theirs = await newContext(browser, 'tablet');
-    const theirPage = await theirs.newPage();
-    await signIn(theirPage, server.url, 'rosa.quintero@reboundry.test', 'quarry-lane-42');
+    const { context: theirs, page: theirPage } = await signedInPage(browser, server.url, 'rosa.quintero@reboundry.test', 'tablet', 'quarry-lane-42');
     await expectPath(theirPage, '/choose-password');
     await choosePassword(theirPage, 'quarry-lane-42', 'rosa-own-password');
     await expectPath(theirPage, '/workshop');
@@ -73,19 +65,15 @@ describe('people (managers only)', () => {
     await theirs.close();
 
     // Deactivate: confirm first; then the badge says so and sign-in is refused.
-    await page.getByRole('button', { name: 'Deactivate Rosa Quintero' }).click();
-    const confirm = page.getByRole('dialog', { name: 'Deactivate Rosa Quintero?' });
+    const confirm = await openDialog(page, 'Deactivate Rosa Quintero', 'Deactivate Rosa Quintero?');
     await page.screenshot({ path: screenshotPath('manager-desktop-people-deactivate') });
     await confirm.getByRole('button', { name: 'Deactivate' }).click();
     await page.getByText('Rosa Quintero can no longer sign in.').waitFor();
     await row(page, 'Rosa Quintero').getByText('Deactivated').waitFor();
 
-    const again = await newContext(browser, 'tablet');
-    const againPage = await again.newPage();
-    await againPage.goto(`${server.url}/sign-in`);
-    await againPage.getByLabel('E-mail').fill('rosa.quintero@reboundry.test');
-    await againPage.getByLabel('Password').fill('rosa-own-password');
-    await againPage.getByRole('button', { name: 'Sign in' }).click();
+    const { context: again, page: againPage } = await freshPage(browser, server.url, 'tablet');
+    await againPage.goto('/sign-in');
+    await submitSignIn(againPage, 'rosa.quintero@reboundry.test', 'rosa-own-password');
     await againPage.getByRole('alert').getByText(/do not match an active account/).waitFor();
     await again.close();
 
@@ -98,14 +86,10 @@ describe('people (managers only)', () => {
 
   it('when a manager sets a temporary password, then the person is signed out, signs in with it, must choose their own and then lands in the app', async () => {
     // The driver is signed in on their phone.
-    const phone = await newContext(browser, 'phone');
-    const phonePage = await phone.newPage();
-    await signIn(phonePage, server.url, DEMO.driver);
+    const { context: phone, page: phonePage } = await signedInPage(browser, server.url, DEMO.driver, 'phone');
     await expectPath(phonePage, '/my-vehicle');
 
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.goto(`${server.url}/people?q=${encodeURIComponent(DEMO.driver)}`);
     const action = page.getByRole('button', { name: /^Set temporary password for / });
     await action.click();
@@ -156,9 +140,7 @@ describe('people (managers only)', () => {
   });
 
   it('when a manager looks at their own row, then they cannot deactivate themselves or change their own role', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.goto(`${server.url}/people?q=manager%40reboundry.test`);
     await page.getByText('(you)').waitFor();
     expect(await page.getByRole('button', { name: /^Deactivate / }).isDisabled()).toBe(true);

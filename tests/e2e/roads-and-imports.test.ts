@@ -1,9 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { launchBrowser, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
 import { ApiClient } from '../support/client';
-import { DEMO, expectHeading, settled, signIn, goViaMenu } from './helpers';
+import { DEMO, expectHeading, settled, goViaMenu, signedInPage, openPage } from './helpers';
 import { synthesizeProfile } from '../../server/physics/iso8608';
 import { formatProfileCsv } from '../../server/roads/profile-store';
 import { roughnessColours } from '../../web/src/lib/roughness';
@@ -52,19 +52,15 @@ describe('roads, surveys and imports in the browser', () => {
     const profile = synthesizeProfile({ gdN0: 16384e-6, lengthM: Math.floor(route.lengthKm * 1000), dxM: 0.25, seed: 5 });
     const csv = formatProfileCsv({ dxM: 0.25, startM: 0, elevationsM: profile });
 
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
-    await page.goto(`${server.url}/map`);
-    await expectHeading(page, 'Road map');
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
+    await openPage(page, '/map', 'Road map');
     await page.locator('[data-testid=fleet-map] canvas').first().waitFor();
     await page.waitForLoadState('networkidle');
     await settled(page);
     const before = await pixelsOf(page, '[data-testid=fleet-map]', CLASS_F);
     await page.screenshot({ path: screenshotPath('manager-desktop-map') });
 
-    await page.goto(`${server.url}/routes/${route.id}`);
-    await expectHeading(page, route.name);
+    await openPage(page, `/routes/${route.id}`, route.name);
     await page.getByLabel('Profile file (CSV)').setInputFiles({ name: 'northgate-profile.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
     await page.getByRole('button', { name: 'Preview IRI' }).click();
     await page.getByRole('table', { name: 'Survey preview' }).waitFor();
@@ -82,9 +78,7 @@ describe('roads, surveys and imports in the browser', () => {
   });
 
   it('when a manager imports a trip file with one bad row, then the report names that row and nothing is imported', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await goViaMenu(page, 'Trips');
     await expectHeading(page, 'Trips');
     const csv = [
@@ -104,9 +98,7 @@ describe('roads, surveys and imports in the browser', () => {
   });
 
   it('when a manager edits a spec’s damping, then the body damping ratio updates', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.goto(`${server.url}/specs`);
     await page.getByRole('link', { name: 'Edit Courier van 2.8 t' }).click();
     await expectHeading(page, 'Edit Courier van 2.8 t');

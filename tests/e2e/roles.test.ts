@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { fullPageScreenshot, launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { fullPageScreenshot, launchBrowser, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, goViaMenu, menuEntries, menuItems, openMenuGroup, signIn } from './helpers';
+import { DEMO, expectHeading, expectPath, goViaMenu, menuEntries, menuItems, openMenuGroup, signedInPage, openPage, freshPage } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -26,9 +26,7 @@ const MANAGER_GROUPS: Record<string, [label: string, path: string][]> = {
 
 describe('each role lands on its own page and sees only what it may use', () => {
   it('when a manager signs in at a desk, then the due inspections open, the menu shows its groups, and the fleet overview is in the Fleet group', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
 
     await expectPath(page, '/due');
     await expectHeading(page, 'Due inspections');
@@ -86,9 +84,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
   });
 
   it('when a manager uses only the keyboard, then each group opens with Enter or Space, Escape closes it and returns focus, and every page in the menu can be reached', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await expectHeading(page, 'Due inspections');
     const nav = page.getByRole('navigation', { name: 'Main' });
     const focused = () => page.evaluate(() => (document.activeElement?.textContent ?? '').trim());
@@ -150,9 +146,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
   });
 
   it('when a manager opens the app on a 1024 px screen, then the grouped menu fits without scrolling sideways', async () => {
-    const context = await newContext(browser, 'tablet');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'tablet');
     await expectHeading(page, 'Due inspections');
     const nav = page.getByRole('navigation', { name: 'Main' });
     expect(await nav.evaluate((el) => el.scrollWidth <= el.clientWidth)).toBe(true);
@@ -164,9 +158,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
   });
 
   it('when a manager opens the app on a phone, then the bottom bar holds the same groups and a group opens upwards with its pages', async () => {
-    const context = await newContext(browser, 'phone');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'phone');
     await expectHeading(page, 'Due inspections');
     expect(await menuEntries(page)).toEqual(['Due', 'Fleet ▾', 'Roads ▾', 'Workshop ▾', 'Drivers ▾', 'Account']);
     expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
@@ -179,9 +171,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
   });
 
   it('when a mechanic signs in on a tablet, then the workshop opens with the fleet listed and a short menu', async () => {
-    const context = await newContext(browser, 'tablet');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.mechanic);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.mechanic, 'tablet');
 
     await expectPath(page, '/workshop');
     await expectHeading(page, 'Workshop');
@@ -201,9 +191,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
   });
 
   it('when a driver signs in on a phone, then their own vehicle opens and the menu has their vehicle, reporting, exposure and the account', async () => {
-    const context = await newContext(browser, 'phone');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.driver);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.driver, 'phone');
 
     await expectPath(page, '/my-vehicle');
     expect(await menuItems(page)).toEqual(['My vehicle', 'Report', 'My reports', 'Exposure', 'Account']);
@@ -220,9 +208,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
   });
 
   it('when a driver opens a manager page by its address, then a plain "not available for your role" page shows', async () => {
-    const context = await newContext(browser, 'phone');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.driver);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.driver, 'phone');
 
     for (const path of ['/people', '/vehicles', '/fleet']) {
       await page.goto(server.url + path);
@@ -236,18 +222,14 @@ describe('each role lands on its own page and sees only what it may use', () => 
   });
 
   it('when a mechanic opens the people page by its address, then it is not available to them', async () => {
-    const context = await newContext(browser, 'tablet');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.mechanic);
-    await page.goto(`${server.url}/people`);
-    await expectHeading(page, 'Not available for your role');
+    const { context, page } = await signedInPage(browser, server.url, DEMO.mechanic, 'tablet');
+    await openPage(page, '/people', 'Not available for your role');
     await context.close();
   });
 
   it('when nobody is signed in and a page is opened, then sign-in shows and afterwards that page opens', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await page.goto(`${server.url}/vehicles?status=workshop`);
+    const { context, page } = await freshPage(browser, server.url, 'desktop');
+    await page.goto('/vehicles?status=workshop');
     await expectPath(page, '/sign-in');
     expect(new URL(page.url()).searchParams.get('next')).toBe('/vehicles?status=workshop');
 

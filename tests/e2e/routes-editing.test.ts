@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { fullPageScreenshot, launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { fullPageScreenshot, launchBrowser, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, menuItems, signIn } from './helpers';
+import { DEMO, expectHeading, expectPath, menuItems, signedInPage, openPage } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -30,11 +30,8 @@ const editControls = ['Typical speed per segment', 'Upload a profile survey', 'S
 
 describe('routes: drawing, speeds, segments, and reading without edit rights', () => {
   it('when a manager draws a short route on the map, previews it and saves it, then its page opens with the previewed segments', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
-    await page.goto(`${server.url}/routes`);
-    await expectHeading(page, 'Routes');
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
+    await openPage(page, '/routes', 'Routes');
 
     const map = page.getByTestId('draw-map');
     await map.scrollIntoViewIfNeeded();
@@ -80,12 +77,9 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
   });
 
   it('when a manager edits one segment speed, then a wrong value is refused on its row, and a good one is saved with the others left on the route speed', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     const route = await firstRoute(page);
-    await page.goto(`${server.url}/routes/${route.id}`);
-    await expectHeading(page, route.name);
+    await openPage(page, `/routes/${route.id}`, route.name);
 
     const first = page.getByLabel('Speed on segment 1 [km/h]');
     const second = page.getByLabel('Speed on segment 2 [km/h]');
@@ -120,9 +114,7 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
   });
 
   it('when a manager filters and sorts the segments table, then the server answers and a segment opens on the map', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.goto(`${server.url}/routes`);
     await page.getByRole('link', { name: 'All segments' }).click();
     await expectHeading(page, 'Segments');
@@ -155,9 +147,7 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
   });
 
   it('when a mechanic opens the road map and a route page, then they read it all but see no edit controls', async () => {
-    const context = await newContext(browser, 'tablet');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.mechanic);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.mechanic, 'tablet');
     expect(await menuItems(page)).toContain('Roads');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Roads' }).click();
     await expectHeading(page, 'Road map');
@@ -166,8 +156,7 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     await page.screenshot({ path: screenshotPath('mechanic-tablet-map') });
 
     const route = await firstRoute(page);
-    await page.goto(`${server.url}/routes/${route.id}`);
-    await expectHeading(page, route.name);
+    await openPage(page, `/routes/${route.id}`, route.name);
     await page.getByTestId('route-map').waitFor();
     await page.getByRole('heading', { name: 'Trips on this route' }).waitFor();
     await page.waitForLoadState('networkidle');
@@ -179,12 +168,9 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
   });
 
   it('when a driver opens a route page on a phone, then it reads well and has no edit controls', async () => {
-    const context = await newContext(browser, 'phone');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.driver);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.driver, 'phone');
     const route = await firstRoute(page);
-    await page.goto(`${server.url}/routes/${route.id}`);
-    await expectHeading(page, route.name);
+    await openPage(page, `/routes/${route.id}`, route.name);
     await page.getByTestId('route-map').waitFor();
     await page.waitForLoadState('networkidle');
     for (const heading of editControls) expect(await page.getByRole('heading', { name: heading }).count()).toBe(0);

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { launchBrowser, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, DEMO_PASSWORD, choosePassword, expectHeading, expectPath, settled, signIn, goViaMenu } from './helpers';
+import { DEMO, DEMO_PASSWORD, choosePassword, expectHeading, expectPath, settled, signIn, goViaMenu, signedInPage, freshPage, submitSignIn } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -29,12 +29,9 @@ async function description(page: Page, label: string): Promise<string> {
 
 describe('sign-in', () => {
   it('when the password is wrong, then a plain error shows, is tied to the fields, and focus goes back to the password', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await page.goto(`${server.url}/sign-in`);
-    await page.getByLabel('E-mail').fill(DEMO.manager);
-    await page.getByLabel('Password').fill('not-the-password');
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    const { context, page } = await freshPage(browser, server.url, 'desktop');
+    await page.goto('/sign-in');
+    await submitSignIn(page, DEMO.manager, 'not-the-password');
 
     const alert = page.getByRole('alert');
     await alert.waitFor();
@@ -47,9 +44,8 @@ describe('sign-in', () => {
   });
 
   it('when the form is sent empty, then each field says what is missing and focus goes to the first one', async () => {
-    const context = await newContext(browser, 'phone');
-    const page = await context.newPage();
-    await page.goto(`${server.url}/sign-in`);
+    const { context, page } = await freshPage(browser, server.url, 'phone');
+    await page.goto('/sign-in');
     await page.getByRole('button', { name: 'Sign in' }).click();
 
     await page.getByText('E-mail is required.').waitFor();
@@ -62,9 +58,8 @@ describe('sign-in', () => {
   });
 
   it('when someone signs in with the keyboard only, then the focused control shows the accent focus ring', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await page.goto(`${server.url}/sign-in`);
+    const { context, page } = await freshPage(browser, server.url, 'desktop');
+    await page.goto('/sign-in');
     // The e-mail field has focus when the page opens.
     const email = page.getByLabel('E-mail');
     await email.waitFor();
@@ -87,9 +82,7 @@ describe('sign-in', () => {
   });
 
   it('when a signed-in person signs out, then sign-in shows with a note and pages need signing in again', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.getByRole('button', { name: 'Sign out' }).click();
     await expectPath(page, '/sign-in');
     await page.getByText('You are signed out.').waitFor();
@@ -102,9 +95,7 @@ describe('sign-in', () => {
 
 describe('session', () => {
   it('when the session ends while a page is open, then the next request leads to sign-in and back to that page', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await expectHeading(page, 'Due inspections');
     // The session ends on the server (as when it expires), and the browser forgets its cookie;
     // ending it on the server too means a response still in flight cannot revive it.
@@ -116,9 +107,7 @@ describe('session', () => {
     await expectPath(page, '/sign-in');
     await page.getByText('Your session has ended. Sign in again to carry on where you were.').waitFor();
     expect(new URL(page.url()).searchParams.get('next')).toBe('/vehicles');
-    await page.getByLabel('E-mail').fill(DEMO.manager);
-    await page.getByLabel('Password').fill(DEMO_PASSWORD);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await submitSignIn(page, DEMO.manager);
     await expectPath(page, '/vehicles');
     await context.close();
   });
@@ -126,11 +115,9 @@ describe('session', () => {
 
 describe('temporary password', () => {
   it('when a request is refused until a temporary password is replaced, then the page to choose one shows, and after it the start page', async () => {
-    const context = await newContext(browser, 'tablet');
-    const page = await context.newPage();
     // the second depot's mechanic, so the demo mechanic's password stays as the other tests expect
     const email = 'mechanic.millbrook@reboundry.test';
-    await signIn(page, server.url, email);
+    const { context, page } = await signedInPage(browser, server.url, email, 'tablet');
     await expectHeading(page, 'Workshop');
     await page.waitForLoadState('networkidle');
     // as if a manager's temporary password applied to this open session (the account the app
@@ -149,9 +136,7 @@ describe('temporary password', () => {
 
 describe('account', () => {
   it('when the current password is wrong or the new ones differ, then the form says which field to fix; a good change works', async () => {
-    const context = await newContext(browser, 'phone');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.driver);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.driver, 'phone');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Account' }).click();
     await expectHeading(page, 'Your account');
 

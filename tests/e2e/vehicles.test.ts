@@ -1,9 +1,9 @@
 import fs from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { launchBrowser, screenshotPath } from '../support/browser';
 import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, signIn, goViaMenu } from './helpers';
+import { DEMO, expectHeading, expectPath, goViaMenu, signedInPage } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -37,9 +37,7 @@ const km = (s: string) => Number(s.replace(/[^\d]/g, ''));
 
 describe('vehicles table', () => {
   it('when a manager pages, sorts, filters and searches, then the server answers each view and the address keeps it', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await goViaMenu(page, 'Vehicles');
     await expectHeading(page, 'Vehicles');
 
@@ -110,9 +108,7 @@ describe('vehicles table', () => {
   });
 
   it('when a manager downloads the CSV, then it holds every matching row, not only the page on screen, with units in the header', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.goto(`${server.url}/vehicles?status=in_service&pageSize=25&sort=-odometerKm`);
     const line = await range(page, /^1–\d+ of \d+ vehicles$/);
     const [, shownText, totalText] = /–(\d+) of ([\d,]+)/.exec(line)!;
@@ -134,9 +130,7 @@ describe('vehicles table', () => {
   });
 
   it('when a manager opens a vehicle, then its dampers by corner, spec with units, trips and inspections show', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.goto(`${server.url}/vehicles?q=CV-102`);
     await table(page).getByRole('link', { name: 'CV-102' }).click();
     await page.getByRole('heading', { level: 1, name: 'CV-102' }).waitFor();
@@ -170,9 +164,7 @@ describe('vehicles table', () => {
   });
 
   it('when a vehicle address does not exist, then the page says it could not be found, having asked the server once', async () => {
-    const context = await newContext(browser, 'desktop');
-    const page = await context.newPage();
-    await signIn(page, server.url, DEMO.manager);
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     const asked: string[] = [];
     page.on('request', (r) => {
       if (new URL(r.url()).pathname === '/api/vehicles/99999') asked.push(r.url());

@@ -1,11 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { QueryTypes } from 'sequelize';
-import { launchBrowser, newContext, screenshotPath } from '../support/browser';
+import { launchBrowser, screenshotPath } from '../support/browser';
 import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
 import { run as runNightly } from '../../jobs/nightly';
 import { axeViolations } from '../support/axe';
-import { DEMO, expectHeading, signIn } from './helpers';
+import { DEMO, expectHeading, signedInPage, openPage } from './helpers';
 
 let server: TestServer;
 let browser: Browser;
@@ -38,9 +38,7 @@ describe('workshop', () => {
   it('when a mechanic records an inspection with a photo and a replacement, then the manager sees the vehicle state and the forecast change', async () => {
     // Arrange: a vehicle whose dampers are in the 90-day forecast gets an open inspection (demo data has none for it).
     const sq = server.db.sequelize;
-    const mgrCtx = await newContext(browser, 'desktop');
-    const mgr = await mgrCtx.newPage();
-    await signIn(mgr, server.url, DEMO.manager);
+    const { context: mgrCtx, page: mgr } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     const before = (await (await mgr.request.get(`${server.url}/api/forecast`)).json()) as { totals: { replacements: number }; items: { vehicleId: number; damperId: number; fleetNumber: string; position: string; chance: number }[] };
     // a vehicle whose front dampers are due for replacement (the work below replaces the front pair)
     const target = before.items.find((i) => i.position === 'FL' || i.position === 'FR');
@@ -55,8 +53,7 @@ describe('workshop', () => {
     }
 
     // The manager assigns it to the mechanic on the planning page.
-    await mgr.goto(`${server.url}/planning`);
-    await expectHeading(mgr, 'Workshop planning');
+    await openPage(mgr, '/planning', 'Workshop planning');
     const picker = mgr.getByLabel(`Mechanic for ${target.fleetNumber}`);
     await picker.waitFor();
     await picker.selectOption({ label: 'Tomasz Reyes' });
@@ -65,9 +62,7 @@ describe('workshop', () => {
     await mgr.screenshot({ path: screenshotPath('manager-desktop-planning'), fullPage: true });
 
     // The mechanic, on a tablet, opens it from "My inspections".
-    const mecCtx = await newContext(browser, 'tablet');
-    const mec = await mecCtx.newPage();
-    await signIn(mec, server.url, DEMO.mechanic);
+    const { context: mecCtx, page: mec } = await signedInPage(browser, server.url, DEMO.mechanic, 'tablet');
     await expectHeading(mec, 'Workshop');
     const card = mec.getByRole('list', { name: 'My inspections' }).getByRole('link', { name: new RegExp(target.fleetNumber) });
     await card.waitFor();
@@ -174,12 +169,10 @@ describe('workshop', () => {
     await mgr.goto(`${server.url}/planning`);
     await mgr.getByText(new RegExp(`about ${after.totals.replacements.toFixed(1).replace('.', '\\.')} damper replacements expected`)).waitFor();
 
-    await mgr.goto(`${server.url}/model-check`);
-    await expectHeading(mgr, 'Model check');
+    await openPage(mgr, '/model-check', 'Model check');
     await mgr.getByText('Corners compared').waitFor();
     await mgr.screenshot({ path: screenshotPath('manager-desktop-model-check'), fullPage: true });
-    await mgr.goto(`${server.url}/damper-life`);
-    await expectHeading(mgr, 'Damper life from the fleet');
+    await openPage(mgr, '/damper-life', 'Damper life from the fleet');
     await mgr.getByRole('table', { name: 'Damper life per ISO 8608 road class at 80 km/h' }).waitFor();
     await mgr.screenshot({ path: screenshotPath('manager-desktop-damper-life'), fullPage: true });
     await mgrCtx.close();

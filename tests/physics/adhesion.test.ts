@@ -1,7 +1,7 @@
 import { describe, it } from 'vitest';
 import { adhesionPct, dampingFromAdhesion, NoDampingSolutionError, adhesionBand, DEFAULT_PLATE_AMPLITUDE_M } from '../../server/physics/adhesion';
 import { modes } from '../../server/physics/quarter-car';
-import { checkClose, checkRange, checkThat, CAR, DEMO_CORNERS } from './check';
+import { checkClose, checkRange, checkThat, CAR, DEMO_CORNERS, thrownBy, errorOf } from './check';
 
 describe('adhesionPct (EUSAMA-style sweep)', () => {
   it('when damping falls toward zero, then predicted adhesion falls, reaching 0 % (property, docs/methods.md "Test-lane checks")', () => {
@@ -43,12 +43,7 @@ describe('adhesionPct (EUSAMA-style sweep)', () => {
   });
 
   it('when the amplitude is 50 mm, then the error names amplitudeM and m', () => {
-    let msg = '';
-    try {
-      adhesionPct(CAR, { amplitudeM: 0.05 });
-    } catch (e) {
-      msg = (e as Error).message;
-    }
+    const msg = errorOf(() => adhesionPct(CAR, { amplitudeM: 0.05 }));
     checkThat(msg.includes('amplitudeM') && msg.includes('[m]'), 'house rule', `message "${msg}"`);
   });
 
@@ -91,12 +86,7 @@ describe('dampingFromAdhesion', () => {
   });
 
   it('when the measurement is above anything the worn side reaches, then it says no damping value explains it', () => {
-    let err: unknown = null;
-    try {
-      dampingFromAdhesion(CAR, 97);
-    } catch (e) {
-      err = e;
-    }
+    const err = thrownBy(() => dampingFromAdhesion(CAR, 97));
     checkThat(err instanceof NoDampingSolutionError, 'definition', `expected NoDampingSolutionError, got ${String(err)}`);
     const msg = (err as Error).message;
     checkThat(msg.includes('no damping value explains 97 %'), 'definition', `message "${msg}"`);
@@ -104,12 +94,7 @@ describe('dampingFromAdhesion', () => {
   });
 
   it('when 0 % is measured, then it says every damping below a threshold explains it', () => {
-    let msg = '';
-    try {
-      dampingFromAdhesion(CAR, 0);
-    } catch (e) {
-      msg = (e as Error).message;
-    }
+    const msg = errorOf(() => dampingFromAdhesion(CAR, 0));
     checkThat(msg.includes('no damping value explains 0 %') && msg.includes('predicts 0 %'), 'definition', `message "${msg}"`);
   });
 });
@@ -175,32 +160,18 @@ describe('adhesionPct against an independent solve', () => {
     checkThat(adhesionPct(CAR, { amplitudeM: 0.0001 }).adhesionPct > 99, 'property: a tiny stroke barely unloads the wheel', '');
     checkThat(adhesionPct(CAR, { amplitudeM: 0.02 }).adhesionPct === 0, 'property: a 20 mm amplitude lifts the wheel (clipped at 0)', '');
     for (const a of [0.00009, 0.0201]) {
-      let msg = '';
-      try {
-        adhesionPct(CAR, { amplitudeM: a });
-      } catch (e) {
-        msg = (e as Error).message;
-      }
+      const msg = errorOf(() => adhesionPct(CAR, { amplitudeM: a }));
       checkThat(msg.includes('amplitudeM'), 'house rule', `${a}: "${msg}"`);
     }
   });
 });
-
-const errorOf = (f: () => unknown): unknown => {
-  try {
-    f();
-  } catch (e) {
-    return e;
-  }
-  return null;
-};
 
 describe('adhesionBand edges', () => {
   it('when a reading is exactly on a band edge, then it belongs to the band above; 0 and 100 are valid and outside 0–100 is refused (common practice, docs/methods.md "Test-lane checks"; house rule)', () => {
     const cases: [number, string][] = [[100, 'good'], [39.9, 'weak'], [20, 'weak'], [19.99, 'poor'], [0, 'poor']];
     for (const [p, b] of cases) checkThat(adhesionBand(p) === b, 'docs/methods.md "Test-lane checks" common practice', `${p} → ${adhesionBand(p)}, expected ${b}`);
     for (const p of [-0.1, 100.1]) {
-      const e = errorOf(() => adhesionBand(p));
+      const e = thrownBy(() => adhesionBand(p));
       checkThat(e instanceof Error && e.message.includes('pct [%]'), 'house rule', String(e));
     }
   });
@@ -220,12 +191,7 @@ describe('dampingFromAdhesion against brute force', () => {
 
   it('when the measurement is above the peak, then the error carries the peak adhesion and its damping found by brute force over damping (computed)', () => {
     const ref = bruteMax(CAR);
-    let err: unknown = null;
-    try {
-      dampingFromAdhesion(CAR, ref.pct + 0.5);
-    } catch (e) {
-      err = e;
-    }
+    const err = thrownBy(() => dampingFromAdhesion(CAR, ref.pct + 0.5));
     checkThat(err instanceof NoDampingSolutionError && (err as Error).name === 'NoDampingSolutionError', 'definition', String(err));
     const e = err as NoDampingSolutionError;
     checkClose(e.measuredPct, ref.pct + 0.5, { abs: 0 }, 'definition', {});
@@ -239,12 +205,7 @@ describe('dampingFromAdhesion against brute force', () => {
   });
 
   it('when 0 % is measured, then the damping named as the most it can be is the threshold where the wheel starts to stay on the plate (property: adhesion 0 just below it, above 0 just above it)', () => {
-    let msg = '';
-    try {
-      dampingFromAdhesion(CAR, 0);
-    } catch (e) {
-      msg = (e as Error).message;
-    }
+    const msg = errorOf(() => dampingFromAdhesion(CAR, 0));
     const m = /every damping up to (\d+) N·s\/m predicts 0 %/.exec(msg);
     checkThat(m !== null, 'definition', msg);
     const t = Number(m![1]);
@@ -255,26 +216,16 @@ describe('dampingFromAdhesion against brute force', () => {
   it('when the lowest damping searched is raised above the damping that explains a reading, then the reading is refused as below that minimum; at its default it is explained (property: inverse of the forward map)', () => {
     const measured = adhesionPct({ ...CAR, dampingNsPerM: 1000 }).adhesionPct;
     checkClose(dampingFromAdhesion(CAR, measured, { minDampingNsPerM: 900 }).dampingNsPerM, 1000, { rel: 1e-6 }, 'property: round trip', {});
-    let err: unknown = null;
-    try {
-      dampingFromAdhesion(CAR, measured, { minDampingNsPerM: 1200 });
-    } catch (e) {
-      err = e;
-    }
+    const err = thrownBy(() => dampingFromAdhesion(CAR, measured, { minDampingNsPerM: 1200 }));
     checkThat(err instanceof NoDampingSolutionError && (err as Error).message.includes('at the minimum damping searched (1200 N·s/m)'), 'definition', String(err));
     // 0 % with a lowest damping that keeps the wheel on the plate: refused as below that minimum,
     // not as "every damping up to 1200 N·s/m predicts 0 %" (1200 N·s/m predicts more)
     const at1200 = adhesionPct({ ...CAR, dampingNsPerM: 1200 }).adhesionPct;
     checkThat(at1200 > 0, 'computed', `${at1200}`);
-    const zero = errorOf(() => dampingFromAdhesion(CAR, 0, { minDampingNsPerM: 1200 }));
+    const zero = thrownBy(() => dampingFromAdhesion(CAR, 0, { minDampingNsPerM: 1200 }));
     checkThat(zero instanceof NoDampingSolutionError && zero.message.includes(`below the model's ${at1200.toFixed(1)} % at the minimum damping searched (1200 N·s/m)`), 'definition', String(zero));
     for (const [pct, min] of [[-1, undefined], [100.5, undefined], [50, 0.5], [50, 1801]] as const) {
-      let e2: unknown = null;
-      try {
-        dampingFromAdhesion(CAR, pct, { minDampingNsPerM: min });
-      } catch (e) {
-        e2 = e;
-      }
+      const e2 = thrownBy(() => dampingFromAdhesion(CAR, pct, { minDampingNsPerM: min }));
       checkThat(e2 instanceof Error && !(e2 instanceof NoDampingSolutionError) && /measuredPct \[%\]|minDampingNsPerM \[N·s\/m\]/.test(e2.message), 'house rule', String(e2));
     }
     checkThat(dampingFromAdhesion(CAR, measured, { minDampingNsPerM: 1 }).dampingNsPerM > 0, 'house rule: 1 N·s/m is accepted', '');

@@ -61,6 +61,22 @@ export function checkThat(ok: boolean, source: Source, message: string): void {
   expect(ok, `[${source}] ${message}`).toBe(true);
 }
 
+/** What `f` throws, or null when it returns. */
+export function thrownBy(f: () => unknown): unknown {
+  try {
+    f();
+  } catch (e) {
+    return e;
+  }
+  return null;
+}
+
+/** The message of the error `f` throws, or '' when it returns (for checking a refusal's wording). */
+export function errorOf(f: () => unknown): string {
+  const e = thrownBy(f);
+  return e === null ? '' : (e as Error).message;
+}
+
 /** A typical passenger-car corner (demo values in the docs/methods.md "Typical parameters" ranges). */
 export const CAR = Object.freeze({
   sprungMassKg: 400,

@@ -1,44 +1,24 @@
 import { describe, it, beforeAll, afterAll } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
 import { prepareDuty, dutyOnRoad } from '../../server/physics/closed-form';
 import { adhesionPct } from '../../server/physics/adhesion';
 import { iriFromGd } from '../../server/physics/iri';
 import { phaseShift } from '../../server/physics/phase-shift';
 import { synthesizeProfile } from '../../server/physics/iso8608';
+import { runCli as cli, scratchFolder } from '../support/cli';
 import { checkClose, checkThat, CAR } from './check';
 
-const ROOT = resolve(fileURLToPath(new URL('../..', import.meta.url)));
-const CLI = join(ROOT, 'server/cli/index.ts');
+let scratch: ReturnType<typeof scratchFolder>;
 let dir = '';
-
-/** Run the CLI as a subprocess (node with the tsx loader). */
-function cli(...args: string[]): { code: number; stdout: string; stderr: string; json: Record<string, unknown> | null } {
-  const r = spawnSync(process.execPath, ['--import', 'tsx', CLI, ...args], { cwd: ROOT, encoding: 'utf8', timeout: 60_000 });
-  let json: Record<string, unknown> | null = null;
-  try {
-    json = JSON.parse(r.stdout) as Record<string, unknown>;
-  } catch {
-    json = null;
-  }
-  return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr, json };
-}
-
-const file = (name: string, text: string): string => {
-  const p = join(dir, name);
-  writeFileSync(p, text);
-  return p;
-};
+const file = (name: string, text: string): string => scratch.put(name, text);
 
 beforeAll(() => {
-  dir = mkdtempSync(join(tmpdir(), 'reboundry-cli-'));
+  scratch = scratchFolder('reboundry-cli-');
+  dir = scratch.dir;
   file('spec.json', JSON.stringify(CAR));
   file('bad-spec.json', JSON.stringify({ ...CAR, sprungMassKg: -3 }));
 });
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
+afterAll(() => scratch.remove());
 
 describe('cli', () => {
   it('when rainflow reads the ASTM E1049 example (plain and with a value column), then it prints the published cycles as JSON', () => {

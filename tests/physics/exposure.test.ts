@@ -3,7 +3,7 @@ import {
   wkWeight, wkStateSpace, weightedRms, dailyA8, exposureStatus, appendWk, EXPOSURE_ACTION_VALUE, EXPOSURE_LIMIT_VALUE,
 } from '../../server/physics/exposure';
 import { solveLinear } from '../../server/physics/linalg';
-import { checkClose, checkThat } from './check';
+import { checkClose, checkThat, errorOf } from './check';
 
 /** |C·(jωI − A)⁻¹·B| of a strictly proper state-space system, by a real 2n×2n solve (computed). */
 const gainAt = (A: Float64Array, B: Float64Array, C: Float64Array, n: number, fHz: number): number => {
@@ -26,15 +26,6 @@ const gainAt = (A: Float64Array, B: Float64Array, C: Float64Array, n: number, fH
     im += C[i] * x[i + n];
   }
   return Math.hypot(re, im);
-};
-
-const errorOf = (f: () => unknown): string => {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return '';
 };
 
 describe('ISO 2631-1 Wk weighting', () => {
@@ -197,12 +188,7 @@ describe('Directive 2002/44/EC exposure', () => {
   });
 
   it('when a trip has negative hours, then the error names trips[0].hours and h', () => {
-    let msg = '';
-    try {
-      dailyA8([{ weightedAccel: 0.5, hours: -1 }]);
-    } catch (e) {
-      msg = (e as Error).message;
-    }
+    const msg = errorOf(() => dailyA8([{ weightedAccel: 0.5, hours: -1 }]));
     checkThat(msg.includes('trips[0].hours') && msg.includes('[h]'), 'house rule', `message "${msg}"`);
   });
 });

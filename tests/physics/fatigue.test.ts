@@ -5,7 +5,7 @@ import {
 import { simulateProfile } from '../../server/physics/simulate';
 import { synthesizeProfile, ISO8608_N0, seededRandom } from '../../server/physics/iso8608';
 import { cornerTransfer } from '../../server/physics/quarter-car';
-import { checkClose, checkThat, CAR } from './check';
+import { checkClose, checkThat, CAR, errorOf } from './check';
 
 const bandSpectrum = (centre: number, width: number, points = 2001): { f: number[]; g: number[] } => {
   const f: number[] = [];
@@ -15,15 +15,6 @@ const bandSpectrum = (centre: number, width: number, points = 2001): { f: number
     g.push(1e-4);
   }
   return { f, g };
-};
-
-const errorOf = (f: () => unknown): string => {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return '';
 };
 
 /** The ASTM E1049-85 §5.4.4 worked example (Fig. 6 / Table 4). */
@@ -173,12 +164,7 @@ describe('Miner and Basquin', () => {
   });
 
   it('when k is not positive, then the error names k', () => {
-    let msg = '';
-    try {
-      minerDamage([], { k: 0, C: 1 });
-    } catch (e) {
-      msg = (e as Error).message;
-    }
+    const msg = errorOf(() => minerDamage([], { k: 0, C: 1 }));
     checkThat(msg.startsWith('physics: k'), 'house rule', `message "${msg}"`);
   });
 

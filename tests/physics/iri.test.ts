@@ -2,16 +2,7 @@ import { describe, it } from 'vitest';
 import { GOLDEN_CAR, goldenCarST_PR, iri, iriSegments, iriFromGd, gdFromIri, iriPerSqrtGdConstant, iriPerSqrtGdContinuous, iriPerSqrtGdForInterval } from '../../server/physics/iri';
 import { solveLinear } from '../../server/physics/linalg';
 import { synthesizeProfile } from '../../server/physics/iso8608';
-import { checkClose, checkThat } from './check';
-
-const errorOf = (f: () => unknown): string => {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return '';
-};
+import { checkClose, checkThat, errorOf } from './check';
 
 /**
  * K of the discrete golden car fed the moving-average slope of a w = 2 road, from its
@@ -127,12 +118,7 @@ describe('iri', () => {
   });
 
   it('when the profile is shorter than 11 m, then the error names profileM', () => {
-    let msg = '';
-    try {
-      iri(new Float64Array(20), 0.25);
-    } catch (e) {
-      msg = (e as Error).message;
-    }
+    const msg = errorOf(() => iri(new Float64Array(20), 0.25));
     checkThat(msg.includes('profileM') && msg.includes('[m]'), 'house rule', `message "${msg}"`);
   });
 });

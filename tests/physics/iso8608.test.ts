@@ -1,15 +1,6 @@
 import { describe, it } from 'vitest';
 import { ISO8608_CLASSES, gdForClass, classifyGd, synthesizeProfile, classBounds, seededRandom } from '../../server/physics/iso8608';
-import { checkClose, checkThat } from './check';
-
-const errorOf = (f: () => unknown): string => {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return '';
-};
+import { checkClose, checkThat, errorOf } from './check';
 
 /**
  * mulberry32 in 32-bit unsigned arithmetic done with BigInt, written from the C reference
@@ -89,12 +80,7 @@ describe('ISO 8608 classes', () => {
   });
 
   it('when a class letter is unknown, then the error names cls', () => {
-    let msg = '';
-    try {
-      gdForClass('Z');
-    } catch (e) {
-      msg = (e as Error).message;
-    }
+    const msg = errorOf(() => gdForClass('Z'));
     checkThat(msg.startsWith('physics: cls'), 'house rule', `message "${msg}"`);
   });
 });

@@ -62,3 +62,26 @@ describe('estimateFromLane', () => {
     checkThat(bad.note!.startsWith('phase shift: no estimate: measuredDeg [°]'), 'definition', bad.note!);
   });
 });
+
+describe('estimateFromLane when adhesion is the better reading', () => {
+  it('when a new rear courier-van damper is read on a 6 mm plate, then adhesion moves damping least: the estimate takes it at that amplitude, its spread is the finite-difference one, and the phase shift is named second (computed: finite difference of the forward maps)', () => {
+    const amp = 0.006; // not the 3 mm default, so the amplitude has to reach both the inversion and the spread
+    const reading = adhesionPct(van, { amplitudeM: amp }).adhesionPct;
+    const r = estimateFromLane(van, { adhesionPct: reading, phaseDeg: phaseShift(van).minPhaseDeg, amplitudeM: amp });
+    const [a, p] = r.inversions;
+    checkThat(a.method === 'adhesion' && p.method === 'phase', 'definition: adhesion first', JSON.stringify(r.inversions));
+    checkClose(a.dampingNsPerM!, van.dampingNsPerM, { rel: 1e-4 }, 'property: inverse of the forward map at the plate amplitude', {});
+    const aRef = refSpread((x) => adhesionPct({ ...van, dampingNsPerM: x }, { amplitudeM: amp }).adhesionPct, van.dampingNsPerM, 3);
+    checkClose(a.relSpread!, aRef, { rel: 0.01 }, 'computed: central difference, 0.5 % step, at the plate amplitude', {});
+    checkThat(a.relSpread! < p.relSpread!, 'computed: adhesion better conditioned here', `${a.relSpread} ${p.relSpread}`);
+    const expected = `from adhesion (±${Math.round(a.relSpread! * 100)} % for ±3 points); the phase shift gives ${Math.round(p.dampingNsPerM!)} N·s/m (±${Math.round(p.relSpread! * 100)} %), less well conditioned`;
+    checkThat(r.method === 'adhesion' && r.dampingNsPerM === a.dampingNsPerM && r.note === expected, 'definition: better conditioned first', `${r.note} / ${expected}`);
+  });
+
+  it('when only adhesion is read, then the estimate is the adhesion inversion and the note says so alone (definition)', () => {
+    const worn = { ...van, dampingNsPerM: 1500 };
+    const r = estimateFromLane(van, { adhesionPct: adhesionPct(worn).adhesionPct, phaseDeg: null, amplitudeM: 0.003 });
+    checkThat(r.inversions.length === 1 && r.method === 'adhesion' && /^from adhesion \(±\d+ % for ±3 points\)$/.test(r.note!), 'definition', JSON.stringify(r));
+    checkClose(r.dampingNsPerM!, 1500, { rel: 1e-4 }, 'property: inverse of the forward map', {});
+  });
+});

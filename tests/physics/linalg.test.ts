@@ -1,9 +1,9 @@
 import { describe, it } from 'vitest';
 import { Matrix, solve, EigenvalueDecomposition } from 'ml-matrix';
-import { expm, solveLinear, eigenvalues, lyapunov, discretizeZoh, identity, matMul, charPoly, norm1 } from '../../server/physics/linalg';
+import { expm, solveLinear, eigenvalues, lyapunov, discretizeZoh, identity, matMul, charPoly, norm1, polyRoots } from '../../server/physics/linalg';
 import { stateSpace } from '../../server/physics/quarter-car';
 import { appendWk } from '../../server/physics/exposure';
-import { checkClose, checkThat, CAR } from './check';
+import { checkClose, checkThat, CAR, errorOf } from './check';
 
 const toMl = (a: Float64Array, n: number): Matrix => {
   const rows: number[][] = [];
@@ -59,12 +59,7 @@ describe('solveLinear, eigenvalues', () => {
   });
 
   it('when a matrix is singular, then solveLinear throws a prefixed error', () => {
-    let msg = '';
-    try {
-      solveLinear(new Float64Array([1, 2, 2, 4]), new Float64Array([1, 1]), 2);
-    } catch (e) {
-      msg = (e as Error).message;
-    }
+    const msg = errorOf(() => solveLinear(new Float64Array([1, 2, 2, 4]), new Float64Array([1, 1]), 2));
     checkThat(msg.startsWith('physics: non-finite'), 'convention 13', `expected prefixed error, got "${msg}"`);
   });
 
@@ -131,5 +126,103 @@ describe('lyapunov', () => {
         checkClose(p[i * n + j], ref[i * n + j], { abs: tol }, 'ml-matrix Kronecker solve', { i, j, n });
       }
     }
+  });
+});
+
+describe('small helpers', () => {
+  it('when norm1, identity and matMul are taken of small non-symmetric matrices, then they give the column-sum norm, the identity and the row-by-column product (analytic)', () => {
+    checkThat(norm1(new Float64Array([1, -2, 3, 4]), 2) === 6, 'analytic: largest column sum |−2| + |4| (row sums would give 7)', '');
+    checkThat(norm1(new Float64Array([-5, 1, 0, 1]), 2) === 5, 'analytic: the first column may be the largest', '');
+    checkThat(norm1(new Float64Array(4), 2) === 0, 'analytic', '');
+    checkThat(Number.isNaN(norm1(new Float64Array([1, 2, Number.NaN, 4]), 2)) && Number.isNaN(norm1(new Float64Array([1, Number.NaN, 3, 4]), 2)), 'definition: a NaN entry has no norm', '');
+    checkThat(identity(3).join(',') === '1,0,0,0,1,0,0,0,1', 'analytic', identity(3).join(','));
+    const p = matMul(new Float64Array([1, 2, 3, 4]), new Float64Array([5, 6, 7, 8]), 2);
+    checkThat(p.join(',') === '19,22,43,50', 'analytic: [[1,2],[3,4]]·[[5,6],[7,8]]', p.join(','));
+    const out = new Float64Array(4);
+    checkThat(matMul(new Float64Array([0, 1, 1, 0]), new Float64Array([1, 2, 3, 4]), 2, out) === out && out.join(',') === '3,4,1,2', 'analytic: row swap', out.join(','));
+  });
+
+  it('when the characteristic polynomial of a companion matrix is taken, then it returns the polynomial the matrix was built from (analytic)', () => {
+    // companion of λ⁴ + 2λ³ − 3λ² + 5λ − 7: last row −[c4, c3, c2, c1], ones on the superdiagonal
+    const c = [1, 2, -3, 5, -7];
+    const a = new Float64Array([0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 7, -5, 3, -2]);
+    const got = charPoly(a, 4);
+    c.forEach((v, i) => checkClose(got[i], v, { abs: 1e-12 }, 'analytic: companion matrix', { i }));
+  });
+
+  it('when the eigenvalues of a 4×4 with a known spectrum are computed, then they are 1, −2 and ±3i (analytic)', () => {
+    // block diagonal: diag(1, −2) and the rotation generator [[0, 3], [−3, 0]] (±3i)
+    const a = new Float64Array([1, 0, 0, 0, 0, -2, 0, 0, 0, 0, 0, 3, 0, 0, -3, 0]);
+    const ev = eigenvalues(a, 4);
+    const want = [[1, 0], [-2, 0], [0, 3], [0, -3]];
+    for (const [re, im] of want) {
+      const d = Math.min(...Array.from(ev.re, (r, i) => Math.hypot(r - re, ev.im[i] - im)));
+      checkClose(d, 0, { abs: 1e-10 }, 'analytic', { re, im });
+    }
+  });
+
+  it('when a polynomial has a zero leading coefficient, then polyRoots refuses it (definition)', () => {
+    checkThat(errorOf(() => polyRoots(new Float64Array([0, 1, 2]))) === 'physics: non-finite leading coefficient in polyRoots', 'definition', '');
+    checkThat(errorOf(() => polyRoots(new Float64Array([Number.NaN, 1]))) === 'physics: non-finite leading coefficient in polyRoots', 'definition', '');
+    const r = polyRoots(new Float64Array([2, -2, -12])); // 2(x − 3)(x + 2)
+    const roots = Array.from(r.re).sort((x, y) => x - y);
+    checkClose(roots[0], -2, { abs: 1e-12 }, 'analytic', {});
+    checkClose(roots[1], 3, { abs: 1e-12 }, 'analytic', {});
+    r.im.forEach((v) => checkClose(v, 0, { abs: 1e-12 }, 'analytic: real roots', {}));
+  });
+});
+
+describe('solveLinear and expm edges', () => {
+  it('when there are several right-hand sides and rows must be swapped, then every column is solved (analytic)', () => {
+    // [[0, 1], [2, 0]]·X = [[1, 2], [4, 6]] → X = [[2, 3], [1, 2]]
+    const x = solveLinear(new Float64Array([0, 1, 2, 0]), new Float64Array([1, 2, 4, 6]), 2, 2);
+    checkThat(x.join(',') === '2,3,1,2', 'analytic', x.join(','));
+    // a 3×3 needing a swap at the second column too
+    const a = new Float64Array([1, 2, 3, 2, 4, 7, 3, 5, 6]);
+    const want = [1, -2, 3];
+    const b = new Float64Array([1 * 1 + 2 * -2 + 3 * 3, 2 * 1 + 4 * -2 + 7 * 3, 3 * 1 + 5 * -2 + 6 * 3]);
+    solveLinear(a, b, 3).forEach((v, i) => checkClose(v, want[i], { abs: 1e-13 }, 'analytic', { i }));
+    checkThat(a.join(',') === '1,2,3,2,4,7,3,5,6' && b.join(',') === '6,15,11', 'definition: inputs not modified', `${a.join(',')} / ${b.join(',')}`);
+  });
+
+  it('when a matrix is nearly singular (pivot ≤ 1e-15·‖A‖₁) or holds a non-finite value, then solveLinear refuses it with the reason (definition)', () => {
+    checkThat(errorOf(() => solveLinear(new Float64Array([1, 1, 1, 1 + 1e-17]), new Float64Array([1, 2]), 2)) === 'physics: non-finite pivot (singular matrix of order 2) in solveLinear', 'definition', '');
+    checkThat(errorOf(() => solveLinear(new Float64Array([0, 0, 0, 0]), new Float64Array([1, 2]), 2)) === 'physics: non-finite pivot (singular matrix of order 2) in solveLinear', 'definition', '');
+    checkThat(errorOf(() => solveLinear(new Float64Array([1, Number.NaN, 0, 1]), new Float64Array([1, 2]), 2)) === 'physics: non-finite matrix entry in solveLinear', 'definition', '');
+    checkThat(errorOf(() => solveLinear(new Float64Array([1, 0, 0, 1]), new Float64Array([Number.POSITIVE_INFINITY, 2]), 2)) === 'physics: non-finite solution in solveLinear', 'definition', '');
+    // a small but regular pivot is accepted: diag(1, 1e-12)
+    const x = solveLinear(new Float64Array([1, 0, 0, 1e-12]), new Float64Array([1, 1e-12]), 2);
+    checkThat(x[0] === 1 && Math.abs(x[1] - 1) < 1e-12, 'analytic', x.join(','));
+  });
+
+  it('when expm gets a diagonal matrix of any norm, then it returns the exponentials of the diagonal to rounding; a non-finite entry is refused (analytic)', () => {
+    for (const d of [0.3, 0.5, 0.7, 3, -20, 45]) {
+      const e = expm(new Float64Array([d, 0, 0, -d / 2]), 2);
+      checkClose(e[0], Math.exp(d), { rel: 1e-14 }, 'analytic: exp of a diagonal', { d });
+      checkClose(e[3], Math.exp(-d / 2), { rel: 1e-14 }, 'analytic: exp of a diagonal', { d });
+      checkThat(e[1] === 0 && e[2] === 0, 'analytic', '');
+    }
+    checkThat(errorOf(() => expm(new Float64Array([Number.NaN, 0, 0, 1]), 2)) === 'physics: non-finite matrix entry in expm', 'definition', '');
+    checkThat(expm(new Float64Array(4), 2).join(',') === '1,0,0,1', 'analytic: exp(0) = I', '');
+  });
+
+  it('when a double integrator is discretised, then Ad = [[1, dt], [0, 1]] and Bd = [dt²/2, dt] (analytic ZOH)', () => {
+    for (const dt of [0.01, 0.5, 3]) {
+      const { Ad, Bd } = discretizeZoh(new Float64Array([0, 1, 0, 0]), new Float64Array([0, 1]), 2, dt);
+      [1, dt, 0, 1].forEach((v, i) => checkClose(Ad[i], v, { abs: 1e-14 * Math.max(1, dt) }, 'analytic ZOH', { dt, i }));
+      checkClose(Bd[0], (dt * dt) / 2, { rel: 1e-13 }, 'analytic ZOH', { dt });
+      checkClose(Bd[1], dt, { rel: 1e-13 }, 'analytic ZOH', { dt });
+    }
+  });
+
+  it('when a 2×2 non-symmetric Lyapunov equation is solved, then A·P + P·Aᵀ + Q = 0 and P is symmetric (definition)', () => {
+    const a = new Float64Array([-1, 2, 0, -3]);
+    const q = new Float64Array([1, 0.5, 0.5, 2]);
+    const p = lyapunov(a, q, 2);
+    const ap = matMul(a, p, 2);
+    const at = new Float64Array([a[0], a[2], a[1], a[3]]);
+    const pat = matMul(p, at, 2);
+    for (let i = 0; i < 4; i++) checkClose(ap[i] + pat[i] + q[i], 0, { abs: 1e-14 }, 'definition', { i });
+    checkThat(p[1] === p[2], 'definition: symmetric', p.join(','));
   });
 });

@@ -5,7 +5,7 @@ import { adhesionPct } from '../../server/physics/adhesion';
 import { stateSpace, modes } from '../../server/physics/quarter-car';
 import { solveLinear } from '../../server/physics/linalg';
 import { PhysicsInputError, type CornerParams } from '../../server/physics/types';
-import { checkClose, checkRange, checkThat, CAR, DEMO_CORNERS } from './check';
+import { checkClose, checkRange, checkThat, CAR, DEMO_CORNERS, thrownBy } from './check';
 
 /**
  * Phase of contact force against plate displacement straight from the state-space matrices:
@@ -90,12 +90,7 @@ describe('phase-shift method', () => {
         checkClose(dampingFromPhase(c, deg).dampingNsPerM, cs, { rel: 1e-4 }, 'computed: round trip', { name, x, deg });
       }
     }
-    let err: unknown = null;
-    try {
-      dampingFromPhase(DEMO_CORNERS.courierVanFront, 120);
-    } catch (e) {
-      err = e;
-    }
+    const err = thrownBy(() => dampingFromPhase(DEMO_CORNERS.courierVanFront, 120));
     checkThat(err instanceof NoDampingForPhaseError && (err as Error).message.includes('no damping value explains a minimum phase of 120°'), 'definition', String(err));
   });
 
@@ -158,15 +153,6 @@ function cramerDip(c: CornerParams): { deg: number; hz: number } | null {
   return { deg: cramerPhaseDeg(c, (a + b) / 2), hz: (a + b) / 2 };
 }
 
-const errorOf = (f: () => unknown): unknown => {
-  try {
-    f();
-  } catch (e) {
-    return e;
-  }
-  return null;
-};
-
 describe('phase-shift method against an independent solve', () => {
   it('when φ(f) is computed, then it equals the phase of a direct 2×2 solve of the equations of motion and lies within 0–180°, near 180° far below body bounce and near 0° far above wheel hop (computed; property)', () => {
     for (const c of [CAR, DEMO_CORNERS.truckFront, { ...CAR, dampingNsPerM: 300 }]) {
@@ -224,7 +210,7 @@ describe('dampingFromPhase bounds and errors', () => {
   it('when the reading is above the first maximum, then the error carries that maximum as found by brute force; just below it is explained (computed; property: inverse of the forward map)', () => {
     const c = DEMO_CORNERS.courierVanRear;
     const top = firstMax(c);
-    const e = errorOf(() => dampingFromPhase(c, top + 0.2)) as NoDampingForPhaseError;
+    const e = thrownBy(() => dampingFromPhase(c, top + 0.2)) as NoDampingForPhaseError;
     checkThat(e instanceof NoDampingForPhaseError && e.name === 'NoDampingForPhaseError', 'definition', String(e));
     checkClose(e.measuredDeg, top + 0.2, { abs: 0 }, 'definition', {});
     checkClose(e.maxDeg, top, { abs: 0.01 }, 'computed: brute-force first maximum', {});
@@ -234,16 +220,80 @@ describe('dampingFromPhase bounds and errors', () => {
   });
 
   it('when the reading is 0°, below what 1 % of nominal damping gives, or outside 0–180°, then it is refused with the reason (definition; house rule)', () => {
-    const zero = errorOf(() => dampingFromPhase(CAR, 0));
+    const zero = thrownBy(() => dampingFromPhase(CAR, 0));
     checkThat(zero instanceof NoDampingForPhaseError && zero.message.includes('only an undamped corner reads 0°'), 'definition', String(zero));
     const floor = phaseShift({ ...CAR, dampingNsPerM: 18 }).minPhaseDeg;
-    const low = errorOf(() => dampingFromPhase(CAR, floor / 2));
+    const low = thrownBy(() => dampingFromPhase(CAR, floor / 2));
     checkThat(low instanceof NoDampingForPhaseError && low.message.includes(`below the model's ${floor.toFixed(1)}° at the lowest damping searched (18 N·s/m)`), 'definition', String(low));
     checkClose(dampingFromPhase(CAR, floor * 1.5).dampingNsPerM, 18 * 1.5, { rel: 0.2 }, 'property: φmin nearly proportional to light damping', { floor });
     for (const v of [-0.1, 180.1]) {
-      const e = errorOf(() => dampingFromPhase(CAR, v));
+      const e = thrownBy(() => dampingFromPhase(CAR, v));
       checkThat(e instanceof PhysicsInputError && e.message.includes('measuredDeg [°]'), 'house rule', String(e));
     }
-    checkThat(errorOf(() => dampingFromPhase(CAR, 180)) instanceof NoDampingForPhaseError, 'house rule: 180° is a valid reading no damping explains', '');
+    checkThat(thrownBy(() => dampingFromPhase(CAR, 180)) instanceof NoDampingForPhaseError, 'house rule: 180° is a valid reading no damping explains', '');
+  });
+});
+
+describe('dampingFromPhase at the ends of its search', () => {
+  /** First maximum of φmin going up in damping from 1 % of nominal: 400-point log grid over 1 %–5× (a 100-point grid ended 0.07° low on the example car), then ternary search on log damping. */
+  function firstMaxAt(c: CornerParams): { deg: number; dampingNsPerM: number } {
+    const at = (cs: number): number => phaseShift({ ...c, dampingNsPerM: cs }).minPhaseDeg;
+    const lo = Math.log(0.01 * c.dampingNsPerM);
+    const step = Math.log(500) / 400;
+    let i = 1;
+    while (i < 400 && at(Math.exp(lo + i * step)) >= at(Math.exp(lo + (i - 1) * step))) i++;
+    let [a, b] = [lo + (i - 2) * step, lo + i * step];
+    for (let k = 0; k < 60; k++) {
+      const m1 = a + (b - a) / 3;
+      const m2 = b - (b - a) / 3;
+      if (at(Math.exp(m1)) < at(Math.exp(m2))) a = m1;
+      else b = m2;
+    }
+    const x = Math.exp((a + b) / 2);
+    return { deg: at(x), dampingNsPerM: x };
+  }
+
+  it('when the reading is above the first maximum, then the message gives that maximum and the damping where it lies, as a refined brute-force search finds them (computed)', () => {
+    for (const c of [CAR, DEMO_CORNERS.longVanRear]) {
+      const top = firstMaxAt(c);
+      const e = thrownBy(() => dampingFromPhase(c, top.deg + 1)) as NoDampingForPhaseError;
+      checkThat(e instanceof NoDampingForPhaseError, 'definition', String(e));
+      checkClose(e.maxDeg, top.deg, { abs: 1e-6 }, 'computed: refined brute-force first maximum', { c });
+      const m = /is (\d+\.\d)° \(at (\d+) N·s\/m\); check the corner's parameters and the measurement$/.exec(e.message);
+      checkThat(m !== null && m[1] === top.deg.toFixed(1), 'definition', e.message);
+      // φmin is flat at its maximum: the damping is only defined to about a percent
+      checkClose(Number(m![2]), top.dampingNsPerM, { rel: 0.01 }, 'computed: refined brute-force first maximum', { c, message: e.message });
+    }
+  });
+
+  it('when the minimum phase still rises at 5× nominal damping, then the search ends there: readings up to that value are explained and the highest is the value at 5× (computed)', () => {
+    const c = { ...CAR, dampingNsPerM: 100 }; // the first maximum lies near 1800–2500 N·s/m, beyond 5 × 100
+    const at500 = phaseShift({ ...c, dampingNsPerM: 500 }).minPhaseDeg;
+    const e = thrownBy(() => dampingFromPhase(c, at500 + 0.5)) as NoDampingForPhaseError;
+    checkThat(e instanceof NoDampingForPhaseError, 'definition', String(e));
+    checkClose(e.maxDeg, at500, { abs: 1e-9 }, 'definition: the top of the searched range', {});
+    checkThat(e.message.includes('(at 500 N·s/m)'), 'definition', e.message);
+    const deg = phaseShift({ ...c, dampingNsPerM: 300 }).minPhaseDeg;
+    checkClose(dampingFromPhase(c, deg).dampingNsPerM, 300, { rel: 1e-6 }, 'property: inverse of the forward map', {});
+    checkClose(dampingFromPhase(c, at500 - 1e-6).dampingNsPerM, 500, { rel: 1e-4 }, 'property: inverse of the forward map', {});
+  });
+
+  it('when the minimum phase already falls from 1 % of nominal damping, then the highest value is the one at 1 % and every reading is refused (computed)', () => {
+    const c = { ...CAR, dampingNsPerM: 1e6 }; // 1 % is 10 000 N·s/m, far beyond the first maximum
+    const at1pc = phaseShift({ ...c, dampingNsPerM: 10000 }).minPhaseDeg;
+    checkThat(phaseShift({ ...c, dampingNsPerM: 10000 * Math.pow(500, 1 / 48) }).minPhaseDeg < at1pc, 'computed: falling from the start', '');
+    const above = thrownBy(() => dampingFromPhase(c, at1pc + 0.1)) as NoDampingForPhaseError;
+    checkThat(above instanceof NoDampingForPhaseError && above.message.includes('(at 10000 N·s/m)'), 'definition', String(above));
+    checkClose(above.maxDeg, at1pc, { abs: 1e-9 }, 'definition: the value at the lowest damping searched', {});
+    const below = thrownBy(() => dampingFromPhase(c, at1pc - 0.1)) as NoDampingForPhaseError;
+    checkThat(below instanceof NoDampingForPhaseError && below.message.includes(`below the model's ${at1pc.toFixed(1)}° at the lowest damping searched (10000 N·s/m)`), 'definition', String(below));
+    checkClose(below.maxDeg, at1pc, { abs: 1e-9 }, 'definition', {});
+    checkClose(below.measuredDeg, at1pc - 0.1, { abs: 0 }, 'definition', {});
+  });
+
+  it('when the reading is 0°, then the error still carries the corner\'s highest minimum phase (definition)', () => {
+    const zero = thrownBy(() => dampingFromPhase(CAR, 0)) as NoDampingForPhaseError;
+    checkThat(zero instanceof NoDampingForPhaseError && zero.measuredDeg === 0, 'definition', String(zero));
+    checkClose(zero.maxDeg, firstMaxAt(CAR).deg, { abs: 1e-6 }, 'computed: refined brute-force first maximum', {});
   });
 });

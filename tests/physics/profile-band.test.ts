@@ -2,7 +2,7 @@ import { describe, it } from 'vitest';
 import { bandLimitProfile, SIMULATION_TARGET_DX_M } from '../../server/physics/profile-band';
 import { ROAD_BAND } from '../../server/physics/closed-form';
 import { PhysicsInputError } from '../../server/physics/types';
-import { checkClose, checkThat } from './check';
+import { checkClose, checkThat, thrownBy } from './check';
 
 /**
  * A cosine whose samples i = 0 … size−1 at spacing dx are one exact period of the FFT window, with
@@ -111,12 +111,7 @@ describe('bandLimitProfile', () => {
       [() => bandLimitProfile(z, 0.25, { targetDxM: 1.1 }), 'targetDxM [m]'],
     ];
     for (const [f, text] of cases) {
-      let err: unknown = null;
-      try {
-        f();
-      } catch (e) {
-        err = e;
-      }
+      const err = thrownBy(f);
       checkThat(err instanceof PhysicsInputError && (err as Error).message.includes(text), 'house rule', `${String(err)} should include "${text}"`);
     }
   });

@@ -2,7 +2,7 @@ import { describe, it } from 'vitest';
 import { Matrix, solve } from 'ml-matrix';
 import { stateSpace, modes, frequencyResponse, cornerTransfer } from '../../server/physics/quarter-car';
 import { PhysicsInputError, validateCorner, type CornerParams } from '../../server/physics/types';
-import { checkClose, checkRange, checkThat, CAR } from './check';
+import { checkClose, checkRange, checkThat, CAR, errorOf, thrownBy } from './check';
 
 describe('modes', () => {
   it('when a typical car corner is analysed, then its modes lie in the textbook ranges (docs/methods.md "Typical parameters", from memory: Gillespie 1992, Wong, Cebon 1999)', () => {
@@ -85,12 +85,7 @@ describe('validation', () => {
   ];
   for (const [name, value, unit] of bad) {
     it(`when ${name} is ${value}, then the error names ${name} and [${unit}] (house rule)`, () => {
-      let err: unknown = null;
-      try {
-        validateCorner({ ...CAR, [name]: value });
-      } catch (e) {
-        err = e;
-      }
+      const err = thrownBy(() => validateCorner({ ...CAR, [name]: value }));
       checkThat(err instanceof PhysicsInputError, 'house rule', `expected PhysicsInputError for ${name}=${value}, got ${String(err)}`);
       const msg = (err as Error).message;
       checkThat(msg.includes(name) && msg.includes(`[${unit}]`), 'house rule', `message "${msg}" should name ${name} and [${unit}]`);
@@ -98,12 +93,7 @@ describe('validation', () => {
   }
 
   it('when frequencyResponse gets a negative frequency, then the error names freqsHz and Hz', () => {
-    let msg = '';
-    try {
-      frequencyResponse(CAR, [-1]);
-    } catch (e) {
-      msg = (e as Error).message;
-    }
+    const msg = errorOf(() => frequencyResponse(CAR, [-1]));
     checkThat(msg.includes('freqsHz') && msg.includes('[Hz]'), 'house rule', `message "${msg}"`);
   });
 });

@@ -1,15 +1,6 @@
 import { describe, it } from 'vitest';
 import { floorToSeat, SEAT_DEFAULTS, FRONT_TRACK_CORRELATION } from '../../server/physics/seat';
-import { checkClose, checkRange, checkThat } from './check';
-
-const errorOf = (f: () => unknown): string => {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return '';
-};
+import { checkClose, checkRange, checkThat, errorOf } from './check';
 
 describe('floor-to-seat factors', () => {
   it('when the class defaults are read, then conventional seats lie in SEAT 0.8–1.1 and suspension seats in 0.6–0.9 (Griffin 1990, from memory; docs/methods.md "Exposure at the seat")', () => {

@@ -12,6 +12,23 @@ const item = (k: number) => ({
   vehicleUrl: `http://app.test/vehicles/${k}`,
 });
 
+/** The links every assignment note carries: the mechanic's settings and their list of inspections. */
+const noteLinks = { settingsUrl: 'http://app.test/account', listUrl: 'http://app.test/workshop' };
+
+/** How every assignment note ends: in its plain text, and as a reader sees its HTML. */
+const NOTE_END_TEXT = ['', CAUTION_TEXT, '', 'Turn these notes off in your account settings: http://app.test/account'];
+const NOTE_END_SEEN = ['Turn these notes off in your account settings.', CAUTION_TEXT];
+
+/** Maren's digest of 1 Dec 2026 with these sections. */
+const digestOf = (sections: Parameters<typeof digestMail>[0]['sections']) =>
+  digestMail({ name: 'Maren', asOf: '2026-12-01', sections, homeUrl: 'http://app.test/', settingsUrl: 'http://app.test/account' });
+
+/** A digest section of `n` vehicles due, each entry with these lines. */
+const dueSection = (n: number, lines: string[] = []) => ({
+  heading: 'Inspections now due or overdue',
+  entries: Array.from({ length: n }, (_, k) => ({ key: `i${k}`, title: `CV-${k}`, lines, link: `http://app.test/vehicles/${k}` })),
+});
+
 /** What a reader of an HTML body sees: tags dropped, entities decoded, a line per paragraph, heading, list item or line break. */
 const seen = (html: string) =>
   html
@@ -42,7 +59,7 @@ const wellFormed = (html: string) => {
 describe('e-mail bodies', () => {
   it('when a mechanic is assigned more inspections than a note lists, then the most urgent are listed and the rest counted with a link to all of them', () => {
     const n = MAX_LISTED + 15;
-    const m = assignmentMail({ name: 'Tomasz', items: Array.from({ length: n }, (_, k) => item(k)), settingsUrl: 'http://app.test/account', listUrl: 'http://app.test/workshop' });
+    const m = assignmentMail({ name: 'Tomasz', items: Array.from({ length: n }, (_, k) => item(k)), ...noteLinks });
     expect(m.subject).toBe(`${n} inspections assigned to you, first due 2026-12-01`);
     expect(m.text.match(/^- CV-/gm)).toHaveLength(MAX_LISTED);
     expect(m.text).toContain(`…and 15 more, all in My inspections: http://app.test/workshop`);
@@ -55,21 +72,20 @@ describe('e-mail bodies', () => {
   });
 
   it('when a note has few inspections, then all are listed and no "more" line appears', () => {
-    const m = assignmentMail({ name: 'Ines', items: [item(1), item(2)], settingsUrl: 'http://app.test/account', listUrl: 'http://app.test/workshop' });
+    const m = assignmentMail({ name: 'Ines', items: [item(1), item(2)], ...noteLinks });
     expect(m.text.match(/^- CV-/gm)).toHaveLength(2);
     expect(m.text).not.toMatch(/more, all in/);
   });
 
   it('when a mechanic is assigned an inspection, then the note links to that inspection itself, not only to the vehicle', () => {
-    const m = assignmentMail({ name: 'Ines', items: [item(3)], settingsUrl: 'http://app.test/account', listUrl: 'http://app.test/workshop' });
+    const m = assignmentMail({ name: 'Ines', items: [item(3)], ...noteLinks });
     expect(m.text).toContain('Open the inspection: http://app.test/inspections/503');
     expect(m.html).toContain('href="http://app.test/inspections/503"');
     expect(m.html.indexOf('inspections/503')).toBeLessThan(m.html.indexOf('vehicles/3'));
   });
 
   it('when a digest section is long, then it lists the first entries and counts the rest with a link to the app', () => {
-    const entries = Array.from({ length: MAX_LISTED + 4 }, (_, k) => ({ key: `i${k}`, title: `CV-${k}`, lines: ['due today'], link: `http://app.test/vehicles/${k}` }));
-    const m = digestMail({ name: 'Maren', asOf: '2026-12-01', sections: [{ heading: 'Inspections now due or overdue', entries }], homeUrl: 'http://app.test/', settingsUrl: 'http://app.test/account' });
+    const m = digestOf([dueSection(MAX_LISTED + 4, ['due today'])]);
     expect(m.subject).toBe(`Reboundry digest for 2026-12-01: ${MAX_LISTED + 4} new items`);
     expect(m.text).toContain(`== Inspections now due or overdue (${MAX_LISTED + 4}) ==`);
     expect(m.text.match(/^- CV-/gm)).toHaveLength(MAX_LISTED);
@@ -88,7 +104,7 @@ describe('the manager\'s digest', () => {
       ],
     },
   ];
-  const mail = () => digestMail({ name: 'Maren', asOf: '2026-12-01', sections, homeUrl: 'http://app.test/', settingsUrl: 'http://app.test/account' });
+  const mail = () => digestOf(sections);
 
   it('when a digest has a few entries, then the plain text lists each section with its count and intro, each entry with its lines and link, the caution and how to turn it off', () => {
     const m = mail();
@@ -154,21 +170,19 @@ describe('the manager\'s digest', () => {
   });
 
   it('when a digest has one entry, then the subject says "1 new item"', () => {
-    const m = digestMail({ name: 'Maren', asOf: '2026-12-01', sections: [{ ...sections[0] }], homeUrl: 'http://app.test/', settingsUrl: 'http://app.test/account' });
+    const m = digestOf([{ ...sections[0] }]);
     expect(m.subject).toBe('Reboundry digest for 2026-12-01: 1 new item');
   });
 
   it('when a section has exactly as many entries as are listed, then all are listed and no "more" line appears', () => {
-    const entries = Array.from({ length: MAX_LISTED }, (_, k) => ({ key: `i${k}`, title: `CV-${k}`, lines: [], link: `http://app.test/vehicles/${k}` }));
-    const m = digestMail({ name: 'Maren', asOf: '2026-12-01', sections: [{ heading: 'Inspections now due or overdue', entries }], homeUrl: 'http://app.test/', settingsUrl: 'http://app.test/account' });
+    const m = digestOf([dueSection(MAX_LISTED)]);
     expect(m.text.match(/^- CV-/gm)).toHaveLength(MAX_LISTED);
     expect(m.text).not.toContain('more, all in');
     expect(m.html).not.toContain('more, all');
   });
 
   it('when a section is long, then the HTML counts the rest with a link to the app, and the text leaves a blank line after the count', () => {
-    const entries = Array.from({ length: MAX_LISTED + 4 }, (_, k) => ({ key: `i${k}`, title: `CV-${k}`, lines: [], link: `http://app.test/vehicles/${k}` }));
-    const m = digestMail({ name: 'Maren', asOf: '2026-12-01', sections: [{ heading: 'Inspections now due or overdue', entries }], homeUrl: 'http://app.test/', settingsUrl: 'http://app.test/account' });
+    const m = digestOf([dueSection(MAX_LISTED + 4)]);
     expect(m.text).toContain('…and 4 more, all in the app: http://app.test/\n\nDue inspections: http://app.test/');
     expect(wellFormed(m.html)).toBe(true);
     expect(seen(m.html)).toContain('…and 4 more, all in the app.');
@@ -196,10 +210,8 @@ describe('the manager\'s digest', () => {
 });
 
 describe('the mechanic\'s assignment note', () => {
-  const settings = { settingsUrl: 'http://app.test/account', listUrl: 'http://app.test/workshop' };
-
   it('when one inspection is assigned, then the note names its vehicle in the subject and says why it is due, with links to the inspection and the vehicle', () => {
-    const m = assignmentMail({ name: 'Ines', items: [item(3)], ...settings });
+    const m = assignmentMail({ name: 'Ines', items: [item(3)], ...noteLinks });
     expect(m.subject).toBe('Inspection of CV-103 assigned to you, due 2026-12-04');
     expect(m.text).toBe(
       [
@@ -211,10 +223,7 @@ describe('the mechanic\'s assignment note', () => {
         '  Why: reason 3',
         '  Open the inspection: http://app.test/inspections/503',
         '  The vehicle: http://app.test/vehicles/3',
-        '',
-        CAUTION_TEXT,
-        '',
-        'Turn these notes off in your account settings: http://app.test/account',
+        ...NOTE_END_TEXT,
       ].join('\n'),
     );
     expect(wellFormed(m.html)).toBe(true);
@@ -226,8 +235,7 @@ describe('the mechanic\'s assignment note', () => {
       'Inspection of CV-103 (BK3, North): due 2026-12-04 (scheduled)',
       'Why: reason 3',
       'The vehicle',
-      'Turn these notes off in your account settings.',
-      CAUTION_TEXT,
+      ...NOTE_END_SEEN,
     ]);
     expect(links(m.html)).toEqual([
       ['http://app.test/inspections/503', 'Inspection of CV-103'],
@@ -237,7 +245,7 @@ describe('the mechanic\'s assignment note', () => {
   });
 
   it('when a few inspections are assigned, then the note counts them, lists each and has no "more" line', () => {
-    const m = assignmentMail({ name: 'Ines', items: [item(2), { ...item(1), status: 'overdue' }], ...settings });
+    const m = assignmentMail({ name: 'Ines', items: [item(2), { ...item(1), status: 'overdue' }], ...noteLinks });
     expect(m.subject).toBe('2 inspections assigned to you, first due 2026-12-02');
     expect(m.text).toBe(
       [
@@ -254,10 +262,7 @@ describe('the mechanic\'s assignment note', () => {
         '  Why: reason 2',
         '  Open the inspection: http://app.test/inspections/502',
         '  The vehicle: http://app.test/vehicles/2',
-        '',
-        CAUTION_TEXT,
-        '',
-        'Turn these notes off in your account settings: http://app.test/account',
+        ...NOTE_END_TEXT,
       ].join('\n'),
     );
     expect(wellFormed(m.html)).toBe(true);
@@ -272,13 +277,12 @@ describe('the mechanic\'s assignment note', () => {
       'Inspection of CV-102 (BK2, North): due 2026-12-03 (scheduled)',
       'Why: reason 2',
       'The vehicle',
-      'Turn these notes off in your account settings.',
-      CAUTION_TEXT,
+      ...NOTE_END_SEEN,
     ]);
   });
 
   it('when more inspections are assigned than a note lists, then the count says how many of them are listed, in the text and the HTML', () => {
-    const m = assignmentMail({ name: 'Tomasz', items: Array.from({ length: MAX_LISTED + 15 }, (_, k) => item(k)), ...settings });
+    const m = assignmentMail({ name: 'Tomasz', items: Array.from({ length: MAX_LISTED + 15 }, (_, k) => item(k)), ...noteLinks });
     expect(m.text).toContain(`\n${MAX_LISTED + 15} damper and spring inspections are assigned to you; the ${MAX_LISTED} due first:\n`);
     expect(m.text).toContain('…and 15 more, all in My inspections: http://app.test/workshop\n\n' + CAUTION_TEXT);
     expect(wellFormed(m.html)).toBe(true);
@@ -289,7 +293,7 @@ describe('the mechanic\'s assignment note', () => {
   });
 
   it('when exactly as many inspections are assigned as a note lists, then all are listed with no "due first" and no "more"', () => {
-    const m = assignmentMail({ name: 'Tomasz', items: Array.from({ length: MAX_LISTED }, (_, k) => item(k)), ...settings });
+    const m = assignmentMail({ name: 'Tomasz', items: Array.from({ length: MAX_LISTED }, (_, k) => item(k)), ...noteLinks });
     expect(m.text).toContain(`\n${MAX_LISTED} damper and spring inspections are assigned to you:\n`);
     expect(m.text).not.toMatch(/due first|more, all in/);
     expect(seen(m.html)).toContain(`${MAX_LISTED} damper and spring inspections are assigned to you:`);
@@ -301,14 +305,14 @@ describe('the mechanic\'s assignment note', () => {
     const items = [at('CV-200', '2026-12-05'), at('CV-100', '2026-12-09'), at('CV-300', '2026-12-05'), at('CV-150', '2026-12-05'), at('CV-050', '2026-12-09')];
     const order = ['CV-150 2026-12-05', 'CV-200 2026-12-05', 'CV-300 2026-12-05', 'CV-050 2026-12-09', 'CV-100 2026-12-09'];
     for (const given of [items, [...items].reverse()]) {
-      const m = assignmentMail({ name: 'Ines', items: given, ...settings });
+      const m = assignmentMail({ name: 'Ines', items: given, ...noteLinks });
       expect([...m.text.matchAll(/^- (CV-\d+) \(.*\): due (\S+)/gm)].map((x) => `${x[1]} ${x[2]}`)).toEqual(order);
       expect(m.subject).toBe('5 inspections assigned to you, first due 2026-12-05');
     }
   });
 
   it('when an inspection\'s status has no word of its own in the app, then the note shows it as stored', () => {
-    const m = assignmentMail({ name: 'Ines', items: [{ ...item(3), status: 'in_review' }], ...settings });
+    const m = assignmentMail({ name: 'Ines', items: [{ ...item(3), status: 'in_review' }], ...noteLinks });
     expect(m.text).toContain('due 2026-12-04 (in_review)');
     expect(seen(m.html)).toContain('Inspection of CV-103 (BK3, North): due 2026-12-04 (in_review)');
   });

@@ -44,8 +44,8 @@ let A: { inspectionId: number; vehicleId: number; odometerKm: number; positions:
 let B: { inspectionId: number; vehicleId: number; odometerKm: number; damperId: number; position: string; axleIndex: number; lifeUsed: number };
 
 beforeAll(async () => {
-  srv = await startTestServer();
-  await nightly();
+  // the demo fleet after one nightly run
+  srv = await startTestServer({ afterNightly: true });
   mechanicId = (await (await login(DEMO.mechanic)).get<{ user: { id: number } }>('/api/auth/me')).body.user.id;
   const open = await rows<{ id: number; vehicle_id: number }>(`SELECT id, vehicle_id FROM inspections WHERE status IN ('scheduled','due','overdue') ORDER BY id`);
   expect(open.length).toBeGreaterThan(1);

@@ -4,15 +4,13 @@
  * fleet after one clean nightly run on the default settings, computed once per version of the
  * code and shared by the test files (each file runs in its own worker, in parallel).
  */
-import crypto from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { QueryTypes } from 'sequelize';
 import type { Db } from '../../server/db';
 import { selectRows } from '../../server/db/raw';
-import { run } from '../../jobs/nightly';
-import { defaultTestDatabase, startTestServer, TEST_NOW, type TestDatabase } from './server';
+import { buildOnce, codeHash, defaultTestDatabase, NIGHTLY_TEST_ENV, startTestServer, type TestDatabase } from './server';
 
 /** Tables and columns that legitimately differ between two databases holding the same state. */
 const SKIP_TABLES = new Set(['sessions', 'job_runs', 'job_locks', 'caught_mail', 'schema_migrations', 'sqlite_sequence']);
@@ -140,64 +138,28 @@ export function diffTablesNear(a: Dump, b: Dump, relTol: number): string[] {
 
 export const count = async (db: Db, sql: string) => Number((await db.sequelize.query<{ n: number }>(sql, { type: QueryTypes.SELECT }))[0].n);
 
-/** The server and job code, hashed: a reference computed by other code is never reused. */
-function codeHash(): string {
-  const h = crypto.createHash('sha256');
-  const walk = (dir: string) => {
-    for (const e of fs.readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
-      const p = path.join(dir, e.name);
-      if (e.isDirectory()) walk(p);
-      else if (/\.(ts|mjs|json)$/.test(e.name)) h.update(p).update(fs.readFileSync(p));
-    }
-  };
-  walk(path.resolve('server'));
-  walk(path.resolve('jobs'));
-  h.update(TEST_NOW.toISOString());
-  return h.digest('hex').slice(0, 16);
-}
-
 export interface CleanRun {
   dump: Dump;
   counts: Record<string, number>;
 }
 
-/** The job's settings every reference and comparison run uses (several batches on the demo fleet). */
-export const NIGHTLY_TEST_ENV = { NIGHTLY_BATCH_TRIPS: '400' };
+export { NIGHTLY_TEST_ENV };
 
 /**
- * The demo fleet's tables after one clean nightly run (default settings, {@link NIGHTLY_TEST_ENV})
- * on the test run's database (PostgreSQL in the `pg` project) or the one asked for.
- * The first file to ask computes it while holding a lock folder; the others wait for its file.
+ * The demo fleet's tables after one clean nightly run (default settings, {@link NIGHTLY_TEST_ENV}):
+ * those of the nightly template ({@link startTestServer}'s `afterNightly`), dumped once per
+ * version of the code, on the test run's database (PostgreSQL in the `pg` project) or the one
+ * asked for; the first file to ask dumps it while holding a lock, the others wait.
  */
 export async function cleanRun(database: TestDatabase = defaultTestDatabase()): Promise<CleanRun> {
-  const file = path.join(os.tmpdir(), `reboundry-nightly-reference-${codeHash()}${database === 'postgres' ? '-postgres' : ''}.json`);
-  const lock = `${file}.lock`;
-  const started = Date.now();
-  for (;;) {
-    if (fs.existsSync(file)) return JSON.parse(fs.readFileSync(file, 'utf8')) as CleanRun;
-    let mine = false;
+  const dir = await buildOnce(path.join(os.tmpdir(), `reboundry-nightly-reference-${codeHash(['server', 'jobs'], JSON.stringify(NIGHTLY_TEST_ENV))}${database === 'postgres' ? '-postgres' : ''}`), async (work) => {
+    const srv = await startTestServer({ afterNightly: true, database });
     try {
-      fs.mkdirSync(lock);
-      mine = true;
-    } catch {
-      // another worker is computing it; after four minutes assume it died and compute it here
-      if (Date.now() - started > 240_000) mine = true;
+      const out: CleanRun = { dump: await dump(srv.db), counts: srv.nightlyCounts! };
+      fs.writeFileSync(path.join(work, 'reference.json'), JSON.stringify(out));
+    } finally {
+      await srv.stop();
     }
-    if (mine) {
-      const srv = await startTestServer({ env: NIGHTLY_TEST_ENV, database });
-      try {
-        const r = await run({ db: srv.db, config: srv.config, log: srv.log, mailer: srv.mailer, now: TEST_NOW, trigger: 'test' });
-        if (r.status !== 'succeeded') throw new Error(`the reference run ${r.status}: ${JSON.stringify(r.errors)}`);
-        const out: CleanRun = { dump: await dump(srv.db), counts: r.counts };
-        const tmp = `${file}.${process.pid}.tmp`;
-        fs.writeFileSync(tmp, JSON.stringify(out));
-        fs.renameSync(tmp, file);
-        return out;
-      } finally {
-        await srv.stop();
-        fs.rmSync(lock, { recursive: true, force: true });
-      }
-    }
-    await new Promise((res) => setTimeout(res, 500));
-  }
+  });
+  return JSON.parse(fs.readFileSync(path.join(dir, 'reference.json'), 'utf8')) as CleanRun;
 }

@@ -13,8 +13,9 @@ import type { Db } from '../../server/db';
 import type { Config } from '../../server/config';
 import type { Logger } from '../../server/logger';
 import { createMailer, type Mailer } from '../../server/mail/mailer';
-import { startNightly } from '../../jobs/nightly';
+import { run as runNightly, startNightly } from '../../jobs/nightly';
 import { ApiClient, DEMO } from './client';
+import { sourceHash } from './code-hash';
 
 export interface TestServer {
   url: string;
@@ -27,52 +28,118 @@ export interface TestServer {
   config: Config;
   log: Logger;
   mailer: Mailer;
+  /** With `afterNightly`: the counts of the nightly run the data comes from. */
+  nightlyCounts?: Record<string, number>;
   stop(): Promise<void>;
 }
 
 /** A fixed "today" for tests, so seeded dates and due dates are stable. */
 export const TEST_NOW = new Date('2026-11-30T12:00:00Z');
 
-/** Every server source file, hashed: a template seeded by other code is never reused. */
-function serverCodeHash(): string {
-  const h = crypto.createHash('sha256');
-  const walk = (dir: string) => {
-    for (const e of fs.readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
-      const p = path.join(dir, e.name);
-      if (e.isDirectory()) walk(p);
-      else if (/\.(ts|mjs|json)$/.test(e.name)) h.update(p).update(fs.readFileSync(p));
-    }
-  };
-  walk(path.resolve('server'));
-  h.update(TEST_NOW.toISOString());
-  return h.digest('hex').slice(0, 16);
+/** The source files under these folders, hashed with {@link TEST_NOW} and `extra`: a template built by other code is never reused. */
+export function codeHash(dirs: string[], extra = ''): string {
+  return sourceHash(dirs, TEST_NOW.toISOString() + extra);
 }
 
-let templateDir: Promise<string> | null = null;
+function alive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (e) {
+    return (e as NodeJS.ErrnoException).code === 'EPERM';
+  }
+}
+
+/**
+ * Makes the folder `dir` once for all test workers of this run and later ones: the first worker to
+ * ask takes a lock folder (holding its pid) and builds into a private folder, moved into place by
+ * one rename, so no worker sees a half-built one; the others wait for it instead of building it
+ * too. A lock whose process has ended is taken over.
+ */
+export async function buildOnce(dir: string, build: (work: string) => Promise<void>): Promise<string> {
+  const lock = `${dir}.lock`;
+  for (;;) {
+    if (fs.existsSync(dir)) return dir;
+    try {
+      fs.mkdirSync(lock);
+    } catch {
+      let pid = 0;
+      try {
+        pid = Number(fs.readFileSync(path.join(lock, 'pid'), 'utf8'));
+      } catch {
+        // the lock was just taken (its pid not yet written) or just let go
+      }
+      if (pid && !alive(pid)) fs.rmSync(lock, { recursive: true, force: true });
+      await new Promise((res) => setTimeout(res, 200));
+      continue;
+    }
+    try {
+      fs.writeFileSync(path.join(lock, 'pid'), String(process.pid));
+      if (fs.existsSync(dir)) return dir;
+      const work = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-building-'));
+      try {
+        await build(work);
+        fs.renameSync(work, dir);
+      } finally {
+        fs.rmSync(work, { recursive: true, force: true });
+      }
+      return dir;
+    } finally {
+      fs.rmSync(lock, { recursive: true, force: true });
+    }
+  }
+}
+
+let demoDir: Promise<string> | null = null;
 
 /**
  * A data folder holding the migrated database with the demo fleet seeded as of {@link TEST_NOW},
- * shared by every test file of a run (and of later runs while the server code is unchanged).
- * Seeded into a private folder, closed (so the WAL is folded into the database file) and moved
- * into place by one rename, so concurrent test workers never see a half-written template.
+ * shared by every test file of a run (and of later runs while the server code is unchanged),
+ * closed so the WAL is folded into the database file.
  */
 function demoTemplate(): Promise<string> {
-  templateDir ??= (async () => {
-    const dir = path.join(os.tmpdir(), `reboundry-demo-template-${serverCodeHash()}`);
-    if (fs.existsSync(path.join(dir, 'reboundry.sqlite'))) return dir;
-    const work = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-demo-seeding-'));
+  demoDir ??= buildOnce(path.join(os.tmpdir(), `reboundry-demo-template-${codeHash(['server'])}`), async (work) => {
     const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: work, SEED_DEMO: 'true', LOG_LEVEL: 'error' });
     const db = await prepareDatabase(config, createLogger(config.logLevel), TEST_NOW);
     await db.close();
-    try {
-      fs.renameSync(work, dir);
-    } catch {
-      // another worker put its template in place first: use that one
-      fs.rmSync(work, { recursive: true, force: true });
-    }
-    return dir;
-  })();
-  return templateDir;
+  });
+  return demoDir;
+}
+
+/**
+ * The nightly job's settings every reference and comparison run uses (several batches on the
+ * demo fleet). A run on the default settings (one batch) leaves the same tables.
+ */
+export const NIGHTLY_TEST_ENV = { NIGHTLY_BATCH_TRIPS: '400' };
+
+/** The file in the nightly template's folder that holds the counts of its run. */
+const RUN_FILE = 'nightly-run.json';
+let nightlyDir: Promise<string> | null = null;
+
+/**
+ * The demo fleet after one clean nightly run as of {@link TEST_NOW} on {@link NIGHTLY_TEST_ENV},
+ * its mail sent to the built-in catcher: built once per version of the server and job code, like
+ * the demo template, for every test that starts by running the job on the demo fleet.
+ */
+function nightlyTemplate(): Promise<string> {
+  nightlyDir ??= demoTemplate().then((demo) =>
+    buildOnce(path.join(os.tmpdir(), `reboundry-nightly-template-${codeHash(['server', 'jobs'], JSON.stringify(NIGHTLY_TEST_ENV))}`), async (work) => {
+      fs.cpSync(demo, work, { recursive: true });
+      const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: work, SEED_DEMO: 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...NIGHTLY_TEST_ENV });
+      const log = createLogger(config.logLevel);
+      const db = await prepareDatabase(config, log, TEST_NOW);
+      const { mailer } = await createMailer(config, log);
+      try {
+        const r = await runNightly({ db, config, log, mailer, now: TEST_NOW, trigger: 'test' });
+        if (r.status !== 'succeeded') throw new Error(`the template's nightly run ${r.status}: ${JSON.stringify(r.errors.slice(0, 5))}`);
+        fs.writeFileSync(path.join(work, RUN_FILE), JSON.stringify({ counts: r.counts }));
+      } finally {
+        await mailer.close();
+        await db.close();
+      }
+    }),
+  );
+  return nightlyDir;
 }
 
 /** The private PostgreSQL server of the `pg` test project and its seeded template (postgres-global.ts). */
@@ -133,26 +200,37 @@ async function createPostgresDatabase(target: PostgresTarget, seeded: boolean): 
 
 /**
  * Boots the real app on port 0 against a fresh SQLite file in a temp folder (with the demo
- * fleet unless `seed: false`), serving the built client from dist/web when present.
+ * fleet unless `seed: false`), serving the built client from dist/web when present. With
+ * `afterNightly`, the demo fleet is as one clean nightly run left it (the tables of running the
+ * job first in the test, computed once instead of in every file that needs them).
  */
 export async function startTestServer(
-  opts: { seed?: boolean; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string; database?: TestDatabase } = {},
+  opts: { seed?: boolean; afterNightly?: boolean; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string; database?: TestDatabase } = {},
 ): Promise<TestServer> {
+  if (opts.afterNightly && opts.seed === false) throw new Error('afterNightly starts from the demo fleet');
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-test-'));
   // In the `pg` project (or when asked) the database is a copy of the private PostgreSQL server's template.
   const target = (opts.database ?? defaultTestDatabase()) === 'postgres' ? postgresTarget() : undefined;
   if (opts.database === 'postgres' && !target) throw new Error('no PostgreSQL server for the tests: run the `pg` project (vitest --project pg)');
   const pg = target ? await createPostgresDatabase(target, opts.seed !== false) : null;
-  // The demo fleet is seeded once per version of the server code and copied into each test's folder.
-  if (opts.seed !== false) fs.cpSync(target ? target.templateDataDir : await demoTemplate(), dataDir, { recursive: true });
-  const config = loadConfig({
-    NODE_ENV: 'test', DATA_DIR: dataDir, SEED_DEMO: opts.seed === false ? 'false' : 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error',
-    ...(pg ? { DATABASE_URL: pg.url } : {}),
-    ...opts.env,
-  });
+  // SQLite: the demo fleet (or the fleet after one nightly run) is built once per version of the code
+  // and copied into each test's folder. PostgreSQL: the database is a copy of the seeded template,
+  // and `afterNightly` runs the job on it below.
+  const template = target ? (opts.seed !== false ? target.templateDataDir : null) : opts.afterNightly ? await nightlyTemplate() : opts.seed !== false ? await demoTemplate() : null;
+  if (template) fs.cpSync(template, dataDir, { recursive: true });
+  const baseEnv = { NODE_ENV: 'test', DATA_DIR: dataDir, SEED_DEMO: opts.seed === false ? 'false' : 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...(pg ? { DATABASE_URL: pg.url } : {}) };
+  const config = loadConfig({ ...baseEnv, ...opts.env });
   const log = createLogger(config.logLevel);
   const db = await prepareDatabase(config, log, TEST_NOW);
   const { mailer } = await createMailer(config, log);
+  let nightlyCounts: Record<string, number> | undefined;
+  if (opts.afterNightly && pg) {
+    const r = await runNightly({ db, config: loadConfig({ ...baseEnv, ...NIGHTLY_TEST_ENV }), log, mailer, now: TEST_NOW, trigger: 'test' });
+    if (r.status !== 'succeeded') throw new Error(`the nightly run before the test ${r.status}: ${JSON.stringify(r.errors.slice(0, 5))}`);
+    nightlyCounts = r.counts;
+  } else if (opts.afterNightly) {
+    nightlyCounts = (JSON.parse(fs.readFileSync(path.join(dataDir, RUN_FILE), 'utf8')) as { counts: Record<string, number> }).counts;
+  }
   const built = createApp({ config, db, log, now: () => TEST_NOW, auth: opts.auth, webDir: opts.webDir ?? defaultWebDir, mailer, startNightly });
   const server = await new Promise<import('node:http').Server>((resolve) => {
     const s = built.app.listen(0, '127.0.0.1', () => resolve(s));
@@ -167,6 +245,7 @@ export async function startTestServer(
     config,
     log,
     mailer,
+    nightlyCounts,
     async stop() {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections?.();

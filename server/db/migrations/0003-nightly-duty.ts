@@ -1,18 +1,5 @@
 import { DataTypes, type QueryInterface } from 'sequelize';
-
-const ts = {
-  created_at: { type: DataTypes.DATE, allowNull: false },
-  updated_at: { type: DataTypes.DATE, allowNull: false },
-};
-const id = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true };
-const fk = (table: string, allowNull = false, onDelete = 'RESTRICT') => ({
-  type: DataTypes.INTEGER,
-  allowNull,
-  references: { model: table, key: 'id' },
-  onUpdate: 'CASCADE',
-  onDelete,
-});
-const num = (allowNull = false) => ({ type: DataTypes.DOUBLE, allowNull });
+import { fk, id, num, ts } from './columns';
 
 /**
  * The nightly damper-duty job: duty per trip and corner, each damper's daily wear

@@ -1,18 +1,5 @@
 import { DataTypes, type QueryInterface } from 'sequelize';
-
-const ts = {
-  created_at: { type: DataTypes.DATE, allowNull: false },
-  updated_at: { type: DataTypes.DATE, allowNull: false },
-};
-const id = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true };
-const fk = (table: string, allowNull = false, onDelete = 'RESTRICT') => ({
-  type: DataTypes.INTEGER,
-  allowNull,
-  references: { model: table, key: 'id' },
-  onUpdate: 'CASCADE',
-  onDelete,
-});
-const num = (allowNull = true) => ({ type: DataTypes.DOUBLE, allowNull });
+import { fk, id, num, ts } from './columns';
 
 /**
  * The workshop: test-lane results per corner (with the model's predicted and the
@@ -33,16 +20,16 @@ export async function up({ context: qi }: { context: QueryInterface }) {
     damper_id: fk('dampers', true, 'SET NULL'),
     position: { type: DataTypes.STRING(4), allowNull: false },
     axle_index: { type: DataTypes.INTEGER, allowNull: false },
-    adhesion_pct: num(),
+    adhesion_pct: num(true),
     findings: { type: DataTypes.TEXT, allowNull: false, defaultValue: '[]' },
     verdict: { type: DataTypes.STRING(12), allowNull: false },
-    nominal_damping_ns_per_m: num(false),
-    predicted_damping_ns_per_m: num(),
+    nominal_damping_ns_per_m: num(),
+    predicted_damping_ns_per_m: num(true),
     predicted_basis: { type: DataTypes.STRING(20), allowNull: true },
-    measured_damping_ns_per_m: num(),
+    measured_damping_ns_per_m: num(true),
     estimate_note: { type: DataTypes.TEXT, allowNull: true },
-    energy_j_at_test: num(),
-    life_used_at_test: num(),
+    energy_j_at_test: num(true),
+    life_used_at_test: num(true),
     ...ts,
   });
   await qi.addIndex('inspection_corners', ['inspection_id', 'position'], { unique: true });
@@ -70,7 +57,7 @@ export async function up({ context: qi }: { context: QueryInterface }) {
     component: { type: DataTypes.STRING(12), allowNull: false },
     part_description: { type: DataTypes.STRING(160), allowNull: false },
     part_number: { type: DataTypes.STRING(60), allowNull: true },
-    cost: num(),
+    cost: num(true),
     removal_reason: { type: DataTypes.STRING(40), allowNull: false },
     removed_damper_id: fk('dampers', true, 'SET NULL'),
     installed_damper_id: fk('dampers', true, 'SET NULL'),

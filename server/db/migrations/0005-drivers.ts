@@ -1,17 +1,5 @@
 import { DataTypes, type QueryInterface } from 'sequelize';
-
-const ts = {
-  created_at: { type: DataTypes.DATE, allowNull: false },
-  updated_at: { type: DataTypes.DATE, allowNull: false },
-};
-const id = { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true };
-const fk = (table: string, allowNull = false, onDelete = 'RESTRICT') => ({
-  type: DataTypes.INTEGER,
-  allowNull,
-  references: { model: table, key: 'id' },
-  onUpdate: 'CASCADE',
-  onDelete,
-});
+import { fk, id, ts } from './columns';
 
 /**
  * Drivers: harsh-ride reports filed from the road (snapped to a route segment, with a

@@ -1,4 +1,5 @@
 import { DataTypes, type QueryInterface } from 'sequelize';
+import { num } from './columns';
 
 /**
  * Damper life model: the duty records gain the damper's duty measure (rod sliding distance
@@ -9,7 +10,6 @@ import { DataTypes, type QueryInterface } from 'sequelize';
  * recomputes everything under the new measure.
  */
 export async function up({ context: qi }: { context: QueryInterface }) {
-  const num = (allowNull = false) => ({ type: DataTypes.DOUBLE, allowNull });
   await qi.sequelize.query('DELETE FROM trip_duties');
   await qi.addColumn('trip_duties', 'sliding_m', { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 });
   await qi.addColumn('trip_duties', 'severity', { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 1 });

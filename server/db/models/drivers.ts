@@ -1,15 +1,11 @@
 /** Drivers' ride reports and daily vibration exposure. */
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import { dbl } from './columns';
+import { DataTypes, Model, type CreationOptional, type ForeignKey, type Sequelize } from 'sequelize';
+import { Row, optional, required, rowColumns, type Attrs, type CAttrs } from './columns';
 
-export const RIDE_REPORT_STATUSES = ['new', 'accepted', 'dismissed'] as const;
-export type RideReportStatus = (typeof RIDE_REPORT_STATUSES)[number];
+export { RIDE_REPORT_STATUSES, type RideReportStatus } from '../../contracts/drivers';
+import type { RideReportStatus } from '../../contracts/drivers';
 
-type Attrs<M extends Model> = InferAttributes<M>;
-type CAttrs<M extends Model> = InferCreationAttributes<M>;
-
-export class RideReport extends Model<Attrs<RideReport>, CAttrs<RideReport>> {
-  declare id: CreationOptional<number>;
+export class RideReport extends Row<RideReport> {
   declare driverId: ForeignKey<number>;
   declare vehicleId: ForeignKey<number> | null;
   declare routeId: ForeignKey<number>;
@@ -41,8 +37,6 @@ export class RideReport extends Model<Attrs<RideReport>, CAttrs<RideReport>> {
   declare gdN0After: CreationOptional<number | null>;
   declare observationId: ForeignKey<number> | null;
   declare digestNotifiedAt: Date | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 export class DriverExposureDay extends Model<Attrs<DriverExposureDay>, CAttrs<DriverExposureDay>> {
@@ -62,48 +56,45 @@ export class DriverExposureDay extends Model<Attrs<DriverExposureDay>, CAttrs<Dr
 export function initDriversModels(sequelize: Sequelize) {
   const common = { sequelize, underscored: true };
   RideReport.init(
-    {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      lat: dbl(),
-      lon: dbl(),
-      positionSource: { type: DataTypes.STRING(8), allowNull: false },
-      accuracyM: dbl(true),
-      snappedLat: dbl(),
-      snappedLon: dbl(),
-      snapDistanceM: dbl(),
-      severity: { type: DataTypes.INTEGER, allowNull: false },
-      felt: { type: DataTypes.TEXT, allowNull: false, defaultValue: '[]' },
-      note: { type: DataTypes.STRING(1000), allowNull: true },
-      photoPath: { type: DataTypes.STRING(200), allowNull: true },
-      photoType: { type: DataTypes.STRING(40), allowNull: true },
-      photoBytes: { type: DataTypes.INTEGER, allowNull: true },
-      reportedAt: { type: DataTypes.DATE, allowNull: false },
-      status: { type: DataTypes.STRING(12), allowNull: false, defaultValue: 'new' },
-      decidedAt: { type: DataTypes.DATE, allowNull: true },
-      dismissReason: { type: DataTypes.STRING(500), allowNull: true },
-      classBefore: { type: DataTypes.STRING(1), allowNull: true },
-      estimatedClass: { type: DataTypes.STRING(1), allowNull: true },
-      estimatedGdN0: { type: DataTypes.DOUBLE, allowNull: true, field: 'estimated_gd_n0' },
-      classAfter: { type: DataTypes.STRING(1), allowNull: true },
-      gdN0After: { type: DataTypes.DOUBLE, allowNull: true, field: 'gd_n0_after' },
-      digestNotifiedAt: { type: DataTypes.DATE, allowNull: true },
-      createdAt: { type: DataTypes.DATE, allowNull: false },
-      updatedAt: { type: DataTypes.DATE, allowNull: false },
-    },
+    rowColumns({
+      lat: required(DataTypes.DOUBLE),
+      lon: required(DataTypes.DOUBLE),
+      positionSource: required(DataTypes.STRING(8)),
+      accuracyM: optional(DataTypes.DOUBLE),
+      snappedLat: required(DataTypes.DOUBLE),
+      snappedLon: required(DataTypes.DOUBLE),
+      snapDistanceM: required(DataTypes.DOUBLE),
+      severity: required(DataTypes.INTEGER),
+      felt: required(DataTypes.TEXT, { defaultValue: '[]' }),
+      note: optional(DataTypes.STRING(1000)),
+      photoPath: optional(DataTypes.STRING(200)),
+      photoType: optional(DataTypes.STRING(40)),
+      photoBytes: optional(DataTypes.INTEGER),
+      reportedAt: required(DataTypes.DATE),
+      status: required(DataTypes.STRING(12), { defaultValue: 'new' }),
+      decidedAt: optional(DataTypes.DATE),
+      dismissReason: optional(DataTypes.STRING(500)),
+      classBefore: optional(DataTypes.STRING(1)),
+      estimatedClass: optional(DataTypes.STRING(1)),
+      estimatedGdN0: optional(DataTypes.DOUBLE, { field: 'estimated_gd_n0' }),
+      classAfter: optional(DataTypes.STRING(1)),
+      gdN0After: optional(DataTypes.DOUBLE, { field: 'gd_n0_after' }),
+      digestNotifiedAt: optional(DataTypes.DATE),
+    }),
     { ...common, tableName: 'ride_reports' },
   );
   DriverExposureDay.init(
     {
       driverId: { type: DataTypes.INTEGER, primaryKey: true },
       day: { type: DataTypes.DATEONLY, primaryKey: true },
-      a8: dbl(),
-      hours: dbl(),
-      trips: { type: DataTypes.INTEGER, allowNull: false },
-      maxWeightedAccel: dbl(),
-      status: { type: DataTypes.STRING(24), allowNull: false },
-      parts: { type: DataTypes.TEXT, allowNull: false, defaultValue: '[]' },
-      computedAt: { type: DataTypes.DATE, allowNull: false },
-      notifiedAt: { type: DataTypes.DATE, allowNull: true },
+      a8: required(DataTypes.DOUBLE),
+      hours: required(DataTypes.DOUBLE),
+      trips: required(DataTypes.INTEGER),
+      maxWeightedAccel: required(DataTypes.DOUBLE),
+      status: required(DataTypes.STRING(24)),
+      parts: required(DataTypes.TEXT, { defaultValue: '[]' }),
+      computedAt: required(DataTypes.DATE),
+      notifiedAt: optional(DataTypes.DATE),
     },
     { ...common, tableName: 'driver_exposure_days', timestamps: false },
   );

@@ -1,25 +1,18 @@
 /** The fleet: depots, suspension specs and their axles, vehicles and the dampers fitted to them. */
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import { DataTypes, type CreationOptional, type ForeignKey, type Sequelize } from 'sequelize';
 import type { VehicleStatus } from '../../contracts/fleet';
-import { pk, ts } from './columns';
+import { Row, optional, required, rowColumns } from './columns';
 
 export { VEHICLE_STATUSES, type VehicleStatus } from '../../contracts/fleet';
 
-type Attrs<M extends Model> = InferAttributes<M>;
-type CAttrs<M extends Model> = InferCreationAttributes<M>;
-
-export class Depot extends Model<Attrs<Depot>, CAttrs<Depot>> {
-  declare id: CreationOptional<number>;
+export class Depot extends Row<Depot> {
   declare name: string;
   declare address: string | null;
   declare lat: number;
   declare lon: number;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
-export class SuspensionSpec extends Model<Attrs<SuspensionSpec>, CAttrs<SuspensionSpec>> {
-  declare id: CreationOptional<number>;
+export class SuspensionSpec extends Row<SuspensionSpec> {
   declare name: string;
   declare vehicleClass: string;
   declare description: string | null;
@@ -27,13 +20,10 @@ export class SuspensionSpec extends Model<Attrs<SuspensionSpec>, CAttrs<Suspensi
   declare seatFactor: CreationOptional<number | null>;
   /** Cab suspension transmissibility [1], null = none. */
   declare cabFactor: CreationOptional<number | null>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
   declare axles?: SpecAxle[];
 }
 
-export class SpecAxle extends Model<Attrs<SpecAxle>, CAttrs<SpecAxle>> {
-  declare id: CreationOptional<number>;
+export class SpecAxle extends Row<SpecAxle> {
   declare specId: ForeignKey<number>;
   declare axleIndex: number;
   declare label: string;
@@ -43,12 +33,9 @@ export class SpecAxle extends Model<Attrs<SpecAxle>, CAttrs<SpecAxle>> {
   declare dampingNsPerM: number;
   declare tireRateNPerM: number;
   declare ratedDamperLifeKm: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
-export class Vehicle extends Model<Attrs<Vehicle>, CAttrs<Vehicle>> {
-  declare id: CreationOptional<number>;
+export class Vehicle extends Row<Vehicle> {
   declare fleetNumber: string;
   declare plate: string;
   declare specId: ForeignKey<number>;
@@ -57,12 +44,9 @@ export class Vehicle extends Model<Attrs<Vehicle>, CAttrs<Vehicle>> {
   declare odometerKm: CreationOptional<number>;
   declare status: CreationOptional<VehicleStatus>;
   declare commissionedAt: string | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
-export class Damper extends Model<Attrs<Damper>, CAttrs<Damper>> {
-  declare id: CreationOptional<number>;
+export class Damper extends Row<Damper> {
   declare vehicleId: ForeignKey<number>;
   declare position: string;
   declare axleIndex: number;
@@ -88,87 +72,75 @@ export class Damper extends Model<Attrs<Damper>, CAttrs<Damper>> {
   /** Wear km (distance weighted by road severity, recorded and opening) and the road sensitivity its wear days were summed with. */
   declare wearKm: CreationOptional<number | null>;
   declare wearExponent: CreationOptional<number | null>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 export function initFleetModels(sequelize: Sequelize) {
   const common = { sequelize, underscored: true };
   Depot.init(
-    {
-      id: pk,
-      name: { type: DataTypes.STRING(120), allowNull: false, unique: true },
-      address: { type: DataTypes.STRING(240), allowNull: true },
-      lat: { type: DataTypes.DOUBLE, allowNull: false },
-      lon: { type: DataTypes.DOUBLE, allowNull: false },
-      ...ts,
-    },
+    rowColumns({
+      name: required(DataTypes.STRING(120), { unique: true }),
+      address: optional(DataTypes.STRING(240)),
+      lat: required(DataTypes.DOUBLE),
+      lon: required(DataTypes.DOUBLE),
+    }),
     { ...common, tableName: 'depots' },
   );
   SuspensionSpec.init(
-    {
-      id: pk,
-      name: { type: DataTypes.STRING(120), allowNull: false, unique: true },
-      vehicleClass: { type: DataTypes.STRING(40), allowNull: false },
-      description: { type: DataTypes.TEXT, allowNull: true },
-      seatFactor: { type: DataTypes.DOUBLE, allowNull: true },
-      cabFactor: { type: DataTypes.DOUBLE, allowNull: true },
-      ...ts,
-    },
+    rowColumns({
+      name: required(DataTypes.STRING(120), { unique: true }),
+      vehicleClass: required(DataTypes.STRING(40)),
+      description: optional(DataTypes.TEXT),
+      seatFactor: optional(DataTypes.DOUBLE),
+      cabFactor: optional(DataTypes.DOUBLE),
+    }),
     { ...common, tableName: 'suspension_specs' },
   );
   SpecAxle.init(
-    {
-      id: pk,
-      axleIndex: { type: DataTypes.INTEGER, allowNull: false },
-      label: { type: DataTypes.STRING(40), allowNull: false },
-      sprungMassKg: { type: DataTypes.DOUBLE, allowNull: false },
-      unsprungMassKg: { type: DataTypes.DOUBLE, allowNull: false },
-      springRateNPerM: { type: DataTypes.DOUBLE, allowNull: false },
-      dampingNsPerM: { type: DataTypes.DOUBLE, allowNull: false },
-      tireRateNPerM: { type: DataTypes.DOUBLE, allowNull: false },
-      ratedDamperLifeKm: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 90000 },
-      ...ts,
-    },
+    rowColumns({
+      axleIndex: required(DataTypes.INTEGER),
+      label: required(DataTypes.STRING(40)),
+      sprungMassKg: required(DataTypes.DOUBLE),
+      unsprungMassKg: required(DataTypes.DOUBLE),
+      springRateNPerM: required(DataTypes.DOUBLE),
+      dampingNsPerM: required(DataTypes.DOUBLE),
+      tireRateNPerM: required(DataTypes.DOUBLE),
+      ratedDamperLifeKm: required(DataTypes.DOUBLE, { defaultValue: 90000 }),
+    }),
     { ...common, tableName: 'spec_axles' },
   );
   Vehicle.init(
-    {
-      id: pk,
-      fleetNumber: { type: DataTypes.STRING(20), allowNull: false, unique: true },
-      plate: { type: DataTypes.STRING(20), allowNull: false, unique: true },
-      odometerKm: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
-      status: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'in_service' },
-      commissionedAt: { type: DataTypes.DATEONLY, allowNull: true },
-      ...ts,
-    },
+    rowColumns({
+      fleetNumber: required(DataTypes.STRING(20), { unique: true }),
+      plate: required(DataTypes.STRING(20), { unique: true }),
+      odometerKm: required(DataTypes.DOUBLE, { defaultValue: 0 }),
+      status: required(DataTypes.STRING(16), { defaultValue: 'in_service' }),
+      commissionedAt: optional(DataTypes.DATEONLY),
+    }),
     { ...common, tableName: 'vehicles' },
   );
   Damper.init(
-    {
-      id: pk,
-      position: { type: DataTypes.STRING(4), allowNull: false },
-      axleIndex: { type: DataTypes.INTEGER, allowNull: false },
-      partNumber: { type: DataTypes.STRING(60), allowNull: true },
-      installedAt: { type: DataTypes.DATEONLY, allowNull: false },
-      installedOdometerKm: { type: DataTypes.DOUBLE, allowNull: false },
-      removedAt: { type: DataTypes.DATEONLY, allowNull: true },
-      removedOdometerKm: { type: DataTypes.DOUBLE, allowNull: true },
-      removalReason: { type: DataTypes.STRING(40), allowNull: true },
-      energyJ: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
-      fatigueDamage: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
-      lifeUsedFraction: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
-      dampingNsPerM: { type: DataTypes.DOUBLE, allowNull: true },
-      wearUpdatedAt: { type: DataTypes.DATE, allowNull: true },
-      wearDirtyFrom: { type: DataTypes.DATEONLY, allowNull: true },
-      openingKm: { type: DataTypes.DOUBLE, allowNull: true },
-      wearKm: { type: DataTypes.DOUBLE, allowNull: true },
-      wearExponent: { type: DataTypes.DOUBLE, allowNull: true },
-      openingEnergyJ: { type: DataTypes.DOUBLE, allowNull: true },
-      openingSpringDamage: { type: DataTypes.DOUBLE, allowNull: true },
-      openingBasis: { type: DataTypes.TEXT, allowNull: true },
-      ...ts,
-    },
+    rowColumns({
+      position: required(DataTypes.STRING(4)),
+      axleIndex: required(DataTypes.INTEGER),
+      partNumber: optional(DataTypes.STRING(60)),
+      installedAt: required(DataTypes.DATEONLY),
+      installedOdometerKm: required(DataTypes.DOUBLE),
+      removedAt: optional(DataTypes.DATEONLY),
+      removedOdometerKm: optional(DataTypes.DOUBLE),
+      removalReason: optional(DataTypes.STRING(40)),
+      energyJ: required(DataTypes.DOUBLE, { defaultValue: 0 }),
+      fatigueDamage: required(DataTypes.DOUBLE, { defaultValue: 0 }),
+      lifeUsedFraction: required(DataTypes.DOUBLE, { defaultValue: 0 }),
+      dampingNsPerM: optional(DataTypes.DOUBLE),
+      wearUpdatedAt: optional(DataTypes.DATE),
+      wearDirtyFrom: optional(DataTypes.DATEONLY),
+      openingKm: optional(DataTypes.DOUBLE),
+      wearKm: optional(DataTypes.DOUBLE),
+      wearExponent: optional(DataTypes.DOUBLE),
+      openingEnergyJ: optional(DataTypes.DOUBLE),
+      openingSpringDamage: optional(DataTypes.DOUBLE),
+      openingBasis: optional(DataTypes.TEXT),
+    }),
     { ...common, tableName: 'dampers' },
   );
 }

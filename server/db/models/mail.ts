@@ -1,15 +1,11 @@
 /** Outgoing mail with its de-duplication key, and what the built-in mail catcher received. */
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import { pk, ts } from './columns';
+import { DataTypes, type CreationOptional, type ForeignKey, type Sequelize } from 'sequelize';
+import { Row, optional, required, rowColumns } from './columns';
 
 export const MAIL_KINDS = ['digest', 'assignment', 'note'] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
 
-type Attrs<M extends Model> = InferAttributes<M>;
-type CAttrs<M extends Model> = InferCreationAttributes<M>;
-
-export class MailMessage extends Model<Attrs<MailMessage>, CAttrs<MailMessage>> {
-  declare id: CreationOptional<number>;
+export class MailMessage extends Row<MailMessage> {
   declare dedupeKey: string;
   declare kind: MailKind;
   declare userId: ForeignKey<number> | null;
@@ -23,12 +19,9 @@ export class MailMessage extends Model<Attrs<MailMessage>, CAttrs<MailMessage>> 
   declare attempts: CreationOptional<number>;
   declare jobRunId: number | null;
   declare sentAt: Date | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
-export class CaughtMail extends Model<Attrs<CaughtMail>, CAttrs<CaughtMail>> {
-  declare id: CreationOptional<number>;
+export class CaughtMail extends Row<CaughtMail> {
   declare messageId: string | null;
   declare dedupeKey: string | null;
   declare mailFrom: string | null;
@@ -38,45 +31,39 @@ export class CaughtMail extends Model<Attrs<CaughtMail>, CAttrs<CaughtMail>> {
   declare htmlBody: string | null;
   declare sizeBytes: number;
   declare receivedAt: Date;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 export function initMailModels(sequelize: Sequelize) {
   const common = { sequelize, underscored: true };
   MailMessage.init(
-    {
-      id: pk,
-      dedupeKey: { type: DataTypes.STRING(200), allowNull: false, unique: true },
-      kind: { type: DataTypes.STRING(24), allowNull: false },
-      toAddress: { type: DataTypes.STRING(254), allowNull: false },
-      subject: { type: DataTypes.STRING(250), allowNull: false },
-      textBody: { type: DataTypes.TEXT, allowNull: false },
-      htmlBody: { type: DataTypes.TEXT, allowNull: false },
-      status: { type: DataTypes.STRING(12), allowNull: false },
-      messageId: { type: DataTypes.STRING(250), allowNull: true },
-      error: { type: DataTypes.TEXT, allowNull: true },
-      attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-      jobRunId: { type: DataTypes.INTEGER, allowNull: true },
-      sentAt: { type: DataTypes.DATE, allowNull: true },
-      ...ts,
-    },
+    rowColumns({
+      dedupeKey: required(DataTypes.STRING(200), { unique: true }),
+      kind: required(DataTypes.STRING(24)),
+      toAddress: required(DataTypes.STRING(254)),
+      subject: required(DataTypes.STRING(250)),
+      textBody: required(DataTypes.TEXT),
+      htmlBody: required(DataTypes.TEXT),
+      status: required(DataTypes.STRING(12)),
+      messageId: optional(DataTypes.STRING(250)),
+      error: optional(DataTypes.TEXT),
+      attempts: required(DataTypes.INTEGER, { defaultValue: 0 }),
+      jobRunId: optional(DataTypes.INTEGER),
+      sentAt: optional(DataTypes.DATE),
+    }),
     { ...common, tableName: 'mail_messages' },
   );
   CaughtMail.init(
-    {
-      id: pk,
-      messageId: { type: DataTypes.STRING(250), allowNull: true },
-      dedupeKey: { type: DataTypes.STRING(200), allowNull: true },
-      mailFrom: { type: DataTypes.STRING(254), allowNull: true },
-      rcptTo: { type: DataTypes.TEXT, allowNull: false },
-      subject: { type: DataTypes.STRING(250), allowNull: false },
-      textBody: { type: DataTypes.TEXT, allowNull: true },
-      htmlBody: { type: DataTypes.TEXT, allowNull: true },
-      sizeBytes: { type: DataTypes.INTEGER, allowNull: false },
-      receivedAt: { type: DataTypes.DATE, allowNull: false },
-      ...ts,
-    },
+    rowColumns({
+      messageId: optional(DataTypes.STRING(250)),
+      dedupeKey: optional(DataTypes.STRING(200)),
+      mailFrom: optional(DataTypes.STRING(254)),
+      rcptTo: required(DataTypes.TEXT),
+      subject: required(DataTypes.STRING(250)),
+      textBody: optional(DataTypes.TEXT),
+      htmlBody: optional(DataTypes.TEXT),
+      sizeBytes: required(DataTypes.INTEGER),
+      receivedAt: required(DataTypes.DATE),
+    }),
     { ...common, tableName: 'caught_mail' },
   );
 }

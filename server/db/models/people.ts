@@ -1,15 +1,11 @@
 /** People who sign in: fleet managers, mechanics and drivers, with their notification preferences. */
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import { DataTypes, type CreationOptional, type ForeignKey, type Sequelize } from 'sequelize';
 import type { Role } from '../../contracts/users';
-import { pk, ts } from './columns';
+import { Row, optional, required, rowColumns } from './columns';
 
 export { ROLES, type Role } from '../../contracts/users';
 
-type Attrs<M extends Model> = InferAttributes<M>;
-type CAttrs<M extends Model> = InferCreationAttributes<M>;
-
-export class User extends Model<Attrs<User>, CAttrs<User>> {
-  declare id: CreationOptional<number>;
+export class User extends Row<User> {
   declare name: string;
   declare email: string;
   declare role: Role;
@@ -22,27 +18,23 @@ export class User extends Model<Attrs<User>, CAttrs<User>> {
   declare notifyInspectionDigest: CreationOptional<boolean>;
   declare notifyRideReports: CreationOptional<boolean>;
   declare notifyAssignments: CreationOptional<boolean>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 export function initPeopleModels(sequelize: Sequelize) {
   const common = { sequelize, underscored: true };
   User.init(
-    {
-      id: pk,
-      name: { type: DataTypes.STRING(120), allowNull: false },
-      email: { type: DataTypes.STRING(254), allowNull: false, unique: true },
-      role: { type: DataTypes.STRING(16), allowNull: false },
-      passwordHash: { type: DataTypes.STRING(100), allowNull: false },
-      active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
-      depotId: { type: DataTypes.INTEGER, allowNull: true },
-      mustChangePassword: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
-      notifyInspectionDigest: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
-      notifyRideReports: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
-      notifyAssignments: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
-      ...ts,
-    },
+    rowColumns({
+      name: required(DataTypes.STRING(120)),
+      email: required(DataTypes.STRING(254), { unique: true }),
+      role: required(DataTypes.STRING(16)),
+      passwordHash: required(DataTypes.STRING(100)),
+      active: required(DataTypes.BOOLEAN, { defaultValue: true }),
+      depotId: optional(DataTypes.INTEGER),
+      mustChangePassword: required(DataTypes.BOOLEAN, { defaultValue: false }),
+      notifyInspectionDigest: required(DataTypes.BOOLEAN, { defaultValue: true }),
+      notifyRideReports: required(DataTypes.BOOLEAN, { defaultValue: true }),
+      notifyAssignments: required(DataTypes.BOOLEAN, { defaultValue: true }),
+    }),
     { ...common, tableName: 'users' },
   );
 }

@@ -1,15 +1,11 @@
 /** Roads: routes, their segments, roughness observations and profile surveys. */
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import { pk, ts } from './columns';
+import { DataTypes, type CreationOptional, type ForeignKey, type Sequelize } from 'sequelize';
+import { Row, optional, required, rowColumns } from './columns';
 
 export { ROUGHNESS_SOURCES, type RoughnessSource } from '../../contracts/roads';
 import type { RoughnessSource } from '../../contracts/roads';
 
-type Attrs<M extends Model> = InferAttributes<M>;
-type CAttrs<M extends Model> = InferCreationAttributes<M>;
-
-export class Route extends Model<Attrs<Route>, CAttrs<Route>> {
-  declare id: CreationOptional<number>;
+export class Route extends Row<Route> {
   declare name: string;
   declare description: string | null;
   declare depotId: ForeignKey<number> | null;
@@ -18,12 +14,9 @@ export class Route extends Model<Attrs<Route>, CAttrs<Route>> {
   declare lengthM: number;
   declare defaultSpeedKmh: CreationOptional<number>;
   declare segmentLengthM: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
-export class RouteSegment extends Model<Attrs<RouteSegment>, CAttrs<RouteSegment>> {
-  declare id: CreationOptional<number>;
+export class RouteSegment extends Row<RouteSegment> {
   declare routeId: ForeignKey<number>;
   declare seq: number;
   declare startM: number;
@@ -38,12 +31,9 @@ export class RouteSegment extends Model<Attrs<RouteSegment>, CAttrs<RouteSegment
   declare roughnessDate: CreationOptional<string | null>;
   /** The survey behind the current roughness (null unless the current value is a survey). */
   declare surveyId: CreationOptional<ForeignKey<number> | null>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
-export class RoughnessObservation extends Model<Attrs<RoughnessObservation>, CAttrs<RoughnessObservation>> {
-  declare id: CreationOptional<number>;
+export class RoughnessObservation extends Row<RoughnessObservation> {
   declare segmentId: ForeignKey<number>;
   declare iri: number | null;
   declare gdN0: number | null;
@@ -53,13 +43,10 @@ export class RoughnessObservation extends Model<Attrs<RoughnessObservation>, CAt
   declare recordedById: ForeignKey<number> | null;
   declare note: string | null;
   declare surveyId: CreationOptional<ForeignKey<number> | null>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 /** A longitudinal profile survey of (part of) a route; the profile file is kept under DATA_DIR. */
-export class RoadSurvey extends Model<Attrs<RoadSurvey>, CAttrs<RoadSurvey>> {
-  declare id: CreationOptional<number>;
+export class RoadSurvey extends Row<RoadSurvey> {
   declare routeId: ForeignKey<number>;
   /** Path of the stored profile CSV relative to DATA_DIR. */
   declare filePath: string;
@@ -72,71 +59,61 @@ export class RoadSurvey extends Model<Attrs<RoadSurvey>, CAttrs<RoadSurvey>> {
   declare note: string | null;
   declare uploadedById: ForeignKey<number> | null;
   declare uploadedAt: Date;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 export function initRoadsModels(sequelize: Sequelize) {
   const common = { sequelize, underscored: true };
   Route.init(
-    {
-      id: pk,
-      name: { type: DataTypes.STRING(120), allowNull: false, unique: true },
-      description: { type: DataTypes.TEXT, allowNull: true },
-      geometry: { type: DataTypes.TEXT, allowNull: false },
-      lengthM: { type: DataTypes.DOUBLE, allowNull: false },
-      defaultSpeedKmh: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 50 },
-      segmentLengthM: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 100 },
-      ...ts,
-    },
+    rowColumns({
+      name: required(DataTypes.STRING(120), { unique: true }),
+      description: optional(DataTypes.TEXT),
+      geometry: required(DataTypes.TEXT),
+      lengthM: required(DataTypes.DOUBLE),
+      defaultSpeedKmh: required(DataTypes.DOUBLE, { defaultValue: 50 }),
+      segmentLengthM: required(DataTypes.DOUBLE, { defaultValue: 100 }),
+    }),
     { ...common, tableName: 'routes' },
   );
   RouteSegment.init(
-    {
-      id: pk,
-      seq: { type: DataTypes.INTEGER, allowNull: false },
-      startM: { type: DataTypes.DOUBLE, allowNull: false },
-      endM: { type: DataTypes.DOUBLE, allowNull: false },
-      geometry: { type: DataTypes.TEXT, allowNull: false },
-      speedKmh: { type: DataTypes.DOUBLE, allowNull: true },
-      iri: { type: DataTypes.DOUBLE, allowNull: true },
-      gdN0: { type: DataTypes.DOUBLE, allowNull: true, field: 'gd_n0' },
-      isoClass: { type: DataTypes.STRING(1), allowNull: true },
-      roughnessSource: { type: DataTypes.STRING(20), allowNull: true },
-      roughnessDate: { type: DataTypes.DATEONLY, allowNull: true },
-      surveyId: { type: DataTypes.INTEGER, allowNull: true },
-      ...ts,
-    },
+    rowColumns({
+      seq: required(DataTypes.INTEGER),
+      startM: required(DataTypes.DOUBLE),
+      endM: required(DataTypes.DOUBLE),
+      geometry: required(DataTypes.TEXT),
+      speedKmh: optional(DataTypes.DOUBLE),
+      iri: optional(DataTypes.DOUBLE),
+      gdN0: optional(DataTypes.DOUBLE, { field: 'gd_n0' }),
+      isoClass: optional(DataTypes.STRING(1)),
+      roughnessSource: optional(DataTypes.STRING(20)),
+      roughnessDate: optional(DataTypes.DATEONLY),
+      surveyId: optional(DataTypes.INTEGER),
+    }),
     { ...common, tableName: 'route_segments' },
   );
   RoughnessObservation.init(
-    {
-      id: pk,
-      iri: { type: DataTypes.DOUBLE, allowNull: true },
-      gdN0: { type: DataTypes.DOUBLE, allowNull: true, field: 'gd_n0' },
-      isoClass: { type: DataTypes.STRING(1), allowNull: true },
-      source: { type: DataTypes.STRING(20), allowNull: false },
-      observedOn: { type: DataTypes.DATEONLY, allowNull: false },
-      note: { type: DataTypes.STRING(240), allowNull: true },
-      surveyId: { type: DataTypes.INTEGER, allowNull: true },
-      ...ts,
-    },
+    rowColumns({
+      iri: optional(DataTypes.DOUBLE),
+      gdN0: optional(DataTypes.DOUBLE, { field: 'gd_n0' }),
+      isoClass: optional(DataTypes.STRING(1)),
+      source: required(DataTypes.STRING(20)),
+      observedOn: required(DataTypes.DATEONLY),
+      note: optional(DataTypes.STRING(240)),
+      surveyId: optional(DataTypes.INTEGER),
+    }),
     { ...common, tableName: 'roughness_observations' },
   );
   RoadSurvey.init(
-    {
-      id: pk,
-      filePath: { type: DataTypes.STRING(300), allowNull: false },
-      originalName: { type: DataTypes.STRING(255), allowNull: false },
-      dxM: { type: DataTypes.DOUBLE, allowNull: false },
-      startM: { type: DataTypes.DOUBLE, allowNull: false },
-      endM: { type: DataTypes.DOUBLE, allowNull: false },
-      pointCount: { type: DataTypes.INTEGER, allowNull: false },
-      surveyedOn: { type: DataTypes.DATEONLY, allowNull: false },
-      note: { type: DataTypes.STRING(240), allowNull: true },
-      uploadedAt: { type: DataTypes.DATE, allowNull: false },
-      ...ts,
-    },
+    rowColumns({
+      filePath: required(DataTypes.STRING(300)),
+      originalName: required(DataTypes.STRING(255)),
+      dxM: required(DataTypes.DOUBLE),
+      startM: required(DataTypes.DOUBLE),
+      endM: required(DataTypes.DOUBLE),
+      pointCount: required(DataTypes.INTEGER),
+      surveyedOn: required(DataTypes.DATEONLY),
+      note: optional(DataTypes.STRING(240)),
+      uploadedAt: required(DataTypes.DATE),
+    }),
     { ...common, tableName: 'road_surveys' },
   );
 }

@@ -1,12 +1,8 @@
 /** Trips driven and the imports they came from. */
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import { pk, ts } from './columns';
+import { DataTypes, type CreationOptional, type ForeignKey, type Sequelize } from 'sequelize';
+import { Row, optional, required, rowColumns } from './columns';
 
-type Attrs<M extends Model> = InferAttributes<M>;
-type CAttrs<M extends Model> = InferCreationAttributes<M>;
-
-export class Trip extends Model<Attrs<Trip>, CAttrs<Trip>> {
-  declare id: CreationOptional<number>;
+export class Trip extends Row<Trip> {
   declare vehicleId: ForeignKey<number>;
   declare routeId: ForeignKey<number>;
   declare driverId: ForeignKey<number> | null;
@@ -17,48 +13,39 @@ export class Trip extends Model<Attrs<Trip>, CAttrs<Trip>> {
   declare payloadKg: number | null;
   declare processedAt: CreationOptional<Date | null>;
   declare importId: CreationOptional<ForeignKey<number> | null>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 /** One all-or-nothing trip import (file name, how many rows, who, when). */
-export class TripImport extends Model<Attrs<TripImport>, CAttrs<TripImport>> {
-  declare id: CreationOptional<number>;
+export class TripImport extends Row<TripImport> {
   declare originalName: string;
   declare rowCount: number;
   /** SHA-256 of the imported file (hex); null for imports made before it was kept. */
   declare fileSha256: string | null;
   declare importedById: ForeignKey<number> | null;
   declare importedAt: Date;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 export function initTripsModels(sequelize: Sequelize) {
   const common = { sequelize, underscored: true };
   Trip.init(
-    {
-      id: pk,
-      startedAt: { type: DataTypes.DATE, allowNull: false },
-      endedAt: { type: DataTypes.DATE, allowNull: false },
-      distanceKm: { type: DataTypes.DOUBLE, allowNull: false },
-      meanSpeedKmh: { type: DataTypes.DOUBLE, allowNull: false },
-      payloadKg: { type: DataTypes.DOUBLE, allowNull: true },
-      processedAt: { type: DataTypes.DATE, allowNull: true },
-      importId: { type: DataTypes.INTEGER, allowNull: true },
-      ...ts,
-    },
+    rowColumns({
+      startedAt: required(DataTypes.DATE),
+      endedAt: required(DataTypes.DATE),
+      distanceKm: required(DataTypes.DOUBLE),
+      meanSpeedKmh: required(DataTypes.DOUBLE),
+      payloadKg: optional(DataTypes.DOUBLE),
+      processedAt: optional(DataTypes.DATE),
+      importId: optional(DataTypes.INTEGER),
+    }),
     { ...common, tableName: 'trips' },
   );
   TripImport.init(
-    {
-      id: pk,
-      originalName: { type: DataTypes.STRING(255), allowNull: false },
-      rowCount: { type: DataTypes.INTEGER, allowNull: false },
-      fileSha256: { type: DataTypes.STRING(64), allowNull: true },
-      importedAt: { type: DataTypes.DATE, allowNull: false },
-      ...ts,
-    },
+    rowColumns({
+      originalName: required(DataTypes.STRING(255)),
+      rowCount: required(DataTypes.INTEGER),
+      fileSha256: optional(DataTypes.STRING(64)),
+      importedAt: required(DataTypes.DATE),
+    }),
     { ...common, tableName: 'trip_imports' },
   );
 }

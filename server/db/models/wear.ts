@@ -1,9 +1,6 @@
 /** The nightly duty of each trip and corner. */
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import { dbl, pk, ts } from './columns';
-
-type Attrs<M extends Model> = InferAttributes<M>;
-type CAttrs<M extends Model> = InferCreationAttributes<M>;
+import { DataTypes, type CreationOptional, type ForeignKey, type Sequelize } from 'sequelize';
+import { Row, optional, required, rowColumns } from './columns';
 
 /**
  * Duty of one corner over one trip, SI units. `rmsWeightedAccel` is the ISO 2631-1 Wk-weighted
@@ -11,8 +8,7 @@ type CAttrs<M extends Model> = InferCreationAttributes<M>;
  * the front axle (`axleIndex` 0) is the one nearest the driver — see
  * `wearRepository.frontAxleByTrip` for driver exposure.
  */
-export class TripDuty extends Model<Attrs<TripDuty>, CAttrs<TripDuty>> {
-  declare id: CreationOptional<number>;
+export class TripDuty extends Row<TripDuty> {
   declare tripId: ForeignKey<number>;
   declare vehicleId: ForeignKey<number>;
   declare damperId: ForeignKey<number> | null;
@@ -39,37 +35,33 @@ export class TripDuty extends Model<Attrs<TripDuty>, CAttrs<TripDuty>> {
   declare slidingM: CreationOptional<number>;
   declare severity: CreationOptional<number>;
   declare jobRunId: number | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 export function initWearModels(sequelize: Sequelize) {
   const common = { sequelize, underscored: true };
   TripDuty.init(
-    {
-      id: pk,
-      position: { type: DataTypes.STRING(4), allowNull: false },
-      axleIndex: { type: DataTypes.INTEGER, allowNull: false },
-      tripDate: { type: DataTypes.DATEONLY, allowNull: false },
-      distanceKm: dbl(),
-      durationS: dbl(),
-      sprungMassKg: dbl(),
-      energyJ: dbl(),
-      meanPowerW: dbl(),
-      rmsRelativeVelocity: dbl(),
-      rmsSuspensionTravel: dbl(),
-      rmsTireLoadRatio: dbl(),
-      rmsBodyAccel: dbl(),
-      rmsWeightedAccel: dbl(),
-      springDamage: dbl(),
-      segments: { type: DataTypes.INTEGER, allowNull: false },
-      profiledSegments: { type: DataTypes.INTEGER, allowNull: false },
-      unratedSegments: { type: DataTypes.INTEGER, allowNull: false },
-      slidingM: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 0 },
-      severity: { type: DataTypes.DOUBLE, allowNull: false, defaultValue: 1 },
-      jobRunId: { type: DataTypes.INTEGER, allowNull: true },
-      ...ts,
-    },
+    rowColumns({
+      position: required(DataTypes.STRING(4)),
+      axleIndex: required(DataTypes.INTEGER),
+      tripDate: required(DataTypes.DATEONLY),
+      distanceKm: required(DataTypes.DOUBLE),
+      durationS: required(DataTypes.DOUBLE),
+      sprungMassKg: required(DataTypes.DOUBLE),
+      energyJ: required(DataTypes.DOUBLE),
+      meanPowerW: required(DataTypes.DOUBLE),
+      rmsRelativeVelocity: required(DataTypes.DOUBLE),
+      rmsSuspensionTravel: required(DataTypes.DOUBLE),
+      rmsTireLoadRatio: required(DataTypes.DOUBLE),
+      rmsBodyAccel: required(DataTypes.DOUBLE),
+      rmsWeightedAccel: required(DataTypes.DOUBLE),
+      springDamage: required(DataTypes.DOUBLE),
+      segments: required(DataTypes.INTEGER),
+      profiledSegments: required(DataTypes.INTEGER),
+      unratedSegments: required(DataTypes.INTEGER),
+      slidingM: required(DataTypes.DOUBLE, { defaultValue: 0 }),
+      severity: required(DataTypes.DOUBLE, { defaultValue: 1 }),
+      jobRunId: optional(DataTypes.INTEGER),
+    }),
     { ...common, tableName: 'trip_duties' },
   );
 }

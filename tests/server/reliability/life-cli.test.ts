@@ -4,40 +4,23 @@
  * class step) and a synthetic fleet whose true life law differs from it (computed).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
 import { gdForClass, seededRandom } from '../../../server/physics/iso8608';
 import { roadSeverity } from '../../../server/wear/life-law';
+import { runCli, scratchFolder } from '../../support/cli';
 
-const ROOT = resolve(fileURLToPath(new URL('../../..', import.meta.url)));
-const CLI = join(ROOT, 'server/cli/index.ts');
 const VAN = { sprungMassKg: 450, unsprungMassKg: 50, springRateNPerM: 30000, dampingNsPerM: 2200, tireRateNPerM: 250000 };
+const cli = (...args: string[]) => runCli<Record<string, number | string>>(...args);
+let scratch: ReturnType<typeof scratchFolder>;
 let dir = '';
-
-function cli(...args: string[]) {
-  const r = spawnSync(process.execPath, ['--import', 'tsx', CLI, ...args], { cwd: ROOT, encoding: 'utf8', timeout: 60_000 });
-  let json: Record<string, number | string> | null = null;
-  try {
-    json = JSON.parse(r.stdout);
-  } catch {
-    json = null;
-  }
-  return { code: r.status ?? -1, stderr: r.stderr, json };
-}
-const file = (name: string, text: string) => {
-  const p = join(dir, name);
-  writeFileSync(p, text);
-  return p;
-};
+const file = (name: string, text: string) => scratch.put(name, text);
 
 beforeAll(() => {
-  dir = mkdtempSync(join(tmpdir(), 'reboundry-life-cli-'));
+  scratch = scratchFolder('reboundry-life-cli-');
+  dir = scratch.dir;
   file('van.json', JSON.stringify(VAN));
 });
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
+afterAll(() => scratch.remove());
 
 describe('cli life', () => {
   it('gives the rated km as the median on class B at 80 km/h and 2.25× less on class D under the prior (stated convention)', () => {

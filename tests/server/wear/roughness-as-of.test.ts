@@ -68,8 +68,8 @@ describe('the nightly duty on the roughness of the trip\'s day (demo fleet)', ()
   const dutyOf = (tripId: number) => q<{ position: string; energy_j: number; spring_damage: number; profiled_segments: number }>(`SELECT position, energy_j, spring_damage, profiled_segments FROM trip_duties WHERE trip_id = ? ORDER BY position`, [tripId]);
 
   beforeAll(async () => {
-    S = await startTestServer();
-    await nightly();
+    // the demo fleet after one nightly run
+    S = await startTestServer({ afterNightly: true });
   }, 240_000);
   afterAll(() => S?.stop());
 

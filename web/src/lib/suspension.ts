@@ -3,19 +3,9 @@
  * an engineer reads a spec by. All inputs in SI units.
  */
 
-/** One corner's quarter-car parameters. */
-export interface CornerParams {
-  /** Body share carried by this corner [kg]. */
-  sprungMassKg: number;
-  /** Wheel, hub and axle share [kg]. */
-  unsprungMassKg: number;
-  /** Suspension spring rate at the wheel [N/m]. */
-  springRateNPerM: number;
-  /** Damper coefficient at the wheel [N·s/m]. */
-  dampingNsPerM: number;
-  /** Tyre vertical stiffness [N/m]. */
-  tireRateNPerM: number;
-}
+import type { CornerParams } from '@contracts/specs';
+
+export type { CornerParams } from '@contracts/specs';
 
 export interface SpecAxle {
   /** 0 for the front axle, counting rearwards. */

@@ -1,5 +1,5 @@
-import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { api, type ListParams, type ListResponse } from '@/lib/api-client';
+import type { ListParams } from '@/lib/api-client';
+import { pagedList } from '@/lib/list-query';
 import { routeKeys } from './route-keys';
 
 export interface RouteListItem {
@@ -21,17 +21,7 @@ export interface RouteListParams extends ListParams {
   q?: string;
 }
 
-export function getRoutes(params: RouteListParams, signal?: AbortSignal) {
-  return api.get<ListResponse<RouteListItem>>('/api/routes', { query: { ...params }, signal });
-}
-
-export const routesQueryOptions = (params: RouteListParams) =>
-  queryOptions({
-    queryKey: routeKeys.list(params),
-    queryFn: ({ signal }) => getRoutes(params, signal),
-    placeholderData: keepPreviousData,
-  });
-
-export function useRoutes(params: RouteListParams) {
-  return useQuery(routesQueryOptions(params));
-}
+const routes = pagedList<RouteListParams, RouteListItem>('/api/routes', routeKeys.list);
+export const getRoutes = routes.get;
+export const routesQueryOptions = routes.options;
+export const useRoutes = routes.useList;

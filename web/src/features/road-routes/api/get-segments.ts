@@ -1,5 +1,5 @@
-import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { api, type ListParams, type ListResponse } from '@/lib/api-client';
+import type { ListParams } from '@/lib/api-client';
+import { pagedList } from '@/lib/list-query';
 import type { RoughnessClass } from '@/lib/roughness';
 import { queryRoots } from '@/lib/query-keys';
 
@@ -31,17 +31,7 @@ export interface SegmentListParams extends ListParams {
   source?: RoughnessSource;
 }
 
-export function getSegments(params: SegmentListParams, signal?: AbortSignal) {
-  return api.get<ListResponse<SegmentListItem>>('/api/segments', { query: { ...params }, signal });
-}
-
-export const segmentsQueryOptions = (params: SegmentListParams) =>
-  queryOptions({
-    queryKey: [...queryRoots.segments, 'list', params] as const,
-    queryFn: ({ signal }) => getSegments(params, signal),
-    placeholderData: keepPreviousData,
-  });
-
-export function useSegments(params: SegmentListParams) {
-  return useQuery(segmentsQueryOptions(params));
-}
+const segments = pagedList<SegmentListParams, SegmentListItem>('/api/segments', (params) => [...queryRoots.segments, 'list', params] as const);
+export const getSegments = segments.get;
+export const segmentsQueryOptions = segments.options;
+export const useSegments = segments.useList;

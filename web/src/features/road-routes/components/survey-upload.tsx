@@ -1,8 +1,8 @@
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
+import { FileRefusal } from '@/components/ui/file-refusal';
 import { CsvFileField, TextField } from '@/components/ui/field';
 import { RoughnessClassBadge } from '@/components/ui/roughness';
-import { isApiError } from '@/lib/api-client';
 import { formatNumber } from '@/lib/format';
 import { useUploadSurvey, type SurveyResult } from '../api/upload-survey';
 
@@ -24,7 +24,6 @@ export function SurveyUpload({ routeId, today }: { routeId: number; today: strin
   const [preview, setPreview] = useState<SurveyResult | null>(null);
   const [saved, setSaved] = useState<number | null>(null);
   const m = useUploadSurvey(routeId);
-  const err = m.error && isApiError(m.error) ? m.error : null;
 
   const run = (previewOnly: boolean) => {
     if (!file) return;
@@ -63,18 +62,7 @@ export function SurveyUpload({ routeId, today }: { routeId: number; today: strin
           Save survey
         </Button>
       </div>
-      {err ? (
-        <div role="alert" className="rounded-md border border-overdue/50 bg-overdue-tint p-3 text-sm">
-          <p className="font-semibold">{err.message}</p>
-          <ul className="mt-1 list-disc pl-5">
-            {Object.entries(err.fields).map(([k, v]) => (
-              <li key={k}>
-                {k}: {v}
-              </li>
-            ))}
-          </ul>
-        </div>
-      ) : null}
+      <FileRefusal error={m.error} />
       {saved !== null ? (
         <p role="status" className="rounded-md border border-ok/40 bg-ok-tint p-3 text-sm">
           Survey saved: {saved} segments now carry the measured IRI where it is the newest value.

@@ -1,21 +1,28 @@
-import { useEffect, useState } from 'react';
+import { useCallback, useEffect, useState } from 'react';
 import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { z } from 'zod';
+import { specBody } from '@contracts/specs';
 import { Button } from '@/components/ui/button';
 import { Caution } from '@/components/ui/caution';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Section } from '@/components/ui/section';
 import { StatusShape } from '@/components/ui/status-badge';
 import { isApiError } from '@/lib/api-client';
-import { sentence, type FieldErrors } from '@/lib/form-errors';
+import { sentence } from '@/lib/form-errors';
 import { formatNumber } from '@/lib/format';
 import type { SuspensionSpec } from '@/lib/suspension';
+import { fromText, useSchemaForm } from '@/lib/use-schema-form';
 import { useSaveSpec, useSpecPresets, useSpecPreview, type AxleForm, type CornerPreview, type SpecPresets } from '../api/spec-editor-api';
+
+type FigureKey = keyof Omit<AxleForm, 'label'>;
+/** An axle as the server's rules read it (the rated life may be left out there). */
+type AxleInput = z.input<typeof specBody.shape.axles>[number];
 
 /**
  * The corner's figures as the form shows them: spring and tyre rates in kN/m, as the spec list
  * shows them (`scale` converts to the N/m the server takes).
  */
-const FIELDS: { key: keyof Omit<AxleForm, 'label'>; label: string; unit: string; scale?: number; typicalKey?: string }[] = [
+const FIELDS: { key: FigureKey; label: string; unit: string; scale?: number; typicalKey?: string }[] = [
   { key: 'sprungMassKg', label: 'Sprung mass per corner', unit: 'kg', typicalKey: 'sprungMassKg' },
   { key: 'unsprungMassKg', label: 'Unsprung mass per corner', unit: 'kg', typicalKey: 'unsprungMassKg' },
   { key: 'springRateNPerM', label: 'Spring rate at the wheel', unit: 'kN/m', scale: 1000, typicalKey: 'springRateNPerM' },
@@ -24,7 +31,35 @@ const FIELDS: { key: keyof Omit<AxleForm, 'label'>; label: string; unit: string;
   { key: 'ratedDamperLifeKm', label: 'Rated damper life', unit: 'km' },
 ];
 
-type Draft = { name: string; vehicleClass: string; description: string; seatFactor?: string; cabFactor?: string; axles: Record<string, string>[] };
+const labels: Record<string, string> = {
+  name: 'Name',
+  vehicleClass: 'Vehicle class',
+  description: 'Description',
+  seatFactor: 'SEAT value',
+  cabFactor: 'Cab suspension factor',
+  label: 'Axle label',
+  ...Object.fromEntries(FIELDS.map((f) => [f.key, f.label])),
+};
+
+/** A figure as typed: blank and anything that is not a number are named on the field. */
+const figure = (label: string) => fromText(z.number({ message: 'must be a number' }), `${label} is required.`);
+
+/** One axle as typed (the form's units), turned into the server's axle (SI units, an unnamed axle called "axle"). */
+const axleFigures = z
+  .object({ label: z.string(), ...(Object.fromEntries(FIELDS.map((f) => [f.key, figure(f.label)])) as Record<FigureKey, ReturnType<typeof figure>>) })
+  .transform((a) => ({ label: a.label || 'axle', ...(Object.fromEntries(FIELDS.map((f) => [f.key, a[f.key] * (f.scale ?? 1)])) as Omit<AxleInput, 'label'>) }));
+
+/** The server's spec rules (server/contracts/specs.ts) over the form's text fields. */
+const specForm = z.object({
+  name: specBody.shape.name,
+  vehicleClass: specBody.shape.vehicleClass,
+  description: specBody.shape.description,
+  seatFactor: fromText(specBody.shape.seatFactor),
+  cabFactor: fromText(specBody.shape.cabFactor),
+  axles: z.array(axleFigures).pipe(specBody.shape.axles),
+});
+
+type Draft = { name: string; vehicleClass: string; description: string; seatFactor: string; cabFactor: string; axles: Record<string, string>[] };
 
 const toDraftAxle = (a: AxleForm): Record<string, string> => ({
   label: a.label,
@@ -42,32 +77,6 @@ function fromSpec(s: SuspensionSpec): Draft {
   };
 }
 
-const parseFigure = (raw: string | undefined) => Number((raw ?? '').trim().replace(',', '.'));
-
-/** What is wrong with one typed figure, as a sentence, or null when it is a number. */
-function figureProblem(label: string, raw: string | undefined): string | null {
-  if ((raw ?? '').trim() === '') return `${label} is required.`;
-  if (!Number.isFinite(parseFigure(raw))) return `${label} must be a number.`;
-  return null;
-}
-
-/** The typed figures' problems, keyed like the server's ("axles.0.springRateNPerM"). */
-function draftProblems(d: Draft): FieldErrors {
-  const out: FieldErrors = {};
-  d.axles.forEach((a, i) => {
-    for (const f of FIELDS) {
-      const p = figureProblem(f.label, a[f.key]);
-      if (p) out[`axles.${i}.${f.key}`] = p;
-    }
-  });
-  return out;
-}
-
-function toAxles(d: Draft): AxleForm[] | null {
-  if (Object.keys(draftProblems(d)).length) return null;
-  return d.axles.map((a) => ({ label: a.label || 'axle', ...(Object.fromEntries(FIELDS.map((f) => [f.key, parseFigure(a[f.key]) * (f.scale ?? 1)])) as Omit<AxleForm, 'label'>) }));
-}
-
 function useDebounced<T>(value: T, ms: number): T {
   const [v, setV] = useState(value);
   useEffect(() => {
@@ -80,72 +89,67 @@ function useDebounced<T>(value: T, ms: number): T {
 /** Create or edit a spec; modes and the frequency response update as you type. */
 export function SpecEditor({ spec, onSaved }: { spec: SuspensionSpec | null; onSaved: (id: number) => void }) {
   const presets = useSpecPresets();
-  const [d, setD] = useState<Draft>(() => (spec ? fromSpec(spec) : { name: '', vehicleClass: 'light commercial', description: '', axles: [] }));
+  // each figure is checked as it is typed: the modes and Save follow the figures
+  const form = useSchemaForm(specForm, labels, (spec ? fromSpec(spec) : { name: '', vehicleClass: 'light commercial', description: '', seatFactor: '', cabFactor: '', axles: [] }) as never, { mode: 'onChange' });
+  const d = form.watch() as unknown as Draft;
+  const draftAxles = d.axles ?? [];
+  const vehicleClass = d.vehicleClass;
+  const { reset, getValues } = form;
+  /** Puts a preset's axles (and its vehicle class) in the form, checked afresh. */
+  const startFrom = useCallback((vc: string, axles: AxleForm[]) => reset({ ...getValues(), vehicleClass: vc, axles: axles.map(toDraftAxle) } as never, { keepDefaultValues: true }), [reset, getValues]);
   useEffect(() => {
-    if (!spec && d.axles.length === 0 && presets.data) {
-      const p = presets.data.presets.find((x) => x.vehicleClass === d.vehicleClass) ?? presets.data.presets[0];
-      setD((s) => ({ ...s, axles: p.axles.map(toDraftAxle) }));
+    if (!spec && draftAxles.length === 0 && presets.data) {
+      const p = presets.data.presets.find((x) => x.vehicleClass === vehicleClass) ?? presets.data.presets[0];
+      startFrom(vehicleClass, p.axles);
     }
-  }, [spec, presets.data, d.axles.length, d.vehicleClass]);
-  const axles = toAxles(d);
-  const body = useDebounced(axles && axles.length ? { vehicleClass: d.vehicleClass, axles } : null, 250);
+  }, [spec, presets.data, draftAxles.length, vehicleClass, startFrom]);
+  const typed = specForm.shape.axles.safeParse(draftAxles);
+  const axles = typed.success ? typed.data : null;
+  const body = useDebounced(axles && axles.length ? { vehicleClass, axles } : null, 250);
   const preview = useSpecPreview(body);
   const save = useSaveSpec(spec?.id ?? null);
   const previewFields = preview.error && isApiError(preview.error) ? preview.error.fields : {};
-  const saveFields = save.error && isApiError(save.error) ? save.error.fields : {};
-  const typed = draftProblems(d);
-  const labelOf = (k: string) => {
-    const m = /^axles\.\d+\.(\w+)$/.exec(k);
-    return m ? FIELDS.find((f) => f.key === m[1])?.label : ({ name: 'Name', vehicleClass: 'Vehicle class', description: 'Description' } as Record<string, string>)[k];
-  };
-  const fieldError = (k: string) => {
-    if (typed[k]) return typed[k];
-    const server = saveFields[k] ?? previewFields[k];
-    return server ? sentence(labelOf(k), server) : undefined;
-  };
-  const problems = Object.keys(typed).length;
+  /** The field's error: as typed or refused on saving (the form's), else what the preview's model refused. */
+  const fieldError = (k: string) => form.errorOf(k as never) ?? (previewFields[k] ? sentence(labels[k.split('.').at(-1) ?? k], previewFields[k]) : undefined);
+  const problems = typed.success ? 0 : new Set(typed.error.issues.map((i) => i.path.join('.'))).size;
   const saveBlocked = !axles ? `Save is off until every figure is a number: ${problems === 1 ? 'one field is' : `${problems} fields are`} marked in red.` : null;
   const previewBroken = Boolean(preview.error);
-  const typical = presets.data?.typical[d.vehicleClass];
+  const typical = presets.data?.typical[vehicleClass];
 
-  const setAxle = (i: number, k: string, v: string) => setD((s) => ({ ...s, axles: s.axles.map((a, j) => (j === i ? { ...a, [k]: v } : a)) }));
+  const onSubmit = form.handleSubmit((v) =>
+    save.mutate(
+      { name: v.name, vehicleClass: v.vehicleClass, description: v.description || null, seatFactor: v.seatFactor ?? null, cabFactor: v.cabFactor ?? null, axles: v.axles },
+      { onSuccess: (r) => onSaved(r.spec.id), onError: (err) => form.showServerErrors(err) },
+    ),
+  );
 
   return (
-    <form
-      className="flex flex-col gap-6"
-      onSubmit={(e) => {
-        e.preventDefault();
-        if (!axles) return;
-        const factor = (v: string | undefined) => (v && v.trim() ? Number(v.replace(',', '.')) : null);
-        save.mutate({ name: d.name, vehicleClass: d.vehicleClass, description: d.description || null, seatFactor: factor(d.seatFactor), cabFactor: factor(d.cabFactor), axles }, { onSuccess: (r) => onSaved(r.spec.id) });
-      }}
-    >
+    <form className="flex flex-col gap-6" noValidate onSubmit={onSubmit}>
       <div className="grid gap-3 sm:grid-cols-3">
-        <TextField label="Name" value={d.name} onChange={(e) => setD({ ...d, name: e.target.value })} error={fieldError('name')} />
-        <SelectField label="Vehicle class" value={d.vehicleClass} onChange={(e) => setD({ ...d, vehicleClass: e.target.value })} error={fieldError('vehicleClass')} options={(presets.data?.vehicleClasses ?? [d.vehicleClass]).map((c) => ({ value: c, label: c }))} />
-        <TextField label="Description" aside="(optional)" value={d.description} onChange={(e) => setD({ ...d, description: e.target.value })} />
+        <TextField label="Name" {...form.register('name')} error={fieldError('name')} />
+        <SelectField label="Vehicle class" {...form.register('vehicleClass')} error={fieldError('vehicleClass')} options={(presets.data?.vehicleClasses ?? [vehicleClass]).map((c) => ({ value: c, label: c }))} />
+        <TextField label="Description" aside="(optional)" {...form.register('description')} error={fieldError('description')} />
       </div>
       <div className="grid gap-3 sm:grid-cols-3">
         <TextField
           label="Seat SEAT value"
-          aside={`(optional; empty = ${d.vehicleClass === 'heavy goods' ? '0.75, suspension seat' : '0.95, conventional seat'})`}
+          aside={`(optional; empty = ${vehicleClass === 'heavy goods' ? '0.75, suspension seat' : '0.95, conventional seat'})`}
           inputMode="decimal"
-          value={d.seatFactor ?? ''}
-          onChange={(e) => setD({ ...d, seatFactor: e.target.value })}
+          {...form.register('seatFactor')}
           error={fieldError('seatFactor')}
         />
-        <TextField label="Cab suspension factor" aside="(optional, trucks; empty = none)" inputMode="decimal" value={d.cabFactor ?? ''} onChange={(e) => setD({ ...d, cabFactor: e.target.value })} error={fieldError('cabFactor')} />
+        <TextField label="Cab suspension factor" aside="(optional, trucks; empty = none)" inputMode="decimal" {...form.register('cabFactor')} error={fieldError('cabFactor')} />
         <p className="text-sm text-slate sm:self-end">
           Drivers&apos; exposure is carried from the modelled floor to the seat by these factors (SEAT: conventional seats 0.8–1.1, suspension seats 0.6–0.9; Griffin 1990) and by
           √((1 + ρ)/2) for the two front wheel tracks, taken as correlated ρ = 0.5.
         </p>
       </div>
-      {presets.data ? <PresetPicker presets={presets.data} onPick={(p) => setD((s) => ({ ...s, vehicleClass: p.vehicleClass, axles: p.axles.map(toDraftAxle) }))} /> : null}
-      {d.axles.map((a, i) => (
+      {presets.data ? <PresetPicker presets={presets.data} onPick={(p) => startFrom(p.vehicleClass, p.axles)} /> : null}
+      {draftAxles.map((a, i) => (
         <Section key={i} title={`Axle ${i + 1}: ${a.label || 'unnamed'}`} description="Per corner (one wheel station), at the wheel.">
           <div className="grid gap-4 xl:grid-cols-[minmax(0,1fr)_minmax(0,1.1fr)]">
             <div className="grid gap-3 sm:grid-cols-2">
-              <TextField label="Axle label" value={a.label} onChange={(e) => setAxle(i, 'label', e.target.value)} />
+              <TextField label="Axle label" {...form.register(`axles.${i}.label` as never)} error={fieldError(`axles.${i}.label`)} />
               {FIELDS.map((f) => {
                 const r = f.typicalKey ? typical?.[f.typicalKey] : null;
                 return (
@@ -153,10 +157,8 @@ export function SpecEditor({ spec, onSaved }: { spec: SuspensionSpec | null; onS
                     key={f.key}
                     label={`${f.label} [${f.unit}]`}
                     inputMode="decimal"
-                    value={a[f.key] ?? ''}
-                    onChange={(e) => setAxle(i, f.key, e.target.value)}
+                    {...form.register(`axles.${i}.${f.key}` as never)}
                     hint={r ? `Typical ${formatNumber(r[0] / (f.scale ?? 1))}–${formatNumber(r[1] / (f.scale ?? 1))} ${f.unit}` : f.key === 'ratedDamperLifeKm' ? 'Common practice: 80 000–100 000 km for vans' : undefined}
-                    name={`axles.${i}.${f.key}`}
                     error={fieldError(`axles.${i}.${f.key}`)}
                   />
                 );

@@ -1,8 +1,8 @@
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
+import { FileRefusal } from '@/components/ui/file-refusal';
 import { CsvFileField } from '@/components/ui/field';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { isApiError } from '@/lib/api-client';
 import { formatDateTime, formatNumber } from '@/lib/format';
 import { useImportTrips, type ImportReport } from '../api/import-trips';
 
@@ -26,7 +26,6 @@ export function TripImport() {
   const [report, setReport] = useState<ImportReport | null>(null);
   const [done, setDone] = useState<number | null>(null);
   const m = useImportTrips();
-  const err = m.error && isApiError(m.error) ? m.error : null;
   return (
     <div className="flex flex-col gap-3">
       <TripLayoutHelp />
@@ -63,16 +62,7 @@ export function TripImport() {
           Import trips
         </Button>
       </div>
-      {err ? (
-        <div role="alert" className="rounded-md border border-overdue/50 bg-overdue-tint p-3 text-sm">
-          <p className="font-semibold">{err.message}</p>
-          <ul className="mt-1 list-disc pl-5">
-            {Object.entries(err.fields).map(([k, v]) => (
-              <li key={k}>{k}: {v}</li>
-            ))}
-          </ul>
-        </div>
-      ) : null}
+      <FileRefusal error={m.error} />
       {done !== null ? <p role="status" className="rounded-md border border-ok/40 bg-ok-tint p-3 text-sm">Imported {formatNumber(done)} trips. The nightly run adds them to damper wear.</p> : null}
       {report ? (
         <section aria-label="Import report">

@@ -1,5 +1,5 @@
-import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { api, type ListParams, type ListResponse } from '@/lib/api-client';
+import type { ListParams } from '@/lib/api-client';
+import { pagedList } from '@/lib/list-query';
 import type { Role } from '@/lib/roles';
 import { userKeys } from './user-keys';
 import type { UserListItem } from '@contracts/users';
@@ -16,17 +16,7 @@ export interface UserListParams extends ListParams {
   active?: boolean;
 }
 
-export function getUsers(params: UserListParams, signal?: AbortSignal) {
-  return api.get<ListResponse<UserListItem>>('/api/users', { query: { ...params }, signal });
-}
-
-export const usersQueryOptions = (params: UserListParams) =>
-  queryOptions({
-    queryKey: userKeys.list(params),
-    queryFn: ({ signal }) => getUsers(params, signal),
-    placeholderData: keepPreviousData,
-  });
-
-export function useUsers(params: UserListParams) {
-  return useQuery(usersQueryOptions(params));
-}
+const users = pagedList<UserListParams, UserListItem>('/api/users', userKeys.list);
+export const getUsers = users.get;
+export const usersQueryOptions = users.options;
+export const useUsers = users.useList;

@@ -1,5 +1,5 @@
-import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import { api, type ListParams, type ListResponse } from '@/lib/api-client';
+import type { ListParams } from '@/lib/api-client';
+import { pagedList } from '@/lib/list-query';
 import type { VehicleListItem, VehicleStatus } from '@contracts/fleet';
 import { vehicleKeys } from './vehicle-keys';
 
@@ -17,17 +17,7 @@ export interface VehicleListParams extends ListParams {
   status?: VehicleStatus;
 }
 
-export function getVehicles(params: VehicleListParams, signal?: AbortSignal) {
-  return api.get<ListResponse<VehicleListItem>>('/api/vehicles', { query: { ...params }, signal });
-}
-
-export const vehiclesQueryOptions = (params: VehicleListParams) =>
-  queryOptions({
-    queryKey: vehicleKeys.list(params),
-    queryFn: ({ signal }) => getVehicles(params, signal),
-    placeholderData: keepPreviousData,
-  });
-
-export function useVehicles(params: VehicleListParams) {
-  return useQuery(vehiclesQueryOptions(params));
-}
+const vehicles = pagedList<VehicleListParams, VehicleListItem>('/api/vehicles', vehicleKeys.list);
+export const getVehicles = vehicles.get;
+export const vehiclesQueryOptions = vehicles.options;
+export const useVehicles = vehicles.useList;

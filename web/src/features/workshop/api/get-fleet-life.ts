@@ -1,17 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { WeibullFit } from '@contracts/workshop';
 import { api } from '@/lib/api-client';
 import { workshopKeys } from './types';
-
-/** A Weibull fit in km to the spec's removals (wear removals failed, the rest censored). */
-export interface Fit {
-  shape: number;
-  scale: number;
-  b10: number;
-  mean: number;
-  failures: number;
-  suspensions: number;
-  bounds: { level: number; method: string; shape: [number, number]; scale: [number, number]; b10: [number, number] } | null;
-}
 
 /** The spec's life model: ln(life / rated km) = beta0 − roadSensitivity·ln(severity) + Weibull scatter of `shape`. */
 export interface LifeModelView {
@@ -45,7 +35,8 @@ export interface SpecLife {
   /** Life per ISO class at 80 km/h for the first axle's rated km. */
   lifeTable: LifeTableRow[];
   /** What the removals alone say, in km. */
-  fleetKm: { fit: Fit | null; reason: string | null; points: { life: number; unreliability: number }[] };
+  /** The fit is a Weibull fit in km (wear removals failed, the rest censored). */
+  fleetKm: { fit: WeibullFit | null; reason: string | null; points: { life: number; unreliability: number }[] };
   comparison: { modelMeanKm: number | null; fleetMeanKm: number | null; ratio: number | null; disagrees: boolean; warning: string | null };
   dampers: { total: number; failures: number; suspensions: number; withRecords: number };
   assumptions: string[];
