@@ -38,6 +38,19 @@ export default defineConfig({
         },
       },
       {
+        // the API and nightly-job suites again, on a private PostgreSQL server (DATABASE_URL)
+        extends: true,
+        test: {
+          name: 'pg',
+          root: '.',
+          include: ['tests/server/**/*.test.ts', 'tests/jobs/**/*.test.ts'],
+          globalSetup: ['tests/support/postgres-global.ts'],
+          environment: 'node',
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+        },
+      },
+      {
         extends: true,
         test: {
           name: 'e2e',

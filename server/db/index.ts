@@ -1,8 +1,9 @@
-import { Sequelize, Transaction, type QueryInterface } from 'sequelize';
+import { QueryTypes, Sequelize, Transaction, type QueryInterface, type QueryOptionsWithType } from 'sequelize';
 import { Umzug, SequelizeStorage, type RunnableMigration } from 'umzug';
 import path from 'node:path';
 import fs from 'node:fs';
 import { initModels } from './models';
+import { stampText, type Dialect } from './dialect';
 import * as m0001 from './migrations/0001-initial';
 import * as m0002 from './migrations/0002-roads-and-imports';
 import * as m0003 from './migrations/0003-nightly-duty';
@@ -21,9 +22,15 @@ import * as m0018 from './migrations/0018-must-change-password';
 
 export interface Db {
   sequelize: Sequelize;
-  file: string;
+  /** Which database this is: the SQLite file (the default) or PostgreSQL (DATABASE_URL). */
+  dialect: Dialect;
+  /** The SQLite file; null on PostgreSQL. */
+  file: string | null;
   close(): Promise<void>;
 }
+
+/** A PostgreSQL connection URL (postgres:// or postgresql://) rather than a SQLite file path. */
+export const isPostgresUrl = (location: string) => /^postgres(ql)?:\/\//i.test(location);
 
 /** Every migration, in order. Add new ones at the end; never edit one that has shipped. */
 export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
@@ -45,10 +52,74 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
 ];
 
 /**
- * Opens the SQLite database file (created if missing), switches it to WAL mode and registers
- * the models. Call {@link migrate} before use.
+ * Opens the database at `location` — a PostgreSQL URL, or else a SQLite file path — and
+ * registers the models. Call {@link migrate} before use.
  */
-export async function openDb(file: string, opts: { log?: (sql: string) => void } = {}): Promise<Db> {
+export async function openDb(location: string, opts: { log?: (sql: string) => void } = {}): Promise<Db> {
+  return isPostgresUrl(location) ? openPostgres(location, opts) : openSqlite(location, opts);
+}
+
+/**
+ * PostgreSQL through a pool. Transactions are serialised by one transaction-scoped advisory
+ * lock taken at BEGIN, as SQLite's IMMEDIATE transactions are by its write lock: the checks
+ * that guard a write (last active manager, trip overlaps, a repeated import) run inside the
+ * writing transaction and count on no other transaction writing meanwhile.
+ */
+async function openPostgres(url: string, opts: { log?: (sql: string) => void }): Promise<Db> {
+  const sequelize = new Sequelize(url, {
+    dialect: 'postgres',
+    logging: opts.log ?? false,
+    define: { underscored: true },
+    pool: { max: 10, min: 0, idle: 10_000, acquire: 60_000 },
+  });
+  // COUNT(*) and SUM of integers come back as BIGINT, which pg hands over as text; the code
+  // counts with them as numbers (as SQLite gives them), and no count here passes 2^53.
+  (sequelize.connectionManager as unknown as { oidParserMap: Map<number, (v: string) => unknown> }).oidParserMap.set(PG_INT8, Number);
+  const qi = sequelize.getQueryInterface();
+  const startTransaction = qi.startTransaction.bind(qi);
+  qi.startTransaction = async (t, o) => {
+    await startTransaction(t, o);
+    // nested transactions (savepoints) already hold it through their parent
+    if (!(t as unknown as { parent?: unknown }).parent) await sequelize.query(`SELECT pg_advisory_xact_lock(${TRANSACTION_LOCK})`, { transaction: t });
+  };
+  stampsAsText(sequelize);
+  await sequelize.authenticate();
+  initModels(sequelize);
+  return { sequelize, dialect: 'postgres', file: null, close: () => sequelize.close() };
+}
+
+/**
+ * Rows of raw queries (no model) with their stamps as the text SQLite holds
+ * (`2026-11-30 12:00:00.000 +00:00`) instead of the Date objects pg makes of them: the raw SQL of
+ * the repositories reads stamps as text (slices days off them, compares them with stamp texts),
+ * as the SQLite file stores them. Queries for a model keep pg's Dates.
+ */
+function stampsAsText(sequelize: Sequelize) {
+  const query = sequelize.query.bind(sequelize) as (sql: unknown, options?: QueryOptionsWithType<QueryTypes> & { model?: unknown; instance?: unknown }) => Promise<unknown>;
+  const fix = (rows: unknown) => {
+    if (!Array.isArray(rows)) return;
+    for (const row of rows) {
+      if (!row || typeof row !== 'object') continue;
+      const r = row as Record<string, unknown>;
+      for (const k in r) if (r[k] instanceof Date) r[k] = stampText(r[k]);
+    }
+  };
+  (sequelize as { query: unknown }).query = async (sql: unknown, options?: QueryOptionsWithType<QueryTypes> & { model?: unknown; instance?: unknown }) => {
+    const result = await query(sql, options);
+    if (options?.model || options?.instance) return result;
+    if (options?.type === QueryTypes.SELECT) fix(result);
+    else if (!options?.type || options.type === QueryTypes.RAW) fix(Array.isArray(result) ? result[0] : undefined);
+    return result;
+  };
+}
+
+/** pg's type id of BIGINT (int8). */
+const PG_INT8 = 20;
+/** The advisory lock key every PostgreSQL transaction of the app takes ("RBDY"). */
+const TRANSACTION_LOCK = 0x52424459;
+
+/** The SQLite file (created if missing), switched to WAL mode. */
+async function openSqlite(file: string, opts: { log?: (sql: string) => void }): Promise<Db> {
   fs.mkdirSync(path.dirname(file), { recursive: true });
   const sequelize = new Sequelize({
     dialect: 'sqlite',
@@ -78,7 +149,7 @@ export async function openDb(file: string, opts: { log?: (sql: string) => void }
   };
   await sequelize.query('PRAGMA journal_mode = WAL');
   initModels(sequelize);
-  return { sequelize, file, close: () => sequelize.close() };
+  return { sequelize, dialect: 'sqlite', file, close: () => sequelize.close() };
 }
 
 export function migrator(db: Db) {
@@ -97,4 +168,9 @@ export async function migrate(db: Db) {
 
 export function dbFile(dataDir: string) {
   return path.join(dataDir, 'reboundry.sqlite');
+}
+
+/** Where the configured database is: DATABASE_URL when set, else the SQLite file under DATA_DIR. */
+export function dbLocation(config: { databaseUrl?: string; dataDir: string }) {
+  return config.databaseUrl ?? dbFile(config.dataDir);
 }

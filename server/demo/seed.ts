@@ -25,16 +25,23 @@ export const DEMO_PASSWORD = 'reboundry-demo';
  * Empties every table the migrations made (all but the migration log), for `seed --reset`, and
  * removes the files the app keeps under its data folder (surveys, photos, attachments).
  */
-export async function clearAll(db: Db, dataDir: string = path.dirname(db.file)) {
-  const [rows] = await db.sequelize.query(
-    `SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND name <> 'schema_migrations'`,
-  );
-  await db.sequelize.transaction(async (transaction) => {
-    // checked at commit, when every table is empty, so the order of the deletes does not matter
-    await db.sequelize.query('PRAGMA defer_foreign_keys = ON', { transaction });
-    for (const { name } of rows as { name: string }[]) await db.sequelize.query(`DELETE FROM "${name}"`, { transaction });
-    await db.sequelize.query(`DELETE FROM sqlite_sequence`, { transaction }).catch(() => undefined);
-  });
+export async function clearAll(db: Db, dataDir: string = path.dirname(db.file ?? '.')) {
+  if (db.dialect === 'postgres') {
+    const [rows] = await db.sequelize.query(`SELECT tablename AS name FROM pg_tables WHERE schemaname = current_schema() AND tablename <> 'schema_migrations'`);
+    // one statement: foreign keys between the tables emptied together do not get in the way
+    const names = (rows as { name: string }[]).map(({ name }) => `"${name}"`);
+    if (names.length) await db.sequelize.query(`TRUNCATE ${names.join(', ')} RESTART IDENTITY`);
+  } else {
+    const [rows] = await db.sequelize.query(
+      `SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND name <> 'schema_migrations'`,
+    );
+    await db.sequelize.transaction(async (transaction) => {
+      // checked at commit, when every table is empty, so the order of the deletes does not matter
+      await db.sequelize.query('PRAGMA defer_foreign_keys = ON', { transaction });
+      for (const { name } of rows as { name: string }[]) await db.sequelize.query(`DELETE FROM "${name}"`, { transaction });
+      await db.sequelize.query(`DELETE FROM sqlite_sequence`, { transaction }).catch(() => undefined);
+    });
+  }
   // only the app's own folders: DATA_DIR may hold other things
   for (const dir of [SURVEY_DIR, 'attachments', 'ride-photos']) fs.rmSync(path.join(dataDir, dir), { recursive: true, force: true });
 }
@@ -47,7 +54,7 @@ export async function isEmpty(): Promise<boolean> {
  * Seeds the demo fleet into an empty, migrated database. `now` fixes "today". Survey profile
  * files go under `dataDir` (default: the database file's folder, i.e. DATA_DIR).
  */
-export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string = path.dirname(db.file)) {
+export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string = path.dirname(db.file ?? '.')) {
   fs.mkdirSync(path.join(dataDir, SURVEY_DIR), { recursive: true });
   const rand = seededRandom(20261201);
   const today = startOfDay(now);

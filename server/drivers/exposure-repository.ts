@@ -80,7 +80,7 @@ export const exposureRepository = {
   },
 
   activeManagers(sq: Sequelize, transaction: Transaction) {
-    return select<{ id: number; name: string; email: string; depot_id: number | null }>(`SELECT id, name, email, depot_id FROM users WHERE role = 'manager' AND active = 1 ORDER BY id`, [], transaction, sq);
+    return select<{ id: number; name: string; email: string; depot_id: number | null }>(`SELECT id, name, email, depot_id FROM users WHERE role = 'manager' AND active ORDER BY id`, [], transaction, sq);
   },
 
   async markNotified(sq: Sequelize, days: { driver_id: number; day: string }[], at: string, transaction: Transaction) {

@@ -14,6 +14,7 @@ import {
   Vehicle,
   type VehicleStatus,
 } from '../db/models';
+import { likeOp } from '../db/dialect';
 
 export interface AxleRow {
   axleIndex: number;
@@ -156,7 +157,10 @@ export const fleetRepository = {
     driverId?: number;
   }) {
     const and: WhereOptions[] = [];
-    if (q.q) and.push({ [Op.or]: [{ fleetNumber: { [Op.like]: `%${q.q}%` } }, { plate: { [Op.like]: `%${q.q}%` } }] });
+    if (q.q) {
+      const like = likeOp(Vehicle.sequelize!);
+      and.push({ [Op.or]: [{ fleetNumber: { [like]: `%${q.q}%` } }, { plate: { [like]: `%${q.q}%` } }] });
+    }
     if (q.depotId) and.push({ depotId: q.depotId });
     if (q.specId) and.push({ specId: q.specId });
     if (q.status) and.push({ status: q.status });
@@ -248,7 +252,7 @@ export const fleetRepository = {
   },
 
   async listRoutes(q: { offset: number; pageSize: number; sort: { field: 'name' | 'lengthM'; dir: 'ASC' | 'DESC' }; q?: string }) {
-    const where = q.q ? { name: { [Op.like]: `%${q.q}%` } } : {};
+    const where = q.q ? { name: { [likeOp(Route.sequelize!)]: `%${q.q}%` } } : {};
     const { rows, count } = await Route.findAndCountAll({
       where,
       attributes: {

@@ -3,6 +3,7 @@
  */
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { sqlDate } from '../wear/repository';
+import { sqlFor } from '../db/dialect';
 import type { CornerForecast, FollowUp } from './schedule';
 import type { DueInspection, OpenInspectionStatus } from '../contracts/inspections';
 
@@ -129,7 +130,7 @@ export function inspectionRepository(sequelize: Sequelize) {
     async mechanics() {
       return q<{ id: number; depot_id: number | null; open: number }>(
         `SELECT u.id, u.depot_id, (SELECT COUNT(*) FROM inspections i WHERE i.assignee_id = u.id AND i.status IN ('scheduled', 'due', 'overdue')) AS open
-         FROM users u WHERE u.role = 'mechanic' AND u.active = 1 ORDER BY u.id`,
+         FROM users u WHERE u.role = 'mechanic' AND u.active ORDER BY u.id`,
       );
     },
 
@@ -176,7 +177,7 @@ export function inspectionRepository(sequelize: Sequelize) {
                 i.due_date, i.status, i."trigger", i.reason, i.basis, i.assignee_id, u.name AS assignee_name,
                 (SELECT MAX(p.life_used_fraction) FROM damper_predictions p WHERE p.vehicle_id = v.id) AS max_life,
                 (SELECT MIN(p.threshold_date) FROM damper_predictions p WHERE p.vehicle_id = v.id) AS first_threshold,
-                (SELECT group_concat(DISTINCT t.route_id) FROM trips t WHERE t.vehicle_id = v.id AND t.started_at >= ?) AS route_ids
+                (SELECT ${sqlFor(sequelize).distinctList('t.route_id')} FROM trips t WHERE t.vehicle_id = v.id AND t.started_at >= ?) AS route_ids
          FROM inspections i JOIN vehicles v ON v.id = i.vehicle_id JOIN depots d ON d.id = v.depot_id LEFT JOIN users u ON u.id = i.assignee_id
          WHERE i.status IN ('scheduled', 'due', 'overdue') ${opts.depotId ? 'AND v.depot_id = ?' : ''} ${opts.scope ? `AND ${opts.scope.sql}` : ''}
          ORDER BY i.due_date, v.fleet_number`,

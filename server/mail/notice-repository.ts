@@ -17,7 +17,7 @@ export const noticeRepository = {
   /** Active managers with their depot and digest preferences. */
   digestRecipients(sq: Sequelize, transaction: Transaction) {
     return sq.query<{ id: number; name: string; email: string; depot_id: number | null; notify_inspection_digest: number; notify_ride_reports: number }>(
-      `SELECT id, name, email, depot_id, notify_inspection_digest, notify_ride_reports FROM users WHERE role = 'manager' AND active = 1 ORDER BY id`,
+      `SELECT id, name, email, depot_id, notify_inspection_digest, notify_ride_reports FROM users WHERE role = 'manager' AND active ORDER BY id`,
       { type: QueryTypes.SELECT, transaction },
     );
   },

@@ -5,6 +5,7 @@
 import { Op, type Transaction } from 'sequelize';
 import { CaughtMail, MailMessage, type MailKind } from '../db/models';
 import { User } from '../db/models';
+import { likeOp } from '../db/dialect';
 
 export interface QueuedMail {
   dedupeKey: string;
@@ -76,7 +77,8 @@ export const mailRepository = {
   },
 
   async listCaught(opts: { offset: number; pageSize: number; q?: string }) {
-    const where = opts.q ? { [Op.or]: [{ subject: { [Op.like]: `%${opts.q}%` } }, { rcptTo: { [Op.like]: `%${opts.q}%` } }] } : {};
+    const like = likeOp(CaughtMail.sequelize!);
+    const where = opts.q ? { [Op.or]: [{ subject: { [like]: `%${opts.q}%` } }, { rcptTo: { [like]: `%${opts.q}%` } }] } : {};
     const { rows, count } = await CaughtMail.findAndCountAll({ where, order: [['id', 'DESC']], offset: opts.offset, limit: opts.pageSize });
     return { items: rows.map((r) => caughtRow(r, false)), total: count };
   },

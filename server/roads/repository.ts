@@ -2,6 +2,7 @@
 import { Op, QueryTypes, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import { Depot, RoadSurvey, RoughnessObservation, Route, RouteSegment, Trip, User, Vehicle, type RoughnessSource } from '../db/models';
 import { currentValue } from './current-roughness';
+import { sqlFor } from '../db/dialect';
 import { classifyGd } from '../physics/iso8608';
 import { iriFromGd } from '../physics/iri';
 import type { LonLat, SegmentGeometry } from './geometry';
@@ -321,10 +322,11 @@ export const roadsRepository = {
    * routes and depots (every write to them goes through Sequelize, which stamps updated_at).
    */
   async mapVersion(): Promise<string> {
+    const text = sqlFor(RouteSegment.sequelize!).asText;
     const [row] = await RouteSegment.sequelize!.query<{ v: string }>(
-      `SELECT (SELECT COUNT(*) || ':' || COALESCE(MAX(updated_at), '') FROM route_segments) || '/' ||
-              (SELECT COUNT(*) || ':' || COALESCE(MAX(updated_at), '') FROM routes) || '/' ||
-              (SELECT COUNT(*) || ':' || COALESCE(MAX(updated_at), '') FROM depots) AS v`,
+      `SELECT (SELECT COUNT(*) || ':' || COALESCE(${text('MAX(updated_at)')}, '') FROM route_segments) || '/' ||
+              (SELECT COUNT(*) || ':' || COALESCE(${text('MAX(updated_at)')}, '') FROM routes) || '/' ||
+              (SELECT COUNT(*) || ':' || COALESCE(${text('MAX(updated_at)')}, '') FROM depots) AS v`,
       { type: QueryTypes.SELECT },
     );
     return row.v;

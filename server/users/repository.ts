@@ -1,5 +1,6 @@
 import { Op, type Transaction, type WhereOptions } from 'sequelize';
 import { User, type Role } from '../db/models';
+import { likeOp, sqlFor } from '../db/dialect';
 import type { SessionUser } from '../http/access';
 
 export interface UserRow extends SessionUser {
@@ -41,7 +42,10 @@ export const userRepository = {
   }) {
     const where: WhereOptions = {};
     const and: WhereOptions[] = [];
-    if (q.q) and.push({ [Op.or]: [{ name: { [Op.like]: `%${q.q}%` } }, { email: { [Op.like]: `%${q.q}%` } }] });
+    if (q.q) {
+      const like = likeOp(User.sequelize!);
+      and.push({ [Op.or]: [{ name: { [like]: `%${q.q}%` } }, { email: { [like]: `%${q.q}%` } }] });
+    }
     if (q.role) and.push({ role: q.role });
     if (q.active !== undefined) and.push({ active: q.active });
     if (and.length) Object.assign(where, { [Op.and]: and });
@@ -80,7 +84,7 @@ export const userRepository = {
    */
   async endSessions(id: number, keepSid: string | null = null) {
     await User.sequelize!.query(
-      `DELETE FROM sessions WHERE json_valid(data) AND json_extract(data, '$.passport.user') = ? AND (? IS NULL OR sid != ?)`,
+      `DELETE FROM sessions WHERE ${sqlFor(User.sequelize!).jsonFieldIs('data', ['passport', 'user'])} AND (? IS NULL OR sid != ?)`,
       { replacements: [id, keepSid, keepSid] },
     );
   },

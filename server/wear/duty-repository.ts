@@ -154,7 +154,7 @@ export function dutyRepository(sequelize: Sequelize, q: WearRepoShared['q']) {
           const part = batch.wear.slice(i, i + JSON_ROWS);
           await runSql(
             sequelize,
-            `WITH d AS (${fromJsonRows(['id', 'first'])})
+            `WITH d AS (${fromJsonRows(sequelize, ['id integer', 'first date'])})
              UPDATE dampers SET wear_dirty_from = CASE WHEN wear_dirty_from IS NULL OR wear_dirty_from > d.first THEN d.first ELSE wear_dirty_from END
              FROM d WHERE dampers.id = d.id`,
             [jsonRows(part.map((w) => [w.damperId, w.firstDay]))],

@@ -1,11 +1,13 @@
 /** The wear history's storage: which dampers to recompute, from where, and the daily wear rows written for them. */
 import type { Sequelize } from 'sequelize';
 import { JSON_ROWS, fromJsonRows, inList, jsonRows, runSql } from '../db/raw';
+import { sqlFor } from '../db/dialect';
 import { sqlStamp as sqlDate } from '../lib/days';
 import type { DamperContext, WearRepoShared, WearStart } from './repository';
 
 export function historyRepository(sequelize: Sequelize, shared: WearRepoShared) {
   const { q } = shared;
+  const words = sqlFor(sequelize);
   return {
     /** Marks every damper without an untracked-distance estimate for a recompute from its fitting day. */
     async markOpeningsDue() {
@@ -34,7 +36,7 @@ export function historyRepository(sequelize: Sequelize, shared: WearRepoShared) 
      */
     async untrackedKm(ids: number[], before: Date) {
       return q<{ id: number; untracked_km: number }>(
-        `SELECT d.id, MAX(0, COALESCE(d.removed_odometer_km, v.odometer_km) - d.installed_odometer_km -
+        `SELECT d.id, ${words.greatest}(0, COALESCE(d.removed_odometer_km, v.odometer_km) - d.installed_odometer_km -
                 (SELECT COALESCE(SUM(t.distance_km), 0) FROM trips t
                  WHERE t.vehicle_id = d.vehicle_id AND t.started_at >= d.installed_at AND t.started_at < ? AND (d.removed_at IS NULL OR t.started_at < d.removed_at))) AS untracked_km
          FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id
@@ -86,28 +88,28 @@ export function historyRepository(sequelize: Sequelize, shared: WearRepoShared) 
       const stamp = sqlDate(now);
       const ids = inList(dampers.map((d) => d.damperId));
       const start = jsonRows(dampers.map((d) => [d.damperId, d.vehicleId, d.cumKm, d.cumEnergyJ, d.cumWearKm, d.springDamage, d.b]));
-      const startCols = ['id', 'vehicle_id', 'k0', 'e0', 'w0', 'f0', 'b'];
+      const startCols = ['id integer', 'vehicle_id integer', ...['k0', 'e0', 'w0', 'f0', 'b'].map((c) => `${c} double precision`)];
       let wearDays = 0;
       await sequelize.transaction(async (t) => {
         for (let i = 0; i < untracked.length; i += JSON_ROWS) {
           const part = untracked.slice(i, i + JSON_ROWS);
           await runSql(
             sequelize,
-            `WITH o AS (${fromJsonRows(['id', 'km'])}) UPDATE dampers SET opening_km = o.km FROM o WHERE dampers.id = o.id`,
+            `WITH o AS (${fromJsonRows(sequelize, ['id integer', 'km double precision'])}) UPDATE dampers SET opening_km = o.km FROM o WHERE dampers.id = o.id`,
             [jsonRows(part.map((x) => [x.damperId, x.km]))],
             t,
           );
         }
         await runSql(
           sequelize,
-          `DELETE FROM damper_wear_days WHERE rowid IN (SELECT w.rowid FROM damper_wear_days w JOIN dampers d ON d.id = w.damper_id WHERE d.id IN (${ids}) AND w.day >= d.wear_dirty_from)`,
+          `DELETE FROM damper_wear_days WHERE ${words.rowId} IN (SELECT w.${words.rowId} FROM damper_wear_days w JOIN dampers d ON d.id = w.damper_id WHERE d.id IN (${ids}) AND w.day >= d.wear_dirty_from)`,
           [],
           t,
         );
         wearDays = await runSql(
           sequelize,
           `INSERT INTO damper_wear_days (damper_id, day, vehicle_id, distance_km, energy_j, spring_damage, wear_km, cum_km, cum_energy_j, cum_wear_km, cum_spring_damage)
-           WITH p AS (${fromJsonRows(startCols)}),
+           WITH p AS (${fromJsonRows(sequelize, startCols)}),
            daily AS (
              SELECT td.damper_id, td.trip_date AS day, SUM(td.distance_km) AS km, SUM(td.energy_j) AS e, SUM(td.spring_damage) AS f,
                     SUM(td.distance_km * pow(td.severity, p.b)) AS w
@@ -126,7 +128,7 @@ export function historyRepository(sequelize: Sequelize, shared: WearRepoShared) 
         // totals: the last wear day (recomputed or kept), else the starting wear
         await runSql(
           sequelize,
-          `WITH p AS (${fromJsonRows(startCols)}),
+          `WITH p AS (${fromJsonRows(sequelize, startCols)}),
            tot AS (
              SELECT p.id, COALESCE(l.cum_energy_j, p.e0) AS e, COALESCE(l.cum_spring_damage, p.f0) AS f, p.b
              FROM p LEFT JOIN damper_wear_days l ON l.damper_id = p.id AND l.day = (SELECT MAX(day) FROM damper_wear_days x WHERE x.damper_id = p.id))

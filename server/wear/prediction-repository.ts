@@ -33,7 +33,7 @@ export function predictionRepository(sequelize: Sequelize, shared: WearRepoShare
         damper_id: number; ww: number; wkm: number; wd: number; d0: string | null; d1: string | null; d2: string | null; d3: string | null; sp_day: string | null;
         cum_km: number; cum_wear_km: number; cum_spring_damage: number;
       }>(
-        `WITH t AS (${fromJsonRows(['id', 'ws', 'l0', 'l1', 'l2', 'l3'], [], '?1')}),
+        `WITH t AS (${fromJsonRows(sequelize, ['id integer', 'ws date', ...['l0', 'l1', 'l2', 'l3'].map((c) => `${c} double precision`)], [], '?1')}),
          l AS (
            SELECT t.*, w.cum_km, w.cum_wear_km, w.cum_spring_damage
            FROM t JOIN damper_wear_days w ON w.damper_id = t.id
@@ -106,7 +106,7 @@ export function predictionRepository(sequelize: Sequelize, shared: WearRepoShare
           const part = rows.slice(i, i + JSON_ROWS);
           await runSql(
             sequelize,
-            `WITH p AS (${fromJsonRows(['id', 'w', 'u', 'c', 'b'])})
+            `WITH p AS (${fromJsonRows(sequelize, ['id integer', ...['w', 'u', 'c'].map((c) => `${c} double precision`), 'b text'])})
              UPDATE dampers SET wear_km = p.w, life_used_fraction = p.u, damping_ns_per_m = p.c, opening_basis = p.b FROM p WHERE dampers.id = p.id`,
             [jsonRows(part.map((p) => [p.damperId, p.wearKm, p.lifeUsedFraction, p.dampingNsPerM, p.opening.basis]))],
             t,

@@ -8,6 +8,7 @@
  */
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { AppError } from '../errors';
+import { sqlFor } from '../db/dialect';
 
 /**
  * The most a goods vehicle plausibly covers in a day [km]: about 24 h at 80 km/h. An upper bound
@@ -19,12 +20,13 @@ const DAY_MS = 86_400_000;
 
 /** The vehicle's recorded odometer and the day of its latest dated reading. */
 async function readings(sequelize: Sequelize, vehicleId: number, transaction?: Transaction) {
+  const { dayOf: day, greatest } = sqlFor(sequelize);
   const [r] = await sequelize.query<{ odometer_km: number; last_day: string | null }>(
-    `SELECT v.odometer_km, MAX(
-        COALESCE((SELECT MAX(substr(w.performed_at, 1, 10)) FROM work_records w WHERE w.vehicle_id = v.id), ''),
-        COALESCE((SELECT MAX(substr(i.results_at, 1, 10)) FROM inspections i WHERE i.vehicle_id = v.id AND i.results_at IS NOT NULL), ''),
-        COALESCE((SELECT MAX(substr(d.installed_at, 1, 10)) FROM dampers d WHERE d.vehicle_id = v.id), ''),
-        COALESCE(substr(v.commissioned_at, 1, 10), '')) AS last_day
+    `SELECT v.odometer_km, ${greatest}(
+        COALESCE((SELECT MAX(${day('w.performed_at')}) FROM work_records w WHERE w.vehicle_id = v.id), ''),
+        COALESCE((SELECT MAX(${day('i.results_at')}) FROM inspections i WHERE i.vehicle_id = v.id AND i.results_at IS NOT NULL), ''),
+        COALESCE((SELECT MAX(${day('d.installed_at')}) FROM dampers d WHERE d.vehicle_id = v.id), ''),
+        COALESCE(${day('v.commissioned_at')}, '')) AS last_day
      FROM vehicles v WHERE v.id = ?`,
     { replacements: [vehicleId], type: QueryTypes.SELECT, transaction },
   );

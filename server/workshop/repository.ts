@@ -3,6 +3,7 @@
  */
 import { QueryTypes, type Transaction } from 'sequelize';
 import { Damper } from '../db/models';
+import { isPostgres, sqlFor } from '../db/dialect';
 
 const db = () => Damper.sequelize!;
 export const sequelize = db;
@@ -10,6 +11,7 @@ export const q = <T extends object>(sql: string, replacements: unknown[] = [], t
   db().query<T>(sql, { replacements: replacements as never, type: QueryTypes.SELECT, transaction });
 export const exec = (sql: string, replacements: unknown[] = [], transaction?: Transaction) => db().query(sql, { replacements: replacements as never, transaction });
 export const insert = async (sql: string, replacements: unknown[], transaction?: Transaction): Promise<number> => {
+  if (isPostgres(db())) return (await q<{ id: number }>(`${sql} RETURNING id`, replacements, transaction))[0].id;
   await db().query(sql, { replacements: replacements as never, transaction });
   const [row] = await q<{ id: number }>('SELECT last_insert_rowid() AS id', [], transaction);
   return row.id;
@@ -82,7 +84,7 @@ export const workshopRepository = {
   /** Distance per vehicle over the last 30 days of trips before `before` [km]. */
   async km30(before: string) {
     const rows = await q<{ vehicle_id: number; km: number }>(
-      `SELECT vehicle_id, SUM(distance_km) AS km FROM trips WHERE started_at >= datetime(?, '-30 days') AND started_at < ? GROUP BY vehicle_id`,
+      `SELECT vehicle_id, SUM(distance_km) AS km FROM trips WHERE started_at >= ${sqlFor(db()).daysBefore('?', 30)} AND started_at < ? GROUP BY vehicle_id`,
       [before, before],
     );
     return new Map(rows.map((r) => [r.vehicle_id, Number(r.km)]));
@@ -262,7 +264,7 @@ export const workshopRepository = {
 
   async depotsWithMechanics() {
     return q<{ id: number; name: string; mechanics: number }>(
-      `SELECT d.id, d.name, (SELECT COUNT(*) FROM users u WHERE u.depot_id = d.id AND u.role = 'mechanic' AND u.active = 1) AS mechanics FROM depots d ORDER BY d.name`,
+      `SELECT d.id, d.name, (SELECT COUNT(*) FROM users u WHERE u.depot_id = d.id AND u.role = 'mechanic' AND u.active) AS mechanics FROM depots d ORDER BY d.name`,
     );
   },
 

@@ -1,7 +1,10 @@
+import crypto from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
+import { inject } from 'vitest';
+import { Sequelize } from 'sequelize';
 import { loadConfig } from '../../server/config';
 import { createApp, type AppDeps } from '../../server/app';
 import { createLogger } from '../../server/logger';
@@ -139,23 +142,95 @@ function nightlyTemplate(): Promise<string> {
   return nightlyDir;
 }
 
+/** The private PostgreSQL server of the `pg` test project and its seeded template (postgres-global.ts). */
+export interface PostgresTarget {
+  baseUrl: string;
+  templateDb: string;
+  templateDataDir: string;
+}
+
+/** Migrates and seeds the demo fleet (as of {@link TEST_NOW}) into an empty PostgreSQL database. */
+export async function seedPostgresTemplate(url: string, dataDir: string) {
+  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, DATABASE_URL: url, SEED_DEMO: 'true', LOG_LEVEL: 'error' });
+  const db = await prepareDatabase(config, createLogger(config.logLevel), TEST_NOW);
+  await db.close();
+}
+
+/** The PostgreSQL server tests run against: set in the `pg` project only. */
+function postgresTarget(): PostgresTarget | undefined {
+  try {
+    return inject('reboundryPostgres');
+  } catch {
+    return undefined; // not inside a vitest worker (benchmarks)
+  }
+}
+
+/** Which database a test server runs on: PostgreSQL in the `pg` project, else SQLite; a test may ask for one. */
+export type TestDatabase = 'sqlite' | 'postgres';
+export const defaultTestDatabase = (): TestDatabase => (postgresTarget() ? 'postgres' : 'sqlite');
+
+let pgDatabases = 0;
+
+/** A new PostgreSQL database for one test server: a copy of the seeded template, or empty. */
+async function createPostgresDatabase(target: PostgresTarget, seeded: boolean): Promise<{ url: string; drop(): Promise<void> }> {
+  const name = `reboundry_test_${process.pid}_${++pgDatabases}_${crypto.randomBytes(3).toString('hex')}`;
+  const admin = new Sequelize(`${target.baseUrl}postgres`, { dialect: 'postgres', logging: false });
+  try {
+    for (let attempt = 0; ; attempt++) {
+      try {
+        await admin.query(`CREATE DATABASE ${name}${seeded ? ` TEMPLATE ${target.templateDb}` : ''}`);
+        break;
+      } catch (e) {
+        // two copies of one template at the same moment: the second waits for the first
+        if (attempt > 50 || !/being accessed by other users/.test(String(e))) throw e;
+        await new Promise((r) => setTimeout(r, 100));
+      }
+    }
+  } finally {
+    await admin.close();
+  }
+  return {
+    url: `${target.baseUrl}${name}`,
+    async drop() {
+      const a = new Sequelize(`${target.baseUrl}postgres`, { dialect: 'postgres', logging: false });
+      await a.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`).finally(() => a.close());
+    },
+  };
+}
+
 /**
  * Boots the real app on port 0 against a fresh SQLite file in a temp folder (with the demo
  * fleet unless `seed: false`), serving the built client from dist/web when present. With
  * `afterNightly`, the demo fleet is as one clean nightly run left it (the tables of running the
  * job first in the test, computed once instead of in every file that needs them).
  */
-export async function startTestServer(opts: { seed?: boolean; afterNightly?: boolean; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string } = {}): Promise<TestServer> {
+export async function startTestServer(
+  opts: { seed?: boolean; afterNightly?: boolean; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string; database?: TestDatabase } = {},
+): Promise<TestServer> {
   if (opts.afterNightly && opts.seed === false) throw new Error('afterNightly starts from the demo fleet');
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-test-'));
-  // The demo fleet is seeded once per version of the server code and copied into each test's folder.
-  const template = opts.afterNightly ? await nightlyTemplate() : opts.seed !== false ? await demoTemplate() : null;
+  // In the `pg` project (or when asked) the database is a copy of the private PostgreSQL server's template.
+  const target = (opts.database ?? defaultTestDatabase()) === 'postgres' ? postgresTarget() : undefined;
+  if (opts.database === 'postgres' && !target) throw new Error('no PostgreSQL server for the tests: run the `pg` project (vitest --project pg)');
+  const pg = target ? await createPostgresDatabase(target, opts.seed !== false) : null;
+  // SQLite: the demo fleet (or the fleet after one nightly run) is built once per version of the code
+  // and copied into each test's folder. PostgreSQL: the database is a copy of the seeded template,
+  // and `afterNightly` runs the job on it below.
+  const template = target ? (opts.seed !== false ? target.templateDataDir : null) : opts.afterNightly ? await nightlyTemplate() : opts.seed !== false ? await demoTemplate() : null;
   if (template) fs.cpSync(template, dataDir, { recursive: true });
-  const nightlyCounts = opts.afterNightly ? (JSON.parse(fs.readFileSync(path.join(dataDir, RUN_FILE), 'utf8')) as { counts: Record<string, number> }).counts : undefined;
-  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, SEED_DEMO: opts.seed === false ? 'false' : 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...opts.env });
+  const baseEnv = { NODE_ENV: 'test', DATA_DIR: dataDir, SEED_DEMO: opts.seed === false ? 'false' : 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...(pg ? { DATABASE_URL: pg.url } : {}) };
+  const config = loadConfig({ ...baseEnv, ...opts.env });
   const log = createLogger(config.logLevel);
   const db = await prepareDatabase(config, log, TEST_NOW);
   const { mailer } = await createMailer(config, log);
+  let nightlyCounts: Record<string, number> | undefined;
+  if (opts.afterNightly && pg) {
+    const r = await runNightly({ db, config: loadConfig({ ...baseEnv, ...NIGHTLY_TEST_ENV }), log, mailer, now: TEST_NOW, trigger: 'test' });
+    if (r.status !== 'succeeded') throw new Error(`the nightly run before the test ${r.status}: ${JSON.stringify(r.errors.slice(0, 5))}`);
+    nightlyCounts = r.counts;
+  } else if (opts.afterNightly) {
+    nightlyCounts = (JSON.parse(fs.readFileSync(path.join(dataDir, RUN_FILE), 'utf8')) as { counts: Record<string, number> }).counts;
+  }
   const built = createApp({ config, db, log, now: () => TEST_NOW, auth: opts.auth, webDir: opts.webDir ?? defaultWebDir, mailer, startNightly });
   const server = await new Promise<import('node:http').Server>((resolve) => {
     const s = built.app.listen(0, '127.0.0.1', () => resolve(s));
@@ -177,6 +252,7 @@ export async function startTestServer(opts: { seed?: boolean; afterNightly?: boo
       built.close();
       await mailer.close();
       await db.close();
+      await pg?.drop();
       fs.rmSync(dataDir, { recursive: true, force: true });
     },
   };

@@ -83,7 +83,7 @@ describe('bulk rows through one JSON parameter', () => {
   it('when a JSON row set drives an UPDATE … FROM, then each row updates its own key', async () => {
     await runSql(
       db.sequelize,
-      `WITH u AS (${fromJsonRows(['id', 's'])}) UPDATE viajson SET s = u.s FROM u WHERE viajson.id = u.id`,
+      `WITH u AS (${fromJsonRows(db.sequelize, ['id integer', 's text'])}) UPDATE viajson SET s = u.s FROM u WHERE viajson.id = u.id`,
       [jsonRows([[2, 'two'], [3, null]])],
     );
     const rows = await selectRows<{ id: number; s: string | null }>(db.sequelize, 'SELECT id, s FROM viajson WHERE id IN (2, 3, 4) ORDER BY id');
