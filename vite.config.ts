@@ -9,6 +9,9 @@ const webSrc = fileURLToPath(new URL('./web/src', import.meta.url));
 /** Request and response rules shared with the server (server/contracts imports nothing but zod). */
 const contracts = fileURLToPath(new URL('./server/contracts', import.meta.url));
 
+/** Tests that start worker processes on a private Redis (Debian's redis-server): `npm run test:queue`. */
+const QUEUE_TESTS = ['tests/jobs/nightly-queue.test.ts'];
+
 export default defineConfig({
   root: 'web',
   plugins: [
@@ -32,6 +35,7 @@ export default defineConfig({
           name: 'unit',
           root: '.',
           include: ['tests/physics/**/*.test.ts', 'tests/server/**/*.test.ts', 'tests/jobs/**/*.test.ts', 'tests/web/**/*.test.ts', 'tests/mutation/**/*.test.ts'],
+          exclude: QUEUE_TESTS,
           environment: 'node',
           testTimeout: 30_000,
           hookTimeout: 60_000,
@@ -44,10 +48,23 @@ export default defineConfig({
           name: 'pg',
           root: '.',
           include: ['tests/server/**/*.test.ts', 'tests/jobs/**/*.test.ts'],
+          exclude: QUEUE_TESTS,
           globalSetup: ['tests/support/postgres-global.ts'],
           environment: 'node',
           testTimeout: 60_000,
           hookTimeout: 120_000,
+        },
+      },
+      {
+        // the nightly job with its duty spread over worker processes through a private Redis
+        extends: true,
+        test: {
+          name: 'queue',
+          root: '.',
+          include: QUEUE_TESTS,
+          environment: 'node',
+          testTimeout: 600_000,
+          hookTimeout: 600_000,
         },
       },
       {
