@@ -10,7 +10,7 @@ const webSrc = fileURLToPath(new URL('./web/src', import.meta.url));
 const contracts = fileURLToPath(new URL('./server/contracts', import.meta.url));
 
 /** Tests that start worker processes on a private Redis (Debian's redis-server): `npm run test:queue`. */
-const QUEUE_TESTS = ['tests/jobs/nightly-queue.test.ts'];
+const QUEUE_TESTS = ['tests/jobs/nightly-queue.test.ts', 'tests/server/wear/duty-queue.test.ts'];
 
 export default defineConfig({
   root: 'web',
