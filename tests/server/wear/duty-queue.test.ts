@@ -222,6 +222,43 @@ describe('duty over the queue, worker in this process', () => {
     }
   });
 
+  it('when two runs are open at once, then each has its own routes in Redis, and closing one leaves the other computing', async () => {
+    const w = await worker();
+    try {
+      const first = (await createQueueDutyRunner(fleet.routes, redis.url)).runner!;
+      const second = (await createQueueDutyRunner(fleet.routes, redis.url)).runner!;
+      expect(await routeKeys()).toHaveLength(2);
+      await first.close();
+      expect(await routeKeys()).toHaveLength(1);
+      const got = await second.compute(fleet.works);
+      const cache = new DutyCache();
+      expect(got).toStrictEqual(fleet.works.map((work) => packDuty(computeVehicleDuty(work, fleet.routes, cache))));
+      await second.close();
+      expect(await routeKeys()).toEqual([]);
+    } finally {
+      await w.close();
+    }
+  });
+
+  it('when a run is closed while one of its jobs waits for a retry, then that job is dropped with the run', async () => {
+    const w = await worker();
+    try {
+      const { runner } = await createQueueDutyRunner(fleet.routes, redis.url);
+      const [key] = await routeKeys();
+      const runKey = key.slice(routesKey('').length);
+      await withQueue(async (q) => {
+        // as BullMQ holds a failed attempt until its back-off has passed
+        const retry = await q.add('duty', { runKey, works: encode(fleet.works) }, { delay: 60_000 });
+        expect(await q.getDelayedCount()).toBe(1);
+        await runner!.close();
+        expect(await q.getJob(retry.id!)).toBeUndefined();
+        expect(await q.getDelayedCount()).toBe(0);
+      });
+    } finally {
+      await w.close();
+    }
+  });
+
   it('when a job names a run whose routes are gone from Redis, then it fails saying so', async () => {
     const w = await worker();
     const events = new QueueEvents(DUTY_QUEUE, { connection: { host: '127.0.0.1', port: Number(new URL(redis.url).port) } });
