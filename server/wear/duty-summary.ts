@@ -2,10 +2,11 @@
  * The duty history past the per-trip window (TRIP_DUTY_RETENTION_DAYS), in two summaries;
  * migration 0019 says what each column holds:
  *
- * - `trip_duty_days`, per damper (or corner without one), day, route and severity band: the
- *   per-trip rows of a day older than the window are folded into it and deleted. The wear
- *   recompute and the vehicle page's duty by route read a union of the rows still in
- *   `trip_duties` and these, so what they compute does not depend on the window.
+ * - `trip_duty_days`, per damper (or corner without one), day and severity band, and
+ *   `damper_route_totals`, per damper and route over all days folded: the per-trip rows of a day
+ *   older than the window are folded into both and deleted. The wear recompute reads the rows
+ *   still in `trip_duties` with the first, the vehicle page's duty by route with the second, so
+ *   what they compute does not depend on the window.
  * - `damper_severity_bins`, per corner, damper and severity band, Σ km and Σ km·ln(severity) over
  *   all duty ever stored: added to in the same transaction as each batch of duty records
  *   ({@link addToSeverityBins}), never by the fold, so the life models' refit and the back-test
@@ -48,13 +49,21 @@ export const retentionStart = (asOf: string, days: number) => plusDays(asOf, -(d
 
 export function dutySummaryRepository(sequelize: Sequelize) {
   const dev = `CASE WHEN td.severity > 0 THEN ln(td.severity) - ROUND(ln(td.severity) * ${SEVERITY_BANDS_PER_LN}) / ${SEVERITY_BANDS_PER_LN}.0 ELSE 0 END`;
-  const foldDays = `INSERT INTO trip_duty_days (damper_id, vehicle_id, position, axle_index, route_id, day, severity_bin, records, distance_km, energy_j, spring_damage, weighted_accel_sum, ${DEVIATION_POWERS.map((j) => `km_dev${j}`).join(', ')})
-    SELECT damper_id, vehicle_id, position, axle_index, route_id, trip_date, band, COUNT(*), SUM(distance_km), SUM(energy_j), SUM(spring_damage), SUM(rms_weighted_accel),
+  const foldDays = `INSERT INTO trip_duty_days (damper_id, vehicle_id, position, axle_index, day, severity_bin, records, distance_km, energy_j, spring_damage, ${DEVIATION_POWERS.map((j) => `km_dev${j}`).join(', ')})
+    SELECT damper_id, vehicle_id, position, axle_index, trip_date, band, COUNT(*), SUM(distance_km), SUM(energy_j), SUM(spring_damage),
            ${DEVIATION_POWERS.map((j) => `SUM(distance_km${' * dv'.repeat(j)})`).join(', ')}
-    FROM (SELECT td.damper_id, td.vehicle_id, td.position, td.axle_index, td.route_id, td.trip_date, td.distance_km, td.energy_j, td.spring_damage, td.rms_weighted_accel,
+    FROM (SELECT td.damper_id, td.vehicle_id, td.position, td.axle_index, td.trip_date, td.distance_km, td.energy_j, td.spring_damage,
                  ${severityBandSql('td.severity')} AS band, ${dev} AS dv
           FROM trip_duties td WHERE td.trip_date = ?) x
-    GROUP BY damper_id, vehicle_id, position, axle_index, route_id, trip_date, band`;
+    GROUP BY damper_id, vehicle_id, position, axle_index, trip_date, band`;
+  const foldRoutes = `INSERT INTO damper_route_totals (damper_id, route_id, axle_index, records, distance_km, km_severity, energy_j, spring_damage, weighted_accel_sum)
+    SELECT td.damper_id, td.route_id, MIN(td.axle_index), COUNT(*), SUM(td.distance_km), SUM(td.distance_km * td.severity), SUM(td.energy_j), SUM(td.spring_damage), SUM(td.rms_weighted_accel)
+    FROM trip_duties td WHERE td.trip_date = ? AND td.damper_id IS NOT NULL
+    GROUP BY td.damper_id, td.route_id
+    ON CONFLICT (damper_id, route_id) DO UPDATE SET records = damper_route_totals.records + excluded.records,
+      distance_km = damper_route_totals.distance_km + excluded.distance_km, km_severity = damper_route_totals.km_severity + excluded.km_severity,
+      energy_j = damper_route_totals.energy_j + excluded.energy_j, spring_damage = damper_route_totals.spring_damage + excluded.spring_damage,
+      weighted_accel_sum = damper_route_totals.weighted_accel_sum + excluded.weighted_accel_sum`;
   return {
     /** The oldest day with per-trip duty (null when there is none). */
     async oldestDutyDay(): Promise<string | null> {
@@ -63,12 +72,12 @@ export function dutySummaryRepository(sequelize: Sequelize) {
     },
 
     /**
-     * Folds one day's per-trip duty into `trip_duty_days` and deletes it, in one transaction: the
-     * per-trip rows folded and the summary rows written.
+     * Folds one day's per-trip duty into `trip_duty_days` and `damper_route_totals` and deletes
+     * it, in one transaction: the per-trip rows folded and the summary rows written.
      */
     async foldDay(day: string): Promise<{ folded: number; summaryRows: number }> {
       return sequelize.transaction(async (t) => {
-        const summaryRows = await runSql(sequelize, foldDays, [day], t);
+        const summaryRows = (await runSql(sequelize, foldDays, [day], t)) + (await runSql(sequelize, foldRoutes, [day], t));
         const folded = await runSql(sequelize, `DELETE FROM trip_duties WHERE trip_date = ?`, [day], t);
         return { folded, summaryRows };
       });

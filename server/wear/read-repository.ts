@@ -2,7 +2,6 @@
  * Reads for the vehicle wear view and for other areas (driver exposure).
  */
 import { QueryTypes, type Sequelize } from 'sequelize';
-import { summaryWearSql } from './duty-summary';
 
 export function wearReadRepository(sequelize: Sequelize) {
   const q = <T extends object>(sql: string, replacements: unknown[] = []) => sequelize.query<T>(sql, { replacements: replacements as never, type: QueryTypes.SELECT });
@@ -45,7 +44,7 @@ export function wearReadRepository(sequelize: Sequelize) {
 
     /**
      * Duty of the fitted dampers by route: trips, km, energy per axle, over the per-trip duty kept
-     * and the daily summary of the duty folded beyond the retention window (duty-summary.ts). A
+     * and the route totals of the duty folded beyond the retention window (duty-summary.ts). A
      * damper's records are one per trip it was fitted for, so the trips of an axle are those of
      * its longest-fitted damper (both corners' dampers being fitted now, their trips nest).
      */
@@ -57,8 +56,8 @@ export function wearReadRepository(sequelize: Sequelize) {
            SELECT td.damper_id, td.route_id, td.axle_index, 1 AS records, td.distance_km AS km, td.distance_km * td.severity AS kms, td.energy_j, td.spring_damage, td.rms_weighted_accel AS aw
            FROM trip_duties td WHERE td.damper_id IN (${ids})
            UNION ALL
-           SELECT s.damper_id, s.route_id, s.axle_index, s.records, s.distance_km, ${summaryWearSql('s', '1')}, s.energy_j, s.spring_damage, s.weighted_accel_sum
-           FROM trip_duty_days s WHERE s.damper_id IN (${ids})),
+           SELECT t.damper_id, t.route_id, t.axle_index, t.records, t.distance_km, t.km_severity, t.energy_j, t.spring_damage, t.weighted_accel_sum
+           FROM damper_route_totals t WHERE t.damper_id IN (${ids})),
          per AS (
            SELECT route_id, axle_index, damper_id, SUM(records) AS records, SUM(km) AS km, SUM(kms) AS kms, SUM(energy_j) AS energy_j, SUM(spring_damage) AS spring_damage, SUM(aw) AS aw
            FROM u GROUP BY route_id, axle_index, damper_id)

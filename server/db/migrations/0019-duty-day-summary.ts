@@ -14,12 +14,13 @@ const num = () => ({ type: DataTypes.DOUBLE, allowNull: false });
  * older rows into a daily summary and deletes them, so `trip_duties` stops growing with the
  * history:
  *
- * - `trip_duty_days`: per damper (or corner without one), day, route and severity band, the
- *   records folded and their sums (distance, energy, spring damage, Σ Wk-weighted RMS) and
- *   `km_dev1…7` = Σ km·δʲ with δ = ln(severity) − band/8, the deviation from the band's centre
+ * - `trip_duty_days`: per damper (or corner without one), day and severity band, the records
+ *   folded and their sums (distance, energy, spring damage) and `km_dev1…7` = Σ km·δʲ with δ = ln(severity) − band/8, the deviation from the band's centre
  *   (|δ| ≤ 1/16). Wear km Σ km·s^b for any road sensitivity b is then
  *   e^(b·band/8)·(km + Σⱼ bʲ/j!·km_devⱼ), to about 1e-14 of the per-trip sum for b ≤ 1.25: the
  *   wear recompute after the life model changes b reads these instead of the trips.
+ * - `damper_route_totals`: per damper and route, the records folded and their sums (distance,
+ *   Σ km·severity, energy, spring damage, Σ Wk-weighted RMS): the vehicle page's duty by route.
  * - `damper_severity_bins`: per corner and damper (0 where none was fitted) and severity band,
  *   Σ km and Σ km·ln(severity) over all duty ever stored, added to as each batch of duty is
  *   stored: what the life models' refit and the back-test sum, so the refit reads no history.
@@ -35,14 +36,12 @@ export async function up({ context: qi }: { context: QueryInterface }) {
     vehicle_id: fk('vehicles'),
     position: { type: DataTypes.STRING(4), allowNull: false },
     axle_index: { type: DataTypes.INTEGER, allowNull: false },
-    route_id: fk('routes'),
     day: { type: DataTypes.DATEONLY, allowNull: false },
     severity_bin: { type: DataTypes.INTEGER, allowNull: true },
     records: { type: DataTypes.INTEGER, allowNull: false },
     distance_km: num(),
     energy_j: num(),
     spring_damage: num(),
-    weighted_accel_sum: num(),
     km_dev1: num(),
     km_dev2: num(),
     km_dev3: num(),
@@ -53,6 +52,19 @@ export async function up({ context: qi }: { context: QueryInterface }) {
   });
   await qi.addIndex('trip_duty_days', ['damper_id', 'day']);
   await qi.addIndex('trip_duty_days', ['vehicle_id']);
+
+  await qi.createTable('damper_route_totals', {
+    damper_id: { ...fk('dampers'), primaryKey: true },
+    route_id: { ...fk('routes'), primaryKey: true },
+    axle_index: { type: DataTypes.INTEGER, allowNull: false },
+    records: { type: DataTypes.INTEGER, allowNull: false },
+    distance_km: num(),
+    km_severity: num(),
+    energy_j: num(),
+    spring_damage: num(),
+    weighted_accel_sum: num(),
+  });
+  await qi.addIndex('damper_route_totals', ['route_id']);
 
   await qi.createTable('damper_severity_bins', {
     vehicle_id: { ...fk('vehicles'), primaryKey: true },
@@ -78,5 +90,6 @@ export async function down({ context: qi }: { context: QueryInterface }) {
   await qi.removeIndex('trip_duties', ['trip_date', 'axle_index']);
   await qi.addIndex('trip_duties', ['driver_id', 'trip_date', 'axle_index']);
   await qi.dropTable('damper_severity_bins');
+  await qi.dropTable('damper_route_totals');
   await qi.dropTable('trip_duty_days');
 }
