@@ -12,10 +12,10 @@
  *   ({@link addToSeverityBins}), never by the fold, so the life models' refit and the back-test
  *   read the same numbers whatever the window, and read no history.
  *
- * The fold runs one day at a time, oldest first, each day in one transaction that adds the
- * day's rows to `trip_duty_days` and deletes them: a run killed in the middle leaves whole days
- * folded and the rest in place, and the next run carries on (a run with nothing older than the
- * window changes nothing). A day's duty folded is no longer per trip: a trip of that day must not
+ * The fold runs one day at a time, oldest first, in transactions of at most a batch's worth of
+ * rows (NIGHTLY_BATCH_TRIPS trips' four corners) that add the rows to the summaries and delete
+ * them: a run killed in the middle leaves each row either folded or in place, never both, and
+ * the next run carries on (a run with nothing older than the window changes nothing). A day's duty folded is no longer per trip: a trip of that day must not
  * be processed again (its duty would count twice).
  */
 import type { Sequelize, Transaction } from 'sequelize';
@@ -49,16 +49,17 @@ export const retentionStart = (asOf: string, days: number) => plusDays(asOf, -(d
 
 export function dutySummaryRepository(sequelize: Sequelize) {
   const dev = `CASE WHEN td.severity > 0 THEN ln(td.severity) - ROUND(ln(td.severity) * ${SEVERITY_BANDS_PER_LN}) / ${SEVERITY_BANDS_PER_LN}.0 ELSE 0 END`;
-  const foldDays = `INSERT INTO trip_duty_days (damper_id, vehicle_id, position, axle_index, day, severity_bin, records, distance_km, energy_j, spring_damage, ${DEVIATION_POWERS.map((j) => `km_dev${j}`).join(', ')})
+  // the rows of one chunk: `rows` is a list of trip_duties ids
+  const foldDays = (rows: string) => `INSERT INTO trip_duty_days (damper_id, vehicle_id, position, axle_index, day, severity_bin, records, distance_km, energy_j, spring_damage, ${DEVIATION_POWERS.map((j) => `km_dev${j}`).join(', ')})
     SELECT damper_id, vehicle_id, position, axle_index, trip_date, band, COUNT(*), SUM(distance_km), SUM(energy_j), SUM(spring_damage),
            ${DEVIATION_POWERS.map((j) => `SUM(distance_km${' * dv'.repeat(j)})`).join(', ')}
     FROM (SELECT td.damper_id, td.vehicle_id, td.position, td.axle_index, td.trip_date, td.distance_km, td.energy_j, td.spring_damage,
                  ${severityBandSql('td.severity')} AS band, ${dev} AS dv
-          FROM trip_duties td WHERE td.trip_date = ?) x
+          FROM trip_duties td WHERE td.id IN (${rows})) x
     GROUP BY damper_id, vehicle_id, position, axle_index, trip_date, band`;
-  const foldRoutes = `INSERT INTO damper_route_totals (damper_id, route_id, axle_index, records, distance_km, km_severity, energy_j, spring_damage, weighted_accel_sum)
+  const foldRoutes = (rows: string) => `INSERT INTO damper_route_totals (damper_id, route_id, axle_index, records, distance_km, km_severity, energy_j, spring_damage, weighted_accel_sum)
     SELECT td.damper_id, td.route_id, MIN(td.axle_index), COUNT(*), SUM(td.distance_km), SUM(td.distance_km * td.severity), SUM(td.energy_j), SUM(td.spring_damage), SUM(td.rms_weighted_accel)
-    FROM trip_duties td WHERE td.trip_date = ? AND td.damper_id IS NOT NULL
+    FROM trip_duties td WHERE td.id IN (${rows}) AND td.damper_id IS NOT NULL
     GROUP BY td.damper_id, td.route_id
     ON CONFLICT (damper_id, route_id) DO UPDATE SET records = damper_route_totals.records + excluded.records,
       distance_km = damper_route_totals.distance_km + excluded.distance_km, km_severity = damper_route_totals.km_severity + excluded.km_severity,
@@ -72,13 +73,18 @@ export function dutySummaryRepository(sequelize: Sequelize) {
     },
 
     /**
-     * Folds one day's per-trip duty into `trip_duty_days` and `damper_route_totals` and deletes
-     * it, in one transaction: the per-trip rows folded and the summary rows written.
+     * Folds up to `maxRows` per-trip rows of a day into `trip_duty_days` and
+     * `damper_route_totals` and deletes them, in one transaction: the per-trip rows folded (fewer
+     * than `maxRows` when the day is done) and the summary rows written. Every reader sums the
+     * per-trip rows and the summaries together, so a day folded in part reads as a whole.
      */
-    async foldDay(day: string): Promise<{ folded: number; summaryRows: number }> {
+    async foldChunk(day: string, maxRows: number): Promise<{ folded: number; summaryRows: number }> {
       return sequelize.transaction(async (t) => {
-        const summaryRows = (await runSql(sequelize, foldDays, [day], t)) + (await runSql(sequelize, foldRoutes, [day], t));
-        const folded = await runSql(sequelize, `DELETE FROM trip_duties WHERE trip_date = ?`, [day], t);
+        const ids = (await selectRows<{ id: number }>(sequelize, `SELECT id FROM trip_duties WHERE trip_date = ? LIMIT ?`, [day, maxRows], t)).map((r) => r.id);
+        if (!ids.length) return { folded: 0, summaryRows: 0 };
+        const rows = inList(ids);
+        const summaryRows = (await runSql(sequelize, foldDays(rows), [], t)) + (await runSql(sequelize, foldRoutes(rows), [], t));
+        const folded = await runSql(sequelize, `DELETE FROM trip_duties WHERE id IN (${rows})`, [], t);
         return { folded, summaryRows };
       });
     },

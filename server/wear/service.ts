@@ -361,20 +361,24 @@ export async function predictAll(ctx: PhaseContext) {
 const NO_WEAR: WearSummary = Object.freeze({ windowWearKm: 0, windowKm: 0, windowSpringDamage: 0, cumKm: 0, cumWearKm: 0, springDamage: 0, levelDays: [null, null, null, null], springThresholdDay: null });
 
 /**
- * Phase 4: per-trip duty older than the retention window is folded into the daily summary and
- * deleted (duty-summary.ts), one day per transaction, oldest first. Idempotent: with nothing
- * older than the window it changes nothing.
+ * Per-trip duty older than the retention window is folded into the summaries and deleted
+ * (duty-summary.ts), oldest day first, in transactions of at most four rows per trip of a batch
+ * (`batchTrips`, default 2000). Idempotent: with nothing older than the window it changes nothing.
  */
-export async function foldOldDuty(ctx: Pick<PhaseContext, 'sequelize' | 'asOf' | 'tripDutyRetentionDays' | 'signal' | 'counts' | 'failAfterFoldDays'>) {
+export async function foldOldDuty(ctx: Pick<PhaseContext, 'sequelize' | 'asOf' | 'tripDutyRetentionDays' | 'signal' | 'counts' | 'failAfterFoldDays'> & { batchTrips?: number }) {
   if (!ctx.tripDutyRetentionDays) return;
   const repo = dutySummaryRepository(ctx.sequelize);
   const keepFrom = retentionStart(ctx.asOf, ctx.tripDutyRetentionDays);
+  const maxRows = 4 * (ctx.batchTrips ?? 2000);
   let days = 0;
   for (let day = await repo.oldestDutyDay(); day !== null && day < keepFrom; day = await repo.oldestDutyDay()) {
-    checkAbort(ctx.signal);
-    const { folded, summaryRows } = await repo.foldDay(day);
-    add(ctx.counts, 'dutyRowsFolded', folded);
-    add(ctx.counts, 'dutySummaryRowsWritten', summaryRows);
+    for (;;) {
+      checkAbort(ctx.signal);
+      const { folded, summaryRows } = await repo.foldChunk(day, maxRows);
+      add(ctx.counts, 'dutyRowsFolded', folded);
+      add(ctx.counts, 'dutySummaryRowsWritten', summaryRows);
+      if (folded < maxRows) break;
+    }
     add(ctx.counts, 'dutyDaysFolded', 1);
     days++;
     if (ctx.failAfterFoldDays !== undefined && days >= ctx.failAfterFoldDays) throw new Error(`injected failure after folding ${days} day(s)`);

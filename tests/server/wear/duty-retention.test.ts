@@ -144,9 +144,10 @@ describe('per-trip duty retention', () => {
         await migrator(s.db).down({ to: '0019-duty-day-summary' });
         await migrator(s.db).up();
         expect(diffTablesNear({ bins: (await dump(s.db)).damper_severity_bins }, { bins }, 1e-12)).toEqual([]);
-        // the same history folded in one go, killed after 5 days and run again: the same per-trip
-        // rows left and the same summary as the short window's nights
-        const ctx = { sequelize: s.db.sequelize, asOf: DAY_B, tripDutyRetentionDays: WINDOW, counts: {} as Record<string, number> };
+        // the same history folded in one go, in transactions of 40 rows (a day in several),
+        // killed after 5 days and run again: the same per-trip rows left and the same summary as
+        // the short window's nights
+        const ctx = { sequelize: s.db.sequelize, asOf: DAY_B, tripDutyRetentionDays: WINDOW, batchTrips: 10, counts: {} as Record<string, number> };
         await expect(foldOldDuty({ ...ctx, failAfterFoldDays: 5 })).rejects.toThrow(/after folding 5 day/);
         await foldOldDuty(ctx);
         const after = await dump(s.db);
