@@ -15,8 +15,9 @@
  * The fold runs one day at a time, oldest first, in transactions of at most a batch's worth of
  * rows (NIGHTLY_BATCH_TRIPS trips' four corners) that add the rows to the summaries and delete
  * them: a run killed in the middle leaves each row either folded or in place, never both, and
- * the next run carries on (a run with nothing older than the window changes nothing). A day's duty folded is no longer per trip: a trip of that day must not
- * be processed again (its duty would count twice).
+ * the next run carries on (a run with nothing older than the window changes nothing). Duty
+ * folded is no longer per trip: a trip of a folded day must not be processed again (its duty
+ * would count twice).
  */
 import type { Sequelize, Transaction } from 'sequelize';
 import { inList, runSql, selectRows } from '../db/raw';
@@ -33,7 +34,7 @@ const DEVIATION_POWERS = [1, 2, 3, 4, 5, 6, 7];
 
 /**
  * Wear km Σ km·s^b of a `trip_duty_days` row (alias `s`) for the road sensitivity given as SQL:
- * e^(b·c)·Σⱼ bʲ/j!·km_devⱼ with c the band centre, by Horner's rule. The series is cut after
+ * e^(b·c)·(km + Σⱼ bʲ/j!·km_devⱼ) with c the band centre, by Horner's rule. The series is cut after
  * j = 7: with |δ| ≤ 1/16 and b ≤ 1.25 the rest is below 4e-14 of the sum. Rows of non-positive
  * severity (band NULL) wear as pow(0, b): nothing, or their distance when b = 0.
  */
