@@ -24,7 +24,7 @@
  */
 import { addMonths, parseISO } from 'date-fns';
 import type { InspectionTrigger } from '../db/models';
-import { daysBetween, plusDays } from '../lib/days';
+import { daysBetween, plusDays, readableDay } from '../lib/days';
 import { formatKm } from '../wear/wear';
 
 export interface ScheduleRules {
@@ -90,7 +90,7 @@ export type InspectionStatusOpen = 'scheduled' | 'due' | 'overdue';
 
 const pct = (x: number) => `${Math.round(x * 100)} %`;
 const km = formatKm;
-const fmtDay = (s: string) => s;
+const fmtDay = readableDay;
 const lowerFirst = (s: string) => s.charAt(0).toLowerCase() + s.slice(1);
 
 /** Status of an open inspection on `today`. */
@@ -218,7 +218,7 @@ export function decide(input: VehicleScheduleInput, rules: ScheduleRules): Sched
     return {
       ...best,
       dueDate,
-      reason: late > 0 ? `${best.reason} Rule date ${best.dueDate} passed ${late} day${late === 1 ? '' : 's'} ago: due now.` : best.reason,
+      reason: late > 0 ? `${best.reason} Rule date ${fmtDay(best.dueDate)} passed ${late} day${late === 1 ? '' : 's'} ago: due now.` : best.reason,
       basis: { ...best.basis, ruleDueDate: best.dueDate, createdOn: today },
     };
   };

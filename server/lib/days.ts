@@ -20,6 +20,11 @@ export const plusDays = (day: string, n: number) => new Date(dayMs(day) + n * DA
 /** Whole days from one day to another (negative when `to` is earlier). */
 export const daysBetween = (from: string, to: string) => Math.round((dayMs(to) - dayMs(from)) / DAY_MS);
 
+const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+
+/** A day string as people read it in text the server writes (an inspection's reason): "12 Oct 2026", the client's date style. */
+export const readableDay = (day: string) => `${Number(day.slice(8, 10))} ${MONTHS[Number(day.slice(5, 7)) - 1]} ${day.slice(0, 4)}`;
+
 const dayFormats = new Map<string, Intl.DateTimeFormat>();
 
 /** The local calendar day of an instant in a time zone (YYYY-MM-DD). */

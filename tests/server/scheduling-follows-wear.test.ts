@@ -174,7 +174,7 @@ describe('the follow-up booked by the nightly run', () => {
     );
     expect(open).toHaveLength(1);
     expect(open[0]).toMatchObject({ due_date: '2027-01-15', trigger: 'follow_up', status: 'scheduled' });
-    expect(open[0].reason).toBe('Follow-up: at the inspection on 2026-11-30 the mechanic asked to check FL again by 2027-01-15.');
+    expect(open[0].reason).toBe('Follow-up: at the inspection on 30 Nov 2026 the mechanic asked to check FL again by 15 Jan 2027.');
     // a further run changes nothing
     await nightly();
     const again = await rows<{ due_date: string }>(`SELECT due_date FROM inspections WHERE vehicle_id = ? AND status IN ('scheduled','due','overdue')`, [A.vehicleId]);

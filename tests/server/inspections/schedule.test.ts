@@ -29,7 +29,7 @@ describe('inspection scheduling rules', () => {
     if (d.action !== 'create') return;
     expect(d.candidate.dueDate).toBe('2026-12-27'); // 2027-01-10 − 14 days
     expect(d.candidate.trigger).toBe('prediction');
-    expect(d.candidate.reason).toContain('The RR damper is predicted to reach 80 % of its expected life on 2027-01-10 (60 % used now; the vehicle drove 100 km/day over the last 30 days)');
+    expect(d.candidate.reason).toContain('The RR damper is predicted to reach 80 % of its expected life on 10 Jan 2027 (60 % used now; the vehicle drove 100 km/day over the last 30 days)');
     // in a mechanic's words: no energy rate, no "rated" life
     expect(d.candidate.reason).not.toMatch(/kJ|rated/);
     expect(d.status).toBe('scheduled');
@@ -63,7 +63,7 @@ describe('inspection scheduling rules', () => {
     if (d.action !== 'create') return;
     expect(d.candidate.dueDate).toBe('2026-11-30');
     expect(d.status).toBe('due');
-    expect(d.candidate.reason).toMatch(/Rule date 2026-10-01 passed 60 days ago: due now\./);
+    expect(d.candidate.reason).toMatch(/Rule date 1 Oct 2026 passed 60 days ago: due now\./);
   });
 
   it('when the date is beyond the horizon, then nothing is created yet', () => {
@@ -83,7 +83,7 @@ describe('inspection scheduling rules', () => {
     const open = { id: 5, dueDate: '2027-02-20', status: 'scheduled', trigger: 'interval_months' };
     const d = decide(base({ open, corners: [corner('RR', '2027-01-10')] }), rules);
     expect(d).toMatchObject({ action: 'move', id: 5, candidate: { dueDate: '2026-12-27', trigger: 'prediction' } });
-    expect(d.candidate?.reason).toMatch(/^Moved earlier from 2027-02-20: the RR damper is predicted to reach 80 %/);
+    expect(d.candidate?.reason).toMatch(/^Moved earlier from 20 Feb 2027: the RR damper is predicted to reach 80 %/);
     const legacy = decide(base({ open: { ...open, trigger: null }, corners: [corner('RR', '2027-01-10')] }), rules);
     expect(legacy.action).toBe('none');
   });
@@ -91,7 +91,7 @@ describe('inspection scheduling rules', () => {
   it('when the same input is decided twice, then the decision is the same (deterministic)', () => {
     const input = base({ corners: [corner('FL', '2027-01-20', '2027-01-05')] });
     expect(decide(input, rules)).toEqual(decide(input, rules));
-    expect(decide(input, rules).candidate?.reason).toContain('The FL spring is predicted to reach 80 % of its expected fatigue life on 2027-01-05');
+    expect(decide(input, rules).candidate?.reason).toContain('The FL spring is predicted to reach 80 % of its expected fatigue life on 5 Jan 2027');
   });
 
   it('when the due date has passed, then the inspection is overdue; within the due-soon window it is due; otherwise scheduled', () => {
@@ -105,7 +105,7 @@ describe('inspection scheduling rules', () => {
     const d = decide(base({ lastDone: null, vehicle: { id: 1, fleetNumber: 'CV-101', odometerKm: 20000, commissionedAt: '2026-03-01' }, kmPerDay: 50 }), rules);
     expect(d.candidate?.trigger).toBe('interval_months');
     expect(d.candidate?.dueDate).toBe('2027-03-01');
-    expect(d.candidate?.reason).toContain('commissioning on 2026-03-01 (no inspection on record)');
+    expect(d.candidate?.reason).toContain('commissioning on 1 Mar 2026 (no inspection on record)');
   });
 });
 
@@ -119,7 +119,7 @@ describe('a damper past its end of life', () => {
     expect(d.candidate.dueDate).toBe('2026-11-10');
     expect(d.status).toBe('overdue');
     expect(d.candidate.trigger).toBe('prediction');
-    expect(d.candidate.reason).toBe('The FL damper passed the end of its expected life on 2026-11-10 (104 % of its expected life used now): overdue since then.');
+    expect(d.candidate.reason).toBe('The FL damper passed the end of its expected life on 10 Nov 2026 (104 % of its expected life used now): overdue since then.');
     expect(d.candidate.reason).not.toContain('due now');
   });
 
@@ -133,7 +133,7 @@ describe('a damper past its end of life', () => {
     const open = { id: 9, dueDate: '2026-12-15', status: 'scheduled', trigger: 'interval_months' };
     const d = decide(base({ open, corners: [corner('FR', '2026-10-01', null, '2026-11-25', 1.01)] }), rules);
     expect(d).toMatchObject({ action: 'move', id: 9, status: 'overdue', candidate: { dueDate: '2026-11-25' } });
-    expect(d.candidate?.reason).toBe('Moved earlier from 2026-12-15: the FR damper passed the end of its expected life on 2026-11-25 (101 % of its expected life used now): overdue since then.');
+    expect(d.candidate?.reason).toBe('Moved earlier from 15 Dec 2026: the FR damper passed the end of its expected life on 25 Nov 2026 (101 % of its expected life used now): overdue since then.');
   });
 
   it('when the end of life is today, then it is due today, not overdue (stated rule)', () => {
@@ -154,14 +154,14 @@ describe('an inspection booked by hand', () => {
     expect(d.candidate.trigger).toBe('manual');
     expect(d.status).toBe('scheduled');
     expect(d.candidate.reason).toBe(
-      'Moved earlier from 2027-03-01: the FL damper is predicted to reach 80 % of its expected life on 2027-01-10 (70 % used now; the vehicle drove 100 km/day over the last 30 days); inspection set 14 days ahead. Reason when booked by hand: Driver reports a knock at the front.',
+      'Moved earlier from 1 Mar 2027: the FL damper is predicted to reach 80 % of its expected life on 10 Jan 2027 (70 % used now; the vehicle drove 100 km/day over the last 30 days); inspection set 14 days ahead. Reason when booked by hand: Driver reports a knock at the front.',
     );
     // moved again on a later night: the manager's reason is kept once, not nested
     const again = decide(base({ open: { ...manual, dueDate: d.candidate.dueDate, reason: d.candidate.reason, basis: d.candidate.basis }, corners: [corner('FL', '2027-01-01', null, '2027-03-20', 0.72)] }), rules);
     expect(again.action).toBe('move');
     expect(again.candidate?.dueDate).toBe('2026-12-18');
     expect(again.candidate?.reason.match(/Reason when booked by hand/g)).toHaveLength(1);
-    expect(again.candidate?.reason).toMatch(/^Moved earlier from 2026-12-27: .* Reason when booked by hand: Driver reports a knock at the front\.$/);
+    expect(again.candidate?.reason).toMatch(/^Moved earlier from 27 Dec 2026: .* Reason when booked by hand: Driver reports a knock at the front\.$/);
   });
 
   it('when the prediction asks for a later date, then it is never moved later (stated rule)', () => {
@@ -193,7 +193,7 @@ describe('the mechanic\'s follow-up', () => {
     expect(d.candidate.trigger).toBe('follow_up');
     expect(d.candidate.dueDate).toBe('2026-12-20');
     expect(d.status).toBe('scheduled');
-    expect(d.candidate.reason).toBe('Follow-up: at the inspection on 2026-11-20 the mechanic asked to check FL again by 2026-12-20.');
+    expect(d.candidate.reason).toBe('Follow-up: at the inspection on 20 Nov 2026 the mechanic asked to check FL again by 20 Dec 2026.');
     // without the follow-up the same corner is booked today
     const without = decide(base({ lastDone, corners: [corner('FL', '2026-10-01', null, '2027-02-01', 0.86)] }), rules);
     expect(without).toMatchObject({ action: 'create', status: 'due', candidate: { dueDate: '2026-11-30', trigger: 'prediction' } });
@@ -203,8 +203,8 @@ describe('the mechanic\'s follow-up', () => {
     // end of life 2026-12-18, before the follow-up on 2026-12-20: booked 2026-12-18 − 14 days = 2026-12-04
     const d = decide(base({ lastDone, followUp, corners: [corner('FL', '2026-10-01', null, '2026-12-18', 0.9)] }), rules);
     expect(d).toMatchObject({ action: 'create', status: 'due', candidate: { dueDate: '2026-12-04', trigger: 'prediction' } });
-    expect(d.candidate?.reason).toContain('predicted to reach the end of its expected life on 2026-12-18');
-    expect(d.candidate?.reason).toContain('before the follow-up the mechanic set for 2026-12-20');
+    expect(d.candidate?.reason).toContain('predicted to reach the end of its expected life on 18 Dec 2026');
+    expect(d.candidate?.reason).toContain('before the follow-up the mechanic set for 20 Dec 2026');
     // an end of life after the follow-up leaves the follow-up to look at it
     const after = decide(base({ lastDone, followUp, corners: [corner('FL', '2026-10-01', null, '2026-12-28', 0.9)] }), rules);
     expect(after.candidate).toMatchObject({ dueDate: '2026-12-20', trigger: 'follow_up' });
@@ -287,7 +287,7 @@ describe('the basis stored with each rule\'s date', () => {
   it('when the months interval sets the date, then the reason and the basis give the months passed to 0.1', () => {
     // 2026-06-15 to 2026-11-30 is 168 days = 5.52 months of 30.44 days
     const d = decide(base({ lastDone: { date: '2026-06-15', odometerKm: 40000 } }), rules);
-    expect(d.candidate?.reason).toBe('Interval rule: 12 months since the last inspection on 2026-06-15; 5.5 months have passed.');
+    expect(d.candidate?.reason).toBe('Interval rule: 12 months since the last inspection on 15 Jun 2026; 5.5 months have passed.');
     expect(d.candidate?.basis).toEqual({ rule: 'interval_months', since: '2026-06-15', intervalMonths: 12, monthsPassed: 5.5, ruleDueDate: '2027-06-15', createdOn: '2026-11-30' });
   });
 
@@ -320,19 +320,19 @@ describe('the wording on the day a date is reached', () => {
     const d = decide(base({ corners: [corner('FL', '2026-10-01', null, '2026-11-30', 1)] }), rules);
     expect(d.candidate?.pastEndOfLife).toBeUndefined();
     expect(d.candidate?.reason).toBe(
-      'The FL damper reached 80 % of its expected life on 2026-10-01 (100 % used now; the vehicle drove 100 km/day over the last 30 days); inspection set 14 days ahead. Rule date 2026-09-17 passed 74 days ago: due now.',
+      'The FL damper reached 80 % of its expected life on 1 Oct 2026 (100 % used now; the vehicle drove 100 km/day over the last 30 days); inspection set 14 days ahead. Rule date 17 Sep 2026 passed 74 days ago: due now.',
     );
   });
 
   it('when a damper reaches the threshold today, then the reason says it reached it (not "is predicted to reach")', () => {
     const d = decide(base({ corners: [corner('FL', '2026-11-30')] }), rules);
-    expect(d.candidate?.reason).toMatch(/^The FL damper reached 80 % of its expected life on 2026-11-30 /);
+    expect(d.candidate?.reason).toMatch(/^The FL damper reached 80 % of its expected life on 30 Nov 2026 /);
   });
 
   it('when a spring reaches the threshold today, then the reason says it reached it', () => {
     const d = decide(base({ corners: [corner('RL', null, '2026-11-30')] }), rules);
     expect(d.candidate?.reason).toBe(
-      'The RL spring reached 80 % of its expected fatigue life on 2026-11-30 (1 % used now; the vehicle drove 100 km/day over the last 30 days); inspection set 14 days ahead. Rule date 2026-11-16 passed 14 days ago: due now.',
+      'The RL spring reached 80 % of its expected fatigue life on 30 Nov 2026 (1 % used now; the vehicle drove 100 km/day over the last 30 days); inspection set 14 days ahead. Rule date 16 Nov 2026 passed 14 days ago: due now.',
     );
   });
 
@@ -340,7 +340,7 @@ describe('the wording on the day a date is reached', () => {
     // threshold 2026-12-13 − 14 days = 2026-11-29
     const d = decide(base({ corners: [corner('FL', '2026-12-13')] }), rules);
     expect(d.candidate?.dueDate).toBe('2026-11-30');
-    expect(d.candidate?.reason).toMatch(/ Rule date 2026-11-29 passed 1 day ago: due now\.$/);
+    expect(d.candidate?.reason).toMatch(/ Rule date 29 Nov 2026 passed 1 day ago: due now\.$/);
   });
 });
 
@@ -353,7 +353,7 @@ describe('several rule dates', () => {
     // damper rule date 2026-11-06 (threshold 2026-11-20), after the months rule's
     const monthsFirst = decide(base({ lastDone, corners: [corner('FL', '2026-11-20')] }), rules);
     expect(monthsFirst.candidate).toMatchObject({ dueDate: '2026-11-30', trigger: 'interval_months', basis: { ruleDueDate: '2026-10-01' } });
-    expect(monthsFirst.candidate?.reason).toMatch(/ Rule date 2026-10-01 passed 60 days ago: due now\.$/);
+    expect(monthsFirst.candidate?.reason).toMatch(/ Rule date 1 Oct 2026 passed 60 days ago: due now\.$/);
   });
 
   it('when a vehicle has no rule date at all, then nothing is booked and there is no candidate', () => {
@@ -413,7 +413,7 @@ describe('moving an open inspection earlier', () => {
     const open = { id: 4, dueDate: '2027-03-01', status: 'scheduled', trigger: 'interval_km', reason: 'Interval rule: 50,000 km since the last inspection at 58,000 km.', basis: null };
     const d = decide(base({ open, lastDone: { date: '2026-01-15', odometerKm: 58000 } }), rules);
     expect(d).toMatchObject({ action: 'move', id: 4, status: 'scheduled', candidate: { dueDate: '2027-01-15', trigger: 'interval_months' } });
-    expect(d.candidate?.reason).toBe('Moved earlier from 2027-03-01: interval rule: 12 months since the last inspection on 2026-01-15; 10.5 months have passed.');
+    expect(d.candidate?.reason).toBe('Moved earlier from 1 Mar 2027: interval rule: 12 months since the last inspection on 15 Jan 2026; 10.5 months have passed.');
     expect(d.candidate?.basis).toEqual({ rule: 'interval_months', since: '2026-01-15', intervalMonths: 12, monthsPassed: 10.5, ruleDueDate: '2027-01-15', createdOn: '2026-11-30', movedFrom: '2027-03-01' });
   });
 
@@ -427,7 +427,7 @@ describe('moving an open inspection earlier', () => {
     const manual = { id: 7, dueDate: '2027-03-01', status: 'scheduled', trigger: 'manual', basis: null };
     const d = decide(base({ open: manual, corners: [corner('FL', '2027-01-10')] }), rules);
     expect(d.candidate?.reason).toBe(
-      'Moved earlier from 2027-03-01: the FL damper is predicted to reach 80 % of its expected life on 2027-01-10 (60 % used now; the vehicle drove 100 km/day over the last 30 days); inspection set 14 days ahead.',
+      'Moved earlier from 1 Mar 2027: the FL damper is predicted to reach 80 % of its expected life on 10 Jan 2027 (60 % used now; the vehicle drove 100 km/day over the last 30 days); inspection set 14 days ahead.',
     );
   });
 
@@ -469,11 +469,11 @@ describe('the follow-up and the corners it looks at', () => {
 
   it('when several corners were given "check again soon", then the reason names them all', () => {
     const d = decide(base({ lastDone, followUp: { ...followUp, checkAgain: ['FL', 'RR'] } }), rules);
-    expect(d.candidate?.reason).toBe('Follow-up: at the inspection on 2026-11-20 the mechanic asked to check FL, RR again by 2026-12-20.');
+    expect(d.candidate?.reason).toBe('Follow-up: at the inspection on 20 Nov 2026 the mechanic asked to check FL, RR again by 20 Dec 2026.');
   });
 
   it('when the mechanic asked to check again without naming a corner, then the reason says "the vehicle"', () => {
     const d = decide(base({ lastDone, followUp: { ...followUp, checkAgain: [] } }), rules);
-    expect(d.candidate?.reason).toBe('Follow-up: at the inspection on 2026-11-20 the mechanic asked to check the vehicle again by 2026-12-20.');
+    expect(d.candidate?.reason).toBe('Follow-up: at the inspection on 20 Nov 2026 the mechanic asked to check the vehicle again by 20 Dec 2026.');
   });
 });

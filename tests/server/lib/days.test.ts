@@ -4,7 +4,7 @@
 // 2026-10-25 (UTC+2 → +1); America/Sao_Paulo started it at local midnight on 2018-11-04, so that
 // day began at 01:00 local (03:00 UTC).
 import { describe, expect, it } from 'vitest';
-import { daysBetween, localDay, plusDays, sqlStamp, startOfLocalDay } from '../../../server/lib/days';
+import { daysBetween, localDay, plusDays, readableDay, sqlStamp, startOfLocalDay } from '../../../server/lib/days';
 
 describe('calendar days', () => {
   it('adds days across month, year and leap-day ends', () => {
@@ -33,5 +33,11 @@ describe('calendar days', () => {
 
   it('writes instants in the text form Sequelize stores in SQLite', () => {
     expect(sqlStamp(new Date('2026-11-30T12:00:00Z'))).toBe('2026-11-30 12:00:00.000 +00:00');
+  });
+
+  it('writes a day as people read it, with no leading zero and the month in letters, first and last months included', () => {
+    expect(readableDay('2026-01-05')).toBe('5 Jan 2026');
+    expect(readableDay('2026-10-12')).toBe('12 Oct 2026');
+    expect(readableDay('2027-12-31')).toBe('31 Dec 2027');
   });
 });
