@@ -104,7 +104,7 @@ const schema = z
     /** Days of per-trip duty kept; older days live on in the per-damper daily summary. */
     tripDutyRetentionDays: c.TRIP_DUTY_RETENTION_DAYS,
     /** Worker threads computing the nightly duty (0 = in the job's own thread). */
-    nightlyWorkers: c.NIGHTLY_WORKERS === 'auto' ? Math.max(1, os.availableParallelism() - 1) : c.NIGHTLY_WORKERS,
+    nightlyWorkers: c.NIGHTLY_WORKERS === 'auto' ? os.availableParallelism() : c.NIGHTLY_WORKERS,
     /** Redis of the queue the nightly duty is spread over (server/wear/duty-queue.ts); absent = computed by the job itself. */
     queueUrl: c.QUEUE_URL,
     /** How long a queue worker's claim on a job lasts unrenewed: a killed worker's job is retried after it. */

@@ -111,6 +111,54 @@ export function splitByTrips(works: VehicleWork[], n: number): VehicleWork[][] {
   return parts;
 }
 
+/** Key of a vehicle's corners: vehicles with the same key share every cached solve and simulation. */
+const cornersKeyOf = (w: VehicleWork) => w.axles.map((a) => `${a.corner.sprungMassKg}/${a.corner.unsprungMassKg}/${a.corner.springRateNPerM}/${a.corner.dampingNsPerM}/${a.corner.tireRateNPerM}`).join('|');
+
+/**
+ * Splits a batch among `n` threads so that each set of corners (each spec) keeps going to the
+ * same thread: the cache entries a vehicle needs depend on its corners, so a thread that owns a
+ * spec computes each of its profile simulations once for the whole run, where splitting by trip
+ * counts alone has every thread simulate nearly every (corner, band, segment) again
+ * (docs/methods.md "The nightly job on one machine"). `owner` and `load` carry the assignment from batch
+ * to batch: a spec seen first goes to the thread with the fewest trips assigned so far. When one
+ * thread would get more than {@link MAX_SPEC_SHARE} × its even share of the batch's trips (a fleet
+ * of one or two specs), the batch is split by trip counts instead. Returns, per thread, the
+ * indexes into `works` it computes, in order.
+ */
+export function splitBySpec(works: VehicleWork[], n: number, owner: Map<string, number>, load: number[]): number[][] {
+  const parts: number[][] = Array.from({ length: n }, () => []);
+  const trips = new Array<number>(n).fill(0);
+  let total = 0;
+  const keys = works.map(cornersKeyOf);
+  for (let i = 0; i < works.length; i++) {
+    let t = owner.get(keys[i]);
+    if (t === undefined) {
+      t = 0;
+      for (let k = 1; k < n; k++) if (load[k] < load[t]) t = k;
+      owner.set(keys[i], t);
+    }
+    const c = works[i].trips.length;
+    load[t] += c;
+    trips[t] += c;
+    total += c;
+    parts[t].push(i);
+  }
+  if (n > 1 && Math.max(...trips) > (MAX_SPEC_SHARE * total) / n) {
+    const byTrips: number[][] = [];
+    let at = 0;
+    for (const p of splitByTrips(works, n)) {
+      byTrips.push(p.map((_, k) => at + k));
+      at += p.length;
+    }
+    while (byTrips.length < n) byTrips.push([]);
+    return byTrips;
+  }
+  return parts;
+}
+
+/** Largest share of a batch's trips, against the even share, one thread is given by {@link splitBySpec}. */
+export const MAX_SPEC_SHARE = 1.5;
+
 /**
  * A runner on `workers` worker threads (0 = in the calling thread). If the threads cannot be
  * started, computes in the calling thread and says why in `fallback`.
@@ -125,14 +173,19 @@ export async function createDutyRunner(routes: Map<number, RouteInput>, workers:
     await Promise.all(pool.map((w) => w.close()));
     return { runner: inProcessDutyRunner(routes), fallback: `duty worker threads could not start, computing in the job's thread: ${(err as Error).message}` };
   }
+  // which thread computes each set of corners, and the trips given to each so far (splitBySpec)
+  const owner = new Map<string, number>();
+  const load = new Array<number>(pool.length).fill(0);
   return {
     fallback: null,
     runner: {
       workers,
       async compute(works) {
-        const parts = splitByTrips(works, pool.length);
-        const results = await Promise.all(parts.map((p, i) => (p.length ? pool[i].compute(p) : Promise.resolve([]))));
-        return results.flat();
+        const parts = splitBySpec(works, pool.length, owner, load);
+        const results = await Promise.all(parts.map((p, i) => (p.length ? pool[i].compute(p.map((k) => works[k])) : Promise.resolve([]))));
+        const out = new Array<PackedDutyResult>(works.length);
+        parts.forEach((p, i) => p.forEach((k, j) => (out[k] = results[i][j])));
+        return out;
       },
       stats: () => ({ solves: pool.reduce((s, w) => s + w.solves, 0), simulations: pool.reduce((s, w) => s + w.simulations, 0) }),
       async close() {

@@ -1,7 +1,8 @@
 /** The predictions' storage: the fitted dampers to predict, their wear summaries and recorded totals, and the prediction rows. */
 import type { Sequelize } from 'sequelize';
-import { JSON_ROWS, fromJsonRows, inList, insertRows, jsonRows, runSql } from '../db/raw';
-import { type Prediction, type WearSummary } from './wear';
+import { fromJsonRows, inList, insertPackedRows, jsonRows, runSql } from '../db/raw';
+import { type WearSummary } from './wear';
+import { PREDICTION_COLUMNS, type PackedPredictions } from './prediction-rows';
 import type { WearRepoShared } from './repository';
 
 export function predictionRepository(sequelize: Sequelize, shared: WearRepoShared) {
@@ -81,37 +82,19 @@ export function predictionRepository(sequelize: Sequelize, shared: WearRepoShare
       return new Map(rows.map((r) => [r.damper_id, { cumKm: r.cum_km, cumWearKm: r.cum_wear_km }]));
     },
 
-    async storePredictions(rows: (Prediction & { damperId: number; vehicleId: number })[]) {
+    /** Stores a chunk's predictions, packed by prediction-rows.ts, and the dampers' totals that follow them, in one transaction. */
+    async storePredictions(packed: Pick<PackedPredictions, 'predictions' | 'totals' | 'count'>) {
+      if (!packed.count) return;
       await sequelize.transaction(async (t) => {
-        await insertRows(
-          sequelize,
-          'damper_predictions',
-          [
-            'damper_id', 'vehicle_id', 'as_of', 'window_days', 'window_km', 'window_wear_km', 'wear_km_per_day', 'km_per_day', 'life_wear_km', 'life_p10_wear_km',
-            'life_p90_wear_km', 'road_sensitivity', 'life_source', 'wear_km', 'life_used_fraction', 'distance_life_used', 'calendar_life_used', 'opening_km',
-            'opening_share', 'opening_share_low', 'opening_share_high', 'damping_ns_per_m', 'threshold_fraction', 'schedule_quantile', 'threshold_date',
-            'end_of_life_date', 'end_of_life_p10_date', 'end_of_life_p90_date', 'governed_by', 'spring_damage', 'spring_rate_per_day', 'spring_threshold_date', 'basis',
-          ],
-          rows.map((p) => [
-            p.damperId, p.vehicleId, p.asOf, p.windowDays, p.windowKm, p.windowWearKm, p.wearKmPerDay, p.kmPerDay, p.life.medianWearKm, p.life.p10WearKm,
-            p.life.p90WearKm, p.life.b, p.life.source, p.wearKm, p.lifeUsedFraction, p.distanceLifeUsed, p.calendarLifeUsed, p.opening.km,
-            p.openingShare, p.openingShareLow, p.openingShareHigh, p.dampingNsPerM, p.thresholdFraction, p.scheduleQuantile, p.thresholdDate,
-            p.endOfLifeDate, p.endOfLifeP10Date, p.endOfLifeP90Date, p.governedBy, p.springDamage, p.springRatePerDay, p.springThresholdDate, JSON.stringify(p.basis),
-          ]),
-          t,
-          { orReplace: true },
-        );
+        await insertPackedRows(sequelize, 'damper_predictions', PREDICTION_COLUMNS, [{ json: packed.predictions, count: packed.count }], t, { orReplace: true });
         // the damper's own totals follow its prediction
-        for (let i = 0; i < rows.length; i += JSON_ROWS) {
-          const part = rows.slice(i, i + JSON_ROWS);
-          await runSql(
-            sequelize,
-            `WITH p AS (${fromJsonRows(sequelize, ['id integer', ...['w', 'u', 'c'].map((c) => `${c} double precision`), 'b text'])})
-             UPDATE dampers SET wear_km = p.w, life_used_fraction = p.u, damping_ns_per_m = p.c, opening_basis = p.b FROM p WHERE dampers.id = p.id`,
-            [jsonRows(part.map((p) => [p.damperId, p.wearKm, p.lifeUsedFraction, p.dampingNsPerM, p.opening.basis]))],
-            t,
-          );
-        }
+        await runSql(
+          sequelize,
+          `WITH p AS (${fromJsonRows(sequelize, ['id integer', ...['w', 'u', 'c'].map((c) => `${c} double precision`), 'b text'])})
+           UPDATE dampers SET wear_km = p.w, life_used_fraction = p.u, damping_ns_per_m = p.c, opening_basis = p.b FROM p WHERE dampers.id = p.id`,
+          [packed.totals],
+          t,
+        );
       });
     },
 

@@ -9,7 +9,8 @@ import type { AxleInput, RouteInput, VehicleWork } from './duty';
 import { attachProfiles } from './roughness-as-of';
 import { createDutyRunner, type DutyRunner } from './duty-pool';
 import { createQueueDutyRunner } from './duty-queue';
-import { estimateOpening, levelsOf, predictFromSummary, predictionWindow, type LifeResolver, type PredictOptions, type WearSummary } from './wear';
+import { estimateOpening, levelsOf, predictionWindow, type LifeBasis, type LifeResolver, type PredictOptions } from './wear';
+import { createPredictionRunner } from './prediction-pool';
 import { priorLifeResolver } from '../workshop/life';
 import { wearRepository, type WearStart } from './repository';
 import { dutySummaryRepository, retentionStart } from './duty-summary';
@@ -301,34 +302,48 @@ export async function recomputeWear(ctx: PhaseContext) {
   });
 }
 
-/** Phase 3: predict every fitted damper (or those of `ctx.vehicleIds`) as of the run's day. */
+/**
+ * Phase 3: predict every fitted damper (or those of `ctx.vehicleIds`) as of the run's day. Each
+ * chunk's predictions are worked out and packed on a worker thread when the duty has threads
+ * (`ctx.dutyWorkers` > 0) and the whole fleet is predicted, else in this thread; the same rows
+ * either way (prediction-rows.ts).
+ */
 export async function predictAll(ctx: PhaseContext) {
   const repo = wearRepository(ctx.sequelize);
   const resolve = ctx.lifeResolver ?? priorLifeResolver();
   let done = 0;
   await repo.dropStalePredictions();
+  const { runner, fallback } = await createPredictionRunner(ctx.vehicleIds ? 0 : (ctx.dutyWorkers ?? 0));
+  if (fallback) ctx.warn?.(fallback);
   const read = async (prev: { lastId: number } | null) => {
     const ids = await repo.installedDamperIds(prev ? prev.lastId : 0, ctx.damperChunk ?? WEAR_CHUNK, ctx.vehicleIds);
     if (!ids.length) return null;
     const [context, recorded] = await Promise.all([repo.damperContext(ids), repo.recordedTotals(ids, ctx.asOf)]);
-    const inputs: { c: (typeof context)[number]; opts: PredictOptions; windowStart: string; levels: number[] }[] = [];
+    const inputs: { c: (typeof context)[number]; opts: Omit<PredictOptions, 'life'>; life: number; windowStart: string; levels: number[] }[] = [];
+    const lives: LifeBasis[] = [];
+    const lifeIndex = new Map<LifeBasis, number>();
     const errors: ItemError[] = [];
     for (const c of context) {
       try {
         const life = resolve({ damperId: c.id, specId: c.specId, axleIndex: c.axleIndex, ratedDamperLifeKm: c.ratedDamperLifeKm });
-        const opts: PredictOptions = {
+        let k = lifeIndex.get(life);
+        if (k === undefined) {
+          k = lives.push(life) - 1;
+          lifeIndex.set(life, k);
+        }
+        const base: Omit<PredictOptions, 'life'> = {
           asOf: ctx.asOf,
           installedAt: c.installedAt,
-          life,
           thresholdFraction: ctx.thresholdFraction,
           nominalDampingNsPerM: c.corner.dampingNsPerM,
           untrackedKm: c.untrackedKm ?? 0,
           calendarYears: ctx.calendarYears,
           scheduleQuantile: ctx.scheduleQuantile,
         };
+        const opts: PredictOptions = { ...base, life };
         const r = recorded.get(c.id);
         const opening = estimateOpening({ untrackedKm: opts.untrackedKm, recordedKm: r?.cumKm ?? 0, recordedWearKm: r?.cumWearKm ?? 0 });
-        inputs.push({ c, opts, windowStart: predictionWindow(opts).windowStart, levels: levelsOf(opts, opening.wearKm + (life.offsetWearKm ?? 0)) });
+        inputs.push({ c, opts: base, life: k, windowStart: predictionWindow(opts).windowStart, levels: levelsOf(opts, opening.wearKm + (life.offsetWearKm ?? 0)) });
       } catch (err) {
         errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
       }
@@ -338,27 +353,24 @@ export async function predictAll(ctx: PhaseContext) {
       ctx.thresholdFraction,
       ctx.asOf,
     );
-    return { lastId: ids[ids.length - 1], inputs, summaries, errors };
+    const packed = await runner.pack({
+      lives,
+      jobs: inputs.map(({ c, opts, life }) => ({ damperId: c.id, vehicleId: c.vehicleId, opts, life, summary: summaries.get(c.id) ?? null })),
+    });
+    return { lastId: ids[ids.length - 1], packed, errors };
   };
-  await readAheadWriteBehind(ctx.signal, read, async ({ inputs, summaries, errors }) => {
-    ctx.errors.push(...errors);
-    const out = [];
-    for (const { c, opts } of inputs) {
-      try {
-        const p = predictFromSummary(summaries.get(c.id) ?? NO_WEAR, opts);
-        out.push({ ...p, damperId: c.id, vehicleId: c.vehicleId });
-      } catch (err) {
-        ctx.errors.push({ item: `damper ${c.id}`, message: (err as Error).message });
-      }
-    }
-    await repo.storePredictions(out);
-    done += out.length;
-    add(ctx.counts, 'predictions', out.length);
-    await ctx.progress('predictions', done, done);
-  });
+  try {
+    await readAheadWriteBehind(ctx.signal, read, async ({ packed, errors }) => {
+      ctx.errors.push(...errors, ...packed.errors);
+      await repo.storePredictions(packed);
+      done += packed.count;
+      add(ctx.counts, 'predictions', packed.count);
+      await ctx.progress('predictions', done, done);
+    });
+  } finally {
+    await runner.close();
+  }
 }
-
-const NO_WEAR: WearSummary = Object.freeze({ windowWearKm: 0, windowKm: 0, windowSpringDamage: 0, cumKm: 0, cumWearKm: 0, springDamage: 0, levelDays: [null, null, null, null], springThresholdDay: null });
 
 /**
  * Per-trip duty older than the retention window is folded into the summaries and deleted

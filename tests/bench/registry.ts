@@ -7,7 +7,7 @@ import { timeDomainSection } from './sections/time-domain';
 import { baselineOdexSection } from './sections/baseline-odex';
 import { cLoopSection } from './sections/c-loop';
 import { closedFormSection } from './sections/closed-form';
-import { nightlySection } from './sections/nightly';
+import { nightly100kSection, nightlySection } from './sections/nightly';
 import { serverSection } from './sections/server';
 import { clientSection } from './sections/client';
 
@@ -48,4 +48,4 @@ export interface BenchSection {
 }
 
 /** Sections in run order. */
-export const SECTIONS: BenchSection[] = [timeDomainSection, baselineOdexSection, cLoopSection, closedFormSection, nightlySection, serverSection, clientSection];
+export const SECTIONS: BenchSection[] = [timeDomainSection, baselineOdexSection, cLoopSection, closedFormSection, nightlySection, nightly100kSection, serverSection, clientSection];

@@ -12,8 +12,8 @@ describe('configuration', () => {
     expect(c.smtpUrl).toBeUndefined();
     expect(c.mapTileUrl).toBeUndefined();
     expect(c.nightlyCron).toBe('30 2 * * *');
-    // auto: one fewer worker thread than the machine's cores, at least one
-    expect(c.nightlyWorkers).toBe(Math.max(1, os.availableParallelism() - 1));
+    // auto: one worker thread per core (the job's own thread mostly waits on the database meanwhile)
+    expect(c.nightlyWorkers).toBe(os.availableParallelism());
   });
 
   it('when the nightly worker threads are set, then a number or auto is taken and anything else is refused by name', () => {

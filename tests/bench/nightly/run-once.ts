@@ -3,7 +3,8 @@
  * line: wall time [s] of the whole run (database writes and mail included), peak resident
  * memory [MB] of the process, the run's counts, and per phase its wall time, the CPU time of
  * the process (all threads), the time the job's own thread was busy (`mainS`) and the peak
- * resident memory so far at the phase's end (`maxRssMb`). A folder made by an older version is
+ * resident memory so far at the phase's end (`maxRssMb`) and the job thread's JavaScript heap in use
+ * then (`heapMb`, live objects and garbage not yet collected). A folder made by an older version is
  * migrated first.
  *
  *     npx tsx tests/bench/nightly/run-once.ts <dataDir>
@@ -30,7 +31,7 @@ await migrate(db);
 const { mailer } = await createMailer(config, log);
 const t0 = performance.now();
 // wall and CPU time per phase (phases as reported by the job's progress)
-const phases: Record<string, { s: number; cpuS: number; mainS: number; maxRssMb: number }> = {};
+const phases: Record<string, { s: number; cpuS: number; mainS: number; maxRssMb: number; heapMb: number }> = {};
 let phase = 'start';
 let tPhase = t0;
 let cpuPhase = process.cpuUsage();
@@ -38,7 +39,7 @@ let elu = performance.eventLoopUtilization();
 const mark = (next: string) => {
   const cpu = process.cpuUsage(cpuPhase);
   const e = performance.eventLoopUtilization(elu);
-  phases[phase] = { s: (performance.now() - tPhase) / 1000, cpuS: (cpu.user + cpu.system) / 1e6, mainS: e.active / 1000, maxRssMb: Math.round(process.resourceUsage().maxRSS / 1024) };
+  phases[phase] = { s: (performance.now() - tPhase) / 1000, cpuS: (cpu.user + cpu.system) / 1e6, mainS: e.active / 1000, maxRssMb: Math.round(process.resourceUsage().maxRSS / 1024), heapMb: Math.round(process.memoryUsage().heapUsed / 1048576) };
   elu = performance.eventLoopUtilization();
   phase = next;
   tPhase = performance.now();

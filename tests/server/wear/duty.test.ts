@@ -14,7 +14,7 @@ import {
 } from '../../../server/wear/duty';
 import { simulateTravel, simulateWeighted } from '../../../server/physics/simulate';
 import { rainflowDamage } from '../../../server/physics/fatigue';
-import { createDutyRunner, inProcessDutyRunner, splitByTrips } from '../../../server/wear/duty-pool';
+import { createDutyRunner, inProcessDutyRunner, splitBySpec, splitByTrips } from '../../../server/wear/duty-pool';
 import { prepareDuty } from '../../../server/physics/closed-form';
 import { prepareSimulation, runSimulation } from '../../../server/physics/simulate';
 import { minerDamage, rainflow } from '../../../server/physics/fatigue';
@@ -265,6 +265,39 @@ describe('duty on worker threads', () => {
     expect(splitByTrips(works.slice(0, 1), 4)).toEqual([works.slice(0, 1)]);
     expect(splitByTrips([], 2)).toEqual([[]]);
   });
+
+  // a second spec: the van's corners with a heavier body (other cache keys, the same routes)
+  const truck = (vehicleId: number, routeId: number, days: string[]): VehicleWork => {
+    const w = van(vehicleId, routeId, days);
+    return { ...w, axles: w.axles.map((a) => ({ ...a, corner: { ...a.corner, sprungMassKg: a.corner.sprungMassKg * 2 } })) };
+  };
+  const mixed = Array.from({ length: 8 }, (_, k) => (k % 2 ? truck : van)(k + 1, 2, ['2026-11-01', '2026-11-02']));
+
+  it('when a batch of two specs is split between two threads, then each spec goes to one thread, and to the same one in the next batch', () => {
+    const owner = new Map<string, number>();
+    const load = [0, 0];
+    const first = splitBySpec(mixed, 2, owner, load);
+    expect(first.flat().sort((a, b) => a - b)).toEqual(mixed.map((_, i) => i));
+    const specOf = (i: number) => (i % 2 ? 'truck' : 'van');
+    for (const part of first) expect(new Set(part.map(specOf)).size).toBe(1);
+    const second = splitBySpec(mixed.slice(0, 4), 2, owner, load);
+    expect(second.map((p) => p.map(specOf)[0])).toEqual(first.map((p) => p.map(specOf)[0]));
+    // one spec alone would leave a thread idle: split by trips instead
+    const one = splitBySpec(works, 2, new Map(), [0, 0]);
+    expect(one.map((p) => p.length)).toEqual(splitByTrips(works, 2).map((p) => p.length));
+    expect(one.flat()).toEqual(works.map((_, i) => i));
+  });
+
+  it('when two specs are computed on two worker threads, then every result equals this thread\'s and each profile segment is simulated once', async () => {
+    const { runner } = await createDutyRunner(routes, 2);
+    try {
+      const local = inProcessDutyRunner(routes);
+      expect(await runner.compute(mixed)).toEqual(await local.compute(mixed));
+      expect(runner.stats().simulations).toBe(local.stats().simulations);
+    } finally {
+      await runner.close();
+    }
+  }, 60_000);
 
   it('when the duty is computed on two worker threads, then every record equals the one computed in this thread', async () => {
     const { runner, fallback } = await createDutyRunner(routes, 2);

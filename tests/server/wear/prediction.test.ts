@@ -3,6 +3,8 @@
 // reaches it, and the rate comes from a trailing window that starts no earlier than the fitting day.
 import { describe, expect, it } from 'vitest';
 import { DUTY_WINDOW_DAYS, levelsOf, predictFromSummary, predictionWindow, summarizeWear, type PredictOptions, type WearSummary } from '../../../server/wear/wear';
+import { packPredictions, PREDICTION_COLUMNS } from '../../../server/wear/prediction-rows';
+import { createPredictionRunner } from '../../../server/wear/prediction-pool';
 
 const life = { b: 1, medianWearKm: 100_000, p10WearKm: 60_000, p90WearKm: 140_000, source: 'prior', note: 'test basis' };
 const opts = (over: Partial<PredictOptions> = {}): PredictOptions => ({
@@ -52,4 +54,50 @@ describe('the prediction window', () => {
     expect(s.windowWearKm).toBe(110);
     expect(predictFromSummary(s, o).wearKmPerDay).toBeCloseTo(10, 12);
   });
+});
+
+describe('predictions packed for the database', () => {
+  const summary: WearSummary = { windowWearKm: 900, windowKm: 1000, windowSpringDamage: 1e-4, cumKm: 20_000, cumWearKm: 18_000, springDamage: 2e-3, levelDays: [null, null, null, null], springThresholdDay: null };
+  const lane = { ...life, medianWearKm: 80_000, source: 'test-lane', offsetWearKm: 1500 };
+  const base: Omit<PredictOptions, 'life'> = { asOf: '2026-11-30', installedAt: '2025-11-30', thresholdFraction: 0.8, nominalDampingNsPerM: 3000, untrackedKm: 2500 };
+  const chunk = {
+    lives: [life, lane],
+    jobs: [
+      { damperId: 11, vehicleId: 1, opts: base, life: 0, summary },
+      { damperId: 12, vehicleId: 1, opts: { ...base, installedAt: '2026-11-20' }, life: 1, summary: null },
+      // an as-of day that is no day: its prediction throws, and it alone is left out
+      { damperId: 13, vehicleId: 2, opts: { ...base, asOf: 'not a day' }, life: 0, summary },
+      { damperId: 14, vehicleId: 2, opts: base, life: 1, summary },
+    ],
+  };
+
+  it('when a chunk is packed, then each row is the prediction of predictFromSummary in the table\'s column order, and a damper whose prediction throws is reported and left out', () => {
+    const packed = packPredictions(chunk);
+    const rows = JSON.parse(packed.predictions) as unknown[][];
+    expect(packed.count).toBe(3);
+    expect(rows.map((r) => r[0])).toEqual([11, 12, 14]);
+    expect(packed.errors.map((e) => e.item)).toEqual(['damper 13']);
+    const p = predictFromSummary(summary, { ...base, life: lane });
+    const row = rows[2];
+    expect(row).toHaveLength(PREDICTION_COLUMNS.length);
+    const col = (name: string) => row[PREDICTION_COLUMNS.indexOf(name)];
+    expect(col('life_wear_km')).toBe(80_000);
+    expect(col('life_source')).toBe('test-lane');
+    expect(col('wear_km')).toBe(p.wearKm);
+    expect(col('threshold_date')).toBe(p.thresholdDate);
+    expect(JSON.parse(col('basis') as string)).toEqual(p.basis);
+    // the damper's own totals: id, wear km, life used, present damping, opening basis
+    expect(JSON.parse(packed.totals)[2]).toEqual([14, p.wearKm, p.lifeUsedFraction, p.dampingNsPerM, p.opening.basis]);
+  });
+
+  it('when a chunk is packed on the worker thread, then the texts equal those packed in this thread', async () => {
+    const { runner, fallback } = await createPredictionRunner(1);
+    try {
+      expect(fallback).toBeNull();
+      expect(runner.workers).toBe(1);
+      expect(await runner.pack(chunk)).toEqual(packPredictions(chunk));
+    } finally {
+      await runner.close();
+    }
+  }, 60_000);
 });
