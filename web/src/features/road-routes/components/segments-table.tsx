@@ -130,12 +130,8 @@ export function SegmentsTable({
   return (
     <div className="flex flex-col gap-3">
       <DataTable
-        label="Segments"
         columns={columns}
-        {...pagedTableProps(query, params, onParamsChange)}
-        getRowId={(r) => String(r.id)}
-        noun={['segment', 'segments']}
-        exportUrl={segmentsExportUrl(params)}
+        {...pagedTableProps(query, params, onParamsChange, { noun: ['segment', 'segments'], exportUrl: segmentsExportUrl(params) })}
         toolbar={toolbar}
         empty={
           filtered ? (

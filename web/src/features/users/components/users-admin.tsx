@@ -131,12 +131,8 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
         </Notice>
       ) : null}
       <DataTable
-        label="People"
         columns={columns}
-        {...pagedTableProps(query, params, update)}
-        getRowId={(r) => String(r.id)}
-        noun={['person', 'people']}
-        exportUrl={usersExportUrl(params)}
+        {...pagedTableProps(query, params, update, { noun: ['person', 'people'], exportUrl: usersExportUrl(params) })}
         toolbar={
           <div role="search" aria-label="Filter people" className="grid grid-cols-2 items-end gap-3 md:grid-cols-[minmax(12rem,1.5fr)_repeat(2,minmax(9rem,1fr))_auto]">
             <SearchField

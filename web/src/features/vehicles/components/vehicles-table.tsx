@@ -125,12 +125,8 @@ export function VehiclesTable({ params, onParamsChange, depotOptions, specOption
 
   return (
     <DataTable
-      label="Vehicles"
       columns={columns}
-      {...pagedTableProps(query, params, onParamsChange)}
-      getRowId={(r) => String(r.id)}
-      noun={['vehicle', 'vehicles']}
-      exportUrl={vehiclesExportUrl(params)}
+      {...pagedTableProps(query, params, onParamsChange, { noun: ['vehicle', 'vehicles'], exportUrl: vehiclesExportUrl(params) })}
       toolbar={toolbar}
       roomy={roomy}
       empty={
