@@ -120,7 +120,7 @@ export function JobRuns() {
           <EmptyState title="No runs yet">The first run happens tonight, or press “Run now”.</EmptyState>
         ) : (
           <>
-            <SimpleTable label="Job runs" columns={columns} rows={runs.data.items} getRowKey={(r) => r.id} />
+            <SimpleTable label="Job runs" columns={columns} rows={runs.data.items} />
             <div className="mt-3 flex items-center gap-2 text-sm text-slate">
               <Button size="sm" disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
                 Newer

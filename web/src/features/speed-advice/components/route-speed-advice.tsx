@@ -128,7 +128,6 @@ export function RouteSpeedAdvice({ routeId, canPickSpec }: { routeId: number; ca
           <SimpleTable
             label="Advised speed per segment"
             rows={q.data.segments}
-            getRowKey={(r) => r.id}
             className="max-h-96 overflow-y-auto"
             columns={[
               { key: 'seq', header: 'Segment', rowHeader: true, cell: (r) => <button type="button" className="link" onClick={() => setSegmentId(r.id)} title="Show this segment in the chart">{r.seq + 1}</button> },

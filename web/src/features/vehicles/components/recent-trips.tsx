@@ -53,7 +53,6 @@ export function RecentTrips({ trips, compact }: { trips: VehicleTrip[]; /** A li
     <SimpleTable
       label="Recent trips"
       rows={trips}
-      getRowKey={(t) => t.id}
       columns={[
         {
           key: 'start',

@@ -22,7 +22,6 @@ export function VehicleInspections({ inspections }: { inspections: VehicleInspec
     <SimpleTable
       label="Inspections"
       rows={inspections}
-      getRowKey={(i) => i.id}
       columns={[
         {
           key: 'due',
