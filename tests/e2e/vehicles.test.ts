@@ -1,21 +1,10 @@
 import fs from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, goViaMenu, signedInPage } from './helpers';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { screenshotPath } from '../support/browser';
+import { DEMO, expectHeading, expectPath, goViaMenu, signedInPage, serverAndBrowserForFile } from './helpers';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 const table = (page: Page) => page.getByRole('table', { name: /^Vehicles/ });
 
