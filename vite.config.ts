@@ -10,7 +10,10 @@ const webSrc = fileURLToPath(new URL('./web/src', import.meta.url));
 const contracts = fileURLToPath(new URL('./server/contracts', import.meta.url));
 
 /** Tests that start worker processes on a private Redis (Debian's redis-server): `npm run test:queue`. */
-const QUEUE_TESTS = ['tests/jobs/nightly-queue.test.ts'];
+const QUEUE_TESTS = ['tests/jobs/nightly-queue.test.ts', 'tests/server/wear/duty-queue.test.ts'];
+
+/** Longest test files first, so the two workers finish together (loaded only under vitest). */
+const sequencer = process.env.VITEST ? (await import('./tests/support/sequencer')).SlowFirstSequencer : undefined;
 
 export default defineConfig({
   root: 'web',
@@ -28,6 +31,7 @@ export default defineConfig({
     root: '.',
     // one test file per core (the default leaves one core idle, which on two cores halves the speed)
     maxWorkers: os.availableParallelism(),
+    sequence: { sequencer },
     projects: [
       {
         extends: true,
@@ -73,6 +77,8 @@ export default defineConfig({
           name: 'e2e',
           root: '.',
           include: ['tests/e2e/**/*.test.ts'],
+          // one Chromium for the run, each file connecting to it (tests/support/browser-server.ts)
+          globalSetup: ['tests/support/browser-server.ts'],
           environment: 'node',
           testTimeout: 90_000,
           hookTimeout: 120_000,

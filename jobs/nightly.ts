@@ -21,7 +21,7 @@ import { jobRepository } from '../server/jobs/repository';
 import { runSchedule } from '../server/inspections/service';
 import { loadSurveyProfile } from '../server/roads/profile-store';
 import { localDay, startOfLocalDay } from '../server/wear/repository';
-import { predictAll, processTrips, recomputeWear, RunAborted, type ItemError, type PhaseContext } from '../server/wear/service';
+import { foldOldDuty, predictAll, processTrips, recomputeWear, RunAborted, type ItemError, type PhaseContext } from '../server/wear/service';
 import { plusDays, type LifeResolver } from '../server/wear/wear';
 import { refitAndResolveLife } from '../server/workshop/nightly-life';
 import { refreshExposure } from '../server/drivers/exposure';
@@ -53,6 +53,8 @@ export interface NightlyOptions {
   failAfterBatches?: number;
   /** Test hook: dampers per chunk of the wear and prediction phases. */
   damperChunk?: number;
+  /** Test hook: fail after folding this many days of old per-trip duty. */
+  failAfterFoldDays?: number;
   /** Wall clock for the run row, lock and heartbeat (default: the real clock). */
   wallClock?: () => Date;
   /** Called on every progress step (phase, done, total). */
@@ -121,6 +123,8 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     signal: opts.signal,
     failAfterBatches: opts.failAfterBatches,
     damperChunk: opts.damperChunk,
+    tripDutyRetentionDays: config.tripDutyRetentionDays,
+    failAfterFoldDays: opts.failAfterFoldDays,
     loadProfile: loadSurveyProfile,
     progress,
     errors,
@@ -137,6 +141,7 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
       const life = await refitAndResolveLife(config, opts.now, log);
       ctx.lifeResolver = life.resolver;
       counts.lifeModelsFitted = life.fitted;
+      counts.lifeBandRows = life.bandRows;
     }
     await recomputeWear(ctx);
     await predictAll(ctx);
@@ -144,6 +149,10 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     if (opts.signal?.aborted) throw new RunAborted();
     await progress('exposure', 0, 1);
     Object.assign(counts, await refreshExposure({ sequelize: db.sequelize, now: opts.now, asOf, publicUrl: config.publicUrl, runId }));
+    // per-trip duty past the retention window into the daily summary (after every reader of this run)
+    if (opts.signal?.aborted) throw new RunAborted();
+    await progress('duty retention', 0, 1);
+    await foldOldDuty(ctx);
     if (opts.signal?.aborted) throw new RunAborted();
     await progress('scheduling', 0, 1);
     await runSchedule({ sequelize: db.sequelize, now: opts.now, asOf, timeZone: config.timeZone, rules: config.inspection, runId, errors, counts });

@@ -42,6 +42,13 @@ const schema = z
     INSPECTION_DUE_SOON_DAYS: z.coerce.number({ message: 'must be a number' }).int().min(0).max(90).default(7),
     INSPECTION_HORIZON_DAYS: z.coerce.number({ message: 'must be a number' }).int().min(1).max(730).default(90),
     NIGHTLY_BATCH_TRIPS: z.coerce.number({ message: 'must be a number' }).int().min(1).max(100000).default(2000),
+    // per-trip duty kept [days]; the drivers' exposure step recomputes the last 60 days from it
+    TRIP_DUTY_RETENTION_DAYS: z.coerce
+      .number({ message: 'must be a number of days' })
+      .int('must be a whole number of days')
+      .min(61, 'must be at least 61 days (driver exposure is recomputed over the last 60 days from per-trip duty)')
+      .max(36500, 'must be at most 36500 days')
+      .default(400),
     NIGHTLY_WORKERS: z
       .union([z.literal('auto'), z.coerce.number({ message: "must be a number or 'auto'" }).int('must be a whole number').min(0).max(64)])
       .default('auto'),
@@ -94,6 +101,8 @@ const schema = z
       horizonDays: c.INSPECTION_HORIZON_DAYS,
     },
     nightlyBatchTrips: c.NIGHTLY_BATCH_TRIPS,
+    /** Days of per-trip duty kept; older days live on in the per-damper daily summary. */
+    tripDutyRetentionDays: c.TRIP_DUTY_RETENTION_DAYS,
     /** Worker threads computing the nightly duty (0 = in the job's own thread). */
     nightlyWorkers: c.NIGHTLY_WORKERS === 'auto' ? Math.max(1, os.availableParallelism() - 1) : c.NIGHTLY_WORKERS,
     /** Redis of the queue the nightly duty is spread over (server/wear/duty-queue.ts); absent = computed by the job itself. */

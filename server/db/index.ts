@@ -19,6 +19,7 @@ import * as m0013 from './migrations/0013-lane-phase-shift';
 import * as m0014 from './migrations/0014-seat-factors';
 import * as m0017 from './migrations/0017-trip-import-file-hash';
 import * as m0018 from './migrations/0018-must-change-password';
+import * as m0019 from './migrations/0019-duty-day-summary';
 
 export interface Db {
   sequelize: Sequelize;
@@ -49,6 +50,7 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
   { name: '0014-seat-factors', up: m0014.up, down: m0014.down },
   { name: '0017-trip-import-file-hash', up: m0017.up, down: m0017.down },
   { name: '0018-must-change-password', up: m0018.up, down: m0018.down },
+  { name: '0019-duty-day-summary', up: m0019.up, down: m0019.down },
 ];
 
 /**

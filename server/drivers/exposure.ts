@@ -146,7 +146,7 @@ export async function refreshExposure(ctx: { sequelize: Sequelize; now: Date; as
     }
     const queued = await mailRepository.queue(mails, ctx.now, transaction);
     await exposureRepository.markNotified(sequelize, fresh, nowText, transaction);
-    return { exposureDays: days.length, exposureDaysAboveAction: days.filter((d) => d.a8 > EXPOSURE_ACTION_VALUE).length, exposureMailsQueued: queued };
+    return { exposureDutyRows: rows.length, exposureDays: days.length, exposureDaysAboveAction: days.filter((d) => d.a8 > EXPOSURE_ACTION_VALUE).length, exposureMailsQueued: queued };
   });
 }
 

@@ -65,11 +65,14 @@ const ATTEMPTS = 3;
  */
 export async function createQueueDutyRunner(routes: Map<number, RouteInput>, url: string): Promise<{ runner: DutyRunner | null; workersSeen: number }> {
   const connection = redisConnection(url);
+  const eventsConnection = redisConnection(url);
   const queue = new Queue<DutyJobData, DutyJobResult>(DUTY_QUEUE, { connection });
-  const events = new QueueEvents(DUTY_QUEUE, { connection: redisConnection(url) });
+  const events = new QueueEvents(DUTY_QUEUE, { connection: eventsConnection });
+  // BullMQ leaves a connection it was handed open when it closes: both are ended here
   const shut = async () => {
     await Promise.allSettled([queue.close(), events.close()]);
     connection.disconnect();
+    eventsConnection.disconnect();
   };
   try {
     const workersSeen = await queue.getWorkersCount();
@@ -155,8 +158,9 @@ export interface DutyWorkerOptions {
 /** A worker taking duty jobs from the queue at `url` until closed. */
 export function startDutyWorker(url: string, opts: DutyWorkerOptions) {
   const connection = redisConnection(url);
+  const workerConnection = redisConnection(url);
   const worker = new Worker<DutyJobData, DutyJobResult>(DUTY_QUEUE, dutyJobProcessor(connection), {
-    connection: redisConnection(url),
+    connection: workerConnection,
     concurrency: opts.concurrency ?? 1,
     lockDuration: opts.lockMs,
     stalledInterval: Math.max(1000, Math.round(opts.lockMs / 2)),
@@ -168,6 +172,7 @@ export function startDutyWorker(url: string, opts: DutyWorkerOptions) {
     async close() {
       await worker.close();
       connection.disconnect();
+      workerConnection.disconnect();
     },
   };
 }

@@ -8,6 +8,7 @@ import type { ObservationValue } from '../roads/current-roughness';
 import type { RoughnessSource } from '../db/models';
 import { sqlStamp as sqlDate, localDay } from '../lib/days';
 import type { VehiclePlan, WearRepoShared } from './repository';
+import { addToSeverityBins } from './duty-summary';
 
 export function dutyRepository(sequelize: Sequelize, q: WearRepoShared['q']) {
   return {
@@ -139,15 +140,18 @@ export function dutyRepository(sequelize: Sequelize, q: WearRepoShared['q']) {
     },
 
     /**
-     * Stores one batch in one transaction: the duty records, the trips' processed mark and
-     * the dampers' "recompute from" day. A crash before COMMIT leaves none of it.
+     * Stores one batch in one transaction: the duty records, their sums in the running severity
+     * totals (duty-summary.ts), the trips' processed mark and the dampers' "recompute from" day.
+     * A crash before COMMIT leaves none of it. Resolves to the severity totals written.
      */
-    async storeBatch(batch: { duties: { json: string; count: number }[]; wear: WearDelta[]; processedTripIds: number[]; now: Date; runId: number }) {
+    async storeBatch(batch: { duties: { json: string; count: number }[]; wear: WearDelta[]; processedTripIds: number[]; now: Date; runId: number }): Promise<number> {
       const stamp = sqlDate(batch.now);
+      let bins = 0;
       await sequelize.transaction(async (t) => {
         await insertPackedRows(sequelize, 'trip_duties', TRIP_DUTY_COLUMNS, batch.duties, t, { fixed: { job_run_id: null, created_at: stamp, updated_at: stamp } });
         for (let i = 0; i < batch.processedTripIds.length; i += 5000) {
           const ids = batch.processedTripIds.slice(i, i + 5000);
+          bins += await addToSeverityBins(sequelize, ids, t);
           await runSql(sequelize, `UPDATE trips SET processed_at = ?, updated_at = ? WHERE id IN (${inList(ids)})`, [stamp, stamp], t);
         }
         for (let i = 0; i < batch.wear.length; i += JSON_ROWS) {
@@ -162,6 +166,7 @@ export function dutyRepository(sequelize: Sequelize, q: WearRepoShared['q']) {
           );
         }
       });
+      return bins;
     },
   };
 }

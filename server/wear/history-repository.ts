@@ -1,9 +1,10 @@
 /** The wear history's storage: which dampers to recompute, from where, and the daily wear rows written for them. */
 import type { Sequelize } from 'sequelize';
-import { JSON_ROWS, fromJsonRows, inList, jsonRows, runSql } from '../db/raw';
+import { JSON_ROWS, fromJsonRows, inList, jsonRows, runSql, selectRows } from '../db/raw';
 import { sqlFor } from '../db/dialect';
 import { sqlStamp as sqlDate } from '../lib/days';
 import type { DamperContext, WearRepoShared, WearStart } from './repository';
+import { summaryWearSql } from './duty-summary';
 
 export function historyRepository(sequelize: Sequelize, shared: WearRepoShared) {
   const { q } = shared;
@@ -79,17 +80,21 @@ export function historyRepository(sequelize: Sequelize, shared: WearRepoShared) 
 
     /**
      * Replaces dirty dampers' wear days from their dirty day on and updates their totals, clearing
-     * the mark; stores their untracked distance first. Each damper's daily duty sums — distance,
+     * the mark; stores their untracked distance first. The duty is the per-trip rows still kept
+     * and the daily summary of those folded (duty-summary.ts). Each damper's daily duty sums — distance,
      * energy, spring damage and wear km Σ km·severity^b — are accumulated in SQL onto its starting
      * wear (the last day kept, or zero): the same sums as {@link accumulateDays} in wear.ts,
      * without carrying every damper-day through this thread and back (a test checks the two agree).
+     * Returns the wear days written and the duty rows (per-trip and summary) they were summed
+     * from, the work a night's wear phase does.
      */
-    async storeWear(dampers: WearStart[], now: Date, untracked: { damperId: number; km: number }[] = []) {
+    async storeWear(dampers: WearStart[], now: Date, untracked: { damperId: number; km: number }[] = []): Promise<{ wearDays: number; dutyRowsRead: number }> {
       const stamp = sqlDate(now);
       const ids = inList(dampers.map((d) => d.damperId));
       const start = jsonRows(dampers.map((d) => [d.damperId, d.vehicleId, d.cumKm, d.cumEnergyJ, d.cumWearKm, d.springDamage, d.b]));
       const startCols = ['id integer', 'vehicle_id integer', ...['k0', 'e0', 'w0', 'f0', 'b'].map((c) => `${c} double precision`)];
       let wearDays = 0;
+      let dutyRowsRead = 0;
       await sequelize.transaction(async (t) => {
         for (let i = 0; i < untracked.length; i += JSON_ROWS) {
           const part = untracked.slice(i, i + JSON_ROWS);
@@ -106,16 +111,29 @@ export function historyRepository(sequelize: Sequelize, shared: WearRepoShared) 
           [],
           t,
         );
+        const [read] = await selectRows<{ n: number }>(
+          sequelize,
+          `SELECT (SELECT COUNT(*) FROM trip_duties td JOIN dampers d ON d.id = td.damper_id WHERE d.id IN (${ids}) AND td.trip_date >= d.wear_dirty_from)
+                + (SELECT COUNT(*) FROM trip_duty_days s JOIN dampers d ON d.id = s.damper_id WHERE d.id IN (${ids}) AND s.day >= d.wear_dirty_from) AS n`,
+          [],
+          t,
+        );
+        dutyRowsRead = Number(read?.n ?? 0);
         wearDays = await runSql(
           sequelize,
           `INSERT INTO damper_wear_days (damper_id, day, vehicle_id, distance_km, energy_j, spring_damage, wear_km, cum_km, cum_energy_j, cum_wear_km, cum_spring_damage)
            WITH p AS (${fromJsonRows(sequelize, startCols)}),
            daily AS (
-             SELECT td.damper_id, td.trip_date AS day, SUM(td.distance_km) AS km, SUM(td.energy_j) AS e, SUM(td.spring_damage) AS f,
-                    SUM(td.distance_km * pow(td.severity, p.b)) AS w
-             FROM trip_duties td JOIN dampers d ON d.id = td.damper_id JOIN p ON p.id = td.damper_id
-             WHERE td.damper_id IN (${ids}) AND td.trip_date >= d.wear_dirty_from
-             GROUP BY td.damper_id, td.trip_date),
+             SELECT u.damper_id, u.day, SUM(u.km) AS km, SUM(u.e) AS e, SUM(u.f) AS f, SUM(u.w) AS w
+             FROM (
+               SELECT td.damper_id, td.trip_date AS day, td.distance_km AS km, td.energy_j AS e, td.spring_damage AS f, td.distance_km * pow(td.severity, p.b) AS w
+               FROM trip_duties td JOIN dampers d ON d.id = td.damper_id JOIN p ON p.id = td.damper_id
+               WHERE td.damper_id IN (${ids}) AND td.trip_date >= d.wear_dirty_from
+               UNION ALL
+               SELECT s.damper_id, s.day, s.distance_km, s.energy_j, s.spring_damage, ${summaryWearSql('s', 'p.b')}
+               FROM trip_duty_days s JOIN dampers d ON d.id = s.damper_id JOIN p ON p.id = s.damper_id
+               WHERE s.damper_id IN (${ids}) AND s.day >= d.wear_dirty_from) u
+             GROUP BY u.damper_id, u.day),
            cum AS (
              SELECT daily.*, p.k0 + SUM(daily.km) OVER w AS ck, p.e0 + SUM(daily.e) OVER w AS ce, p.w0 + SUM(daily.w) OVER w AS cw, p.f0 + SUM(daily.f) OVER w AS cf
              FROM daily JOIN p ON p.id = daily.damper_id
@@ -138,7 +156,7 @@ export function historyRepository(sequelize: Sequelize, shared: WearRepoShared) 
           t,
         );
       });
-      return wearDays;
+      return { wearDays, dutyRowsRead };
     },
   };
 }

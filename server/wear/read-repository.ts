@@ -42,15 +42,29 @@ export function wearReadRepository(sequelize: Sequelize) {
       );
     },
 
-    /** Duty of the fitted dampers by route: trips, km, energy per axle. */
+    /**
+     * Duty of the fitted dampers by route: trips, km, energy per axle, over the per-trip duty kept
+     * and the route totals of the duty folded beyond the retention window (duty-summary.ts). A
+     * damper's records are one per trip it was fitted for, so the trips of an axle are those of
+     * its longest-fitted damper (both corners' dampers being fitted now, their trips nest).
+     */
     async dutyByRoute(damperIds: number[]) {
       if (!damperIds.length) return [];
+      const ids = damperIds.map(Number).join(',');
       return q<{ route_id: number; route_name: string; axle_index: number; trips: number; km: number; severity: number; energy_j: number; spring_damage: number; avg_weighted_accel: number }>(
-        `SELECT td.route_id, r.name AS route_name, td.axle_index, COUNT(DISTINCT td.trip_id) AS trips, SUM(td.distance_km) / COUNT(*) * COUNT(DISTINCT td.trip_id) AS km,
-                SUM(td.distance_km * td.severity) / SUM(td.distance_km) AS severity,
-                SUM(td.energy_j) AS energy_j, SUM(td.spring_damage) AS spring_damage, AVG(td.rms_weighted_accel) AS avg_weighted_accel
-         FROM trip_duties td JOIN routes r ON r.id = td.route_id
-         WHERE td.damper_id IN (${damperIds.map(Number).join(',')}) GROUP BY td.route_id, td.axle_index ORDER BY energy_j DESC`,
+        `WITH u AS (
+           SELECT td.damper_id, td.route_id, td.axle_index, 1 AS records, td.distance_km AS km, td.distance_km * td.severity AS kms, td.energy_j, td.spring_damage, td.rms_weighted_accel AS aw
+           FROM trip_duties td WHERE td.damper_id IN (${ids})
+           UNION ALL
+           SELECT t.damper_id, t.route_id, t.axle_index, t.records, t.distance_km, t.km_severity, t.energy_j, t.spring_damage, t.weighted_accel_sum
+           FROM damper_route_totals t WHERE t.damper_id IN (${ids})),
+         per AS (
+           SELECT route_id, axle_index, damper_id, SUM(records) AS records, SUM(km) AS km, SUM(kms) AS kms, SUM(energy_j) AS energy_j, SUM(spring_damage) AS spring_damage, SUM(aw) AS aw
+           FROM u GROUP BY route_id, axle_index, damper_id)
+         SELECT per.route_id, r.name AS route_name, per.axle_index, MAX(per.records) AS trips, SUM(per.km) / SUM(per.records) * MAX(per.records) AS km,
+                SUM(per.kms) / SUM(per.km) AS severity, SUM(per.energy_j) AS energy_j, SUM(per.spring_damage) AS spring_damage, SUM(per.aw) / SUM(per.records) AS avg_weighted_accel
+         FROM per JOIN routes r ON r.id = per.route_id
+         GROUP BY per.route_id, r.name, per.axle_index ORDER BY energy_j DESC`,
       );
     },
 

@@ -12,6 +12,7 @@ import { createQueueDutyRunner } from './duty-queue';
 import { estimateOpening, levelsOf, predictFromSummary, predictionWindow, type LifeResolver, type PredictOptions, type WearSummary } from './wear';
 import { priorLifeResolver } from '../workshop/life';
 import { wearRepository, type WearStart } from './repository';
+import { dutySummaryRepository, retentionStart } from './duty-summary';
 
 export interface ItemError {
   item: string;
@@ -48,6 +49,10 @@ export interface PhaseContext {
   failAfterBatches?: number;
   /** Dampers per chunk of the wear and prediction phases (default {@link WEAR_CHUNK}). */
   damperChunk?: number;
+  /** Days of per-trip duty kept (older days are folded into the daily summary); absent = all. */
+  tripDutyRetentionDays?: number;
+  /** Test hook: throw after folding this many days (a crash in the middle of the fold). */
+  failAfterFoldDays?: number;
   /** Loads a measured profile (server/roads/profile-store.ts `loadSurveyProfile`). */
   loadProfile: (dataDir: string, surveyId: number) => Promise<{ dxM: number; startM: number; elevationsM: Float64Array }>;
   progress: (phase: string, done: number, total: number) => Promise<void> | void;
@@ -172,7 +177,7 @@ export async function processTrips(ctx: PhaseContext) {
         segments += r.segments;
         tripErrors += r.errors.length;
       }
-      await repo.storeBatch({ duties, wear, processedTripIds: processed, now: ctx.now, runId: 0 });
+      add(ctx.counts, 'severityBinsWritten', await repo.storeBatch({ duties, wear, processedTripIds: processed, now: ctx.now, runId: 0 }));
       // counted once committed
       committed++;
       add(ctx.counts, 'batches', 1);
@@ -288,7 +293,8 @@ export async function recomputeWear(ctx: PhaseContext) {
         b: bOf.get(c.specId) ?? 0,
       });
     }
-    const wearDays = await repo.storeWear(starts, ctx.now, untracked.map((u) => ({ damperId: u.id, km: u.untracked_km })));
+    const { wearDays, dutyRowsRead } = await repo.storeWear(starts, ctx.now, untracked.map((u) => ({ damperId: u.id, km: u.untracked_km })));
+    add(ctx.counts, 'wearDutyRowsRead', dutyRowsRead);
     add(ctx.counts, 'dampersUpdated', starts.length);
     add(ctx.counts, 'wearDays', wearDays);
     await ctx.progress('wear', end, ids.length);
@@ -353,3 +359,28 @@ export async function predictAll(ctx: PhaseContext) {
 }
 
 const NO_WEAR: WearSummary = Object.freeze({ windowWearKm: 0, windowKm: 0, windowSpringDamage: 0, cumKm: 0, cumWearKm: 0, springDamage: 0, levelDays: [null, null, null, null], springThresholdDay: null });
+
+/**
+ * Per-trip duty older than the retention window is folded into the summaries and deleted
+ * (duty-summary.ts), oldest day first, in transactions of at most four rows per trip of a batch
+ * (`batchTrips`, default 2000). Idempotent: with nothing older than the window it changes nothing.
+ */
+export async function foldOldDuty(ctx: Pick<PhaseContext, 'sequelize' | 'asOf' | 'tripDutyRetentionDays' | 'signal' | 'counts' | 'failAfterFoldDays'> & { batchTrips?: number }) {
+  if (!ctx.tripDutyRetentionDays) return;
+  const repo = dutySummaryRepository(ctx.sequelize);
+  const keepFrom = retentionStart(ctx.asOf, ctx.tripDutyRetentionDays);
+  const maxRows = 4 * (ctx.batchTrips ?? 2000);
+  let days = 0;
+  for (let day = await repo.oldestDutyDay(); day !== null && day < keepFrom; day = await repo.oldestDutyDay()) {
+    for (;;) {
+      checkAbort(ctx.signal);
+      const { folded, summaryRows } = await repo.foldChunk(day, maxRows);
+      add(ctx.counts, 'dutyRowsFolded', folded);
+      add(ctx.counts, 'dutySummaryRowsWritten', summaryRows);
+      if (folded < maxRows) break;
+    }
+    add(ctx.counts, 'dutyDaysFolded', 1);
+    days++;
+    if (ctx.failAfterFoldDays !== undefined && days >= ctx.failAfterFoldDays) throw new Error(`injected failure after folding ${days} day(s)`);
+  }
+}

@@ -17,22 +17,29 @@ export const lifeRepository = {
     );
   },
 
-  /** Per damper of the spec: km and Σ km·ln(severity) in bands of ln(severity) `1/bin` wide. */
-  damperSeverityBands(specId: number, bin: number) {
-    return q<{ damper_id: number; km: number; lns: number }>(
-      `SELECT td.damper_id, SUM(td.distance_km) AS km, SUM(td.distance_km * ln(td.severity)) AS lns FROM trip_duties td
-       WHERE td.damper_id IN (SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE v.spec_id = ?) AND td.severity > 0
-       GROUP BY td.damper_id, CAST(ROUND(ln(td.severity) * ${Number(bin)}) AS INTEGER)`,
+  /**
+   * Per damper of the spec and band of ln(severity) (1/8 wide, duty-summary.ts): km and
+   * Σ km·ln(severity) of all its duty, from the running totals kept as the duty is stored
+   * (duty-summary.ts): no history is read, and the per-trip retention window changes nothing.
+   */
+  damperSeverityBands(specId: number) {
+    return q<{ damper_id: number; band: number; km: number; lns: number }>(
+      `SELECT b.damper_id, b.severity_bin AS band, b.distance_km AS km, b.km_ln_severity AS lns FROM damper_severity_bins b
+       WHERE b.damper_id IN (SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE v.spec_id = ?)
+       ORDER BY b.damper_id, b.severity_bin`,
       [specId],
     );
   },
 
-  /** The same per vehicle corner of the spec, over every damper it has had. */
-  cornerSeverityBands(specId: number, bin: number) {
-    return q<{ vehicle_id: number; position: string; km: number; lns: number }>(
-      `SELECT td.vehicle_id, td.position, SUM(td.distance_km) AS km, SUM(td.distance_km * ln(td.severity)) AS lns FROM trip_duties td
-       WHERE td.vehicle_id IN (SELECT id FROM vehicles WHERE spec_id = ?) AND td.severity > 0
-       GROUP BY td.vehicle_id, td.position, CAST(ROUND(ln(td.severity) * ${Number(bin)}) AS INTEGER)`,
+  /**
+   * The same per vehicle corner of the spec for the duty driven with no damper fitted there (the
+   * corners' duty with a damper is the sum of their dampers' bands).
+   */
+  unfittedCornerSeverityBands(specId: number) {
+    return q<{ vehicle_id: number; position: string; band: number; km: number; lns: number }>(
+      `SELECT b.vehicle_id, b.position, b.severity_bin AS band, b.distance_km AS km, b.km_ln_severity AS lns FROM damper_severity_bins b
+       WHERE b.damper_id = 0 AND b.vehicle_id IN (SELECT id FROM vehicles WHERE spec_id = ?)
+       ORDER BY b.vehicle_id, b.position, b.severity_bin`,
       [specId],
     );
   },

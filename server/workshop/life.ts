@@ -64,23 +64,41 @@ export interface DamperLife {
   recordedKm: number;
 }
 
-const BIN = 8; // severity bins of ln(s)/8 wide: about 13 % apart
-
-/** Every damper of a spec with its life and road mix (see module doc). */
-export async function damperLives(specId: number): Promise<DamperLife[]> {
-  const [dampers, own, mix] = await Promise.all([lifeRepository.specDampers(specId), lifeRepository.damperSeverityBands(specId, BIN), lifeRepository.cornerSeverityBands(specId, BIN)]);
+/**
+ * Every damper of a spec with its life and road mix (see module doc). `read.bandRows` is added
+ * the severity totals read (the rows a refit reads besides the dampers).
+ */
+export async function damperLives(specId: number, read?: { bandRows: number }): Promise<DamperLife[]> {
+  const [dampers, own, unfitted] = await Promise.all([lifeRepository.specDampers(specId), lifeRepository.damperSeverityBands(specId), lifeRepository.unfittedCornerSeverityBands(specId)]);
+  if (read) read.bandRows += own.length + unfitted.length;
   const ownOf = new Map<number, ExposureRow[]>();
   for (const r of own) {
     if (!(r.km > 0)) continue;
     if (!ownOf.has(r.damper_id)) ownOf.set(r.damper_id, []);
     ownOf.get(r.damper_id)!.push({ km: r.km, severity: Math.exp(r.lns / r.km) });
   }
+  // each corner's mix: its dampers' bands and the duty driven with none fitted, summed per band
+  const cornerOf = new Map(dampers.map((d) => [d.id, `${d.vehicle_id}/${d.position}`]));
+  const bands = new Map<string, Map<number, { km: number; lns: number }>>();
+  const addBand = (corner: string, band: number, km: number, lns: number) => {
+    let m = bands.get(corner);
+    if (!m) bands.set(corner, (m = new Map()));
+    const b = m.get(band);
+    if (b) {
+      b.km += km;
+      b.lns += lns;
+    } else m.set(band, { km, lns });
+  };
+  for (const r of own) {
+    const corner = cornerOf.get(r.damper_id);
+    if (corner) addBand(corner, r.band, r.km, r.lns);
+  }
+  for (const r of unfitted) addBand(`${r.vehicle_id}/${r.position}`, r.band, r.km, r.lns);
   const mixOf = new Map<string, ExposureRow[]>();
-  for (const r of mix) {
-    if (!(r.km > 0)) continue;
-    const key = `${r.vehicle_id}/${r.position}`;
-    if (!mixOf.has(key)) mixOf.set(key, []);
-    mixOf.get(key)!.push({ km: r.km, severity: Math.exp(r.lns / r.km) });
+  for (const [corner, m] of bands) {
+    const list: ExposureRow[] = [];
+    for (const [, b] of [...m].sort((x, y) => x[0] - y[0])) if (b.km > 0) list.push({ km: b.km, severity: Math.exp(b.lns / b.km) });
+    if (list.length) mixOf.set(corner, list);
   }
   return dampers.map((d) => {
     const lifeKm = Math.max(0, d.end_km - d.installed_odometer_km);
@@ -101,10 +119,10 @@ export async function damperLives(specId: number): Promise<DamperLife[]> {
 const toUnit = (d: DamperLife): LifeUnit => ({ rows: d.rows, failed: d.failed, ratedKm: d.ratedKm });
 
 /** Refits every spec's life model to its dampers and stores it; returns spec id → model. */
-export async function refitLifeModels(settings: LifeSettings, now: Date): Promise<Map<number, LifeModel>> {
+export async function refitLifeModels(settings: LifeSettings, now: Date, read?: { bandRows: number }): Promise<Map<number, LifeModel>> {
   const out = new Map<number, LifeModel>();
   for (const s of await workshopRepository.specs()) {
-    const lives = await damperLives(s.id);
+    const lives = await damperLives(s.id, read);
     const m = fitLifeModel(lives.filter((d) => d.lifeKm > 0).map(toUnit), settings.prior);
     out.set(s.id, m);
     await lifeRepository.storeModel(s.id, JSON.stringify(modelToJson(m)), m.failures, m.suspensions, now);

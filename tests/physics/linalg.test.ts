@@ -190,6 +190,10 @@ describe('solveLinear and expm edges', () => {
     checkThat(errorOf(() => solveLinear(new Float64Array([0, 0, 0, 0]), new Float64Array([1, 2]), 2)) === 'physics: non-finite pivot (singular matrix of order 2) in solveLinear', 'definition', '');
     checkThat(errorOf(() => solveLinear(new Float64Array([1, Number.NaN, 0, 1]), new Float64Array([1, 2]), 2)) === 'physics: non-finite matrix entry in solveLinear', 'definition', '');
     checkThat(errorOf(() => solveLinear(new Float64Array([1, 0, 0, 1]), new Float64Array([Number.POSITIVE_INFINITY, 2]), 2)) === 'physics: non-finite solution in solveLinear', 'definition', '');
+    // [[1, 1], [1, 1 + ε]] with ε = 2⁻⁵²: its second pivot is ε ≠ 0, below 1e-15·‖A‖₁ = 1e-15·(2 + ε)
+    const eps = Number.EPSILON;
+    checkThat(1 + eps !== 1, 'IEEE 754 double: 1 + 2⁻⁵² is representable', '');
+    checkThat(errorOf(() => solveLinear(new Float64Array([1, 1, 1, 1 + eps]), new Float64Array([1, 2]), 2)) === 'physics: non-finite pivot (singular matrix of order 2) in solveLinear', 'definition: a non-zero pivot at or below 1e-15·‖A‖₁ is refused', '');
     // a small but regular pivot is accepted: diag(1, 1e-12)
     const x = solveLinear(new Float64Array([1, 0, 0, 1e-12]), new Float64Array([1, 1e-12]), 2);
     checkThat(x[0] === 1 && Math.abs(x[1] - 1) < 1e-12, 'analytic', x.join(','));

@@ -28,7 +28,14 @@ export function chromiumPath(): string {
   return file;
 }
 
+/**
+ * The browser for a test file: under vitest's browser tests a connection to the run's shared
+ * Chromium (tests/support/browser-server.ts; closing it closes only this file's contexts),
+ * elsewhere a Chromium of its own.
+ */
 export async function launchBrowser(): Promise<Browser> {
+  const shared = process.env.VITEST ? (await import('vitest')).inject('chromiumWsEndpoint') : undefined;
+  if (shared) return chromium.connect(shared);
   return chromium.launch({ executablePath: chromiumPath(), headless: true, args: CHROMIUM_ARGS });
 }
 

@@ -261,3 +261,28 @@ CREATE UNIQUE INDEX `trip_imports_file_sha256` ON `trip_imports` (`file_sha256`)
 -- after 0018-must-change-password
 
 CREATE TABLE `users` (`id` INTEGER PRIMARY KEY AUTOINCREMENT, `name` VARCHAR(120) NOT NULL, `email` VARCHAR(254) NOT NULL UNIQUE, `role` VARCHAR(16) NOT NULL, `password_hash` VARCHAR(100) NOT NULL, `active` TINYINT(1) NOT NULL DEFAULT 1, `depot_id` INTEGER REFERENCES `depots` (`id`) ON DELETE SET NULL ON UPDATE CASCADE, `created_at` DATETIME NOT NULL, `updated_at` DATETIME NOT NULL, `notify_inspection_digest` TINYINT(1) NOT NULL DEFAULT 1, `notify_ride_reports` TINYINT(1) NOT NULL DEFAULT 1, `notify_assignments` TINYINT(1) NOT NULL DEFAULT 1, `must_change_password` TINYINT(1) NOT NULL DEFAULT 0);
+
+
+-- after 0019-duty-day-summary
+
+CREATE TABLE `damper_route_totals` (`damper_id` INTEGER NOT NULL REFERENCES `dampers` (`id`) ON DELETE CASCADE ON UPDATE CASCADE, `route_id` INTEGER NOT NULL REFERENCES `routes` (`id`) ON DELETE CASCADE ON UPDATE CASCADE, `axle_index` INTEGER NOT NULL, `records` INTEGER NOT NULL, `distance_km` DOUBLE PRECISION NOT NULL, `km_severity` DOUBLE PRECISION NOT NULL, `energy_j` DOUBLE PRECISION NOT NULL, `spring_damage` DOUBLE PRECISION NOT NULL, `weighted_accel_sum` DOUBLE PRECISION NOT NULL, PRIMARY KEY (`damper_id`, `route_id`));
+
+CREATE INDEX `damper_route_totals_route_id` ON `damper_route_totals` (`route_id`);
+
+CREATE TABLE `damper_severity_bins` (`vehicle_id` INTEGER NOT NULL REFERENCES `vehicles` (`id`) ON DELETE CASCADE ON UPDATE CASCADE, `position` VARCHAR(4) NOT NULL, `damper_id` INTEGER NOT NULL, `severity_bin` INTEGER NOT NULL, `distance_km` DOUBLE PRECISION NOT NULL, `km_ln_severity` DOUBLE PRECISION NOT NULL, PRIMARY KEY (`vehicle_id`, `position`, `damper_id`, `severity_bin`));
+
+CREATE INDEX `damper_severity_bins_damper_id` ON `damper_severity_bins` (`damper_id`);
+
+-- sqlite_autoindex_damper_route_totals_1 (made by SQLite)
+
+-- sqlite_autoindex_damper_severity_bins_1 (made by SQLite)
+
+CREATE INDEX `trip_duties_trip_date_axle_index` ON `trip_duties` (`trip_date`, `axle_index`);
+
+CREATE TABLE `trip_duty_days` (`damper_id` INTEGER REFERENCES `dampers` (`id`) ON DELETE SET NULL ON UPDATE CASCADE, `vehicle_id` INTEGER NOT NULL REFERENCES `vehicles` (`id`) ON DELETE CASCADE ON UPDATE CASCADE, `position` VARCHAR(4) NOT NULL, `axle_index` INTEGER NOT NULL, `day` DATE NOT NULL, `severity_bin` INTEGER, `records` INTEGER NOT NULL, `distance_km` DOUBLE PRECISION NOT NULL, `energy_j` DOUBLE PRECISION NOT NULL, `spring_damage` DOUBLE PRECISION NOT NULL, `km_dev1` DOUBLE PRECISION NOT NULL, `km_dev2` DOUBLE PRECISION NOT NULL, `km_dev3` DOUBLE PRECISION NOT NULL, `km_dev4` DOUBLE PRECISION NOT NULL, `km_dev5` DOUBLE PRECISION NOT NULL, `km_dev6` DOUBLE PRECISION NOT NULL, `km_dev7` DOUBLE PRECISION NOT NULL);
+
+CREATE INDEX `trip_duty_days_damper_id_day` ON `trip_duty_days` (`damper_id`, `day`);
+
+CREATE INDEX `trip_duty_days_vehicle_id` ON `trip_duty_days` (`vehicle_id`);
+
+-- dropped: trip_duties_driver_id_trip_date_axle_index

@@ -219,8 +219,9 @@ describe('the wear phase stores what accumulateDays gives', () => {
     const untracked = await rows<{ id: number; opening_km: number }>(`SELECT id, opening_km FROM dampers ORDER BY id`);
     const want = new Map([[100, 15000], [101, 5000 - 9.6], [102, 5000 - 9.6], [103, 5000 - 9.6], [104, 10 - 4.8], [201, 3000 - 2.4], [202, 3000 - 2.4]]);
     for (const u of untracked) expect(u.opening_km, `damper ${u.id}`).toBeCloseTo(want.get(u.id)!, 9);
-    // seven dampers: the six driven and the removed one (no estimate yet), in chunks of two
-    expect(ctx.counts).toEqual({ dampersUpdated: 7, wearDays: 4 + 4 + 4 + 2 + 1 + 1 });
+    // seven dampers: the six driven and the removed one (no estimate yet), in chunks of two; one
+    // duty record read per wear day (one trip a day)
+    expect(ctx.counts).toEqual({ dampersUpdated: 7, wearDays: 4 + 4 + 4 + 2 + 1 + 1, wearDutyRowsRead: 4 + 4 + 4 + 2 + 1 + 1 });
     expect(progress).toEqual([['wear', 0, 7], ['wear', 2, 7], ['wear', 4, 7], ['wear', 6, 7], ['wear', 7, 7]]);
   });
 
@@ -242,8 +243,8 @@ describe('the wear phase stores what accumulateDays gives', () => {
     expect(await rows<WearDayDb>(`SELECT * FROM damper_wear_days WHERE damper_id = 101 AND day < '2026-11-28' AND day < '2026-11-24' ORDER BY day`)).toEqual(keptBefore);
     const js = await expectWearDays(101, 1, b, { cumKm: kept.cum_km, cumEnergyJ: kept.cum_energy_j, cumWearKm: kept.cum_wear_km, cumSpringDamage: kept.cum_spring_damage }, '2026-11-24');
     expect(js.map((d) => d.day)).toEqual(['2026-11-24', '2026-11-28', '2026-12-01']);
-    // only the dampers the new trips touched are recomputed (four of vehicle 1)
-    expect(wearCtx.counts).toEqual({ dampersUpdated: 4, wearDays: 12 });
+    // only the dampers the new trips touched are recomputed (four of vehicle 1), from their duty since the late trip
+    expect(wearCtx.counts).toEqual({ dampersUpdated: 4, wearDays: 12, wearDutyRowsRead: 12 });
     // and their untracked distance is revised: two more trips on record
     expect((await rows<{ opening_km: number }>(`SELECT opening_km FROM dampers WHERE id = 101`))[0].opening_km).toBeCloseTo(5000 - 6 * 2.4, 9);
   });
