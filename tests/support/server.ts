@@ -281,7 +281,10 @@ export function lateBound<T extends object>(current: () => T | undefined, what: 
     get(_, key) {
       const target = real();
       const v: unknown = Reflect.get(target, key, target);
-      return typeof v === 'function' ? (v as (...a: unknown[]) => unknown).bind(target) : v;
+      // a method it inherits is bound to it; a function it holds as a field of its own (the app's
+      // router, whose `bind` is a route method) is handed out as it is
+      if (typeof v !== 'function' || Object.prototype.hasOwnProperty.call(target, key)) return v;
+      return Function.prototype.bind.call(v, target);
     },
     has: (_, key) => Reflect.has(real(), key),
   });
@@ -295,4 +298,17 @@ export function serverForFile(): TestServer {
   });
   afterAll(() => started?.stop());
   return lateBound(() => started, 'the test server');
+}
+
+/**
+ * The demo app with a fleet manager signed in ({@link startWithManager}), started before the tests
+ * of the file, or of the `describe` it is called in, and stopped after them.
+ */
+export function managerForFile(opts: Parameters<typeof startTestServer>[0] = {}): { srv: TestServer; manager: ApiClient } {
+  let started: { srv: TestServer; manager: ApiClient } | undefined;
+  beforeAll(async () => {
+    started = await startWithManager(opts);
+  });
+  afterAll(() => started?.srv.stop());
+  return { srv: lateBound(() => started?.srv, 'the test server'), manager: lateBound(() => started?.manager, 'the manager') };
 }
