@@ -3,6 +3,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/empty-state';
 import { LoadingState } from '@/components/ui/loading-state';
+import { NewerOlder } from '@/components/ui/newer-older';
 import { Notice } from '@/components/ui/notice';
 import { Section } from '@/components/ui/section';
 import { SimpleTable, type SimpleColumn } from '@/components/ui/simple-table';
@@ -119,17 +120,7 @@ export function JobRuns() {
             ) : (
               <>
                 <SimpleTable label="Job runs" columns={columns} rows={data.items} />
-                <div className="mt-3 flex items-center gap-2 text-sm text-slate">
-                  <Button size="sm" disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
-                    Newer
-                  </Button>
-                  <Button size="sm" disabled={page * 25 >= data.total} onClick={() => setPage((p) => p + 1)}>
-                    Older
-                  </Button>
-                  <span>
-                    {formatNumber(data.total)} run{data.total === 1 ? '' : 's'}
-                  </span>
-                </div>
+                <NewerOlder page={page} pageSize={25} total={data.total} onStep={(by) => setPage((p) => p + by)} count={`${formatNumber(data.total)} run${data.total === 1 ? '' : 's'}`} />
                 <RunErrors runs={data.items} />
               </>
             )
