@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { Caution } from '@/components/ui/caution';
 import { Section } from '@/components/ui/section';
+import { SentenceList } from '@/components/ui/sentence-list';
 import { SimpleTable } from '@/components/ui/simple-table';
 import { RoughnessClassBadge } from '@/components/ui/roughness';
 import { QueryState } from '@/components/ui/query-state';
@@ -75,11 +76,7 @@ export function AdviceAssumptions({ advice, className = '' }: { advice: SpeedAdv
   return (
     <div className={`text-xs text-slate ${className}`} data-testid="speed-advice-assumptions">
       <p className="font-medium text-ink">Assumptions behind these figures</p>
-      <ul className="mt-1 list-disc pl-4">
-        {advice.assumptions.map((a) => (
-          <li key={a}>{a}</li>
-        ))}
-      </ul>
+      <SentenceList items={advice.assumptions} className="mt-1 list-disc pl-4" />
     </div>
   );
 }
