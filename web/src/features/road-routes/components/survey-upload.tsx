@@ -4,6 +4,7 @@ import { FileRefusal } from '@/components/ui/file-refusal';
 import { CsvFileField, TextField } from '@/components/ui/field';
 import { RoughnessClassBadge } from '@/components/ui/roughness';
 import { formatNumber } from '@/lib/format';
+import { useFileCheck } from '@/lib/use-file-check';
 import { useUploadSurvey, type SurveyResult } from '../api/upload-survey';
 
 export function ProfileLayoutHelp() {
@@ -18,12 +19,10 @@ export function ProfileLayoutHelp() {
 
 /** Upload a longitudinal profile: preview IRI per segment, then save it as survey observations. */
 export function SurveyUpload({ routeId, today }: { routeId: number; today: string }) {
-  const [file, setFile] = useState<File | null>(null);
   // empty: the server dates the survey today
   const [surveyedOn, setSurveyedOn] = useState('');
-  const [preview, setPreview] = useState<SurveyResult | null>(null);
-  const [saved, setSaved] = useState<number | null>(null);
   const m = useUploadSurvey(routeId);
+  const { file, report: preview, setReport: setPreview, saved, setSaved, pick } = useFileCheck<SurveyResult, number>(() => m.reset());
 
   const run = (previewOnly: boolean) => {
     if (!file) return;
@@ -45,15 +44,7 @@ export function SurveyUpload({ routeId, today }: { routeId: number; today: strin
     <div className="flex flex-col gap-3">
       <ProfileLayoutHelp />
       <div className="flex flex-wrap items-end gap-3">
-        <CsvFileField
-          label="Profile file (CSV)"
-          onPick={(f) => {
-            setFile(f);
-            setPreview(null);
-            setSaved(null);
-            m.reset();
-          }}
-        />
+        <CsvFileField label="Profile file (CSV)" onPick={pick} />
         <TextField label="Surveyed on" aside="(default today)" type="date" value={surveyedOn} max={today} onChange={(e) => setSurveyedOn(e.target.value)} />
         <Button onClick={() => run(true)} disabled={!file} busy={m.isPending && !preview}>
           Preview IRI

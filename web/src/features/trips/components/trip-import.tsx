@@ -1,9 +1,9 @@
-import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { FileRefusal } from '@/components/ui/file-refusal';
 import { CsvFileField } from '@/components/ui/field';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { formatDateTime, formatNumber } from '@/lib/format';
+import { useFileCheck } from '@/lib/use-file-check';
 import { useImportTrips, type ImportReport } from '../api/import-trips';
 
 export function TripLayoutHelp() {
@@ -22,23 +22,13 @@ export function TripLayoutHelp() {
 
 /** Check a telematics export row by row, then import all of it or nothing. */
 export function TripImport() {
-  const [file, setFile] = useState<File | null>(null);
-  const [report, setReport] = useState<ImportReport | null>(null);
-  const [done, setDone] = useState<number | null>(null);
   const m = useImportTrips();
+  const { file, report, setReport, saved: done, setSaved: setDone, pick } = useFileCheck<ImportReport, number>(() => m.reset());
   return (
     <div className="flex flex-col gap-3">
       <TripLayoutHelp />
       <div className="flex flex-wrap items-end gap-3">
-        <CsvFileField
-          label="Trip file (CSV)"
-          onPick={(f) => {
-            setFile(f);
-            setReport(null);
-            setDone(null);
-            m.reset();
-          }}
-        />
+        <CsvFileField label="Trip file (CSV)" onPick={pick} />
         <Button disabled={!file} busy={m.isPending && !report} onClick={() => file && m.mutate({ file, preview: true }, { onSuccess: (d) => setReport(d as ImportReport) })}>
           Check file
         </Button>
