@@ -3,6 +3,7 @@ import { Button } from '@/components/ui/button';
 import { FileRefusal } from '@/components/ui/file-refusal';
 import { CsvFileField, TextField } from '@/components/ui/field';
 import { RoughnessClassBadge } from '@/components/ui/roughness';
+import { ScrollTable } from '@/components/ui/scroll-table';
 import { formatNumber } from '@/lib/format';
 import { useFileCheck } from '@/lib/use-file-check';
 import { useUploadSurvey, type SurveyResult } from '../api/upload-survey';
@@ -64,30 +65,21 @@ export function SurveyUpload({ routeId, today }: { routeId: number; today: strin
           <p className="text-sm">
             {formatNumber(preview.summary.pointCount)} points every {formatNumber(preview.summary.dxM, 3)} m from {formatNumber(preview.summary.startM, 1)} m to {formatNumber(preview.summary.endM, 1)} m: IRI for {preview.summary.segmentCount} of {preview.summary.routeSegmentCount} segments. Nothing is saved until you press Save survey.
           </p>
-          <div className="mt-2 max-h-72 overflow-auto rounded-md border border-line">
-            <table className="w-full text-sm" aria-label="Survey preview">
-              <thead className="sticky top-0 bg-mist text-left">
-                <tr>
-                  <th className="px-2 py-1">Segment</th>
-                  <th className="px-2 py-1 text-right">From [km]</th>
-                  <th className="px-2 py-1 text-right">IRI [m/km]</th>
-                  <th className="px-2 py-1">Class</th>
-                  <th className="px-2 py-1">Now</th>
-                </tr>
-              </thead>
-              <tbody>
-                {preview.segments.map((s) => (
-                  <tr key={s.segmentId} className="border-t border-line">
-                    <td className="px-2 py-1">{s.seq + 1}</td>
-                    <td className="px-2 py-1 text-right tabular-nums">{formatNumber(s.startM / 1000, 2)}</td>
-                    <td className="px-2 py-1 text-right tabular-nums">{formatNumber(s.iri, 2)}</td>
-                    <td className="px-2 py-1"><RoughnessClassBadge value={s.isoClass} /></td>
-                    <td className="px-2 py-1 text-slate">{s.previous.isoClass ?? '—'}{s.previous.iri !== null ? ` (${formatNumber(s.previous.iri, 2)} m/km)` : ''}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <ScrollTable
+            label="Survey preview"
+            height="max-h-72"
+            head={[{ label: 'Segment' }, { label: 'From [km]', numeric: true }, { label: 'IRI [m/km]', numeric: true }, { label: 'Class' }, { label: 'Now' }]}
+          >
+            {preview.segments.map((s) => (
+              <tr key={s.segmentId} className="border-t border-line">
+                <td className="px-2 py-1">{s.seq + 1}</td>
+                <td className="px-2 py-1 text-right tabular-nums">{formatNumber(s.startM / 1000, 2)}</td>
+                <td className="px-2 py-1 text-right tabular-nums">{formatNumber(s.iri, 2)}</td>
+                <td className="px-2 py-1"><RoughnessClassBadge value={s.isoClass} /></td>
+                <td className="px-2 py-1 text-slate">{s.previous.isoClass ?? '—'}{s.previous.iri !== null ? ` (${formatNumber(s.previous.iri, 2)} m/km)` : ''}</td>
+              </tr>
+            ))}
+          </ScrollTable>
         </div>
       ) : null}
     </div>
