@@ -9,3 +9,22 @@ export const ROUGHNESS_SOURCE_WORDS: Record<RoughnessSource, string> = {
   stated: 'Stated by hand',
   driver_report: 'Drivers’ reports',
 };
+
+/**
+ * A route segment as the API's segment answers (the list and one segment's detail) describe it:
+ * where it lies on its route [m] and its current roughness (IRI [m/km], Gd(n0) [m³], ISO 8608
+ * class), with how and when that was found.
+ */
+export interface SegmentOnRoute {
+  id: number;
+  routeId: number;
+  routeName: string;
+  seq: number;
+  startM: number;
+  endM: number;
+  iri: number | null;
+  gdN0: number | null;
+  isoClass: string | null;
+  roughnessSource: RoughnessSource | null;
+  roughnessDate: string | null;
+}

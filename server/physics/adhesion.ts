@@ -11,6 +11,7 @@
  *
  * @module
  */
+import { goldenSectionMin } from './golden-section';
 import { cornerTransfer } from './quarter-car';
 import { STANDARD_GRAVITY, requireInRange, validateCorner, type CornerParams } from './types';
 
@@ -73,28 +74,7 @@ export function adhesionPct(c: CornerParams, opts: AdhesionOptions = {}): Adhesi
     }
   }
   // golden-section refinement of the maximum within ±1 grid step (kept inside the sweep)
-  let lo = Math.max(SWEEP_HZ.to, bestF - step);
-  let hi = Math.min(SWEEP_HZ.from, bestF + step);
-  const r = (Math.sqrt(5) - 1) / 2;
-  let x1 = hi - r * (hi - lo);
-  let x2 = lo + r * (hi - lo);
-  let g1 = tyreGain(c, x1);
-  let g2 = tyreGain(c, x2);
-  for (let i = 0; i < 40; i++) {
-    if (g1 > g2) {
-      hi = x2;
-      x2 = x1;
-      g2 = g1;
-      x1 = hi - r * (hi - lo);
-      g1 = tyreGain(c, x1);
-    } else {
-      lo = x1;
-      x1 = x2;
-      g1 = g2;
-      x2 = lo + r * (hi - lo);
-      g2 = tyreGain(c, x2);
-    }
-  }
+  const [lo, hi] = goldenSectionMin((f) => -tyreGain(c, f), Math.max(SWEEP_HZ.to, bestF - step), Math.min(SWEEP_HZ.from, bestF + step));
   const fMid = (lo + hi) / 2;
   const gMid = tyreGain(c, fMid);
   if (gMid > best) {

@@ -14,6 +14,7 @@
  *
  * @module
  */
+import { goldenSectionMin } from './golden-section';
 import { cornerTransfer, modes } from './quarter-car';
 import { requireInRange, validateCorner, type CornerParams } from './types';
 
@@ -75,28 +76,7 @@ export function phaseShift(c: CornerParams): PhaseShiftResult {
     return { minPhaseDeg: p[flat], atHz: f[flat] };
   }
   // golden-section refinement within the neighbouring grid points
-  let a = f[best - 1];
-  let b = f[best + 1];
-  const g = (Math.sqrt(5) - 1) / 2;
-  let x1 = b - g * (b - a);
-  let x2 = a + g * (b - a);
-  let p1 = phaseDeg(c, x1);
-  let p2 = phaseDeg(c, x2);
-  for (let i = 0; i < 40; i++) {
-    if (p1 < p2) {
-      b = x2;
-      x2 = x1;
-      p2 = p1;
-      x1 = b - g * (b - a);
-      p1 = phaseDeg(c, x1);
-    } else {
-      a = x1;
-      x1 = x2;
-      p1 = p2;
-      x2 = a + g * (b - a);
-      p2 = phaseDeg(c, x2);
-    }
-  }
+  const [a, b] = goldenSectionMin((x) => phaseDeg(c, x), f[best - 1], f[best + 1]);
   const fm = (a + b) / 2;
   const pm = phaseDeg(c, fm);
   return pm < p[best] ? { minPhaseDeg: pm, atHz: fm } : { minPhaseDeg: p[best], atHz: f[best] };

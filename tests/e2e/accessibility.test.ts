@@ -1,24 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, type ViewportName } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
+import type { Page } from 'playwright-core';
+import { type ViewportName } from '../support/browser';
 import { axeViolations } from '../support/axe';
-import { DEMO, goViaMenu, settled, signedInPage } from './helpers';
+import { DEMO, goViaMenu, settled, signedInPage, serverAndBrowserForFile } from './helpers';
 import { menuFor } from '../../web/src/app/navigation';
 import type { Role } from '../../web/src/lib/roles';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 /** Opens a page, waits for it to settle, and returns axe's findings prefixed with its address. */
 async function check(page: Page, path: string): Promise<string[]> {

@@ -1,26 +1,14 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import type { Browser } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
+import { screenshotPath } from '../support/browser';
 import { axeViolations } from '../support/axe';
-import { DEMO, signIn, signedInPage, openPage, freshPage } from './helpers';
+import { DEMO, signIn, signedInPage, openPage, freshPage, serverAndBrowserForFile } from './helpers';
 import { refreshExposure } from '../../server/drivers/exposure';
 
-let server: TestServer;
-let browser: Browser;
+const { server, browser } = serverAndBrowserForFile();
 
 /** A 1×1 PNG. */
 const PNG = Buffer.from('89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d4944415478da63f8cfc0f01f0005000201a0e7d6a90000000049454e44ae426082', 'hex');
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
 
 async function q<T extends object>(sql: string, replacements: unknown[] = []) {
   return server.db.sequelize.query<T>(sql, { replacements, type: QueryTypes.SELECT });

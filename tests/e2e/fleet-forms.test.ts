@@ -1,20 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, signedInPage, openPage, openDialog, fillFields } from './helpers';
+import { describe, expect, it } from 'vitest';
+import { screenshotPath } from '../support/browser';
+import { DEMO, expectHeading, expectPath, signedInPage, openPage, openDialog, fillFields, serverAndBrowserForFile } from './helpers';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 describe('vehicle and depot forms', () => {
   it('when a manager adds a vehicle and then updates its odometer, then the reading moves forward only and retiring asks first', async () => {

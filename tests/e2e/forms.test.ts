@@ -1,21 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import type { Browser } from 'playwright-core';
-import { fullPageScreenshot, launchBrowser } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, signedInPage } from './helpers';
+import { fullPageScreenshot } from '../support/browser';
+import { DEMO, signedInPage, serverAndBrowserForFile } from './helpers';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 describe('forms that speak plainly', () => {
   it('when a mechanic enters impossible test-lane values, then each field says what is wrong in one sentence, is marked, focus goes to the first, and a good save says it saved', async () => {

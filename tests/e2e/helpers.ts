@@ -1,6 +1,7 @@
-import { expect } from 'vitest';
+import { afterAll, beforeAll, expect } from 'vitest';
 import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
-import { newContext, type ViewportName } from '../support/browser';
+import { launchBrowser, newContext, type ViewportName } from '../support/browser';
+import { lateBound, startTestServer, type TestServer } from '../support/server';
 
 export const DEMO_PASSWORD = 'reboundry-demo';
 export const DEMO = {
@@ -143,4 +144,17 @@ export async function choosePassword(page: Page, temporary: string, chosen: stri
   const form = page.getByRole('form', { name: 'Choose a new password' });
   await fillFields(form, { 'Temporary password': temporary, 'New password': chosen, 'New password again': chosen });
   await form.getByRole('button', { name: 'Save new password' }).click();
+}
+
+/** The file's test server and browser, started together before its tests and closed after them. */
+export function serverAndBrowserForFile(): { server: TestServer; browser: Browser } {
+  let started: [TestServer, Browser] | undefined;
+  beforeAll(async () => {
+    started = await Promise.all([startTestServer(), launchBrowser()]);
+  });
+  afterAll(async () => {
+    await started?.[1].close();
+    await started?.[0].stop();
+  });
+  return { server: lateBound(() => started?.[0], 'the test server'), browser: lateBound(() => started?.[1], 'the browser') };
 }

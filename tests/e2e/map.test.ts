@@ -1,22 +1,11 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { screenshotPath } from '../support/browser';
 import { ApiClient } from '../support/client';
-import { DEMO, expectHeading, settled, signedInPage, openPage } from './helpers';
+import { DEMO, expectHeading, settled, signedInPage, openPage, serverAndBrowserForFile } from './helpers';
 import { ROUGHNESS_CLASSES, roughnessColours } from '../../web/src/lib/roughness';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 /**
  * A point on the screen where a road segment is drawn and nothing else: a canvas pixel whose 3×3

@@ -1,20 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, settled, signIn, freshPage } from './helpers';
+import { describe, expect, it } from 'vitest';
+import { screenshotPath } from '../support/browser';
+import { DEMO, expectHeading, expectPath, settled, signIn, freshPage, serverAndBrowserForFile } from './helpers';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 describe('nightly damper-duty run in the browser', () => {
   it('when a manager runs the job, then new due inspections, the vehicle wear and the outbox show its results', async () => {

@@ -1,20 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, choosePassword, expectHeading, expectPath, menuItems, signIn, goViaMenu, signedInPage, freshPage, submitSignIn, openDialog, fillFields } from './helpers';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { screenshotPath } from '../support/browser';
+import { DEMO, choosePassword, expectHeading, expectPath, menuItems, signIn, goViaMenu, signedInPage, freshPage, submitSignIn, openDialog, fillFields, serverAndBrowserForFile } from './helpers';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 const row = (page: Page, name: string) => page.getByRole('table', { name: /^People/ }).getByRole('row').filter({ hasText: name });
 

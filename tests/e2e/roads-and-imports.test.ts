@@ -1,24 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { screenshotPath } from '../support/browser';
 import { ApiClient } from '../support/client';
-import { DEMO, expectHeading, settled, goViaMenu, signedInPage, openPage } from './helpers';
+import { DEMO, expectHeading, settled, goViaMenu, signedInPage, openPage, serverAndBrowserForFile } from './helpers';
 import { synthesizeProfile } from '../../server/physics/iso8608';
 import { formatProfileCsv } from '../../server/roads/profile-store';
 import { roughnessColours } from '../../web/src/lib/roughness';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 /** Counts canvas pixels close to a colour inside a container (the map's canvas renderer). */
 async function pixelsOf(page: Page, container: string, hex: string): Promise<number> {

@@ -1,20 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { fullPageScreenshot, launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, goViaMenu, menuEntries, menuItems, openMenuGroup, signedInPage, openPage, freshPage } from './helpers';
+import { describe, expect, it } from 'vitest';
+import { fullPageScreenshot, screenshotPath } from '../support/browser';
+import { DEMO, expectHeading, expectPath, goViaMenu, menuEntries, menuItems, openMenuGroup, signedInPage, openPage, freshPage, serverAndBrowserForFile } from './helpers';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 /** The manager's menu groups and the pages in each, with where they go. */
 const MANAGER_GROUPS: Record<string, [label: string, path: string][]> = {

@@ -1,20 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { fullPageScreenshot, launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, menuItems, signedInPage, openPage } from './helpers';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { fullPageScreenshot, screenshotPath } from '../support/browser';
+import { DEMO, expectHeading, expectPath, menuItems, signedInPage, openPage, serverAndBrowserForFile } from './helpers';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 interface RouteDetailBody {
   route: { id: number; name: string; lengthM: number; defaultSpeedKmh: number };

@@ -1,20 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, DEMO_PASSWORD, choosePassword, expectHeading, expectPath, settled, signIn, goViaMenu, signedInPage, freshPage, submitSignIn } from './helpers';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { screenshotPath } from '../support/browser';
+import { DEMO, DEMO_PASSWORD, choosePassword, expectHeading, expectPath, settled, signIn, goViaMenu, signedInPage, freshPage, submitSignIn, serverAndBrowserForFile } from './helpers';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 /** The ids an element's aria-describedby points at, resolved to their text. */
 async function description(page: Page, label: string): Promise<string> {

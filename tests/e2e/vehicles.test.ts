@@ -1,21 +1,12 @@
 import fs from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, type TestServer } from '../support/server';
-import { DEMO, expectHeading, expectPath, goViaMenu, signedInPage } from './helpers';
+import os from 'node:os';
+import path from 'node:path';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { screenshotPath } from '../support/browser';
+import { DEMO, expectHeading, expectPath, goViaMenu, signedInPage, serverAndBrowserForFile } from './helpers';
 
-let server: TestServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const { server, browser } = serverAndBrowserForFile();
 
 const table = (page: Page) => page.getByRole('table', { name: /^Vehicles/ });
 
@@ -119,7 +110,12 @@ describe('vehicles table', () => {
     expect(await link.innerText()).toBe(`Download CSV of all ${totalText} matching rows`);
     const [download] = await Promise.all([page.waitForEvent('download'), link.click()]);
     expect(download.suggestedFilename()).toMatch(/^reboundry-vehicles-\d{4}-\d{2}-\d{2}\.csv$/);
-    const csv = fs.readFileSync((await download.path())!, 'utf8').replace(/^\ufeff/, '');
+    // a copy of the file: the shared Chromium of the browser run is remote, so the download has no local path
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-download-'));
+    const saved = path.join(dir, download.suggestedFilename());
+    await download.saveAs(saved);
+    const csv = fs.readFileSync(saved, 'utf8').replace(/^\ufeff/, '');
+    fs.rmSync(dir, { recursive: true, force: true });
     const lines = csv.trim().split(/\r\n/);
     expect(lines[0]).toBe('Fleet number,Plate,Status,Spec,Depot,Driver,Odometer (km)');
     expect(lines).toHaveLength(total + 1);

@@ -1,20 +1,17 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import { launchBrowser, screenshotPath } from '../support/browser';
-import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
+import { screenshotPath } from '../support/browser';
+import { TEST_NOW } from '../support/server';
 import { run as runNightly } from '../../jobs/nightly';
 import { axeViolations } from '../support/axe';
-import { DEMO, expectHeading, signedInPage, openPage } from './helpers';
+import { DEMO, expectHeading, signedInPage, openPage, serverAndBrowserForFile } from './helpers';
 
-let server: TestServer;
-let browser: Browser;
+const { server, browser } = serverAndBrowserForFile();
 
 /** A 1×1 PNG (the smallest valid image; the server refuses an image cut off before its end). */
 const PNG = Buffer.from('89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d4944415478da63f8cfc0f01f0005000201a0e7d6a90000000049454e44ae426082', 'hex');
 
 beforeAll(async () => {
-  [server, browser] = await Promise.all([startTestServer(), launchBrowser()]);
   // Arrange a front pair near the end of its life whatever the demo roads: the busiest courier van
   // has 88 000 km on the odometer since its front dampers were fitted (of a life near 90 000 km),
   // most of it before the trips on record, which the nightly run charges as the dampers' opening wear.
@@ -29,11 +26,6 @@ beforeAll(async () => {
   const r = await runNightly({ db: server.db, config: server.config, log: server.log, mailer: server.mailer, now: TEST_NOW, trigger: 'test' });
   expect(r.status).toBe('succeeded');
 }, 120_000);
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
 describe('workshop', () => {
   it('when a mechanic records an inspection with a photo and a replacement, then the manager sees the vehicle state and the forecast change', async () => {
     // Arrange: a vehicle whose dampers are in the 90-day forecast gets an open inspection (demo data has none for it).

@@ -1,14 +1,11 @@
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { startTestServer, TEST_NOW } from '../support/server';
-import { cleanRun, count, diffTables, dump, NIGHTLY_TEST_ENV, type CleanRun } from '../support/nightly';
+import { cleanRunForFile, count, diffTables, dump, NIGHTLY_TEST_ENV } from '../support/nightly';
 import { run } from '../../jobs/nightly';
 
 /** A nightly run cancelled while it writes wear history or predictions, then run again, ends with the tables of one clean run. */
 
-let ref: CleanRun;
-beforeAll(async () => {
-  ref = await cleanRun();
-}, 240_000);
+const ref = cleanRunForFile();
 
 describe('nightly job crash safety, by phase', () => {
   it('when a run is cancelled while it writes wear history or predictions and run again, then the tables equal those of one clean run', async () => {

@@ -1,15 +1,12 @@
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { startTestServer, TEST_NOW } from '../support/server';
-import { cleanRun, count, diffTables, dump, NIGHTLY_TEST_ENV, type CleanRun } from '../support/nightly';
+import { cleanRunForFile, count, diffTables, dump, NIGHTLY_TEST_ENV } from '../support/nightly';
 import { run } from '../../jobs/nightly';
 import { ApiClient, DEMO } from '../support/client';
 
 /** A nightly run that fails or is cancelled, then run again, ends with the tables of one clean run. */
 
-let ref: CleanRun;
-beforeAll(async () => {
-  ref = await cleanRun();
-}, 240_000);
+const ref = cleanRunForFile();
 
 describe('nightly job crash safety', () => {
   it('when a run fails after one batch and is run again, then the tables equal those of one clean run', async () => {

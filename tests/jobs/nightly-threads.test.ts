@@ -1,14 +1,11 @@
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { startTestServer, TEST_NOW } from '../support/server';
-import { cleanRun, diffTables, dump, NIGHTLY_TEST_ENV, type CleanRun } from '../support/nightly';
+import { cleanRunForFile, diffTables, dump, NIGHTLY_TEST_ENV } from '../support/nightly';
 import { run } from '../../jobs/nightly';
 
 /** The nightly job's duty computed on its own thread and on worker threads gives the same tables. */
 
-let ref: CleanRun;
-beforeAll(async () => {
-  ref = await cleanRun();
-}, 240_000);
+const ref = cleanRunForFile();
 
 describe('nightly job threads', () => {
   // The reference ran on the default `auto` setting: at least one worker thread computes the duty.

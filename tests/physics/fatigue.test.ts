@@ -18,6 +18,21 @@ const bandSpectrum = (centre: number, width: number, points = 2001): { f: number
 };
 
 /** The ASTM E1049-85 §5.4.4 worked example (Fig. 6 / Table 4). */
+/**
+ * A spectrum of two Cauchy-shaped peaks, each `height / (1 + ((f − at) / width)²)` and the first of
+ * height 1, at the n + 1 frequencies `freqAt(0)` … `freqAt(n)` [Hz].
+ */
+const twoPeaks = (n: number, freqAt: (i: number) => number, first: { at: number; width: number }, second: { height: number; at: number; width: number }) => {
+  const f: number[] = [];
+  const g: number[] = [];
+  for (let i = 0; i <= n; i++) {
+    const x = freqAt(i);
+    f.push(x);
+    g.push(1 / (1 + ((x - first.at) / first.width) ** 2) + second.height / (1 + ((x - second.at) / second.width) ** 2));
+  }
+  return { f, g };
+};
+
 const ASTM = [-2, 1, -3, 5, -1, 3, -4, 4, -2];
 
 /** Cycles as sorted "range/mean/count" words, for comparing counts regardless of order. */
@@ -194,13 +209,7 @@ describe('spectral fatigue (Dirlik, narrow band)', () => {
   });
 
   it('when a PSD is scaled in level or stretched in frequency, then γ, xm, D1, D2, D3, Q, R stay and the peak rate scales with the frequency (property: Dirlik parameters are dimensionless)', () => {
-    const f: number[] = [];
-    const g: number[] = [];
-    for (let i = 0; i <= 400; i++) {
-      const x = 0.5 + i * 0.05;
-      f.push(x);
-      g.push(1 / (1 + ((x - 2) / 0.5) ** 2) + 0.3 / (1 + ((x - 12) / 2) ** 2));
-    }
+    const { f, g } = twoPeaks(400, (i) => 0.5 + i * 0.05, { at: 2, width: 0.5 }, { height: 0.3, at: 12, width: 2 });
     const base = dirlikParams(spectralMoments(f, g));
     const level = dirlikParams(spectralMoments(f, g.map((v) => 7 * v)));
     const stretched = dirlikParams(spectralMoments(f.map((v) => 3 * v), g.map((v) => v / 3)));
@@ -215,13 +224,7 @@ describe('spectral fatigue (Dirlik, narrow band)', () => {
   });
 
   it('when the Dirlik damage is computed for k = 2, then it is ν_p·T/C·E[S²] with the density\'s second moment (computed numerically)', () => {
-    const f: number[] = [];
-    const g: number[] = [];
-    for (let i = 0; i <= 800; i++) {
-      const x = 0.1 + i * 0.025;
-      f.push(x);
-      g.push(1 / (1 + ((x - 1.5) / 0.4) ** 2) + 0.5 / (1 + ((x - 15) / 1) ** 2));
-    }
+    const { f, g } = twoPeaks(800, (i) => 0.1 + i * 0.025, { at: 1.5, width: 0.4 }, { height: 0.5, at: 15, width: 1 });
     const m = spectralMoments(f, g);
     const p = dirlikParams(m);
     const sMax = 30 * Math.sqrt(m.m0);
@@ -271,13 +274,7 @@ describe('spectral fatigue (Dirlik, narrow band)', () => {
   });
 
   it('when the Dirlik density of a broad two-peak spectrum is integrated, then it integrates to 1 and its k-th moment matches the closed form (computed, docs/methods.md "Duty, cycles and fatigue")', () => {
-    const f: number[] = [];
-    const g: number[] = [];
-    for (let i = 0; i <= 4000; i++) {
-      const x = 0.05 + (i * 20) / 4000;
-      f.push(x);
-      g.push(1 / (1 + ((x - 1.2) / 0.3) ** 2) + 0.2 / (1 + ((x - 11) / 1.5) ** 2));
-    }
+    const { f, g } = twoPeaks(4000, (i) => 0.05 + (i * 20) / 4000, { at: 1.2, width: 0.3 }, { height: 0.2, at: 11, width: 1.5 });
     const m = spectralMoments(f, g);
     const p = dirlikParams(m);
     checkThat(p.gamma < 0.8, 'computed', `broad-band spectrum expected, γ = ${p.gamma}`);

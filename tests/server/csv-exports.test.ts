@@ -1,14 +1,11 @@
 import { parse } from 'csv-parse/sync';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startWithManager, type TestServer } from '../support/server';
+import { describe, expect, it } from 'vitest';
+import { managerForFile } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 
 /** The CSV exports of the five lists: every matching row, the list's filters, sort, roles and scope. */
 
-let srv: TestServer;
-let manager: ApiClient;
-beforeAll(async () => ({ srv, manager } = await startWithManager()));
-afterAll(() => srv?.stop());
+const { srv, manager } = managerForFile();
 
 async function exportOf(c: ApiClient, path: string) {
   const res = await c.raw('GET', path);

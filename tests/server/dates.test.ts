@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { isoDay, isRealDay, parseIsoDateTime } from '../../server/http/validate';
-import { startTestServer, type TestServer } from '../support/server';
+import { managerForFile } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 
 describe('the date schema', () => {
@@ -27,14 +27,7 @@ describe('the date schema', () => {
 });
 
 describe('impossible dates at the API', () => {
-  let srv: TestServer;
-  let manager: ApiClient;
-  beforeAll(async () => {
-    srv = await startTestServer();
-    manager = new ApiClient(srv.url);
-    await manager.login(DEMO.manager);
-  });
-  afterAll(() => srv?.stop());
+  const { srv, manager } = managerForFile();
   type Err = { error: { fields: Record<string, string> } };
 
   it('when the nightly run is asked for 2026-02-31 or a day after today, then 400 and no run starts', async () => {

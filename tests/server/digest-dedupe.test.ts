@@ -1,12 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { queueDigests, registerDigestSection } from '../../server/mail/service';
-import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
+import { serverForFile, TEST_NOW } from '../support/server';
 
-let srv: TestServer;
-beforeAll(async () => {
-  srv = await startTestServer();
-});
-afterAll(() => srv?.stop());
+const srv = serverForFile();
 
 describe('two digests on one day', () => {
   it('when a second digest on the same day covers different items, then it is queued too (the key holds a hash of the items), and the same items again queue nothing', async () => {

@@ -1,13 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import { startTestServer, TEST_NOW, type TestServer } from '../support/server';
+import { serverForFile, TEST_NOW } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 
-let srv: TestServer;
-beforeAll(async () => {
-  srv = await startTestServer();
-});
-afterAll(() => srv?.stop());
+const srv = serverForFile();
 
 describe('routes of the vehicles due', () => {
   it('when the due list is read, then each vehicle carries the routes it drove in the 90 days before today, and none from earlier', async () => {

@@ -1,13 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startWithManager, type TestServer } from '../support/server';
-import { ApiClient, DEMO } from '../support/client';
+import { describe, expect, it } from 'vitest';
+import { managerForFile } from '../support/server';
+import { DEMO } from '../support/client';
 import { modes } from '../../server/physics/quarter-car';
 import { PRESETS, checkCorner } from '../../server/fleet/spec-checks';
 
-let srv: TestServer;
-let manager: ApiClient;
-beforeAll(async () => ({ srv, manager } = await startWithManager()));
-afterAll(() => srv?.stop());
+const { srv, manager } = managerForFile();
 
 async function count(table: string) {
   const [rows] = await srv.db.sequelize.query(`SELECT COUNT(*) AS n FROM ${table}`);

@@ -1,12 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startWithManager, type TestServer } from '../support/server';
+import { describe, expect, it } from 'vitest';
+import { managerForFile } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 import { modes } from '../../server/physics/quarter-car';
 
-let srv: TestServer;
-let manager: ApiClient;
-beforeAll(async () => ({ srv, manager } = await startWithManager()));
-afterAll(() => srv?.stop());
+const { srv, manager } = managerForFile();
 
 interface VehicleItem {
   id: number;

@@ -1,9 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { contentLength } from '../../server/http/file-end';
 import { hasHiddenChars } from '../../server/http/validate';
 import { synthesizeProfile } from '../../server/physics/iso8608';
 import { formatProfileCsv, parseProfileCsv } from '../../server/roads/profile-store';
-import { startTestServer, type TestServer } from '../support/server';
+import { managerForFile } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 
 /** A 1×1 PNG (the smallest valid image). */
@@ -38,14 +38,7 @@ describe('hidden characters in names', () => {
 });
 
 describe('input at the API', () => {
-  let srv: TestServer;
-  let manager: ApiClient;
-  beforeAll(async () => {
-    srv = await startTestServer();
-    manager = new ApiClient(srv.url);
-    await manager.login(DEMO.manager);
-  });
-  afterAll(() => srv?.stop());
+  const { srv, manager } = managerForFile();
   type Err = { error: { code: string; fields?: Record<string, string> } };
 
   it('when an address has a malformed %-escape, then 400 (not 500)', async () => {

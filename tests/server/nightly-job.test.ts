@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { startTestServer, type TestServer } from '../support/server';
 import { count, diffTables, dump, NIGHTLY_TEST_ENV } from '../support/nightly';
+import { dailyDutyByHand } from '../support/duty-days';
 import { ApiClient, DEMO } from '../support/client';
 import { sqlDate, wearDayFromDb, wearRepository, type WearDayDb } from '../../server/wear/repository';
 import { accumulateDays, daysBetween, levelsOf, predictionWindow, summarizeWear, type WearDayRow } from '../../server/wear/wear';
@@ -247,20 +248,7 @@ describe('prediction inputs', () => {
       const [{ b }] = await A.db.sequelize.query<{ b: number }>(`SELECT wear_exponent AS b FROM dampers WHERE id = ?`, { replacements: [c.id], type: QueryTypes.SELECT });
       expect(b, `damper ${c.id} road sensitivity`).toBeGreaterThan(0);
       const stored = (await A.db.sequelize.query<WearDayDb>(`SELECT * FROM damper_wear_days WHERE damper_id = ? ORDER BY day`, { replacements: [c.id], type: QueryTypes.SELECT })).map((r) => wearDayFromDb(r, 1e5, c.corner.dampingNsPerM));
-      const trips = await A.db.sequelize.query<{ day: string; km: number; e: number; f: number; s: number }>(
-        `SELECT trip_date AS day, distance_km AS km, energy_j AS e, spring_damage AS f, severity AS s FROM trip_duties WHERE damper_id = ? ORDER BY trip_date, trip_id`,
-        { replacements: [c.id], type: QueryTypes.SELECT },
-      );
-      const byDay = new Map<string, { day: string; distanceKm: number; energyJ: number; springDamage: number; wearKm: number }>();
-      for (const t of trips) {
-        const d = byDay.get(t.day) ?? { day: t.day, distanceKm: 0, energyJ: 0, springDamage: 0, wearKm: 0 };
-        d.distanceKm += t.km;
-        d.energyJ += t.e;
-        d.springDamage += t.f;
-        d.wearKm += t.km * Math.pow(t.s, b);
-        byDay.set(t.day, d);
-      }
-      const js = accumulateDays({ damperId: c.id, vehicleId: c.vehicleId }, null, [...byDay.values()], 1e5, c.corner.dampingNsPerM);
+      const js = accumulateDays({ damperId: c.id, vehicleId: c.vehicleId }, null, await dailyDutyByHand(A.db.sequelize, c.id, b), 1e5, c.corner.dampingNsPerM);
       expect(stored.map((d) => d.day), `damper ${c.id}`).toEqual(js.map((d) => d.day));
       const close = (x: number, y: number) => Math.abs(x - y) <= 1e-9 * Math.max(Math.abs(x), Math.abs(y), 1e-300);
       stored.forEach((d, i) => {

@@ -1,13 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestServer, type TestServer } from '../support/server';
+import { describe, expect, it } from 'vitest';
+import { serverForFile } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 import { tripFile } from '../bench/sections/server';
 
-let srv: TestServer;
-beforeAll(async () => {
-  srv = await startTestServer();
-});
-afterAll(() => srv?.stop());
+const srv = serverForFile();
 
 describe('the server stays responsive', () => {
   it('when a 10 000-row trip file is imported, then no health check waits more than a fifth of the import for its answer', async () => {

@@ -1,8 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startWithManager, type TestServer } from '../support/server';
-import { ApiClient } from '../support/client';
+import { describe, expect, it } from 'vitest';
+import { managerForFile } from '../support/server';
 import { iriSegments, gdFromIri, iriFromGd } from '../../server/physics/iri';
 import { classifyGd, synthesizeProfile } from '../../server/physics/iso8608';
 import { formatProfileCsv, loadSurveyProfile, parseProfileCsv } from '../../server/roads/profile-store';
@@ -10,10 +9,7 @@ import { pickCurrent } from '../../server/roads/current-roughness';
 import { mapConfigOf } from '../../server/roads/routes';
 import { loadConfig } from '../../server/config';
 
-let srv: TestServer;
-let manager: ApiClient;
-beforeAll(async () => ({ srv, manager } = await startWithManager()));
-afterAll(() => srv?.stop());
+const { srv, manager } = managerForFile();
 
 const TABLES = ['routes', 'route_segments', 'roughness_observations', 'road_surveys'];
 async function counts() {

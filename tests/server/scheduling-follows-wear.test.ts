@@ -11,7 +11,8 @@ import { inspectionRepository } from '../../server/inspections/repository';
  * Scheduling that follows the wear, through the API on the demo fleet after one nightly run:
  * the follow-up date a "check again soon" verdict sets (validated), the follow-up the next run
  * books for it, predictions recomputed at once when results or work are saved, and the due
- * list sorted by life used. The rules themselves are unit-tested in tests/server/inspections/schedule.test.ts.
+ * list sorted by life used. The rules themselves are unit-tested in
+ * tests/server/inspections/schedule.test.ts and schedule-basis.test.ts.
  */
 
 interface Corner { damperId: number; position: string; axleIndex: number; lifeUsedFraction: number; nominalNsPerM: number; endOfLifeDate: string | null }

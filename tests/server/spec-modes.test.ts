@@ -1,12 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestServer, type TestServer } from '../support/server';
+import { describe, expect, it } from 'vitest';
+import { serverForFile } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 
-let srv: TestServer;
-beforeAll(async () => {
-  srv = await startTestServer();
-});
-afterAll(() => srv?.stop());
+const srv = serverForFile();
 
 type Modes = { bodyHz: number; bodyDampingRatio: number; wheelHz: number; wheelDampingRatio: number };
 type Axle = { label: string; corner: Record<string, number>; ratedDamperLifeKm: number; modes: Modes };

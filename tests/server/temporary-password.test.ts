@@ -1,5 +1,5 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startWithManager, type TestServer } from '../support/server';
+import { describe, expect, it } from 'vitest';
+import { managerForFile } from '../support/server';
 import { ApiClient, DEMO } from '../support/client';
 
 /**
@@ -7,8 +7,6 @@ import { ApiClient, DEMO } from '../support/client';
  * owner chooses their own, the API answers only who is signed in, the form token, the password
  * change, sign-in and sign-out.
  */
-let srv: TestServer;
-let manager: ApiClient;
 
 interface ErrorBody {
   error: { code: string; message: string; fields?: Record<string, string> };
@@ -17,8 +15,7 @@ interface Me {
   user: { id: number; email: string; mustChangePassword: boolean };
 }
 
-beforeAll(async () => ({ srv, manager } = await startWithManager({ auth: { loginLimitPerPair: 1000, loginLimitPerAddress: 1000 } })));
-afterAll(() => srv?.stop());
+const { srv, manager } = managerForFile({ auth: { loginLimitPerPair: 1000, loginLimitPerAddress: 1000 } });
 
 /** A driver account whose temporary password is already replaced by `password`, as after a first sign-in. */
 async function settledDriver(email: string, password: string) {

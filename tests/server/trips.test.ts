@@ -1,11 +1,7 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startWithManager, type TestServer } from '../support/server';
-import { ApiClient } from '../support/client';
+import { describe, expect, it } from 'vitest';
+import { managerForFile } from '../support/server';
 
-let srv: TestServer;
-let manager: ApiClient;
-beforeAll(async () => ({ srv, manager } = await startWithManager()));
-afterAll(() => srv?.stop());
+const { srv, manager } = managerForFile();
 
 async function tripCount() {
   const [rows] = await srv.db.sequelize.query('SELECT COUNT(*) AS n FROM trips');

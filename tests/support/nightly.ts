@@ -10,7 +10,8 @@ import path from 'node:path';
 import { QueryTypes } from 'sequelize';
 import type { Db } from '../../server/db';
 import { selectRows } from '../../server/db/raw';
-import { buildOnce, codeHash, defaultTestDatabase, NIGHTLY_TEST_ENV, startTestServer, type TestDatabase } from './server';
+import { beforeAll } from 'vitest';
+import { buildOnce, codeHash, defaultTestDatabase, lateBound, NIGHTLY_TEST_ENV, startTestServer, type TestDatabase } from './server';
 
 /** Tables and columns that legitimately differ between two databases holding the same state. */
 const SKIP_TABLES = new Set(['sessions', 'job_runs', 'job_locks', 'caught_mail', 'schema_migrations', 'sqlite_sequence']);
@@ -162,4 +163,13 @@ export async function cleanRun(database: TestDatabase = defaultTestDatabase()): 
     }
   });
   return JSON.parse(fs.readFileSync(path.join(dir, 'reference.json'), 'utf8')) as CleanRun;
+}
+
+/** The {@link cleanRun} a test file compares against, read before its tests (waiting, if need be, for the file that dumps it). */
+export function cleanRunForFile(): CleanRun {
+  let ref: CleanRun | undefined;
+  beforeAll(async () => {
+    ref = await cleanRun();
+  }, 240_000);
+  return lateBound(() => ref, 'the clean run');
 }

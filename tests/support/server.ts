@@ -3,7 +3,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
-import { inject } from 'vitest';
+import { afterAll, beforeAll, inject } from 'vitest';
 import { Sequelize } from 'sequelize';
 import { loadConfig } from '../../server/config';
 import { createApp, type AppDeps } from '../../server/app';
@@ -264,4 +264,51 @@ export async function startWithManager(opts: Parameters<typeof startTestServer>[
   const manager = new ApiClient(srv.url);
   await manager.login(DEMO.manager);
   return { srv, manager };
+}
+
+/**
+ * Stands for a value a file's `beforeAll` has yet to make, so the file can name it once at the
+ * top (`const srv = serverForFile()`) instead of declaring it and assigning it in a hook. Methods
+ * are bound to the real value; reading it before it is made fails with `what` in the message.
+ */
+export function lateBound<T extends object>(current: () => T | undefined, what: string): T {
+  const real = (): T => {
+    const v = current();
+    if (v === undefined) throw new Error(`${what} is not started yet: read it inside a test or hook`);
+    return v;
+  };
+  return new Proxy({} as T, {
+    get(_, key) {
+      const target = real();
+      const v: unknown = Reflect.get(target, key, target);
+      // a method it inherits is bound to it; a function it holds as a field of its own (the app's
+      // router, whose `bind` is a route method) is handed out as it is
+      if (typeof v !== 'function' || Object.prototype.hasOwnProperty.call(target, key)) return v;
+      return Function.prototype.bind.call(v, target);
+    },
+    has: (_, key) => Reflect.has(real(), key),
+  });
+}
+
+/** The file's own test server (`startTestServer()`), started before its tests and stopped after them. */
+export function serverForFile(): TestServer {
+  let started: TestServer | undefined;
+  beforeAll(async () => {
+    started = await startTestServer();
+  });
+  afterAll(() => started?.stop());
+  return lateBound(() => started, 'the test server');
+}
+
+/**
+ * The demo app with a fleet manager signed in ({@link startWithManager}), started before the tests
+ * of the file, or of the `describe` it is called in, and stopped after them.
+ */
+export function managerForFile(opts: Parameters<typeof startTestServer>[0] = {}): { srv: TestServer; manager: ApiClient } {
+  let started: { srv: TestServer; manager: ApiClient } | undefined;
+  beforeAll(async () => {
+    started = await startWithManager(opts);
+  });
+  afterAll(() => started?.srv.stop());
+  return { srv: lateBound(() => started?.srv, 'the test server'), manager: lateBound(() => started?.manager, 'the manager') };
 }

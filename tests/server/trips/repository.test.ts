@@ -2,7 +2,8 @@
 // March 2024, January 2027 and 2023 where the demo has none (its trips run from 2026-10-01 to
 // 2026-11-29): the lookups, overlaps at their edges, the import by file hash, the insert in slices
 // with its check inside the transaction, the list's filters, day edges, sorts and paging, and the
-// recent payloads of a spec. The rules using them are in tests/server/trips/service.test.ts.
+// recent payloads of a spec. The rules using them are in tests/server/trips/service.test.ts and
+// tests/server/trips/file-report.test.ts.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes, Transaction, type Sequelize } from 'sequelize';
 import { tripsRepository, type TripInput } from '../../../server/trips/repository';

@@ -2,7 +2,7 @@
 // query rules, the CSV export's columns and file name in the app's time zone, one trip entered by
 // hand with each field's rule and its edges, and the import with and without preview. The same
 // routes in the whole app (sign-in, CSRF) are in tests/server/trips.test.ts; the rules behind them in
-// tests/server/trips/service.test.ts.
+// tests/server/trips/service.test.ts and tests/server/trips/file-report.test.ts.
 import { parse as parseCsv } from 'csv-parse/sync';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes, type Sequelize } from 'sequelize';

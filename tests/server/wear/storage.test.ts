@@ -8,6 +8,7 @@
 import { afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import type { Db } from '../../../server/db';
+import { dailyDutyByHand } from '../../support/duty-days';
 import { AS_OF, AXLES, BEFORE, FRONT, insert, NOW, PROFILE, REAR, STAMP, TRIPS, TZ, wearFleetTemplate } from '../../support/wear-fleet';
 import { computeVehicleDuty, DutyCache, dutyRow, TRIP_DUTY_COLUMNS, type DamperSpan, type TripInput } from '../../../server/wear/duty';
 import type { DatedRoute } from '../../../server/wear/roughness-as-of';
@@ -158,30 +159,12 @@ describe('the duty phase stores what the pure duty computes', () => {
   });
 });
 
-/** Each damper's daily duty summed by hand from its stored duty rows, wear km Σ km·severity^b. */
-async function dailyDuty(damperId: number, b: number) {
-  const trips = await rows<{ day: string; km: number; e: number; f: number; s: number }>(
-    `SELECT trip_date AS day, distance_km AS km, energy_j AS e, spring_damage AS f, severity AS s FROM trip_duties WHERE damper_id = ? ORDER BY trip_date, trip_id`,
-    [damperId],
-  );
-  const byDay = new Map<string, { day: string; distanceKm: number; energyJ: number; springDamage: number; wearKm: number }>();
-  for (const t of trips) {
-    const d = byDay.get(t.day) ?? { day: t.day, distanceKm: 0, energyJ: 0, springDamage: 0, wearKm: 0 };
-    d.distanceKm += t.km;
-    d.energyJ += t.e;
-    d.springDamage += t.f;
-    d.wearKm += t.km * Math.pow(t.s, b);
-    byDay.set(t.day, d);
-  }
-  return [...byDay.values()];
-}
-
 const SUM_KEYS = ['distanceKm', 'energyJ', 'springDamage', 'wearKm', 'cumKm', 'cumEnergyJ', 'cumWearKm', 'cumSpringDamage'] as const;
 
 async function expectWearDays(damperId: number, vehicleId: number, b: number, start: { cumKm: number; cumEnergyJ: number; cumWearKm: number; cumSpringDamage: number } | null, fromDay = '') {
   const stored = (await rows<WearDayDb>(`SELECT * FROM damper_wear_days WHERE damper_id = ? ORDER BY day`, [damperId])).map((r) => wearDayFromDb(r, 1e5, 1000));
   const prev = start ? { ...start, damperId, vehicleId, day: '', distanceKm: 0, energyJ: 0, springDamage: 0, wearKm: 0, lifeWearKm: 1e5, lifeUsedFraction: 0, dampingNsPerM: 1000 } : null;
-  const js = accumulateDays({ damperId, vehicleId }, prev, (await dailyDuty(damperId, b)).filter((d) => d.day >= fromDay), 1e5, 1000);
+  const js = accumulateDays({ damperId, vehicleId }, prev, (await dailyDutyByHand(db.sequelize, damperId, b)).filter((d) => d.day >= fromDay), 1e5, 1000);
   const got = stored.filter((d) => d.day >= fromDay);
   expect(got.map((d) => d.day), `damper ${damperId}`).toEqual(js.map((d) => d.day));
   got.forEach((d, i) => {

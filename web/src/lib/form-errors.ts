@@ -1,4 +1,5 @@
-import type { $ZodError } from 'zod/v4/core';
+import type { $ZodError, $ZodType, output } from 'zod/v4/core';
+import { safeParse } from 'zod/v4/core';
 import { isApiError } from './api-client';
 
 /**
@@ -58,4 +59,31 @@ export function focusFirstError(form: HTMLFormElement | null, errors: FieldError
       return;
     }
   }
+}
+
+/** Shows `errors` on the form's fields (`show`, with {} to clear them) and puts focus on the first field at fault. */
+export function showFieldErrors(form: HTMLFormElement | null, errors: FieldErrors, show: (errors: FieldErrors) => void) {
+  show(errors);
+  focusFirstError(form, errors);
+}
+
+/**
+ * A form's values checked by the zod schema the server parses them with: the parsed data, with
+ * the fields' errors cleared; or null, with each field's first problem shown as a sentence with
+ * its label and focus on the first field at fault.
+ */
+export function checkedFormValues<S extends $ZodType>(
+  schema: S,
+  values: unknown,
+  labels: Record<string, string>,
+  form: HTMLFormElement | null,
+  show: (errors: FieldErrors) => void,
+): output<S> | null {
+  const parsed = safeParse(schema, values);
+  if (!parsed.success) {
+    showFieldErrors(form, zodFieldErrors(parsed.error, labels), show);
+    return null;
+  }
+  show({});
+  return parsed.data;
 }

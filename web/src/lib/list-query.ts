@@ -12,3 +12,14 @@ export function pagedList<P extends ListParams, T>(path: string, keyOf: (params:
   const useList = (params: P) => useQuery(options(params));
   return { get, options, useList };
 }
+
+/**
+ * A list endpoint short enough to fetch whole (a fleet's depots, its specs): one page of the
+ * largest size holds it all. Its fetcher, its query options (kept fresh for `staleMs`) and its hook.
+ */
+export function wholeList<T>(path: string, key: QueryKey, staleMs: number) {
+  const get = (signal?: AbortSignal) => api.get<ListResponse<T>>(path, { query: { pageSize: 200 }, signal });
+  const options = () => queryOptions({ queryKey: key, queryFn: ({ signal }) => get(signal), staleTime: staleMs });
+  const useList = () => useQuery(options());
+  return { get, options, useList };
+}

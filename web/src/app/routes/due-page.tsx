@@ -1,13 +1,13 @@
 import { lazy, Suspense, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { ButtonLink } from '@/components/ui/button';
-import { ErrorState } from '@/components/ui/error-state';
 import { FigureCard } from '@/components/ui/figure-card';
 import { LoadingState } from '@/components/ui/loading-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { SelectField } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { StatusShape } from '@/components/ui/status-badge';
+import { QueryState } from '@/components/ui/query-state';
 import { useDepots } from '@/features/depots/api/get-depots';
 import { useDueInspections, type DueSort } from '@/features/inspections/api/get-due-inspections';
 import { DueInspectionsList } from '@/features/inspections/components/due-inspections';
@@ -79,17 +79,17 @@ export function DuePage() {
         </div>
         {due.data ? <p className="text-sm text-slate">As of {due.data.today}.</p> : null}
       </div>
-      {due.isPending ? (
-        <LoadingState label="Loading due inspections…" />
-      ) : due.error ? (
-        <ErrorState error={due.error} what="the due inspections" onRetry={() => void due.refetch()} />
-      ) : mode === 'map' ? (
-        <Suspense fallback={<LoadingState label="Loading the map…" />}>
-          <DueMap items={due.data.items} roads={roads.data} vehiclePath={vehiclePath} />
-        </Suspense>
-      ) : (
-        <DueInspectionsList data={due.data} vehiclePath={vehiclePath} />
-      )}
+      <QueryState query={due} loading="Loading due inspections…" what="the due inspections" retry>
+        {(result) =>
+          mode === 'map' ? (
+            <Suspense fallback={<LoadingState label="Loading the map…" />}>
+              <DueMap items={result.items} roads={roads.data} vehiclePath={vehiclePath} />
+            </Suspense>
+          ) : (
+            <DueInspectionsList data={result} vehiclePath={vehiclePath} />
+          )
+        }
+      </QueryState>
     </>
   );
 }

@@ -1,6 +1,5 @@
-import { ErrorState } from '@/components/ui/error-state';
-import { LoadingState } from '@/components/ui/loading-state';
 import { PageHeader } from '@/components/ui/page-header';
+import { QueryState } from '@/components/ui/query-state';
 import { useFleetLife } from '@/features/workshop/api/get-fleet-life';
 import { FleetLifeView } from '@/features/workshop/components/fleet-life-charts';
 import { SpecPicker, useSpecChoice } from './spec-choice';
@@ -18,13 +17,11 @@ export function FleetLifePage() {
         description="How long a damper of this spec lasts on each kind of road, learned from the fleet's own removals on top of the trade's prior."
         actions={<SpecPicker specId={specId} onChange={choose} />}
       />
-      {life.isPending ? (
-        <LoadingState label="Fitting…" />
-      ) : life.error ? (
-        <ErrorState error={life.error} what="the fit" />
-      ) : (
-        <FleetLifeView life={life.data} backtestTo={`${pages.lifeBacktest.path}?specId=${specId}`} />
-      )}
+      <QueryState query={life} loading="Fitting…" what="the fit">
+        {(data) => (
+          <FleetLifeView life={data} backtestTo={`${pages.lifeBacktest.path}?specId=${specId}`} />
+        )}
+      </QueryState>
     </>
   );
 }

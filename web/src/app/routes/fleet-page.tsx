@@ -5,10 +5,10 @@ import { type Depot, useDepots } from '@/features/depots/api/get-depots';
 import { ButtonLink } from '@/components/ui/button';
 import { ErrorState } from '@/components/ui/error-state';
 import { FigureCard } from '@/components/ui/figure-card';
-import { LoadingState } from '@/components/ui/loading-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { Section } from '@/components/ui/section';
 import { StatusShape } from '@/components/ui/status-badge';
+import { QueryState } from '@/components/ui/query-state';
 import { DepotsTable } from '@/features/depots/components/depots-table';
 import { VEHICLE_STATUSES } from '@/features/vehicles/api/get-vehicles';
 import { vehicleStatusLabels, vehicleStatusTones } from '@/features/vehicles/components/vehicle-status-badge';
@@ -108,13 +108,11 @@ export function FleetPage() {
           </Button>
         }
       >
-        {depots.isPending ? (
-          <LoadingState label="Loading depots…" />
-        ) : depots.error ? (
-          <ErrorState error={depots.error} what="the depots" onRetry={() => void depots.refetch()} />
-        ) : (
-          <DepotsTable depots={depots.data.items} vehiclesPath={(id) => `${pages.vehicles.path}?depotId=${id}`} onEdit={(depot) => setDepotForm({ open: true, depot })} />
-        )}
+        <QueryState query={depots} loading="Loading depots…" what="the depots" retry>
+          {(data) => (
+            <DepotsTable depots={data.items} vehiclesPath={(id) => `${pages.vehicles.path}?depotId=${id}`} onEdit={(depot) => setDepotForm({ open: true, depot })} />
+          )}
+        </QueryState>
       </Section>
       {depotForm.open ? (
         <Suspense fallback={null}>

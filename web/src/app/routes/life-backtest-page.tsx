@@ -1,6 +1,5 @@
-import { ErrorState } from '@/components/ui/error-state';
-import { LoadingState } from '@/components/ui/loading-state';
 import { PageHeader } from '@/components/ui/page-header';
+import { QueryState } from '@/components/ui/query-state';
 import { useQuery } from '@tanstack/react-query';
 import { vehiclesQueryOptions } from '@/features/vehicles/api/get-vehicles';
 import { useLifeBacktest } from '@/features/workshop/api/get-life-backtest';
@@ -24,13 +23,11 @@ export function LifeBacktestPage() {
         back={{ to: `${pages.fleetLife.path}?specId=${specId}`, label: 'Damper life' }}
         actions={<SpecPicker specId={specId} onChange={choose} />}
       />
-      {bt.isPending ? (
-        <LoadingState label="Replaying the removals…" />
-      ) : bt.error ? (
-        <ErrorState error={bt.error} what="the back-test" />
-      ) : (
-        <LifeBacktestView bt={bt.data} vehiclePath={vehiclePath} fleetNumberOf={(id) => fleetNumbers.get(id)} />
-      )}
+      <QueryState query={bt} loading="Replaying the removals…" what="the back-test">
+        {(data) => (
+          <LifeBacktestView bt={data} vehiclePath={vehiclePath} fleetNumberOf={(id) => fleetNumbers.get(id)} />
+        )}
+      </QueryState>
     </>
   );
 }

@@ -1,9 +1,8 @@
 import { Link } from 'react-router';
 import { EmptyState } from '@/components/ui/empty-state';
-import { ErrorState } from '@/components/ui/error-state';
-import { LoadingState } from '@/components/ui/loading-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { Section } from '@/components/ui/section';
+import { QueryState } from '@/components/ui/query-state';
 import { useVehicles } from '@/features/vehicles/api/get-vehicles';
 import { VehiclesTable } from '@/features/vehicles/components/vehicles-table';
 import { useVehicleListParams } from '@/features/vehicles/hooks/use-vehicle-list-params';
@@ -27,36 +26,36 @@ export function WorkshopPage() {
       </Section>
 
       <Section title="In the workshop now">
-        {inWorkshop.isPending ? (
-          <LoadingState label="Loading vehicles in the workshop…" />
-        ) : inWorkshop.error ? (
-          <ErrorState error={inWorkshop.error} what="the vehicles in the workshop" onRetry={() => void inWorkshop.refetch()} />
-        ) : inWorkshop.data.items.length === 0 ? (
-          <EmptyState title="No vehicles are in the workshop">When a vehicle is booked in, it is listed here.</EmptyState>
-        ) : (
-          <ul className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
-            {inWorkshop.data.items.map((v) => (
-              <li key={v.id}>
-                <Link
-                  to={vehiclePath(v.id)}
-                  className="flex min-h-20 items-center justify-between gap-3 rounded-md border border-line bg-surface px-4 py-3 hover:border-slate"
-                >
-                  <span className="min-w-0">
-                    <span className="flex items-baseline gap-2">
-                      <span className="text-lg font-semibold text-ink">{v.fleetNumber}</span>
-                      <span className="font-mono text-sm text-slate">{v.plate}</span>
-                    </span>
-                    <span className="block text-sm text-slate">
-                      {v.specName} · {v.depotName}
-                    </span>
-                    <span className="tabular block text-sm text-slate">Odometer {formatQuantity(v.odometerKm, 'km')}</span>
-                  </span>
-                  <span aria-hidden="true" className="text-xl text-slate">›</span>
-                </Link>
-              </li>
-            ))}
-          </ul>
-        )}
+        <QueryState query={inWorkshop} loading="Loading vehicles in the workshop…" what="the vehicles in the workshop" retry>
+          {(data) =>
+            data.items.length === 0 ? (
+              <EmptyState title="No vehicles are in the workshop">When a vehicle is booked in, it is listed here.</EmptyState>
+            ) : (
+              <ul className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
+                {data.items.map((v) => (
+                  <li key={v.id}>
+                    <Link
+                      to={vehiclePath(v.id)}
+                      className="flex min-h-20 items-center justify-between gap-3 rounded-md border border-line bg-surface px-4 py-3 hover:border-slate"
+                    >
+                      <span className="min-w-0">
+                        <span className="flex items-baseline gap-2">
+                          <span className="text-lg font-semibold text-ink">{v.fleetNumber}</span>
+                          <span className="font-mono text-sm text-slate">{v.plate}</span>
+                        </span>
+                        <span className="block text-sm text-slate">
+                          {v.specName} · {v.depotName}
+                        </span>
+                        <span className="tabular block text-sm text-slate">Odometer {formatQuantity(v.odometerKm, 'km')}</span>
+                      </span>
+                      <span aria-hidden="true" className="text-xl text-slate">›</span>
+                    </Link>
+                  </li>
+                ))}
+              </ul>
+            )
+          }
+        </QueryState>
         {inWorkshop.data && inWorkshop.data.total > inWorkshop.data.items.length ? (
           <p className="mt-2 text-sm text-slate">
             Showing {inWorkshop.data.items.length} of {inWorkshop.data.total}.{' '}

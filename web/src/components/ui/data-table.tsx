@@ -75,15 +75,23 @@ interface PagedListQuery<T> {
 }
 
 /**
- * The paging, sorting and loading props of a server-paged table, from its list query and the
- * list state kept in the address: `<DataTable {...pagedTableProps(query, params, update)} …/>`.
+ * The props a server-paged list of rows with an `id` shares, from its list query, the list state
+ * kept in the address and how its rows are counted:
+ * `<DataTable columns={…} {...pagedTableProps(query, params, update, { noun: ['route', 'routes'] })} …/>`.
+ * The table is named (its caption) by the plural noun, capitalised; rows are keyed by `id`.
  */
-export function pagedTableProps<T>(
+export function pagedTableProps<T extends { id: number | string }>(
   query: PagedListQuery<T>,
   params: { page: number; pageSize: number; sort?: string },
   update: (patch: { page?: number; pageSize?: number; sort?: string }) => void,
+  list: { noun: [string, string]; exportUrl?: string },
 ) {
+  const plural = list.noun[1];
   return {
+    label: plural.charAt(0).toUpperCase() + plural.slice(1),
+    noun: list.noun,
+    exportUrl: list.exportUrl,
+    getRowId: (row: T) => String(row.id),
     rows: query.data?.items,
     total: query.data?.total,
     page: params.page,

@@ -14,6 +14,11 @@ export interface SimpleColumn<T> {
   className?: string;
 }
 
+/** How rows are keyed: by their `id` unless told otherwise (a row with no `id` must be told). */
+type RowKeyProp<T> = T extends { id: string | number }
+  ? { getRowKey?: (row: T) => string | number }
+  : { getRowKey: (row: T) => string | number };
+
 /**
  * A small table shown in full (no paging): a vehicle's trips, a spec's corners. Same look as the
  * paged DataTable — units in the headers, numbers right-aligned.
@@ -29,10 +34,10 @@ export function SimpleTable<T>({
   label: string;
   columns: SimpleColumn<T>[];
   rows: T[];
-  getRowKey: (row: T) => string | number;
   footer?: ReactNode;
   className?: string;
-}) {
+} & RowKeyProp<T>) {
+  const keyOf = getRowKey ?? ((row: T) => (row as { id: string | number }).id);
   return (
     // focusable, so a keyboard can scroll a table wider than the screen
     <div role="group" aria-label={label} tabIndex={0} className={cx('overflow-x-auto rounded-md border border-line bg-surface', className)}>
@@ -54,7 +59,7 @@ export function SimpleTable<T>({
         </thead>
         <tbody>
           {rows.map((row) => (
-            <tr key={getRowKey(row)} className="border-b border-line last:border-b-0">
+            <tr key={keyOf(row)} className="border-b border-line last:border-b-0">
               {columns.map((c) => {
                 const cls = cx(
                   'px-3 py-2 align-middle pointer-coarse:py-3',

@@ -2,8 +2,8 @@ import { useRef, useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
-import { isApiError } from '@/lib/api-client';
-import { focusFirstError, serverFieldErrors, zodFieldErrors, type FieldErrors } from '@/lib/form-errors';
+import { RequestProblem } from '@/components/ui/request-problem';
+import { checkedFormValues, serverFieldErrors, showFieldErrors, type FieldErrors } from '@/lib/form-errors';
 import { changePasswordSchema, MIN_PASSWORD_LENGTH, useChangePassword } from '../api/change-password';
 
 const defaultLabels = { currentPassword: 'Current password', newPassword: 'New password', confirmPassword: 'New password again' };
@@ -37,42 +37,23 @@ export function ChangePasswordForm({
     setDone(false);
     const form = e.currentTarget;
     const data = new FormData(form);
-    const parsed = changePasswordSchema.safeParse({
-      currentPassword: data.get('currentPassword'),
-      newPassword: data.get('newPassword'),
-      confirmPassword: data.get('confirmPassword'),
-    });
-    if (!parsed.success) {
-      const next = zodFieldErrors(parsed.error, labels);
-      setErrors(next);
-      focusFirstError(formRef.current, next);
-      return;
-    }
-    setErrors({});
-    change.mutate(parsed.data, {
+    const values = { currentPassword: data.get('currentPassword'), newPassword: data.get('newPassword'), confirmPassword: data.get('confirmPassword') };
+    const input = checkedFormValues(changePasswordSchema, values, labels, formRef.current, setErrors);
+    if (!input) return;
+    change.mutate(input, {
       onSuccess: () => {
         form.reset();
         if (onChanged) onChanged();
         else setDone(true);
       },
-      onError: (err) => {
-        const next = serverFieldErrors(err, labels);
-        setErrors(next);
-        focusFirstError(formRef.current, next);
-      },
+      onError: (err) => showFieldErrors(formRef.current, serverFieldErrors(err, labels), setErrors),
     });
   }
-
-  const otherProblem = change.isError && !(isApiError(change.error) && Object.keys(change.error.fields).length > 0);
 
   return (
     <form ref={formRef} onSubmit={onSubmit} noValidate aria-label={name} className="flex max-w-md flex-col gap-4">
       {done ? <Notice tone="ok" title="Password changed">Use the new password the next time you sign in.</Notice> : null}
-      {otherProblem ? (
-        <Notice tone="error" title="Password not changed">
-          {isApiError(change.error) ? change.error.message : 'Something unexpected went wrong. Try again.'}
-        </Notice>
-      ) : null}
+      <RequestProblem request={change} title="Password not changed" fieldsShownOnForm />
       <TextField
         label={labels.currentPassword}
         name="currentPassword"

@@ -3,7 +3,7 @@ import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
-import { focusFirstError, zodFieldErrors, type FieldErrors } from '@/lib/form-errors';
+import { checkedFormValues, type FieldErrors } from '@/lib/form-errors';
 import type { SignedInUser } from '@/lib/roles';
 import { signInSchema, useSignIn } from '../api/sign-in';
 
@@ -26,15 +26,9 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (user: SignedInUser) =>
   function onSubmit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
     const form = new FormData(e.currentTarget);
-    const parsed = signInSchema.safeParse({ email: form.get('email'), password: form.get('password') });
-    if (!parsed.success) {
-      const next = zodFieldErrors(parsed.error, labels);
-      setErrors(next);
-      focusFirstError(formRef.current, next);
-      return;
-    }
-    setErrors({});
-    signIn.mutate(parsed.data, {
+    const input = checkedFormValues(signInSchema, { email: form.get('email'), password: form.get('password') }, labels, formRef.current, setErrors);
+    if (!input) return;
+    signIn.mutate(input, {
       onSuccess: onSignedIn,
       onError: () => {
         passwordRef.current?.focus();

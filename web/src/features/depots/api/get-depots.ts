@@ -1,5 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api, type ListResponse } from '@/lib/api-client';
+import { wholeList } from '@/lib/list-query';
 import { depotKeys } from './depot-keys';
 
 export interface Depot {
@@ -12,17 +11,7 @@ export interface Depot {
 }
 
 /** Every depot; a fleet has few, so one page of the largest size holds them all. */
-export function getDepots(signal?: AbortSignal) {
-  return api.get<ListResponse<Depot>>('/api/depots', { query: { pageSize: 200 }, signal });
-}
-
-export const depotsQueryOptions = () =>
-  queryOptions({
-    queryKey: depotKeys.list(),
-    queryFn: ({ signal }) => getDepots(signal),
-    staleTime: 10 * 60 * 1000,
-  });
-
-export function useDepots() {
-  return useQuery(depotsQueryOptions());
-}
+const depots = wholeList<Depot>('/api/depots', depotKeys.list(), 10 * 60 * 1000);
+export const getDepots = depots.get;
+export const depotsQueryOptions = depots.options;
+export const useDepots = depots.useList;

@@ -1,9 +1,9 @@
 import { useEffect } from 'react';
 import { CircleMarker, MapContainer, Tooltip, useMap, useMapEvents } from 'react-leaflet';
 import { BaseLayer } from '@/components/map/base-layer';
-import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { TextField } from '@/components/ui/field';
+import { FormActions } from '@/components/ui/form-actions';
 import { Notice } from '@/components/ui/notice';
 import { isApiError } from '@/lib/api-client';
 import { fromText, useSchemaForm } from '@/lib/use-schema-form';
@@ -87,12 +87,9 @@ function DepotForm({ depot, near, others, onDone }: { depot?: Depot; near: [numb
       </div>
       <p className="text-sm text-slate">{placed ? 'The orange dot is where the depot will be. Click elsewhere to move it.' : 'Click the map to place the depot.'}</p>
       {serverMessage ? <Notice tone="error">{serverMessage}</Notice> : null}
-      <div className="flex justify-end gap-2">
-        <Button onClick={onDone}>Cancel</Button>
-        <Button type="submit" variant="primary" busy={save.isPending}>
-          {depot ? 'Save changes' : 'Add depot'}
-        </Button>
-      </div>
+      <FormActions onCancel={onDone} busy={save.isPending}>
+        {depot ? 'Save changes' : 'Add depot'}
+      </FormActions>
     </form>
   );
 }

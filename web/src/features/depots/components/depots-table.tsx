@@ -15,7 +15,6 @@ export function DepotsTable({ depots, vehiclesPath, onEdit }: { depots: Depot[];
     <SimpleTable
       label="Depots"
       rows={depots}
-      getRowKey={(d) => d.id}
       columns={[
         { key: 'name', header: 'Depot', rowHeader: true, cell: (d) => (d.address ? <>{d.name}<span className="block text-xs text-slate">{d.address}</span></> : d.name) },
         { key: 'lat', header: 'Latitude', unit: '°', numeric: true, cell: (d) => formatNumber(d.lat, 4) },

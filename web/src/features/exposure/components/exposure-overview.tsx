@@ -90,10 +90,10 @@ export function ExposureOverview() {
       </Section>
       <div className="mt-8 grid gap-4 xl:grid-cols-2">
         <div>
-          <Section title="Routes that contribute most">{d.routes.length ? <SimpleTable label="Routes that contribute most" rows={d.routes} getRowKey={(r) => r.id} columns={contribCols('Route')} /> : <p className="text-sm text-slate">—</p>}</Section>
+          <Section title="Routes that contribute most">{d.routes.length ? <SimpleTable label="Routes that contribute most" rows={d.routes} columns={contribCols('Route')} /> : <p className="text-sm text-slate">—</p>}</Section>
         </div>
         <div>
-          <Section title="Vehicles that contribute most">{d.vehicles.length ? <SimpleTable label="Vehicles that contribute most" rows={d.vehicles} getRowKey={(r) => r.id} columns={contribCols('Vehicle')} /> : <p className="text-sm text-slate">—</p>}</Section>
+          <Section title="Vehicles that contribute most">{d.vehicles.length ? <SimpleTable label="Vehicles that contribute most" rows={d.vehicles} columns={contribCols('Vehicle')} /> : <p className="text-sm text-slate">—</p>}</Section>
         </div>
       </div>
     </div>

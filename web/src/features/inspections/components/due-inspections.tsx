@@ -77,7 +77,7 @@ export function DueInspectionsList({ data, vehiclePath }: { data: DueInspections
       </Caution>
       {data.sort === 'lifeUsed' ? (
         <Section title={`All open inspections (${data.items.length})`} description="Most-worn damper first: the highest share of its expected life used on each vehicle.">
-          <SimpleTable label="Open inspections by life used" columns={cols} rows={data.items} getRowKey={(r) => r.id} />
+          <SimpleTable label="Open inspections by life used" columns={cols} rows={data.items} />
         </Section>
       ) : null}
       {data.sort === 'lifeUsed' ? null : groups.map((g) => {
@@ -85,7 +85,7 @@ export function DueInspectionsList({ data, vehiclePath }: { data: DueInspections
         if (!rows.length) return null;
         return (
           <Section key={g.id} title={`${g.title} (${rows.length})`} description={g.description}>
-            <SimpleTable label={`${g.title} inspections`} columns={cols} rows={rows} getRowKey={(r) => r.id} />
+            <SimpleTable label={`${g.title} inspections`} columns={cols} rows={rows} />
           </Section>
         );
       })}

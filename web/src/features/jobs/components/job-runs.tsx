@@ -2,12 +2,13 @@ import { useEffect, useRef, useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/empty-state';
-import { ErrorState } from '@/components/ui/error-state';
 import { LoadingState } from '@/components/ui/loading-state';
+import { NewerOlder } from '@/components/ui/newer-older';
 import { Notice } from '@/components/ui/notice';
 import { Section } from '@/components/ui/section';
 import { SimpleTable, type SimpleColumn } from '@/components/ui/simple-table';
 import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
+import { QueryState } from '@/components/ui/query-state';
 import { isApiError } from '@/lib/api-client';
 import { formatDateTime, formatNumber } from '@/lib/format';
 import { useJobRun } from '../api/get-job-run';
@@ -112,29 +113,19 @@ export function JobRuns() {
       </Section>
 
       <Section title="History">
-        {runs.isPending ? (
-          <LoadingState label="Loading runs…" />
-        ) : runs.error ? (
-          <ErrorState error={runs.error} what="the run history" onRetry={() => void runs.refetch()} />
-        ) : !runs.data.items.length ? (
-          <EmptyState title="No runs yet">The first run happens tonight, or press “Run now”.</EmptyState>
-        ) : (
-          <>
-            <SimpleTable label="Job runs" columns={columns} rows={runs.data.items} getRowKey={(r) => r.id} />
-            <div className="mt-3 flex items-center gap-2 text-sm text-slate">
-              <Button size="sm" disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
-                Newer
-              </Button>
-              <Button size="sm" disabled={page * 25 >= runs.data.total} onClick={() => setPage((p) => p + 1)}>
-                Older
-              </Button>
-              <span>
-                {formatNumber(runs.data.total)} run{runs.data.total === 1 ? '' : 's'}
-              </span>
-            </div>
-            <RunErrors runs={runs.data.items} />
-          </>
-        )}
+        <QueryState query={runs} loading="Loading runs…" what="the run history" retry>
+          {(data) =>
+            !data.items.length ? (
+              <EmptyState title="No runs yet">The first run happens tonight, or press “Run now”.</EmptyState>
+            ) : (
+              <>
+                <SimpleTable label="Job runs" columns={columns} rows={data.items} />
+                <NewerOlder page={page} pageSize={25} total={data.total} onStep={(by) => setPage((p) => p + by)} count={`${formatNumber(data.total)} run${data.total === 1 ? '' : 's'}`} />
+                <RunErrors runs={data.items} />
+              </>
+            )
+          }
+        </QueryState>
       </Section>
     </>
   );

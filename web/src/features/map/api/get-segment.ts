@@ -1,22 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import type { SegmentOnRoute } from '@contracts/roads';
 import { mapKeys } from './get-map-data';
 
 export interface SegmentDetail {
-  segment: {
-    id: number;
-    routeId: number;
-    routeName: string;
-    seq: number;
-    startM: number;
-    endM: number;
+  segment: SegmentOnRoute & {
+    /** The segment's own speed [km/h], none when it takes its route's. */
     speedKmh: number | null;
+    /** The route's speed [km/h]. */
     defaultSpeedKmh: number | null;
-    iri: number | null;
-    gdN0: number | null;
-    isoClass: string | null;
-    roughnessSource: string | null;
-    roughnessDate: string | null;
   };
   observations: { id: number; iri: number | null; isoClass: string | null; source: string; observedOn: string; recordedByName: string | null; note: string | null }[];
   currentRule: string;

@@ -3,6 +3,7 @@ import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/empty-state';
 import { ErrorState } from '@/components/ui/error-state';
 import { LoadingState } from '@/components/ui/loading-state';
+import { NewerOlder } from '@/components/ui/newer-older';
 import { Notice } from '@/components/ui/notice';
 import { cx } from '@/lib/class-names';
 import { formatDateTime, formatNumber } from '@/lib/format';
@@ -50,15 +51,7 @@ export function OutboxView() {
                 </li>
               ))}
             </ul>
-            <div className="mt-3 flex items-center gap-2 text-sm text-slate">
-              <Button size="sm" disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
-                Newer
-              </Button>
-              <Button size="sm" disabled={page * 50 >= data.total} onClick={() => setPage((p) => p + 1)}>
-                Older
-              </Button>
-              <span>{formatNumber(data.total)} messages</span>
-            </div>
+            <NewerOlder page={page} pageSize={50} total={data.total} onStep={(by) => setPage((p) => p + by)} count={`${formatNumber(data.total)} messages`} />
           </div>
           <div className="min-w-0 rounded-md border border-line bg-surface p-4">
             {selected === null ? (

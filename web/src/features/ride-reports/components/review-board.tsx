@@ -201,7 +201,6 @@ export function ReviewBoard({ routePath, initialReportId }: { routePath: (id: nu
           <SimpleTable
             label="Recent decisions"
             rows={recent}
-            getRowKey={(r) => r.id}
             columns={[
               { key: 'when', header: 'Reported', cell: (r) => formatDateTime(r.reportedAt) },
               { key: 'where', header: 'Where', rowHeader: true, cell: (r) => `${r.routeName}, segment ${(r.segmentSeq ?? 0) + 1}` },

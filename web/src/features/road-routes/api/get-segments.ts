@@ -5,24 +5,13 @@ import { queryRoots } from '@/lib/query-keys';
 
 export const SEGMENT_SORTS = ['routeName', 'seq', 'iri', 'isoClass', 'roughnessDate', 'speedKmh'] as const;
 export { ROUGHNESS_SOURCES, type RoughnessSource } from '@contracts/roads';
-import type { RoughnessSource } from '@contracts/roads';
+import type { RoughnessSource, SegmentOnRoute } from '@contracts/roads';
 
-export interface SegmentListItem {
-  id: number;
-  routeId: number;
-  routeName: string;
-  seq: number;
-  startM: number;
-  endM: number;
+export interface SegmentListItem extends SegmentOnRoute {
   /** The segment's own speed, or the route's default when none is set [km/h]. */
   speedKmh: number | null;
   /** Whether the segment has a speed of its own. */
   speedSet: boolean;
-  iri: number | null;
-  gdN0: number | null;
-  isoClass: string | null;
-  roughnessSource: RoughnessSource | null;
-  roughnessDate: string | null;
 }
 
 export interface SegmentListParams extends ListParams {

@@ -60,12 +60,8 @@ export function RoutesTable() {
 
   return (
     <DataTable
-      label="Routes"
       columns={columns}
-      {...pagedTableProps(query, params, update)}
-      getRowId={(r) => String(r.id)}
-      noun={['route', 'routes']}
-      exportUrl={routesExportUrl(params)}
+      {...pagedTableProps(query, params, update, { noun: ['route', 'routes'], exportUrl: routesExportUrl(params) })}
       toolbar={
         <div className="flex flex-wrap items-end justify-between gap-4">
           <div role="search" aria-label="Filter routes" className="w-full max-w-sm">

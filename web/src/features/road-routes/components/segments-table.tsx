@@ -1,10 +1,10 @@
 import { useMemo } from 'react';
 import { Link } from 'react-router';
 import { createColumnHelper } from '@tanstack/react-table';
-import { Button } from '@/components/ui/button';
 import { DataTable, pagedTableProps } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SelectField } from '@/components/ui/field';
+import { FilterBar } from '@/components/ui/filter-bar';
 import { RoughnessClassBadge, RoughnessLegend } from '@/components/ui/roughness';
 import { formatDate, formatNumber } from '@/lib/format';
 import { ROUGHNESS_CLASSES, roughnessWords, type RoughnessClass } from '@/lib/roughness';
@@ -101,7 +101,12 @@ export function SegmentsTable({
 
   const filtered = Boolean(params.routeId || params.isoClass || params.source);
   const toolbar = (
-    <div role="search" aria-label="Filter segments" className="grid grid-cols-2 items-end gap-3 md:grid-cols-[minmax(12rem,2fr)_repeat(2,minmax(9rem,1fr))_auto]">
+    <FilterBar
+      label="Filter segments"
+      columns="md:grid-cols-[minmax(12rem,2fr)_repeat(2,minmax(9rem,1fr))_auto]"
+      filtered={filtered}
+      onClear={() => onParamsChange({ routeId: undefined, isoClass: undefined, source: undefined })}
+    >
       <SelectField
         label="Route"
         value={params.routeId ? String(params.routeId) : ''}
@@ -121,21 +126,14 @@ export function SegmentsTable({
         onChange={(e) => onParamsChange({ source: (e.target.value || undefined) as RoughnessSource | undefined })}
         options={[{ value: '', label: 'Any source' }, ...ROUGHNESS_SOURCES.map((s) => ({ value: s, label: sourceLabels[s] }))]}
       />
-      <Button variant="quiet" onClick={() => onParamsChange({ routeId: undefined, isoClass: undefined, source: undefined })} disabled={!filtered} className="justify-self-start">
-        Clear filters
-      </Button>
-    </div>
+    </FilterBar>
   );
 
   return (
     <div className="flex flex-col gap-3">
       <DataTable
-        label="Segments"
         columns={columns}
-        {...pagedTableProps(query, params, onParamsChange)}
-        getRowId={(r) => String(r.id)}
-        noun={['segment', 'segments']}
-        exportUrl={segmentsExportUrl(params)}
+        {...pagedTableProps(query, params, onParamsChange, { noun: ['segment', 'segments'], exportUrl: segmentsExportUrl(params) })}
         toolbar={toolbar}
         empty={
           filtered ? (

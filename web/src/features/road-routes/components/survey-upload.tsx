@@ -3,7 +3,9 @@ import { Button } from '@/components/ui/button';
 import { FileRefusal } from '@/components/ui/file-refusal';
 import { CsvFileField, TextField } from '@/components/ui/field';
 import { RoughnessClassBadge } from '@/components/ui/roughness';
+import { ScrollTable } from '@/components/ui/scroll-table';
 import { formatNumber } from '@/lib/format';
+import { useFileCheck } from '@/lib/use-file-check';
 import { useUploadSurvey, type SurveyResult } from '../api/upload-survey';
 
 export function ProfileLayoutHelp() {
@@ -18,12 +20,10 @@ export function ProfileLayoutHelp() {
 
 /** Upload a longitudinal profile: preview IRI per segment, then save it as survey observations. */
 export function SurveyUpload({ routeId, today }: { routeId: number; today: string }) {
-  const [file, setFile] = useState<File | null>(null);
   // empty: the server dates the survey today
   const [surveyedOn, setSurveyedOn] = useState('');
-  const [preview, setPreview] = useState<SurveyResult | null>(null);
-  const [saved, setSaved] = useState<number | null>(null);
   const m = useUploadSurvey(routeId);
+  const { file, report: preview, setReport: setPreview, saved, setSaved, pick } = useFileCheck<SurveyResult, number>(() => m.reset());
 
   const run = (previewOnly: boolean) => {
     if (!file) return;
@@ -45,15 +45,7 @@ export function SurveyUpload({ routeId, today }: { routeId: number; today: strin
     <div className="flex flex-col gap-3">
       <ProfileLayoutHelp />
       <div className="flex flex-wrap items-end gap-3">
-        <CsvFileField
-          label="Profile file (CSV)"
-          onPick={(f) => {
-            setFile(f);
-            setPreview(null);
-            setSaved(null);
-            m.reset();
-          }}
-        />
+        <CsvFileField label="Profile file (CSV)" onPick={pick} />
         <TextField label="Surveyed on" aside="(default today)" type="date" value={surveyedOn} max={today} onChange={(e) => setSurveyedOn(e.target.value)} />
         <Button onClick={() => run(true)} disabled={!file} busy={m.isPending && !preview}>
           Preview IRI
@@ -73,30 +65,21 @@ export function SurveyUpload({ routeId, today }: { routeId: number; today: strin
           <p className="text-sm">
             {formatNumber(preview.summary.pointCount)} points every {formatNumber(preview.summary.dxM, 3)} m from {formatNumber(preview.summary.startM, 1)} m to {formatNumber(preview.summary.endM, 1)} m: IRI for {preview.summary.segmentCount} of {preview.summary.routeSegmentCount} segments. Nothing is saved until you press Save survey.
           </p>
-          <div className="mt-2 max-h-72 overflow-auto rounded-md border border-line">
-            <table className="w-full text-sm" aria-label="Survey preview">
-              <thead className="sticky top-0 bg-mist text-left">
-                <tr>
-                  <th className="px-2 py-1">Segment</th>
-                  <th className="px-2 py-1 text-right">From [km]</th>
-                  <th className="px-2 py-1 text-right">IRI [m/km]</th>
-                  <th className="px-2 py-1">Class</th>
-                  <th className="px-2 py-1">Now</th>
-                </tr>
-              </thead>
-              <tbody>
-                {preview.segments.map((s) => (
-                  <tr key={s.segmentId} className="border-t border-line">
-                    <td className="px-2 py-1">{s.seq + 1}</td>
-                    <td className="px-2 py-1 text-right tabular-nums">{formatNumber(s.startM / 1000, 2)}</td>
-                    <td className="px-2 py-1 text-right tabular-nums">{formatNumber(s.iri, 2)}</td>
-                    <td className="px-2 py-1"><RoughnessClassBadge value={s.isoClass} /></td>
-                    <td className="px-2 py-1 text-slate">{s.previous.isoClass ?? '—'}{s.previous.iri !== null ? ` (${formatNumber(s.previous.iri, 2)} m/km)` : ''}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <ScrollTable
+            label="Survey preview"
+            height="max-h-72"
+            head={[{ label: 'Segment' }, { label: 'From [km]', numeric: true }, { label: 'IRI [m/km]', numeric: true }, { label: 'Class' }, { label: 'Now' }]}
+          >
+            {preview.segments.map((s) => (
+              <tr key={s.segmentId} className="border-t border-line">
+                <td className="px-2 py-1">{s.seq + 1}</td>
+                <td className="px-2 py-1 text-right tabular-nums">{formatNumber(s.startM / 1000, 2)}</td>
+                <td className="px-2 py-1 text-right tabular-nums">{formatNumber(s.iri, 2)}</td>
+                <td className="px-2 py-1"><RoughnessClassBadge value={s.isoClass} /></td>
+                <td className="px-2 py-1 text-slate">{s.previous.isoClass ?? '—'}{s.previous.iri !== null ? ` (${formatNumber(s.previous.iri, 2)} m/km)` : ''}</td>
+              </tr>
+            ))}
+          </ScrollTable>
         </div>
       ) : null}
     </div>

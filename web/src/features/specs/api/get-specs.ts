@@ -1,5 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api, type ListResponse } from '@/lib/api-client';
+import { wholeList } from '@/lib/list-query';
 import type { SuspensionSpec } from '@/lib/suspension';
 import { specKeys } from './spec-keys';
 
@@ -8,17 +7,7 @@ export interface SpecListItem extends SuspensionSpec {
 }
 
 /** Every suspension spec; a fleet has a handful of vehicle types, so one page holds them all. */
-export function getSpecs(signal?: AbortSignal) {
-  return api.get<ListResponse<SpecListItem>>('/api/specs', { query: { pageSize: 200 }, signal });
-}
-
-export const specsQueryOptions = () =>
-  queryOptions({
-    queryKey: specKeys.list(),
-    queryFn: ({ signal }) => getSpecs(signal),
-    staleTime: 10 * 60 * 1000,
-  });
-
-export function useSpecs() {
-  return useQuery(specsQueryOptions());
-}
+const specs = wholeList<SpecListItem>('/api/specs', specKeys.list(), 10 * 60 * 1000);
+export const getSpecs = specs.get;
+export const specsQueryOptions = specs.options;
+export const useSpecs = specs.useList;

@@ -1,10 +1,10 @@
 import { useState } from 'react';
 import { Caution } from '@/components/ui/caution';
-import { ErrorState } from '@/components/ui/error-state';
-import { LoadingState } from '@/components/ui/loading-state';
 import { Section } from '@/components/ui/section';
+import { SentenceList } from '@/components/ui/sentence-list';
 import { SimpleTable } from '@/components/ui/simple-table';
 import { RoughnessClassBadge } from '@/components/ui/roughness';
+import { QueryState } from '@/components/ui/query-state';
 import { formatNumber } from '@/lib/format';
 import { useSpeedAdvice, type SpeedAdvice, type SpeedAdviceParams } from '../api/get-speed-advice';
 import { useSpecChoices } from '../api/get-specs-brief';
@@ -76,11 +76,7 @@ export function AdviceAssumptions({ advice, className = '' }: { advice: SpeedAdv
   return (
     <div className={`text-xs text-slate ${className}`} data-testid="speed-advice-assumptions">
       <p className="font-medium text-ink">Assumptions behind these figures</p>
-      <ul className="mt-1 list-disc pl-4">
-        {advice.assumptions.map((a) => (
-          <li key={a}>{a}</li>
-        ))}
-      </ul>
+      <SentenceList items={advice.assumptions} className="mt-1 list-disc pl-4" />
     </div>
   );
 }
@@ -103,47 +99,44 @@ export function RouteSpeedAdvice({ routeId, canPickSpec }: { routeId: number; ca
   return (
     <Section title="Speed advice" description="The highest speed at which the driver’s seat stays within the chosen ride limit and each damper within the chosen multiple of its own everyday duty.">
       <Caution title="Advice for planning">{q.data?.caution ?? 'Posted limits, the road and weather conditions, the load and the driver’s judgement always come first.'}</Caution>
-      {q.isPending ? (
-        <LoadingState label="Working out speeds…" />
-      ) : q.error ? (
-        <ErrorState error={q.error} what="the speed advice" />
-      ) : (
-        <div className="mt-3 flex flex-col gap-4">
-          <SpeedAdviceControls value={choices} onChange={setChoices} canPickSpec={canPickSpec} bands={q.data.comfortBands} />
-          <p className="text-sm text-ink">
-            For <strong>{q.data.spec.name}</strong>, {q.data.load.case}: advised{' '}
-            <strong className="tabular-nums">
-              {q.data.summary.lowestKmh === null ? '—' : q.data.summary.lowestKmh === q.data.summary.highestKmh ? `${q.data.summary.lowestKmh} km/h` : `${q.data.summary.lowestKmh}–${q.data.summary.highestKmh} km/h`}
-            </strong>
-            ; {q.data.summary.segmentsBelowPosted} segment{q.data.summary.segmentsBelowPosted === 1 ? '' : 's'} advised below the speed normally driven
-            {q.data.summary.segmentsNeedingAttention ? (
-              <>
-                , <strong>{q.data.summary.segmentsNeedingAttention} where the road needs attention</strong> (no advice under {q.data.rangeKmh[0]} km/h: report the segment)
-              </>
-            ) : null}
-            .
-          </p>
-          <DutySpeedChart advice={q.data} />
-          <p className="-mt-2 text-xs text-slate">The chart shows a typical segment of this route (median roughness); pick a segment number in the table to chart it.</p>
-          <SimpleTable
-            label="Advised speed per segment"
-            rows={q.data.segments}
-            getRowKey={(r) => r.id}
-            className="max-h-96 overflow-y-auto"
-            columns={[
-              { key: 'seq', header: 'Segment', rowHeader: true, cell: (r) => <button type="button" className="link" onClick={() => setSegmentId(r.id)} title="Show this segment in the chart">{r.seq + 1}</button> },
-              { key: 'km', header: 'From', unit: 'km', numeric: true, cell: (r) => formatNumber(r.startM / 1000, 1) },
-              { key: 'class', header: 'Class', cell: (r) => <RoughnessClassBadge value={r.isoClass} /> },
-              { key: 'posted', header: 'Usual speed', unit: 'km/h', numeric: true, cell: (r) => formatNumber(r.postedKmh, 0) },
-              { key: 'advised', header: 'Advised up to', unit: 'km/h', numeric: true, cell: advisedText },
-              { key: 'by', header: 'Limited by', cell: (r) => (r.limitedBy === 'damper power' && r.powerAxle ? `damper power (${r.powerAxle})` : r.limitedBy) },
-            ]}
-          />
-          {q.data.summary.segmentsNeedingAttention ? <p className="text-sm text-ink">{q.data.attention}</p> : null}
-          <AdviceAssumptions advice={q.data} />
-          <p className="text-xs text-slate">{q.data.method}</p>
-        </div>
-      )}
+      <QueryState query={q} loading="Working out speeds…" what="the speed advice">
+        {(data) => (
+          <div className="mt-3 flex flex-col gap-4">
+            <SpeedAdviceControls value={choices} onChange={setChoices} canPickSpec={canPickSpec} bands={data.comfortBands} />
+            <p className="text-sm text-ink">
+              For <strong>{data.spec.name}</strong>, {data.load.case}: advised{' '}
+              <strong className="tabular-nums">
+                {data.summary.lowestKmh === null ? '—' : data.summary.lowestKmh === data.summary.highestKmh ? `${data.summary.lowestKmh} km/h` : `${data.summary.lowestKmh}–${data.summary.highestKmh} km/h`}
+              </strong>
+              ; {data.summary.segmentsBelowPosted} segment{data.summary.segmentsBelowPosted === 1 ? '' : 's'} advised below the speed normally driven
+              {data.summary.segmentsNeedingAttention ? (
+                <>
+                  , <strong>{data.summary.segmentsNeedingAttention} where the road needs attention</strong> (no advice under {data.rangeKmh[0]} km/h: report the segment)
+                </>
+              ) : null}
+              .
+            </p>
+            <DutySpeedChart advice={data} />
+            <p className="-mt-2 text-xs text-slate">The chart shows a typical segment of this route (median roughness); pick a segment number in the table to chart it.</p>
+            <SimpleTable
+              label="Advised speed per segment"
+              rows={data.segments}
+              className="max-h-96 overflow-y-auto"
+              columns={[
+                { key: 'seq', header: 'Segment', rowHeader: true, cell: (r) => <button type="button" className="link" onClick={() => setSegmentId(r.id)} title="Show this segment in the chart">{r.seq + 1}</button> },
+                { key: 'km', header: 'From', unit: 'km', numeric: true, cell: (r) => formatNumber(r.startM / 1000, 1) },
+                { key: 'class', header: 'Class', cell: (r) => <RoughnessClassBadge value={r.isoClass} /> },
+                { key: 'posted', header: 'Usual speed', unit: 'km/h', numeric: true, cell: (r) => formatNumber(r.postedKmh, 0) },
+                { key: 'advised', header: 'Advised up to', unit: 'km/h', numeric: true, cell: advisedText },
+                { key: 'by', header: 'Limited by', cell: (r) => (r.limitedBy === 'damper power' && r.powerAxle ? `damper power (${r.powerAxle})` : r.limitedBy) },
+              ]}
+            />
+            {data.summary.segmentsNeedingAttention ? <p className="text-sm text-ink">{data.attention}</p> : null}
+            <AdviceAssumptions advice={data} />
+            <p className="text-xs text-slate">{data.method}</p>
+          </div>
+        )}
+      </QueryState>
     </Section>
   );
 }

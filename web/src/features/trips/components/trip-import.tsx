@@ -1,9 +1,10 @@
-import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { FileRefusal } from '@/components/ui/file-refusal';
+import { ScrollTable } from '@/components/ui/scroll-table';
 import { CsvFileField } from '@/components/ui/field';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { formatDateTime, formatNumber } from '@/lib/format';
+import { useFileCheck } from '@/lib/use-file-check';
 import { useImportTrips, type ImportReport } from '../api/import-trips';
 
 export function TripLayoutHelp() {
@@ -22,23 +23,13 @@ export function TripLayoutHelp() {
 
 /** Check a telematics export row by row, then import all of it or nothing. */
 export function TripImport() {
-  const [file, setFile] = useState<File | null>(null);
-  const [report, setReport] = useState<ImportReport | null>(null);
-  const [done, setDone] = useState<number | null>(null);
   const m = useImportTrips();
+  const { file, report, setReport, saved: done, setSaved: setDone, pick } = useFileCheck<ImportReport, number>(() => m.reset());
   return (
     <div className="flex flex-col gap-3">
       <TripLayoutHelp />
       <div className="flex flex-wrap items-end gap-3">
-        <CsvFileField
-          label="Trip file (CSV)"
-          onPick={(f) => {
-            setFile(f);
-            setReport(null);
-            setDone(null);
-            m.reset();
-          }}
-        />
+        <CsvFileField label="Trip file (CSV)" onPick={pick} />
         <Button disabled={!file} busy={m.isPending && !report} onClick={() => file && m.mutate({ file, preview: true }, { onSuccess: (d) => setReport(d as ImportReport) })}>
           Check file
         </Button>
@@ -69,34 +60,23 @@ export function TripImport() {
           <p className="text-sm font-medium" role="status">
             {report.bad === 0 ? `All ${report.total} rows are fine. Press Import trips to add them.` : `${report.bad} of ${report.total} rows have problems. Nothing will be imported until the file is fixed.`}
           </p>
-          <div className="mt-2 max-h-96 overflow-auto rounded-md border border-line">
-            <table className="w-full text-sm" aria-label="Rows of the trip file">
-              <thead className="sticky top-0 bg-mist text-left">
-                <tr>
-                  <th className="px-2 py-1 text-right">Row</th>
-                  <th className="px-2 py-1">Check</th>
-                  <th className="px-2 py-1">Vehicle</th>
-                  <th className="px-2 py-1">Route</th>
-                  <th className="px-2 py-1">Start</th>
-                  <th className="px-2 py-1 text-right">Distance [km]</th>
-                  <th className="px-2 py-1">Problems</th>
-                </tr>
-              </thead>
-              <tbody>
-                {report.rows.map((r) => (
-                  <tr key={r.row} className="border-t border-line align-top">
-                    <td className="px-2 py-1 text-right tabular-nums">{r.row}</td>
-                    <td className="px-2 py-1">{r.ok ? <StatusBadge tone="ok">Fine</StatusBadge> : <StatusBadge tone="overdue">Problem</StatusBadge>}</td>
-                    <td className="px-2 py-1">{r.trip.fleetNumber}</td>
-                    <td className="px-2 py-1">{r.trip.routeName}</td>
-                    <td className="px-2 py-1 whitespace-nowrap">{formatDateTime(r.trip.startedAt)}</td>
-                    <td className="px-2 py-1 text-right tabular-nums">{formatNumber(r.trip.distanceKm, 1)}</td>
-                    <td className="px-2 py-1 text-overdue">{r.problems.join('; ')}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <ScrollTable
+            label="Rows of the trip file"
+            height="max-h-96"
+            head={[{ label: 'Row', numeric: true }, { label: 'Check' }, { label: 'Vehicle' }, { label: 'Route' }, { label: 'Start' }, { label: 'Distance [km]', numeric: true }, { label: 'Problems' }]}
+          >
+            {report.rows.map((r) => (
+              <tr key={r.row} className="border-t border-line align-top">
+                <td className="px-2 py-1 text-right tabular-nums">{r.row}</td>
+                <td className="px-2 py-1">{r.ok ? <StatusBadge tone="ok">Fine</StatusBadge> : <StatusBadge tone="overdue">Problem</StatusBadge>}</td>
+                <td className="px-2 py-1">{r.trip.fleetNumber}</td>
+                <td className="px-2 py-1">{r.trip.routeName}</td>
+                <td className="px-2 py-1 whitespace-nowrap">{formatDateTime(r.trip.startedAt)}</td>
+                <td className="px-2 py-1 text-right tabular-nums">{formatNumber(r.trip.distanceKm, 1)}</td>
+                <td className="px-2 py-1 text-overdue">{r.problems.join('; ')}</td>
+              </tr>
+            ))}
+          </ScrollTable>
         </section>
       ) : null}
     </div>

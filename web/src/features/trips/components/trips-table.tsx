@@ -33,12 +33,8 @@ export function TripsTable({ vehiclePath, routePath }: { vehiclePath: (id: numbe
   );
   return (
     <DataTable
-      label="Trips"
       columns={columns}
-      {...pagedTableProps(q, params, update)}
-      getRowId={(r) => String(r.id)}
-      noun={['trip', 'trips']}
-      exportUrl={tripsExportUrl(params)}
+      {...pagedTableProps(q, params, update, { noun: ['trip', 'trips'], exportUrl: tripsExportUrl(params) })}
       empty={<EmptyState title="No trips match">Change the dates, or import a trip file.</EmptyState>}
       toolbar={
         <div className="flex flex-wrap gap-3">

@@ -1,9 +1,8 @@
 import { useState, type FormEvent } from 'react';
-import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { SelectField } from '@/components/ui/field';
-import { Notice } from '@/components/ui/notice';
-import { isApiError } from '@/lib/api-client';
+import { FormActions } from '@/components/ui/form-actions';
+import { RequestProblem } from '@/components/ui/request-problem';
 import { ROLES, roleLabels, type Role } from '@/lib/roles';
 import type { UserListItem } from '../api/get-users';
 import { useUpdateUser } from '../api/update-user';
@@ -37,11 +36,7 @@ export function ChangeRoleDialog({ user, onClose, onDone }: { user: UserListItem
   return (
     <Dialog open={user !== null} onClose={close} title={user ? `Change role for ${user.name}` : 'Change role'}>
       <form onSubmit={onSubmit} className="flex flex-col gap-4">
-        {update.isError ? (
-          <Notice tone="error" title="Role not changed">
-            {isApiError(update.error) ? update.error.message : 'Something unexpected went wrong. Try again.'}
-          </Notice>
-        ) : null}
+        <RequestProblem request={update} title="Role not changed" />
         <SelectField
           label="Role"
           value={chosen}
@@ -49,12 +44,9 @@ export function ChangeRoleDialog({ user, onClose, onDone }: { user: UserListItem
           autoFocus
           options={ROLES.map((r) => ({ value: r, label: roleLabels[r] }))}
         />
-        <div className="flex justify-end gap-2">
-          <Button onClick={close}>Cancel</Button>
-          <Button type="submit" variant="primary" busy={update.isPending}>
-            Save role
-          </Button>
-        </div>
+        <FormActions onCancel={close} busy={update.isPending}>
+          Save role
+        </FormActions>
       </form>
     </Dialog>
   );

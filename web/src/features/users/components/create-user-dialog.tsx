@@ -1,8 +1,7 @@
-import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { SelectField, TextField } from '@/components/ui/field';
-import { Notice } from '@/components/ui/notice';
-import { isApiError } from '@/lib/api-client';
+import { FormActions } from '@/components/ui/form-actions';
+import { RequestProblem } from '@/components/ui/request-problem';
 import { useSchemaForm } from '@/lib/use-schema-form';
 import { ROLES, roleLabels } from '@/lib/roles';
 import { createUserSchema, useCreateUser } from '../api/create-user';
@@ -30,16 +29,10 @@ export function CreateUserDialog({ open, onClose, onCreated }: { open: boolean; 
     }),
   );
 
-  const otherProblem = create.isError && !(isApiError(create.error) && Object.keys(create.error.fields).length > 0);
-
   return (
     <Dialog open={open} onClose={close} title="Add a person" description="They sign in with this e-mail and the first password you set here.">
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
-        {otherProblem ? (
-          <Notice tone="error" title="Not added">
-            {isApiError(create.error) ? create.error.message : 'Something unexpected went wrong. Try again.'}
-          </Notice>
-        ) : null}
+        <RequestProblem request={create} title="Not added" fieldsShownOnForm />
         <TextField label={labels.name} {...form.register('name')} autoComplete="off" error={form.errorOf('name')} autoFocus />
         <TextField label={labels.email} {...form.register('email')} type="email" autoComplete="off" spellCheck={false} error={form.errorOf('email')} />
         <SelectField
@@ -57,12 +50,9 @@ export function CreateUserDialog({ open, onClose, onCreated }: { open: boolean; 
           hint="At least 10 characters. Give it to them in person; they choose their own password when they first sign in."
           error={form.errorOf('password')}
         />
-        <div className="mt-1 flex justify-end gap-2">
-          <Button onClick={close}>Cancel</Button>
-          <Button type="submit" variant="primary" busy={create.isPending}>
-            Add person
-          </Button>
-        </div>
+        <FormActions onCancel={close} busy={create.isPending} className="mt-1">
+          Add person
+        </FormActions>
       </form>
     </Dialog>
   );

@@ -1,7 +1,6 @@
 import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
-import { Notice } from '@/components/ui/notice';
-import { isApiError } from '@/lib/api-client';
+import { RequestProblem } from '@/components/ui/request-problem';
 import type { UserListItem } from '../api/get-users';
 import { useUpdateUser } from '../api/update-user';
 
@@ -39,11 +38,7 @@ export function SetActiveDialog({ user, onClose, onDone }: { user: UserListItem 
           : 'They can sign in again with their existing password.'
       }
     >
-      {update.isError ? (
-        <Notice tone="error" title="Nothing changed" className="mb-4">
-          {isApiError(update.error) ? update.error.message : 'Something unexpected went wrong. Try again.'}
-        </Notice>
-      ) : null}
+      <RequestProblem request={update} title="Nothing changed" className="mb-4" />
       <div className="flex justify-end gap-2">
         <Button onClick={close} autoFocus>
           Cancel

@@ -1,8 +1,7 @@
-import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { TextField } from '@/components/ui/field';
-import { Notice } from '@/components/ui/notice';
-import { isApiError } from '@/lib/api-client';
+import { FormActions } from '@/components/ui/form-actions';
+import { RequestProblem } from '@/components/ui/request-problem';
 import { useSchemaForm } from '@/lib/use-schema-form';
 import { passwordSchema } from '@contracts/users';
 import { z } from 'zod';
@@ -41,8 +40,6 @@ export function SetPasswordDialog({ user, onClose, onDone }: { user: UserListIte
     );
   });
 
-  const otherProblem = update.isError && !(isApiError(update.error) && Object.keys(update.error.fields).length > 0);
-
   return (
     <Dialog
       open={user !== null}
@@ -51,11 +48,7 @@ export function SetPasswordDialog({ user, onClose, onDone }: { user: UserListIte
       description="They sign in with it once and must then choose a password of their own. Any sessions they have open now end."
     >
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
-        {otherProblem ? (
-          <Notice tone="error" title="Password not set">
-            {isApiError(update.error) ? update.error.message : 'Something unexpected went wrong. Try again.'}
-          </Notice>
-        ) : null}
+        <RequestProblem request={update} title="Password not set" fieldsShownOnForm />
         <TextField
           label={labels.password}
           {...form.register('password')}
@@ -65,12 +58,9 @@ export function SetPasswordDialog({ user, onClose, onDone }: { user: UserListIte
           hint="At least 10 characters. Give it to them in person."
           error={form.errorOf('password')}
         />
-        <div className="mt-1 flex justify-end gap-2">
-          <Button onClick={close}>Cancel</Button>
-          <Button type="submit" variant="primary" busy={update.isPending}>
-            Set password
-          </Button>
-        </div>
+        <FormActions onCancel={close} busy={update.isPending} className="mt-1">
+          Set password
+        </FormActions>
       </form>
     </Dialog>
   );

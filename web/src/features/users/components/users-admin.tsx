@@ -4,9 +4,9 @@ import { Button } from '@/components/ui/button';
 import { DataTable, pagedTableProps } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SelectField } from '@/components/ui/field';
+import { FilterBar } from '@/components/ui/filter-bar';
 import { Notice } from '@/components/ui/notice';
 import { PageHeader } from '@/components/ui/page-header';
-import { SearchField } from '@/components/ui/search-field';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { formatDate } from '@/lib/format';
 import { ROLES, roleLabels } from '@/lib/roles';
@@ -131,20 +131,16 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
         </Notice>
       ) : null}
       <DataTable
-        label="People"
         columns={columns}
-        {...pagedTableProps(query, params, update)}
-        getRowId={(r) => String(r.id)}
-        noun={['person', 'people']}
-        exportUrl={usersExportUrl(params)}
+        {...pagedTableProps(query, params, update, { noun: ['person', 'people'], exportUrl: usersExportUrl(params) })}
         toolbar={
-          <div role="search" aria-label="Filter people" className="grid grid-cols-2 items-end gap-3 md:grid-cols-[minmax(12rem,1.5fr)_repeat(2,minmax(9rem,1fr))_auto]">
-            <SearchField
-              label="Name or e-mail"
-              value={params.q ?? ''}
-              onChange={(q) => update({ q: q || undefined })}
-              className="col-span-2 md:col-span-1"
-            />
+          <FilterBar
+            label="Filter people"
+            columns="md:grid-cols-[minmax(12rem,1.5fr)_repeat(2,minmax(9rem,1fr))_auto]"
+            search={{ label: 'Name or e-mail', value: params.q ?? '', onChange: (q) => update({ q: q || undefined }) }}
+            filtered={filtered}
+            onClear={() => update({ q: undefined, role: undefined, active: undefined })}
+          >
             <SelectField
               label="Role"
               value={params.role ?? ''}
@@ -161,10 +157,7 @@ export function UsersAdmin({ currentUserId }: { currentUserId: number }) {
                 { value: 'false', label: 'Deactivated only' },
               ]}
             />
-            <Button variant="quiet" disabled={!filtered} onClick={() => update({ q: undefined, role: undefined, active: undefined })} className="justify-self-start">
-              Clear filters
-            </Button>
-          </div>
+          </FilterBar>
         }
         empty={
           filtered ? (

@@ -11,7 +11,6 @@ export function DamperHistory({ dampers }: { dampers: Damper[] }) {
     <SimpleTable
       label="Replaced dampers"
       rows={removed}
-      getRowKey={(d) => d.id}
       columns={[
         { key: 'pos', header: 'Corner', rowHeader: true, cell: (d) => <span title={positionName(d.position)}>{d.position}</span> },
         { key: 'removed', header: 'Removed', cell: (d) => <span className="tabular whitespace-nowrap">{formatDate(d.removedAt)}</span> },

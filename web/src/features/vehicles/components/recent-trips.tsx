@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
+import { DateCell } from '@/components/ui/date-cell';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SimpleTable } from '@/components/ui/simple-table';
 import { formatDateTime, formatHoursMinutes, formatNumber, formatQuantity, minutesBetween } from '@/lib/format';
@@ -53,16 +54,11 @@ export function RecentTrips({ trips, compact }: { trips: VehicleTrip[]; /** A li
     <SimpleTable
       label="Recent trips"
       rows={trips}
-      getRowKey={(t) => t.id}
       columns={[
         {
           key: 'start',
           header: 'Started',
-          cell: (t) => (
-            <time dateTime={t.startedAt} className="tabular whitespace-nowrap">
-              {formatDateTime(t.startedAt)}
-            </time>
-          ),
+          cell: (t) => <DateCell value={t.startedAt} withTime />,
         },
         { key: 'route', header: 'Route', cell: (t) => t.routeName },
         { key: 'driver', header: 'Driver', cell: (t) => t.driverName ?? '—' },

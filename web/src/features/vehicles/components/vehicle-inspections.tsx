@@ -1,7 +1,7 @@
 import { EmptyState } from '@/components/ui/empty-state';
+import { DateCell } from '@/components/ui/date-cell';
 import { SimpleTable } from '@/components/ui/simple-table';
 import { InspectionStatusBadge as Badge } from '@/components/ui/inspection-status-badge';
-import { formatDate } from '@/lib/format';
 import type { InspectionStatus, VehicleInspection } from '../api/get-vehicle';
 
 export function InspectionStatusBadge({ status }: { status: InspectionStatus }) {
@@ -22,16 +22,11 @@ export function VehicleInspections({ inspections }: { inspections: VehicleInspec
     <SimpleTable
       label="Inspections"
       rows={inspections}
-      getRowKey={(i) => i.id}
       columns={[
         {
           key: 'due',
           header: 'Due',
-          cell: (i) => (
-            <time dateTime={i.dueDate} className="tabular whitespace-nowrap">
-              {formatDate(i.dueDate)}
-            </time>
-          ),
+          cell: (i) => <DateCell value={i.dueDate} />,
         },
         { key: 'status', header: 'Status', cell: (i) => <InspectionStatusBadge status={i.status} /> },
         { key: 'reason', header: 'Because', cell: (i) => i.reason ?? <span className="text-slate">No reason recorded</span> },
@@ -40,9 +35,7 @@ export function VehicleInspections({ inspections }: { inspections: VehicleInspec
           header: 'Completed',
           cell: (i) =>
             i.completedAt ? (
-              <time dateTime={i.completedAt} className="tabular whitespace-nowrap">
-                {formatDate(i.completedAt)}
-              </time>
+              <DateCell value={i.completedAt} />
             ) : (
               <span className="text-slate">Not yet</span>
             ),

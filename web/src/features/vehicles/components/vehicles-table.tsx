@@ -5,7 +5,7 @@ import { Button } from '@/components/ui/button';
 import { DataTable, pagedTableProps } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SelectField, type Option } from '@/components/ui/field';
-import { SearchField } from '@/components/ui/search-field';
+import { FilterBar } from '@/components/ui/filter-bar';
 import { formatNumber } from '@/lib/format';
 import { vehiclesExportUrl } from '../api/export-vehicles';
 import { useVehicles, VEHICLE_STATUSES, type VehicleListItem, type VehicleListParams } from '../api/get-vehicles';
@@ -86,14 +86,13 @@ export function VehiclesTable({ params, onParamsChange, depotOptions, specOption
   ];
 
   const toolbar = (
-    <div role="search" aria-label="Filter vehicles" className="grid grid-cols-2 items-end gap-3 md:grid-cols-[minmax(12rem,1.4fr)_repeat(3,minmax(9rem,1fr))_auto]">
-      <SearchField
-        label="Fleet number or plate"
-        value={params.q ?? ''}
-        onChange={(q) => onParamsChange({ q: q || undefined })}
-        placeholder="Part of a fleet number or plate"
-        className="col-span-2 md:col-span-1"
-      />
+    <FilterBar
+      label="Filter vehicles"
+      columns="md:grid-cols-[minmax(12rem,1.4fr)_repeat(3,minmax(9rem,1fr))_auto]"
+      search={{ label: 'Fleet number or plate', value: params.q ?? '', onChange: (q) => onParamsChange({ q: q || undefined }), placeholder: 'Part of a fleet number or plate' }}
+      filtered={filtered}
+      onClear={() => onParamsChange({ q: undefined, depotId: undefined, specId: undefined, status: undefined })}
+    >
       <SelectField
         label="Depot"
         value={params.depotId ? String(params.depotId) : ''}
@@ -112,25 +111,13 @@ export function VehiclesTable({ params, onParamsChange, depotOptions, specOption
         onChange={(e) => onParamsChange({ status: (e.target.value || undefined) as VehicleListParams['status'] })}
         options={statusOptions}
       />
-      <Button
-        variant="quiet"
-        onClick={() => onParamsChange({ q: undefined, depotId: undefined, specId: undefined, status: undefined })}
-        disabled={!filtered}
-        className="justify-self-start"
-      >
-        Clear filters
-      </Button>
-    </div>
+    </FilterBar>
   );
 
   return (
     <DataTable
-      label="Vehicles"
       columns={columns}
-      {...pagedTableProps(query, params, onParamsChange)}
-      getRowId={(r) => String(r.id)}
-      noun={['vehicle', 'vehicles']}
-      exportUrl={vehiclesExportUrl(params)}
+      {...pagedTableProps(query, params, onParamsChange, { noun: ['vehicle', 'vehicles'], exportUrl: vehiclesExportUrl(params) })}
       toolbar={toolbar}
       roomy={roomy}
       empty={

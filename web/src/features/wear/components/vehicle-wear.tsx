@@ -4,6 +4,7 @@ import { EmptyState } from '@/components/ui/empty-state';
 import { ErrorState } from '@/components/ui/error-state';
 import { LoadingState } from '@/components/ui/loading-state';
 import { Section } from '@/components/ui/section';
+import { SentenceList } from '@/components/ui/sentence-list';
 import { SimpleTable, type SimpleColumn } from '@/components/ui/simple-table';
 import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
 import { formatDate, formatNumber, formatPercent, formatQuantity } from '@/lib/format';
@@ -204,11 +205,7 @@ export function VehicleWear({ vehicleId }: { vehicleId: number }) {
             </div>
             <details className="mt-3 text-sm text-slate">
               <summary className="cursor-pointer">What these figures rest on</summary>
-              <ul className="mt-1 list-disc pl-5">
-                {w.assumptions.map((a) => (
-                  <li key={a}>{a}</li>
-                ))}
-              </ul>
+              <SentenceList items={w.assumptions} className="mt-1 list-disc pl-5" />
             </details>
           </>
         )}

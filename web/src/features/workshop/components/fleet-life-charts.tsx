@@ -4,6 +4,7 @@ import { Caution } from '@/components/ui/caution';
 import { Facts } from '@/components/ui/facts';
 import { Notice } from '@/components/ui/notice';
 import { Section } from '@/components/ui/section';
+import { SentenceList } from '@/components/ui/sentence-list';
 import { SimpleTable, type SimpleColumn } from '@/components/ui/simple-table';
 import { formatNumber } from '@/lib/format';
 import type { LifeTableRow, SpecLife } from '../api/get-fleet-life';
@@ -164,11 +165,7 @@ export function FleetLifeView({ life, backtestTo }: { life: SpecLife; backtestTo
         <FleetKmCharts view={life.fleetKm} />
       </Section>
       <Section title="Assumptions">
-        <ul className="list-disc space-y-1 pl-5 text-sm text-ink">
-          {life.assumptions.map((a) => (
-            <li key={a}>{a}</li>
-          ))}
-        </ul>
+        <SentenceList items={life.assumptions} className="list-disc space-y-1 pl-5 text-sm text-ink" />
       </Section>
     </>
   );

@@ -27,7 +27,6 @@ export function AssignInspections({ mechanics, depots, vehiclePath }: { mechanic
       <SimpleTable
         label="Open inspections"
         rows={q.data.items}
-        getRowKey={(i) => i.id}
         columns={[
           { key: 'd', header: 'Due', cell: (i) => formatDate(i.dueDate) },
           { key: 's', header: 'Status', cell: (i) => <InspectionStatusBadge status={i.status} /> },
