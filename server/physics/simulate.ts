@@ -379,35 +379,45 @@ export function simulateWeighted(p: PreparedSimulation, e: Float64Array, firstCo
   const ra = p.rows.bodyAccel;
   const c0 = ra[0], c1 = ra[1], c2 = ra[2], c3 = ra[3];
   const rw = p.rows.weightedAccel;
+  // the filter rows' coefficients as locals: row i of the filter (state 4 + i) reads the four
+  // quarter-car states, the input and the filter states of its own and the earlier sections
+  const f00 = a[4 * n + 0], f01 = a[4 * n + 1], f02 = a[4 * n + 2], f03 = a[4 * n + 3], fb0 = b[4], fw00 = a[4 * n + 4], fw01 = a[4 * n + 5];
+  const f10 = a[5 * n + 0], f11 = a[5 * n + 1], f12 = a[5 * n + 2], f13 = a[5 * n + 3], fb1 = b[5], fw10 = a[5 * n + 4], fw11 = a[5 * n + 5];
+  const f20 = a[6 * n + 0], f21 = a[6 * n + 1], f22 = a[6 * n + 2], f23 = a[6 * n + 3], fb2 = b[6], fw20 = a[6 * n + 4], fw21 = a[6 * n + 5], fw22 = a[6 * n + 6], fw23 = a[6 * n + 7];
+  const f30 = a[7 * n + 0], f31 = a[7 * n + 1], f32 = a[7 * n + 2], f33 = a[7 * n + 3], fb3 = b[7], fw30 = a[7 * n + 4], fw31 = a[7 * n + 5], fw32 = a[7 * n + 6], fw33 = a[7 * n + 7];
+  const f40 = a[8 * n + 0], f41 = a[8 * n + 1], f42 = a[8 * n + 2], f43 = a[8 * n + 3], fb4 = b[8], fw40 = a[8 * n + 4], fw41 = a[8 * n + 5], fw42 = a[8 * n + 6], fw43 = a[8 * n + 7], fw44 = a[8 * n + 8], fw45 = a[8 * n + 9];
+  const f50 = a[9 * n + 0], f51 = a[9 * n + 1], f52 = a[9 * n + 2], f53 = a[9 * n + 3], fb5 = b[9], fw50 = a[9 * n + 4], fw51 = a[9 * n + 5], fw52 = a[9 * n + 6], fw53 = a[9 * n + 7], fw54 = a[9 * n + 8], fw55 = a[9 * n + 9];
+  const f60 = a[10 * n + 0], f61 = a[10 * n + 1], f62 = a[10 * n + 2], f63 = a[10 * n + 3], fb6 = b[10], fw60 = a[10 * n + 4], fw61 = a[10 * n + 5], fw62 = a[10 * n + 6], fw63 = a[10 * n + 7], fw64 = a[10 * n + 8], fw65 = a[10 * n + 9], fw66 = a[10 * n + 10], fw67 = a[10 * n + 11];
+  const f70 = a[11 * n + 0], f71 = a[11 * n + 1], f72 = a[11 * n + 2], f73 = a[11 * n + 3], fb7 = b[11], fw70 = a[11 * n + 4], fw71 = a[11 * n + 5], fw72 = a[11 * n + 6], fw73 = a[11 * n + 7], fw74 = a[11 * n + 8], fw75 = a[11 * n + 9], fw76 = a[11 * n + 10], fw77 = a[11 * n + 11];
+  const r0 = rw[0], r1 = rw[1], r2 = rw[2], r3 = rw[3], rw0 = rw[4], rw1 = rw[5], rw2 = rw[6], rw3 = rw[7], rw4 = rw[8], rw5 = rw[9], rw6 = rw[10], rw7 = rw[11];
+  let w0 = 0, w1 = 0, w2 = 0, w3 = 0, w4 = 0, w5 = 0, w6 = 0, w7 = 0;
   const kt = -p.rows.tireLoad[2];
   const invDt = 1 / p.dtS;
   const steps = Math.min(e.length - 1, endCounted);
   let x0 = 0, x1 = 0, x2 = 0, x3 = 0;
-  const w = new Float64Array(8);
-  const nw = new Float64Array(8);
   let sa = 0, st = 0, sv = 0, sf = 0, sw = 0;
   let j = 0;
   for (let k = 0; k < steps; k++) {
     const u = (e[k + 1] - e[k]) * invDt;
-    // filter rows (4…11) from the old state; the Wk sections are in series, so filter row i
-    // reads only the states of its own and the earlier sections (lower block-triangular)
-    for (let i = 0; i < 8; i++) {
-      const off = (i + 4) * n;
-      let s = a[off] * x0 + a[off + 1] * x1 + a[off + 2] * x2 + a[off + 3] * x3 + b[i + 4] * u;
-      const lim = ((i >> 1) + 1) * 2;
-      for (let m = 0; m < lim; m++) s += a[off + 4 + m] * w[m];
-      nw[i] = s;
-    }
+    // filter rows from the old state (sums in the order of the matrix row, so the result is the
+    // matrix product's to the last bit)
+    const v0 = f00 * x0 + f01 * x1 + f02 * x2 + f03 * x3 + fb0 * u + fw00 * w0 + fw01 * w1;
+    const v1 = f10 * x0 + f11 * x1 + f12 * x2 + f13 * x3 + fb1 * u + fw10 * w0 + fw11 * w1;
+    const v2 = f20 * x0 + f21 * x1 + f22 * x2 + f23 * x3 + fb2 * u + fw20 * w0 + fw21 * w1 + fw22 * w2 + fw23 * w3;
+    const v3 = f30 * x0 + f31 * x1 + f32 * x2 + f33 * x3 + fb3 * u + fw30 * w0 + fw31 * w1 + fw32 * w2 + fw33 * w3;
+    const v4 = f40 * x0 + f41 * x1 + f42 * x2 + f43 * x3 + fb4 * u + fw40 * w0 + fw41 * w1 + fw42 * w2 + fw43 * w3 + fw44 * w4 + fw45 * w5;
+    const v5 = f50 * x0 + f51 * x1 + f52 * x2 + f53 * x3 + fb5 * u + fw50 * w0 + fw51 * w1 + fw52 * w2 + fw53 * w3 + fw54 * w4 + fw55 * w5;
+    const v6 = f60 * x0 + f61 * x1 + f62 * x2 + f63 * x3 + fb6 * u + fw60 * w0 + fw61 * w1 + fw62 * w2 + fw63 * w3 + fw64 * w4 + fw65 * w5 + fw66 * w6 + fw67 * w7;
+    const v7 = f70 * x0 + f71 * x1 + f72 * x2 + f73 * x3 + fb7 * u + fw70 * w0 + fw71 * w1 + fw72 * w2 + fw73 * w3 + fw74 * w4 + fw75 * w5 + fw76 * w6 + fw77 * w7;
+    w0 = v0; w1 = v1; w2 = v2; w3 = v3; w4 = v4; w5 = v5; w6 = v6; w7 = v7;
     const n0 = a00 * x0 + a01 * x1 + a02 * x2 + a03 * x3 + b0 * u;
     const n1 = a10 * x0 + a11 * x1 + a12 * x2 + a13 * x3 + b1 * u;
     const n2 = a20 * x0 + a21 * x1 + a22 * x2 + a23 * x3 + b2 * u;
     const n3 = a30 * x0 + a31 * x1 + a32 * x2 + a33 * x3 + b3 * u;
     x0 = n0; x1 = n1; x2 = n2; x3 = n3;
-    w.set(nw);
     if (k >= firstCounted) {
       const acc = c0 * x0 + c1 * x1 + c2 * x2 + c3 * x3;
-      let yw = rw[0] * x0 + rw[1] * x1 + rw[2] * x2 + rw[3] * x3;
-      for (let m = 0; m < 8; m++) yw += rw[4 + m] * w[m];
+      const yw = r0 * x0 + r1 * x1 + r2 * x2 + r3 * x3 + rw0 * w0 + rw1 * w1 + rw2 * w2 + rw3 * w3 + rw4 * w4 + rw5 * w5 + rw6 * w6 + rw7 * w7;
       const rv = x1 - x3;
       sa += acc * acc;
       st += x0 * x0;
