@@ -8,6 +8,7 @@ import { SelectField } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { StatusShape } from '@/components/ui/status-badge';
 import { QueryState } from '@/components/ui/query-state';
+import { formatDate } from '@/lib/format';
 import { useDepots } from '@/features/depots/api/get-depots';
 import { useDueInspections, type DueSort } from '@/features/inspections/api/get-due-inspections';
 import { DueInspectionsList } from '@/features/inspections/components/due-inspections';
@@ -77,7 +78,7 @@ export function DuePage() {
             Map
           </Button>
         </div>
-        {due.data ? <p className="text-sm text-slate">As of {due.data.today}.</p> : null}
+        {due.data ? <p className="text-sm text-slate">As of <time dateTime={due.data.today}>{formatDate(due.data.today)}</time>.</p> : null}
       </div>
       <QueryState query={due} loading="Loading due inspections…" what="the due inspections" retry>
         {(result) =>

@@ -10,7 +10,7 @@ import { SimpleTable, type SimpleColumn } from '@/components/ui/simple-table';
 import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
 import { QueryState } from '@/components/ui/query-state';
 import { isApiError } from '@/lib/api-client';
-import { formatDateTime, formatNumber } from '@/lib/format';
+import { formatDate, formatDateTime, formatNumber } from '@/lib/format';
 import { useJobRun } from '../api/get-job-run';
 import { useJobRuns, type JobRun } from '../api/get-job-runs';
 import { useRunNightly } from '../api/run-nightly';
@@ -27,7 +27,7 @@ const columns: SimpleColumn<JobRun>[] = [
   { key: 'status', header: 'Status', cell: (r) => <StatusBadge tone={statusTone[r.status] ?? 'neutral'}>{statusLabel[r.status] ?? r.status}</StatusBadge> },
   { key: 'started', header: 'Started', cell: (r) => <span className="whitespace-nowrap">{formatDateTime(r.startedAt)}</span> },
   { key: 'by', header: 'Started by', cell: (r) => (r.requestedBy ? r.requestedBy.name : triggerLabel[r.trigger] ?? r.trigger) },
-  { key: 'asOf', header: 'As of', cell: (r) => r.asOf },
+  { key: 'asOf', header: 'As of', cell: (r) => <span className="whitespace-nowrap">{formatDate(r.asOf)}</span> },
   { key: 'duration', header: 'Duration', unit: 's', numeric: true, cell: (r) => (r.durationS === null ? '…' : formatNumber(r.durationS, 1)) },
   { key: 'trips', header: 'Trips', numeric: true, cell: (r) => n(r, 'trips') },
   { key: 'segments', header: 'Segments', numeric: true, cell: (r) => n(r, 'segments') },
