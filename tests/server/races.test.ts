@@ -26,7 +26,7 @@ describe('the last active manager', () => {
     const otherId = other.body.user.id;
     for (let k = 0; k < 5; k++) {
       // both active managers again (set directly, so the next try does not hang on the last one's outcome)
-      await srv.db.sequelize.query(`UPDATE users SET role = 'manager', active = 1 WHERE id IN (?, ?)`, { replacements: [me, otherId] });
+      await srv.db.sequelize.query(`UPDATE users SET role = 'manager', active = TRUE WHERE id IN (?, ?)`, { replacements: [me, otherId] });
       const c = new ApiClient(srv.url);
       expect((await c.login(DEMO.manager)).status).toBe(200);
       await c.refreshCsrf();
@@ -39,9 +39,9 @@ describe('the last active manager', () => {
       const statuses = [off.status, demote.status].sort();
       expect(statuses[0], `try ${k + 1}`).toBe(200);
       expect([403, 409], `try ${k + 1}`).toContain(statuses[1]);
-      expect(await count(`SELECT COUNT(*) AS n FROM users WHERE role = 'manager' AND active = 1`)).toBe(1);
+      expect(await count(`SELECT COUNT(*) AS n FROM users WHERE role = 'manager' AND active = TRUE`)).toBe(1);
     }
-    await srv.db.sequelize.query(`UPDATE users SET role = 'manager', active = 1 WHERE id = ?`, { replacements: [me] });
+    await srv.db.sequelize.query(`UPDATE users SET role = 'manager', active = TRUE WHERE id = ?`, { replacements: [me] });
     await manager.login(DEMO.manager);
     // one token before requests are sent at once (each fetching its own would replace the other's cookie)
     await manager.refreshCsrf();

@@ -27,7 +27,7 @@ beforeAll(async () => {
   sq = srv.db.sequelize;
   [vehicle] = await sq.query<typeof vehicle>(`SELECT id, fleet_number FROM vehicles WHERE status = 'in_service' ORDER BY fleet_number LIMIT 1`, { type: QueryTypes.SELECT });
   [route] = await sq.query<typeof route>('SELECT id, name FROM routes ORDER BY name LIMIT 1', { type: QueryTypes.SELECT });
-  [driver] = await sq.query<typeof driver>(`SELECT id, email, name FROM users WHERE role = 'driver' AND active = 1 ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT });
+  [driver] = await sq.query<typeof driver>(`SELECT id, email, name FROM users WHERE role = 'driver' AND active = TRUE ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT });
   // TEST_NOW is 2026-11-30T12:00Z: already 1 December in Auckland (UTC+13 in summer)
   app = await miniApp((r) => registerTripRoutes(r, { now: () => TEST_NOW, timeZone: 'Pacific/Auckland' }));
   utcApp = await miniApp((r) => registerTripRoutes(r, { now: () => TEST_NOW }));
