@@ -98,7 +98,7 @@ describe('one trip entered by hand', () => {
       const e = (await r.json()) as Errors;
       if (field) expect(e.error.fields[field], JSON.stringify(o)).toEqual(words);
     }
-    const [n] = await sq.query<{ n: number }>(`SELECT COUNT(*) AS n FROM trips WHERE started_at LIKE '2024-03-03 05%'`, { type: QueryTypes.SELECT });
+    const [n] = await sq.query<{ n: number }>('SELECT COUNT(*) AS n FROM trips WHERE started_at >= ? AND started_at < ?', { replacements: ['2024-03-03 05:00:00.000 +00:00', '2024-03-03 06:00:00.000 +00:00'], type: QueryTypes.SELECT });
     expect(n.n).toBe(0);
   });
 
@@ -173,7 +173,7 @@ describe('trip file import', () => {
       [3, true],
       [4, false],
     ]);
-    const [n] = await sq.query<{ n: number }>(`SELECT COUNT(*) AS n FROM trips WHERE started_at LIKE '2024-03-04%'`, { type: QueryTypes.SELECT });
+    const [n] = await sq.query<{ n: number }>('SELECT COUNT(*) AS n FROM trips WHERE started_at >= ? AND started_at < ?', { replacements: ['2024-03-04 00:00:00.000 +00:00', '2024-03-05 00:00:00.000 +00:00'], type: QueryTypes.SELECT });
     expect(n.n).toBe(0);
   });
 
