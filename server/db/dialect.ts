@@ -41,6 +41,15 @@ export interface SqlWords {
    * number or a text; rows whose text is not JSON match nothing).
    */
   jsonFieldIs(expr: string, path: string[]): string;
+  /**
+   * SUM of doubles whose result must not hang on the order the plan reads the rows in.
+   * PostgreSQL adds them plainly in that order, so the same rows read another way (some of them
+   * rewritten by a run cancelled and run again, or another plan for another batch) can sum to
+   * another last bit: there it adds them in `orderBy` order (the values themselves when not
+   * given). SQLite's SUM compensates (Kahan–Babuška–Neumaier), which the order hardly moves, and
+   * reads these rows through their keys: it stays a plain SUM, as it was.
+   */
+  sumInOrder(expr: string, orderBy?: string): string;
   /** Boolean literals (SQLite keeps booleans as 0 and 1). */
   true: string;
   false: string;
@@ -57,6 +66,7 @@ const sqlite: SqlWords = {
   rowId: 'rowid',
   distinctList: (expr) => `group_concat(DISTINCT ${expr})`,
   jsonFieldIs: (expr, path) => `json_valid(${expr}) AND json_extract(${expr}, '$.${path.join('.')}') = ?`,
+  sumInOrder: (expr) => `SUM(${expr})`,
   true: '1',
   false: '0',
 };
@@ -74,6 +84,7 @@ const postgres: SqlWords = {
   distinctList: (expr) => `string_agg(DISTINCT (${expr})::text, ',')`,
   // the app writes only JSON there (express-session's data); the field's text against the value's
   jsonFieldIs: (expr, path) => `(${expr})::jsonb #>> '{${path.join(',')}}' = CAST(? AS text)`,
+  sumInOrder: (expr, orderBy) => `SUM(${expr} ORDER BY ${orderBy ?? expr})`,
   true: 'TRUE',
   false: 'FALSE',
 };

@@ -84,26 +84,31 @@ async function openPostgres(url: string, opts: { log?: (sql: string) => void }):
     // nested transactions (savepoints) already hold it through their parent
     if (!(t as unknown as { parent?: unknown }).parent) await sequelize.query(`SELECT pg_advisory_xact_lock(${TRANSACTION_LOCK})`, { transaction: t });
   };
-  stampsAsText(sequelize);
+  rawRowsAsSqlite(sequelize);
   await sequelize.authenticate();
   initModels(sequelize);
   return { sequelize, dialect: 'postgres', file: null, close: () => sequelize.close() };
 }
 
 /**
- * Rows of raw queries (no model) with their stamps as the text SQLite holds
- * (`2026-11-30 12:00:00.000 +00:00`) instead of the Date objects pg makes of them: the raw SQL of
- * the repositories reads stamps as text (slices days off them, compares them with stamp texts),
- * as the SQLite file stores them. Queries for a model keep pg's Dates.
+ * Rows of raw queries (no model) in the forms SQLite holds: stamps as its text
+ * (`2026-11-30 12:00:00.000 +00:00`) instead of the Date objects pg makes of them, booleans as 1
+ * and 0 instead of true and false. The raw SQL of the repositories reads stamps as text (slices
+ * days off them, compares them with stamp texts) and flags as the numbers it declares, as the
+ * SQLite file stores them. Queries for a model keep pg's Dates and booleans.
  */
-function stampsAsText(sequelize: Sequelize) {
+function rawRowsAsSqlite(sequelize: Sequelize) {
   const query = sequelize.query.bind(sequelize) as (sql: unknown, options?: QueryOptionsWithType<QueryTypes> & { model?: unknown; instance?: unknown }) => Promise<unknown>;
   const fix = (rows: unknown) => {
     if (!Array.isArray(rows)) return;
     for (const row of rows) {
       if (!row || typeof row !== 'object') continue;
       const r = row as Record<string, unknown>;
-      for (const k in r) if (r[k] instanceof Date) r[k] = stampText(r[k]);
+      for (const k in r) {
+        const v = r[k];
+        if (v instanceof Date) r[k] = stampText(v);
+        else if (typeof v === 'boolean') r[k] = Number(v);
+      }
     }
   };
   (sequelize as { query: unknown }).query = async (sql: unknown, options?: QueryOptionsWithType<QueryTypes> & { model?: unknown; instance?: unknown }) => {

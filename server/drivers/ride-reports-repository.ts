@@ -2,6 +2,7 @@
 import { Op, QueryTypes, type Order, type Sequelize, type Transaction, type WhereOptions } from 'sequelize';
 import { RideReport, type RideReportStatus } from '../db/models';
 import { Route, RouteSegment, User, Vehicle } from '../db/models';
+import { sqlFor } from '../db/dialect';
 import type { LonLat } from '../roads/geometry';
 import type { RideReportFiled, RideReportView } from '../contracts/drivers';
 
@@ -108,14 +109,17 @@ export const rideReportsRepository = {
 
   /** Reports grouped by segment (one row per segment with reports in `status`). */
   async groups(status: RideReportStatus) {
+    // the reports' ids are their keys, so the list's DISTINCT drops none; the route's name is
+    // grouped with its segment (PostgreSQL wants every selected column grouped or aggregated)
+    const ids = sqlFor(RideReport.sequelize!).distinctList('rr.id');
     const rows = await RideReport.sequelize!.query<{
       segment_id: number; route_id: number; route_name: string; seq: number; start_m: number; end_m: number; iso_class: string | null; gd_n0: number | null;
       roughness_source: string | null; geometry: string; n: number; max_severity: number; first_at: string; last_at: string; ids: string;
     }>(
       `SELECT s.id AS segment_id, s.route_id, r.name AS route_name, s.seq, s.start_m, s.end_m, s.iso_class, s.gd_n0, s.roughness_source, s.geometry,
-              COUNT(*) AS n, MAX(rr.severity) AS max_severity, MIN(rr.reported_at) AS first_at, MAX(rr.reported_at) AS last_at, GROUP_CONCAT(rr.id) AS ids
+              COUNT(*) AS n, MAX(rr.severity) AS max_severity, MIN(rr.reported_at) AS first_at, MAX(rr.reported_at) AS last_at, ${ids} AS ids
        FROM ride_reports rr JOIN route_segments s ON s.id = rr.segment_id JOIN routes r ON r.id = s.route_id
-       WHERE rr.status = ? GROUP BY s.id ORDER BY MAX(rr.severity) DESC, COUNT(*) DESC, MAX(rr.reported_at) DESC`,
+       WHERE rr.status = ? GROUP BY s.id, r.id ORDER BY MAX(rr.severity) DESC, COUNT(*) DESC, MAX(rr.reported_at) DESC`,
       { replacements: [status], type: QueryTypes.SELECT },
     );
     return rows.map((g) => {

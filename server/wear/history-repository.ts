@@ -124,7 +124,7 @@ export function historyRepository(sequelize: Sequelize, shared: WearRepoShared) 
           `INSERT INTO damper_wear_days (damper_id, day, vehicle_id, distance_km, energy_j, spring_damage, wear_km, cum_km, cum_energy_j, cum_wear_km, cum_spring_damage)
            WITH p AS (${fromJsonRows(sequelize, startCols)}),
            daily AS (
-             SELECT u.damper_id, u.day, SUM(u.km) AS km, SUM(u.e) AS e, SUM(u.f) AS f, SUM(u.w) AS w
+             SELECT u.damper_id, u.day, ${words.sumInOrder('u.km')} AS km, ${words.sumInOrder('u.e')} AS e, ${words.sumInOrder('u.f')} AS f, ${words.sumInOrder('u.w')} AS w
              FROM (
                SELECT td.damper_id, td.trip_date AS day, td.distance_km AS km, td.energy_j AS e, td.spring_damage AS f, td.distance_km * pow(td.severity, p.b) AS w
                FROM trip_duties td JOIN dampers d ON d.id = td.damper_id JOIN p ON p.id = td.damper_id

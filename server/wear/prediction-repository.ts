@@ -1,12 +1,14 @@
 /** The predictions' storage: the fitted dampers to predict, their wear summaries and recorded totals, and the prediction rows. */
 import type { Sequelize } from 'sequelize';
 import { fromJsonRows, inList, insertPackedRows, jsonRows, runSql } from '../db/raw';
+import { sqlFor } from '../db/dialect';
 import { type WearSummary } from './wear';
 import { PREDICTION_COLUMNS, type PackedPredictions } from './prediction-rows';
 import type { WearRepoShared } from './repository';
 
 export function predictionRepository(sequelize: Sequelize, shared: WearRepoShared) {
   const { q } = shared;
+  const { sumInOrder } = sqlFor(sequelize);
   return {
     /** Fitted dampers of vehicles in service, by id after `afterId`; only those of `vehicleIds` when given. */
     async installedDamperIds(afterId: number, limit: number, vehicleIds?: number[]): Promise<number[]> {
@@ -40,7 +42,7 @@ export function predictionRepository(sequelize: Sequelize, shared: WearRepoShare
            FROM t JOIN damper_wear_days w ON w.damper_id = t.id
              AND w.day = (SELECT MAX(x.day) FROM damper_wear_days x WHERE x.damper_id = t.id AND x.day <= ?2)),
          s AS (
-           SELECT w.damper_id, SUM(w.wear_km) AS ww, SUM(w.distance_km) AS wkm, SUM(w.spring_damage) AS wd
+           SELECT w.damper_id, ${sumInOrder('w.wear_km', 'w.day')} AS ww, ${sumInOrder('w.distance_km', 'w.day')} AS wkm, ${sumInOrder('w.spring_damage', 'w.day')} AS wd
            FROM t JOIN damper_wear_days w ON w.damper_id = t.id AND w.day >= t.ws AND w.day <= ?2
            GROUP BY w.damper_id)
          SELECT l.id AS damper_id, COALESCE(s.ww, 0) AS ww, COALESCE(s.wkm, 0) AS wkm, COALESCE(s.wd, 0) AS wd,

@@ -3,7 +3,8 @@
  * the transaction it belongs to where the service groups several into one all-or-nothing change.
  */
 import type { Transaction } from 'sequelize';
-import { exec, insert, inTransaction, stamp } from './repository';
+import { sqlFor } from '../db/dialect';
+import { exec, insert, inTransaction, sequelize, stamp } from './repository';
 
 export { inTransaction };
 
@@ -82,7 +83,7 @@ export const workshopWrites = {
 
   /** The vehicle's odometer takes a workshop reading if it is higher (a reading never lowers it). */
   async raiseOdometer(vehicleId: number, km: number, now: Date, t: Transaction) {
-    await exec('UPDATE vehicles SET odometer_km = MAX(odometer_km, ?), updated_at = ? WHERE id = ?', [km, stamp(now), vehicleId], t);
+    await exec(`UPDATE vehicles SET odometer_km = ${sqlFor(sequelize()).greatest}(odometer_km, ?), updated_at = ? WHERE id = ?`, [km, stamp(now), vehicleId], t);
   },
 
   async insertAttachment(a: { inspectionId: number; kind: string; mimeType: string; sizeBytes: number; storedName: string; originalName: string; uploadedById: number }, now: Date) {

@@ -51,7 +51,7 @@ describe('nightly job crash safety', () => {
       expect(later.status).toBe('succeeded');
       expect(later.counts.inspectionsNowDue + later.counts.inspectionsNowOverdue).toBeGreaterThan(0);
       expect(await count(C.db, `SELECT COUNT(*) AS n FROM mail_messages WHERE kind = 'digest'`)).toBe(before);
-      expect(await count(C.db, `SELECT COUNT(*) AS n FROM inspections WHERE status IN ('due','overdue') AND notified_status IS NOT status`)).toBe(0);
+      expect(await count(C.db, `SELECT COUNT(*) AS n FROM inspections WHERE status IN ('due','overdue') AND notified_status IS DISTINCT FROM status`)).toBe(0);
     } finally {
       await C.stop();
     }

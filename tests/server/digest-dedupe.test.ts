@@ -22,7 +22,7 @@ describe('two digests on one day', () => {
     const ctx = { sequelize: srv.db.sequelize, publicUrl: 'http://localhost', asOf: '2026-11-30', now: TEST_NOW, runId: null };
     const digests = async () => Number(((await srv.db.sequelize.query(`SELECT COUNT(*) AS n FROM mail_messages WHERE kind = 'digest'`, { plain: true })) as { n: number }).n);
     const before = await digests();
-    const managers = Number(((await srv.db.sequelize.query(`SELECT COUNT(*) AS n FROM users WHERE role = 'manager' AND active = 1 AND notify_inspection_digest = 1`, { plain: true })) as { n: number }).n);
+    const managers = Number(((await srv.db.sequelize.query(`SELECT COUNT(*) AS n FROM users WHERE role = 'manager' AND active = TRUE AND notify_inspection_digest = TRUE`, { plain: true })) as { n: number }).n);
     batch = ['a1', 'a2'];
     await queueDigests(ctx);
     const afterFirst = await digests();

@@ -53,7 +53,7 @@ describe('nightly job through the API', () => {
     expect(await count(A.db, `SELECT COUNT(*) AS n FROM trips WHERE processed_at IS NULL`)).toBe(0);
     expect(await count(A.db, `SELECT COUNT(*) AS n FROM dampers WHERE removed_at IS NULL AND energy_j > 0`)).toBeGreaterThan(100);
     // never more than one open inspection per vehicle
-    expect(await count(A.db, `SELECT COUNT(*) AS n FROM (SELECT vehicle_id FROM inspections WHERE status IN ('scheduled','due','overdue') GROUP BY vehicle_id HAVING COUNT(*) > 1)`)).toBe(0);
+    expect(await count(A.db, `SELECT COUNT(*) AS n FROM (SELECT vehicle_id FROM inspections WHERE status IN ('scheduled','due','overdue') GROUP BY vehicle_id HAVING COUNT(*) > 1) AS more_than_one`)).toBe(0);
     clean = await dump(A.db);
 
     const list = await c.get<{ items: { id: number; status: string }[]; total: number }>('/api/jobs/runs');

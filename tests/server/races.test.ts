@@ -26,7 +26,7 @@ describe('the last active manager', () => {
     const otherId = other.body.user.id;
     for (let k = 0; k < 5; k++) {
       // both active managers again (set directly, so the next try does not hang on the last one's outcome)
-      await srv.db.sequelize.query(`UPDATE users SET role = 'manager', active = 1 WHERE id IN (?, ?)`, { replacements: [me, otherId] });
+      await srv.db.sequelize.query(`UPDATE users SET role = 'manager', active = TRUE WHERE id IN (?, ?)`, { replacements: [me, otherId] });
       const c = new ApiClient(srv.url);
       expect((await c.login(DEMO.manager)).status).toBe(200);
       await c.refreshCsrf();
@@ -39,9 +39,9 @@ describe('the last active manager', () => {
       const statuses = [off.status, demote.status].sort();
       expect(statuses[0], `try ${k + 1}`).toBe(200);
       expect([403, 409], `try ${k + 1}`).toContain(statuses[1]);
-      expect(await count(`SELECT COUNT(*) AS n FROM users WHERE role = 'manager' AND active = 1`)).toBe(1);
+      expect(await count(`SELECT COUNT(*) AS n FROM users WHERE role = 'manager' AND active = TRUE`)).toBe(1);
     }
-    await srv.db.sequelize.query(`UPDATE users SET role = 'manager', active = 1 WHERE id = ?`, { replacements: [me] });
+    await srv.db.sequelize.query(`UPDATE users SET role = 'manager', active = TRUE WHERE id = ?`, { replacements: [me] });
     await manager.login(DEMO.manager);
     // one token before requests are sent at once (each fetching its own would replace the other's cookie)
     await manager.refreshCsrf();
@@ -104,7 +104,14 @@ describe('trips sent twice at once', () => {
 
   it('when the trips insert fails after the import row is written, then the import row is rolled back too', async () => {
     // a planted failure on one trip's insert, after TripImport.create in the same transaction
-    await srv.db.sequelize.query(`CREATE TRIGGER planted_failure BEFORE INSERT ON trips WHEN NEW.distance_km = 17.25 BEGIN SELECT RAISE(ABORT, 'planted failure'); END`);
+    // (a trigger is written in each database's own language: PostgreSQL's runs a function)
+    const pg = srv.db.dialect === 'postgres';
+    if (pg) {
+      await srv.db.sequelize.query(`CREATE FUNCTION planted_failure() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN RAISE EXCEPTION 'planted failure'; END $$`);
+      await srv.db.sequelize.query(`CREATE TRIGGER planted_failure BEFORE INSERT ON trips FOR EACH ROW WHEN (NEW.distance_km = 17.25) EXECUTE FUNCTION planted_failure()`);
+    } else {
+      await srv.db.sequelize.query(`CREATE TRIGGER planted_failure BEFORE INSERT ON trips WHEN NEW.distance_km = 17.25 BEGIN SELECT RAISE(ABORT, 'planted failure'); END`);
+    }
     try {
       const before = { trips: await count('SELECT COUNT(*) AS n FROM trips'), imports: await count('SELECT COUNT(*) AS n FROM trip_imports') };
       const csv = [HEADER, 'CV-104,Northgate retail park,,2026-11-30T05:00:00Z,2026-11-30T05:45:00Z,17.25,40,'].join('\n');
@@ -113,7 +120,8 @@ describe('trips sent twice at once', () => {
       expect(await count('SELECT COUNT(*) AS n FROM trips')).toBe(before.trips);
       expect(await count('SELECT COUNT(*) AS n FROM trip_imports')).toBe(before.imports);
     } finally {
-      await srv.db.sequelize.query('DROP TRIGGER planted_failure');
+      await srv.db.sequelize.query(pg ? 'DROP TRIGGER planted_failure ON trips' : 'DROP TRIGGER planted_failure');
+      if (pg) await srv.db.sequelize.query('DROP FUNCTION planted_failure()');
     }
   });
 });

@@ -59,12 +59,13 @@ describe('demo surveys', () => {
   });
 
   it('when seeded, then no demo segment is rougher than the roughest unpaved roads (IRI under 35 m/km, docs/methods.md "Road roughness"), and rough stretches exist', async () => {
-    const [row] = await srv.db.sequelize.query<{ maxGd: number; maxIri: number | null; rough: number }>(
-      `SELECT MAX(gd_n0) AS maxGd, MAX(iri) AS maxIri, SUM(CASE WHEN iso_class = 'D' THEN 1 ELSE 0 END) AS rough FROM route_segments`,
+    // snake_case names: PostgreSQL folds an unquoted alias to lower case
+    const [row] = await srv.db.sequelize.query<{ max_gd: number; max_iri: number | null; rough: number }>(
+      `SELECT MAX(gd_n0) AS max_gd, MAX(iri) AS max_iri, SUM(CASE WHEN iso_class = 'D' THEN 1 ELSE 0 END) AS rough FROM route_segments`,
       { type: 'SELECT' as never },
     );
-    expect(iriFromGd(row.maxGd)).toBeLessThan(35);
-    expect(row.maxIri ?? 0).toBeLessThan(35);
+    expect(iriFromGd(row.max_gd)).toBeLessThan(35);
+    expect(row.max_iri ?? 0).toBeLessThan(35);
     expect(Number(row.rough)).toBeGreaterThan(50);
   });
 });

@@ -195,7 +195,7 @@ describe('ride reports: filing, access, decisions', () => {
   it('when the manager dismisses a report, then a reason is required, the driver sees it and is told only if they want e-mail', async () => {
     const list = await manager.get<{ items: { id: number; driverId: number }[] }>(`/api/ride-reports?status=new&segmentId=${segId}`);
     const id = list.body.items[0].id;
-    await srv.db.sequelize.query('UPDATE users SET notify_ride_reports = 0 WHERE id = ?', { replacements: [ids.other] });
+    await srv.db.sequelize.query('UPDATE users SET notify_ride_reports = FALSE WHERE id = ?', { replacements: [ids.other] });
     const bad = await manager.json<{ error: { fields: Record<string, string> } }>('POST', `/api/ride-reports/${id}/dismiss`, { reason: '' });
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields.reason).toBeTruthy();

@@ -21,7 +21,7 @@ let depot1Vehicle: number;
 const sessionUser = (id: number, role: SessionUser['role']): SessionUser => ({ id, name: 'x', email: 'x@reboundry.test', role, active: true, mustChangePassword: false });
 
 async function insertMechanic(email: string, depotId: number | null): Promise<number> {
-  await sq.query("INSERT INTO users (name, email, role, password_hash, active, depot_id, created_at, updated_at) VALUES ('Test Mechanic', ?, 'mechanic', 'x', 1, ?, datetime('now'), datetime('now'))", {
+  await sq.query("INSERT INTO users (name, email, role, password_hash, active, depot_id, created_at, updated_at) VALUES ('Test Mechanic', ?, 'mechanic', 'x', TRUE, ?, CURRENT_TIMESTAMP, CURRENT_TIMESTAMP)", {
     replacements: [email, depotId],
   });
   const [row] = await sq.query<{ id: number }>('SELECT id FROM users WHERE email = ?', { replacements: [email], type: QueryTypes.SELECT });

@@ -18,11 +18,11 @@ const users: Record<string, number> = {};
 
 const select = <T extends object>(q: string, replacements: unknown[] = []) => sq.query<T>(q, { replacements, type: QueryTypes.SELECT });
 
-async function addUser(key: string, role: string, o: { active?: number; depot?: number | null; notify?: number } = {}) {
+async function addUser(key: string, role: string, o: { active?: boolean; depot?: number | null; notify?: boolean } = {}) {
   await sq.query(
     `INSERT INTO users (name, email, role, password_hash, active, depot_id, notify_inspection_digest, notify_ride_reports, notify_assignments, created_at, updated_at)
-     VALUES (?, ?, ?, 'x', ?, ?, 1, 0, ?, datetime('now'), datetime('now'))`,
-    { replacements: [`Person ${key}`, `${key}@notice.test`, role, o.active ?? 1, o.depot ?? null, o.notify ?? 1] },
+     VALUES (?, ?, ?, 'x', ?, ?, TRUE, FALSE, ?, CURRENT_TIMESTAMP, CURRENT_TIMESTAMP)`,
+    { replacements: [`Person ${key}`, `${key}@notice.test`, role, o.active ?? true, o.depot ?? null, o.notify ?? true] },
   );
   users[key] = (await select<{ id: number }>('SELECT id FROM users WHERE email = ?', [`${key}@notice.test`]))[0].id;
 }
@@ -30,7 +30,7 @@ async function addUser(key: string, role: string, o: { active?: number; depot?: 
 async function addInspection(vehicle: number, status: string, due: string, o: { notified?: string | null; assignee?: number | null; assigneeNotified?: number | null } = {}) {
   await sq.query(
     `INSERT INTO inspections (vehicle_id, due_date, status, reason, notified_status, assignee_id, assignee_notified_id, created_at, updated_at)
-     VALUES (?, ?, ?, ?, ?, ?, ?, datetime('now'), datetime('now'))`,
+     VALUES (?, ?, ?, ?, ?, ?, ?, CURRENT_TIMESTAMP, CURRENT_TIMESTAMP)`,
     { replacements: [vehicle, due, status, `Reason ${status} ${due}`, o.notified ?? null, o.assignee ?? null, o.assigneeNotified ?? null] },
   );
   return (await select<{ id: number }>('SELECT MAX(id) AS id FROM inspections'))[0].id;
@@ -42,7 +42,7 @@ beforeAll(async () => {
   srv = await startTestServer();
   sq = srv.db.sequelize;
   await sq.query(`UPDATE inspections SET status = 'done'`);
-  await sq.query(`UPDATE users SET active = 0`);
+  await sq.query(`UPDATE users SET active = FALSE`);
   const vs = await select<typeof a>(
     `SELECT v.id, v.fleet_number, v.plate, v.depot_id, d.name AS depot_name FROM vehicles v JOIN depots d ON d.id = v.depot_id ORDER BY v.fleet_number`,
   );
@@ -51,9 +51,9 @@ beforeAll(async () => {
   v = vs.filter((x) => x.id !== b.id);
   await addUser('m1', 'manager', { depot: a.depot_id });
   await addUser('m2', 'manager');
-  await addUser('mGone', 'manager', { active: 0 });
+  await addUser('mGone', 'manager', { active: false });
   await addUser('mech', 'mechanic', { depot: a.depot_id });
-  await addUser('mech2', 'mechanic', { notify: 0, active: 0 });
+  await addUser('mech2', 'mechanic', { notify: false, active: false });
   await addUser('driver', 'driver');
   // told about: due and told due; untold: overdue told due, due never told, overdue never told (two on one day)
   ins.toldDue = await addInspection(v[1].id, 'due', '2026-12-01', { notified: 'due' });

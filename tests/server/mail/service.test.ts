@@ -34,11 +34,11 @@ let cv101 = 0;
 
 const hash = (parts: string[]) => createHash('sha256').update(parts.join('|')).digest('hex').slice(0, 16);
 
-async function insertUser(name: string, email: string, role: string, o: { depot?: number | null; active?: number; digest?: number; rides?: number; assignments?: number } = {}) {
+async function insertUser(name: string, email: string, role: string, o: { depot?: number | null; active?: boolean; digest?: boolean; rides?: boolean; assignments?: boolean } = {}) {
   await sq.query(
     `INSERT INTO users (name, email, role, password_hash, active, depot_id, notify_inspection_digest, notify_ride_reports, notify_assignments, created_at, updated_at)
-     VALUES (?, ?, ?, 'x', ?, ?, ?, ?, ?, datetime('now'), datetime('now'))`,
-    { replacements: [name, email, role, o.active ?? 1, o.depot ?? null, o.digest ?? 1, o.rides ?? 1, o.assignments ?? 1] },
+     VALUES (?, ?, ?, 'x', ?, ?, ?, ?, ?, CURRENT_TIMESTAMP, CURRENT_TIMESTAMP)`,
+    { replacements: [name, email, role, o.active ?? true, o.depot ?? null, o.digest ?? true, o.rides ?? true, o.assignments ?? true] },
   );
   const [u] = await sq.query<{ id: number }>('SELECT id FROM users WHERE email = ?', { replacements: [email], type: QueryTypes.SELECT });
   return u.id;
@@ -65,11 +65,11 @@ beforeAll(async () => {
   sq = srv.db.sequelize;
   ctx = { sequelize: sq, publicUrl: URL, asOf: '2026-11-30', now: TEST_NOW, runId: RUN_ID };
   managers.north = await insertUser('Nora North', 'nora.north@reboundry.test', 'manager', { depot: 1 });
-  managers.millbrook = await insertUser('Milo Brook', 'milo.brook@reboundry.test', 'manager', { depot: 2, digest: 0 });
-  managers.inactive = await insertUser('Ivo Left', 'ivo.left@reboundry.test', 'manager', { active: 0 });
-  managers.quiet = await insertUser('Quinn Quiet', 'quinn.quiet@reboundry.test', 'manager', { depot: 2, digest: 0, rides: 0 });
-  noNotes = await insertUser('Nils Nonotes', 'nils.nonotes@reboundry.test', 'mechanic', { depot: 1, assignments: 0 });
-  gone = await insertUser('Greta Gone', 'greta.gone@reboundry.test', 'mechanic', { depot: 2, active: 0 });
+  managers.millbrook = await insertUser('Milo Brook', 'milo.brook@reboundry.test', 'manager', { depot: 2, digest: false });
+  managers.inactive = await insertUser('Ivo Left', 'ivo.left@reboundry.test', 'manager', { active: false });
+  managers.quiet = await insertUser('Quinn Quiet', 'quinn.quiet@reboundry.test', 'manager', { depot: 2, digest: false, rides: false });
+  noNotes = await insertUser('Nils Nonotes', 'nils.nonotes@reboundry.test', 'mechanic', { depot: 1, assignments: false });
+  gone = await insertUser('Greta Gone', 'greta.gone@reboundry.test', 'mechanic', { depot: 2, active: false });
   // the demo's open inspections (all scheduled): 5 CV-103 and 52 LV-103 (depot 1), 69 LV-112 and 29 CV-112 (depot 2), 84 RT-105 (depot 1)
   await setInspection(52, 'overdue', '2026-11-27');
   await setInspection(5, 'overdue', '2026-11-29');
@@ -77,7 +77,7 @@ beforeAll(async () => {
   await setInspection(29, 'due', '2026-12-01');
   await setInspection(84, 'due', '2026-12-05', 'due'); // managers were told already
   await sq.query(
-    `INSERT INTO inspections (vehicle_id, due_date, status, reason, notified_status, created_at, updated_at) VALUES (1, '2026-12-02', 'due', 'Predicted wear reaches the limit.', 'overdue', datetime('now'), datetime('now'))`,
+    `INSERT INTO inspections (vehicle_id, due_date, status, reason, notified_status, created_at, updated_at) VALUES (1, '2026-12-02', 'due', 'Predicted wear reaches the limit.', 'overdue', CURRENT_TIMESTAMP, CURRENT_TIMESTAMP)`,
   );
   [{ id: cv101 }] = await sq.query<{ id: number }>('SELECT id FROM inspections WHERE vehicle_id = 1 AND status = ?', { replacements: ['due'], type: QueryTypes.SELECT });
   registerDigestSection({
@@ -258,11 +258,11 @@ describe('notes to mechanics', () => {
     );
     expect(free).toHaveLength(31);
     for (const v of free) {
-      await sq.query(`INSERT INTO inspections (vehicle_id, due_date, status, reason, assignee_id, created_at, updated_at) VALUES (?, '2026-12-20', 'scheduled', 'Annual service.', ?, datetime('now'), datetime('now'))`, {
+      await sq.query(`INSERT INTO inspections (vehicle_id, due_date, status, reason, assignee_id, created_at, updated_at) VALUES (?, '2026-12-20', 'scheduled', 'Annual service.', ?, CURRENT_TIMESTAMP, CURRENT_TIMESTAMP)`, {
         replacements: [v.id, noNotes],
       });
     }
-    await sq.query('UPDATE users SET notify_assignments = 1 WHERE id = ?', { replacements: [noNotes] });
+    await sq.query('UPDATE users SET notify_assignments = TRUE WHERE id = ?', { replacements: [noNotes] });
     expect(await queueAssignmentNotes(ctx)).toBe(2);
     const long = (await mails('assignment')).find((m) => m.user_id === noNotes)!;
     expect(long.subject).toBe('31 inspections assigned to you, first due 2026-12-20');

@@ -252,7 +252,7 @@ describe('the report of a trip file', () => {
         span({ vehicle: 'CV-101', start: '2026-10-02T06:00:00Z', end: '2026-10-02T06:30:00Z', km: '5' }),
       ),
     );
-    const [second] = await sq.query<{ id: number; started_at: string; ended_at: string }>("SELECT id, started_at, ended_at FROM trips WHERE vehicle_id = 1 AND started_at LIKE '2026-10-02%'", { type: QueryTypes.SELECT });
+    const [second] = await sq.query<{ id: number; started_at: string; ended_at: string }>("SELECT id, started_at, ended_at FROM trips WHERE vehicle_id = 1 AND started_at >= ? AND started_at < ?", { replacements: ['2026-10-02 00:00:00.000 +00:00', '2026-10-03 00:00:00.000 +00:00'], type: QueryTypes.SELECT });
     const span1 = `${first.started_at.slice(0, 16)}–${first.ended_at.slice(0, 16)} UTC`;
     expect(p).toEqual({
       2: [`overlaps trip #${first.id} of the same vehicle (${span1})`],
@@ -268,8 +268,8 @@ describe('the report of a trip file', () => {
 
   it("when a row's driver drove another vehicle at the time and no other row names that vehicle, then the stored trip is still found by the driver", async () => {
     const [other] = await sq.query<{ id: number; started_at: string; ended_at: string }>(
-      "SELECT id, started_at, ended_at FROM trips WHERE driver_id = 4 AND vehicle_id != 18 AND started_at LIKE '2026-10-01 14%'",
-      { type: QueryTypes.SELECT },
+      'SELECT id, started_at, ended_at FROM trips WHERE driver_id = 4 AND vehicle_id != 18 AND started_at >= ? AND started_at < ?',
+      { replacements: ['2026-10-01 14:00:00.000 +00:00', '2026-10-01 15:00:00.000 +00:00'], type: QueryTypes.SELECT },
     );
     const p = await problemsOf(file(row({ vehicle: 'CV-118', driver: 'driver@reboundry.test', start: '2026-10-01T15:00:00Z', end: '2026-10-01T16:00:00Z', km: '10', kmh: '25' })));
     expect(p).toEqual({ 2: [`overlaps trip #${other.id} of the same driver (${other.started_at.slice(0, 16)}–${other.ended_at.slice(0, 16)} UTC)`] });

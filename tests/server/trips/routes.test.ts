@@ -27,7 +27,7 @@ beforeAll(async () => {
   sq = srv.db.sequelize;
   [vehicle] = await sq.query<typeof vehicle>(`SELECT id, fleet_number FROM vehicles WHERE status = 'in_service' ORDER BY fleet_number LIMIT 1`, { type: QueryTypes.SELECT });
   [route] = await sq.query<typeof route>('SELECT id, name FROM routes ORDER BY name LIMIT 1', { type: QueryTypes.SELECT });
-  [driver] = await sq.query<typeof driver>(`SELECT id, email, name FROM users WHERE role = 'driver' AND active = 1 ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT });
+  [driver] = await sq.query<typeof driver>(`SELECT id, email, name FROM users WHERE role = 'driver' AND active = TRUE ORDER BY id LIMIT 1`, { type: QueryTypes.SELECT });
   // TEST_NOW is 2026-11-30T12:00Z: already 1 December in Auckland (UTC+13 in summer)
   app = await miniApp((r) => registerTripRoutes(r, { now: () => TEST_NOW, timeZone: 'Pacific/Auckland' }));
   utcApp = await miniApp((r) => registerTripRoutes(r, { now: () => TEST_NOW }));
@@ -98,7 +98,7 @@ describe('one trip entered by hand', () => {
       const e = (await r.json()) as Errors;
       if (field) expect(e.error.fields[field], JSON.stringify(o)).toEqual(words);
     }
-    const [n] = await sq.query<{ n: number }>(`SELECT COUNT(*) AS n FROM trips WHERE started_at LIKE '2024-03-03 05%'`, { type: QueryTypes.SELECT });
+    const [n] = await sq.query<{ n: number }>('SELECT COUNT(*) AS n FROM trips WHERE started_at >= ? AND started_at < ?', { replacements: ['2024-03-03 05:00:00.000 +00:00', '2024-03-03 06:00:00.000 +00:00'], type: QueryTypes.SELECT });
     expect(n.n).toBe(0);
   });
 
@@ -173,7 +173,7 @@ describe('trip file import', () => {
       [3, true],
       [4, false],
     ]);
-    const [n] = await sq.query<{ n: number }>(`SELECT COUNT(*) AS n FROM trips WHERE started_at LIKE '2024-03-04%'`, { type: QueryTypes.SELECT });
+    const [n] = await sq.query<{ n: number }>('SELECT COUNT(*) AS n FROM trips WHERE started_at >= ? AND started_at < ?', { replacements: ['2024-03-04 00:00:00.000 +00:00', '2024-03-05 00:00:00.000 +00:00'], type: QueryTypes.SELECT });
     expect(n.n).toBe(0);
   });
 

@@ -50,7 +50,7 @@ export function tripRulesFixture() {
   beforeAll(async () => {
     srv = await startTestServer();
     const db = srv.db.sequelize;
-    await db.query('UPDATE users SET active = 0 WHERE email = ?', { replacements: [DEACTIVATED] });
+    await db.query('UPDATE users SET active = FALSE WHERE email = ?', { replacements: [DEACTIVATED] });
     [firstTrip] = await db.query<FirstTrip>('SELECT id, vehicle_id, driver_id, started_at, ended_at FROM trips WHERE vehicle_id = 1 ORDER BY started_at LIMIT 1', { type: QueryTypes.SELECT });
   }, 120_000);
   afterAll(async () => {

@@ -6,6 +6,7 @@ import { localDay, sqlDate, wearRepository } from '../../../server/wear/reposito
 import { gdForClass } from '../../../server/physics/iso8608';
 import { roadsService } from '../../../server/roads/service';
 import { run } from '../../../jobs/nightly';
+import { sqlFor } from '../../../server/db/dialect';
 import { startTestServer, TEST_NOW, type TestServer } from '../../support/server';
 import type { ObservationValue } from '../../../server/roads/current-roughness';
 
@@ -76,11 +77,11 @@ describe('the nightly duty on the roughness of the trip\'s day (demo fleet)', ()
   it('when a route was surveyed during the trip records, then trips before the survey day use the older stated class and trips from it on the measured profile', async () => {
     const rows = await q<{ route_id: number; surveyed_on: string; before: number; after: number; profiled_before: number; profiled_after: number }>(
       `SELECT t.route_id, s.surveyed_on,
-              SUM(td.trip_date < s.surveyed_on) AS before, SUM(td.trip_date >= s.surveyed_on) AS after,
+              SUM(CASE WHEN td.trip_date < s.surveyed_on THEN 1 ELSE 0 END) AS before, SUM(CASE WHEN td.trip_date >= s.surveyed_on THEN 1 ELSE 0 END) AS after,
               SUM(CASE WHEN td.trip_date < s.surveyed_on THEN td.profiled_segments ELSE 0 END) AS profiled_before,
               MIN(CASE WHEN td.trip_date >= s.surveyed_on THEN td.profiled_segments END) AS profiled_after
        FROM trip_duties td JOIN trips t ON t.id = td.trip_id JOIN road_surveys s ON s.route_id = t.route_id
-       GROUP BY t.route_id, s.id HAVING before > 0 AND after > 0`,
+       GROUP BY t.route_id, s.id HAVING MIN(td.trip_date) < s.surveyed_on AND MAX(td.trip_date) >= s.surveyed_on`,
     );
     expect(rows.length, 'the demo has a route surveyed inside the trip records').toBeGreaterThan(0);
     for (const r of rows) {
@@ -91,9 +92,10 @@ describe('the nightly duty on the roughness of the trip\'s day (demo fleet)', ()
 
   it('when a rougher class is recorded after a trip, then the trip keeps its duty, a rerun of it gives the same duty, and a trip after that day uses the new class', async () => {
     const route = (await q<{ id: number }>(`SELECT id FROM routes WHERE name = 'Tanner Way town loop'`))[0].id;
+    const { asText, dayOf } = sqlFor(S.db.sequelize);
     // a trip on the route by a vehicle whose dampers stay the same from the trip to today
     const [trip] = await q<{ id: number; vehicle_id: number; started_at: string; ended_at: string; distance_km: number; mean_speed_kmh: number; payload_kg: number; driver_id: number | null }>(
-      `SELECT t.* FROM trips t WHERE t.route_id = ? AND t.started_at < ? AND NOT EXISTS (SELECT 1 FROM dampers d WHERE d.vehicle_id = t.vehicle_id AND d.installed_at > substr(t.started_at, 1, 10))
+      `SELECT t.* FROM trips t WHERE t.route_id = ? AND t.started_at < ? AND NOT EXISTS (SELECT 1 FROM dampers d WHERE d.vehicle_id = t.vehicle_id AND ${asText('d.installed_at')} > ${dayOf('t.started_at')})
        ORDER BY t.started_at DESC, t.id LIMIT 1`,
       [route, '2026-11-20'],
     );
