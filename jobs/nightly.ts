@@ -160,7 +160,7 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     await progress('mail', 0, 1);
     const mailCtx = { sequelize: db.sequelize, publicUrl: config.publicUrl, asOf, now: opts.now, runId };
     counts.mailsQueued = (await queueDigests(mailCtx)) + (await queueAssignmentNotes(mailCtx));
-    const sent = await sendPending(opts.mailer, opts.now, log, opts.signal);
+    const sent = await sendPending(opts.mailer, opts.now, log, { signal: opts.signal, wallClock: wall });
     counts.mailsSent = sent.sent;
     counts.mailsFailed = sent.failed.length;
     errors.push(...sent.failed);
