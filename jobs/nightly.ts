@@ -68,7 +68,11 @@ export interface NightlyResult {
   errors: ItemError[];
 }
 
-/** Takes the lock, creates the run row and starts the work; `done` settles when it ends. */
+/**
+ * Takes the lock, creates the run row and starts the work; `done` settles when it ends. Throws
+ * LockBusyError when another run holds the lock, and for the `schedule` trigger
+ * DayAlreadyDoneError when a scheduled run already did the day.
+ */
 export async function startNightly(opts: NightlyOptions): Promise<{ runId: number; done: Promise<NightlyResult> }> {
   const { config, db, log } = opts;
   const wall = opts.wallClock ?? (() => new Date());
@@ -81,6 +85,8 @@ export async function startNightly(opts: NightlyOptions): Promise<{ runId: numbe
     asOf,
     requestedById: opts.requestedById ?? null,
     wallNow: wall(),
+    // several app instances each fire the schedule: the first to start does the day, the rest nothing
+    oncePerDay: opts.trigger === 'schedule',
   });
   if (takenOver) log.warn(`nightly: took over the stale lock of run #${takenOver}`);
   log.info(`nightly: run #${runId} started (as of ${asOf})`);
