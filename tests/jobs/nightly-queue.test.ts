@@ -78,8 +78,8 @@ function killWhileHolding(w: WorkerProc, probe: Queue, over: () => boolean) {
 
 /**
  * The counts of what a run did, without those of how the duty was spread: the workers the queue
- * saw, and the solves and simulations of the caches (each worker keeps its own from night to
- * night, so they depend on which worker got which vehicles).
+ * saw, and the solves and simulations of the caches (each worker process has its own for the
+ * run, the threads in-process theirs, so the counts depend on which got which vehicles).
  */
 const whatItDid = (counts: Record<string, number>) => Object.fromEntries(Object.entries(counts).filter(([k]) => !['queueWorkers', 'closedFormSolves', 'profileSimulations'].includes(k)));
 
