@@ -68,7 +68,11 @@ export interface NightlyResult {
   errors: ItemError[];
 }
 
-/** Takes the lock, creates the run row and starts the work; `done` settles when it ends. */
+/**
+ * Takes the lock, creates the run row and starts the work; `done` settles when it ends. Throws
+ * LockBusyError when another run holds the lock, and for the `schedule` trigger
+ * DayAlreadyDoneError when a scheduled run already did the day.
+ */
 export async function startNightly(opts: NightlyOptions): Promise<{ runId: number; done: Promise<NightlyResult> }> {
   const { config, db, log } = opts;
   const wall = opts.wallClock ?? (() => new Date());
@@ -81,6 +85,8 @@ export async function startNightly(opts: NightlyOptions): Promise<{ runId: numbe
     asOf,
     requestedById: opts.requestedById ?? null,
     wallNow: wall(),
+    // several app instances each fire the schedule: the first to start does the day, the rest nothing
+    oncePerDay: opts.trigger === 'schedule',
   });
   if (takenOver) log.warn(`nightly: took over the stale lock of run #${takenOver}`);
   log.info(`nightly: run #${runId} started (as of ${asOf})`);
@@ -160,7 +166,7 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     await progress('mail', 0, 1);
     const mailCtx = { sequelize: db.sequelize, publicUrl: config.publicUrl, asOf, now: opts.now, runId };
     counts.mailsQueued = (await queueDigests(mailCtx)) + (await queueAssignmentNotes(mailCtx));
-    const sent = await sendPending(opts.mailer, opts.now, log, opts.signal);
+    const sent = await sendPending(opts.mailer, opts.now, log, { signal: opts.signal, wallClock: wall });
     counts.mailsSent = sent.sent;
     counts.mailsFailed = sent.failed.length;
     errors.push(...sent.failed);

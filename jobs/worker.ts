@@ -33,6 +33,7 @@ const log = createLogger(c.logLevel);
 const w = startDutyWorker(c.queueUrl, { lockMs: c.dutyWorkerLockMs });
 let jobs = 0;
 w.worker.on('ready', () => log.info(`duty worker ${process.pid}: listening on ${c.queueUrl.replace(/\/\/[^@/]*@/, '//…@')}`));
+w.worker.on('active', (job) => log.debug(`duty worker ${process.pid}: job ${job.id} started`));
 w.worker.on('completed', (job) => {
   jobs++;
   log.debug(`duty worker ${process.pid}: job ${job.id} done`);

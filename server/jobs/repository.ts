@@ -62,14 +62,41 @@ export class LockBusyError extends Error {
   }
 }
 
+/** A scheduled start refused because a scheduled run of the same job already did that day's work. */
+export class DayAlreadyDoneError extends Error {
+  constructor(public readonly runId: number, public readonly asOf: string) {
+    super(`The scheduled run of ${asOf} has already been done (run #${runId}).`);
+    this.name = 'DayAlreadyDoneError';
+  }
+}
+
+/**
+ * The ends of a run that did its day's work: every phase ran, with or without errors of single
+ * items (a mail server refusing a message, one vehicle's duty), which a rerun would meet again.
+ * A failed or cancelled run did not, and a later start of the same day goes on from its work.
+ */
+const DAY_DONE: JobRunStatus[] = ['succeeded', 'completed_with_errors'];
+
 export const jobRepository = {
   /**
    * Takes the lock for `name` and creates the run row in the same transaction. Throws
    * {@link LockBusyError} when a live run holds it; takes over a lock whose heartbeat is older
-   * than `staleMs`.
+   * than `staleMs`. With `oncePerDay`, first throws {@link DayAlreadyDoneError} when a run of the
+   * same trigger already did the day `asOf`: checked in the lock's transaction, which no other
+   * start runs beside (SQLite's write lock; the advisory lock of every PostgreSQL transaction),
+   * so of several instances' schedulers firing for one day only the first starts a run.
    */
-  async start(db: Db, input: { name: string; holder: string; staleMs: number; trigger: JobTrigger; asOf: string; requestedById: number | null; wallNow: Date }) {
+  async start(db: Db, input: { name: string; holder: string; staleMs: number; trigger: JobTrigger; asOf: string; requestedById: number | null; wallNow: Date; oncePerDay?: boolean }) {
     return db.sequelize.transaction(async (transaction) => {
+      if (input.oncePerDay) {
+        const done = await JobRun.findOne({
+          attributes: ['id'],
+          where: { job: input.name, trigger: input.trigger, asOf: input.asOf, status: { [Op.in]: DAY_DONE } },
+          order: [['id', 'ASC']],
+          transaction,
+        });
+        if (done) throw new DayAlreadyDoneError(done.id, input.asOf);
+      }
       const lock = await JobLock.findByPk(input.name, { transaction });
       let takenOver: number | null = null;
       if (lock) {

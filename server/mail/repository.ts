@@ -2,8 +2,9 @@
  * Mail storage: the sent-mail log with de-duplication keys (`mail_messages`), what the
  * built-in catcher received (`caught_mail`) and users' notification preferences.
  */
-import { Op, type Transaction } from 'sequelize';
-import { CaughtMail, MailMessage, type MailKind } from '../db/models';
+import { Op, literal, type Transaction, type WhereOptions } from 'sequelize';
+import { CaughtMail, MAIL_STATUSES, MailMessage, type MailKind } from '../db/models';
+import type { MailStatusCounts } from '../contracts/mail';
 import { User } from '../db/models';
 import { likeOp } from '../db/dialect';
 
@@ -26,6 +27,22 @@ export interface NotificationPrefs {
 
 /** Attempts after which a failing message is no longer retried. */
 export const MAX_MAIL_ATTEMPTS = 5;
+
+/**
+ * How long a claim on a message ('sending') stands: an older claim belonged to an instance that
+ * died while sending (a send gives up long before: the SMTP client's own time-outs are minutes),
+ * and another instance may claim the message again.
+ */
+export const MAIL_CLAIM_STALE_MS = 10 * 60_000;
+
+/**
+ * The messages a sender may claim at wall-clock time `wallNow`: waiting or failed with attempts
+ * left, or claimed by an instance whose claim went stale.
+ */
+const claimable = (wallNow: Date): WhereOptions<MailMessage> => ({
+  attempts: { [Op.lt]: MAX_MAIL_ATTEMPTS },
+  [Op.or]: [{ status: { [Op.in]: ['pending', 'failed'] } }, { status: 'sending', claimedAt: { [Op.lt]: new Date(wallNow.getTime() - MAIL_CLAIM_STALE_MS) } }],
+});
 
 const caughtRow = (m: CaughtMail, full: boolean) => ({
   id: m.id,
@@ -51,7 +68,7 @@ export const mailRepository = {
       const fresh = part.filter((m) => !existing.has(m.dedupeKey));
       if (!fresh.length) continue;
       await MailMessage.bulkCreate(
-        fresh.map((m) => ({ ...m, status: 'pending' as const, messageId: null, error: null, sentAt: null, createdAt: now, updatedAt: now })),
+        fresh.map((m) => ({ ...m, status: 'pending' as const, messageId: null, error: null, sentAt: null, claimedAt: null, claimedBy: null, createdAt: now, updatedAt: now })),
         { transaction, ignoreDuplicates: true },
       );
       n += fresh.length;
@@ -59,17 +76,36 @@ export const mailRepository = {
     return n;
   },
 
-  async sendable() {
-    return MailMessage.findAll({ where: { status: { [Op.in]: ['pending', 'failed'] }, attempts: { [Op.lt]: MAX_MAIL_ATTEMPTS } }, order: [['id', 'ASC']] });
+  /** Messages that may be claimed for sending now (wall clock), oldest first. */
+  async sendable(wallNow: Date) {
+    return MailMessage.findAll({ where: claimable(wallNow), order: [['id', 'ASC']] });
   },
 
+  /**
+   * Claims message `id` for the sending call `claimant`: one UPDATE that only one of several
+   * instances can win, since each re-checks that the message is still claimable as it writes
+   * (SQLite writes one at a time; PostgreSQL makes the second writer of a row re-read it).
+   * Returns whether this call won it.
+   */
+  async claim(id: number, claimant: string, wallNow: Date): Promise<boolean> {
+    const [n] = await MailMessage.update({ status: 'sending', claimedAt: wallNow, claimedBy: claimant }, { where: { [Op.and]: [{ id }, claimable(wallNow)] } });
+    return n === 1;
+  },
+
+  /** Marks a message sent, whoever held its claim: the mail server has it. */
   async markSent(id: number, messageId: string, now: Date) {
-    await MailMessage.update({ status: 'sent', messageId, sentAt: now, error: null, }, { where: { id } });
+    await MailMessage.update({ status: 'sent', messageId, sentAt: now, error: null, claimedAt: null, claimedBy: null }, { where: { id } });
   },
 
-  async markFailed(id: number, error: string) {
-    const m = await MailMessage.findByPk(id);
-    if (m) await m.update({ status: 'failed', error: error.slice(0, 1000), attempts: m.attempts + 1 });
+  /**
+   * Records a failed attempt of the claim `claimant` holds. Nothing when the claim is no longer
+   * its own (it went stale and another instance took it over, and may have sent the message).
+   */
+  async markFailed(id: number, error: string, claimant: string) {
+    await MailMessage.update(
+      { status: 'failed', error: error.slice(0, 1000), attempts: literal('attempts + 1'), claimedAt: null, claimedBy: null },
+      { where: { id, status: 'sending', claimedBy: claimant } },
+    );
   },
 
   async catch(m: { messageId: string | null; dedupeKey: string | null; mailFrom: string | null; rcptTo: string; subject: string; textBody: string | null; htmlBody: string | null; sizeBytes: number; receivedAt: Date }) {
@@ -88,10 +124,12 @@ export const mailRepository = {
     return m ? caughtRow(m, true) : null;
   },
 
-  async sentCounts() {
-    const rows = (await MailMessage.findAll({ attributes: ['status'], raw: true })) as unknown as { status: string }[];
-    const out: Record<string, number> = { pending: 0, sent: 0, failed: 0 };
-    for (const r of rows) out[r.status] = (out[r.status] ?? 0) + 1;
+  async sentCounts(): Promise<MailStatusCounts> {
+    const out = Object.fromEntries(MAIL_STATUSES.map((s) => [s, 0])) as MailStatusCounts;
+    for (const r of await MailMessage.count({ group: ['status'] })) {
+      const status = r.status as keyof MailStatusCounts;
+      if (status in out) out[status] = Number(r.count);
+    }
     return out;
   },
 

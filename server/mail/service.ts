@@ -12,7 +12,8 @@
  *   (`inspections.assignee_notified_id`). Other areas that assign by hand call
  *   {@link queueAssignmentNotes} with the inspection id, then {@link sendPending}.
  */
-import { createHash } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
+import os from 'node:os';
 import type { Sequelize, Transaction } from 'sequelize';
 import type { Logger } from '../logger';
 import type { Mailer } from './mailer';
@@ -140,13 +141,31 @@ export async function queueAssignmentNotes(ctx: MailContext, inspectionIds?: num
   });
 }
 
-/** Sends every queued (or earlier failed) message once; a failure is recorded and retried later. */
-export async function sendPending(mailer: Mailer, now: Date, log: Logger, signal?: AbortSignal): Promise<{ sent: number; failed: { item: string; message: string }[] }> {
-  const pending = await mailRepository.sendable();
+/** A name for one call of {@link sendPending}, unique across instances and calls: the holder of its claims. */
+const claimantName = () => `${os.hostname()}:${process.pid}:${randomBytes(6).toString('hex')}`.slice(-120);
+
+/**
+ * Sends every queued (or earlier failed) message once; a failure is recorded and retried later.
+ * Several app instances may call it at once on one database: each message is claimed before it
+ * is sent, and only the call that won the claim sends it. A claim left by an instance that died
+ * while sending goes stale after ten minutes (`MAIL_CLAIM_STALE_MS`) and is claimed again.
+ * Claims are stamped by `wallClock` (the real clock by default), `now` stamps the message sent.
+ */
+export async function sendPending(
+  mailer: Mailer,
+  now: Date,
+  log: Logger,
+  opts: { signal?: AbortSignal; wallClock?: () => Date } = {},
+): Promise<{ sent: number; failed: { item: string; message: string }[] }> {
+  const wall = opts.wallClock ?? (() => new Date());
+  const claimant = claimantName();
+  const pending = await mailRepository.sendable(wall());
   let sent = 0;
   const failed: { item: string; message: string }[] = [];
   for (const m of pending) {
-    if (signal?.aborted) break;
+    if (opts.signal?.aborted) break;
+    // another instance sent it, or is sending it, since it was listed
+    if (!(await mailRepository.claim(m.id, claimant, wall()))) continue;
     try {
       const r = await mailer.send({ to: m.toAddress, subject: m.subject, text: m.textBody, html: m.htmlBody, key: m.dedupeKey });
       await mailRepository.markSent(m.id, r.messageId, now);
@@ -154,7 +173,7 @@ export async function sendPending(mailer: Mailer, now: Date, log: Logger, signal
     } catch (err) {
       const message = (err as Error).message;
       log.warn(`mail ${m.dedupeKey} to ${m.toAddress} failed: ${message}`);
-      await mailRepository.markFailed(m.id, message);
+      await mailRepository.markFailed(m.id, message, claimant);
       failed.push({ item: `mail ${m.dedupeKey}`, message });
     }
   }

@@ -1,22 +1,24 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Queue, QueueEvents } from 'bullmq';
-import { startTestServer, TEST_NOW } from '../support/server';
-import { cleanRun, diffTables, dump, NIGHTLY_TEST_ENV, type CleanRun } from '../support/nightly';
+import { startTestServer, TEST_NOW, type PostgresTarget } from '../support/server';
+import { cleanRun, diffTables, diffTablesNear, dump, NIGHTLY_TEST_ENV, type CleanRun } from '../support/nightly';
+import { startPostgresTarget } from '../support/postgres-global';
 import { startRedis, type PrivateRedis } from '../support/redis';
 import { run } from '../../jobs/nightly';
 import { DUTY_QUEUE, redisConnection } from '../../server/wear/duty-queue';
 
 /**
  * The night's duty spread over `npm run worker` processes through Redis ends, table by table,
- * equal to the run computed in the job's own process; a worker killed in the middle of a job
- * changes nothing.
+ * equal to the run computed in the job's own process on SQLite; a worker killed in the middle of
+ * a job changes nothing. The same holds for a night on PostgreSQL (a private server this file
+ * starts) with two workers, one of them killed while it holds a job.
  */
 
 let ref: CleanRun;
 let redis: PrivateRedis;
 beforeAll(async () => {
-  [ref, redis] = await Promise.all([cleanRun(), startRedis()]);
+  [ref, redis] = await Promise.all([cleanRun('sqlite'), startRedis()]);
 }, 240_000);
 afterAll(async () => redis?.stop());
 
@@ -38,6 +40,48 @@ function startWorker(url: string): WorkerProc {
   proc.stderr!.on('data', (b: Buffer) => (out += b.toString()));
   return { proc, jobs: () => (out.match(/: job \S+ done/g) ?? []).length, output: () => out };
 }
+
+/** The jobs a worker has said it started and not yet said it finished (it logs both at debug). */
+function jobsInHand(w: WorkerProc): string[] {
+  const out = w.output();
+  const done = new Set([...out.matchAll(/: job (\S+) done/g)].map((m) => m[1]));
+  return [...out.matchAll(/: job (\S+) started/g)].map((m) => m[1]).filter((id) => !done.has(id));
+}
+
+/**
+ * Watches `w` until `over()` and kills it (SIGKILL) the first time it holds a job: it is frozen
+ * (SIGSTOP) on a job it has started and not finished, and killed if Redis still has that job
+ * active, else let go on to try at the next one. `killed()` says whether it was.
+ */
+function killWhileHolding(w: WorkerProc, probe: Queue, over: () => boolean) {
+  let killed = false;
+  const done = (async () => {
+    while (!over() && !killed) {
+      const [id] = jobsInHand(w);
+      if (!id) {
+        await new Promise((r) => setTimeout(r, 10));
+        continue;
+      }
+      w.proc.kill('SIGSTOP');
+      // what it wrote before it froze has come through the pipe
+      await new Promise((r) => setTimeout(r, 300));
+      if (!jobsInHand(w).includes(id) || (await (await probe.getJob(id))?.getState()) !== 'active') {
+        w.proc.kill('SIGCONT');
+        continue;
+      }
+      await stopWorker(w);
+      killed = true;
+    }
+  })();
+  return { killed: () => killed, done };
+}
+
+/**
+ * The counts of what a run did, without those of how the duty was spread: the workers the queue
+ * saw, and the solves and simulations of the caches (each worker process has its own for the
+ * run, the threads in-process theirs, so the counts depend on which got which vehicles).
+ */
+const whatItDid = (counts: Record<string, number>) => Object.fromEntries(Object.entries(counts).filter(([k]) => !['queueWorkers', 'closedFormSolves', 'profileSimulations'].includes(k)));
 
 async function stopWorker(w: WorkerProc) {
   if (w.proc.exitCode !== null || w.proc.signalCode !== null) return;
@@ -134,4 +178,62 @@ describe('nightly duty over a job queue', () => {
       await S.stop();
     }
   }, 240_000);
+});
+
+describe('nightly duty over a job queue, on PostgreSQL', () => {
+  let pg: { target: PostgresTarget; stop(): void } | undefined;
+  beforeAll(async () => {
+    pg = await startPostgresTarget();
+  }, 300_000);
+  afterAll(() => pg?.stop());
+
+  it('when two worker processes compute the duty through Redis for a night on PostgreSQL, then every table equals the in-process run on SQLite (sums to 1e-9), with the same counts, and both workers took jobs', async () => {
+    const workers = [startWorker(redis.url), startWorker(redis.url)];
+    const P = await startTestServer({ env: { ...NIGHTLY_TEST_ENV, QUEUE_URL: redis.url }, postgres: pg!.target });
+    try {
+      expect(P.db.dialect).toBe('postgres');
+      await workersListening(redis.url, 2);
+      const r = await run({ db: P.db, config: P.config, log: P.log, mailer: P.mailer, now: TEST_NOW, trigger: 'test' });
+      expect(r.status, JSON.stringify(r.errors)).toBe('succeeded');
+      expect(r.counts.queueWorkers).toBe(2);
+      expect(whatItDid(r.counts)).toEqual(whatItDid(ref.counts));
+      // SQLite's SUM adds doubles with compensation, PostgreSQL's plainly: the last bits of sums differ
+      expect(diffTablesNear(ref.dump, await dump(P.db), 1e-9)).toEqual([]);
+      expect(workers.map((w) => w.jobs() > 0), workers.map((w) => w.output()).join('\n---\n')).toEqual([true, true]);
+    } finally {
+      await P.stop();
+      await Promise.all(workers.map(stopWorker));
+    }
+  }, 600_000);
+
+  it('when one of two workers is killed while it holds a job of a night on PostgreSQL, then the other computes it again and every table equals the in-process run on SQLite (sums to 1e-9)', async () => {
+    const [doomed, survivor] = [startWorker(redis.url), startWorker(redis.url)];
+    const events = new QueueEvents(DUTY_QUEUE, { connection: redisConnection(redis.url) });
+    const probe = new Queue(DUTY_QUEUE, { connection: redisConnection(redis.url) });
+    let stalled = 0;
+    events.on('stalled', () => stalled++);
+    const P = await startTestServer({ env: { ...NIGHTLY_TEST_ENV, QUEUE_URL: redis.url }, postgres: pg!.target });
+    let over = false;
+    try {
+      await events.waitUntilReady();
+      await workersListening(redis.url, 2);
+      const killer = killWhileHolding(doomed, probe, () => over);
+      const r = await run({ db: P.db, config: P.config, log: P.log, mailer: P.mailer, now: TEST_NOW, trigger: 'test' }).finally(() => (over = true));
+      await killer.done;
+      expect(r.status, JSON.stringify(r.errors)).toBe('succeeded');
+      expect(killer.killed(), doomed.output()).toBe(true);
+      expect(doomed.proc.signalCode).toBe('SIGKILL');
+      // its job went back to the queue when its claim lapsed, and the survivor computed it
+      expect(stalled).toBeGreaterThan(0);
+      expect(survivor.jobs()).toBeGreaterThan(0);
+      expect(whatItDid(r.counts)).toEqual(whatItDid(ref.counts));
+      expect(diffTablesNear(ref.dump, await dump(P.db), 1e-9)).toEqual([]);
+    } finally {
+      over = true;
+      await P.stop();
+      await events.close();
+      await probe.close();
+      await Promise.all([stopWorker(doomed), stopWorker(survivor)]);
+    }
+  }, 600_000);
 });

@@ -40,6 +40,17 @@ export class ApiClient {
     return res;
   }
 
+  /**
+   * The same browser (its cookies, shared from now on, and its form token) sending to another
+   * address: another app instance, as a proxy in front of several may route the next request.
+   */
+  at(base: string): ApiClient {
+    const other = new ApiClient(base);
+    other.cookies = this.cookies;
+    other.csrf = this.csrf;
+    return other;
+  }
+
   async refreshCsrf() {
     const res = await this.raw('GET', '/api/auth/csrf');
     this.csrf = ((await res.json()) as { token: string }).token;

@@ -2,6 +2,8 @@
  * Vitest global setup of the `pg` project: one private PostgreSQL server for the whole run
  * (tests/support/postgres.ts) with the demo fleet seeded once into a template database, which
  * every test file's server copies (`CREATE DATABASE … TEMPLATE`, a file copy inside the server).
+ * A test file of another project that needs PostgreSQL starts its own with
+ * {@link startPostgresTarget} and hands it to startTestServer (`postgres`).
  */
 import fs from 'node:fs';
 import os from 'node:os';
@@ -16,7 +18,8 @@ declare module 'vitest' {
   }
 }
 
-export default async function setup(project: TestProject) {
+/** A private PostgreSQL server with the demo fleet seeded into its template database; `stop` removes both. */
+export async function startPostgresTarget(): Promise<{ target: PostgresTarget; stop(): void }> {
   const pg = await startPrivatePostgres();
   try {
     const templateDb = 'reboundry_demo_template';
@@ -25,13 +28,21 @@ export default async function setup(project: TestProject) {
     // the app's own start-up seeds it, as for a SQLite template (tests/support/server.ts)
     const { seedPostgresTemplate } = await import('./server');
     await seedPostgresTemplate(`${pg.baseUrl}${templateDb}`, templateDataDir);
-    project.provide('reboundryPostgres', { baseUrl: pg.baseUrl, templateDb, templateDataDir });
-    return () => {
-      pg.stop();
-      fs.rmSync(templateDataDir, { recursive: true, force: true });
+    return {
+      target: { baseUrl: pg.baseUrl, templateDb, templateDataDir },
+      stop() {
+        pg.stop();
+        fs.rmSync(templateDataDir, { recursive: true, force: true });
+      },
     };
   } catch (e) {
     pg.stop();
     throw e;
   }
+}
+
+export default async function setup(project: TestProject) {
+  const pg = await startPostgresTarget();
+  project.provide('reboundryPostgres', pg.target);
+  return () => pg.stop();
 }

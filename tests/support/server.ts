@@ -202,15 +202,17 @@ async function createPostgresDatabase(target: PostgresTarget, seeded: boolean): 
  * Boots the real app on port 0 against a fresh SQLite file in a temp folder (with the demo
  * fleet unless `seed: false`), serving the built client from dist/web when present. With
  * `afterNightly`, the demo fleet is as one clean nightly run left it (the tables of running the
- * job first in the test, computed once instead of in every file that needs them).
+ * job first in the test, computed once instead of in every file that needs them). With
+ * `postgres`, the database is a copy of that server's seeded template, in any project.
  */
 export async function startTestServer(
-  opts: { seed?: boolean; afterNightly?: boolean; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string; database?: TestDatabase } = {},
+  opts: { seed?: boolean; afterNightly?: boolean; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string; database?: TestDatabase; postgres?: PostgresTarget } = {},
 ): Promise<TestServer> {
   if (opts.afterNightly && opts.seed === false) throw new Error('afterNightly starts from the demo fleet');
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-test-'));
-  // In the `pg` project (or when asked) the database is a copy of the private PostgreSQL server's template.
-  const target = (opts.database ?? defaultTestDatabase()) === 'postgres' ? postgresTarget() : undefined;
+  // In the `pg` project (or when asked) the database is a copy of the private PostgreSQL server's
+  // template: the project's, or one a test file started itself (`postgres`, startPostgresTarget()).
+  const target = opts.postgres ?? ((opts.database ?? defaultTestDatabase()) === 'postgres' ? postgresTarget() : undefined);
   if (opts.database === 'postgres' && !target) throw new Error('no PostgreSQL server for the tests: run the `pg` project (vitest --project pg)');
   const pg = target ? await createPostgresDatabase(target, opts.seed !== false) : null;
   // SQLite: the demo fleet (or the fleet after one nightly run) is built once per version of the code

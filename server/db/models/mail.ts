@@ -1,6 +1,9 @@
 /** Outgoing mail with its de-duplication key, and what the built-in mail catcher received. */
 import { DataTypes, type CreationOptional, type ForeignKey, type Sequelize } from 'sequelize';
 import { Row, optional, required, rowColumns } from './columns';
+import type { MailStatus } from '../../contracts/mail';
+
+export { MAIL_STATUSES, type MailStatus } from '../../contracts/mail';
 
 export const MAIL_KINDS = ['digest', 'assignment', 'note'] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
@@ -13,12 +16,16 @@ export class MailMessage extends Row<MailMessage> {
   declare subject: string;
   declare textBody: string;
   declare htmlBody: string;
-  declare status: 'pending' | 'sent' | 'failed';
+  declare status: MailStatus;
   declare messageId: string | null;
   declare error: string | null;
   declare attempts: CreationOptional<number>;
   declare jobRunId: number | null;
   declare sentAt: Date | null;
+  /** When the instance sending it claimed it (wall clock); null outside a claim. */
+  declare claimedAt: Date | null;
+  /** Which sending call holds the claim; null outside a claim. */
+  declare claimedBy: string | null;
 }
 
 export class CaughtMail extends Row<CaughtMail> {
@@ -49,6 +56,8 @@ export function initMailModels(sequelize: Sequelize) {
       attempts: required(DataTypes.INTEGER, { defaultValue: 0 }),
       jobRunId: optional(DataTypes.INTEGER),
       sentAt: optional(DataTypes.DATE),
+      claimedAt: optional(DataTypes.DATE),
+      claimedBy: optional(DataTypes.STRING(120)),
     }),
     { ...common, tableName: 'mail_messages' },
   );

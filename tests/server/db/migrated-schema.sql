@@ -286,3 +286,8 @@ CREATE INDEX `trip_duty_days_damper_id_day` ON `trip_duty_days` (`damper_id`, `d
 CREATE INDEX `trip_duty_days_vehicle_id` ON `trip_duty_days` (`vehicle_id`);
 
 -- dropped: trip_duties_driver_id_trip_date_axle_index
+
+
+-- after 0020-mail-claims
+
+CREATE TABLE `mail_messages` (`id` INTEGER PRIMARY KEY AUTOINCREMENT, `dedupe_key` VARCHAR(200) NOT NULL UNIQUE, `kind` VARCHAR(24) NOT NULL, `user_id` INTEGER REFERENCES `users` (`id`) ON DELETE SET NULL ON UPDATE CASCADE, `to_address` VARCHAR(254) NOT NULL, `subject` VARCHAR(250) NOT NULL, `text_body` TEXT NOT NULL, `html_body` TEXT NOT NULL, `status` VARCHAR(12) NOT NULL, `message_id` VARCHAR(250), `error` TEXT, `attempts` INTEGER NOT NULL DEFAULT 0, `job_run_id` INTEGER, `sent_at` DATETIME, `created_at` DATETIME NOT NULL, `updated_at` DATETIME NOT NULL, `claimed_at` DATETIME, `claimed_by` VARCHAR(120));

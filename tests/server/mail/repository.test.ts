@@ -1,14 +1,19 @@
 // Mail storage on an empty migrated database (server/mail/repository.ts): queuing with
-// de-duplication keys across the 500-message slices, what is sendable, marking sent and failed,
+// de-duplication keys across the 500-message slices, what is sendable, claiming a message for
+// one sender, marking sent and failed,
 // what the mail catcher stores and lists, the sent counts and a user's notification preferences.
 // The rules that queue and send are in tests/server/mail/service.test.ts.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import { MAX_MAIL_ATTEMPTS, mailRepository, type QueuedMail } from '../../../server/mail/repository';
+import { MAIL_CLAIM_STALE_MS, MAX_MAIL_ATTEMPTS, mailRepository, type QueuedMail } from '../../../server/mail/repository';
 import { freshDb } from '../../support/fresh-db';
 
 let db: Awaited<ReturnType<typeof freshDb>>;
 const NOW = new Date('2026-11-30T12:00:00Z');
+/** The wall clock of claims (not the logical NOW that stamps rows). */
+const WALL = new Date('2027-01-04T08:00:00Z');
+/** A date as Sequelize stores it in SQLite. */
+const stamp = (d: Date) => d.toISOString().replace('T', ' ').replace('Z', ' +00:00');
 
 beforeAll(async () => {
   db = await freshDb();
@@ -104,33 +109,87 @@ describe('sending state', () => {
     await db.sequelize.query(`UPDATE mail_messages SET status = 'failed', attempts = 5 WHERE dedupe_key = 'c'`);
     await db.sequelize.query(`UPDATE mail_messages SET status = 'pending', attempts = 5 WHERE dedupe_key = 'e'`);
     expect(MAX_MAIL_ATTEMPTS).toBe(5);
-    expect((await mailRepository.sendable()).map((m) => m.dedupeKey)).toEqual(['b', 'd']);
+    expect((await mailRepository.sendable(WALL)).map((m) => m.dedupeKey)).toEqual(['b', 'd']);
   });
 
-  it('when a message fails twice and is then sent, then each failure counts an attempt and keeps its error (at most 1000 characters), and sending clears the error', async () => {
+  it('when messages are claimed for sending, then one claimed less than 10 minutes ago is not sendable, one claimed longer ago is (its sender died), unless its attempts are used up', async () => {
+    await queue([mail('fresh'), mail('edge'), mail('stale'), mail('stale-spent')]);
+    const claimed = async (key: string, agoMs: number, attempts = 0) =>
+      db.sequelize.query(`UPDATE mail_messages SET status = 'sending', claimed_at = ?, claimed_by = 'gone:1', attempts = ? WHERE dedupe_key = ?`, {
+        replacements: [stamp(new Date(WALL.getTime() - agoMs)), attempts, key],
+      });
+    expect(MAIL_CLAIM_STALE_MS).toBe(10 * 60_000);
+    await claimed('fresh', 60_000);
+    await claimed('edge', MAIL_CLAIM_STALE_MS);
+    await claimed('stale', MAIL_CLAIM_STALE_MS + 1);
+    await claimed('stale-spent', MAIL_CLAIM_STALE_MS + 60_000, MAX_MAIL_ATTEMPTS);
+    expect((await mailRepository.sendable(WALL)).map((m) => m.dedupeKey)).toEqual(['stale']);
+  });
+
+  it('when two senders claim one message, then only the first wins, and the loser can neither mark it failed nor claim it again until the claim is stale', async () => {
+    await queue([mail('x')]);
+    const id = await idOf('x');
+    expect(await mailRepository.claim(id, 'sender-a', WALL)).toBe(true);
+    expect(await mailRepository.claim(id, 'sender-b', WALL)).toBe(false);
+    expect(await mailRepository.claim(id, 'sender-b', new Date(WALL.getTime() + MAIL_CLAIM_STALE_MS))).toBe(false);
+    let [r] = await sql<Record<string, unknown>>('SELECT status, claimed_by, claimed_at, attempts FROM mail_messages WHERE id = ?', [id]);
+    expect(r).toEqual({ status: 'sending', claimed_by: 'sender-a', claimed_at: stamp(WALL), attempts: 0 });
+    await mailRepository.markFailed(id, 'not my claim', 'sender-b');
+    [r] = await sql<Record<string, unknown>>('SELECT status, error, attempts FROM mail_messages WHERE id = ?', [id]);
+    expect(r).toEqual({ status: 'sending', error: null, attempts: 0 });
+    // sender-a went quiet: once its claim is stale, sender-b takes the message over
+    const later = new Date(WALL.getTime() + MAIL_CLAIM_STALE_MS + 1);
+    expect(await mailRepository.claim(id, 'sender-b', later)).toBe(true);
+    [r] = await sql<Record<string, unknown>>('SELECT status, claimed_by, claimed_at FROM mail_messages WHERE id = ?', [id]);
+    expect(r).toEqual({ status: 'sending', claimed_by: 'sender-b', claimed_at: stamp(later) });
+    // what sender-a says now of its old claim changes nothing
+    await mailRepository.markFailed(id, 'too late', 'sender-a');
+    [r] = await sql<Record<string, unknown>>('SELECT status, claimed_by, error FROM mail_messages WHERE id = ?', [id]);
+    expect(r).toEqual({ status: 'sending', claimed_by: 'sender-b', error: null });
+  });
+
+  it('when a sent or spent message is claimed, then the claim fails and the message is left as it was', async () => {
+    await queue([mail('sent'), mail('spent')]);
+    await db.sequelize.query(`UPDATE mail_messages SET status = 'sent' WHERE dedupe_key = 'sent'`);
+    await db.sequelize.query(`UPDATE mail_messages SET status = 'failed', attempts = ? WHERE dedupe_key = 'spent'`, { replacements: [MAX_MAIL_ATTEMPTS] });
+    expect(await mailRepository.claim(await idOf('sent'), 'sender', WALL)).toBe(false);
+    expect(await mailRepository.claim(await idOf('spent'), 'sender', WALL)).toBe(false);
+    expect(await sql(`SELECT dedupe_key, status, claimed_by FROM mail_messages ORDER BY id`)).toEqual([
+      { dedupe_key: 'sent', status: 'sent', claimed_by: null },
+      { dedupe_key: 'spent', status: 'failed', claimed_by: null },
+    ]);
+  });
+
+  it('when a claimed message fails twice and is then sent, then each failure counts an attempt, keeps its error (at most 1000 characters) and ends the claim, and sending clears the error', async () => {
     await queue([mail('x'), mail('other')]);
     const id = await idOf('x');
-    await mailRepository.markFailed(id, 'connection refused');
-    await mailRepository.markFailed(id, 'e'.repeat(1500));
-    let [r] = await sql<{ status: string; error: string; attempts: number }>('SELECT status, error, attempts FROM mail_messages WHERE id = ?', [id]);
+    expect(await mailRepository.claim(id, 'sender', WALL)).toBe(true);
+    await mailRepository.markFailed(id, 'connection refused', 'sender');
+    let [r] = await sql<Record<string, unknown>>('SELECT status, error, attempts, claimed_at, claimed_by FROM mail_messages WHERE id = ?', [id]);
+    expect(r).toEqual({ status: 'failed', error: 'connection refused', attempts: 1, claimed_at: null, claimed_by: null });
+    expect(await mailRepository.claim(id, 'sender', WALL)).toBe(true);
+    await mailRepository.markFailed(id, 'e'.repeat(1500), 'sender');
+    [r] = await sql<Record<string, unknown>>('SELECT status, error, attempts FROM mail_messages WHERE id = ?', [id]);
     expect(r).toEqual({ status: 'failed', error: 'e'.repeat(1000), attempts: 2 });
+    expect(await mailRepository.claim(id, 'sender', WALL)).toBe(true);
     const sentAt = new Date('2026-11-30T12:05:00Z');
     await mailRepository.markSent(id, '<abc@reboundry.test>', sentAt);
-    const [s] = await sql<{ status: string; error: string | null; message_id: string; sent_at: string; attempts: number }>('SELECT status, error, message_id, sent_at, attempts FROM mail_messages WHERE id = ?', [id]);
-    expect(s).toMatchObject({ status: 'sent', error: null, message_id: '<abc@reboundry.test>', attempts: 2 });
-    expect(new Date(s.sent_at).toISOString()).toBe(sentAt.toISOString());
+    const [s] = await sql<Record<string, unknown>>('SELECT status, error, message_id, sent_at, attempts, claimed_at, claimed_by FROM mail_messages WHERE id = ?', [id]);
+    expect(s).toMatchObject({ status: 'sent', error: null, message_id: '<abc@reboundry.test>', attempts: 2, claimed_at: null, claimed_by: null });
+    expect(new Date(String(s.sent_at)).toISOString()).toBe(sentAt.toISOString());
     // the other message is untouched
-    [r] = await sql<{ status: string; error: string; attempts: number }>(`SELECT status, error, attempts FROM mail_messages WHERE dedupe_key = 'other'`);
+    [r] = await sql<Record<string, unknown>>(`SELECT status, error, attempts FROM mail_messages WHERE dedupe_key = 'other'`);
     expect(r).toEqual({ status: 'pending', error: null, attempts: 0 });
-    await expect(mailRepository.markFailed(999_999, 'gone')).resolves.toBeUndefined();
+    await expect(mailRepository.markFailed(999_999, 'gone', 'sender')).resolves.toBeUndefined();
   });
 
-  it('when messages are in each state, then the counts name pending, sent and failed, zero for a state none is in', async () => {
-    expect(await mailRepository.sentCounts()).toEqual({ pending: 0, sent: 0, failed: 0 });
-    await queue([mail('a'), mail('b'), mail('c'), mail('d')]);
+  it('when messages are in each state, then the counts name pending, sending, sent and failed, zero for a state none is in', async () => {
+    expect(await mailRepository.sentCounts()).toEqual({ pending: 0, sending: 0, sent: 0, failed: 0 });
+    await queue([mail('a'), mail('b'), mail('c'), mail('d'), mail('e')]);
     await db.sequelize.query(`UPDATE mail_messages SET status = 'sent' WHERE dedupe_key IN ('a', 'b')`);
     await db.sequelize.query(`UPDATE mail_messages SET status = 'failed' WHERE dedupe_key = 'c'`);
-    expect(await mailRepository.sentCounts()).toEqual({ pending: 1, sent: 2, failed: 1 });
+    await db.sequelize.query(`UPDATE mail_messages SET status = 'sending' WHERE dedupe_key = 'e'`);
+    expect(await mailRepository.sentCounts()).toEqual({ pending: 1, sending: 1, sent: 2, failed: 1 });
   });
 });
 

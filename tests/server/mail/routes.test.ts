@@ -23,7 +23,7 @@ beforeAll(async () => {
   for (let i = 1; i <= 3; i++) {
     await mailRepository.catch({ messageId: `<m${i}@x>`, dedupeKey: `k${i}`, mailFrom: 'no-reply@reboundry.test', rcptTo: i === 2 ? 'nora@reboundry.test' : 'milo@reboundry.test', subject: `Digest ${i}`, textBody: `Body ${i}`, htmlBody: `<p>${i}</p>`, sizeBytes: 10, receivedAt: new Date(Date.UTC(2026, 10, 30, i)) });
   }
-  await db.sequelize.query(`INSERT INTO mail_messages (dedupe_key, kind, to_address, subject, text_body, html_body, status, attempts, created_at, updated_at) VALUES ('a', 'digest', 'x@y', 's', 't', 'h', 'sent', 0, datetime('now'), datetime('now')), ('b', 'digest', 'x@y', 's', 't', 'h', 'failed', 1, datetime('now'), datetime('now'))`);
+  await db.sequelize.query(`INSERT INTO mail_messages (dedupe_key, kind, to_address, subject, text_body, html_body, status, attempts, created_at, updated_at) VALUES ('a', 'digest', 'x@y', 's', 't', 'h', 'sent', 0, datetime('now'), datetime('now')), ('b', 'digest', 'x@y', 's', 't', 'h', 'failed', 1, datetime('now'), datetime('now')), ('c', 'digest', 'x@y', 's', 't', 'h', 'sending', 0, datetime('now'), datetime('now'))`);
   withMailer = await miniApp((r) => registerMailRoutes(r, { mailer }));
   without = await miniApp((r) => registerMailRoutes(r, { mailer: null }));
 });
@@ -41,7 +41,7 @@ describe('the Outbox', () => {
     expect(r.status).toBe(200);
     const body = (await r.json()) as { items: { key: string }[]; total: number; transport: string; catches: boolean; sent: Record<string, number> };
     expect(body.items.map((m) => m.key)).toEqual(['k3', 'k2']);
-    expect(body).toMatchObject({ total: 3, transport: 'the built-in mail catcher (port 2525)', catches: true, sent: { pending: 0, sent: 1, failed: 1 } });
+    expect(body).toMatchObject({ total: 3, transport: 'the built-in mail catcher (port 2525)', catches: true, sent: { pending: 0, sending: 1, sent: 1, failed: 1 } });
     const page2 = (await (await withMailer.call('GET', '/api/outbox?pageSize=2&page=2', { user: manager })).json()) as { items: { key: string }[] };
     expect(page2.items.map((m) => m.key)).toEqual(['k1']);
   });

@@ -1,9 +1,10 @@
 // The mail rules called directly against the demo fleet's database (server/mail/service.ts): which
 // managers get a digest with which sections and items, the notes to mechanics about inspections
 // assigned to them, the de-duplication keys, the items marked told in the queuing transaction,
-// and sending what is pending once, with failures kept for a retry. The nightly job and the
-// workshop that call them are tested through the API (tests/server/nightly-job.test.ts,
-// tests/server/digest-dedupe.test.ts, tests/server/workshop.test.ts).
+// and sending what is pending once (also by two senders at once), with failures kept for a
+// retry. The nightly job and the workshop that call them are tested through the API
+// (tests/server/nightly-job.test.ts, tests/server/digest-dedupe.test.ts,
+// tests/server/workshop.test.ts); several app instances in tests/server/multi-instance.test.ts.
 import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { QueryTypes, type Sequelize } from 'sequelize';
@@ -11,6 +12,7 @@ import type { Logger } from '../../../server/logger';
 import type { Mailer, OutgoingMail } from '../../../server/mail/mailer';
 import { stableMessageId } from '../../../server/mail/mailer';
 import { queueAssignmentNotes, queueDigests, registerDigestSection, sendPending, type MailContext } from '../../../server/mail/service';
+import { mailRepository } from '../../../server/mail/repository';
 import { startTestServer, TEST_NOW, type TestServer } from '../../support/server';
 
 let srv: TestServer;
@@ -284,8 +286,8 @@ describe('sending what is pending', () => {
     const mailer = { catches: true, describe: () => 'test', close: async () => {}, send: async (m: OutgoingMail) => (sent.push(m.key), stop.abort(), { messageId: `<${m.key}@test>` }) } satisfies Mailer;
     const aborted = new AbortController();
     aborted.abort();
-    expect(await sendPending(mailer, TEST_NOW, quietLog(), aborted.signal)).toEqual({ sent: 0, failed: [] });
-    expect(await sendPending(mailer, TEST_NOW, quietLog(), stop.signal)).toEqual({ sent: 1, failed: [] });
+    expect(await sendPending(mailer, TEST_NOW, quietLog(), { signal: aborted.signal })).toEqual({ sent: 0, failed: [] });
+    expect(await sendPending(mailer, TEST_NOW, quietLog(), { signal: stop.signal })).toEqual({ sent: 1, failed: [] });
     expect(sent).toEqual([pending[0].dedupe_key]);
   });
 
@@ -321,5 +323,25 @@ describe('sending what is pending', () => {
     const [again] = await sq.query<{ status: string; message_id: string }>('SELECT status, message_id FROM mail_messages WHERE id = ?', { replacements: [refused.id], type: QueryTypes.SELECT });
     expect(again).toEqual({ status: 'sent', message_id: stableMessageId(refused.dedupe_key, srv.config.smtpFrom) });
     expect(await sendPending(srv.mailer, TEST_NOW, log)).toEqual({ sent: 0, failed: [] });
+  });
+
+  it('when two calls send the same pending messages at once, then each message is sent by exactly one of them and ends sent with its claim cleared', async () => {
+    const keys = Array.from({ length: 12 }, (_, i) => `both-at-once:${i}`);
+    await sq.transaction((t) =>
+      mailRepository.queue(keys.map((k) => ({ dedupeKey: k, kind: 'note', userId: null, toAddress: 'someone@reboundry.test', subject: k, textBody: k, htmlBody: `<p>${k}</p>`, jobRunId: null })), TEST_NOW, t),
+    );
+    const sent: string[] = [];
+    // each send takes a moment, so the two calls go through the list side by side
+    const slow = { catches: true, describe: () => 'test', close: async () => {}, send: async (m: OutgoingMail) => (await new Promise((r) => setTimeout(r, 5)), sent.push(m.key), { messageId: `<${m.key}@test>` }) } satisfies Mailer;
+    const [a, b] = await Promise.all([sendPending(slow, TEST_NOW, quietLog()), sendPending(slow, TEST_NOW, quietLog())]);
+    expect(a.sent + b.sent).toBe(keys.length);
+    expect(a.sent).toBeGreaterThan(0);
+    expect(b.sent).toBeGreaterThan(0);
+    expect([...sent].sort()).toEqual([...keys].sort());
+    const rows = await sq.query<{ status: string; claimed_at: string | null; claimed_by: string | null }>(
+      "SELECT status, claimed_at, claimed_by FROM mail_messages WHERE dedupe_key LIKE 'both-at-once:%'",
+      { type: QueryTypes.SELECT },
+    );
+    expect(rows).toEqual(keys.map(() => ({ status: 'sent', claimed_at: null, claimed_by: null })));
   });
 });

@@ -1,4 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { MailStatusCounts } from '@contracts/mail';
 import { api, type ListResponse } from '@/lib/api-client';
 import { queryRoots } from '@/lib/query-keys';
 
@@ -22,7 +23,8 @@ export interface CaughtMailMessage extends CaughtMailItem {
 export interface Outbox extends ListResponse<CaughtMailItem> {
   transport: string;
   catches: boolean;
-  sent: Record<string, number>;
+  /** Queued messages by status: waiting, being sent by an app instance now, sent, failed. */
+  sent: MailStatusCounts;
 }
 
 export const outboxKeys = {

@@ -25,8 +25,8 @@ export function OutboxView() {
   return (
     <>
       <Notice className="mb-4" title={data.catches ? 'Mail stays on this machine' : 'Mail goes to a real server'}>
-        E-mail goes through {data.transport}. Sent: {formatNumber(data.sent.sent ?? 0)}, waiting: {formatNumber(data.sent.pending ?? 0)}, failed:{' '}
-        {formatNumber(data.sent.failed ?? 0)}.{' '}
+        E-mail goes through {data.transport}. Sent: {formatNumber(data.sent.sent)}, waiting: {formatNumber(data.sent.pending)},{' '}
+        {data.sent.sending > 0 && <>being sent now: {formatNumber(data.sent.sending)}, </>}failed: {formatNumber(data.sent.failed)}.{' '}
         {data.catches ? 'Every message is kept here.' : 'Only messages caught by the built-in catcher are listed here.'}
       </Notice>
       {!data.items.length ? (
