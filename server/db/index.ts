@@ -170,9 +170,79 @@ export function migrator(db: Db) {
   });
 }
 
-/** Applies every pending migration. */
+/**
+ * Applies every pending migration, one process at a time: app instances started together on one
+ * database would otherwise each find the same migrations pending and run them twice (the later
+ * one failing on a table the other has just made). On PostgreSQL the run holds a session
+ * advisory lock on a connection of its own; on SQLite a lock file beside the database names the
+ * process holding it, and one left by a process that has died is taken over.
+ */
 export async function migrate(db: Db) {
-  return migrator(db).up();
+  const run = () => migrator(db).up();
+  if (db.dialect === 'postgres') return withPostgresLock(db, MIGRATION_LOCK, run);
+  return db.file ? withLockFile(`${db.file}.migrating`, run) : run();
+}
+
+/** The advisory lock key a migration run takes on PostgreSQL ("RBDM"). */
+const MIGRATION_LOCK = 0x5242444d;
+
+interface PgClient {
+  query(sql: string): Promise<unknown>;
+}
+
+async function withPostgresLock<T>(db: Db, key: number, fn: () => Promise<T>): Promise<T> {
+  const cm = db.sequelize.connectionManager as unknown as { getConnection(): Promise<PgClient>; releaseConnection(c: PgClient): Promise<void> };
+  const conn = await cm.getConnection();
+  try {
+    await conn.query(`SELECT pg_advisory_lock(${key})`);
+    try {
+      return await fn();
+    } finally {
+      await conn.query(`SELECT pg_advisory_unlock(${key})`);
+    }
+  } finally {
+    await cm.releaseConnection(conn);
+  }
+}
+
+/** Whether a process of this machine is running (signal 0 only checks). */
+function processAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (e) {
+    return (e as NodeJS.ErrnoException).code === 'EPERM';
+  }
+}
+
+/** Seconds after which a lock file that names no process yet (its writer died between creating and writing it) counts as left behind. */
+const UNNAMED_LOCK_STALE_S = 10;
+
+async function withLockFile<T>(lock: string, fn: () => Promise<T>): Promise<T> {
+  for (;;) {
+    try {
+      fs.writeFileSync(lock, String(process.pid), { flag: 'wx' });
+      break;
+    } catch (e) {
+      if ((e as NodeJS.ErrnoException).code !== 'EEXIST') throw e;
+    }
+    let holder = NaN;
+    let ageS = 0;
+    try {
+      holder = Number(fs.readFileSync(lock, 'utf8'));
+      ageS = (Date.now() - fs.statSync(lock).mtimeMs) / 1000;
+    } catch {
+      continue; // released meanwhile
+    }
+    const leftBehind = Number.isInteger(holder) && holder > 0 ? !processAlive(holder) : ageS > UNNAMED_LOCK_STALE_S;
+    if (leftBehind) fs.rmSync(lock, { force: true });
+    else await new Promise((r) => setTimeout(r, 100));
+  }
+  try {
+    return await fn();
+  } finally {
+    fs.rmSync(lock, { force: true });
+  }
 }
 
 export function dbFile(dataDir: string) {

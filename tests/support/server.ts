@@ -198,6 +198,12 @@ async function createPostgresDatabase(target: PostgresTarget, seeded: boolean): 
   };
 }
 
+/** An empty PostgreSQL database on the `pg` project's server (dropped by `drop`), or undefined outside that project. */
+export async function emptyPostgresDatabase(): Promise<{ url: string; drop(): Promise<void> } | undefined> {
+  const target = postgresTarget();
+  return target ? createPostgresDatabase(target, false) : undefined;
+}
+
 /**
  * Boots the real app on port 0 against a fresh SQLite file in a temp folder (with the demo
  * fleet unless `seed: false`), serving the built client from dist/web when present. With
