@@ -16,7 +16,8 @@ import { startDutyWorker } from '../server/wear/duty-queue';
 
 function config() {
   try {
-    const c = loadConfig();
+    // a worker signs no session: production does not ask it for SESSION_SECRET
+    const c = loadConfig(process.env, { signsSessions: false });
     if (!c.queueUrl) throw new ConfigError(['QUEUE_URL: the worker needs the Redis of the duty queue, e.g. QUEUE_URL=redis://localhost:6379']);
     return c as typeof c & { queueUrl: string };
   } catch (err) {

@@ -138,9 +138,11 @@ export class ConfigError extends Error {
 
 /**
  * Parses and validates the environment once. Empty strings count as unset so that a
- * copied `.env.example` with blank optional keys still starts.
+ * copied `.env.example` with blank optional keys still starts. `signsSessions: false` is for a
+ * process that serves no one (a duty worker): it signs no session, so production does not ask
+ * it for a `SESSION_SECRET`.
  */
-export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+export function loadConfig(env: Record<string, string | undefined> = process.env, opts: { signsSessions?: boolean } = {}): Config {
   const cleaned: Record<string, string> = {};
   for (const [k, v] of Object.entries(env)) if (v !== undefined && v !== '') cleaned[k] = v;
   const parsed = schema.safeParse(cleaned);
@@ -148,7 +150,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     throw new ConfigError(parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`));
   }
   const config = parsed.data;
-  if (config.production && config.sessionSecret === DEV_SESSION_SECRET) {
+  if (config.production && (opts.signsSessions ?? true) && config.sessionSecret === DEV_SESSION_SECRET) {
     throw new ConfigError(['SESSION_SECRET: the development default is refused in production; set a long random value']);
   }
   return config;

@@ -58,6 +58,9 @@ describe('configuration', () => {
 
   it('when production runs with the development secret, then it refuses to start', () => {
     expect(() => loadConfig({ NODE_ENV: 'production' })).toThrow(/SESSION_SECRET/);
+    // a duty worker signs no session, so it starts in production without one
+    expect(loadConfig({ NODE_ENV: 'production', QUEUE_URL: 'redis://127.0.0.1:6379' }, { signsSessions: false }).queueUrl).toBe('redis://127.0.0.1:6379');
+    expect(() => loadConfig({ NODE_ENV: 'production' }, { signsSessions: true })).toThrow(/SESSION_SECRET/);
     const ok = loadConfig({ NODE_ENV: 'production', SESSION_SECRET: 'x'.repeat(40) });
     expect(ok.seedDemo).toBe(false);
   });
