@@ -181,7 +181,9 @@ export function createApp(deps: AppDeps): BuiltApp {
       if (!req.user) anonId(req, res);
       return generateCsrfToken(req, res);
     },
-    options: { ...defaultAuthOptions, ...deps.auth } });
+    options: { ...defaultAuthOptions, ...deps.auth },
+    sequelize: deps.db.sequelize,
+  });
   registerUserRoutes(api, { now: deps.now ?? (() => new Date()), timeZone: config.timeZone });
   registerFleetRoutes(api, { inspectionThreshold: config.inspection.threshold, now: deps.now ?? (() => new Date()), timeZone: config.timeZone });
   registerFleetWriteRoutes(api, deps.now ?? (() => new Date()));

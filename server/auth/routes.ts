@@ -2,6 +2,8 @@ import type { Router, Request, RequestHandler } from 'express';
 import passport from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
+import type { Sequelize } from 'sequelize';
+import { DatabaseLimitStore } from './limit-store';
 import { z } from 'zod';
 import { AppError } from '../errors';
 import { allow, currentUser, open, type SessionUser } from '../http/access';
@@ -66,8 +68,11 @@ const passwordChangeSchema = z
 const limited = (message: string) => (_req: Request, _res: unknown, next: (e: unknown) => void) =>
   next(new AppError(429, 'too_many_attempts', message));
 
-export function registerAuthRoutes(r: Router, deps: { csrfToken: (req: Request, res: import('express').Response) => string; options: AuthOptions }) {
+export function registerAuthRoutes(r: Router, deps: { csrfToken: (req: Request, res: import('express').Response) => string; options: AuthOptions; sequelize: Sequelize }) {
   const { options } = deps;
+  // failure counts in the database, shared by every app instance on it (limit-store.ts)
+  const addressCounts = new DatabaseLimitStore(() => deps.sequelize, 'sign-in address/');
+  const pairCounts = new DatabaseLimitStore(() => deps.sequelize, 'sign-in pair/');
   const byAddress = rateLimit({
     windowMs: options.loginWindowMs,
     limit: options.loginLimitPerAddress,
@@ -75,6 +80,7 @@ export function registerAuthRoutes(r: Router, deps: { csrfToken: (req: Request, 
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     keyGenerator: (req) => `ip:${ipKeyGenerator(req.ip ?? 'unknown')}`,
+    store: addressCounts,
     handler: limited('Too many sign-in attempts from this address. Wait a few minutes and try again.'),
   });
   const accountOf = (req: Request) => String((req.body as { email?: unknown })?.email ?? '').toLowerCase().trim();
@@ -86,10 +92,15 @@ export function registerAuthRoutes(r: Router, deps: { csrfToken: (req: Request, 
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     keyGenerator: (req) => `pair:${accountOf(req)}|${ipKeyGenerator(req.ip ?? 'unknown')}`,
+    store: pairCounts,
     handler: limited('Too many failed sign-ins for this account from this address. Wait a few minutes and try again.'),
   });
   const delay = accountDelay({ ...options.accountDelay, windowMs: options.loginWindowMs });
-  setInterval(() => delay.sweep(), 60_000).unref();
+  setInterval(() => {
+    delay.sweep();
+    // ended windows' rows; a failure here (the database closing at shutdown) only delays it
+    addressCounts.sweep().catch(() => undefined);
+  }, 60_000).unref();
   const byAccount: RequestHandler = (req, res, next) => {
     const turn = delay.reserve(accountOf(req));
     if ('retryAfterMs' in turn) {

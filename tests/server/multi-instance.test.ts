@@ -11,7 +11,8 @@ import { ApiClient, DEMO } from '../support/client';
  * `pg` project): two instances, each a process of its own with its own mail catcher, on the demo
  * fleet after one nightly run. A session signed in on one is the session on the other; the outbox
  * sent by both at once sends each message once; their two schedulers firing for one day make one
- * run; a claim on a message left by an instance that died is taken over.
+ * run; a claim on a message left by an instance that died is taken over; failed sign-ins count
+ * against one limit whichever instance they reach.
  */
 let srv: TestServer;
 let A: AppInstance;
@@ -129,4 +130,24 @@ describe('the nightly schedule', () => {
     expect((await scheduledRuns()).map((r) => r.status)).toEqual(['failed', 'succeeded']);
     expect(await B.fireNightly(new Date(TEST_NOW.getTime() + 120_000))).toEqual({ outcome: 'already done', runId: (again as { runId: number }).runId });
   }, 300_000);
+});
+
+describe('failed sign-ins', () => {
+  // The default limits (server/auth/routes.ts): 30 failures per address, 8 per account and address pair, in 15 minutes.
+  it('when failures from one address are spread over both instances, then they count together: the pair limit after 8 on one account, the address limit after 30', async () => {
+    const attempt = (url: string, email: string) => new ApiClient(url).login(email, 'not-the-password');
+    // one account, four failures on each instance (each instance's own spacing starts after five)
+    for (const url of [A.url, B.url, A.url, B.url, A.url, B.url, A.url, B.url]) expect((await attempt(url, DEMO.mechanic)).status).toBe(401);
+    const ninth = await attempt(A.url, DEMO.mechanic);
+    expect(ninth.status).toBe(429);
+    expect(JSON.stringify(ninth.body)).toMatch(/for this account from this address/);
+    // other accounts from the same address: 9 attempts counted so far (the refused one too), 21 more reach the address limit
+    for (let i = 0; i < 21; i++) expect((await attempt(i % 2 ? A.url : B.url, `nobody${i}@reboundry.test`)).status).toBe(401);
+    const over = await attempt(B.url, 'nobody-else@reboundry.test');
+    expect(over.status).toBe(429);
+    expect(JSON.stringify(over.body)).toMatch(/attempts from this address/);
+    // the counts are the database's: forgetting them there frees the address on both instances
+    await srv.db.sequelize.query('DELETE FROM sign_in_counts');
+    expect((await new ApiClient(A.url).login(DEMO.mechanic)).status).toBe(200);
+  }, 120_000);
 });

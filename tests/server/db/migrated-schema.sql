@@ -291,3 +291,12 @@ CREATE INDEX `trip_duty_days_vehicle_id` ON `trip_duty_days` (`vehicle_id`);
 -- after 0020-mail-claims
 
 CREATE TABLE `mail_messages` (`id` INTEGER PRIMARY KEY AUTOINCREMENT, `dedupe_key` VARCHAR(200) NOT NULL UNIQUE, `kind` VARCHAR(24) NOT NULL, `user_id` INTEGER REFERENCES `users` (`id`) ON DELETE SET NULL ON UPDATE CASCADE, `to_address` VARCHAR(254) NOT NULL, `subject` VARCHAR(250) NOT NULL, `text_body` TEXT NOT NULL, `html_body` TEXT NOT NULL, `status` VARCHAR(12) NOT NULL, `message_id` VARCHAR(250), `error` TEXT, `attempts` INTEGER NOT NULL DEFAULT 0, `job_run_id` INTEGER, `sent_at` DATETIME, `created_at` DATETIME NOT NULL, `updated_at` DATETIME NOT NULL, `claimed_at` DATETIME, `claimed_by` VARCHAR(120));
+
+
+-- after 0021-sign-in-counts
+
+CREATE TABLE `sign_in_counts` (`limit_key` VARCHAR(400) PRIMARY KEY, `hits` INTEGER NOT NULL, `reset_at_ms` BIGINT NOT NULL);
+
+CREATE INDEX `sign_in_counts_reset_at_ms` ON `sign_in_counts` (`reset_at_ms`);
+
+-- sqlite_autoindex_sign_in_counts_1 (made by SQLite)
