@@ -6,7 +6,7 @@
  * each sample interval and the discrete recurrence `x[k+1] = Ad·x[k] + Bd·u[k]` is exact.
  *
  * The one simulation core of the app (the nightly job's buffer loops and the single-run
- * statistics alike), kept in one file of about 400 lines on purpose: the general loop and the two
+ * statistics alike), kept in one file of about 430 lines on purpose: the general loop and the two
  * specialised buffer loops (travel only; travel with the Wk filter) are the same recurrence written
  * out for speed, and keeping them side by side is what keeps them equal.
  *
