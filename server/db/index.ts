@@ -4,6 +4,7 @@ import path from 'node:path';
 import fs from 'node:fs';
 import { initModels } from './models';
 import { stampText, type Dialect } from './dialect';
+import { withLockFile } from '../lib/lock-file';
 import * as m0001 from './migrations/0001-initial';
 import * as m0002 from './migrations/0002-roads-and-imports';
 import * as m0003 from './migrations/0003-nightly-duty';
@@ -204,46 +205,6 @@ async function withPostgresLock<T>(db: Db, key: number, fn: () => Promise<T>): P
     }
   } finally {
     await cm.releaseConnection(conn);
-  }
-}
-
-/** Whether a process of this machine is running (signal 0 only checks). */
-function processAlive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch (e) {
-    return (e as NodeJS.ErrnoException).code === 'EPERM';
-  }
-}
-
-/** Seconds after which a lock file that names no process yet (its writer died between creating and writing it) counts as left behind. */
-const UNNAMED_LOCK_STALE_S = 10;
-
-async function withLockFile<T>(lock: string, fn: () => Promise<T>): Promise<T> {
-  for (;;) {
-    try {
-      fs.writeFileSync(lock, String(process.pid), { flag: 'wx' });
-      break;
-    } catch (e) {
-      if ((e as NodeJS.ErrnoException).code !== 'EEXIST') throw e;
-    }
-    let holder = NaN;
-    let ageS = 0;
-    try {
-      holder = Number(fs.readFileSync(lock, 'utf8'));
-      ageS = (Date.now() - fs.statSync(lock).mtimeMs) / 1000;
-    } catch {
-      continue; // released meanwhile
-    }
-    const leftBehind = Number.isInteger(holder) && holder > 0 ? !processAlive(holder) : ageS > UNNAMED_LOCK_STALE_S;
-    if (leftBehind) fs.rmSync(lock, { force: true });
-    else await new Promise((r) => setTimeout(r, 100));
-  }
-  try {
-    return await fn();
-  } finally {
-    fs.rmSync(lock, { force: true });
   }
 }
 

@@ -1,4 +1,5 @@
 import crypto from 'node:crypto';
+import { processAlive } from '../../server/lib/lock-file';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -41,15 +42,6 @@ export function codeHash(dirs: string[], extra = ''): string {
   return sourceHash(dirs, TEST_NOW.toISOString() + extra);
 }
 
-function alive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch (e) {
-    return (e as NodeJS.ErrnoException).code === 'EPERM';
-  }
-}
-
 /**
  * Makes the folder `dir` once for all test workers of this run and later ones: the first worker to
  * ask takes a lock folder (holding its pid) and builds into a private folder, moved into place by
@@ -69,7 +61,7 @@ export async function buildOnce(dir: string, build: (work: string) => Promise<vo
       } catch {
         // the lock was just taken (its pid not yet written) or just let go
       }
-      if (pid && !alive(pid)) fs.rmSync(lock, { recursive: true, force: true });
+      if (pid && !processAlive(pid)) fs.rmSync(lock, { recursive: true, force: true });
       await new Promise((res) => setTimeout(res, 200));
       continue;
     }
