@@ -12,6 +12,13 @@ const contracts = fileURLToPath(new URL('./server/contracts', import.meta.url));
 /** Tests that start worker processes on a private Redis (Debian's redis-server): `npm run test:queue`. */
 const QUEUE_TESTS = ['tests/jobs/nightly-queue.test.ts', 'tests/server/wear/duty-queue.test.ts'];
 
+/**
+ * Test files that replace a module for themselves (vi.mock): they get a fresh module registry of
+ * their own, while every other file of a worker shares one (importing the server once per worker
+ * instead of once per file).
+ */
+const MOCKING_TESTS = ['tests/server/wear/duty-threads.test.ts'];
+
 /** Longest test files first, so the two workers finish together (loaded only under vitest). */
 const sequencer = process.env.VITEST ? (await import('./tests/support/sequencer')).SlowFirstSequencer : undefined;
 
@@ -31,6 +38,10 @@ export default defineConfig({
     root: '.',
     // one test file per core (the default leaves one core idle, which on two cores halves the speed)
     maxWorkers: os.availableParallelism(),
+    // The files of one worker share their modules: the server and its dependencies are imported
+    // once per worker, not once per file (a file's own state lives in its hooks). Files that
+    // replace a module for themselves run in projects that keep the isolation.
+    isolate: false,
     sequence: { sequencer },
     projects: [
       {
@@ -39,7 +50,19 @@ export default defineConfig({
           name: 'unit',
           root: '.',
           include: ['tests/physics/**/*.test.ts', 'tests/server/**/*.test.ts', 'tests/jobs/**/*.test.ts', 'tests/web/**/*.test.ts', 'tests/mutation/**/*.test.ts'],
-          exclude: QUEUE_TESTS,
+          exclude: [...QUEUE_TESTS, ...MOCKING_TESTS],
+          environment: 'node',
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'unit-mocks',
+          root: '.',
+          include: MOCKING_TESTS,
+          isolate: true,
           environment: 'node',
           testTimeout: 30_000,
           hookTimeout: 60_000,
@@ -52,7 +75,8 @@ export default defineConfig({
           name: 'pg',
           root: '.',
           include: ['tests/server/**/*.test.ts', 'tests/jobs/**/*.test.ts'],
-          exclude: QUEUE_TESTS,
+          // (the mocking files check worker-thread protocols, not the database)
+          exclude: [...QUEUE_TESTS, ...MOCKING_TESTS],
           globalSetup: ['tests/support/postgres-global.ts'],
           environment: 'node',
           testTimeout: 60_000,
@@ -66,6 +90,7 @@ export default defineConfig({
           name: 'queue',
           root: '.',
           include: QUEUE_TESTS,
+          isolate: true,
           environment: 'node',
           testTimeout: 600_000,
           hookTimeout: 600_000,

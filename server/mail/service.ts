@@ -73,9 +73,18 @@ const inspectionSection: DigestSectionProvider = {
 
 const sections: DigestSectionProvider[] = [inspectionSection];
 
-/** Adds a section to the manager digest (severe ride reports). */
-export function registerDigestSection(provider: DigestSectionProvider) {
-  if (!sections.some((s) => s.id === provider.id)) sections.push(provider);
+/**
+ * Adds a section to the manager digest (severe ride reports); a second section of the same id is
+ * not added. Returns the function that takes this section out again (only this one: a call for a
+ * provider that was not added removes nothing).
+ */
+export function registerDigestSection(provider: DigestSectionProvider): () => void {
+  if (sections.some((s) => s.id === provider.id)) return () => undefined;
+  sections.push(provider);
+  return () => {
+    const i = sections.indexOf(provider);
+    if (i >= 0) sections.splice(i, 1);
+  };
 }
 
 const hash = (parts: string[]) => createHash('sha256').update(parts.join('|')).digest('hex').slice(0, 16);

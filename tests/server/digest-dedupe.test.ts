@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, onTestFinished } from 'vitest';
 import { queueDigests, registerDigestSection } from '../../server/mail/service';
 import { serverForFile, TEST_NOW } from '../support/server';
 
@@ -8,7 +8,7 @@ describe('two digests on one day', () => {
   it('when a second digest on the same day covers different items, then it is queued too (the key holds a hash of the items), and the same items again queue nothing', async () => {
     // a section that offers the items of `batch`, then nothing once they are marked told
     let batch: string[] = [];
-    registerDigestSection({
+    const remove = registerDigestSection({
       id: 'planted',
       heading: 'Planted items',
       pref: 'notifyInspectionDigest',
@@ -19,6 +19,7 @@ describe('two digests on one day', () => {
         batch = [];
       },
     });
+    onTestFinished(remove);
     const ctx = { sequelize: srv.db.sequelize, publicUrl: 'http://localhost', asOf: '2026-11-30', now: TEST_NOW, runId: null };
     const digests = async () => Number(((await srv.db.sequelize.query(`SELECT COUNT(*) AS n FROM mail_messages WHERE kind = 'digest'`, { plain: true })) as { n: number }).n);
     const before = await digests();

@@ -33,6 +33,8 @@ let noNotes = 0;
 let gone = 0;
 /** Inspection added for CV-101 (depot 1): due in 2 days, managers last told it was overdue. */
 let cv101 = 0;
+/** Takes the planted digest section out again after the file (the registry outlives it). */
+let removePlanted: () => void = () => undefined;
 
 const hash = (parts: string[]) => createHash('sha256').update(parts.join('|')).digest('hex').slice(0, 16);
 
@@ -82,7 +84,7 @@ beforeAll(async () => {
     `INSERT INTO inspections (vehicle_id, due_date, status, reason, notified_status, created_at, updated_at) VALUES (1, '2026-12-02', 'due', 'Predicted wear reaches the limit.', 'overdue', CURRENT_TIMESTAMP, CURRENT_TIMESTAMP)`,
   );
   [{ id: cv101 }] = await sq.query<{ id: number }>('SELECT id FROM inspections WHERE vehicle_id = 1 AND status = ?', { replacements: ['due'], type: QueryTypes.SELECT });
-  registerDigestSection({
+  removePlanted = registerDigestSection({
     id: 'planted',
     heading: 'Planted reports',
     pref: 'notifyRideReports',
@@ -107,6 +109,7 @@ beforeAll(async () => {
 }, 120_000);
 
 afterAll(async () => {
+  removePlanted();
   await srv?.stop();
 });
 
