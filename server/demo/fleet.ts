@@ -59,13 +59,13 @@ export async function seedSpecs(ctx: SeedContext) {
 
 /** The vehicles, each with a daily distance of its own and a driver while there are drivers. */
 export async function seedVehicles(ctx: SeedContext, specs: DemoSpec[], depots: Depot[], drivers: User[]) {
-  const { opts, rand, today } = ctx;
+  const { opts, rand, today, demo } = ctx;
   // Vehicles. Each has a daily distance of its own (km per working day); its odometer before
   // the trips on record grew at the rate its trips on record show.
   let vehicleNo = 0;
   const vehicles: { v: Vehicle; spec: SpecSeed; depotIdx: number; workingDayKm: number }[] = [];
   for (const { row, seed } of specs) {
-    for (let i = 0; i < seed.count; i++) {
+    for (let i = 0; i < Math.min(seed.count, demo.vehiclesPerSpec ?? seed.count); i++) {
       const depotIdx = vehicleNo % 2;
       const commissioned = subDays(today, seed.ageDays[0] + Math.floor(rand() * (seed.ageDays[1] - seed.ageDays[0])));
       const workingDayKm = seed.workingDayKm[0] + rand() * (seed.workingDayKm[1] - seed.workingDayKm[0]);

@@ -13,6 +13,17 @@ export interface SeedContext {
   today: Date;
   now: Date;
   dataDir: string;
+  /** How much of the fleet to seed. */
+  demo: DemoOptions;
+}
+
+/**
+ * How much of the demo fleet to seed: all of it by default, or only the first `vehiclesPerSpec`
+ * vehicles of each spec (with their trips and histories) — a fleet small enough that the nightly
+ * job over it takes a few seconds, for the tests that run the job several times.
+ */
+export interface DemoOptions {
+  vehiclesPerSpec?: number;
 }
 
 export const day = (d: Date) => formatISO(d, { representation: 'date' });

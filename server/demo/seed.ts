@@ -15,6 +15,7 @@ import { hashPassword } from '../users/service';
 import { seededRandom } from '../physics/iso8608';
 import { SURVEY_DIR } from '../roads/profile-store';
 import { seedPeople, seedSpecs, seedVehicles } from './fleet';
+import type { DemoOptions } from './seed-context';
 import { seedRoutes } from './roads';
 import { seedTrips } from './trips';
 import { seedHistories } from './histories';
@@ -52,16 +53,17 @@ export async function isEmpty(): Promise<boolean> {
 
 /**
  * Seeds the demo fleet into an empty, migrated database. `now` fixes "today". Survey profile
- * files go under `dataDir` (default: the database file's folder, i.e. DATA_DIR).
+ * files go under `dataDir` (default: the database file's folder, i.e. DATA_DIR); `demo` may ask
+ * for fewer vehicles.
  */
-export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string = path.dirname(db.file ?? '.')) {
+export async function seedDemo(db: Db, now: Date = new Date(), dataDir: string = path.dirname(db.file ?? '.'), demo: DemoOptions = {}) {
   fs.mkdirSync(path.join(dataDir, SURVEY_DIR), { recursive: true });
   const rand = seededRandom(20261201);
   const today = startOfDay(now);
   const pw = await hashPassword(DEMO_PASSWORD);
 
   await db.sequelize.transaction(async (transaction) => {
-    const ctx = { db, transaction, opts: { transaction }, rand, today, now, dataDir };
+    const ctx = { db, transaction, opts: { transaction }, rand, today, now, dataDir, demo };
     const { depots, drivers } = await seedPeople(ctx, pw);
     const specs = await seedSpecs(ctx);
     const routeRows = await seedRoutes(ctx, depots);

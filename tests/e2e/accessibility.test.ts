@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import type { Page } from 'playwright-core';
+import type { Page, Request } from 'playwright-core';
 import { type ViewportName } from '../support/browser';
 import { axeViolations } from '../support/axe';
 import { DEMO, goViaMenu, settled, signedInPage, serverAndBrowserForFile } from './helpers';
@@ -9,13 +9,54 @@ import type { Role } from '../../web/src/lib/roles';
 
 const { server, browser } = serverAndBrowserForFile();
 
-/** Opens a page, waits for it to settle, and returns axe's findings prefixed with its address. */
-async function check(page: Page, path: string): Promise<string[]> {
-  await page.goto(`${server.url}${path}`);
-  await page.getByRole('heading', { level: 1 }).first().waitFor();
-  await page.waitForLoadState('networkidle');
-  await settled(page);
-  return (await axeViolations(page)).map((v) => `${path}: ${v}`);
+/**
+ * Counts the page's requests in flight; `quiet(ms)` waits until none has been for `ms`. Unlike
+ * playwright's `networkidle` (half a second after a load), it also works after a move within the
+ * app, where the page does not load again but fetches a route's code and data.
+ */
+function requestsInFlight(page: Page) {
+  // the requests themselves, not a count: one that started before (signing in) ends unseen
+  const inFlight = new Set<Request>();
+  let lastChange = Date.now();
+  page.on('request', (r) => {
+    inFlight.add(r);
+    lastChange = Date.now();
+  });
+  const ended = (r: Request) => {
+    inFlight.delete(r);
+    lastChange = Date.now();
+  };
+  page.on('requestfinished', ended);
+  page.on('requestfailed', ended);
+  return {
+    async quiet(ms: number) {
+      await expect.poll(() => inFlight.size === 0 && Date.now() - lastChange >= ms, { interval: 25 }).toBe(true);
+    },
+  };
+}
+
+/**
+ * Opens each page in turn and returns axe's findings, each prefixed with its address. The first
+ * page loads by its address; the next ones open through the app's router as a menu link would
+ * (history entry and popstate), and each is checked once its requests have ended, its heading
+ * shows and its transitions have run.
+ */
+async function checkAll(page: Page, paths: string[]): Promise<string[]> {
+  const requests = requestsInFlight(page);
+  const found: string[] = [];
+  for (const [i, path] of paths.entries()) {
+    if (i === 0) await page.goto(`${server.url}${path}`);
+    else
+      await page.evaluate((to) => {
+        history.pushState(null, '', to);
+        dispatchEvent(new PopStateEvent('popstate'));
+      }, path);
+    await requests.quiet(150);
+    await page.getByRole('heading', { level: 1 }).first().waitFor();
+    await settled(page);
+    found.push(...(await axeViolations(page)).map((v) => `${path}: ${v}`));
+  }
+  return found;
 }
 
 async function one<T extends object>(sql: string, replacements: unknown[] = []): Promise<T> {
@@ -50,8 +91,7 @@ describe('accessibility of every page, for each role (axe-core)', () => {
         const s = await one<{ id: number }>('SELECT id FROM suspension_specs ORDER BY id LIMIT 1');
         paths.push(`/specs/${s.id}/edit`, '/specs/new');
       }
-      const found: string[] = [];
-      for (const path of [...new Set(paths)]) found.push(...(await check(page, path)));
+      const found = await checkAll(page, [...new Set(paths)]);
 
       expect(found, found.join('\n')).toEqual([]);
       await context.close();

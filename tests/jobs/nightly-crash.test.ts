@@ -6,11 +6,11 @@ import { ApiClient, DEMO } from '../support/client';
 
 /** A nightly run that fails or is cancelled, then run again, ends with the tables of one clean run. */
 
-const ref = cleanRunForFile();
+const ref = cleanRunForFile('small');
 
 describe('nightly job crash safety', () => {
   it('when a run fails after one batch and is run again, then the tables equal those of one clean run', async () => {
-    const B = await startTestServer({ env: NIGHTLY_TEST_ENV });
+    const B = await startTestServer({ fleet: 'small', env: NIGHTLY_TEST_ENV });
     try {
       const deps = { db: B.db, config: B.config, log: B.log, mailer: B.mailer, now: TEST_NOW, trigger: 'test' as const };
       const crashed = await run({ ...deps, failAfterBatches: 1 });
@@ -28,7 +28,7 @@ describe('nightly job crash safety', () => {
   }, 240_000);
 
   it('when a run is cancelled through its signal and run again, then the tables equal those of one clean run; a user who turned the digest off gets none', async () => {
-    const C = await startTestServer({ env: NIGHTLY_TEST_ENV });
+    const C = await startTestServer({ fleet: 'small', env: NIGHTLY_TEST_ENV });
     try {
       const deps = { db: C.db, config: C.config, log: C.log, mailer: C.mailer, now: TEST_NOW, trigger: 'test' as const };
       const abort = new AbortController();

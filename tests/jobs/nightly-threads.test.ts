@@ -5,13 +5,13 @@ import { run } from '../../jobs/nightly';
 
 /** The nightly job's duty computed on its own thread and on worker threads gives the same tables. */
 
-const ref = cleanRunForFile();
+const ref = cleanRunForFile('small');
 
 describe('nightly job threads', () => {
   // The reference ran on the default `auto` setting: at least one worker thread computes the duty.
   for (const workers of ['0', '2']) {
     it(`when the duty is computed on ${workers === '0' ? "the job's own thread" : `${workers} worker threads`}, then the tables equal those of the run on the default setting`, async () => {
-      const D = await startTestServer({ env: { ...NIGHTLY_TEST_ENV, NIGHTLY_WORKERS: workers } });
+      const D = await startTestServer({ fleet: 'small', env: { ...NIGHTLY_TEST_ENV, NIGHTLY_WORKERS: workers } });
       try {
         expect(D.config.nightlyWorkers).toBe(Number(workers));
         const r = await run({ db: D.db, config: D.config, log: D.log, mailer: D.mailer, now: TEST_NOW, trigger: 'test' });

@@ -11,7 +11,7 @@ import { QueryTypes } from 'sequelize';
 import type { Db } from '../../server/db';
 import { selectRows } from '../../server/db/raw';
 import { beforeAll } from 'vitest';
-import { buildOnce, codeHash, defaultTestDatabase, lateBound, NIGHTLY_TEST_ENV, startTestServer, type TestDatabase } from './server';
+import { buildOnce, codeHash, defaultTestDatabase, lateBound, NIGHTLY_TEST_ENV, SMALL_FLEET, startTestServer, type TestDatabase, type TestFleet } from './server';
 
 /** Tables and columns that legitimately differ between two databases holding the same state. */
 const SKIP_TABLES = new Set(['sessions', 'sign_in_counts', 'job_runs', 'job_locks', 'caught_mail', 'schema_migrations', 'sqlite_sequence']);
@@ -147,14 +147,16 @@ export interface CleanRun {
 export { NIGHTLY_TEST_ENV };
 
 /**
- * The demo fleet's tables after one clean nightly run (default settings, {@link NIGHTLY_TEST_ENV}):
- * those of the nightly template ({@link startTestServer}'s `afterNightly`), dumped once per
- * version of the code, on the test run's database (PostgreSQL in the `pg` project) or the one
- * asked for; the first file to ask dumps it while holding a lock, the others wait.
+ * The tables of the demo fleet (or its small cut) after one clean nightly run (default settings,
+ * {@link NIGHTLY_TEST_ENV}): those of the nightly template ({@link startTestServer}'s
+ * `afterNightly`), dumped once per version of the code, on the test run's database (PostgreSQL in
+ * the `pg` project) or the one asked for; the first file to ask dumps it while holding a lock,
+ * the others wait.
  */
-export async function cleanRun(database: TestDatabase = defaultTestDatabase()): Promise<CleanRun> {
-  const dir = await buildOnce(path.join(os.tmpdir(), `reboundry-nightly-reference-${codeHash(['server', 'jobs'], JSON.stringify(NIGHTLY_TEST_ENV))}${database === 'postgres' ? '-postgres' : ''}`), async (work) => {
-    const srv = await startTestServer({ afterNightly: true, database });
+export async function cleanRun(database: TestDatabase = defaultTestDatabase(), fleet: TestFleet = 'demo'): Promise<CleanRun> {
+  const tag = JSON.stringify(NIGHTLY_TEST_ENV) + (fleet === 'small' ? JSON.stringify(SMALL_FLEET) : '');
+  const dir = await buildOnce(path.join(os.tmpdir(), `reboundry-nightly-reference-${codeHash(['server', 'jobs'], tag)}${fleet === 'small' ? '-small' : ''}${database === 'postgres' ? '-postgres' : ''}`), async (work) => {
+    const srv = await startTestServer({ afterNightly: true, database, fleet });
     try {
       const out: CleanRun = { dump: await dump(srv.db), counts: srv.nightlyCounts! };
       fs.writeFileSync(path.join(work, 'reference.json'), JSON.stringify(out));
@@ -165,11 +167,11 @@ export async function cleanRun(database: TestDatabase = defaultTestDatabase()): 
   return JSON.parse(fs.readFileSync(path.join(dir, 'reference.json'), 'utf8')) as CleanRun;
 }
 
-/** The {@link cleanRun} a test file compares against, read before its tests (waiting, if need be, for the file that dumps it). */
-export function cleanRunForFile(): CleanRun {
+/** The {@link cleanRun} of a fleet that a test file compares against, read before its tests (waiting, if need be, for the file that dumps it). */
+export function cleanRunForFile(fleet: TestFleet = 'demo'): CleanRun {
   let ref: CleanRun | undefined;
   beforeAll(async () => {
-    ref = await cleanRun();
+    ref = await cleanRun(defaultTestDatabase(), fleet);
   }, 240_000);
   return lateBound(() => ref, 'the clean run');
 }

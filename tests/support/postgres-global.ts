@@ -1,7 +1,7 @@
 /**
  * Vitest global setup of the `pg` project: one private PostgreSQL server for the whole run
- * (tests/support/postgres.ts) with the demo fleet seeded once into a template database, which
- * every test file's server copies (`CREATE DATABASE … TEMPLATE`, a file copy inside the server).
+ * (tests/support/postgres.ts) with the demo fleet and its small cut each seeded once into a
+ * template database, which every test file's server copies (`CREATE DATABASE … TEMPLATE`, a file copy inside the server).
  * A test file of another project that needs PostgreSQL starts its own with
  * {@link startPostgresTarget} and hands it to startTestServer (`postgres`).
  */
@@ -18,25 +18,32 @@ declare module 'vitest' {
   }
 }
 
-/** A private PostgreSQL server with the demo fleet seeded into its template database; `stop` removes both. */
+/** A private PostgreSQL server with the demo fleet and its small cut seeded into template databases; `stop` removes them all. */
 export async function startPostgresTarget(): Promise<{ target: PostgresTarget; stop(): void }> {
   const pg = await startPrivatePostgres();
+  const dataDirs: string[] = [];
   try {
-    const templateDb = 'reboundry_demo_template';
-    const templateDataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-pg-demo-'));
-    pg.sql(`CREATE DATABASE ${templateDb}`);
-    // the app's own start-up seeds it, as for a SQLite template (tests/support/server.ts)
+    // the app's own start-up seeds them, as for a SQLite template (tests/support/server.ts)
     const { seedPostgresTemplate } = await import('./server');
-    await seedPostgresTemplate(`${pg.baseUrl}${templateDb}`, templateDataDir);
+    const templates = {} as PostgresTarget['templates'];
+    for (const fleet of ['demo', 'small'] as const) {
+      const db = `reboundry_${fleet}_template`;
+      const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), `reboundry-pg-${fleet}-`));
+      dataDirs.push(dataDir);
+      pg.sql(`CREATE DATABASE ${db}`);
+      await seedPostgresTemplate(`${pg.baseUrl}${db}`, dataDir, fleet);
+      templates[fleet] = { db, dataDir };
+    }
     return {
-      target: { baseUrl: pg.baseUrl, templateDb, templateDataDir },
+      target: { baseUrl: pg.baseUrl, templates },
       stop() {
         pg.stop();
-        fs.rmSync(templateDataDir, { recursive: true, force: true });
+        for (const d of dataDirs) fs.rmSync(d, { recursive: true, force: true });
       },
     };
   } catch (e) {
     pg.stop();
+    for (const d of dataDirs) fs.rmSync(d, { recursive: true, force: true });
     throw e;
   }
 }

@@ -82,20 +82,38 @@ export async function buildOnce(dir: string, build: (work: string) => Promise<vo
   }
 }
 
-let demoDir: Promise<string> | null = null;
+/**
+ * Which fleet a test server starts from: the whole demo fleet, or its small cut
+ * ({@link SMALL_FLEET}) for the tests that run the nightly job several times and compare tables,
+ * where what counts is that the runs agree, not the size of the fleet.
+ */
+export type TestFleet = 'demo' | 'small';
+
+/** The small cut of the demo fleet: its first four vehicles of each spec (12 vehicles, about 450 trips). */
+export const SMALL_FLEET = { vehiclesPerSpec: 4 };
+
+const demoOptions = (fleet: TestFleet) => (fleet === 'small' ? SMALL_FLEET : {});
+/** What a template's folder name holds beside the code's hash: nothing for the whole demo fleet. */
+const fleetTag = (fleet: TestFleet) => (fleet === 'small' ? JSON.stringify(SMALL_FLEET) : '');
+
+const demoDirs = new Map<TestFleet, Promise<string>>();
 
 /**
- * A data folder holding the migrated database with the demo fleet seeded as of {@link TEST_NOW},
- * shared by every test file of a run (and of later runs while the server code is unchanged),
- * closed so the WAL is folded into the database file.
+ * A data folder holding the migrated database with the demo fleet (or its small cut) seeded as of
+ * {@link TEST_NOW}, shared by every test file of a run (and of later runs while the server code
+ * is unchanged), closed so the WAL is folded into the database file.
  */
-function demoTemplate(): Promise<string> {
-  demoDir ??= buildOnce(path.join(os.tmpdir(), `reboundry-demo-template-${codeHash(['server'])}`), async (work) => {
-    const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: work, SEED_DEMO: 'true', LOG_LEVEL: 'error' });
-    const db = await prepareDatabase(config, createLogger(config.logLevel), TEST_NOW);
-    await db.close();
-  });
-  return demoDir;
+function demoTemplate(fleet: TestFleet = 'demo'): Promise<string> {
+  let dir = demoDirs.get(fleet);
+  if (!dir) {
+    dir = buildOnce(path.join(os.tmpdir(), `reboundry-${fleet}-template-${codeHash(['server'], fleetTag(fleet))}`), async (work) => {
+      const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: work, SEED_DEMO: 'true', LOG_LEVEL: 'error' });
+      const db = await prepareDatabase(config, createLogger(config.logLevel), TEST_NOW, { demo: demoOptions(fleet) });
+      await db.close();
+    });
+    demoDirs.set(fleet, dir);
+  }
+  return dir;
 }
 
 /**
@@ -106,16 +124,19 @@ export const NIGHTLY_TEST_ENV = { NIGHTLY_BATCH_TRIPS: '400' };
 
 /** The file in the nightly template's folder that holds the counts of its run. */
 const RUN_FILE = 'nightly-run.json';
-let nightlyDir: Promise<string> | null = null;
+const nightlyDirs = new Map<TestFleet, Promise<string>>();
 
 /**
- * The demo fleet after one clean nightly run as of {@link TEST_NOW} on {@link NIGHTLY_TEST_ENV},
- * its mail sent to the built-in catcher: built once per version of the server and job code, like
- * the demo template, for every test that starts by running the job on the demo fleet.
+ * The demo fleet (or its small cut) after one clean nightly run as of {@link TEST_NOW} on
+ * {@link NIGHTLY_TEST_ENV}, its mail sent to the built-in catcher: built once per version of the
+ * server and job code, like the demo template, for every test that starts by running the job on
+ * that fleet.
  */
-function nightlyTemplate(): Promise<string> {
-  nightlyDir ??= demoTemplate().then((demo) =>
-    buildOnce(path.join(os.tmpdir(), `reboundry-nightly-template-${codeHash(['server', 'jobs'], JSON.stringify(NIGHTLY_TEST_ENV))}`), async (work) => {
+function nightlyTemplate(fleet: TestFleet = 'demo'): Promise<string> {
+  let dir = nightlyDirs.get(fleet);
+  if (dir) return dir;
+  dir = demoTemplate(fleet).then((demo) =>
+    buildOnce(path.join(os.tmpdir(), `reboundry-nightly${fleet === 'small' ? '-small' : ''}-template-${codeHash(['server', 'jobs'], JSON.stringify(NIGHTLY_TEST_ENV) + fleetTag(fleet))}`), async (work) => {
       fs.cpSync(demo, work, { recursive: true });
       const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: work, SEED_DEMO: 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...NIGHTLY_TEST_ENV });
       const log = createLogger(config.logLevel);
@@ -131,20 +152,21 @@ function nightlyTemplate(): Promise<string> {
       }
     }),
   );
-  return nightlyDir;
+  nightlyDirs.set(fleet, dir);
+  return dir;
 }
 
 /** The private PostgreSQL server of the `pg` test project and its seeded template (postgres-global.ts). */
 export interface PostgresTarget {
   baseUrl: string;
-  templateDb: string;
-  templateDataDir: string;
+  /** The seeded template database of each fleet, and the data folder (survey files) beside it. */
+  templates: Record<TestFleet, { db: string; dataDir: string }>;
 }
 
-/** Migrates and seeds the demo fleet (as of {@link TEST_NOW}) into an empty PostgreSQL database. */
-export async function seedPostgresTemplate(url: string, dataDir: string) {
+/** Migrates and seeds the demo fleet, or its small cut (as of {@link TEST_NOW}), into an empty PostgreSQL database. */
+export async function seedPostgresTemplate(url: string, dataDir: string, fleet: TestFleet = 'demo') {
   const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, DATABASE_URL: url, SEED_DEMO: 'true', LOG_LEVEL: 'error' });
-  const db = await prepareDatabase(config, createLogger(config.logLevel), TEST_NOW);
+  const db = await prepareDatabase(config, createLogger(config.logLevel), TEST_NOW, { demo: demoOptions(fleet) });
   await db.close();
 }
 
@@ -163,14 +185,14 @@ export const defaultTestDatabase = (): TestDatabase => (postgresTarget() ? 'post
 
 let pgDatabases = 0;
 
-/** A new PostgreSQL database for one test server: a copy of the seeded template, or empty. */
-async function createPostgresDatabase(target: PostgresTarget, seeded: boolean): Promise<{ url: string; drop(): Promise<void> }> {
+/** A new PostgreSQL database for one test server: a copy of a fleet's seeded template, or empty. */
+async function createPostgresDatabase(target: PostgresTarget, seeded: TestFleet | null): Promise<{ url: string; drop(): Promise<void> }> {
   const name = `reboundry_test_${process.pid}_${++pgDatabases}_${crypto.randomBytes(3).toString('hex')}`;
   const admin = new Sequelize(`${target.baseUrl}postgres`, { dialect: 'postgres', logging: false });
   try {
     for (let attempt = 0; ; attempt++) {
       try {
-        await admin.query(`CREATE DATABASE ${name}${seeded ? ` TEMPLATE ${target.templateDb}` : ''}`);
+        await admin.query(`CREATE DATABASE ${name}${seeded ? ` TEMPLATE ${target.templates[seeded].db}` : ''}`);
         break;
       } catch (e) {
         // two copies of one template at the same moment: the second waits for the first
@@ -193,7 +215,7 @@ async function createPostgresDatabase(target: PostgresTarget, seeded: boolean): 
 /** An empty PostgreSQL database on the `pg` project's server (dropped by `drop`), or undefined outside that project. */
 export async function emptyPostgresDatabase(): Promise<{ url: string; drop(): Promise<void> } | undefined> {
   const target = postgresTarget();
-  return target ? createPostgresDatabase(target, false) : undefined;
+  return target ? createPostgresDatabase(target, null) : undefined;
 }
 
 /**
@@ -204,19 +226,20 @@ export async function emptyPostgresDatabase(): Promise<{ url: string; drop(): Pr
  * `postgres`, the database is a copy of that server's seeded template, in any project.
  */
 export async function startTestServer(
-  opts: { seed?: boolean; afterNightly?: boolean; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string; database?: TestDatabase; postgres?: PostgresTarget } = {},
+  opts: { seed?: boolean; afterNightly?: boolean; fleet?: TestFleet; auth?: AppDeps['auth']; env?: Record<string, string>; webDir?: string; database?: TestDatabase; postgres?: PostgresTarget } = {},
 ): Promise<TestServer> {
+  const fleet = opts.fleet ?? 'demo';
   if (opts.afterNightly && opts.seed === false) throw new Error('afterNightly starts from the demo fleet');
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'reboundry-test-'));
   // In the `pg` project (or when asked) the database is a copy of the private PostgreSQL server's
   // template: the project's, or one a test file started itself (`postgres`, startPostgresTarget()).
   const target = opts.postgres ?? ((opts.database ?? defaultTestDatabase()) === 'postgres' ? postgresTarget() : undefined);
   if (opts.database === 'postgres' && !target) throw new Error('no PostgreSQL server for the tests: run the `pg` project (vitest --project pg)');
-  const pg = target ? await createPostgresDatabase(target, opts.seed !== false) : null;
+  const pg = target ? await createPostgresDatabase(target, opts.seed !== false ? fleet : null) : null;
   // SQLite: the demo fleet (or the fleet after one nightly run) is built once per version of the code
   // and copied into each test's folder. PostgreSQL: the database is a copy of the seeded template,
   // and `afterNightly` runs the job on it below.
-  const template = target ? (opts.seed !== false ? target.templateDataDir : null) : opts.afterNightly ? await nightlyTemplate() : opts.seed !== false ? await demoTemplate() : null;
+  const template = target ? (opts.seed !== false ? target.templates[fleet].dataDir : null) : opts.afterNightly ? await nightlyTemplate(fleet) : opts.seed !== false ? await demoTemplate(fleet) : null;
   if (template) fs.cpSync(template, dataDir, { recursive: true });
   const baseEnv = { NODE_ENV: 'test', DATA_DIR: dataDir, SEED_DEMO: opts.seed === false ? 'false' : 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...(pg ? { DATABASE_URL: pg.url } : {}) };
   const config = loadConfig({ ...baseEnv, ...opts.env });

@@ -114,7 +114,7 @@ describe('per-trip duty retention', () => {
   it('when the same history runs with a 61-day window and an unbounded one, then the folding night leaves the same tables bit for bit apart from the rows moved, the next night the same life models and wear to 1e-12; folding again changes nothing; a fold killed midway and run again ends the same', async () => {
     let short!: History;
     let shortSummary: Awaited<ReturnType<typeof summary>> = { days: [], routes: [] };
-    const S = await startTestServer({ env: { ...NIGHTLY_TEST_ENV, TRIP_DUTY_RETENTION_DAYS: String(WINDOW) } });
+    const S = await startTestServer({ fleet: 'small', env: { ...NIGHTLY_TEST_ENV, TRIP_DUTY_RETENTION_DAYS: String(WINDOW) } });
     try {
       expect(S.config.tripDutyRetentionDays).toBe(WINDOW);
       short = await twoNights(S, true, async (s) => {
@@ -136,7 +136,7 @@ describe('per-trip duty retention', () => {
     expect((short.dumpB.trip_duties as Row[]).every((r) => String(r.trip_date) >= retentionStart(DAY_B, WINDOW))).toBe(true);
     expect((short.dumpB.trip_duty_days as Row[]).length).toBeGreaterThan(0);
 
-    const U = await startTestServer({ env: { ...NIGHTLY_TEST_ENV, TRIP_DUTY_RETENTION_DAYS: String(UNBOUNDED) } });
+    const U = await startTestServer({ fleet: 'small', env: { ...NIGHTLY_TEST_ENV, TRIP_DUTY_RETENTION_DAYS: String(UNBOUNDED) } });
     try {
       const unbounded = await twoNights(U, false, async (s) => {
         // migration 0019 on a database with duty fills the severity totals the nights kept
