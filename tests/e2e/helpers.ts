@@ -147,10 +147,10 @@ export async function choosePassword(page: Page, temporary: string, chosen: stri
 }
 
 /** The file's test server and browser, started together before its tests and closed after them. */
-export function serverAndBrowserForFile(): { server: TestServer; browser: Browser } {
+export function serverAndBrowserForFile(opts: Parameters<typeof startTestServer>[0] = {}): { server: TestServer; browser: Browser } {
   let started: [TestServer, Browser] | undefined;
   beforeAll(async () => {
-    started = await Promise.all([startTestServer(), launchBrowser()]);
+    started = await Promise.all([startTestServer(opts), launchBrowser()]);
   });
   afterAll(async () => {
     await started?.[1].close();

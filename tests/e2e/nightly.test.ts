@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { screenshotPath } from '../support/browser';
 import { DEMO, expectHeading, expectPath, settled, signIn, freshPage, serverAndBrowserForFile } from './helpers';
 
-const { server, browser } = serverAndBrowserForFile();
+const { server, browser } = serverAndBrowserForFile({ fleet: 'small' });
 
 describe('nightly damper-duty run in the browser', () => {
   it('when a manager runs the job, then new due inspections, the vehicle wear and the outbox show its results', async () => {

@@ -6,9 +6,10 @@ import type { Page } from 'playwright-core';
  * its violations, one line each: rule, impact, how many elements, the first element's selector.
  */
 export async function axeViolations(page: Page): Promise<string[]> {
-  // One axe.run in the page itself ("legacy mode"): the app has no frames, so the default's
-  // per-frame partial runs, finished on a blank page opened for each check, only cost time
-  // (about half a second a page).
+  // One axe.run from the page itself, with axe injected into its frames too ("legacy mode"):
+  // the app has no frame from another origin (an outbox message's body is the app's own), so the
+  // default's per-frame partial runs, finished on a blank page opened for each check, only cost
+  // time (about half a second a page).
   const result = await new AxeBuilder({ page }).setLegacyMode().withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'best-practice']).analyze();
   return result.violations.map((v) => `${v.id} (${v.impact}): ${v.nodes.length}× e.g. ${v.nodes[0]?.target.join(' ')} — ${v.help}`);
 }

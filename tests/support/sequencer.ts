@@ -2,32 +2,34 @@ import path from 'node:path';
 import { BaseSequencer, type TestSpecification } from 'vitest/node';
 
 /**
- * Seconds the slowest files take on a quiet two-core machine (a full `npm test`, after the
- * nightly template of tests/support/server.ts). Without timings of its own (a fresh checkout
+ * Seconds the slowest files take on a quiet two-core machine (a full `npm run test:all`, after
+ * the templates of tests/support/server.ts were built). Without timings of its own (a fresh checkout
  * has no vitest cache), vitest would start the biggest files first, and a short file that runs
  * long — the accessibility sweep, a nightly crash test — would start last and run on alone
  * while the other core idles.
  */
 const SLOW: Record<string, number> = {
-  'e2e:tests/e2e/accessibility.test.ts': 81,
-  'unit:tests/jobs/nightly-crash.test.ts': 71,
-  'unit:tests/jobs/nightly-cancel-phases.test.ts': 41,
-  'e2e:tests/e2e/damper-life.test.ts': 38,
-  'e2e:tests/e2e/workshop.test.ts': 36,
-  'unit:tests/jobs/nightly-threads.test.ts': 34,
-  'e2e:tests/e2e/nightly.test.ts': 30,
-  'e2e:tests/e2e/routes-editing.test.ts': 28,
-  'e2e:tests/e2e/roles.test.ts': 27,
-  'e2e:tests/e2e/drivers.test.ts': 24,
-  'unit:tests/server/nightly-job.test.ts': 22,
-  'e2e:tests/e2e/roads-and-imports.test.ts': 15,
-  'e2e:tests/e2e/people.test.ts': 15,
-  'e2e:tests/e2e/sign-in.test.ts': 14,
-  'e2e:tests/e2e/vehicles.test.ts': 13,
-  'e2e:tests/e2e/map.test.ts': 12,
-  'e2e:tests/e2e/forms.test.ts': 11,
-  'unit:tests/physics/cli.test.ts': 9,
-  'e2e:tests/e2e/fleet-forms.test.ts': 9,
+  'e2e:tests/e2e/accessibility.test.ts': 67,
+  'e2e:tests/e2e/damper-life.test.ts': 32,
+  'e2e:tests/e2e/routes-editing.test.ts': 31,
+  'e2e:tests/e2e/roles.test.ts': 28,
+  'e2e:tests/e2e/drivers.test.ts': 26,
+  'unit:tests/server/nightly-job.test.ts': 23,
+  'unit:tests/jobs/nightly-cancel-phases.test.ts': 21,
+  'unit:tests/jobs/nightly-crash.test.ts': 21,
+  'unit:tests/server/wear/duty-retention.test.ts': 19,
+  'e2e:tests/e2e/sign-in.test.ts': 18,
+  'e2e:tests/e2e/people.test.ts': 17,
+  'e2e:tests/e2e/roads-and-imports.test.ts': 17,
+  'e2e:tests/e2e/vehicles.test.ts': 17,
+  'unit:tests/jobs/nightly-threads.test.ts': 17,
+  'e2e:tests/e2e/nightly.test.ts': 16,
+  'unit:tests/physics/cli.test.ts': 15,
+  'e2e:tests/e2e/workshop.test.ts': 13,
+  'unit:tests/server/multi-instance.test.ts': 12,
+  'e2e:tests/e2e/map.test.ts': 11,
+  'e2e:tests/e2e/forms.test.ts': 10,
+  'e2e:tests/e2e/fleet-forms.test.ts': 8,
   'unit:tests/server/role-access.test.ts': 6,
 };
 
