@@ -2,6 +2,8 @@
  * E-mail bodies: plain text and HTML with links into the app. Our own words; every number
  * with its unit; the caution that predictions support, never replace, inspection.
  */
+import { readableDay } from '../lib/days';
+
 export const CAUTION_TEXT =
   'Wear predictions are estimates from a model of the vehicle and the road. They support, and never replace, inspection by a qualified mechanic, the vehicle and damper makers’ requirements and local regulations.';
 
@@ -31,9 +33,11 @@ export const MAX_LISTED = 30;
 
 export function digestMail(input: { name: string; asOf: string; sections: DigestSectionContent[]; homeUrl: string; settingsUrl: string }) {
   const count = input.sections.reduce((s, x) => s + x.entries.length, 0);
-  const subject = `Reboundry digest for ${input.asOf}: ${count} new item${count === 1 ? '' : 's'}`;
-  const text: string[] = [`Hello ${input.name},`, '', `New since your last digest (as of ${input.asOf}):`, ''];
-  let html = `<p>Hello ${esc(input.name)},</p><p>New since your last digest (as of ${esc(input.asOf)}):</p>`;
+  // the day as the app's screens write it (4 Dec 2026), not the ISO form the job keys it by
+  const day = readableDay(input.asOf);
+  const subject = `Reboundry digest for ${day}: ${count} new item${count === 1 ? '' : 's'}`;
+  const text: string[] = [`Hello ${input.name},`, '', `New since your last digest (as of ${day}):`, ''];
+  let html = `<p>Hello ${esc(input.name)},</p><p>New since your last digest (as of ${esc(day)}):</p>`;
   for (const s of input.sections) {
     text.push(`== ${s.heading} (${s.entries.length}) ==`);
     if (s.intro) text.push(s.intro);
@@ -53,7 +57,7 @@ export function digestMail(input: { name: string; asOf: string; sections: Digest
   }
   text.push(`Due inspections: ${input.homeUrl}`, '', CAUTION_TEXT, '', `Turn this e-mail off in your account settings: ${input.settingsUrl}`);
   html += `<p><a href="${esc(input.homeUrl)}" style="color:#D9622B">Open the due inspections</a></p><p style="font-size:13px;color:#5B6B73">Turn this e-mail off in your <a href="${esc(input.settingsUrl)}">account settings</a>.</p>`;
-  return { subject, text: text.join('\n'), html: wrap(`Digest for ${input.asOf}`, html) };
+  return { subject, text: text.join('\n'), html: wrap(`Digest for ${day}`, html) };
 }
 
 export interface AssignedItem {

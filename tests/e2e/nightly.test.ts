@@ -75,7 +75,7 @@ describe('nightly damper-duty run in the browser', () => {
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Due' }).click();
     await page.getByRole('main').getByRole('link', { name: 'Outbox' }).click();
     await expectHeading(page, 'Outbox');
-    const digest = page.getByRole('button', { name: /Reboundry digest for 2026-11-30/ });
+    const digest = page.getByRole('button', { name: /Reboundry digest for 30 Nov 2026/ });
     await digest.click();
     await page.getByRole('article', { name: 'Message' }).getByText(/To manager@reboundry\.test|to manager@reboundry\.test/).waitFor();
     const body = page.frameLocator('iframe[title="HTML body"]');

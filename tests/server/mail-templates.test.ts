@@ -86,7 +86,7 @@ describe('e-mail bodies', () => {
 
   it('when a digest section is long, then it lists the first entries and counts the rest with a link to the app', () => {
     const m = digestOf([dueSection(MAX_LISTED + 4, ['due today'])]);
-    expect(m.subject).toBe(`Reboundry digest for 2026-12-01: ${MAX_LISTED + 4} new items`);
+    expect(m.subject).toBe(`Reboundry digest for 1 Dec 2026: ${MAX_LISTED + 4} new items`);
     expect(m.text).toContain(`== Inspections now due or overdue (${MAX_LISTED + 4}) ==`);
     expect(m.text.match(/^- CV-/gm)).toHaveLength(MAX_LISTED);
     expect(m.text).toContain('…and 4 more, all in the app: http://app.test/');
@@ -108,12 +108,12 @@ describe('the manager\'s digest', () => {
 
   it('when a digest has a few entries, then the plain text lists each section with its count and intro, each entry with its lines and link, the caution and how to turn it off', () => {
     const m = mail();
-    expect(m.subject).toBe('Reboundry digest for 2026-12-01: 3 new items');
+    expect(m.subject).toBe('Reboundry digest for 1 Dec 2026: 3 new items');
     expect(m.text).toBe(
       [
         'Hello Maren,',
         '',
-        'New since your last digest (as of 2026-12-01):',
+        'New since your last digest (as of 1 Dec 2026):',
         '',
         '== Inspections now due or overdue (1) ==',
         'Booked by the scheduling rules.',
@@ -144,9 +144,9 @@ describe('the manager\'s digest', () => {
     expect(wellFormed(m.html)).toBe(true);
     expect(seen(m.html)).toEqual([
       'Reboundry',
-      'Digest for 2026-12-01',
+      'Digest for 1 Dec 2026',
       'Hello Maren,',
-      'New since your last digest (as of 2026-12-01):',
+      'New since your last digest (as of 1 Dec 2026):',
       'Inspections now due or overdue (1)',
       'Booked by the scheduling rules.',
       'CV-101 (BK1): due 2026-12-01',
@@ -171,7 +171,7 @@ describe('the manager\'s digest', () => {
 
   it('when a digest has one entry, then the subject says "1 new item"', () => {
     const m = digestOf([{ ...sections[0] }]);
-    expect(m.subject).toBe('Reboundry digest for 2026-12-01: 1 new item');
+    expect(m.subject).toBe('Reboundry digest for 1 Dec 2026: 1 new item');
   });
 
   it('when a section has exactly as many entries as are listed, then all are listed and no "more" line appears', () => {

@@ -156,7 +156,7 @@ describe('nightly job through the API', () => {
     expect(out.body.total).toBe(firstRun.counts.mailsSent);
     expect(out.body.sent.sent).toBe(firstRun.counts.mailsSent);
     const digest = out.body.items.find((m) => m.to === DEMO.manager)!;
-    expect(digest.subject).toMatch(/^Reboundry digest for 2026-11-30: \d+ new items?$/);
+    expect(digest.subject).toMatch(/^Reboundry digest for 30 Nov 2026: \d+ new items?$/);
     const full = await c.get<{ message: { text: string; html: string; key: string } }>(`/api/outbox/${digest.id}`);
     expect(full.body.message.key).toMatch(/^digest:\d+:2026-11-30:/);
     expect(full.body.message.text).toContain('Inspections now due or overdue');

@@ -122,24 +122,24 @@ describe('the manager digest', () => {
     const digests = await mails('digest');
     const inspectionKeys = ['inspections:52:overdue', 'inspections:5:overdue', 'inspections:69:due', 'inspections:29:due', `inspections:${cv101}:due`];
     expect(digests.map((m) => [m.user_id, m.to_address, m.dedupe_key, m.subject, m.status, m.job_run_id, m.created_at])).toEqual([
-      [1, 'manager@reboundry.test', `digest:1:2026-11-30:${hash([...inspectionKeys, 'planted:r1', 'planted:r2'])}`, 'Reboundry digest for 2026-11-30: 7 new items', 'pending', RUN_ID, '2026-11-30 12:00:00.000 +00:00'],
+      [1, 'manager@reboundry.test', `digest:1:2026-11-30:${hash([...inspectionKeys, 'planted:r1', 'planted:r2'])}`, 'Reboundry digest for 30 Nov 2026: 7 new items', 'pending', RUN_ID, '2026-11-30 12:00:00.000 +00:00'],
       [
         managers.north,
         'nora.north@reboundry.test',
         `digest:${managers.north}:2026-11-30:${hash(['inspections:52:overdue', 'inspections:5:overdue', `inspections:${cv101}:due`, 'planted:r1'])}`,
-        'Reboundry digest for 2026-11-30: 4 new items',
+        'Reboundry digest for 30 Nov 2026: 4 new items',
         'pending',
         RUN_ID,
         '2026-11-30 12:00:00.000 +00:00',
       ],
-      [managers.millbrook, 'milo.brook@reboundry.test', `digest:${managers.millbrook}:2026-11-30:${hash(['planted:r1', 'planted:r2'])}`, 'Reboundry digest for 2026-11-30: 2 new items', 'pending', RUN_ID, '2026-11-30 12:00:00.000 +00:00'],
+      [managers.millbrook, 'milo.brook@reboundry.test', `digest:${managers.millbrook}:2026-11-30:${hash(['planted:r1', 'planted:r2'])}`, 'Reboundry digest for 30 Nov 2026: 2 new items', 'pending', RUN_ID, '2026-11-30 12:00:00.000 +00:00'],
     ]);
     const [all, north, millbrook] = digests.map((m) => m.text_body);
     expect(all).toContain(
       [
         'Hello Maren Okafor,',
         '',
-        'New since your last digest (as of 2026-11-30):',
+        'New since your last digest (as of 30 Nov 2026):',
         '',
         '== Inspections now due or overdue (5) ==',
         '- LV-103 (BK22 UVQ), Brackenford North Yard: OVERDUE, 3 days overdue (2026-11-27)',
@@ -208,7 +208,7 @@ describe('the manager digest', () => {
     await setInspection(69, 'overdue', '2026-11-28', 'due');
     expect(await queueDigests({ ...ctx, runId: null })).toBe(1);
     const last = (await mails('digest')).at(-1)!;
-    expect([last.user_id, last.dedupe_key, last.subject, last.job_run_id]).toEqual([1, `digest:1:2026-11-30:${hash(['inspections:69:overdue'])}`, 'Reboundry digest for 2026-11-30: 1 new item', null]);
+    expect([last.user_id, last.dedupe_key, last.subject, last.job_run_id]).toEqual([1, `digest:1:2026-11-30:${hash(['inspections:69:overdue'])}`, 'Reboundry digest for 30 Nov 2026: 1 new item', null]);
     expect(last.text_body).toContain('LV-112 (BK25 DMU), Millbrook Cross Depot: OVERDUE, 2 days overdue (2026-11-28)');
   });
 });
