@@ -12,7 +12,7 @@
 import 'dotenv/config';
 import { ConfigError, loadConfig } from '../server/config';
 import { createLogger } from '../server/logger';
-import { startDutyWorker } from '../server/wear/duty-queue';
+import { safeUrl, startDutyWorker } from '../server/wear/duty-queue';
 
 function config() {
   try {
@@ -31,9 +31,21 @@ function config() {
 
 const c = config();
 const log = createLogger(c.logLevel);
-const w = startDutyWorker(c.queueUrl, { lockMs: c.dutyWorkerLockMs });
+// ioredis retries on its own: say once per outage that the Redis cannot be reached, not per attempt
+let unreachable = false;
+const w = startDutyWorker(c.queueUrl, {
+  lockMs: c.dutyWorkerLockMs,
+  onConnectionError(err) {
+    if (unreachable) return;
+    unreachable = true;
+    log.error(`duty worker ${process.pid}: cannot reach the queue's Redis at ${safeUrl(c.queueUrl)} (${err.message}); retrying`);
+  },
+});
 let jobs = 0;
-w.worker.on('ready', () => log.info(`duty worker ${process.pid}: listening on ${c.queueUrl.replace(/\/\/[^@/]*@/, '//…@')}`));
+w.worker.on('ready', () => {
+  unreachable = false;
+  log.info(`duty worker ${process.pid}: listening on ${safeUrl(c.queueUrl)}`);
+});
 w.worker.on('active', (job) => log.debug(`duty worker ${process.pid}: job ${job.id} started`));
 w.worker.on('completed', (job) => {
   jobs++;
@@ -41,7 +53,10 @@ w.worker.on('completed', (job) => {
   if (jobs % 50 === 0) log.info(`duty worker ${process.pid}: ${jobs} jobs done`);
 });
 w.worker.on('failed', (job, err) => log.error(`duty worker ${process.pid}: job ${job?.id ?? '?'} failed`, err));
-w.worker.on('error', (err) => log.error(`duty worker ${process.pid}: queue connection`, err));
+w.worker.on('error', (err) => {
+  // the connection's own failures are reported above, once per outage
+  if (!unreachable) log.error(`duty worker ${process.pid}: queue connection`, err);
+});
 const stop = () => {
   log.info(`duty worker ${process.pid}: stopping after ${jobs} jobs`);
   void w.close().then(() => process.exit(0));

@@ -29,9 +29,41 @@ import { computeVehicleDuty, DutyCache, packDuty, type PackedDutyResult, type Ro
 /** The queue the coordinator fills and `npm run worker` empties. */
 export const DUTY_QUEUE = 'reboundry-duty';
 
-/** A Redis connection as BullMQ wants it (commands wait for a reconnect instead of failing). */
-export function redisConnection(url: string): Redis {
-  return new Redis(url, { maxRetriesPerRequest: null, enableReadyCheck: true });
+/**
+ * A Redis connection as BullMQ wants it (commands wait for a reconnect instead of failing).
+ * Connection errors go to `onError` (ioredis retries on its own; without a listener it prints
+ * each one as an unhandled error event).
+ */
+export function redisConnection(url: string, onError: (err: Error) => void = () => undefined): Redis {
+  const r = new Redis(url, { maxRetriesPerRequest: null, enableReadyCheck: true });
+  r.on('error', onError);
+  return r;
+}
+
+/** The queue's address without its password, for messages. */
+export const safeUrl = (url: string) => url.replace(/\/\/[^@/]*@/, '//…@');
+
+/** How long the nightly job waits for the queue's Redis before it computes the duty itself [ms]. */
+export const QUEUE_CONNECT_MS = 5000;
+
+/** Resolves once the connection is ready; rejects after `ms` naming the last connection error. */
+export function whenReady(connection: Redis, url: string, ms: number): Promise<void> {
+  if (connection.status === 'ready') return Promise.resolve();
+  return new Promise((resolve, reject) => {
+    let last: Error | null = null;
+    const onError = (err: Error) => (last = err);
+    const done = (err?: Error) => {
+      clearTimeout(timer);
+      connection.off('ready', onReady);
+      connection.off('error', onError);
+      if (err) reject(err);
+      else resolve();
+    };
+    const onReady = () => done();
+    const timer = setTimeout(() => done(new Error(`the duty queue's Redis at ${safeUrl(url)} did not answer within ${ms / 1000} s${last ? ` (${last.message})` : ''}`)), ms);
+    connection.on('ready', onReady);
+    connection.on('error', onError);
+  });
 }
 
 /** Key of a run's routes; kept a day at most, deleted when the run's duty phase ends. */
@@ -59,12 +91,23 @@ const JOBS_PER_WORKER = 2;
 const ATTEMPTS = 3;
 
 /**
- * A {@link DutyRunner} on the queue at `url`. Resolves to null when no worker is listening
- * (the caller computes here instead and says so), so a night never waits for workers that
- * were never started.
+ * A {@link DutyRunner} on the queue at `url`. Resolves to a null runner when no worker is
+ * listening or the Redis does not answer within `connectMs` (`unreachable` says why; the caller
+ * computes here instead and says so), so a night never waits for workers that were never
+ * started or a Redis that is down.
  */
-export async function createQueueDutyRunner(routes: Map<number, RouteInput>, url: string): Promise<{ runner: DutyRunner | null; workersSeen: number }> {
+export async function createQueueDutyRunner(
+  routes: Map<number, RouteInput>,
+  url: string,
+  connectMs = QUEUE_CONNECT_MS,
+): Promise<{ runner: DutyRunner | null; workersSeen: number; unreachable?: string }> {
   const connection = redisConnection(url);
+  try {
+    await whenReady(connection, url, connectMs);
+  } catch (err) {
+    connection.disconnect();
+    return { runner: null, workersSeen: 0, unreachable: (err as Error).message };
+  }
   const eventsConnection = redisConnection(url);
   const queue = new Queue<DutyJobData, DutyJobResult>(DUTY_QUEUE, { connection });
   const events = new QueueEvents(DUTY_QUEUE, { connection: eventsConnection });
@@ -155,10 +198,10 @@ export interface DutyWorkerOptions {
   concurrency?: number;
 }
 
-/** A worker taking duty jobs from the queue at `url` until closed. */
-export function startDutyWorker(url: string, opts: DutyWorkerOptions) {
-  const connection = redisConnection(url);
-  const workerConnection = redisConnection(url);
+/** A worker taking duty jobs from the queue at `url` until closed; `onConnectionError` hears each failed attempt to reach the Redis. */
+export function startDutyWorker(url: string, opts: DutyWorkerOptions & { onConnectionError?: (err: Error) => void }) {
+  const connection = redisConnection(url, opts.onConnectionError);
+  const workerConnection = redisConnection(url, opts.onConnectionError);
   const worker = new Worker<DutyJobData, DutyJobResult>(DUTY_QUEUE, dutyJobProcessor(connection), {
     connection: workerConnection,
     concurrency: opts.concurrency ?? 1,

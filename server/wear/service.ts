@@ -203,13 +203,14 @@ export async function processTrips(ctx: PhaseContext) {
 /** The queue's workers when a queue is configured and any listen; else threads of this process. */
 async function dutyRunnerFor(ctx: PhaseContext, routes: Map<number, RouteInput>): Promise<{ runner: DutyRunner; fallback: string | null }> {
   if (ctx.queueUrl) {
-    const { runner } = await createQueueDutyRunner(routes, ctx.queueUrl);
+    const { runner, unreachable } = await createQueueDutyRunner(routes, ctx.queueUrl);
     if (runner) {
       ctx.counts.queueWorkers = runner.workers;
       return { runner, fallback: null };
     }
     const local = await createDutyRunner(routes, ctx.dutyWorkers ?? 0);
-    return { runner: local.runner, fallback: `no duty worker is listening on the queue (start \`npm run worker\`); computing the duty in this process${local.fallback ? `; ${local.fallback}` : ''}` };
+    const why = unreachable ?? 'no duty worker is listening on the queue (start `npm run worker`)';
+    return { runner: local.runner, fallback: `${why}; computing the duty in this process${local.fallback ? `; ${local.fallback}` : ''}` };
   }
   return createDutyRunner(routes, ctx.dutyWorkers ?? 0);
 }
