@@ -25,6 +25,7 @@
  *
  * @module
  */
+import { gamma } from '../physics/gamma';
 
 /** Distance [km] a damper ran at one road severity [1]. */
 export interface ExposureRow {
@@ -105,7 +106,7 @@ export function lifeKmAt(m: LifeModel, ratedKm: number, severity: number, q: num
 
 /** Mean life [km] at severity s: scale·Γ(1 + 1/k). */
 export function meanLifeKmAt(m: LifeModel, ratedKm: number, severity: number): number {
-  return (ratedKm * Math.exp(m.beta0) * gammaFn(1 + 1 / m.shape)) / Math.pow(severity, m.b);
+  return (ratedKm * Math.exp(m.beta0) * gamma(1 + 1 / m.shape)) / Math.pow(severity, m.b);
 }
 
 /** Probability that a damper at wear km w fails before w + dw, given it has survived to w. */
@@ -113,17 +114,6 @@ export function conditionalFailure(m: LifeModel, ratedKm: number, w: number, dw:
   const scale = ratedKm * Math.exp(m.beta0);
   const h = (x: number) => Math.pow(Math.max(0, x) / scale, m.shape);
   return 1 - Math.exp(-(h(w + dw) - h(w)));
-}
-
-/** Lanczos approximation of Γ(x) for x > 0 (g = 7, 9 terms; relative error < 1e-13). */
-export function gammaFn(x: number): number {
-  const c = [0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059, 12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7];
-  if (x < 0.5) return Math.PI / (Math.sin(Math.PI * x) * gammaFn(1 - x));
-  x -= 1;
-  let a = c[0];
-  const t = x + 7.5;
-  for (let i = 1; i < 9; i++) a += c[i] / (x + i);
-  return Math.sqrt(2 * Math.PI) * Math.pow(t, x + 0.5) * Math.exp(-t) * a;
 }
 
 /**

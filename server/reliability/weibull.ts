@@ -19,6 +19,7 @@
  */
 import { CsvSyntaxError, readCsv, type CsvRow } from '../lib/csv';
 import type { WeibullFit } from '../contracts/workshop';
+import { gamma } from '../physics/gamma';
 
 /** A fit's figures, kept with the contracts: the fleet life page shows them. */
 export type { WeibullFit } from '../contracts/workshop';
@@ -58,23 +59,6 @@ export function weibullLogLikelihood(data: readonly LifeObservation[], shape: nu
     l -= Math.exp(shape * (lt - le));
   }
   return l;
-}
-
-/**
- * Γ(x) for x > 0 by the Lanczos approximation (g = 7, 9 coefficients; relative error ~1e-15).
- *
- * @example
- * gamma(5); // → 24
- */
-export function gamma(x: number): number {
-  const g = 7;
-  const c = [0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059, 12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7];
-  if (x < 0.5) return Math.PI / (Math.sin(Math.PI * x) * gamma(1 - x));
-  const y = x - 1;
-  let a = c[0];
-  const t = y + g + 0.5;
-  for (let i = 1; i < g + 2; i++) a += c[i] / (y + i);
-  return Math.sqrt(2 * Math.PI) * Math.pow(t, y + 0.5) * Math.exp(-t) * a;
 }
 
 /** Standard normal quantile for the two-sided levels we offer (common values, from tables). */

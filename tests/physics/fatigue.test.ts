@@ -1,7 +1,8 @@
 import { describe, it } from 'vitest';
 import {
-  rainflow, reversals, minerDamage, spectralMoments, dirlikDamage, narrowBandDamage, dirlikDensity, dirlikDensityWith, dirlikParams, gamma, rainflowDamage,
+  rainflow, reversals, minerDamage, spectralMoments, dirlikDamage, narrowBandDamage, dirlikDensity, dirlikDensityWith, dirlikParams, rainflowDamage,
 } from '../../server/physics/fatigue';
+import { gamma } from '../../server/physics/gamma';
 import { simulateProfile } from '../../server/physics/simulate';
 import { synthesizeProfile, ISO8608_N0, seededRandom } from '../../server/physics/iso8608';
 import { cornerTransfer } from '../../server/physics/quarter-car';
@@ -183,10 +184,13 @@ describe('Miner and Basquin', () => {
     checkThat(msg.startsWith('physics: k'), 'house rule', `message "${msg}"`);
   });
 
-  it('when Γ is evaluated, then Γ(5) = 24, Γ(½) = √π, Γ(2.5) = 0.75√π (analytic)', () => {
+  it('when Γ is evaluated, then Γ(1) = 1, Γ(5) = 24, Γ(10) = 9!, Γ(½) = √π, Γ(2.5) = 0.75√π, Γ(3.5) = 15√π/8 (analytic)', () => {
+    checkClose(gamma(1), 1, { rel: 1e-13 }, 'analytic', {});
     checkClose(gamma(5), 24, { rel: 1e-13 }, 'analytic', {});
+    checkClose(gamma(10), 362880, { rel: 1e-12 }, 'analytic: 9!', {});
     checkClose(gamma(0.5), Math.sqrt(Math.PI), { rel: 1e-13 }, 'analytic', {});
     checkClose(gamma(2.5), 0.75 * Math.sqrt(Math.PI), { rel: 1e-13 }, 'analytic', {});
+    checkClose(gamma(3.5), (15 * Math.sqrt(Math.PI)) / 8, { rel: 1e-12 }, 'analytic', {});
   });
 });
 

@@ -5,6 +5,7 @@
  * within about 10–25 % from a few hundred censored dampers).
  */
 import { describe, expect, it } from 'vitest';
+import { gamma } from '../../../server/physics/gamma';
 import { seededRandom } from '../../../server/physics/iso8608';
 import {
   B_MAX,
@@ -12,7 +13,6 @@ import {
   conditionalFailure,
   DEFAULT_PRIOR,
   fitLifeModel,
-  gammaFn,
   lifeKmAt,
   lifeWearKm,
   logPosterior,
@@ -23,7 +23,6 @@ import {
   wearKm,
   type LifeUnit,
 } from '../../../server/reliability/life-model';
-import { expectGammaIdentities } from './gamma-identities';
 
 const RATED = 90_000;
 /** Severity of the ISO classes at 80 km/h (rod sliding ∝ √Gd(n0), computed): A ½, B 1, C 2, D 4. */
@@ -74,11 +73,6 @@ describe('life model prior', () => {
     expect(m.beta0).toBe(p.beta0);
     expect(m.b).toBe(p.b);
     expect(m.suspensions).toBe(50);
-  });
-
-  it('Γ by Lanczos matches known values (Γ(5) = 24, Γ(½) = √π; published identities)', () => {
-    expect(gammaFn(5)).toBeCloseTo(24, 10);
-    expect(gammaFn(0.5)).toBeCloseTo(Math.sqrt(Math.PI), 10);
   });
 });
 
@@ -131,7 +125,7 @@ describe('life model fit on a synthetic fleet with a known true law (computed)',
   it('mean life is scale·Γ(1 + 1/k) (Weibull mean, published identity)', () => {
     const m = fitted();
     const scale = RATED * Math.exp(m.beta0);
-    expect(meanLifeKmAt(m, RATED, 1)).toBeCloseTo(scale * gammaFn(1 + 1 / m.shape), 6);
+    expect(meanLifeKmAt(m, RATED, 1)).toBeCloseTo(scale * gamma(1 + 1 / m.shape), 6);
   });
 
   it('round-trips through JSON', () => {
@@ -241,10 +235,6 @@ describe('life model building blocks (computed)', () => {
     expect(conditionalFailure(wear, 1000, 1000, 1000)).toBeLessThan(conditionalFailure(wear, 1000, 2000, 1000));
     // a negative wear counts as new: from −500 to +500 is the chance of failing by 500
     expect(conditionalFailure({ ...wear, shape: 2.5 }, 1000, -500, 1000)).toBeCloseTo(1 - Math.exp(-Math.pow(0.25, 2.5)), 12);
-  });
-
-  it('when Γ is evaluated on both sides of ½, then it follows Γ(x + 1) = x·Γ(x) and Γ(1) = 1, Γ(10) = 9!, Γ(3.5) = 15√π/8 (exact identities)', () => {
-    expectGammaIdentities(gammaFn);
   });
 
   it('when the log posterior is evaluated, then it is the Weibull log-likelihood of the wear km plus normal log priors on β0, b and ln σ (written out independently)', () => {

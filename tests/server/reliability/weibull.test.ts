@@ -4,9 +4,8 @@ import { describe, expect, it } from 'vitest';
 // censored Weibull log-likelihood written out again below.
 // @ts-expect-error numeric ships no type declarations
 import numeric from 'numeric';
-import { fitWeibull, gamma, parseLifeCsv, weibullLogLikelihood, weibullPlotPoints, weibullSurvival, WeibullInputError, type LifeObservation } from '../../../server/reliability/weibull';
+import { fitWeibull, parseLifeCsv, weibullLogLikelihood, weibullPlotPoints, weibullSurvival, WeibullInputError, type LifeObservation } from '../../../server/reliability/weibull';
 import { weibullCommand } from '../../../server/cli/weibull';
-import { expectGammaIdentities } from './gamma-identities';
 
 /** Independent log-likelihood (written from the density and survival function, not shared code). */
 function negLogLik(data: LifeObservation[], beta: number, eta: number): number {
@@ -79,11 +78,6 @@ describe('Weibull maximum likelihood with right censoring', () => {
     expect(b.scale[0]).toBeLessThan(f.scale);
     expect(b.b10[1]).toBeGreaterThan(f.b10);
     expect(f.failures + f.suspensions).toBe(60);
-  });
-
-  it('when Γ is evaluated at known points, then it matches Γ(5) = 24 and Γ(1/2) = √π (exact identities)', () => {
-    expect(gamma(5)).toBeCloseTo(24, 10);
-    expect(gamma(0.5)).toBeCloseTo(Math.sqrt(Math.PI), 12);
   });
 
   it('when there are fewer than two failures, then the fit refuses with a clear message', () => {
@@ -280,10 +274,6 @@ describe('Weibull fit checked against published, closed-form and general results
     // just inside: L = ln 1.05 → β ≈ 49; L = ln 1e80 → β ≈ 0.013
     expect(fitWeibull([{ life: 1, failed: true }, { life: 1.05, failed: true }]).shape).toBeCloseTo(2.39936 / Math.log(1.05), 2);
     expect(fitWeibull([{ life: 1e-40, failed: true }, { life: 1e40, failed: true }]).shape / (2.39936 / Math.log(1e80))).toBeCloseTo(1, 4);
-  });
-
-  it('when Γ is evaluated on both sides of ½, then it follows Γ(x + 1) = x·Γ(x) and the tabled values Γ(10) = 9!, Γ(3.5) = 15√π/8, Γ(1) = 1 (exact identities)', () => {
-    expectGammaIdentities(gamma);
   });
 });
 
