@@ -95,20 +95,22 @@ export function registerAuthRoutes(r: Router, deps: { csrfToken: (req: Request, 
     store: pairCounts,
     handler: limited('Too many failed sign-ins for this account from this address. Wait a few minutes and try again.'),
   });
-  const delay = accountDelay({ ...options.accountDelay, windowMs: options.loginWindowMs });
+  // the per-account spacing, also in the database (account-delay.ts)
+  const delay = accountDelay(() => deps.sequelize, { ...options.accountDelay, windowMs: options.loginWindowMs });
   setInterval(() => {
-    delay.sweep();
     // ended windows' rows; a failure here (the database closing at shutdown) only delays it
+    delay.sweep().catch(() => undefined);
     addressCounts.sweep().catch(() => undefined);
   }, 60_000).unref();
   const byAccount: RequestHandler = (req, res, next) => {
-    const turn = delay.reserve(accountOf(req));
-    if ('retryAfterMs' in turn) {
-      res.setHeader('retry-after', String(Math.ceil(turn.retryAfterMs / 1000)));
-      return next(new AppError(429, 'too_many_attempts', `This account has had many failed sign-ins just now; try again in ${Math.ceil(turn.retryAfterMs / 1000)} s.`));
-    }
-    if (turn.waitMs === 0) return next();
-    setTimeout(next, turn.waitMs);
+    delay.reserve(accountOf(req)).then((turn) => {
+      if ('retryAfterMs' in turn) {
+        res.setHeader('retry-after', String(Math.ceil(turn.retryAfterMs / 1000)));
+        return next(new AppError(429, 'too_many_attempts', `This account has had many failed sign-ins just now; try again in ${Math.ceil(turn.retryAfterMs / 1000)} s.`));
+      }
+      if (turn.waitMs === 0) return next();
+      setTimeout(next, turn.waitMs);
+    }, next);
   };
 
   const validateLogin: RequestHandler = (req, _res, next) => {
@@ -125,14 +127,17 @@ export function registerAuthRoutes(r: Router, deps: { csrfToken: (req: Request, 
     passport.authenticate('local', (err: unknown, user: SessionUser | false) => {
       if (err) return next(err);
       if (!user) {
-        delay.failed(accountOf(req));
-        return next(new AppError(401, 'invalid_credentials', 'That e-mail and password do not match an active account.'));
+        // counted before the answer, so the next attempt (on any instance) already waits for it
+        return delay.failed(accountOf(req)).then(() => next(new AppError(401, 'invalid_credentials', 'That e-mail and password do not match an active account.')), next);
       }
-      delay.succeeded(accountOf(req));
-      req.login(user, (loginErr) => {
-        if (loginErr) return next(loginErr);
-        res.json({ user });
-      });
+      delay.succeeded(accountOf(req)).then(
+        () =>
+          req.login(user, (loginErr) => {
+            if (loginErr) return next(loginErr);
+            res.json({ user });
+          }),
+        next,
+      );
     })(req, res, next);
   });
 

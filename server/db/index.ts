@@ -23,6 +23,7 @@ import * as m0018 from './migrations/0018-must-change-password';
 import * as m0019 from './migrations/0019-duty-day-summary';
 import * as m0020 from './migrations/0020-mail-claims';
 import * as m0021 from './migrations/0021-sign-in-counts';
+import * as m0022 from './migrations/0022-sign-in-delays';
 
 export interface Db {
   sequelize: Sequelize;
@@ -56,6 +57,7 @@ export const MIGRATIONS: RunnableMigration<QueryInterface>[] = [
   { name: '0019-duty-day-summary', up: m0019.up, down: m0019.down },
   { name: '0020-mail-claims', up: m0020.up, down: m0020.down },
   { name: '0021-sign-in-counts', up: m0021.up, down: m0021.down },
+  { name: '0022-sign-in-delays', up: m0022.up, down: m0022.down },
 ];
 
 /**

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { Op } from 'sequelize';
+import { Op, QueryTypes } from 'sequelize';
 import { CaughtMail, JobRun, MailMessage } from '../../server/db/models';
 import { MAIL_CLAIM_STALE_MS, mailRepository } from '../../server/mail/repository';
 import { defaultTestDatabase, startTestServer, TEST_NOW, type TestServer } from '../support/server';
@@ -136,7 +136,8 @@ describe('failed sign-ins', () => {
   // The default limits (server/auth/routes.ts): 30 failures per address, 8 per account and address pair, in 15 minutes.
   it('when failures from one address are spread over both instances, then they count together: the pair limit after 8 on one account, the address limit after 30', async () => {
     const attempt = (url: string, email: string) => new ApiClient(url).login(email, 'not-the-password');
-    // one account, four failures on each instance (each instance's own spacing starts after five)
+    // one account, four failures on each instance (the account's spacing, counted across both too,
+    // makes the sixth to eighth wait their turns of a few seconds)
     for (const url of [A.url, B.url, A.url, B.url, A.url, B.url, A.url, B.url]) expect((await attempt(url, DEMO.mechanic)).status).toBe(401);
     const ninth = await attempt(A.url, DEMO.mechanic);
     expect(ninth.status).toBe(429);
@@ -150,4 +151,13 @@ describe('failed sign-ins', () => {
     await srv.db.sequelize.query('DELETE FROM sign_in_counts');
     expect((await new ApiClient(A.url).login(DEMO.mechanic)).status).toBe(200);
   }, 120_000);
+
+  it('when an account fails on both instances, then its spacing counts every failure and either instance’s sign-in clears it', async () => {
+    const spaced = async () => (await srv.db.sequelize.query<{ failures: number }>(`SELECT failures FROM sign_in_delays WHERE account_key = ?`, { replacements: [DEMO.driver], type: QueryTypes.SELECT })).map((r) => Number(r.failures));
+    for (const url of [A.url, B.url, A.url, B.url]) expect((await new ApiClient(url).login(DEMO.driver, 'not-the-password')).status).toBe(401);
+    // with each instance's own count, each would hold two
+    expect(await spaced()).toEqual([4]);
+    expect((await new ApiClient(B.url).login(DEMO.driver)).status).toBe(200);
+    expect(await spaced()).toEqual([]);
+  });
 });

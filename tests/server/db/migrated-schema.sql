@@ -300,3 +300,12 @@ CREATE TABLE `sign_in_counts` (`limit_key` VARCHAR(400) PRIMARY KEY, `hits` INTE
 CREATE INDEX `sign_in_counts_reset_at_ms` ON `sign_in_counts` (`reset_at_ms`);
 
 -- sqlite_autoindex_sign_in_counts_1 (made by SQLite)
+
+
+-- after 0022-sign-in-delays
+
+CREATE TABLE `sign_in_delays` (`account_key` VARCHAR(400) PRIMARY KEY, `failures` INTEGER NOT NULL, `window_ends_ms` BIGINT NOT NULL, `next_slot_ms` BIGINT NOT NULL);
+
+CREATE INDEX `sign_in_delays_window_ends_ms` ON `sign_in_delays` (`window_ends_ms`);
+
+-- sqlite_autoindex_sign_in_delays_1 (made by SQLite)
