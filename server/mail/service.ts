@@ -20,6 +20,7 @@ import type { Mailer } from './mailer';
 import { noticeRepository } from './notice-repository';
 import { mailRepository, type QueuedMail } from './repository';
 import { assignmentMail, digestMail, type DigestEntry } from './templates';
+import { readableDay } from '../lib/days';
 
 export interface DigestRecipient {
   id: number;
@@ -55,7 +56,7 @@ const inspectionSection: DigestSectionProvider = {
       return {
         key: `${r.id}:${r.status}`,
         depotId: r.depot_id,
-        title: `${r.fleet_number} (${r.plate}), ${r.depot_name}: ${r.status.toUpperCase()}, ${when} (${r.due_date})`,
+        title: `${r.fleet_number} (${r.plate}), ${r.depot_name}: ${r.status.toUpperCase()}, ${when} (${readableDay(r.due_date)})`,
         lines: [r.reason],
         link: `${publicUrl}/vehicles/${r.vehicle_id}`,
       };

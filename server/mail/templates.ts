@@ -84,14 +84,14 @@ export function assignmentMail(input: { name: string; items: AssignedItem[]; set
   const items = all.slice(0, MAX_LISTED);
   const more = all.length - items.length;
   const subject = one
-    ? `Inspection of ${one.fleetNumber} assigned to you, due ${one.dueDate}`
-    : `${all.length} inspections assigned to you, first due ${all[0].dueDate}`;
+    ? `Inspection of ${one.fleetNumber} assigned to you, due ${readableDay(one.dueDate)}`
+    : `${all.length} inspections assigned to you, first due ${readableDay(all[0].dueDate)}`;
   const text = [
     `Hello ${input.name},`,
     '',
     one ? `The damper and spring inspection of ${one.fleetNumber} is assigned to you.` : `${all.length} damper and spring inspections are assigned to you${more > 0 ? `; the ${items.length} due first` : ''}:`,
     '',
-    ...items.flatMap((i) => [`- ${i.fleetNumber} (${i.plate}, ${i.depotName}): due ${i.dueDate} (${statusWord(i.status)})`, `  Why: ${i.reason}`, `  Open the inspection: ${i.inspectionUrl}`, `  The vehicle: ${i.vehicleUrl}`, '']),
+    ...items.flatMap((i) => [`- ${i.fleetNumber} (${i.plate}, ${i.depotName}): due ${readableDay(i.dueDate)} (${statusWord(i.status)})`, `  Why: ${i.reason}`, `  Open the inspection: ${i.inspectionUrl}`, `  The vehicle: ${i.vehicleUrl}`, '']),
     ...(more > 0 ? [`…and ${more} more, all in My inspections: ${input.listUrl}`, ''] : []),
     CAUTION_TEXT,
     '',
@@ -103,7 +103,7 @@ export function assignmentMail(input: { name: string; items: AssignedItem[]; set
       items
         .map(
           (i) =>
-            `<li style="margin-bottom:10px"><a href="${esc(i.inspectionUrl)}" style="color:#1E2A32;font-weight:600">Inspection of ${esc(i.fleetNumber)}</a> (${esc(i.plate)}, ${esc(i.depotName)}): due ${esc(i.dueDate)} (${esc(statusWord(i.status))})<br><span>Why: ${esc(i.reason)}</span><br><a href="${esc(i.vehicleUrl)}" style="color:#5B6B73">The vehicle</a></li>`,
+            `<li style="margin-bottom:10px"><a href="${esc(i.inspectionUrl)}" style="color:#1E2A32;font-weight:600">Inspection of ${esc(i.fleetNumber)}</a> (${esc(i.plate)}, ${esc(i.depotName)}): due ${esc(readableDay(i.dueDate))} (${esc(statusWord(i.status))})<br><span>Why: ${esc(i.reason)}</span><br><a href="${esc(i.vehicleUrl)}" style="color:#5B6B73">The vehicle</a></li>`,
         )
         .join('') +
       `</ul>${more > 0 ? `<p>…and ${more} more, all in <a href="${esc(input.listUrl)}" style="color:#D9622B">My inspections</a>.</p>` : ''}<p style="font-size:13px;color:#5B6B73">Turn these notes off in your <a href="${esc(input.settingsUrl)}">account settings</a>.</p>`,

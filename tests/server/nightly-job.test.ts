@@ -170,7 +170,7 @@ describe('nightly job through the API', () => {
     let listed = 0;
     for (const n of notes) {
       const note = await c.get<{ message: { text: string; html: string; subject: string } }>(`/api/outbox/${n.id}`);
-      expect(note.body.message.subject).toMatch(/^(\d+ inspections assigned to you, first due|Inspection of [A-Z]{2}-\d+ assigned to you, due) \d{4}-\d{2}-\d{2}$/);
+      expect(note.body.message.subject).toMatch(/^(\d+ inspections assigned to you, first due|Inspection of [A-Z]{2}-\d+ assigned to you, due) \d{1,2} [A-Z][a-z]{2} \d{4}$/);
       listed += (note.body.message.text.match(/^ {2}Why: /gm) ?? []).length;
       expect(note.body.message.html).toContain('assigned to you');
       expect(note.body.message.html).toMatch(/<a href="http:\/\/[^"]+\/vehicles\/\d+"/);

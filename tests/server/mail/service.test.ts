@@ -142,23 +142,23 @@ describe('the manager digest', () => {
         'New since your last digest (as of 30 Nov 2026):',
         '',
         '== Inspections now due or overdue (5) ==',
-        '- LV-103 (BK22 UVQ), Brackenford North Yard: OVERDUE, 3 days overdue (2026-11-27)',
+        '- LV-103 (BK22 UVQ), Brackenford North Yard: OVERDUE, 3 days overdue (27 Nov 2026)',
         `  ${reason52}`,
         `  ${URL}/vehicles/21`,
         '',
-        '- CV-103 (BK22 CPI), Brackenford North Yard: OVERDUE, 1 day overdue (2026-11-29)',
+        '- CV-103 (BK22 CPI), Brackenford North Yard: OVERDUE, 1 day overdue (29 Nov 2026)',
         `  ${reason5}`,
         `  ${URL}/vehicles/3`,
         '',
-        '- LV-112 (BK25 DMU), Millbrook Cross Depot: DUE, due today (2026-11-30)',
+        '- LV-112 (BK25 DMU), Millbrook Cross Depot: DUE, due today (30 Nov 2026)',
         `  ${reason69}`,
         `  ${URL}/vehicles/30`,
         '',
-        '- CV-112 (BK25 LGM), Millbrook Cross Depot: DUE, due in 1 day (2026-12-01)',
+        '- CV-112 (BK25 LGM), Millbrook Cross Depot: DUE, due in 1 day (1 Dec 2026)',
         `  ${reason29}`,
         `  ${URL}/vehicles/12`,
         '',
-        '- CV-101 (BK20 ABC), Brackenford North Yard: DUE, due in 2 days (2026-12-02)',
+        '- CV-101 (BK20 ABC), Brackenford North Yard: DUE, due in 2 days (2 Dec 2026)',
         '  Predicted wear reaches the limit.',
         `  ${URL}/vehicles/1`,
         '',
@@ -209,7 +209,7 @@ describe('the manager digest', () => {
     expect(await queueDigests({ ...ctx, runId: null })).toBe(1);
     const last = (await mails('digest')).at(-1)!;
     expect([last.user_id, last.dedupe_key, last.subject, last.job_run_id]).toEqual([1, `digest:1:2026-11-30:${hash(['inspections:69:overdue'])}`, 'Reboundry digest for 30 Nov 2026: 1 new item', null]);
-    expect(last.text_body).toContain('LV-112 (BK25 DMU), Millbrook Cross Depot: OVERDUE, 2 days overdue (2026-11-28)');
+    expect(last.text_body).toContain('LV-112 (BK25 DMU), Millbrook Cross Depot: OVERDUE, 2 days overdue (28 Nov 2026)');
   });
 });
 
@@ -224,12 +224,12 @@ describe('notes to mechanics', () => {
     expect(await queueAssignmentNotes(ctx)).toBe(2);
     const notes = await mails('assignment');
     expect(notes.map((m) => [m.user_id, m.to_address, m.dedupe_key, m.subject, m.status, m.job_run_id])).toEqual([
-      [2, 'mechanic@reboundry.test', `assignments:2:${hash(['5', '52'])}`, '2 inspections assigned to you, first due 2026-11-27', 'pending', RUN_ID],
-      [3, 'mechanic.millbrook@reboundry.test', 'assignment:69:3', 'Inspection of LV-112 assigned to you, due 2026-11-28', 'pending', RUN_ID],
+      [2, 'mechanic@reboundry.test', `assignments:2:${hash(['5', '52'])}`, '2 inspections assigned to you, first due 27 Nov 2026', 'pending', RUN_ID],
+      [3, 'mechanic.millbrook@reboundry.test', 'assignment:69:3', 'Inspection of LV-112 assigned to you, due 28 Nov 2026', 'pending', RUN_ID],
     ]);
     const [two, one] = notes.map((m) => m.text_body);
     expect(two).toContain('Hello Tomasz Reyes,');
-    expect(two).toContain('- LV-103 (BK22 UVQ, Brackenford North Yard): due 2026-11-27 (overdue)');
+    expect(two).toContain('- LV-103 (BK22 UVQ, Brackenford North Yard): due 27 Nov 2026 (overdue)');
     expect(two).toContain(`  Open the inspection: ${URL}/inspections/5\n  The vehicle: ${URL}/vehicles/3`);
     expect(two).toContain(`Turn these notes off in your account settings: ${URL}/account`);
     expect(one).toContain('Hello Ines Garland,');
@@ -251,7 +251,7 @@ describe('notes to mechanics', () => {
     expect(await queueAssignmentNotes(ctx, [])).toBe(0);
     expect(await queueAssignmentNotes({ ...ctx, runId: null }, [69])).toBe(1);
     const last = (await mails('assignment')).at(-1)!;
-    expect([last.user_id, last.dedupe_key, last.subject, last.job_run_id]).toEqual([2, 'assignment:69:2', 'Inspection of LV-112 assigned to you, due 2026-11-28', null]);
+    expect([last.user_id, last.dedupe_key, last.subject, last.job_run_id]).toEqual([2, 'assignment:69:2', 'Inspection of LV-112 assigned to you, due 28 Nov 2026', null]);
     const [untold] = await sq.query<{ told: number | null }>('SELECT assignee_notified_id AS told FROM inspections WHERE id = ?', { replacements: [cv101], type: QueryTypes.SELECT });
     expect(untold.told).toBeNull();
   });
@@ -270,7 +270,7 @@ describe('notes to mechanics', () => {
     await sq.query('UPDATE users SET notify_assignments = TRUE WHERE id = ?', { replacements: [noNotes] });
     expect(await queueAssignmentNotes(ctx)).toBe(2);
     const long = (await mails('assignment')).find((m) => m.user_id === noNotes)!;
-    expect(long.subject).toBe('31 inspections assigned to you, first due 2026-12-20');
+    expect(long.subject).toBe('31 inspections assigned to you, first due 20 Dec 2026');
     expect(long.text_body).toContain(`…and 1 more, all in My inspections: ${URL}/workshop`);
   });
 });
