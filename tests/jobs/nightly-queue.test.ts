@@ -183,7 +183,7 @@ describe('nightly duty over a job queue', () => {
 describe('nightly duty over a job queue, on PostgreSQL', () => {
   let pg: { target: PostgresTarget; stop(): void } | undefined;
   beforeAll(async () => {
-    pg = await startPostgresTarget();
+    pg = await startPostgresTarget(['demo']);
   }, 300_000);
   afterAll(() => pg?.stop());
 

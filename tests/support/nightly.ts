@@ -11,7 +11,7 @@ import { QueryTypes } from 'sequelize';
 import type { Db } from '../../server/db';
 import { selectRows } from '../../server/db/raw';
 import { beforeAll } from 'vitest';
-import { buildOnce, codeHash, defaultTestDatabase, lateBound, NIGHTLY_TEST_ENV, SMALL_FLEET, startTestServer, type TestDatabase, type TestFleet } from './server';
+import { buildOnce, codeHash, defaultTestDatabase, fleetSuffix, fleetTag, lateBound, NIGHTLY_TEST_ENV, startTestServer, type TestDatabase, type TestFleet } from './server';
 
 /** Tables and columns that legitimately differ between two databases holding the same state. */
 const SKIP_TABLES = new Set(['sessions', 'sign_in_counts', 'sign_in_delays', 'job_runs', 'job_locks', 'caught_mail', 'schema_migrations', 'sqlite_sequence']);
@@ -154,8 +154,8 @@ export { NIGHTLY_TEST_ENV };
  * the others wait.
  */
 export async function cleanRun(database: TestDatabase = defaultTestDatabase(), fleet: TestFleet = 'demo'): Promise<CleanRun> {
-  const tag = JSON.stringify(NIGHTLY_TEST_ENV) + (fleet === 'small' ? JSON.stringify(SMALL_FLEET) : '');
-  const dir = await buildOnce(path.join(os.tmpdir(), `reboundry-nightly-reference-${codeHash(['server', 'jobs'], tag)}${fleet === 'small' ? '-small' : ''}${database === 'postgres' ? '-postgres' : ''}`), async (work) => {
+  const hash = codeHash(['server', 'jobs'], JSON.stringify(NIGHTLY_TEST_ENV) + fleetTag(fleet));
+  const dir = await buildOnce(path.join(os.tmpdir(), `reboundry-nightly-reference-${hash}${fleetSuffix(fleet)}${database === 'postgres' ? '-postgres' : ''}`), async (work) => {
     const srv = await startTestServer({ afterNightly: true, database, fleet });
     try {
       const out: CleanRun = { dump: await dump(srv.db), counts: srv.nightlyCounts! };

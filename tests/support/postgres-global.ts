@@ -10,7 +10,7 @@ import os from 'node:os';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
 import { startPrivatePostgres } from './postgres';
-import type { PostgresTarget } from './server';
+import type { PostgresTarget, TestFleet } from './server';
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -18,15 +18,18 @@ declare module 'vitest' {
   }
 }
 
-/** A private PostgreSQL server with the demo fleet and its small cut seeded into template databases; `stop` removes them all. */
-export async function startPostgresTarget(): Promise<{ target: PostgresTarget; stop(): void }> {
+/**
+ * A private PostgreSQL server with the fleets asked for (the demo fleet and its small cut unless
+ * told) seeded into template databases; `stop` removes them all.
+ */
+export async function startPostgresTarget(fleets: readonly TestFleet[] = ['demo', 'small']): Promise<{ target: PostgresTarget; stop(): void }> {
   const pg = await startPrivatePostgres();
   const dataDirs: string[] = [];
   try {
     // the app's own start-up seeds them, as for a SQLite template (tests/support/server.ts)
     const { seedPostgresTemplate } = await import('./server');
-    const templates = {} as PostgresTarget['templates'];
-    for (const fleet of ['demo', 'small'] as const) {
+    const templates: PostgresTarget['templates'] = {};
+    for (const fleet of fleets) {
       const db = `reboundry_${fleet}_template`;
       const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), `reboundry-pg-${fleet}-`));
       dataDirs.push(dataDir);

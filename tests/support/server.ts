@@ -93,28 +93,33 @@ export type TestFleet = 'demo' | 'small';
 export const SMALL_FLEET = { vehiclesPerSpec: 4 };
 
 const demoOptions = (fleet: TestFleet) => (fleet === 'small' ? SMALL_FLEET : {});
-/** What a template's folder name holds beside the code's hash: nothing for the whole demo fleet. */
-const fleetTag = (fleet: TestFleet) => (fleet === 'small' ? JSON.stringify(SMALL_FLEET) : '');
+/** What a template's code hash takes in beside the code: nothing for the whole demo fleet. */
+export const fleetTag = (fleet: TestFleet) => (fleet === 'small' ? JSON.stringify(SMALL_FLEET) : '');
+/** What a template's folder name says of its fleet: nothing for the whole demo fleet. */
+export const fleetSuffix = (fleet: TestFleet) => (fleet === 'small' ? '-small' : '');
 
-const demoDirs = new Map<TestFleet, Promise<string>>();
+/** `make` called once per fleet in this process, its promise kept. */
+function oncePerFleet(make: (fleet: TestFleet) => Promise<string>): (fleet?: TestFleet) => Promise<string> {
+  const made = new Map<TestFleet, Promise<string>>();
+  return (fleet = 'demo') => {
+    let p = made.get(fleet);
+    if (!p) made.set(fleet, (p = make(fleet)));
+    return p;
+  };
+}
 
 /**
  * A data folder holding the migrated database with the demo fleet (or its small cut) seeded as of
  * {@link TEST_NOW}, shared by every test file of a run (and of later runs while the server code
  * is unchanged), closed so the WAL is folded into the database file.
  */
-function demoTemplate(fleet: TestFleet = 'demo'): Promise<string> {
-  let dir = demoDirs.get(fleet);
-  if (!dir) {
-    dir = buildOnce(path.join(os.tmpdir(), `reboundry-${fleet}-template-${codeHash(['server'], fleetTag(fleet))}`), async (work) => {
-      const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: work, SEED_DEMO: 'true', LOG_LEVEL: 'error' });
-      const db = await prepareDatabase(config, createLogger(config.logLevel), TEST_NOW, { demo: demoOptions(fleet) });
-      await db.close();
-    });
-    demoDirs.set(fleet, dir);
-  }
-  return dir;
-}
+const demoTemplate = oncePerFleet((fleet) =>
+  buildOnce(path.join(os.tmpdir(), `reboundry-${fleet}-template-${codeHash(['server'], fleetTag(fleet))}`), async (work) => {
+    const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: work, SEED_DEMO: 'true', LOG_LEVEL: 'error' });
+    const db = await prepareDatabase(config, createLogger(config.logLevel), TEST_NOW, { demo: demoOptions(fleet) });
+    await db.close();
+  }),
+);
 
 /**
  * The nightly job's settings every reference and comparison run uses (several batches on the
@@ -124,7 +129,6 @@ export const NIGHTLY_TEST_ENV = { NIGHTLY_BATCH_TRIPS: '400' };
 
 /** The file in the nightly template's folder that holds the counts of its run. */
 const RUN_FILE = 'nightly-run.json';
-const nightlyDirs = new Map<TestFleet, Promise<string>>();
 
 /**
  * The demo fleet (or its small cut) after one clean nightly run as of {@link TEST_NOW} on
@@ -132,11 +136,9 @@ const nightlyDirs = new Map<TestFleet, Promise<string>>();
  * server and job code, like the demo template, for every test that starts by running the job on
  * that fleet.
  */
-function nightlyTemplate(fleet: TestFleet = 'demo'): Promise<string> {
-  let dir = nightlyDirs.get(fleet);
-  if (dir) return dir;
-  dir = demoTemplate(fleet).then((demo) =>
-    buildOnce(path.join(os.tmpdir(), `reboundry-nightly${fleet === 'small' ? '-small' : ''}-template-${codeHash(['server', 'jobs'], JSON.stringify(NIGHTLY_TEST_ENV) + fleetTag(fleet))}`), async (work) => {
+const nightlyTemplate = oncePerFleet((fleet) =>
+  demoTemplate(fleet).then((demo) =>
+    buildOnce(path.join(os.tmpdir(), `reboundry-nightly${fleetSuffix(fleet)}-template-${codeHash(['server', 'jobs'], JSON.stringify(NIGHTLY_TEST_ENV) + fleetTag(fleet))}`), async (work) => {
       fs.cpSync(demo, work, { recursive: true });
       const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: work, SEED_DEMO: 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...NIGHTLY_TEST_ENV });
       const log = createLogger(config.logLevel);
@@ -151,16 +153,14 @@ function nightlyTemplate(fleet: TestFleet = 'demo'): Promise<string> {
         await db.close();
       }
     }),
-  );
-  nightlyDirs.set(fleet, dir);
-  return dir;
-}
+  ),
+);
 
 /** The private PostgreSQL server of the `pg` test project and its seeded template (postgres-global.ts). */
 export interface PostgresTarget {
   baseUrl: string;
-  /** The seeded template database of each fleet, and the data folder (survey files) beside it. */
-  templates: Record<TestFleet, { db: string; dataDir: string }>;
+  /** The seeded template database of each fleet it has, and the data folder (survey files) beside it. */
+  templates: Partial<Record<TestFleet, { db: string; dataDir: string }>>;
 }
 
 /** Migrates and seeds the demo fleet, or its small cut (as of {@link TEST_NOW}), into an empty PostgreSQL database. */
@@ -185,6 +185,13 @@ export const defaultTestDatabase = (): TestDatabase => (postgresTarget() ? 'post
 
 let pgDatabases = 0;
 
+/** The target's seeded template of a fleet; a target started without it cannot give that fleet. */
+function pgTemplate(target: PostgresTarget, fleet: TestFleet): { db: string; dataDir: string } {
+  const t = target.templates[fleet];
+  if (!t) throw new Error(`this PostgreSQL server has no template of the ${fleet} fleet: start it with startPostgresTarget([..., '${fleet}'])`);
+  return t;
+}
+
 /** A new PostgreSQL database for one test server: a copy of a fleet's seeded template, or empty. */
 async function createPostgresDatabase(target: PostgresTarget, seeded: TestFleet | null): Promise<{ url: string; drop(): Promise<void> }> {
   const name = `reboundry_test_${process.pid}_${++pgDatabases}_${crypto.randomBytes(3).toString('hex')}`;
@@ -192,7 +199,7 @@ async function createPostgresDatabase(target: PostgresTarget, seeded: TestFleet 
   try {
     for (let attempt = 0; ; attempt++) {
       try {
-        await admin.query(`CREATE DATABASE ${name}${seeded ? ` TEMPLATE ${target.templates[seeded].db}` : ''}`);
+        await admin.query(`CREATE DATABASE ${name}${seeded ? ` TEMPLATE ${pgTemplate(target, seeded).db}` : ''}`);
         break;
       } catch (e) {
         // two copies of one template at the same moment: the second waits for the first
@@ -239,7 +246,7 @@ export async function startTestServer(
   // SQLite: the demo fleet (or the fleet after one nightly run) is built once per version of the code
   // and copied into each test's folder. PostgreSQL: the database is a copy of the seeded template,
   // and `afterNightly` runs the job on it below.
-  const template = target ? (opts.seed !== false ? target.templates[fleet].dataDir : null) : opts.afterNightly ? await nightlyTemplate(fleet) : opts.seed !== false ? await demoTemplate(fleet) : null;
+  const template = target ? (opts.seed !== false ? pgTemplate(target, fleet).dataDir : null) : opts.afterNightly ? await nightlyTemplate(fleet) : opts.seed !== false ? await demoTemplate(fleet) : null;
   if (template) fs.cpSync(template, dataDir, { recursive: true });
   const baseEnv = { NODE_ENV: 'test', DATA_DIR: dataDir, SEED_DEMO: opts.seed === false ? 'false' : 'true', FAKE_SMTP_PORT: '0', LOG_LEVEL: 'error', ...(pg ? { DATABASE_URL: pg.url } : {}) };
   const config = loadConfig({ ...baseEnv, ...opts.env });
