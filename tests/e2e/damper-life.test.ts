@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { QueryTypes } from 'sequelize';
-import { fullPageScreenshot, launchBrowser, screenshotPath, type ViewportName } from '../support/browser';
+import { fullPageScreenshot, launchBrowser, screenshot, type ViewportName } from '../support/browser';
 import { axeViolations } from '../support/axe';
 import { startTestServer, type TestServer } from '../support/server';
 import { DEMO, expectHeading, expectPath, signedInPage, openPage } from './helpers';
@@ -143,7 +143,7 @@ describe('damper life in the browser', () => {
     await page.getByRole('heading', { name: 'Assumptions' }).waitFor();
     await page.getByRole('figure', { name: 'Weibull probability plot of the removals in km' }).waitFor();
     expect(await page.getByRole('main').innerText()).not.toMatch(/\bMJ\b|\benergy\b|blend/i);
-    await page.screenshot({ path: screenshotPath('manager-desktop-damper-life-truck'), fullPage: true });
+    await screenshot(page, 'manager-desktop-damper-life-truck', { fullPage: true });
 
     await page.getByRole('link', { name: 'How good are these predictions? → back-test' }).click();
     await expectPath(page, '/damper-life/back-test');
@@ -179,7 +179,7 @@ describe('damper life in the browser', () => {
     const table = page.getByRole('table', { name: /Back-test: predicted and actual life/ });
     await expect(table.locator('tbody tr').count()).resolves.toBe(bt.points.length);
     await page.getByText(bt.method).waitFor();
-    await page.screenshot({ path: screenshotPath('mechanic-tablet-life-backtest'), fullPage: true });
+    await screenshot(page, 'mechanic-tablet-life-backtest', { fullPage: true });
 
     // back to the damper-life page on the same spec
     await page.getByRole('main').getByRole('link', { name: 'Damper life' }).click();
@@ -233,7 +233,7 @@ describe('damper life in the browser', () => {
     const routes = await page.getByRole('table', { name: 'Damper duty by route' }).innerText();
     expect(routes).toContain('Road severity');
     expect(routes).not.toMatch(/J\/km|energy/i);
-    await page.screenshot({ path: screenshotPath('manager-desktop-vehicle-wear-km'), fullPage: true });
+    await screenshot(page, 'manager-desktop-vehicle-wear-km', { fullPage: true });
     await context.close();
   }, 120_000);
 });

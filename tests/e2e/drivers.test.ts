@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import { screenshotPath } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { axeViolations } from '../support/axe';
 import { DEMO, signIn, signedInPage, openPage, freshPage, serverAndBrowserForFile } from './helpers';
 import { refreshExposure } from '../../server/drivers/exposure';
@@ -81,11 +81,11 @@ describe('drivers on a phone (390 × 844)', () => {
     expect(pinned.barBottom).toBeLessThanOrEqual(pinned.menuTop + 0.5);
     expect(pinned.screen - pinned.barTop, JSON.stringify(pinned)).toBeLessThanOrEqual(120);
     expect(await axeViolations(page)).toEqual([]);
-    await page.screenshot({ path: screenshotPath('drivers-phone-report-form') });
-    await page.screenshot({ path: screenshotPath('drivers-phone-report-form-full'), fullPage: true });
+    await screenshot(page, 'drivers-phone-report-form');
+    await screenshot(page, 'drivers-phone-report-form-full', { fullPage: true });
     await page.getByRole('button', { name: 'Send report' }).click();
     await page.getByText('Report sent').waitFor();
-    await page.screenshot({ path: screenshotPath('drivers-phone-report-sent') });
+    await screenshot(page, 'drivers-phone-report-sent');
 
     const [report] = await q<{ id: number; segment_id: number; photo_path: string | null; severity: number }>('SELECT id, segment_id, photo_path, severity FROM ride_reports ORDER BY id DESC LIMIT 1');
     expect(report!.segment_id).toBe(seg!.id);
@@ -99,7 +99,7 @@ describe('drivers on a phone (390 × 844)', () => {
     await mine.waitFor();
     await expect.poll(() => mine.evaluate((img) => (img as HTMLImageElement).complete && (img as HTMLImageElement).naturalWidth)).toBe(1);
     expect(await axeViolations(page)).toEqual([]);
-    await page.screenshot({ path: screenshotPath('drivers-phone-my-reports-new'), fullPage: true });
+    await screenshot(page, 'drivers-phone-my-reports-new', { fullPage: true });
 
     // --- the manager reviews (also on a phone)
     const { context: mgrCtx, page: mp } = await signedInPage(browser, server.url, DEMO.manager, 'phone');
@@ -108,7 +108,7 @@ describe('drivers on a phone (390 × 844)', () => {
     const before = await mp.getByTestId('segment-roughness').innerText();
     expect(before).toContain(`class ${seg!.iso_class}`);
     await mp.getByTestId('review-report').first().getByRole('img').waitFor();
-    await mp.screenshot({ path: screenshotPath('drivers-phone-manager-review'), fullPage: true });
+    await screenshot(mp, 'drivers-phone-manager-review', { fullPage: true });
     await mp.getByTestId('review-report').first().getByRole('button', { name: 'Accept' }).click();
     const msg = mp.getByTestId('review-message');
     await msg.waitFor();
@@ -118,19 +118,19 @@ describe('drivers on a phone (390 × 844)', () => {
     const said = text.match(/segment class [A-H] → [A-H] \(report’s estimate class [A-H]\)/)?.[0];
     expect(said, text).toBeTruthy();
     await mp.getByRole('table', { name: 'Recent decisions' }).getByText(said!).first().waitFor();
-    await mp.screenshot({ path: screenshotPath('drivers-phone-manager-accepted'), fullPage: true });
+    await screenshot(mp, 'drivers-phone-manager-accepted', { fullPage: true });
 
     const [after] = await q<{ gd_n0: number; iso_class: string; roughness_source: string }>('SELECT gd_n0, iso_class, roughness_source FROM route_segments WHERE id = ?', [seg!.id]);
     expect(after!.roughness_source).toBe('driver_report');
     expect(after!.gd_n0).toBeGreaterThan(seg!.gd_n0);
     // the manager sees the change on the segment's own page too
     await mp.goto(`${server.url}/map`);
-    await mp.screenshot({ path: screenshotPath('drivers-phone-manager-map') });
+    await screenshot(mp, 'drivers-phone-manager-map');
 
     // --- the driver sees the outcome
     await page.goto(`${server.url}/my-reports`);
     await page.getByText('Accepted', { exact: true }).first().waitFor();
-    await page.screenshot({ path: screenshotPath('drivers-phone-my-reports-accepted'), fullPage: true });
+    await screenshot(page, 'drivers-phone-my-reports-accepted', { fullPage: true });
     await driverCtx.close();
     await mgrCtx.close();
   });
@@ -155,7 +155,7 @@ describe('drivers on a phone (390 × 844)', () => {
     expect(routeName).not.toBe('');
     expect(await panel.innerText()).toMatch(/\d{2,3}\s+km away/);
     expect(await axeViolations(page)).toEqual([]);
-    await page.screenshot({ path: screenshotPath('drivers-phone-report-nearest-route') });
+    await screenshot(page, 'drivers-phone-report-nearest-route');
     await panel.getByRole('button', { name: `Report it on ${routeName}` }).click();
     const snap = page.getByTestId('snap-result');
     await snap.waitFor();
@@ -186,7 +186,7 @@ describe('drivers on a phone (390 × 844)', () => {
     await openPage(page, '/exposure', 'My vibration exposure');
     await page.getByText(/not a measurement at the seat/).waitFor();
     await page.getByText(/action 0.5 m\/s²/).first().waitFor();
-    await page.screenshot({ path: screenshotPath('drivers-phone-exposure'), fullPage: true });
+    await screenshot(page, 'drivers-phone-exposure', { fullPage: true });
     await ctx.close();
 
     const { context: mctx, page: mp } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
@@ -199,7 +199,7 @@ describe('drivers on a phone (390 × 844)', () => {
     expect(await days.locator('tbody tr').count()).toBe(15);
     const a8s = (await days.locator('tbody tr td:nth-child(3)').allInnerTexts()).map(Number);
     expect(a8s).toEqual([...a8s].sort((x, y) => y - x));
-    await mp.screenshot({ path: screenshotPath('drivers-desktop-exposure-overview'), fullPage: true });
+    await screenshot(mp, 'drivers-desktop-exposure-overview', { fullPage: true });
     await mp.getByRole('button', { name: `Show all ${above} days` }).click();
     await expect.poll(() => days.locator('tbody tr').count()).toBe(above);
     await mctx.close();
@@ -221,13 +221,13 @@ describe('drivers on a phone (390 × 844)', () => {
     await section.getByLabel('Ride limit at the seat').selectOption('daily-exposure');
     await section.getByText(/8 h a day at that level/).waitFor();
     await section.scrollIntoViewIfNeeded();
-    await section.screenshot({ path: screenshotPath('drivers-desktop-route-speed-advice') });
+    await screenshot(section, 'drivers-desktop-route-speed-advice');
     await page.goto(`${server.url}/map?segment=${seg!.id}`);
     const panel = page.getByTestId('segment-speed-advice');
     await panel.waitFor();
     expect(await panel.innerText()).toMatch(/Up to \d+ km\/h|Road needs attention/);
     expect(await panel.innerText()).toMatch(/Load: laden[\s\S]*SEAT/);
-    await page.screenshot({ path: screenshotPath('drivers-desktop-map-segment-advice') });
+    await screenshot(page, 'drivers-desktop-map-segment-advice');
     await ctx.close();
   });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { screenshotPath } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { DEMO, expectHeading, expectPath, signedInPage, openPage, openDialog, fillFields, serverAndBrowserForFile } from './helpers';
 
 const { server, browser } = serverAndBrowserForFile();
@@ -18,7 +18,7 @@ describe('vehicle and depot forms', () => {
     await fillFields(dialog, { 'Fleet number': 'TST-901', Plate: 'BK26 TST', 'Odometer [km]': '1200' });
     await dialog.getByLabel('Suspension spec').selectOption({ index: 1 });
     await dialog.getByLabel('Depot').selectOption({ index: 1 });
-    await page.screenshot({ path: screenshotPath('manager-desktop-vehicle-add') });
+    await screenshot(page, 'manager-desktop-vehicle-add');
     await dialog.getByRole('button', { name: 'Add vehicle' }).click();
 
     await expectHeading(page, 'TST-901');
@@ -30,7 +30,7 @@ describe('vehicle and depot forms', () => {
     await edit.getByLabel('Odometer [km]').fill('900');
     await edit.getByRole('button', { name: 'Save changes' }).click();
     await edit.getByText(/cannot go backwards: the recorded reading is 1,200 km/).waitFor();
-    await page.screenshot({ path: screenshotPath('manager-desktop-vehicle-odometer-error') });
+    await screenshot(page, 'manager-desktop-vehicle-odometer-error');
 
     await edit.getByLabel('Odometer [km]').fill('1850');
     await edit.getByRole('button', { name: 'Save changes' }).click();
@@ -42,7 +42,7 @@ describe('vehicle and depot forms', () => {
     await edit.getByLabel('Status').selectOption('retired');
     await edit.getByRole('button', { name: 'Save changes' }).click();
     await edit.getByText('Retire TST-901?').waitFor();
-    await page.screenshot({ path: screenshotPath('manager-desktop-vehicle-retire') });
+    await screenshot(page, 'manager-desktop-vehicle-retire');
     await edit.getByRole('button', { name: 'Retire vehicle' }).click();
     await edit.waitFor({ state: 'hidden' });
     await page.getByRole('heading', { level: 1, name: 'TST-901' }).waitFor();
@@ -79,7 +79,7 @@ describe('vehicle and depot forms', () => {
     const lon = Number(await dialog.getByLabel('Longitude [°]').inputValue());
     expect(Math.abs(lat)).toBeGreaterThan(1);
     expect(Math.abs(lon)).toBeGreaterThan(0);
-    await page.screenshot({ path: screenshotPath('manager-desktop-depot-add') });
+    await screenshot(page, 'manager-desktop-depot-add');
     await dialog.getByRole('button', { name: 'Add depot' }).click();
     await dialog.waitFor({ state: 'hidden' });
     await page.getByRole('table', { name: 'Depots' }).getByText('Testbridge yard').waitFor();

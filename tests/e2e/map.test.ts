@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { screenshotPath } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { ApiClient } from '../support/client';
 import { DEMO, expectHeading, settled, signedInPage, openPage, serverAndBrowserForFile } from './helpers';
 import { ROUGHNESS_CLASSES, roughnessColours } from '../../web/src/lib/roughness';
@@ -67,7 +67,7 @@ describe('the road map in the browser', () => {
     await panel.waitFor({ timeout: 10_000 });
     expect(await panel.innerText()).toMatch(/Segment \d+/);
     expect(await panel.innerText()).toContain(`Class`);
-    await page.screenshot({ path: screenshotPath('manager-desktop-map-clicked-segment') });
+    await screenshot(page, 'manager-desktop-map-clicked-segment');
     await context.close();
   });
 
@@ -114,7 +114,7 @@ describe('the road map in the browser', () => {
     const list = page.getByRole('list', { name: 'Vehicles due, by depot' });
     const firstRoute = roads.body.routes.find((r) => driven.has(r.id))!.name;
     await list.getByText(firstRoute).first().waitFor();
-    await page.screenshot({ path: screenshotPath('manager-desktop-due-map-routes'), fullPage: true });
+    await screenshot(page, 'manager-desktop-due-map-routes', { fullPage: true });
     await context.close();
   });
 
@@ -126,7 +126,7 @@ describe('the road map in the browser', () => {
       expect(box.width, name).toBeGreaterThanOrEqual(44);
       expect(box.height, name).toBeGreaterThanOrEqual(44);
     }
-    await page.screenshot({ path: screenshotPath('mechanic-phone-map') });
+    await screenshot(page, 'mechanic-phone-map');
     await context.close();
   });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { screenshotPath } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { DEMO, expectHeading, expectPath, settled, signIn, freshPage, serverAndBrowserForFile } from './helpers';
 
 const { server, browser } = serverAndBrowserForFile({ fleet: 'small' });
@@ -27,7 +27,7 @@ describe('nightly damper-duty run in the browser', () => {
     await page.getByRole('progressbar', { name: 'Progress of the run' }).waitFor({ timeout: 30_000 }).catch(() => undefined);
     await page.getByText(/trips, .* duty records, .* inspections created, .* e-mails sent/).waitFor({ timeout: 240_000 });
     await page.getByRole('table', { name: 'Job runs' }).getByText('Succeeded').waitFor();
-    await page.screenshot({ path: screenshotPath('manager-desktop-job-runs'), fullPage: true });
+    await screenshot(page, 'manager-desktop-job-runs', { fullPage: true });
 
     // the due list now holds the night's inspections, with their reasons
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Due' }).click();
@@ -37,7 +37,7 @@ describe('nightly damper-duty run in the browser', () => {
     expect(after).toBeGreaterThan(before);
     await page.getByText(/Interval rule|predicted to reach/).first().waitFor();
     await page.getByText(/never replace, inspection by a/).first().waitFor();
-    await page.screenshot({ path: screenshotPath('manager-desktop-due'), fullPage: true });
+    await screenshot(page, 'manager-desktop-due', { fullPage: true });
 
     // map mode: where the vehicles due are based
     await page.getByRole('button', { name: 'Map' }).click();
@@ -45,7 +45,7 @@ describe('nightly damper-duty run in the browser', () => {
     await page.getByText(/Brackenford North Yard: \d+ vehicles? \(/).waitFor();
     await page.waitForLoadState('networkidle');
     await settled(page);
-    await page.screenshot({ path: screenshotPath('manager-desktop-due-map'), fullPage: true });
+    await screenshot(page, 'manager-desktop-due-map', { fullPage: true });
     await page.getByRole('button', { name: 'List' }).click();
 
     // ordered by life used: one table, in the server's order (most-worn damper first)
@@ -56,7 +56,7 @@ describe('nightly damper-duty run in the browser', () => {
     const shown = (await byLife.locator('tbody tr').getByRole('link').allInnerTexts()).map((t) => t.split('\n')[0].trim());
     expect(shown).toEqual(api.items.map((i) => i.fleetNumber));
     expect(api.items[0].maxLifeUsed).toBeGreaterThanOrEqual(api.items[api.items.length - 1].maxLifeUsed ?? 0);
-    await page.screenshot({ path: screenshotPath('manager-desktop-due-by-life'), fullPage: true });
+    await screenshot(page, 'manager-desktop-due-by-life', { fullPage: true });
     await page.getByLabel('Order by').selectOption('due');
     await page.getByRole('heading', { name: /^Due now \(\d+\)$/ }).waitFor();
 
@@ -69,7 +69,7 @@ describe('nightly damper-duty run in the browser', () => {
     await page.getByRole('figure', { name: /Consumed life of the FL damper/ }).waitFor();
     await page.getByRole('heading', { name: 'Duty by route' }).waitFor();
     await page.getByText(/^Why: /).waitFor();
-    await page.screenshot({ path: screenshotPath('manager-desktop-vehicle-wear'), fullPage: true });
+    await screenshot(page, 'manager-desktop-vehicle-wear', { fullPage: true });
 
     // the outbox shows the digest sent to the manager
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Due' }).click();
@@ -80,8 +80,8 @@ describe('nightly damper-duty run in the browser', () => {
     await page.getByRole('article', { name: 'Message' }).getByText(/To manager@reboundry\.test|to manager@reboundry\.test/).waitFor();
     const body = page.frameLocator('iframe[title="HTML body"]');
     await body.getByText('Inspections now due or overdue').waitFor();
-    await page.screenshot({ path: screenshotPath('manager-desktop-outbox'), fullPage: true });
-    await page.getByRole('article', { name: 'Message' }).screenshot({ path: screenshotPath('manager-desktop-outbox-message') });
+    await screenshot(page, 'manager-desktop-outbox', { fullPage: true });
+    await screenshot(page.getByRole('article', { name: 'Message' }), 'manager-desktop-outbox-message');
     await page.getByRole('button', { name: 'Plain text' }).click();
     await page.getByText('Inspections now due or overdue').waitFor();
 
@@ -92,7 +92,7 @@ describe('nightly damper-duty run in the browser', () => {
     expect(await digestBox.isChecked()).toBe(true);
     await digestBox.click();
     await expect.poll(() => digestBox.isChecked()).toBe(false);
-    await page.screenshot({ path: screenshotPath('manager-desktop-account-email'), fullPage: true });
+    await screenshot(page, 'manager-desktop-account-email', { fullPage: true });
     expect(renderErrors).toEqual([]);
     await context.close();
   }, 300_000);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { screenshotPath } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { DEMO, choosePassword, expectHeading, expectPath, menuItems, signIn, goViaMenu, signedInPage, freshPage, submitSignIn, openDialog, fillFields, serverAndBrowserForFile } from './helpers';
 
 const { server, browser } = serverAndBrowserForFile();
@@ -29,7 +29,7 @@ describe('people (managers only)', () => {
     await dialog.getByRole('button', { name: 'Add person' }).click();
     await dialog.getByText('First password must be at least 10 characters.').waitFor();
     expect(await dialog.getByLabel('First password').evaluate((el) => el === document.activeElement)).toBe(true);
-    await page.screenshot({ path: screenshotPath('manager-desktop-people-add') });
+    await screenshot(page, 'manager-desktop-people-add');
     await dialog.getByLabel('First password').fill('quarry-lane-42');
     await dialog.getByRole('button', { name: 'Add person' }).click();
     await page.getByText('Rosa Quintero is added as a driver').waitFor();
@@ -55,7 +55,7 @@ describe('people (managers only)', () => {
 
     // Deactivate: confirm first; then the badge says so and sign-in is refused.
     const confirm = await openDialog(page, 'Deactivate Rosa Quintero', 'Deactivate Rosa Quintero?');
-    await page.screenshot({ path: screenshotPath('manager-desktop-people-deactivate') });
+    await screenshot(page, 'manager-desktop-people-deactivate');
     await confirm.getByRole('button', { name: 'Deactivate' }).click();
     await page.getByText('Rosa Quintero can no longer sign in.').waitFor();
     await row(page, 'Rosa Quintero').getByText('Deactivated').waitFor();
@@ -91,7 +91,7 @@ describe('people (managers only)', () => {
     await dialog.getByText('Temporary password must be at least 10 characters.').waitFor();
     expect(await dialog.getByLabel('Temporary password').evaluate((el) => el === document.activeElement)).toBe(true);
     await dialog.getByLabel('Temporary password').fill('harbour-road-93');
-    await page.screenshot({ path: screenshotPath('manager-desktop-people-temporary-password') });
+    await screenshot(page, 'manager-desktop-people-temporary-password');
     await dialog.getByRole('button', { name: 'Set password' }).click();
     await page.getByText(`${name} has a temporary password and is signed out everywhere.`).waitFor();
     await row(page, name).getByText('Temporary password', { exact: true }).waitFor();
@@ -115,7 +115,7 @@ describe('people (managers only)', () => {
     // keeping the temporary password is refused
     await choosePassword(page, 'harbour-road-93', 'harbour-road-93');
     await page.getByText('New password must differ from the current password.').waitFor();
-    await page.screenshot({ path: screenshotPath('driver-desktop-choose-password') });
+    await screenshot(page, 'driver-desktop-choose-password');
     await choosePassword(page, 'harbour-road-93', 'quay-side-rebound');
     await expectPath(page, '/my-vehicle');
     expect(await menuItems(page)).toContain('My vehicle');

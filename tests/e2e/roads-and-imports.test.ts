@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { screenshotPath } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { ApiClient } from '../support/client';
 import { DEMO, expectHeading, settled, goViaMenu, signedInPage, openPage, serverAndBrowserForFile } from './helpers';
 import { synthesizeProfile } from '../../server/physics/iso8608';
@@ -47,22 +47,22 @@ describe('roads, surveys and imports in the browser', () => {
     await page.waitForLoadState('networkidle');
     await settled(page);
     const before = await pixelsOf(page, '[data-testid=fleet-map]', CLASS_F);
-    await page.screenshot({ path: screenshotPath('manager-desktop-map') });
+    await screenshot(page, 'manager-desktop-map');
 
     await openPage(page, `/routes/${route.id}`, route.name);
     await page.getByLabel('Profile file (CSV)').setInputFiles({ name: 'northgate-profile.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
     await page.getByRole('button', { name: 'Preview IRI' }).click();
     await page.getByRole('table', { name: 'Survey preview' }).waitFor();
-    await page.screenshot({ path: screenshotPath('manager-desktop-survey-preview'), fullPage: true });
+    await screenshot(page, 'manager-desktop-survey-preview', { fullPage: true });
     await page.getByRole('button', { name: 'Save survey' }).click();
     await page.getByText(/Survey saved/).waitFor();
     await expect.poll(() => pixelsOf(page, '[data-testid=route-map]', CLASS_F)).toBeGreaterThan(200);
-    await page.screenshot({ path: screenshotPath('manager-desktop-route'), fullPage: true });
+    await screenshot(page, 'manager-desktop-route', { fullPage: true });
 
     await page.goto(`${server.url}/map`);
     await page.locator('[data-testid=fleet-map] canvas').first().waitFor();
     await expect.poll(() => pixelsOf(page, '[data-testid=fleet-map]', CLASS_F)).toBeGreaterThan(before + 100);
-    await page.screenshot({ path: screenshotPath('manager-desktop-map-after-survey') });
+    await screenshot(page, 'manager-desktop-map-after-survey');
     await context.close();
   });
 
@@ -82,7 +82,7 @@ describe('roads, surveys and imports in the browser', () => {
     await page.getByText('1 of 2 rows have problems').waitFor();
     await report.getByText('unknown vehicle "ZZ-404"').waitFor();
     expect(await page.getByRole('button', { name: 'Import trips' }).isDisabled()).toBe(true);
-    await page.screenshot({ path: screenshotPath('manager-desktop-trip-import'), fullPage: true });
+    await screenshot(page, 'manager-desktop-trip-import', { fullPage: true });
     await context.close();
   });
 
@@ -99,7 +99,7 @@ describe('roads, surveys and imports in the browser', () => {
     await page.waitForFunction((b) => document.querySelector('[data-testid=body-zeta]')?.textContent !== b, before);
     const after = await zeta.innerText();
     expect(parseFloat(after)).toBeGreaterThan(parseFloat(before));
-    await page.screenshot({ path: screenshotPath('manager-desktop-spec-editor'), fullPage: true });
+    await screenshot(page, 'manager-desktop-spec-editor', { fullPage: true });
     await page.getByRole('button', { name: 'Save changes' }).click();
     await page.getByText('Saved.').waitFor();
     await context.close();

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fullPageScreenshot, screenshotPath } from '../support/browser';
+import { fullPageScreenshot, screenshot } from '../support/browser';
 import { DEMO, expectHeading, expectPath, goViaMenu, menuEntries, menuItems, openMenuGroup, signedInPage, openPage, freshPage, serverAndBrowserForFile } from './helpers';
 
 const { server, browser } = serverAndBrowserForFile();
@@ -21,7 +21,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
     expect(await menuEntries(page)).toEqual(['Due', 'Fleet ▾', 'Roads ▾', 'Workshop ▾', 'Drivers ▾', 'Account']);
     // With every group closed only the pages that stand on their own are links.
     expect(await menuItems(page)).toEqual(['Due', 'Account']);
-    await page.screenshot({ path: screenshotPath('manager-desktop-menu-closed') });
+    await screenshot(page, 'manager-desktop-menu-closed');
 
     for (const [group, items] of Object.entries(MANAGER_GROUPS)) {
       expect(await openMenuGroup(page, group), `pages under ${group}`).toEqual(items.map(([label]) => label));
@@ -31,7 +31,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
     expect(await nav.locator('button[aria-expanded="true"]').allInnerTexts()).toEqual(['Drivers']);
 
     await openMenuGroup(page, 'Roads');
-    await page.screenshot({ path: screenshotPath('manager-desktop-menu-roads-open') });
+    await screenshot(page, 'manager-desktop-menu-roads-open');
     await nav.getByRole('link', { name: 'Map', exact: true }).waitFor();
 
     await openMenuGroup(page, 'Fleet');
@@ -139,9 +139,9 @@ describe('each role lands on its own page and sees only what it may use', () => 
     const nav = page.getByRole('navigation', { name: 'Main' });
     expect(await nav.evaluate((el) => el.scrollWidth <= el.clientWidth)).toBe(true);
     expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
-    await page.screenshot({ path: screenshotPath('manager-tablet-menu-closed') });
+    await screenshot(page, 'manager-tablet-menu-closed');
     await openMenuGroup(page, 'Workshop');
-    await page.screenshot({ path: screenshotPath('manager-tablet-menu-workshop-open') });
+    await screenshot(page, 'manager-tablet-menu-workshop-open');
     await context.close();
   });
 
@@ -151,7 +151,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
     expect(await menuEntries(page)).toEqual(['Due', 'Fleet ▾', 'Roads ▾', 'Workshop ▾', 'Drivers ▾', 'Account']);
     expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
     expect(await openMenuGroup(page, 'Roads')).toEqual(MANAGER_GROUPS.Roads.map(([label]) => label));
-    await page.screenshot({ path: screenshotPath('manager-phone-menu-roads-open') });
+    await screenshot(page, 'manager-phone-menu-roads-open');
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Trips', exact: true }).click();
     await expectPath(page, '/trips');
     await expectHeading(page, 'Trips');
@@ -186,7 +186,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
     await page.getByText('Your vehicle', { exact: true }).waitFor();
     await page.getByRole('heading', { name: 'Dampers' }).waitFor();
     await page.getByRole('article', { name: 'Front left damper' }).waitFor();
-    await page.screenshot({ path: screenshotPath('driver-phone-my-vehicle') });
+    await screenshot(page, 'driver-phone-my-vehicle');
     await fullPageScreenshot(page, 'driver-phone-my-vehicle-full');
 
     // Targets for a thumb: every menu item is at least 44 px tall.
@@ -203,7 +203,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
       await expectHeading(page, 'Not available for your role');
       expect(await menuItems(page)).toEqual(['My vehicle', 'Report', 'My reports', 'Exposure', 'Account']);
     }
-    await page.screenshot({ path: screenshotPath('driver-phone-not-available') });
+    await screenshot(page, 'driver-phone-not-available');
     await page.getByRole('link', { name: 'Go to your start page' }).click();
     await expectPath(page, '/my-vehicle');
     await context.close();

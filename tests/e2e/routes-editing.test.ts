@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { fullPageScreenshot, screenshotPath } from '../support/browser';
+import { fullPageScreenshot, screenshot } from '../support/browser';
 import { DEMO, expectHeading, expectPath, menuItems, signedInPage, openPage, serverAndBrowserForFile } from './helpers';
 
 const { server, browser } = serverAndBrowserForFile();
@@ -80,7 +80,7 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     await page.getByRole('button', { name: 'Save 2 speeds' }).click();
     await page.getByText('Speed must be between 5 and 130 km/h.').waitFor();
     await page.getByText(/Nothing was saved: 1 row needs a fix/).waitFor();
-    await page.screenshot({ path: screenshotPath('manager-desktop-route-speeds-error') });
+    await screenshot(page, 'manager-desktop-route-speeds-error');
     let detail = (await (await page.request.get(`${server.url}/api/routes/${route.id}`)).json()) as RouteDetailBody;
     expect(detail.segments.find((s) => s.seq === 1)?.speedKmh ?? null).not.toBe(40);
 
@@ -142,7 +142,7 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     await expectHeading(page, 'Road map');
     await page.getByTestId('fleet-map').waitFor();
     await page.waitForLoadState('networkidle');
-    await page.screenshot({ path: screenshotPath('mechanic-tablet-map') });
+    await screenshot(page, 'mechanic-tablet-map');
 
     const route = await firstRoute(page);
     await openPage(page, `/routes/${route.id}`, route.name);
@@ -164,7 +164,7 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     await page.waitForLoadState('networkidle');
     for (const heading of editControls) expect(await page.getByRole('heading', { name: heading }).count()).toBe(0);
     expect(await page.getByRole('textbox').count()).toBe(0);
-    await page.screenshot({ path: screenshotPath('driver-phone-route') });
+    await screenshot(page, 'driver-phone-route');
     await fullPageScreenshot(page, 'driver-phone-route-full');
     await context.close();
   });

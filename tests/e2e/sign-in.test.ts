@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { screenshotPath } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { DEMO, DEMO_PASSWORD, choosePassword, expectHeading, expectPath, settled, signIn, goViaMenu, signedInPage, freshPage, submitSignIn, serverAndBrowserForFile } from './helpers';
 
 const { server, browser } = serverAndBrowserForFile();
@@ -28,7 +28,7 @@ describe('sign-in', () => {
     expect(await page.getByLabel('Password').evaluate((el) => el === document.activeElement)).toBe(true);
     expect(await description(page, 'Password')).toContain('do not match');
     await expectPath(page, '/sign-in');
-    await page.screenshot({ path: screenshotPath('sign-in-desktop-wrong-password') });
+    await screenshot(page, 'sign-in-desktop-wrong-password');
     await context.close();
   });
 
@@ -42,7 +42,7 @@ describe('sign-in', () => {
     expect(await page.getByLabel('E-mail').getAttribute('aria-invalid')).toBe('true');
     expect(await description(page, 'E-mail')).toContain('E-mail is required.');
     expect(await page.getByLabel('E-mail').evaluate((el) => el === document.activeElement)).toBe(true);
-    await page.screenshot({ path: screenshotPath('sign-in-phone-empty') });
+    await screenshot(page, 'sign-in-phone-empty');
     await context.close();
   });
 
@@ -142,7 +142,7 @@ describe('account', () => {
     await form.getByRole('button', { name: 'Change password' }).click();
     await form.getByText('Current password does not match.').waitFor();
     expect(await form.getByLabel('Current password').evaluate((el) => el === document.activeElement)).toBe(true);
-    await page.screenshot({ path: screenshotPath('driver-phone-account-errors') });
+    await screenshot(page, 'driver-phone-account-errors');
 
     await form.getByLabel('Current password').fill(DEMO_PASSWORD);
     await form.getByRole('button', { name: 'Change password' }).click();

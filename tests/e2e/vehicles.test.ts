@@ -3,7 +3,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { screenshotPath } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { DEMO, expectHeading, expectPath, goViaMenu, signedInPage, serverAndBrowserForFile } from './helpers';
 
 const { server, browser } = serverAndBrowserForFile();
@@ -35,7 +35,7 @@ describe('vehicles table', () => {
     const first = await range(page, /^1–25 of \d+ vehicles$/);
     const total = Number(/of (\d+)/.exec(first)![1]);
     expect(total).toBeGreaterThan(25);
-    await page.screenshot({ path: screenshotPath('manager-desktop-vehicles'), fullPage: true });
+    await screenshot(page, 'manager-desktop-vehicles', { fullPage: true });
 
     // Paging
     const firstPage = await column(page, 0);
@@ -152,7 +152,7 @@ describe('vehicles table', () => {
     expect(await trips.locator('tbody tr').count()).toBeGreaterThan(0);
     await page.getByRole('table', { name: 'Inspections' }).waitFor();
     await page.getByRole('table', { name: 'Replaced dampers' }).waitFor();
-    await page.screenshot({ path: screenshotPath('manager-desktop-vehicle'), fullPage: true });
+    await screenshot(page, 'manager-desktop-vehicle', { fullPage: true });
 
     await page.getByRole('link', { name: 'Vehicles', exact: true }).first().click();
     await expectPath(page, '/vehicles');

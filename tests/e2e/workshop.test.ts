@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import { screenshotPath } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { TEST_NOW } from '../support/server';
 import { run as runNightly } from '../../jobs/nightly';
 import { axeViolations } from '../support/axe';
@@ -51,14 +51,14 @@ describe('workshop', () => {
     await picker.selectOption({ label: 'Tomasz Reyes' });
     await mgr.waitForResponse((r) => r.url().includes('/api/inspections') && r.request().method() === 'GET');
     await mgr.getByText(/damper replacements expected/).waitFor();
-    await mgr.screenshot({ path: screenshotPath('manager-desktop-planning'), fullPage: true });
+    await screenshot(mgr, 'manager-desktop-planning', { fullPage: true });
 
     // The mechanic, on a tablet, opens it from "My inspections".
     const { context: mecCtx, page: mec } = await signedInPage(browser, server.url, DEMO.mechanic, 'tablet');
     await expectHeading(mec, 'Workshop');
     const card = mec.getByRole('list', { name: 'My inspections' }).getByRole('link', { name: new RegExp(target.fleetNumber) });
     await card.waitFor();
-    await mec.screenshot({ path: screenshotPath('mechanic-tablet-my-inspections'), fullPage: true });
+    await screenshot(mec, 'mechanic-tablet-my-inspections', { fullPage: true });
     await card.click();
     await mec.getByRole('form', { name: 'Test-lane results' }).waitFor();
 
@@ -100,7 +100,7 @@ describe('workshop', () => {
     // A photo, checked by content on the server.
     await mec.getByLabel('Attach a file').setInputFiles({ name: 'front-left-leak.png', mimeType: 'image/png', buffer: PNG });
     await mec.getByRole('link', { name: /Photo: front-left-leak.png/ }).waitFor();
-    await mec.screenshot({ path: screenshotPath('mechanic-tablet-inspection'), fullPage: true });
+    await screenshot(mec, 'mechanic-tablet-inspection', { fullPage: true });
 
     // The replacement: both front dampers; closes the inspection.
     for (const pos of ['FL', 'FR']) {
@@ -131,13 +131,13 @@ describe('workshop', () => {
     await photo.waitFor();
     await expect.poll(() => photo.evaluate((img) => (img as HTMLImageElement).complete && (img as HTMLImageElement).naturalWidth)).toBe(1);
     expect(await axeViolations(mec)).toEqual([]);
-    await mec.screenshot({ path: screenshotPath('mechanic-tablet-work-record'), fullPage: true });
+    await screenshot(mec, 'mechanic-tablet-work-record', { fullPage: true });
     // as printed: only the sheet, without the notice and the print button
     await mec.emulateMedia({ media: 'print' });
     expect(await mec.getByText('The work record is saved').isVisible()).toBe(false);
     expect(await sheet.getByRole('button', { name: 'Print' }).isVisible()).toBe(false);
     expect(await lane.isVisible()).toBe(true);
-    await mec.screenshot({ path: screenshotPath('mechanic-print-work-record'), fullPage: true });
+    await screenshot(mec, 'mechanic-print-work-record', { fullPage: true });
     await mec.emulateMedia({ media: 'screen' });
     // opened again later by its address, it does not claim to have just been saved
     const recordUrl = mec.url();
@@ -151,7 +151,7 @@ describe('workshop', () => {
     await mgr.getByRole('table', { name: 'Predicted and measured damping by inspection' }).waitFor();
     const flRow = mgr.getByRole('table', { name: 'Damper state per corner' }).getByRole('row', { name: /^FL/ });
     await expect(flRow.innerText()).resolves.toMatch(/\b0\b/);
-    await mgr.screenshot({ path: screenshotPath('manager-desktop-vehicle-workshop'), fullPage: true });
+    await screenshot(mgr, 'manager-desktop-vehicle-workshop', { fullPage: true });
     const after = (await (await mgr.request.get(`${server.url}/api/forecast`)).json()) as { totals: { replacements: number }; items: { damperId: number; vehicleId: number; position: string }[] };
     // the replaced front pair leaves the forecast; the new dampers start with no wear
     const replaced = before.items.filter((i) => i.vehicleId === target.vehicleId && (i.position === 'FL' || i.position === 'FR')).map((i) => i.damperId);
@@ -163,10 +163,10 @@ describe('workshop', () => {
 
     await openPage(mgr, '/model-check', 'Model check');
     await mgr.getByText('Corners compared').waitFor();
-    await mgr.screenshot({ path: screenshotPath('manager-desktop-model-check'), fullPage: true });
+    await screenshot(mgr, 'manager-desktop-model-check', { fullPage: true });
     await openPage(mgr, '/damper-life', 'Damper life from the fleet');
     await mgr.getByRole('table', { name: 'Damper life per ISO 8608 road class at 80 km/h' }).waitFor();
-    await mgr.screenshot({ path: screenshotPath('manager-desktop-damper-life'), fullPage: true });
+    await screenshot(mgr, 'manager-desktop-damper-life', { fullPage: true });
     await mgrCtx.close();
     await mecCtx.close();
   }, 120_000);

@@ -46,7 +46,7 @@ export const clientSection: BenchSection = {
     const root = path.resolve(import.meta.dirname, '../../..');
     execFileSync(path.join(root, 'node_modules/.bin/vite'), ['build', '--logLevel', 'error'], { cwd: root, stdio: 'inherit' });
     const server = await startTestServer();
-    const browser = await launchBrowser();
+    const browser = await launchBrowser('full');
     const contexts: BrowserContext[] = [];
     try {
       // Sign-in page: a first visit on the slow link.
