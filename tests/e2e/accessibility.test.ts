@@ -98,6 +98,23 @@ describe('accessibility of every page, for each role (axe-core)', () => {
     }, 300_000);
   }
 
+  it('when a page carries an unlabelled image, a nameless button, faint text and a field without a label, then the check names each (so a clean sweep means something)', async () => {
+    const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
+    await page.getByRole('heading', { level: 1, name: 'Due inspections' }).waitFor();
+    await page.evaluate(() => {
+      const planted = document.createElement('section');
+      planted.setAttribute('aria-label', 'planted faults');
+      // image without alt text, icon button without a name, #aaa on white (2.3:1), input without label
+      planted.innerHTML =
+        '<img src="/favicon.svg" width="16" height="16"><button type="button"><svg width="10" height="10"></svg></button>' +
+        '<p style="color:#aaa;background:#fff">Faint text</p><input type="text">';
+      document.querySelector('main')!.append(planted);
+    });
+    const rules = (await axeViolations(page)).map((v) => v.split(' ')[0]);
+    expect(rules).toEqual(expect.arrayContaining(['image-alt', 'button-name', 'color-contrast', 'label']));
+    await context.close();
+  });
+
   it('when a manager moves to another page through the menu, then focus lands on that page’s heading', async () => {
     const { context, page } = await signedInPage(browser, server.url, DEMO.manager, 'desktop');
     await page.getByRole('heading', { level: 1, name: 'Due inspections' }).waitFor();
