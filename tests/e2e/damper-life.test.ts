@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { QueryTypes } from 'sequelize';
-import { fullPageScreenshot, launchBrowser, screenshot, type ViewportName } from '../support/browser';
+import { launchBrowser, screenshot, type ViewportName } from '../support/browser';
 import { axeViolations } from '../support/axe';
 import { startTestServer, type TestServer } from '../support/server';
 import { DEMO, expectHeading, expectPath, signedInPage, openPage } from './helpers';
@@ -105,7 +105,7 @@ describe('damper life in the browser', () => {
     }
     expect(await page.getByRole('main').innerText()).not.toMatch(/from memory/i);
     expect(await axeViolations(page)).toEqual([]);
-    await fullPageScreenshot(page, 'manager-desktop-vehicle-page');
+    await screenshot(page, 'manager-desktop-vehicle-page', { fullPage: true });
     await context.close();
   }, 120_000);
 

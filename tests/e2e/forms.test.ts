@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
-import { fullPageScreenshot } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { DEMO, signedInPage, serverAndBrowserForFile } from './helpers';
 
 const { server, browser } = serverAndBrowserForFile();
@@ -41,7 +41,7 @@ describe('forms that speak plainly', () => {
     const described = await page.getByLabel('Adhesion FL [%]').getAttribute('aria-describedby');
     expect(await page.locator(`[id="${described!.split(' ')[0]}"]`).innerText()).toBe('Adhesion FL must be 0–100 %.');
     expect(await form.innerText()).not.toMatch(/corners\.\d|adhesionPct|invalid_type|Too big/);
-    await fullPageScreenshot(page, 'mechanic-tablet-inspection-errors');
+    await screenshot(page, 'mechanic-tablet-inspection-errors', { fullPage: true });
 
     // a value only the server can refuse comes back as a sentence on its own field
     await page.getByLabel('Adhesion FL [%]').fill('22');
@@ -91,7 +91,7 @@ describe('forms that speak plainly', () => {
     await page.getByLabel('Tyre rate [kN/m]').first().fill('');
     await page.getByText('Tyre rate is required.').first().waitFor();
     await page.getByText(/2 fields are marked in red/).waitFor();
-    await fullPageScreenshot(page, 'manager-desktop-spec-editor-errors');
+    await screenshot(page, 'manager-desktop-spec-editor-errors', { fullPage: true });
 
     await spring.fill(col('Spring rate (kN/m)').replace(/,/g, ''));
     await page.getByLabel('Tyre rate [kN/m]').first().fill(col('Tyre rate (kN/m)').replace(/,/g, ''));

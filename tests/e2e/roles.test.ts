@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fullPageScreenshot, screenshot } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { DEMO, expectHeading, expectPath, goViaMenu, menuEntries, menuItems, openMenuGroup, signedInPage, openPage, freshPage, serverAndBrowserForFile } from './helpers';
 
 const { server, browser } = serverAndBrowserForFile();
@@ -51,7 +51,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
     const inspections = page.getByRole('region', { name: 'Inspections' });
     await expect.poll(() => inspections.locator('.tabular').allInnerTexts()).toEqual([counts.overdue, counts.due, counts.next30].map(String));
     expect(counts.due + counts.next30).toBeGreaterThan(0);
-    await fullPageScreenshot(page, 'manager-desktop-fleet');
+    await screenshot(page, 'manager-desktop-fleet', { fullPage: true });
 
     for (const [link, title, shot] of [
       ['Specs', 'Suspension specs', 'manager-desktop-specs'],
@@ -62,7 +62,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
       await goViaMenu(page, link);
       await page.getByRole('heading', { level: 1, name: title }).waitFor();
       await page.waitForLoadState('networkidle');
-      await fullPageScreenshot(page, shot);
+      await screenshot(page, shot, { fullPage: true });
     }
     // A page below one in a group (a new spec) still marks its group.
     await page.goto(`${server.url}/specs/new`);
@@ -168,13 +168,13 @@ describe('each role lands on its own page and sees only what it may use', () => 
     expect(await menuEntries(page)).toEqual(['Workshop', 'Roads', 'Vehicles', 'Damper life', 'Account']);
     await page.getByRole('heading', { name: 'My inspections' }).waitFor();
     await page.getByRole('table', { name: /Vehicles/ }).getByRole('link').first().waitFor();
-    await fullPageScreenshot(page, 'mechanic-tablet-workshop');
+    await screenshot(page, 'mechanic-tablet-workshop', { fullPage: true });
 
     await page.getByRole('link', { name: /CV-108/ }).first().click();
     await page.getByRole('heading', { level: 1, name: 'CV-108' }).waitFor();
     await page.getByRole('heading', { name: 'Dampers by corner' }).waitFor();
     await page.waitForLoadState('networkidle');
-    await fullPageScreenshot(page, 'mechanic-tablet-vehicle');
+    await screenshot(page, 'mechanic-tablet-vehicle', { fullPage: true });
     await context.close();
   });
 
@@ -187,7 +187,7 @@ describe('each role lands on its own page and sees only what it may use', () => 
     await page.getByRole('heading', { name: 'Dampers' }).waitFor();
     await page.getByRole('article', { name: 'Front left damper' }).waitFor();
     await screenshot(page, 'driver-phone-my-vehicle');
-    await fullPageScreenshot(page, 'driver-phone-my-vehicle-full');
+    await screenshot(page, 'driver-phone-my-vehicle-full', { fullPage: true });
 
     // Targets for a thumb: every menu item is at least 44 px tall.
     const boxes = await page.getByRole('navigation', { name: 'Main' }).getByRole('link').evaluateAll((els) => els.map((e) => e.getBoundingClientRect().height));

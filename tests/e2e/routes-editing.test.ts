@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { fullPageScreenshot, screenshot } from '../support/browser';
+import { screenshot } from '../support/browser';
 import { DEMO, expectHeading, expectPath, menuItems, signedInPage, openPage, serverAndBrowserForFile } from './helpers';
 
 const { server, browser } = serverAndBrowserForFile();
@@ -53,7 +53,7 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     const previewText = await preview.innerText();
     const previewSegments = Number(/in ([\d,]+) segments?/.exec(previewText)![1].replace(/,/g, ''));
     expect(previewSegments).toBeGreaterThan(1);
-    await fullPageScreenshot(page, 'manager-desktop-route-draw');
+    await screenshot(page, 'manager-desktop-route-draw', { fullPage: true });
 
     await page.getByRole('button', { name: 'Save route' }).click();
     await expectHeading(page, 'Drawn test loop');
@@ -91,7 +91,7 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     expect(detail.segments.find((s) => s.seq === 0)?.speedKmh).toBe(35);
     expect(detail.segments.find((s) => s.seq === 1)?.speedKmh).toBe(40);
     expect(detail.segments.find((s) => s.seq === 2)?.speedKmh).toBeNull();
-    await fullPageScreenshot(page, 'manager-desktop-route-page');
+    await screenshot(page, 'manager-desktop-route-page', { fullPage: true });
 
     // Clearing a row puts the segment back on the route's speed.
     await first.fill('');
@@ -108,7 +108,7 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     await page.getByRole('link', { name: 'All segments' }).click();
     await expectHeading(page, 'Segments');
     await page.getByText(/^1–25 of [\d,]+ segments$/).waitFor();
-    await fullPageScreenshot(page, 'manager-desktop-segments');
+    await screenshot(page, 'manager-desktop-segments', { fullPage: true });
 
     const rows = page.getByRole('table', { name: /^Segments/ }).locator('tbody tr');
     const column = (n: number) => rows.locator(`td:nth-child(${n})`).allInnerTexts();
@@ -152,7 +152,7 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     for (const heading of editControls) expect(await page.getByRole('heading', { name: heading }).count()).toBe(0);
     expect(await page.getByRole('textbox').count()).toBe(0);
     expect(await page.getByRole('button', { name: /Save|Upload|Set roughness|Preview/ }).count()).toBe(0);
-    await fullPageScreenshot(page, 'mechanic-tablet-route');
+    await screenshot(page, 'mechanic-tablet-route', { fullPage: true });
     await context.close();
   });
 
@@ -165,7 +165,7 @@ describe('routes: drawing, speeds, segments, and reading without edit rights', (
     for (const heading of editControls) expect(await page.getByRole('heading', { name: heading }).count()).toBe(0);
     expect(await page.getByRole('textbox').count()).toBe(0);
     await screenshot(page, 'driver-phone-route');
-    await fullPageScreenshot(page, 'driver-phone-route-full');
+    await screenshot(page, 'driver-phone-route-full', { fullPage: true });
     await context.close();
   });
 });

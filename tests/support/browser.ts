@@ -80,17 +80,21 @@ export function screenshotPath(name: string): string {
   return path.join(SCREENSHOT_DIR, `${name}.png`);
 }
 
-/** Saves a named screenshot of a page (of its viewport unless `fullPage`) or of one element, when screenshots are wanted. */
+/**
+ * Saves a named screenshot, when screenshots are wanted: of one element, of a page's viewport, or
+ * with `fullPage` of the whole page. The app's header (and the phone's bottom menu) stay pinned
+ * while scrolling, which in a full-page capture paints them wherever the page happened to be
+ * scrolled; for a full page they are laid out in the flow for the capture only, then pinned again.
+ */
 export async function screenshot(target: Page | Locator, name: string, opts: { fullPage?: boolean } = {}): Promise<void> {
   if (!SCREENSHOTS_WANTED) return;
-  await target.screenshot({ path: screenshotPath(name), ...('mainFrame' in target ? opts : {}) });
-}
-
-export async function fullPageScreenshot(page: Page, name: string): Promise<void> {
-  if (!SCREENSHOTS_WANTED) return;
-  const style = await page.addStyleTag({ content: '[data-pinned]{position:static !important}' });
+  if (!('mainFrame' in target) || !opts.fullPage) {
+    await target.screenshot({ path: screenshotPath(name) });
+    return;
+  }
+  const style = await target.addStyleTag({ content: '[data-pinned]{position:static !important}' });
   try {
-    await page.screenshot({ path: screenshotPath(name), fullPage: true });
+    await target.screenshot({ path: screenshotPath(name), fullPage: true });
   } finally {
     await style.evaluate((el) => (el as Element).remove());
   }
