@@ -372,24 +372,31 @@ export function runCommand(argv: string[]): unknown {
   }
 }
 
+/** Where {@link main} prints: the process's streams, or a test's capture. */
+export interface CliOutput {
+  stdout: { write(text: string): unknown };
+  stderr: { write(text: string): unknown };
+}
+
 /**
  * Entry point: run the command in `argv`, print JSON to stdout or the error to stderr.
  * @param argv arguments after the script name
+ * @param io the streams to print to (default: the process's own)
  * @returns process exit code (0 ok, 1 invalid data, 2 usage)
  * @example
  * main(['modes', '--spec', 'corner.json']); // → 0, prints {"bodyHz":…}
  */
-export function main(argv: string[]): number {
+export function main(argv: string[], io: CliOutput = process): number {
   try {
     const result = runCommand(argv);
-    process.stdout.write(`${JSON.stringify(result)}\n`);
+    io.stdout.write(`${JSON.stringify(result)}\n`);
     return 0;
   } catch (e) {
     if (e instanceof CliUsageError) {
-      process.stderr.write(`error: ${e.message}\n${USAGE}\n`);
+      io.stderr.write(`error: ${e.message}\n${USAGE}\n`);
       return 2;
     }
-    process.stderr.write(`error: ${(e as Error).message}\n`);
+    io.stderr.write(`error: ${(e as Error).message}\n`);
     return 1;
   }
 }

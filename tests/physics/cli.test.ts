@@ -5,7 +5,7 @@ import { adhesionPct } from '../../server/physics/adhesion';
 import { iriFromGd } from '../../server/physics/iri';
 import { phaseShift } from '../../server/physics/phase-shift';
 import { synthesizeProfile } from '../../server/physics/iso8608';
-import { runCli as cli, scratchFolder } from '../support/cli';
+import { runCli as cli, runCliProcess, scratchFolder } from '../support/cli';
 import { checkClose, checkThat, CAR } from './check';
 
 let scratch: ReturnType<typeof scratchFolder>;
@@ -21,6 +21,19 @@ beforeAll(() => {
 afterAll(() => scratch.remove());
 
 describe('cli', () => {
+  it('when run as the user runs it (node with the tsx loader), then its exit code and both streams are those of the entry point the other checks call', () => {
+    const spec = join(dir, 'spec.json');
+    for (const args of [['modes', '--spec', spec], ['modes', '--spec', join(dir, 'bad-spec.json')], ['frobnicate']]) {
+      const proc = runCliProcess(...args);
+      const inProc = cli(...args);
+      checkThat(
+        proc.code === inProc.code && proc.stdout === inProc.stdout && proc.stderr === inProc.stderr,
+        'cli contract: the process prints what main() prints',
+        `${args.join(' ')}: exit ${proc.code} vs ${inProc.code}, stdout "${proc.stdout}" vs "${inProc.stdout}", stderr "${proc.stderr}" vs "${inProc.stderr}"`,
+      );
+    }
+  });
+
   it('when rainflow reads the ASTM E1049 example (plain and with a value column), then it prints the published cycles as JSON', () => {
     const plain = file('astm.csv', '-2\n1\n-3\n5\n-1\n3\n-4\n4\n-2\n');
     const withHeader = file('astm-col.csv', 't,value\n0,-2\n1,1\n2,-3\n3,5\n4,-1\n5,3\n6,-4\n7,4\n8,-2\n');

@@ -1,5 +1,6 @@
 /**
- * The `life` and `life-fit` commands, run as the user runs them (a subprocess printing JSON).
+ * The `life` and `life-fit` commands through the command line's entry point (tests/physics/cli.test.ts
+ * checks that the process prints what it prints).
  * Expectations: the prior's stated convention (rated km on class B at 80 km/h, 1.5× per ISO
  * class step) and a synthetic fleet whose true life law differs from it (computed).
  */
