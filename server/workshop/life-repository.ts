@@ -5,15 +5,30 @@
  */
 import { exec, q, stamp } from './repository';
 
+/** Vehicle ids from `from` to `to`, both included. */
+export interface VehicleRange {
+  from: number;
+  to: number;
+}
+
+const inRange = (col: string, range?: VehicleRange) => (range ? ` AND ${col} BETWEEN ? AND ?` : '');
+const rangeParams = (range?: VehicleRange) => (range ? [range.from, range.to] : []);
+
 export const lifeRepository = {
-  /** Every damper ever fitted to a spec's vehicles, with its axle's rated life. */
-  specDampers(specId: number) {
+  /** The ids of a spec's vehicles, in order (the refit reads a spec in ranges of them). */
+  async specVehicleIds(specId: number): Promise<number[]> {
+    const rows = await q<{ id: number }>(`SELECT id FROM vehicles WHERE spec_id = ? ORDER BY id`, [specId]);
+    return rows.map((r) => r.id);
+  },
+
+  /** Every damper ever fitted to a spec's vehicles (those in `range` when given), with its axle's rated life. */
+  specDampers(specId: number, range?: VehicleRange) {
     return q<{ id: number; vehicle_id: number; position: string; axle_index: number; installed_at: string; removed_at: string | null; installed_odometer_km: number; end_km: number; removal_reason: string | null; rated: number }>(
       `SELECT d.id, d.vehicle_id, d.position, d.axle_index, d.installed_at, d.removed_at, d.installed_odometer_km, COALESCE(d.removed_odometer_km, v.odometer_km) AS end_km,
               d.removal_reason, a.rated_damper_life_km AS rated
        FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id JOIN spec_axles a ON a.spec_id = v.spec_id AND a.axle_index = d.axle_index
-       WHERE v.spec_id = ? ORDER BY d.id`,
-      [specId],
+       WHERE v.spec_id = ?${inRange('v.id', range)} ORDER BY d.id`,
+      [specId, ...rangeParams(range)],
     );
   },
 
@@ -22,12 +37,12 @@ export const lifeRepository = {
    * Σ km·ln(severity) of all its duty, from the running totals kept as the duty is stored
    * (duty-summary.ts): no history is read, and the per-trip retention window changes nothing.
    */
-  damperSeverityBands(specId: number) {
+  damperSeverityBands(specId: number, range?: VehicleRange) {
     return q<{ damper_id: number; band: number; km: number; lns: number }>(
       `SELECT b.damper_id, b.severity_bin AS band, b.distance_km AS km, b.km_ln_severity AS lns FROM damper_severity_bins b
-       WHERE b.damper_id IN (SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE v.spec_id = ?)
+       WHERE b.damper_id IN (SELECT d.id FROM dampers d JOIN vehicles v ON v.id = d.vehicle_id WHERE v.spec_id = ?${inRange('v.id', range)})
        ORDER BY b.damper_id, b.severity_bin`,
-      [specId],
+      [specId, ...rangeParams(range)],
     );
   },
 
@@ -35,12 +50,12 @@ export const lifeRepository = {
    * The same per vehicle corner of the spec for the duty driven with no damper fitted there (the
    * corners' duty with a damper is the sum of their dampers' bands).
    */
-  unfittedCornerSeverityBands(specId: number) {
+  unfittedCornerSeverityBands(specId: number, range?: VehicleRange) {
     return q<{ vehicle_id: number; position: string; band: number; km: number; lns: number }>(
       `SELECT b.vehicle_id, b.position, b.severity_bin AS band, b.distance_km AS km, b.km_ln_severity AS lns FROM damper_severity_bins b
-       WHERE b.damper_id = 0 AND b.vehicle_id IN (SELECT id FROM vehicles WHERE spec_id = ?)
+       WHERE b.damper_id = 0 AND b.vehicle_id IN (SELECT id FROM vehicles WHERE spec_id = ?${inRange('id', range)})
        ORDER BY b.vehicle_id, b.position, b.severity_bin`,
-      [specId],
+      [specId, ...rangeParams(range)],
     );
   },
 

@@ -32,7 +32,7 @@ import {
   type LifeUnit,
 } from '../reliability/life-model';
 import { fitWeibull, weibullPlotPoints, type LifeObservation, type WeibullFit } from '../reliability/weibull';
-import { lifeRepository } from './life-repository';
+import { lifeRepository, type VehicleRange } from './life-repository';
 import { workshopRepository } from './repository';
 
 import { CENSORED_REASONS, WEAR_REASONS, type Backtest, type BacktestPoint } from '../contracts/workshop';
@@ -68,8 +68,12 @@ export interface DamperLife {
  * Every damper of a spec with its life and road mix (see module doc). `read.bandRows` is added
  * the severity totals read (the rows a refit reads besides the dampers).
  */
-export async function damperLives(specId: number, read?: { bandRows: number }): Promise<DamperLife[]> {
-  const [dampers, own, unfitted] = await Promise.all([lifeRepository.specDampers(specId), lifeRepository.damperSeverityBands(specId), lifeRepository.unfittedCornerSeverityBands(specId)]);
+export async function damperLives(specId: number, read?: { bandRows: number }, range?: VehicleRange): Promise<DamperLife[]> {
+  const [dampers, own, unfitted] = await Promise.all([
+    lifeRepository.specDampers(specId, range),
+    lifeRepository.damperSeverityBands(specId, range),
+    lifeRepository.unfittedCornerSeverityBands(specId, range),
+  ]);
   if (read) read.bandRows += own.length + unfitted.length;
   const ownOf = new Map<number, ExposureRow[]>();
   for (const r of own) {
@@ -118,12 +122,32 @@ export async function damperLives(specId: number, read?: { bandRows: number }): 
 
 const toUnit = (d: DamperLife): LifeUnit => ({ rows: d.rows, failed: d.failed, ratedKm: d.ratedKm });
 
+/** Vehicles whose dampers the refit reads at once: what it holds besides the fit's own units. */
+export const REFIT_VEHICLES_PER_READ = 2000;
+
+/**
+ * The fit's units of a spec (dampers with a life, in damper order), read in ranges of
+ * {@link REFIT_VEHICLES_PER_READ} vehicles: a damper's road mix needs only its own vehicle's
+ * records, so the ranges give the units {@link damperLives} gives, while the dampers' rows as
+ * read and the per-corner sums are held for one range at a time, not for the whole spec.
+ */
+export async function specLifeUnits(specId: number, read?: { bandRows: number }, vehiclesPerRead = REFIT_VEHICLES_PER_READ): Promise<LifeUnit[]> {
+  const vehicles = await lifeRepository.specVehicleIds(specId);
+  const units: { id: number; unit: LifeUnit }[] = [];
+  for (let i = 0; i < vehicles.length; i += vehiclesPerRead) {
+    const range = { from: vehicles[i], to: vehicles[Math.min(vehicles.length, i + vehiclesPerRead) - 1] };
+    for (const d of await damperLives(specId, read, range)) if (d.lifeKm > 0) units.push({ id: d.id, unit: toUnit(d) });
+  }
+  // damper order, as one read of the whole spec gives them (the fit's sums add in this order)
+  units.sort((a, b) => a.id - b.id);
+  return units.map((u) => u.unit);
+}
+
 /** Refits every spec's life model to its dampers and stores it; returns spec id → model. */
 export async function refitLifeModels(settings: LifeSettings, now: Date, read?: { bandRows: number }): Promise<Map<number, LifeModel>> {
   const out = new Map<number, LifeModel>();
   for (const s of await workshopRepository.specs()) {
-    const lives = await damperLives(s.id, read);
-    const m = fitLifeModel(lives.filter((d) => d.lifeKm > 0).map(toUnit), settings.prior);
+    const m = fitLifeModel(await specLifeUnits(s.id, read), settings.prior);
     out.set(s.id, m);
     await lifeRepository.storeModel(s.id, JSON.stringify(modelToJson(m)), m.failures, m.suspensions, now);
   }

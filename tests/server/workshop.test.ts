@@ -370,4 +370,21 @@ describe('life used by the nightly job', () => {
     }
     expect(fitted, 'the demo fleet has a spec with removals for wear').toBeGreaterThan(0);
   });
+
+  it('when the refit reads a spec a few vehicles at a time, then it fits the units one read of the whole spec gives, in the same order', async () => {
+    const { damperLives, specLifeUnits } = await import('../../server/workshop/life');
+    let compared = 0;
+    const specs = await srv.db.sequelize.query<{ id: number }>('SELECT id FROM suspension_specs ORDER BY id', { type: 'SELECT' as never });
+    for (const spec of specs) {
+      const whole = { bandRows: 0 };
+      const expected = (await damperLives(spec.id, whole)).filter((d) => d.lifeKm > 0).map((d) => ({ rows: d.rows, failed: d.failed, ratedKm: d.ratedKm }));
+      for (const perRead of [1, 3]) {
+        const read = { bandRows: 0 };
+        expect(await specLifeUnits(spec.id, read, perRead)).toEqual(expected);
+        expect(read.bandRows).toBe(whole.bandRows);
+      }
+      compared += expected.length;
+    }
+    expect(compared, 'the demo fleet has dampers with a life').toBeGreaterThan(10);
+  });
 });
