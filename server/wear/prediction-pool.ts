@@ -1,6 +1,6 @@
 /**
  * Runs the prediction phase's per-damper work (prediction-rows.ts `packPredictions`, pure) in
- * the job's own thread or on one worker thread, so the job's thread is free to read the next
+ * the job's own thread or on worker threads, so the job's thread is free to read the next
  * chunk and write the last one meanwhile. The result is the same either way.
  */
 import { Worker } from 'node:worker_threads';
@@ -19,16 +19,17 @@ export const inProcessPredictionRunner = (): PredictionRunner => ({ workers: 0, 
 
 const READY_TIMEOUT_MS = 30_000;
 
-/**
- * A runner on a worker thread when `workers` > 0, else in the calling thread. If the thread
- * cannot be started, packs in the calling thread and says why in `fallback`.
- */
-export async function createPredictionRunner(workers: number): Promise<{ runner: PredictionRunner; fallback: string | null }> {
-  if (workers <= 0) return { runner: inProcessPredictionRunner(), fallback: null };
+/** One started prediction thread and the chunks it has in hand. */
+interface PredictionThread {
+  worker: Worker;
+  pending: Map<number, { resolve: (p: PackedPredictions) => void; reject: (e: Error) => void }>;
+  dead: Error | null;
+}
+
+/** Starts one prediction thread; resolves when it says it is ready. */
+async function startThread(): Promise<PredictionThread> {
   const worker = new Worker(new URL('./duty-worker-boot.mjs', import.meta.url), { workerData: { entry: new URL('./prediction-worker.ts', import.meta.url).href } });
-  const pending = new Map<number, { resolve: (p: PackedPredictions) => void; reject: (e: Error) => void }>();
-  let dead: Error | null = null;
-  let nextId = 1;
+  const t: PredictionThread = { worker, pending: new Map(), dead: null };
   const ready = new Promise<void>((resolve, reject) => {
     const timer = setTimeout(() => reject(new Error('the prediction worker did not start in time')), READY_TIMEOUT_MS);
     worker.on('message', (msg: FromPredictionWorker) => {
@@ -37,42 +38,64 @@ export async function createPredictionRunner(workers: number): Promise<{ runner:
         resolve();
         return;
       }
-      const p = pending.get(msg.id);
+      const p = t.pending.get(msg.id);
       if (!p) return;
-      pending.delete(msg.id);
+      t.pending.delete(msg.id);
       if (msg.type === 'failed') p.reject(new Error(msg.message));
       else p.resolve(msg.packed);
     });
     const fail = (err: Error) => {
       clearTimeout(timer);
-      dead ??= err;
+      t.dead ??= err;
       reject(err);
-      for (const p of pending.values()) p.reject(err);
-      pending.clear();
+      for (const p of t.pending.values()) p.reject(err);
+      t.pending.clear();
     };
     worker.on('error', fail);
     worker.on('exit', (code) => fail(new Error(`the prediction worker stopped (exit code ${code})`)));
   });
-  const close = async () => {
-    worker.removeAllListeners('exit');
-    await worker.terminate();
-  };
   try {
     await ready;
   } catch (err) {
-    await close();
-    return { runner: inProcessPredictionRunner(), fallback: `the prediction worker thread could not start, predicting in the job's thread: ${(err as Error).message}` };
+    await stopThread(t);
+    throw err;
   }
+  return t;
+}
+
+async function stopThread(t: PredictionThread) {
+  t.worker.removeAllListeners('exit');
+  await t.worker.terminate();
+}
+
+/**
+ * A runner on `workers` threads when `workers` > 0, else in the calling thread. Each chunk goes
+ * to the thread with the fewest chunks in hand, so two chunks in flight keep two threads busy.
+ * If no thread can be started, packs in the calling thread and says why in `fallback`.
+ */
+export async function createPredictionRunner(workers: number): Promise<{ runner: PredictionRunner; fallback: string | null }> {
+  if (workers <= 0) return { runner: inProcessPredictionRunner(), fallback: null };
+  const started = await Promise.allSettled(Array.from({ length: workers }, () => startThread()));
+  const threads = started.flatMap((r) => (r.status === 'fulfilled' ? [r.value] : []));
+  const failure = started.find((r): r is PromiseRejectedResult => r.status === 'rejected');
+  const close = async () => {
+    await Promise.all(threads.map(stopThread));
+  };
+  if (!threads.length) {
+    return { runner: inProcessPredictionRunner(), fallback: `the prediction worker thread could not start, predicting in the job's thread: ${(failure!.reason as Error).message}` };
+  }
+  let nextId = 1;
   return {
-    fallback: null,
+    fallback: failure ? `${workers - threads.length} of ${workers} prediction threads could not start, predicting on ${threads.length}: ${(failure.reason as Error).message}` : null,
     runner: {
-      workers: 1,
+      workers: threads.length,
       pack(chunk) {
-        if (dead) return Promise.reject(dead);
+        const t = threads.reduce((a, b) => (b.pending.size < a.pending.size ? b : a));
+        if (t.dead) return Promise.reject(t.dead);
         const id = nextId++;
         return new Promise((resolve, reject) => {
-          pending.set(id, { resolve, reject });
-          worker.postMessage({ id, chunk } satisfies ToPredictionWorker);
+          t.pending.set(id, { resolve, reject });
+          t.worker.postMessage({ id, chunk } satisfies ToPredictionWorker);
         });
       },
       close,

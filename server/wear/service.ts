@@ -305,8 +305,8 @@ export async function recomputeWear(ctx: PhaseContext) {
 
 /**
  * Phase 3: predict every fitted damper (or those of `ctx.vehicleIds`) as of the run's day. Each
- * chunk's predictions are worked out and packed on a worker thread when the duty has threads
- * (`ctx.dutyWorkers` > 0) and the whole fleet is predicted, else in this thread; the same rows
+ * chunk's predictions are worked out and packed on worker threads (as many as the duty has,
+ * `ctx.dutyWorkers` > 0) when the whole fleet is predicted, else in this thread; the same rows
  * either way (prediction-rows.ts).
  */
 export async function predictAll(ctx: PhaseContext) {
@@ -354,14 +354,18 @@ export async function predictAll(ctx: PhaseContext) {
       ctx.thresholdFraction,
       ctx.asOf,
     );
-    const packed = await runner.pack({
+    // not awaited here: the next chunk is read while this one is packed, so with two threads
+    // two chunks are packed at once; the write awaits it
+    const packing = runner.pack({
       lives,
       jobs: inputs.map(({ c, opts, life }) => ({ damperId: c.id, vehicleId: c.vehicleId, opts, life, summary: summaries.get(c.id) ?? null })),
     });
-    return { lastId: ids[ids.length - 1], packed, errors };
+    packing.catch(() => {}); // awaited by the write; not an unhandled rejection if the phase stops first
+    return { lastId: ids[ids.length - 1], packing, errors };
   };
   try {
-    await readAheadWriteBehind(ctx.signal, read, async ({ packed, errors }) => {
+    await readAheadWriteBehind(ctx.signal, read, async ({ packing, errors }) => {
+      const packed = await packing;
       ctx.errors.push(...errors, ...packed.errors);
       await repo.storePredictions(packed);
       done += packed.count;

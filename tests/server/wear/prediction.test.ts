@@ -100,4 +100,18 @@ describe('predictions packed for the database', () => {
       await runner.close();
     }
   }, 60_000);
+
+  it('when several chunks are packed at once on two threads, then each answer is its own chunk\'s', async () => {
+    const { runner, fallback } = await createPredictionRunner(2);
+    try {
+      expect(fallback).toBeNull();
+      expect(runner.workers).toBe(2);
+      const chunks = [0, 1, 2, 3].map((k) => ({ ...chunk, jobs: chunk.jobs.map((j) => ({ ...j, damperId: j.damperId + 100 * k, opts: { ...j.opts, untrackedKm: 1000 * k } })) }));
+      const packed = await Promise.all(chunks.map((c) => runner.pack(c)));
+      expect(packed).toEqual(chunks.map((c) => packPredictions(c)));
+      expect(new Set(packed.map((p) => p.predictions)).size).toBe(4);
+    } finally {
+      await runner.close();
+    }
+  }, 60_000);
 });
