@@ -53,6 +53,8 @@ export interface NightlyOptions {
   failAfterBatches?: number;
   /** Test hook: dampers per chunk of the wear and prediction phases. */
   damperChunk?: number;
+  /** Test hook: vehicles per read of the scheduling phase. */
+  scheduleChunk?: number;
   /** Test hook: fail after folding this many days of old per-trip duty. */
   failAfterFoldDays?: number;
   /** Wall clock for the run row, lock and heartbeat (default: the real clock). */
@@ -161,7 +163,7 @@ async function execute(opts: NightlyOptions, runId: number, asOf: string, wall: 
     await foldOldDuty(ctx);
     if (opts.signal?.aborted) throw new RunAborted();
     await progress('scheduling', 0, 1);
-    await runSchedule({ sequelize: db.sequelize, now: opts.now, asOf, timeZone: config.timeZone, rules: config.inspection, runId, errors, counts });
+    await runSchedule({ sequelize: db.sequelize, now: opts.now, asOf, timeZone: config.timeZone, rules: config.inspection, runId, errors, counts, vehiclesPerRead: opts.scheduleChunk });
     if (opts.signal?.aborted) throw new RunAborted();
     await progress('mail', 0, 1);
     const mailCtx = { sequelize: db.sequelize, publicUrl: config.publicUrl, asOf, now: opts.now, runId };

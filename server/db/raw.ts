@@ -281,5 +281,22 @@ export async function insertPackedRows(
   await flush();
 }
 
+/** Vehicle ids from `from` to `to`, both included: the phases that read the fleet a part at a time read it in these. */
+export interface VehicleRange {
+  from: number;
+  to: number;
+}
+
+/** ` AND <col> BETWEEN ? AND ?` for a range (nothing without one), with {@link rangeParams} as its parameters. */
+export const inRange = (col: string, range?: VehicleRange) => (range ? ` AND ${col} BETWEEN ? AND ?` : '');
+export const rangeParams = (range?: VehicleRange) => (range ? [range.from, range.to] : []);
+
+/** Consecutive ranges of `ids` (sorted), `size` ids each: together they cover every id of the list. */
+export function idRanges(ids: readonly number[], size: number): VehicleRange[] {
+  const out: VehicleRange[] = [];
+  for (let i = 0; i < ids.length; i += size) out.push({ from: ids[i], to: ids[Math.min(ids.length, i + size) - 1] });
+  return out;
+}
+
 /** A comma-separated list of integer ids for an `IN (…)` clause (`NULL` when empty). */
 export const inList = (ids: readonly number[]) => ids.map((n) => Math.trunc(Number(n))).join(',') || 'NULL';

@@ -4,6 +4,7 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { sqlDate } from '../wear/repository';
 import { sqlFor } from '../db/dialect';
+import { inRange, rangeParams, type VehicleRange } from '../db/raw';
 import type { CornerForecast, FollowUp } from './schedule';
 import type { DueInspection, OpenInspectionStatus } from '../contracts/inspections';
 
@@ -33,16 +34,23 @@ export function inspectionRepository(sequelize: Sequelize) {
     sequelize.query<T>(sql, { replacements: replacements as never, type: QueryTypes.SELECT, transaction });
 
   return {
-    async vehicles() {
+    /** Every vehicle's id, in order (the scheduling reads the fleet in ranges of them). */
+    async vehicleIds(): Promise<number[]> {
+      return (await q<{ id: number }>(`SELECT id FROM vehicles ORDER BY id`)).map((r) => r.id);
+    },
+
+    async vehicles(range?: VehicleRange) {
       return q<{ id: number; fleet_number: string; odometer_km: number; commissioned_at: string | null; depot_id: number }>(
-        `SELECT id, fleet_number, odometer_km, commissioned_at, depot_id FROM vehicles WHERE status != 'retired' ORDER BY id`,
+        `SELECT id, fleet_number, odometer_km, commissioned_at, depot_id FROM vehicles WHERE status != 'retired'${inRange('id', range)} ORDER BY id`,
+        rangeParams(range),
       );
     },
 
-    async forecasts(): Promise<Map<number, CornerForecast[]>> {
+    async forecasts(range?: VehicleRange): Promise<Map<number, CornerForecast[]>> {
       const rows = await q<{ vehicle_id: number; position: string; life_used_fraction: number; threshold_date: string | null; end_of_life_date: string | null; spring_damage: number; spring_threshold_date: string | null }>(
         `SELECT p.vehicle_id, d.position, p.life_used_fraction, p.threshold_date, p.end_of_life_date, p.spring_damage, p.spring_threshold_date
-         FROM damper_predictions p JOIN dampers d ON d.id = p.damper_id WHERE d.removed_at IS NULL ORDER BY p.vehicle_id, d.position`,
+         FROM damper_predictions p JOIN dampers d ON d.id = p.damper_id WHERE d.removed_at IS NULL${inRange('p.vehicle_id', range)} ORDER BY p.vehicle_id, d.position`,
+        rangeParams(range),
       );
       const out = new Map<number, CornerForecast[]>();
       for (const r of rows) {
@@ -60,11 +68,12 @@ export function inspectionRepository(sequelize: Sequelize) {
     },
 
     /** The last done inspection of each vehicle (day and odometer). */
-    async lastDone(timeZoneDay: (d: Date) => string) {
+    async lastDone(timeZoneDay: (d: Date) => string, range?: VehicleRange) {
       const rows = await q<{ vehicle_id: number; completed_at: string | null; due_date: string; odometer_km: number | null }>(
         `SELECT i.vehicle_id, i.completed_at, i.due_date, i.odometer_km FROM inspections i
-         WHERE i.status = 'done' AND i.id = (SELECT x.id FROM inspections x WHERE x.vehicle_id = i.vehicle_id AND x.status = 'done'
+         WHERE i.status = 'done'${inRange('i.vehicle_id', range)} AND i.id = (SELECT x.id FROM inspections x WHERE x.vehicle_id = i.vehicle_id AND x.status = 'done'
            ORDER BY COALESCE(x.completed_at, x.due_date) DESC, x.id DESC LIMIT 1)`,
+        rangeParams(range),
       );
       return new Map(rows.map((r) => [r.vehicle_id, { date: r.completed_at ? timeZoneDay(new Date(r.completed_at)) : r.due_date, odometerKm: r.odometer_km }]));
     },
@@ -75,13 +84,14 @@ export function inspectionRepository(sequelize: Sequelize) {
      * soon" has been replaced since. "Looked at" are the corners recorded in it with a keep
      * verdict whose damper is still the one fitted.
      */
-    async followUps(timeZoneDay: (d: Date) => string): Promise<Map<number, FollowUp>> {
+    async followUps(timeZoneDay: (d: Date) => string, range?: VehicleRange): Promise<Map<number, FollowUp>> {
       const rows = await q<{ id: number; vehicle_id: number; follow_up_on: string; results_at: string | null; completed_at: string | null; due_date: string }>(
         `SELECT i.id, i.vehicle_id, i.follow_up_on, i.results_at, i.completed_at, i.due_date FROM inspections i
-         WHERE i.status = 'done' AND i.follow_up_on IS NOT NULL
+         WHERE i.status = 'done' AND i.follow_up_on IS NOT NULL${inRange('i.vehicle_id', range)}
            AND i.id = (SELECT x.id FROM inspections x WHERE x.vehicle_id = i.vehicle_id AND x.status = 'done'
              ORDER BY COALESCE(x.completed_at, x.due_date) DESC, x.id DESC LIMIT 1)
            AND NOT EXISTS (SELECT 1 FROM inspections c WHERE c.vehicle_id = i.vehicle_id AND c."trigger" = 'follow_up' AND c.status = 'cancelled' AND c.id > i.id)`,
+        rangeParams(range),
       );
       const out = new Map<number, FollowUp>();
       if (!rows.length) return out;
@@ -108,17 +118,18 @@ export function inspectionRepository(sequelize: Sequelize) {
     },
 
     /** Distance driven per vehicle in [from, before). */
-    async distanceSince(from: Date, before: Date) {
+    async distanceSince(from: Date, before: Date, range?: VehicleRange) {
       const rows = await q<{ vehicle_id: number; km: number }>(
-        `SELECT vehicle_id, SUM(distance_km) AS km FROM trips WHERE started_at >= ? AND started_at < ? GROUP BY vehicle_id`,
-        [sqlDate(from), sqlDate(before)],
+        `SELECT vehicle_id, SUM(distance_km) AS km FROM trips WHERE started_at >= ? AND started_at < ?${inRange('vehicle_id', range)} GROUP BY vehicle_id`,
+        [sqlDate(from), sqlDate(before), ...rangeParams(range)],
       );
       return new Map(rows.map((r) => [r.vehicle_id, Number(r.km)]));
     },
 
-    async open(): Promise<OpenInspection[]> {
+    async open(range?: VehicleRange): Promise<OpenInspection[]> {
       const rows = await q<{ id: number; vehicle_id: number; due_date: string; status: string; trigger: string | null; assignee_id: number | null; reason: string; basis: string | null }>(
-        `SELECT id, vehicle_id, due_date, status, "trigger", assignee_id, reason, basis FROM inspections WHERE status IN ('scheduled', 'due', 'overdue') ORDER BY id`,
+        `SELECT id, vehicle_id, due_date, status, "trigger", assignee_id, reason, basis FROM inspections WHERE status IN ('scheduled', 'due', 'overdue')${inRange('vehicle_id', range)} ORDER BY id`,
+        rangeParams(range),
       );
       return rows.map((r) => ({
         id: r.id, vehicleId: r.vehicle_id, dueDate: r.due_date, status: r.status, trigger: r.trigger, assigneeId: r.assignee_id, reason: r.reason,

@@ -4,15 +4,9 @@
  * own recorded duty and its vehicle's corner mix), and the stored life model per spec.
  */
 import { exec, q, stamp } from './repository';
+import { inRange, rangeParams, type VehicleRange } from '../db/raw';
 
-/** Vehicle ids from `from` to `to`, both included. */
-export interface VehicleRange {
-  from: number;
-  to: number;
-}
-
-const inRange = (col: string, range?: VehicleRange) => (range ? ` AND ${col} BETWEEN ? AND ?` : '');
-const rangeParams = (range?: VehicleRange) => (range ? [range.from, range.to] : []);
+export type { VehicleRange };
 
 export const lifeRepository = {
   /** The ids of a spec's vehicles, in order (the refit reads a spec in ranges of them). */

@@ -33,6 +33,7 @@ import {
 } from '../reliability/life-model';
 import { fitWeibull, weibullPlotPoints, type LifeObservation, type WeibullFit } from '../reliability/weibull';
 import { lifeRepository, type VehicleRange } from './life-repository';
+import { idRanges } from '../db/raw';
 import { workshopRepository } from './repository';
 
 import { CENSORED_REASONS, WEAR_REASONS, type Backtest, type BacktestPoint } from '../contracts/workshop';
@@ -134,8 +135,7 @@ export const REFIT_VEHICLES_PER_READ = 2000;
 export async function specLifeUnits(specId: number, read?: { bandRows: number }, vehiclesPerRead = REFIT_VEHICLES_PER_READ): Promise<LifeUnit[]> {
   const vehicles = await lifeRepository.specVehicleIds(specId);
   const units: { id: number; unit: LifeUnit }[] = [];
-  for (let i = 0; i < vehicles.length; i += vehiclesPerRead) {
-    const range = { from: vehicles[i], to: vehicles[Math.min(vehicles.length, i + vehiclesPerRead) - 1] };
+  for (const range of idRanges(vehicles, vehiclesPerRead)) {
     for (const d of await damperLives(specId, read, range)) if (d.lifeKm > 0) units.push({ id: d.id, unit: toUnit(d) });
   }
   // damper order, as one read of the whole spec gives them (the fit's sums add in this order)

@@ -3,7 +3,10 @@ import { startTestServer, TEST_NOW } from '../support/server';
 import { cleanRunForFile, diffTables, dump, NIGHTLY_TEST_ENV } from '../support/nightly';
 import { run } from '../../jobs/nightly';
 
-/** The nightly job's duty computed on its own thread and on worker threads gives the same tables. */
+/**
+ * The nightly job's duty computed on its own thread and on worker threads gives the same tables,
+ * and so do the later phases read a few dampers or vehicles at a time.
+ */
 
 const ref = cleanRunForFile('small');
 
@@ -23,5 +26,17 @@ describe('nightly job threads', () => {
       }
     }, 240_000);
   }
-});
 
+  it('when the wear and prediction phases take 3 dampers and the scheduling 2 vehicles at a time, then the tables equal those of the run on the default chunks', async () => {
+    const D = await startTestServer({ fleet: 'small', env: NIGHTLY_TEST_ENV });
+    try {
+      const r = await run({ db: D.db, config: D.config, log: D.log, mailer: D.mailer, now: TEST_NOW, trigger: 'test', damperChunk: 3, scheduleChunk: 2 });
+      expect(r.status, JSON.stringify(r.errors)).toBe('succeeded');
+      expect(r.counts.inspectionsCreated, 'the small fleet schedules inspections').toBeGreaterThan(0);
+      expect(r.counts.inspectionsCreated).toBe(ref.counts.inspectionsCreated);
+      expect(diffTables(ref.dump, await dump(D.db))).toEqual([]);
+    } finally {
+      await D.stop();
+    }
+  }, 240_000);
+});
