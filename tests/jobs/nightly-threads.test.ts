@@ -12,31 +12,24 @@ const ref = cleanRunForFile('small');
 
 describe('nightly job threads', () => {
   // The reference ran on the default `auto` setting: at least one worker thread computes the duty.
+  // The run on the job's own thread also reads the later phases in the smallest parts: 3 dampers
+  // a chunk in the wear and prediction phases, 2 vehicles a read in the scheduling.
   for (const workers of ['0', '2']) {
-    it(`when the duty is computed on ${workers === '0' ? "the job's own thread" : `${workers} worker threads`}, then the tables equal those of the run on the default setting`, async () => {
+    const small = workers === '0';
+    it(`when the duty is computed on ${small ? "the job's own thread and the later phases read 3 dampers or 2 vehicles at a time" : `${workers} worker threads`}, then the tables equal those of the run on the default setting`, async () => {
       const D = await startTestServer({ fleet: 'small', env: { ...NIGHTLY_TEST_ENV, NIGHTLY_WORKERS: workers } });
       try {
         expect(D.config.nightlyWorkers).toBe(Number(workers));
-        const r = await run({ db: D.db, config: D.config, log: D.log, mailer: D.mailer, now: TEST_NOW, trigger: 'test' });
+        const chunks = small ? { damperChunk: 3, scheduleChunk: 2 } : {};
+        const r = await run({ db: D.db, config: D.config, log: D.log, mailer: D.mailer, now: TEST_NOW, trigger: 'test', ...chunks });
         expect(r.status, JSON.stringify(r.errors)).toBe('succeeded');
         expect(r.counts.trips).toBe(ref.counts.trips);
+        expect(r.counts.inspectionsCreated, 'the small fleet schedules inspections').toBeGreaterThan(0);
+        expect(r.counts.inspectionsCreated).toBe(ref.counts.inspectionsCreated);
         expect(diffTables(ref.dump, await dump(D.db))).toEqual([]);
       } finally {
         await D.stop();
       }
     }, 240_000);
   }
-
-  it('when the wear and prediction phases take 3 dampers and the scheduling 2 vehicles at a time, then the tables equal those of the run on the default chunks', async () => {
-    const D = await startTestServer({ fleet: 'small', env: NIGHTLY_TEST_ENV });
-    try {
-      const r = await run({ db: D.db, config: D.config, log: D.log, mailer: D.mailer, now: TEST_NOW, trigger: 'test', damperChunk: 3, scheduleChunk: 2 });
-      expect(r.status, JSON.stringify(r.errors)).toBe('succeeded');
-      expect(r.counts.inspectionsCreated, 'the small fleet schedules inspections').toBeGreaterThan(0);
-      expect(r.counts.inspectionsCreated).toBe(ref.counts.inspectionsCreated);
-      expect(diffTables(ref.dump, await dump(D.db))).toEqual([]);
-    } finally {
-      await D.stop();
-    }
-  }, 240_000);
 });

@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { DUTY_WINDOW_DAYS, levelsOf, predictFromSummary, predictionWindow, summarizeWear, type PredictOptions, type WearSummary } from '../../../server/wear/wear';
 import { packPredictions, PREDICTION_COLUMNS } from '../../../server/wear/prediction-rows';
 import { createPredictionRunner } from '../../../server/wear/prediction-pool';
+import { predictionThreads } from '../../../server/wear/service';
 
 const life = { b: 1, medianWearKm: 100_000, p10WearKm: 60_000, p90WearKm: 140_000, source: 'prior', note: 'test basis' };
 const opts = (over: Partial<PredictOptions> = {}): PredictOptions => ({
@@ -100,6 +101,10 @@ describe('predictions packed for the database', () => {
       await runner.close();
     }
   }, 60_000);
+
+  it('when the duty has threads, then the predictions take one fewer, at least one, and none when the duty has none', () => {
+    expect([0, 1, 2, 4].map(predictionThreads)).toEqual([0, 1, 1, 3]);
+  });
 
   it('when several chunks are packed at once on two threads, then each answer is its own chunk\'s', async () => {
     const { runner, fallback } = await createPredictionRunner(2);
