@@ -29,6 +29,15 @@ export type DueSort = (typeof DUE_SORTS)[number];
 const byLifeUsed = (a: DueItem, b: DueItem) =>
   (b.maxLifeUsed ?? -Infinity) - (a.maxLifeUsed ?? -Infinity) || (a.dueDate < b.dueDate ? -1 : a.dueDate > b.dueDate ? 1 : 0) || a.fleetNumber.localeCompare(b.fleetNumber);
 
+/**
+ * A query over inspections limited to a range of vehicles, driven from the range's vehicles:
+ * `FROM ${byVehicles(range)}inspections i WHERE …${byVehiclesOn('i', range)}`. CROSS JOIN keeps
+ * SQLite to that order (vehicles, then each one's inspections by the vehicle index); left to
+ * itself it takes the status index and reads every inspection of that status once per range.
+ */
+const byVehicles = (range?: VehicleRange) => (range ? 'vehicles rv CROSS JOIN ' : '');
+const byVehiclesOn = (alias: string, range?: VehicleRange) => (range ? ` AND ${alias}.vehicle_id = rv.id AND rv.id BETWEEN ? AND ?` : '');
+
 export function inspectionRepository(sequelize: Sequelize) {
   const q = <T extends object>(sql: string, replacements: unknown[] = [], transaction?: Transaction) =>
     sequelize.query<T>(sql, { replacements: replacements as never, type: QueryTypes.SELECT, transaction });
@@ -70,8 +79,8 @@ export function inspectionRepository(sequelize: Sequelize) {
     /** The last done inspection of each vehicle (day and odometer). */
     async lastDone(timeZoneDay: (d: Date) => string, range?: VehicleRange) {
       const rows = await q<{ vehicle_id: number; completed_at: string | null; due_date: string; odometer_km: number | null }>(
-        `SELECT i.vehicle_id, i.completed_at, i.due_date, i.odometer_km FROM inspections i
-         WHERE i.status = 'done'${inRange('i.vehicle_id', range)} AND i.id = (SELECT x.id FROM inspections x WHERE x.vehicle_id = i.vehicle_id AND x.status = 'done'
+        `SELECT i.vehicle_id, i.completed_at, i.due_date, i.odometer_km FROM ${byVehicles(range)}inspections i
+         WHERE i.status = 'done'${byVehiclesOn('i', range)} AND i.id = (SELECT x.id FROM inspections x WHERE x.vehicle_id = i.vehicle_id AND x.status = 'done'
            ORDER BY COALESCE(x.completed_at, x.due_date) DESC, x.id DESC LIMIT 1)`,
         rangeParams(range),
       );
@@ -86,8 +95,8 @@ export function inspectionRepository(sequelize: Sequelize) {
      */
     async followUps(timeZoneDay: (d: Date) => string, range?: VehicleRange): Promise<Map<number, FollowUp>> {
       const rows = await q<{ id: number; vehicle_id: number; follow_up_on: string; results_at: string | null; completed_at: string | null; due_date: string }>(
-        `SELECT i.id, i.vehicle_id, i.follow_up_on, i.results_at, i.completed_at, i.due_date FROM inspections i
-         WHERE i.status = 'done' AND i.follow_up_on IS NOT NULL${inRange('i.vehicle_id', range)}
+        `SELECT i.id, i.vehicle_id, i.follow_up_on, i.results_at, i.completed_at, i.due_date FROM ${byVehicles(range)}inspections i
+         WHERE i.status = 'done' AND i.follow_up_on IS NOT NULL${byVehiclesOn('i', range)}
            AND i.id = (SELECT x.id FROM inspections x WHERE x.vehicle_id = i.vehicle_id AND x.status = 'done'
              ORDER BY COALESCE(x.completed_at, x.due_date) DESC, x.id DESC LIMIT 1)
            AND NOT EXISTS (SELECT 1 FROM inspections c WHERE c.vehicle_id = i.vehicle_id AND c."trigger" = 'follow_up' AND c.status = 'cancelled' AND c.id > i.id)`,
@@ -128,7 +137,8 @@ export function inspectionRepository(sequelize: Sequelize) {
 
     async open(range?: VehicleRange): Promise<OpenInspection[]> {
       const rows = await q<{ id: number; vehicle_id: number; due_date: string; status: string; trigger: string | null; assignee_id: number | null; reason: string; basis: string | null }>(
-        `SELECT id, vehicle_id, due_date, status, "trigger", assignee_id, reason, basis FROM inspections WHERE status IN ('scheduled', 'due', 'overdue')${inRange('vehicle_id', range)} ORDER BY id`,
+        `SELECT i.id, i.vehicle_id, i.due_date, i.status, i."trigger", i.assignee_id, i.reason, i.basis FROM ${byVehicles(range)}inspections i
+         WHERE i.status IN ('scheduled', 'due', 'overdue')${byVehiclesOn('i', range)} ORDER BY i.id`,
         rangeParams(range),
       );
       return rows.map((r) => ({
