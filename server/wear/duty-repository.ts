@@ -113,11 +113,16 @@ export function dutyRepository(sequelize: Sequelize, q: WearRepoShared['q']) {
       return out;
     },
 
-    /** Unprocessed trips of the vehicles before `before`, in (vehicle, start, id) order. */
+    /**
+     * Unprocessed trips of the vehicles before `before`, in (vehicle, start, id) order. Read from
+     * the batch's vehicles, each one's trips by the (vehicle, start) index: CROSS JOIN holds
+     * SQLite to that order, which left to itself takes the processed-at index and reads every
+     * unprocessed trip of the fleet for each batch.
+     */
     async unprocessedTrips(vehicleIds: number[], before: Date, timeZone: string): Promise<Map<number, TripInput[]>> {
       const rows = await q<{ id: number; vehicle_id: number; route_id: number; driver_id: number | null; started_at: string; ended_at: string; distance_km: number; mean_speed_kmh: number; payload_kg: number | null }>(
-        `SELECT id, vehicle_id, route_id, driver_id, started_at, ended_at, distance_km, mean_speed_kmh, payload_kg FROM trips
-         WHERE processed_at IS NULL AND started_at < ? AND vehicle_id IN (${inList(vehicleIds)}) ORDER BY vehicle_id, started_at, id`,
+        `SELECT t.id, t.vehicle_id, t.route_id, t.driver_id, t.started_at, t.ended_at, t.distance_km, t.mean_speed_kmh, t.payload_kg FROM vehicles v CROSS JOIN trips t
+         WHERE t.vehicle_id = v.id AND v.id IN (${inList(vehicleIds)}) AND t.processed_at IS NULL AND t.started_at < ? ORDER BY t.vehicle_id, t.started_at, t.id`,
         [sqlDate(before)],
       );
       const out = new Map<number, TripInput[]>();
