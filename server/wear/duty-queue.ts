@@ -23,7 +23,7 @@ import crypto from 'node:crypto';
 import { Queue, QueueEvents, Worker, type Job } from 'bullmq';
 import { Redis } from 'ioredis';
 import type { DutyRunner } from './duty-pool';
-import { splitByTrips } from './duty-pool';
+import { createDutyRunner, splitByTrips } from './duty-pool';
 import { computeVehicleDuty, DutyCache, packDuty, type PackedDutyResult, type RouteInput, type VehicleWork } from './duty';
 
 /** The queue the coordinator fills and `npm run worker` empties. */
@@ -165,6 +165,26 @@ export async function createQueueDutyRunner(
     await shut();
     throw err;
   }
+}
+
+/**
+ * The nightly duty's runner: the queue's workers when `queueUrl` is set and any listen (with how
+ * many), else `threads` worker threads of this process (0 = the calling thread), with the reason
+ * in `fallback` when a queue was asked for and is not used.
+ */
+export async function dutyRunnerFor(
+  routes: Map<number, RouteInput>,
+  queueUrl: string | undefined,
+  threads: number,
+): Promise<{ runner: DutyRunner; fallback: string | null; queueWorkers?: number }> {
+  if (queueUrl) {
+    const { runner, unreachable } = await createQueueDutyRunner(routes, queueUrl);
+    if (runner) return { runner, fallback: null, queueWorkers: runner.workers };
+    const local = await createDutyRunner(routes, threads);
+    const why = unreachable ?? 'no duty worker is listening on the queue (start `npm run worker`)';
+    return { runner: local.runner, fallback: `${why}; computing the duty in this process${local.fallback ? `; ${local.fallback}` : ''}` };
+  }
+  return createDutyRunner(routes, threads);
 }
 
 /**

@@ -7,10 +7,9 @@
 import type { Sequelize } from 'sequelize';
 import type { AxleInput, RouteInput, VehicleWork } from './duty';
 import { attachProfiles } from './roughness-as-of';
-import { createDutyRunner, type DutyRunner } from './duty-pool';
-import { createQueueDutyRunner } from './duty-queue';
+import { dutyRunnerFor } from './duty-queue';
 import { estimateOpening, levelsOf, predictionWindow, type LifeBasis, type LifeResolver, type PredictOptions } from './wear';
-import { createPredictionRunner } from './prediction-pool';
+import { createPredictionRunner, predictionThreads } from './prediction-pool';
 import { priorLifeResolver } from '../workshop/life';
 import { wearRepository, type WearStart } from './repository';
 import { dutySummaryRepository, retentionStart } from './duty-summary';
@@ -137,7 +136,8 @@ export async function processTrips(ctx: PhaseContext) {
     return { works, tripCount };
   };
 
-  const { runner, fallback } = await dutyRunnerFor(ctx, routes as Map<number, RouteInput>);
+  const { runner, fallback, queueWorkers } = await dutyRunnerFor(routes as Map<number, RouteInput>, ctx.queueUrl, ctx.dutyWorkers ?? 0);
+  if (queueWorkers !== undefined) ctx.counts.queueWorkers = queueWorkers;
   if (fallback) ctx.warn?.(fallback);
   let done = 0;
   let committed = 0;
@@ -198,21 +198,6 @@ export async function processTrips(ctx: PhaseContext) {
     add(ctx.counts, 'profileSimulations', st.simulations);
     await runner.close();
   }
-}
-
-/** The queue's workers when a queue is configured and any listen; else threads of this process. */
-async function dutyRunnerFor(ctx: PhaseContext, routes: Map<number, RouteInput>): Promise<{ runner: DutyRunner; fallback: string | null }> {
-  if (ctx.queueUrl) {
-    const { runner, unreachable } = await createQueueDutyRunner(routes, ctx.queueUrl);
-    if (runner) {
-      ctx.counts.queueWorkers = runner.workers;
-      return { runner, fallback: null };
-    }
-    const local = await createDutyRunner(routes, ctx.dutyWorkers ?? 0);
-    const why = unreachable ?? 'no duty worker is listening on the queue (start `npm run worker`)';
-    return { runner: local.runner, fallback: `${why}; computing the duty in this process${local.fallback ? `; ${local.fallback}` : ''}` };
-  }
-  return createDutyRunner(routes, ctx.dutyWorkers ?? 0);
 }
 
 const WEAR_CHUNK = 2000;
@@ -302,14 +287,6 @@ export async function recomputeWear(ctx: PhaseContext) {
     await ctx.progress('wear', end, ids.length);
   });
 }
-
-/**
- * Threads packing predictions when the duty has `dutyWorkers`: one fewer, at least one. The
- * phase's slow path is the job's own thread and SQLite's (reading each chunk, writing the last),
- * so they keep a core: on 2 cores, a second packing thread made the 100 000-vehicle bench's
- * phase no faster and its peak memory 34 MB higher.
- */
-export const predictionThreads = (dutyWorkers: number) => (dutyWorkers > 0 ? Math.max(1, dutyWorkers - 1) : 0);
 
 /**
  * Phase 3: predict every fitted damper (or those of `ctx.vehicleIds`) as of the run's day. Each

@@ -4,8 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { DUTY_WINDOW_DAYS, levelsOf, predictFromSummary, predictionWindow, summarizeWear, type PredictOptions, type WearSummary } from '../../../server/wear/wear';
 import { packPredictions, PREDICTION_COLUMNS } from '../../../server/wear/prediction-rows';
-import { createPredictionRunner } from '../../../server/wear/prediction-pool';
-import { predictionThreads } from '../../../server/wear/service';
+import { createPredictionRunner, predictionThreads } from '../../../server/wear/prediction-pool';
 
 const life = { b: 1, medianWearKm: 100_000, p10WearKm: 60_000, p90WearKm: 140_000, source: 'prior', note: 'test basis' };
 const opts = (over: Partial<PredictOptions> = {}): PredictOptions => ({
