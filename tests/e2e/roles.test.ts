@@ -195,6 +195,32 @@ describe('each role lands on its own page and sees only what it may use', () => 
     await context.close();
   });
 
+  it("when a driver signs in at a desk, then the vehicle's plate, odometer, type and depot sit in one row and no word is broken across lines", async () => {
+    const { context, page } = await signedInPage(browser, server.url, DEMO.driver);
+    await expectPath(page, '/my-vehicle');
+    const facts = page.locator('dl').first();
+    await facts.getByText('Depot', { exact: true }).waitFor();
+    const columns = await facts.evaluate((el) => getComputedStyle(el).gridTemplateColumns.split(' ').length);
+    expect(columns).toBe(4);
+    // a word wrapped inside itself has its letters on two lines: two boxes for one word
+    const broken = await facts.locator('dd').evaluateAll((dds) =>
+      dds.flatMap((dd) => {
+        const text = dd.firstChild?.nodeType === Node.TEXT_NODE ? (dd.firstChild as Text) : null;
+        if (!text) return [];
+        const out: string[] = [];
+        for (const m of text.data.matchAll(/\S+/g)) {
+          const r = document.createRange();
+          r.setStart(text, m.index!);
+          r.setEnd(text, m.index! + m[0].length);
+          if (r.getClientRects().length > 1) out.push(m[0]);
+        }
+        return out;
+      }),
+    );
+    expect(broken).toEqual([]);
+    await context.close();
+  });
+
   it('when a driver opens a manager page by its address, then a plain "not available for your role" page shows', async () => {
     const { context, page } = await signedInPage(browser, server.url, DEMO.driver, 'phone');
 

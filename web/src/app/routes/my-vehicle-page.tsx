@@ -41,7 +41,8 @@ export function MyVehiclePage() {
           </div>
         </header>
         <Facts
-          className="mb-6 rounded-md border border-line bg-surface px-4 py-3.5 sm:grid-cols-2 lg:grid-cols-2"
+          className="mb-6 rounded-md border border-line bg-surface px-4 py-3.5"
+          columns="grid-cols-2 sm:grid-cols-4"
           items={[
             { label: 'Plate', value: <span className="font-mono tracking-wide">{vehicle.plate}</span> },
             { label: 'Odometer', value: formatQuantity(vehicle.odometerKm, 'km'), numeric: true },

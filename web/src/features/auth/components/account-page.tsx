@@ -14,7 +14,8 @@ export function AccountPage() {
       {user ? (
         <Section title="Details">
           <Facts
-            className="sm:grid-cols-[repeat(3,max-content)] sm:gap-x-12 lg:grid-cols-[repeat(3,max-content)]"
+            className="sm:gap-x-12"
+            columns="grid-cols-2 sm:grid-cols-[repeat(3,max-content)]"
             items={[
               { label: 'Name', value: user.name },
               { label: 'E-mail', value: user.email },
